@@ -1,0 +1,131 @@
+"""Design charts drawn from stored rows (never from solver objects), PNG and SVG.
+
+flame_speed_chart        laminar flame speed vs equivalence ratio
+thermal_thickness_chart  thermal flame thickness vs equivalence ratio
+draw_all                 both, into DIR/charts/
+
+Layout: one panel per (pressure, unburned temperature), one curve per fuel,
+oxidizer and blend fraction. Points that did not give a flame are not dropped:
+they are marked on the axis floor with their status.
+"""
+from __future__ import annotations
+
+from pathlib import Path
+
+import matplotlib
+
+matplotlib.use("Agg")
+import matplotlib.pyplot as plt  # noqa: E402
+import numpy as np  # noqa: E402
+
+from . import __version__  # noqa: E402
+from .export import resolution_label  # noqa: E402
+
+MARKERS = ("o", "s", "^", "D", "v", "P", "X", "h")
+LINESTYLES = ("-", "--", "-.", ":")
+CMAP = "viridis"  # perceptually uniform, readable with colour-vision deficiency
+
+
+def _curve_label(r: dict) -> str:
+    label = r["fuel"]
+    if r["blend_with"]:
+        label += f" + {100 * r['blend_fraction']:.0f} % {r['blend_with']}"
+    return label
+
+
+def _curves(rows: list[dict]) -> list[tuple]:
+    keys = []
+    for r in rows:
+        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
+        if k not in keys:
+            keys.append(k)
+    return keys
+
+
+def _panels(rows: list[dict]) -> list[tuple[float, float]]:
+    return sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
+
+
+def _footer(fig, study) -> None:
+    fig.text(0.01, 0.01,
+             f"{study.title} | mechanism {study.mechanism} | transport {study.transport}"
+             f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
+             f"{resolution_label(study)} | flamecharts {__version__}\n"
+             "Screening estimate, not certification: follow local codes and standards, confirm by test.",
+             fontsize=7, color="0.3", ha="left", va="bottom")
+
+
+def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str):
+    panels = _panels(rows)
+    curves = _curves(rows)
+    oxidizers = {c[1] for c in curves}
+    n = len(panels)
+    ncols = min(n, 3)
+    nrows = int(np.ceil(n / ncols))
+    fig, axes = plt.subplots(nrows, ncols, figsize=(max(10.0, 4.4 * ncols + 3.5), 3.5 * nrows + 2.0),
+                             squeeze=False, layout="constrained")
+    colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
+    handles = {}
+    for ax, (P, T) in zip(axes.flat, panels):
+        for ci, ck in enumerate(curves):
+            sel = sorted((r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == ck
+                          and r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
+                         key=lambda r: r["equivalence_ratio"])
+            good = [r for r in sel if r["status"] == "ok" and r[column] is not None]
+            label = _curve_label(sel[0]) if sel else ck[0]
+            if len(oxidizers) > 1:
+                label += f" in {ck[1]}"
+            style = dict(color=colours[ci], marker=MARKERS[ci % len(MARKERS)],
+                         linestyle=LINESTYLES[(ci // len(MARKERS)) % len(LINESTYLES)], markersize=5, lw=1.6)
+            if good:
+                h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
+                             label=label, **style)
+                handles.setdefault(label, h)
+            bad = [r for r in sel if r["status"] != "ok"]
+            if bad:
+                h = ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker="x",
+                               color=colours[ci], s=40, zorder=5, clip_on=False)
+                handles.setdefault("no flame / failed / not solved (on the axis)", h)
+        ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
+        ax.set_xlabel("Equivalence ratio φ [-]")
+        ax.set_ylabel(ylabel)
+        ax.set_ylim(bottom=0)
+        ax.grid(True, color="0.88", lw=0.7)
+    for ax in list(axes.flat)[n:]:
+        ax.set_visible(False)
+    fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
+    fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
+               frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
+    _footer(fig, study)
+    fig.get_layout_engine().set(rect=(0, 0.07, 1, 0.93))
+    return fig
+
+
+def flame_speed_chart(rows, study):
+    """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at."""
+    return _phi_chart(rows, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
+                      ("Laminar flame speed vs equivalence ratio",
+                       "How fast does each mixture's flame run? (flashback: compare with port velocity)"))
+
+
+def thermal_thickness_chart(rows, study):
+    """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
+    return _phi_chart(rows, study, "thermal_thickness_mm", 1.0, "Thermal thickness δ_T [mm]",
+                      ("Thermal flame thickness vs equivalence ratio",
+                       "How thick is each flame? δ_T = (T_b − T_u) / max|dT/dx|"))
+
+
+def draw_all(rows: list[dict], study, out_dir: Path) -> list[Path]:
+    """Draw every chart into out_dir/charts as PNG and SVG; returns the files written."""
+    charts_dir = Path(out_dir) / "charts"
+    charts_dir.mkdir(parents=True, exist_ok=True)
+    written = []
+    for name, make in (("flame_speed_vs_equivalence_ratio", flame_speed_chart),
+                       ("thermal_thickness_vs_equivalence_ratio", thermal_thickness_chart)):
+        fig = make(rows, study)
+        for ext in ("png", "svg"):
+            path = charts_dir / f"{name}.{ext}"
+            fig.savefig(path, dpi=130 if ext == "png" else None)
+            written.append(path)
+        plt.close(fig)
+    return written

@@ -1,0 +1,159 @@
+"""Command line: the only place that prints, draws progress and picks exit codes.
+
+flamecharts run CONFIG [--out DIR] [--jobs N]   solve, store, write results.csv and charts
+flamecharts check CONFIG [--out DIR]            validate a config and print the plan
+flamecharts charts DIR                          redraw results.csv and charts from the store
+
+Exit codes: 0 done (also when some flames failed; they are listed), 2 bad input or
+unusable store (one line on stderr), 130 interrupted (what finished is kept).
+"""
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import __version__
+
+
+def _parser() -> argparse.ArgumentParser:
+    ap = argparse.ArgumentParser(
+        prog="flamecharts",
+        description="Laminar flame speed and thickness over an operating window, from detailed chemistry.")
+    ap.add_argument("--version", action="version", version=f"flamecharts {__version__}")
+    sub = ap.add_subparsers(dest="command", required=True, metavar="COMMAND")
+    run = sub.add_parser("run", help="solve every point of a study, store it, write CSV and charts")
+    run.add_argument("config", help="study config (TOML)")
+    run.add_argument("--out", help="output folder (default output/<config name>/)")
+    run.add_argument("--jobs", type=int, default=None, help="worker processes (default: all cores)")
+    run.add_argument("--no-charts", action="store_true", help="skip drawing charts")
+    run.add_argument("--quiet", action="store_true", help="no progress bar")
+    chk = sub.add_parser("check", help="validate a config and print the plan without solving")
+    chk.add_argument("config", help="study config (TOML)")
+    chk.add_argument("--out", help="output folder to compare with (default output/<config name>/)")
+    ch = sub.add_parser("charts", help="redraw results.csv and the charts of a finished run from its store")
+    ch.add_argument("dir", help="output folder of a run")
+    return ap
+
+
+def _err(msg: str) -> None:
+    print(f"flamecharts: error: {msg}", file=sys.stderr)
+
+
+def _cmd_check(args) -> int:
+    from . import plan
+    from .flame import NUMERICS
+    from .runner import default_out_dir
+    from .store import DB_NAME, Store
+    from .study import load_study
+
+    study = load_study(args.config)
+    pts = plan.points(study)
+    chains = plan.chains(pts)
+    out = Path(args.out) if args.out else default_out_dir(study)
+    stored = 0
+    if (out / DB_NAME).is_file():
+        with Store(out / DB_NAME, readonly=True) as st:
+            keys = st.keys()
+        stored = sum(p.key in keys for p in pts)
+    n = NUMERICS[study.resolution]
+    print(f"Study: {study.title}")
+    print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
+    print(f"Transport: {study.transport}, thermal diffusion {'on' if study.thermal_diffusion else 'off'}; "
+          f"resolution {study.resolution} (final grid ratio/slope/curve {n.stages[-1]})")
+    print(f"Fuels: {', '.join(study.sweep_fuels)}"
+          + (f"; blended with {study.blend_with} at {', '.join(f'{f:g}' for f in study.blend_fractions)}"
+             if study.blend_with else ""))
+    print(f"Oxidizers: {', '.join(study.sweep_oxidizers)}")
+    print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
+    print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
+    print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
+    print(f"Plan: {len(pts)} points in {len(chains)} chains (longest {max(len(c.points) for c in chains)}); "
+          f"{stored} already stored in {out}, {len(pts) - stored} to solve")
+    return 0
+
+
+def _finish_outputs(study, rows, out: Path, charts: bool) -> list[Path]:
+    from .charts import draw_all
+    from .export import write_about, write_csv
+
+    files = [write_csv(rows, out / "results.csv"), write_about(study, out / "about.txt")]
+    if charts:
+        files += draw_all(rows, study, out)
+    return files
+
+
+def _cmd_run(args) -> int:
+    from tqdm import tqdm
+
+    from .runner import default_out_dir, run_study
+    from .study import load_study, save_config_copy
+
+    study = load_study(args.config)
+    out = Path(args.out) if args.out else default_out_dir(study)
+    bar = None
+
+    def progress(pr) -> None:
+        nonlocal bar
+        if args.quiet:
+            return
+        if bar is None:
+            bar = tqdm(total=pr.total, unit="flame", file=sys.stderr, dynamic_ncols=True,
+                       desc="flames", disable=None)
+        bar.update(1)
+        bar.set_postfix(failed=pr.failed, refresh=False)
+
+    try:
+        summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress)
+    except KeyboardInterrupt:
+        if bar is not None:
+            bar.close()
+        print(f"\nInterrupted. Every finished flame is stored in {out}; run the same command again "
+              "to resume.", file=sys.stderr)
+        return 130
+    if bar is not None:
+        bar.close()
+    save_config_copy(study, out)
+    files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts)
+    ok = sum(r["status"] == "ok" for r in summary.rows)
+    print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
+          f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
+          f"{summary.wall_seconds:.1f} s.")
+    for r in summary.failures[:20]:
+        print(f"  {r['status']}: {r['fuel']}"
+              + (f" + {r['blend_fraction']:g} {r['blend_with']}" if r["blend_with"] else "")
+              + f", phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+                f"{r['unburned_temperature_K']:g} K: {r['message']}")
+    if len(summary.failures) > 20:
+        print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
+    print(f"Results: {files[0]}")
+    if not args.no_charts:
+        print(f"Charts: {out / 'charts'}/")
+    print("Screening estimates, not certification: follow local codes and the applicable standards; "
+          "confirm by test.")
+    return 0
+
+
+def _cmd_charts(args) -> int:
+    from .runner import rows_from_dir
+
+    study, rows = rows_from_dir(Path(args.dir))
+    files = _finish_outputs(study, rows, Path(args.dir), charts=True)
+    print(f"Wrote {len(files)} files in {args.dir}")
+    return 0
+
+
+def main(argv: list[str] | None = None) -> int:
+    from .errors import FlamechartsError
+
+    args = _parser().parse_args(argv)
+    handlers = {"run": _cmd_run, "check": _cmd_check, "charts": _cmd_charts}
+    try:
+        return handlers[args.command](args)
+    except FlamechartsError as exc:
+        _err(str(exc))
+        return 2
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,23 @@
+"""One family of errors a user can act on.
+
+Every exception raised for bad input, a missing mechanism or an unusable store
+derives from :class:`FlamechartsError`. The command line catches this family in
+one place, prints its message as one line and exits with code 2. Anything else
+is a bug and keeps its traceback.
+"""
+
+
+class FlamechartsError(Exception):
+    """An error the user can fix: the message names the key or value and what is allowed."""
+
+
+class ConfigError(FlamechartsError):
+    """The study config cannot be read or does not describe a valid study."""
+
+
+class MechanismError(FlamechartsError):
+    """The reaction mechanism cannot be found or loaded, or lacks a species the study needs."""
+
+
+class StoreError(FlamechartsError):
+    """The results store cannot be opened, is corrupt, or belongs to another version."""

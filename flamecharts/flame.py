@@ -1,0 +1,249 @@
+"""One freely propagating premixed flame: set up, solve (fresh or warm start), measure.
+
+This is the only module that drives Cantera's 1D solver. It takes plain inputs
+(composition, temperature, pressure, settings, optionally a neighbour's profile)
+and returns plain data (numbers and numpy arrays), so it runs the same in this
+process, in a joblib worker or on a cluster worker.
+
+Numerical settings
+------------------
+Cantera's free-flame solver discretises convection with a first-order upwind
+scheme, so the flame speed converges as about 1/N with the number of grid points
+N; the thermal thickness converges much faster. The settings below were chosen by
+measuring that convergence (tests/benchmarks/grid_convergence.py; the figures are
+in DEVELOPERS.md). Each setting solves on a coarse grid first (robust, cheap) and
+then refines in stages to its final criteria.
+"""
+from __future__ import annotations
+
+import contextlib
+import io
+import time
+import warnings
+from dataclasses import dataclass, asdict
+
+import numpy as np
+
+from . import profiles
+
+#: Flames whose burned-side temperature rise is below this share of the equilibrium
+#: rise, or whose speed is below MIN_FLAME_SPEED, did not burn (solver found the cold branch).
+MIN_RISE_SHARE = 0.5
+MIN_FLAME_SPEED = 1e-3  # m/s
+
+#: Relative mismatch between the end-of-domain temperature and HP equilibrium that is
+#: reported in the point's message (the domain may be too short for slow recombination).
+T_EQ_WARN_SHARE = 0.01
+
+
+@dataclass(frozen=True)
+class Numerics:
+    """Grid settings of one flame solve.
+
+    stages : successive (ratio, slope, curve) refinement criteria of Cantera's
+        ``set_refine_criteria``; the last one is the final grid.
+    prune : Cantera's prune criterion [-]
+    width_m : initial domain width at 1 bar [m]; scaled as 1/sqrt(p) and widened by
+        Cantera's automatic solve when the flame needs it
+    max_grid_points : ceiling on grid points
+    """
+
+    label: str
+    stages: tuple[tuple[float, float, float], ...]
+    prune: float = 0.0
+    width_m: float = 0.03
+    max_grid_points: int = 5000
+
+    def as_dict(self) -> dict:
+        d = asdict(self)
+        d["stages"] = [list(s) for s in self.stages]
+        return d
+
+
+NUMERICS = {
+    "coarse": Numerics("coarse", ((3.0, 0.1, 0.2),)),
+    "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.02, 0.04))),
+    "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.02, 0.04), (2.0, 0.007, 0.014))),
+}
+
+
+class FlameError(Exception):
+    """Cantera could not solve this flame (raised inside workers, recorded as status)."""
+
+
+def _first_line(exc: BaseException) -> str:
+    for line in str(exc).splitlines():
+        s = line.strip()
+        if s and not set(s) <= set("*-=") and not s.startswith("CanteraError thrown by"):
+            return s[:300]
+    return type(exc).__name__
+
+
+def _make_flame(ct, gas, width: float, transport: str, soret: bool, numerics: Numerics):
+    f = ct.FreeFlame(gas, width=width)
+    f.set_max_grid_points(f.flame, numerics.max_grid_points)
+    f.transport_model = transport
+    if soret:
+        f.soret_enabled = True
+    return f
+
+
+def _set_criteria(f, stage, prune):
+    ratio, slope, curve = stage
+    f.set_refine_criteria(ratio=ratio, slope=slope, curve=curve, prune=min(prune, 0.5 * slope))
+
+
+def _initial_guess(ct, gas, warm: dict, P: float):
+    """A neighbour's converged profile as a Cantera SolutionArray (grid scaled for pressure)."""
+    x = np.asarray(warm["grid"], dtype=float)
+    scale = float(warm.get("P", P)) / P
+    if abs(scale - 1.0) > 1e-9:
+        x = x[0] + (x - x[0]) * scale  # flame thickness scales about as 1/p
+    Y_src = np.asarray(warm["Y"], dtype=float)
+    index = {n: i for i, n in enumerate(warm["species"])}
+    Y = np.zeros((len(x), gas.n_species))
+    for k, name in enumerate(gas.species_names):
+        if name in index:
+            Y[:, k] = Y_src[index[name]]
+    arr = ct.SolutionArray(gas, shape=len(x), extra={"grid": x, "velocity": np.asarray(warm["velocity"], float)})
+    arr.TPY = np.asarray(warm["T"], dtype=float), P, Y
+    return arr
+
+
+def _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics):
+    width = numerics.width_m / np.sqrt(max(P / 1e5, 1e-3))
+    gas.TPX = T_u, P, X
+    f = _make_flame(ct, gas, width, transport, soret, numerics)
+    _set_criteria(f, numerics.stages[0], numerics.prune)
+    f.solve(loglevel=0, auto=True)
+    for stage in numerics.stages[1:]:
+        _set_criteria(f, stage, numerics.prune)
+        f.solve(loglevel=0, refine_grid=True, auto=False)
+    return f
+
+
+def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
+    gas.TPX = T_u, P, X
+    f = _make_flame(ct, gas, numerics.width_m, transport, soret, numerics)
+    f.set_initial_guess(data=_initial_guess(ct, gas, warm, P))
+    f.P = P
+    f.inlet.T = T_u
+    f.inlet.X = X
+    _set_criteria(f, numerics.stages[-1], numerics.prune)
+    f.solve(loglevel=0, refine_grid=True, auto=False)
+    return f
+
+
+def measure(f, gas, T_u: float, P: float, X) -> dict:
+    """Measured quantities of a converged flame (SI units, plain floats)."""
+    # the flame's array properties set the shared gas object point by point, so read
+    # them all before the gas is set to the inlet and equilibrium states below
+    x = f.grid
+    T = f.T
+    S_L = float(f.velocity[0])
+    lam_u = float(f.thermal_conductivity[0])
+    rho = f.density
+    q = f.heat_release_rate
+    gas.TPX = T_u, P, X
+    rho_u, cp_u = gas.density, gas.cp_mass
+    gas.equilibrate("HP")
+    T_eq = float(gas.T)
+    return {
+        "laminar_flame_speed_m_s": S_L,
+        "thermal_thickness_m": profiles.thermal_thickness(x, T),
+        "diffusive_thickness_m": profiles.diffusive_thickness(lam_u, rho_u, cp_u, S_L),
+        "reaction_zone_thickness_m": profiles.reaction_zone_thickness(x, q),
+        "adiabatic_flame_temperature_K": float(T[-1]),
+        "equilibrium_temperature_K": T_eq,
+        "max_temperature_K": float(T.max()),
+        "expansion_ratio": profiles.expansion_ratio(rho[0], rho[-1]),
+        "unburned_density_kg_m3": float(rho_u),
+        "unburned_thermal_diffusivity_m2_s": profiles.thermal_diffusivity(lam_u, rho_u, cp_u),
+        "unburned_thermal_conductivity_W_m_K": lam_u,
+        "unburned_cp_J_kg_K": float(cp_u),
+        "grid_points": int(len(x)),
+        "domain_width_m": float(x[-1] - x[0]),
+    }
+
+
+def profile_of(f, P: float) -> dict:
+    """Plain-array profile of a converged flame, enough to warm-start a neighbour."""
+    return {
+        "grid": np.array(f.grid),
+        "T": np.array(f.T),
+        "velocity": np.array(f.velocity),
+        "Y": np.array(f.Y),
+        "species": list(f.gas.species_names),
+        "P": float(P),
+    }
+
+
+def classify(metrics: dict, T_u: float) -> tuple[str, str]:
+    """Status of a converged solution: ('ok', '') or ('no_flame', reason)."""
+    rise = metrics["max_temperature_K"] - T_u
+    eq_rise = metrics["equilibrium_temperature_K"] - T_u
+    if metrics["laminar_flame_speed_m_s"] < MIN_FLAME_SPEED or rise < MIN_RISE_SHARE * max(eq_rise, 1.0):
+        return "no_flame", (f"solver converged to a non-burning state (temperature rise {rise:.0f} K of "
+                            f"{eq_rise:.0f} K at equilibrium, speed {metrics['laminar_flame_speed_m_s']:.2g} m/s)")
+    notes = []
+    mismatch = abs(metrics["adiabatic_flame_temperature_K"] - metrics["equilibrium_temperature_K"])
+    if mismatch > T_EQ_WARN_SHARE * metrics["equilibrium_temperature_K"]:
+        notes.append(f"end-of-domain temperature differs from HP equilibrium by {mismatch:.0f} K")
+    return "ok", "; ".join(notes)
+
+
+def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numerics: Numerics,
+                warm: dict | None = None) -> dict:
+    """Solve one freely propagating flame and measure it.
+
+    Parameters
+    ----------
+    gas : cantera.Solution of the mechanism (its state is overwritten)
+    T_u : unburned temperature [K]
+    P : pressure [Pa]
+    X : unburned mixture, species -> mole fraction
+    transport : 'mixture-averaged', 'multicomponent' or 'unity-Lewis-number'
+    soret : thermal diffusion on or off
+    numerics : grid settings
+    warm : profile of a converged neighbour (from :func:`profile_of`), or None
+
+    Returns
+    -------
+    dict with 'status' ('ok', 'no_flame' or 'failed'), 'message', 'start' ('warm' or
+    'fresh'), 'metrics' (dict or None), 'profile' (dict or None), 'solve_seconds'.
+    Cantera's log output is suppressed; this function never prints.
+    """
+    import cantera as ct
+
+    t0 = time.perf_counter()
+    attempts = [("warm", warm)] if warm is not None else []
+    attempts.append(("fresh", None))
+    errors = []
+    for start, w in attempts:
+        try:
+            with warnings.catch_warnings(), contextlib.redirect_stdout(io.StringIO()):
+                warnings.simplefilter("ignore")
+                if w is None:
+                    f = _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics)
+                else:
+                    f = _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, w)
+                metrics = measure(f, gas, T_u, P, X)
+        except ct.CanteraError as exc:
+            errors.append(f"{start} start: {_first_line(exc)}")
+            continue
+        status, message = classify(metrics, T_u)
+        if status != "ok" and start == "warm":
+            errors.append(f"warm start: {message}")
+            continue  # a warm start may land on the cold branch; confirm with a fresh solve
+        if errors and status == "ok":
+            message = "; ".join(filter(None, [message, "warm start failed, solved fresh"]))
+        return {
+            "status": status, "message": message, "start": start, "metrics": metrics,
+            "profile": profile_of(f, P) if status == "ok" else None,
+            "solve_seconds": time.perf_counter() - t0,
+        }
+    return {
+        "status": "failed", "message": "solver did not converge: " + "; ".join(errors),
+        "start": "fresh", "metrics": None, "profile": None,
+        "solve_seconds": time.perf_counter() - t0,
+    }

@@ -1,0 +1,264 @@
+"""Run a study: solve every point the store lacks, in parallel, commit each as it finishes.
+
+The parent process drives the chains: a point is handed to a worker once the point
+it warm-starts from has finished, with that neighbour's profile in the task. Each
+task is one flame, so every finished flame comes back, and is committed, at once;
+idle workers take the next ready point of any chain. Workers are joblib's loky
+processes (the executor behind ``joblib.Parallel``), used through its futures
+interface because chains hand work on point by point. With ``jobs=1`` everything
+runs in this process.
+
+Workers return plain data; only the parent writes the store.
+"""
+from __future__ import annotations
+
+import os
+import time
+import uuid
+from concurrent.futures import FIRST_COMPLETED, wait
+from collections import deque
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Callable
+
+from . import plan as planmod
+from .errors import FlamechartsError
+from .flame import NUMERICS, solve_flame
+from .store import DB_NAME, RunLock, Store
+from .study import Study
+
+#: A worker that dies (killed, out of memory) costs its point this many retries.
+MAX_RETRIES = 2
+
+
+@dataclass
+class Progress:
+    """What a progress callback receives after every finished point."""
+
+    done: int
+    total: int
+    failed: int
+    reused: int
+    elapsed_s: float
+    last: dict | None = None
+
+
+@dataclass
+class RunSummary:
+    """Outcome of :func:`run_study`."""
+
+    out_dir: Path
+    rows: list[dict]
+    solved: int     # flames solved in this run (any status)
+    reused: int     # points taken from the store
+    failed: int
+    no_flame: int
+    wall_seconds: float
+    failures: list[dict] = field(default_factory=list)
+
+
+# ---------------------------------------------------------------- worker side
+_GAS_CACHE: dict = {}
+
+
+def _quiet_worker() -> None:
+    """Keep Cantera's C++ log output and warnings away from the user's terminal."""
+    devnull = os.open(os.devnull, os.O_WRONLY)
+    os.dup2(devnull, 1)
+    os.close(devnull)
+
+
+def _gas(mechanism_path: str, sha: str, transport: str):
+    import cantera as ct
+
+    key = (mechanism_path, sha, transport)
+    if key not in _GAS_CACHE:
+        _GAS_CACHE.clear()
+        model = "mixture-averaged" if transport == "unity-Lewis-number" else transport
+        _GAS_CACHE[key] = ct.Solution(mechanism_path, transport_model=model)
+    return _GAS_CACHE[key]
+
+
+def solve_task(task: dict) -> dict:
+    """Solve one point from a plain task dict; returns a plain result dict (runs in a worker)."""
+    gas = _gas(task["mechanism_path"], task["mechanism_sha256"], task["transport"])
+    result = solve_flame(gas, task["T_u"], task["P"], task["X"], task["transport"],
+                         task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"))
+    result["key"] = task["key"]
+    return result
+
+
+# ---------------------------------------------------------------- parent side
+def default_out_dir(study: Study) -> Path:
+    return Path("output") / study.name
+
+
+def _task(study: Study, p: planmod.Point, warm: dict | None) -> dict:
+    return {"key": p.key, "mechanism_path": study.mechanism_path,
+            "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
+            "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
+            "T_u": p.T_u, "P": p.P, "X": p.X_unburned, "warm": warm}
+
+
+class _InProcess:
+    """A one-worker executor that runs tasks in this process (jobs=1)."""
+
+    def submit(self, fn, arg):
+        from concurrent.futures import Future
+
+        fut = Future()
+        try:
+            fut.set_result(fn(arg))
+        except BaseException as exc:  # noqa: BLE001 - handed to the caller like a pool would
+            fut.set_exception(exc)
+        return fut
+
+    def shutdown(self, wait=True, kill_workers=False):
+        pass
+
+
+def _executor(jobs: int):
+    if jobs == 1:
+        return _InProcess()
+    from joblib.externals.loky import get_reusable_executor
+
+    return get_reusable_executor(max_workers=jobs, initializer=_quiet_worker, timeout=60)
+
+
+def resolve_jobs(jobs: int | None) -> int:
+    n = os.cpu_count() or 1
+    if jobs is None or jobs == 0:
+        return n
+    if jobs < 0:
+        return max(1, n + 1 + jobs)
+    return jobs
+
+
+def study_rows(study: Study, pts: list[planmod.Point], stored: dict[str, dict]) -> list[dict]:
+    """One flat row per point, in study order, from stored results (missing -> 'pending')."""
+    from .export import flat_row
+
+    return [flat_row(study, p, stored.get(p.key)) for p in pts]
+
+
+def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
+              progress: Callable[[Progress], None] | None = None,
+              stop_after: int | None = None) -> RunSummary:
+    """Solve every point of ``study`` that the store in ``out_dir`` lacks.
+
+    Parameters
+    ----------
+    study : validated study (see :func:`flamecharts.study.load_study`)
+    out_dir : output folder; default output/<config name>/
+    jobs : worker processes; None or 0 = all cores, negative = all but |jobs|-1
+    progress : called after each finished point with a :class:`Progress`
+    stop_after : hand out at most this many new points, then stop (simulates an interruption)
+
+    Returns
+    -------
+    RunSummary with the rows of every point (stored ones included).
+    """
+    t0 = time.perf_counter()
+    out = Path(out_dir) if out_dir is not None else default_out_dir(study)
+    try:
+        out.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise FlamechartsError(f"output folder {out} cannot be created: {exc.strerror}") from None
+    jobs = resolve_jobs(jobs)
+    pts = planmod.points(study)
+    run_id = uuid.uuid4().hex[:12]
+    with RunLock(out), Store(out / DB_NAME) as store:
+        done_keys = store.keys()
+        by_key = {p.key: p for p in pts}
+        todo = [p for p in pts if p.key not in done_keys]
+        # one solve per distinct key: two points of a study may be the same flame
+        seen, unique = set(), []
+        for p in todo:
+            if p.key not in seen:
+                seen.add(p.key)
+                unique.append(p)
+        reused = len(pts) - len(todo)
+        pred = planmod.predecessors(planmod.chains(unique))
+        successors: dict[int, list[planmod.Point]] = {}
+        ready: deque[planmod.Point] = deque()
+        for p in unique:
+            if pred[p.index] is None:
+                ready.append(p)
+            else:
+                successors.setdefault(pred[p.index], []).append(p)
+        settings = planmod.settings_of(study)
+        finished: dict[int, dict] = {}
+        retries: dict[int, int] = {}
+        in_flight: dict = {}
+        limit = stop_after if stop_after is not None else len(unique)
+        submitted = solved = failed = 0
+        executor = _executor(jobs)
+
+        def warm_for(p: planmod.Point) -> dict | None:
+            """Profile of the nearest finished, burning point up the chain."""
+            src = pred.get(p.index)
+            while src is not None:
+                prof = finished.get(src, {}).get("profile")
+                if prof is not None:
+                    return prof
+                src = pred.get(src)
+            return None
+
+        clean_exit = False
+        try:
+            while ready or in_flight:
+                while ready and len(in_flight) < jobs and submitted < limit:
+                    p = ready.popleft()
+                    in_flight[executor.submit(solve_task, _task(study, p, warm_for(p)))] = p
+                    submitted += 1
+                if not in_flight:
+                    break
+                done, _ = wait(list(in_flight), return_when=FIRST_COMPLETED)
+                for fut in done:
+                    p = in_flight.pop(fut)
+                    try:
+                        result = fut.result()
+                    except Exception as exc:  # the worker died or the task raised: retry, then record
+                        retries[p.index] = retries.get(p.index, 0) + 1
+                        if retries[p.index] <= MAX_RETRIES:
+                            ready.appendleft(p)
+                            submitted -= 1
+                            executor = _executor(jobs)
+                            continue
+                        result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
+                                  "message": f"worker error: {type(exc).__name__}: {str(exc)[:200]}",
+                                  "solve_seconds": 0.0}
+                    result["inputs"] = planmod.point_inputs(
+                        settings, p.X_fuel, p.X_oxidizer, p.phi, p.pressure_bar, p.T_u)
+                    store.commit_point(p, result, run_id)
+                    finished[p.index] = result
+                    ready.extend(successors.get(p.index, []))
+                    solved += 1
+                    failed += result["status"] != "ok"
+                    if progress is not None:
+                        progress(Progress(done=solved, total=len(unique), failed=failed, reused=reused,
+                                          elapsed_s=time.perf_counter() - t0,
+                                          last={"point": p, "status": result["status"],
+                                                "message": result["message"]}))
+            clean_exit = True
+        finally:
+            if not clean_exit:
+                executor.shutdown(wait=False, kill_workers=True)
+        stored = store.rows([p.key for p in pts])
+    rows = study_rows(study, pts, stored)
+    failures = [r for r in rows if r["status"] in ("failed", "no_flame")]
+    return RunSummary(out_dir=out, rows=rows, solved=solved, reused=reused,
+                      failed=sum(1 for r in rows if r["status"] == "failed"),
+                      no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
+                      wall_seconds=time.perf_counter() - t0, failures=failures)
+
+
+def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
+    """The study of a finished run folder and its rows, read from the store alone."""
+    from .study import load_config_copy
+
+    study = load_config_copy(out_dir)
+    pts = planmod.points(study)
+    with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
+        stored = store.rows([p.key for p in pts])
+    return study, study_rows(study, pts, stored)

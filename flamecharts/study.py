@@ -1,0 +1,385 @@
+"""Study config (TOML) -> a validated, typed :class:`Study`.
+
+Every error names the offending key, value or species and what is allowed, and is
+raised as :class:`~flamecharts.errors.ConfigError` (or MechanismError for the
+mechanism). Nothing is written while a config is read.
+
+Config keys (units in the names where the value has one)
+--------------------------------------------------------
+title                     str, shown on every chart and report
+mechanism                 any file Cantera can load; default "gri30.yaml" (ships with Cantera).
+                          A relative path is looked up beside the config, then in Cantera's data folders.
+transport                 "mixture-averaged" (default), "multicomponent" or "unity-Lewis-number"
+thermal_diffusion         bool, Soret effect; default false
+resolution                "standard" (default, meets the accuracy in DEVELOPERS.md), "fine", or
+                          "coarse" (faster, less accurate; labelled in every output)
+max_points                guard against runaway sweeps; default 10000
+[fuels] / [oxidizers]     name = { SPECIES = amount, ... }, normalised to mole fractions
+[sweep]
+  fuel, oxidizer          lists of names from [fuels] / [oxidizers]
+  blend                   { with = fuel name, fraction = [mole fractions of the fuel stream] }
+  equivalence_ratio       list, number, or { from, to, step }
+  pressure_bar            list, number, or { from, to, step }
+  unburned_temperature_K  list, number, or { from, to, step }
+"""
+from __future__ import annotations
+
+import difflib
+import hashlib
+import math
+import os
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+from .errors import ConfigError, MechanismError
+from . import mixtures
+
+TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
+RESOLUTIONS = ("standard", "fine", "coarse")
+
+TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points",
+            "fuels", "oxidizers", "sweep")
+SWEEP_KEYS = ("fuel", "oxidizer", "blend", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
+BLEND_KEYS = ("with", "fraction")
+RANGE_KEYS = ("from", "to", "step")
+
+#: Allowed open/closed ranges of the sweep axes: (low, high) with low exclusive for the
+#: quantities that must be positive. The upper limits only catch typing errors.
+AXIS_LIMITS = {
+    "equivalence_ratio": (0.0, 10.0),
+    "pressure_bar": (0.0, 500.0),
+    "unburned_temperature_K": (0.0, 2000.0),
+}
+
+MAX_CONFIG_BYTES = 1_000_000
+
+
+@dataclass(frozen=True)
+class Study:
+    """A validated study: the cartesian product of its sweep axes.
+
+    Compositions are normalised mole fractions; pressures are in bar as written by the
+    user (converted to Pa where the physics needs it), temperatures in K.
+    """
+
+    title: str
+    name: str
+    mechanism: str
+    mechanism_path: str
+    mechanism_sha256: str
+    transport: str
+    thermal_diffusion: bool
+    resolution: str
+    fuels: dict[str, dict[str, float]]
+    oxidizers: dict[str, dict[str, float]]
+    sweep_fuels: tuple[str, ...]
+    sweep_oxidizers: tuple[str, ...]
+    blend_with: str | None
+    blend_fractions: tuple[float, ...]
+    equivalence_ratios: tuple[float, ...]
+    pressures_bar: tuple[float, ...]
+    unburned_temperatures_K: tuple[float, ...]
+    atoms: dict[str, dict[str, float]] = field(repr=False)
+    max_points: int = 10000
+    config_path: str | None = None
+
+    @property
+    def n_points(self) -> int:
+        return (len(self.sweep_fuels) * len(self.sweep_oxidizers) * len(self.blend_fractions)
+                * len(self.equivalence_ratios) * len(self.pressures_bar) * len(self.unburned_temperatures_K))
+
+
+def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
+    close = difflib.get_close_matches(key, list(allowed), n=1, cutoff=0.6)
+    hint = f" (did you mean '{close[0]}'?)" if close else ""
+    return f"{hint}; allowed: {', '.join(allowed)}"
+
+
+def _check_keys(table: dict, allowed: tuple[str, ...], where: str) -> None:
+    for key in table:
+        if key not in allowed:
+            raise ConfigError(f"unknown key '{where}{key}'{_suggest(key, allowed)}")
+
+
+def _number(value: Any, where: str) -> float:
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        raise ConfigError(f"'{where}' must be a number, got {value!r}")
+    value = float(value)
+    if not math.isfinite(value):
+        raise ConfigError(f"'{where}' must be a finite number, got {value}")
+    return value
+
+
+def _string(value: Any, where: str) -> str:
+    if not isinstance(value, str):
+        raise ConfigError(f"'{where}' must be a string, got {value!r}")
+    return value
+
+
+def _axis(value: Any, where: str) -> tuple[float, ...]:
+    """A sweep axis: a number, a list of numbers, or {from, to, step} (both ends included)."""
+    if isinstance(value, dict):
+        _check_keys(value, RANGE_KEYS, f"{where}.")
+        for k in RANGE_KEYS:
+            if k not in value:
+                raise ConfigError(f"'{where}' range needs 'from', 'to' and 'step'; '{k}' is missing")
+        lo, hi, step = (_number(value[k], f"{where}.{k}") for k in RANGE_KEYS)
+        if step <= 0:
+            raise ConfigError(f"'{where}.step' must be > 0, got {step:g}")
+        if hi < lo:
+            raise ConfigError(f"'{where}.to' ({hi:g}) must not be below '{where}.from' ({lo:g})")
+        n = int(math.floor((hi - lo) / step + 1e-9)) + 1
+        if n > 1_000_000:
+            raise ConfigError(f"'{where}' range gives {n} values; at most 1000000 are allowed")
+        values = [round(lo + i * step, 10) for i in range(n)]
+    elif isinstance(value, list):
+        values = [_number(v, f"{where}[{i}]") for i, v in enumerate(value)]
+    else:
+        values = [_number(value, where)]
+    if not values:
+        raise ConfigError(f"sweep axis '{where}' is empty; give at least one value")
+    if len(set(values)) != len(values):
+        dup = sorted({v for v in values if values.count(v) > 1})
+        raise ConfigError(f"sweep axis '{where}' lists {dup[0]:g} more than once")
+    return tuple(values)
+
+
+def _limited_axis(value: Any, name: str) -> tuple[float, ...]:
+    values = _axis(value, f"sweep.{name}")
+    lo, hi = AXIS_LIMITS[name]
+    for v in values:
+        if not lo < v <= hi:
+            raise ConfigError(f"'sweep.{name}' value {v:g} is out of range; allowed: > {lo:g} and <= {hi:g}")
+    return values
+
+
+def _composition(value: Any, where: str) -> dict[str, float]:
+    if not isinstance(value, dict):
+        raise ConfigError(f"'{where}' must be a table of species = mole fraction, e.g. {{ CH4 = 1.0 }}")
+    if not value:
+        raise ConfigError(f"'{where}' is empty; give at least one species with a positive amount")
+    amounts = {}
+    for sp, x in value.items():
+        x = _number(x, f"{where}.{sp}")
+        if x < 0:
+            raise ConfigError(f"'{where}.{sp}' is {x:g}; amounts must be >= 0")
+        amounts[sp] = x
+    if not any(x > 0 for x in amounts.values()):
+        raise ConfigError(f"'{where}' has no species with a positive amount")
+    return mixtures.normalize(amounts)
+
+
+def _names(value: Any, where: str, defined: dict, kind: str) -> tuple[str, ...]:
+    if isinstance(value, str):
+        value = [value]
+    if not isinstance(value, list) or not value:
+        raise ConfigError(f"'{where}' must be a non-empty list of {kind} names from [{kind}s]")
+    out = []
+    for name in value:
+        name = _string(name, where)
+        if name not in defined:
+            raise ConfigError(f"'{where}' names unknown {kind} '{name}'{_suggest(name, list(defined))}")
+        if name in out:
+            raise ConfigError(f"'{where}' lists {kind} '{name}' more than once")
+        out.append(name)
+    return tuple(out)
+
+
+def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
+    """Resolve a mechanism name to a file: beside the config first, then Cantera's data folders."""
+    import cantera as ct
+
+    candidates = []
+    p = Path(mechanism).expanduser()
+    if p.is_absolute():
+        candidates.append(p)
+    else:
+        if base_dir is not None:
+            candidates.append(base_dir / p)
+        candidates.append(Path.cwd() / p)
+        candidates += [Path(d) / p for d in ct.get_data_directories()]
+    for c in candidates:
+        if c.is_file():
+            return c.resolve()
+        if c.is_dir():
+            raise MechanismError(f"'mechanism' {mechanism!r} is a folder ({c}); give a mechanism file, e.g. gri30.yaml")
+    raise MechanismError(
+        f"'mechanism' file {mechanism!r} not found beside the config or in Cantera's data folders; "
+        "give a path to a Cantera mechanism file (YAML), e.g. gri30.yaml")
+
+
+def file_sha256(path: Path) -> str:
+    h = hashlib.sha256()
+    with open(path, "rb") as fh:
+        for chunk in iter(lambda: fh.read(1 << 20), b""):
+            h.update(chunk)
+    return h.hexdigest()
+
+
+def load_mechanism_atoms(path: Path) -> dict[str, dict[str, float]]:
+    """Species -> {element: atoms} for every species of a mechanism (raises MechanismError)."""
+    import cantera as ct
+
+    try:
+        gas = ct.Solution(str(path), transport_model=None)
+    except Exception as exc:  # Cantera raises CanteraError or YAML errors
+        first = str(exc).strip().splitlines()
+        detail = next((ln.strip() for ln in first if ln.strip() and not set(ln.strip()) <= set("*-")), "")
+        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera: {detail[:200]}") from None
+    return {sp.name: dict(sp.composition) for sp in gas.species()}
+
+
+def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
+                    config_path: str | None = None) -> Study:
+    """Validate a parsed config table and build the :class:`Study`."""
+    if not isinstance(data, dict):
+        raise ConfigError("config must be a TOML table")
+    _check_keys(data, TOP_KEYS, "")
+    title = _string(data.get("title", name), "title")
+    mechanism = _string(data.get("mechanism", "gri30.yaml"), "mechanism")
+    transport = _string(data.get("transport", "mixture-averaged"), "transport")
+    if transport not in TRANSPORT_MODELS:
+        raise ConfigError(f"'transport' is {transport!r}{_suggest(transport, TRANSPORT_MODELS)}")
+    thermal_diffusion = data.get("thermal_diffusion", False)
+    if not isinstance(thermal_diffusion, bool):
+        raise ConfigError(f"'thermal_diffusion' must be true or false, got {thermal_diffusion!r}")
+    resolution = _string(data.get("resolution", "standard"), "resolution")
+    if resolution not in RESOLUTIONS:
+        raise ConfigError(f"'resolution' is {resolution!r}{_suggest(resolution, RESOLUTIONS)}")
+    max_points = data.get("max_points", 10000)
+    if isinstance(max_points, bool) or not isinstance(max_points, int) or max_points < 1:
+        raise ConfigError(f"'max_points' must be a whole number >= 1, got {max_points!r}")
+
+    for table in ("fuels", "oxidizers", "sweep"):
+        if table not in data:
+            raise ConfigError(f"config has no [{table}] table; it is required")
+        if not isinstance(data[table], dict):
+            raise ConfigError(f"'{table}' must be a table")
+    fuels = {n: _composition(c, f"fuels.{n}") for n, c in data["fuels"].items()}
+    oxidizers = {n: _composition(c, f"oxidizers.{n}") for n, c in data["oxidizers"].items()}
+    if not fuels:
+        raise ConfigError("[fuels] is empty; define at least one fuel, e.g. methane = { CH4 = 1.0 }")
+    if not oxidizers:
+        raise ConfigError("[oxidizers] is empty; define at least one, e.g. air = { O2 = 1.0, N2 = 3.76 }")
+
+    sweep = data["sweep"]
+    _check_keys(sweep, SWEEP_KEYS, "sweep.")
+    for required in ("fuel", "oxidizer", "equivalence_ratio"):
+        if required not in sweep:
+            raise ConfigError(f"[sweep] has no '{required}'; it is required")
+    sweep_fuels = _names(sweep["fuel"], "sweep.fuel", fuels, "fuel")
+    sweep_oxidizers = _names(sweep["oxidizer"], "sweep.oxidizer", oxidizers, "oxidizer")
+    blend_with, fractions = None, (0.0,)
+    if "blend" in sweep:
+        b = sweep["blend"]
+        if not isinstance(b, dict):
+            raise ConfigError("'sweep.blend' must be a table { with = fuel name, fraction = [...] }")
+        _check_keys(b, BLEND_KEYS, "sweep.blend.")
+        if "with" not in b or "fraction" not in b:
+            raise ConfigError("'sweep.blend' needs both 'with' (a fuel name) and 'fraction' (a list)")
+        blend_with = _string(b["with"], "sweep.blend.with")
+        if blend_with not in fuels:
+            raise ConfigError(f"'sweep.blend.with' names unknown fuel '{blend_with}'{_suggest(blend_with, list(fuels))}")
+        fractions = _axis(b["fraction"], "sweep.blend.fraction")
+        for f in fractions:
+            if not 0.0 <= f <= 1.0:
+                raise ConfigError(f"'sweep.blend.fraction' value {f:g} is out of range; allowed: 0 to 1")
+    phis = _limited_axis(sweep["equivalence_ratio"], "equivalence_ratio")
+    pressures = _limited_axis(sweep.get("pressure_bar", [1.01325]), "pressure_bar")
+    temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
+
+    mech_path = find_mechanism(mechanism, base_dir)
+    atoms = load_mechanism_atoms(mech_path)
+    used = {**{n: fuels[n] for n in sweep_fuels}, **({blend_with: fuels[blend_with]} if blend_with else {})}
+    for kind, table in (("fuels", used), ("oxidizers", {n: oxidizers[n] for n in sweep_oxidizers})):
+        for n, comp in table.items():
+            for sp in comp:
+                if sp not in atoms:
+                    raise MechanismError(
+                        f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
+                        f"{_suggest(sp, sorted(atoms))[:300]}")
+    for n in sweep_oxidizers:
+        if oxidizers[n].get("O2", 0.0) <= 0:
+            raise ConfigError(f"'oxidizers.{n}' has no O2; an oxidizer must contain O2")
+    for n in sweep_fuels:
+        for f in fractions:
+            comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
+            if mixtures.stoich_o2_per_fuel(atoms, comp) <= 0:
+                what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
+                raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
+
+    study = Study(
+        title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
+        mechanism_sha256=file_sha256(mech_path), transport=transport,
+        thermal_diffusion=thermal_diffusion, resolution=resolution, fuels=fuels,
+        oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
+        blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
+        pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
+        max_points=max_points, config_path=config_path)
+    if study.n_points > max_points:
+        raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
+                          "raise 'max_points' if you mean it")
+    return study
+
+
+def load_study(path: str | os.PathLike) -> Study:
+    """Read a TOML study config and validate it. Raises ConfigError or MechanismError."""
+    p = Path(path)
+    if not p.exists():
+        raise ConfigError(f"config file {str(p)!r} not found")
+    if p.is_dir():
+        raise ConfigError(f"config {str(p)!r} is a folder; give a .toml file")
+    try:
+        if p.stat().st_size > MAX_CONFIG_BYTES:
+            raise ConfigError(f"config {str(p)!r} is larger than {MAX_CONFIG_BYTES // 1000} kB; "
+                              "a study config is a short text file")
+        raw = p.read_bytes()
+    except OSError as exc:
+        raise ConfigError(f"config {str(p)!r} cannot be read: {exc.strerror}") from None
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError as exc:
+        raise ConfigError(f"config {str(p)!r} is not UTF-8 text (bad byte at position {exc.start})") from None
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise ConfigError(f"config {str(p)!r} is not valid TOML: {exc}") from None
+    return study_from_dict(data, name=p.stem, base_dir=p.resolve().parent, config_path=str(p.resolve()))
+
+
+STUDY_COPY = "study.json"
+
+
+def save_config_copy(study: Study, out_dir: Path, data: dict | None = None) -> Path:
+    """Keep the config a run used beside its store, so charts can be redrawn from the folder alone."""
+    import json
+
+    if data is None:
+        if study.config_path is None:
+            raise ConfigError("this study was not read from a file; pass its config table")
+        data = tomllib.loads(Path(study.config_path).read_text(encoding="utf-8"))
+    base = str(Path(study.config_path).parent) if study.config_path else str(Path.cwd())
+    path = Path(out_dir) / STUDY_COPY
+    tmp = path.with_suffix(".tmp")
+    tmp.write_text(json.dumps({"name": study.name, "base_dir": base, "config_path": study.config_path,
+                               "config": data}, indent=1), encoding="utf-8")
+    os.replace(tmp, path)
+    return path
+
+
+def load_config_copy(out_dir: Path) -> Study:
+    """The study a run in ``out_dir`` used (see :func:`save_config_copy`)."""
+    import json
+
+    path = Path(out_dir) / STUDY_COPY
+    if not path.is_file():
+        raise ConfigError(f"{out_dir} holds no finished run ({STUDY_COPY} missing); "
+                          "give the output folder of a 'flamecharts run'")
+    try:
+        saved = json.loads(path.read_text(encoding="utf-8"))
+        return study_from_dict(saved["config"], name=saved["name"], base_dir=Path(saved["base_dir"]),
+                               config_path=saved.get("config_path"))
+    except (ValueError, KeyError, TypeError) as exc:
+        raise ConfigError(f"{path} is damaged ({exc}); rerun the study to rewrite it") from None
