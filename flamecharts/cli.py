@@ -99,9 +99,9 @@ def _cmd_run(args) -> int:
             return
         if bar is None:
             bar = tqdm(total=pr.total, unit="flame", file=sys.stderr, dynamic_ncols=True,
-                       desc="flames", disable=None)
-        bar.update(1)
+                       desc=f"flames ({pr.reused} from the store)", disable=None)
         bar.set_postfix(failed=pr.failed, refresh=False)
+        bar.update(pr.done - bar.n)
 
     try:
         summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress)

@@ -8,11 +8,11 @@ process, in a joblib worker or on a cluster worker.
 Numerical settings
 ------------------
 Cantera's free-flame solver discretises convection with a first-order upwind
-scheme, so the flame speed converges as about 1/N with the number of grid points
-N; the thermal thickness converges much faster. The settings below were chosen by
-measuring that convergence (tests/benchmarks/grid_convergence.py; the figures are
-in DEVELOPERS.md). Each setting solves on a coarse grid first (robust, cheap) and
-then refines in stages to its final criteria.
+scheme, so the flame speed converges slowly with the number of grid points; the
+thermal thickness converges much faster. Measured (tests/benchmarks/grid_convergence.py,
+figures in DEVELOPERS.md), the curvature criterion sets the flame-speed error and the
+slope criterion mostly adds points, so the settings refine on curvature. Each setting
+solves on a coarse grid first (robust, cheap) and then refines to its final criteria.
 """
 from __future__ import annotations
 
@@ -61,9 +61,9 @@ class Numerics:
 
 
 NUMERICS = {
-    "coarse": Numerics("coarse", ((3.0, 0.1, 0.2),)),
-    "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.02, 0.04))),
-    "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.02, 0.04), (2.0, 0.007, 0.014))),
+    "coarse": Numerics("coarse", ((3.0, 0.1, 0.2), (2.0, 0.3, 0.04))),
+    "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01))),
+    "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01), (2.0, 0.1, 0.004))),
 }
 
 
@@ -230,6 +230,11 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
                 metrics = measure(f, gas, T_u, P, X)
         except ct.CanteraError as exc:
             errors.append(f"{start} start: {_first_line(exc)}")
+            continue
+        except (ValueError, IndexError, FloatingPointError) as exc:
+            if start != "warm":
+                raise
+            errors.append(f"warm start: unusable neighbour profile ({type(exc).__name__})")
             continue
         status, message = classify(metrics, T_u)
         if status != "ok" and start == "warm":

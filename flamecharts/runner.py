@@ -204,6 +204,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                 src = pred.get(src)
             return None
 
+        if progress is not None:
+            progress(Progress(done=0, total=len(unique), failed=0, reused=reused, elapsed_s=0.0))
         clean_exit = False
         try:
             while ready or in_flight:

@@ -1,0 +1,58 @@
+"""Shared fixtures: small hydrogen (h2o2.yaml) studies that solve in seconds, and a CLI runner."""
+from __future__ import annotations
+
+import subprocess
+import sys
+import textwrap
+from pathlib import Path
+
+import pytest
+
+H2_STUDY = """
+title = "Test rig: hydrogen and diluted hydrogen in air"
+mechanism = "h2o2.yaml"
+transport = "mixture-averaged"
+
+[fuels]
+diluted = {{ H2 = 0.6, N2 = 0.4 }}
+hydrogen = {{ H2 = 1.0 }}
+
+[oxidizers]
+air = {{ O2 = 1.0, N2 = 3.76 }}
+
+[sweep]
+fuel = ["diluted"]
+oxidizer = ["air"]
+blend = {{ with = "hydrogen", fraction = {fractions} }}
+equivalence_ratio = {phis}
+pressure_bar = {pressures}
+unburned_temperature_K = [300.0]
+"""
+
+
+def write_h2_study(folder: Path, name: str = "h2rig", fractions="[0.0, 0.5]", phis="[0.7, 1.0, 1.3]",
+                   pressures="[1.0]", extra: str = "") -> Path:
+    """Write a small h2o2 study config and return its path."""
+    text = textwrap.dedent(H2_STUDY.format(fractions=fractions, phis=phis, pressures=pressures))
+    if extra:
+        head, sep, tail = text.partition("[fuels]")
+        text = head + extra.strip() + "\n\n" + sep + tail
+    path = Path(folder) / f"{name}.toml"
+    path.write_text(text)
+    return path
+
+
+@pytest.fixture
+def h2_config(tmp_path):
+    return write_h2_study(tmp_path)
+
+
+def run_cli(*args, cwd=None, timeout=600):
+    """Run ``python -m flamecharts ARGS``; returns the CompletedProcess (text)."""
+    return subprocess.run([sys.executable, "-m", "flamecharts", *map(str, args)], cwd=cwd,
+                          capture_output=True, text=True, timeout=timeout)
+
+
+@pytest.fixture
+def cli():
+    return run_cli

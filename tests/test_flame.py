@@ -1,0 +1,127 @@
+"""One flame: invariants, agreement with an independent plain Cantera solve, warm start, no-flame."""
+import cantera as ct
+import numpy as np
+import pytest
+
+from flamecharts import flame, mixtures
+
+AIR = {"O2": 1.0, "N2": 3.76}
+
+
+@pytest.fixture(scope="module")
+def gas():
+    return ct.Solution("h2o2.yaml")
+
+
+def h2_air(phi):
+    return mixtures.unburned_mixture({"H2": 1}, AIR, phi, 0.5)
+
+
+@pytest.fixture(scope="module")
+def stoich(gas):
+    return flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.0), "mixture-averaged", False,
+                             flame.NUMERICS["standard"])
+
+
+def test_standard_flame_is_ok_and_plain(stoich):
+    assert stoich["status"] == "ok" and stoich["start"] == "fresh"
+    m = stoich["metrics"]
+    assert all(isinstance(v, (int, float)) for v in m.values())
+    assert set(stoich["profile"]) == {"grid", "T", "velocity", "Y", "species", "P"}
+
+
+def test_agrees_with_an_independent_plain_cantera_solve(gas, stoich):
+    # Reference: Cantera's FreeFlame driven directly, as its documentation shows
+    # (automatic solve), at a grid twice as fine as the tool's standard setting.
+    # The tool must agree within its stated accuracy (1 % flame speed, 3 % thickness).
+    gas.TPX = 300.0, ct.one_atm, h2_air(1.0)
+    f = ct.FreeFlame(gas, width=0.03)
+    f.transport_model = "mixture-averaged"
+    f.set_refine_criteria(ratio=2, slope=0.01, curve=0.02)
+    f.solve(loglevel=0, auto=True)
+    m = stoich["metrics"]
+    assert m["laminar_flame_speed_m_s"] == pytest.approx(f.velocity[0], rel=0.01)
+    dT = (f.T[-1] - f.T[0]) / np.max(np.abs(np.diff(f.T) / np.diff(f.grid)))
+    assert m["thermal_thickness_m"] == pytest.approx(dT, rel=0.03)
+
+
+def test_mass_flux_is_constant_through_the_flame(gas):
+    # Invariant of the steady 1D equations: rho*u is the same at every grid point.
+    gas.TPX = 300.0, ct.one_atm, h2_air(0.8)
+    f = flame._solve_fresh(ct, gas, 300.0, ct.one_atm, h2_air(0.8), "mixture-averaged", False,
+                           flame.NUMERICS["coarse"])
+    mdot = f.density * f.velocity
+    assert np.ptp(mdot) / mdot.mean() < 1e-6
+
+
+def test_burned_temperature_matches_hp_equilibrium(stoich):
+    m = stoich["metrics"]
+    assert m["adiabatic_flame_temperature_K"] == pytest.approx(m["equilibrium_temperature_K"], rel=0.01)
+    # Stoichiometric H2-air, 298 K: 2383 K (Turns, An Introduction to Combustion, table of
+    # adiabatic flame temperatures; from memory); we start at 300 K, so +2 K, and allow 15 K.
+    assert m["equilibrium_temperature_K"] == pytest.approx(2385, abs=15)
+
+
+def test_thickness_measures_are_ordered(stoich):
+    m = stoich["metrics"]
+    # diffusive < reaction zone < thermal thickness (Poinsot & Veynante 2005, sec. 2.5)
+    assert m["diffusive_thickness_m"] < m["reaction_zone_thickness_m"] < m["thermal_thickness_m"]
+    assert m["expansion_ratio"] == pytest.approx(
+        m["unburned_density_kg_m3"] / (m["unburned_density_kg_m3"] / m["expansion_ratio"]))
+    assert 5.0 < m["expansion_ratio"] < 8.0
+
+
+def test_warm_start_gives_the_fresh_answer(gas, stoich):
+    fresh = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.2), "mixture-averaged", False,
+                              flame.NUMERICS["standard"])
+    warm = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.2), "mixture-averaged", False,
+                             flame.NUMERICS["standard"], warm=stoich["profile"])
+    assert warm["start"] == "warm" and warm["status"] == "ok"
+    assert warm["metrics"]["laminar_flame_speed_m_s"] == pytest.approx(
+        fresh["metrics"]["laminar_flame_speed_m_s"], rel=3e-3)
+
+
+def test_warm_start_across_pressure_and_temperature(gas, stoich):
+    r = flame.solve_flame(gas, 400.0, 2 * ct.one_atm, h2_air(1.0), "mixture-averaged", False,
+                          flame.NUMERICS["standard"], warm=stoich["profile"])
+    fresh = flame.solve_flame(gas, 400.0, 2 * ct.one_atm, h2_air(1.0), "mixture-averaged", False,
+                              flame.NUMERICS["standard"])
+    assert r["status"] == "ok"
+    assert r["metrics"]["laminar_flame_speed_m_s"] == pytest.approx(
+        fresh["metrics"]["laminar_flame_speed_m_s"], rel=3e-3)
+
+
+def test_far_beyond_the_lean_limit_is_recorded_not_raised(gas):
+    # Hydrogen-air below about 4 % H2 does not propagate upward (Coward & Jones, US Bureau
+    # of Mines Bulletin 503, 1952); phi 0.05 is 2 % H2.
+    r = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(0.05), "mixture-averaged", False,
+                          flame.NUMERICS["coarse"])
+    assert r["status"] in ("no_flame", "failed")
+    assert r["metrics"] is None or r["status"] == "no_flame"
+    assert r["message"]
+
+
+def test_warm_start_that_fails_falls_back_to_fresh(gas, stoich):
+    bad = dict(stoich["profile"])
+    bad["T"] = np.full_like(bad["T"], 300.0)  # a cold "neighbour": no flame to continue from
+    bad["velocity"] = np.full_like(bad["velocity"], 1e-6)
+    r = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.0), "mixture-averaged", False,
+                          flame.NUMERICS["standard"], warm=bad)
+    assert r["status"] == "ok"
+    assert r["metrics"]["laminar_flame_speed_m_s"] == pytest.approx(
+        stoich["metrics"]["laminar_flame_speed_m_s"], rel=3e-3)
+
+
+def test_classify_no_flame():
+    status, msg = flame.classify({"laminar_flame_speed_m_s": 1e-5, "max_temperature_K": 310.0,
+                                  "equilibrium_temperature_K": 1500.0,
+                                  "adiabatic_flame_temperature_K": 310.0}, 300.0)
+    assert status == "no_flame" and "non-burning" in msg
+
+
+@pytest.mark.parametrize("transport,soret", [("multicomponent", True), ("unity-Lewis-number", False)])
+def test_other_transport_models_solve(transport, soret):
+    gas = ct.Solution("h2o2.yaml", transport_model="mixture-averaged")
+    r = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.0), transport, soret, flame.NUMERICS["coarse"])
+    assert r["status"] == "ok"
+    assert 1.5 < r["metrics"]["laminar_flame_speed_m_s"] < 3.0
