@@ -16,6 +16,7 @@ import matplotlib
 
 matplotlib.use("Agg")
 import matplotlib.pyplot as plt  # noqa: E402
+from matplotlib.lines import Line2D  # noqa: E402
 import numpy as np  # noqa: E402
 
 from . import __version__  # noqa: E402
@@ -60,12 +61,13 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     curves = _curves(rows)
     oxidizers = {c[1] for c in curves}
     n = len(panels)
-    ncols = min(n, 3)
+    ncols = min(3, int(np.ceil(np.sqrt(n))))
     nrows = int(np.ceil(n / ncols))
     fig, axes = plt.subplots(nrows, ncols, figsize=(max(10.0, 4.4 * ncols + 3.5), 3.5 * nrows + 2.0),
                              squeeze=False, layout="constrained")
     colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
     handles = {}
+    any_bad = False
     for ax, (P, T) in zip(axes.flat, panels):
         for ci, ck in enumerate(curves):
             sel = sorted((r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == ck
@@ -83,9 +85,9 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                 handles.setdefault(label, h)
             bad = [r for r in sel if r["status"] != "ok"]
             if bad:
-                h = ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker="x",
-                               color=colours[ci], s=40, zorder=5, clip_on=False)
-                handles.setdefault("no flame / failed / not solved (on the axis)", h)
+                ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker="x",
+                           color=colours[ci], s=40, zorder=5, clip_on=False)
+                any_bad = True
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Equivalence ratio φ [-]")
         ax.set_ylabel(ylabel)
@@ -93,6 +95,9 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
         ax.grid(True, color="0.88", lw=0.7)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
+    if any_bad:
+        handles["no flame, failed or not solved\n(marked on the axis, colour of its curve)"] = Line2D(
+            [], [], color="0.35", marker="x", linestyle="none", markersize=7)
     fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)

@@ -31,6 +31,13 @@ from . import profiles
 MIN_RISE_SHARE = 0.5
 MIN_FLAME_SPEED = 1e-3  # m/s
 
+#: Mixtures whose equilibrium temperature rise is below this are not solved: even the
+#: leanest flammable hydrogen-air mixture (4 % H2, Coward & Jones, US Bureau of Mines
+#: Bulletin 503, 1952) rises about 330 K (computed, HP equilibrium), and methane at its
+#: 5 % lower limit about 1180 K (computed), so
+#: such points are recorded as "no_flame" at once.
+MIN_EQUILIBRIUM_RISE_K = 300.0
+
 #: Relative mismatch between the end-of-domain temperature and HP equilibrium that is
 #: reported in the point's message (the domain may be too short for slow recombination).
 T_EQ_WARN_SHARE = 0.01
@@ -216,6 +223,14 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     import cantera as ct
 
     t0 = time.perf_counter()
+    gas.TPX = T_u, P, X
+    gas.equilibrate("HP")
+    rise = gas.T - T_u
+    if rise < MIN_EQUILIBRIUM_RISE_K:
+        return {"status": "no_flame", "start": "fresh", "metrics": None, "profile": None,
+                "message": (f"not solved: equilibrium temperature rise {rise:.0f} K is below "
+                            f"{MIN_EQUILIBRIUM_RISE_K:.0f} K, leaner than any flammable mixture"),
+                "solve_seconds": time.perf_counter() - t0}
     attempts = [("warm", warm)] if warm is not None else []
     attempts.append(("fresh", None))
     errors = []
@@ -248,7 +263,8 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
             "solve_seconds": time.perf_counter() - t0,
         }
     return {
-        "status": "failed", "message": "solver did not converge: " + "; ".join(errors),
+        "status": "failed",
+        "message": f"solver did not converge (HP equilibrium {T_u + rise:.0f} K): " + "; ".join(errors),
         "start": "fresh", "metrics": None, "profile": None,
         "solve_seconds": time.perf_counter() - t0,
     }

@@ -44,20 +44,20 @@ def extrapolate(N, S):
     solved for grids that need not refine by a constant ratio. Falls back to first order
     (Cantera's upwind convection) when the three values do not converge monotonically.
     """
-    import numpy as np
-    from scipy.optimize import brentq
-
     n1, n2, n3 = N
     s1, s2, s3 = S
     d12, d23 = s1 - s2, s2 - s3
     p = 1.0
-    if d12 * d23 > 0:
-        def g(p):
-            return (n1 ** -p - n2 ** -p) / (n2 ** -p - n3 ** -p) - d12 / d23
-        try:
-            p = brentq(g, 0.3, 4.0)
-        except ValueError:
-            p = 1.0
+
+    def g(q):
+        return (n1 ** -q - n2 ** -q) / (n2 ** -q - n3 ** -q) - d12 / d23
+
+    if d12 * d23 > 0 and g(0.3) * g(4.0) < 0:
+        lo, hi = 0.3, 4.0
+        for _ in range(60):  # bisection: g is monotone in q for increasing N
+            mid = 0.5 * (lo + hi)
+            lo, hi = (mid, hi) if g(lo) * g(mid) > 0 else (lo, mid)
+        p = 0.5 * (lo + hi)
     C = d23 / (n2 ** -p - n3 ** -p)
     return float(s3 - C * n3 ** -p), float(p)
 
