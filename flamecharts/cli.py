@@ -68,16 +68,73 @@ def _cmd_check(args) -> int:
     print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
     print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
+    _print_gases(study)
+    _print_burner(study)
     print(f"Plan: {len(pts)} points in {len(chains)} chains (longest {max(len(c.points) for c in chains)}); "
           f"{stored} already stored in {out}, {len(pts) - stored} to solve")
     return 0
 
 
+def _blend_label(r) -> str:
+    return r["fuel"] + (f" + {100 * r['blend_fraction']:g} % {r['blend_with'] or ''}".rstrip()
+                        if r.get("blend_with") else "")
+
+
+def _print_gases(study) -> None:
+    from .design import fuel_gas_table
+
+    table = fuel_gas_table(study)
+    print(f"Fuel gases ({table[0]['conditions']}; {table[0]['method']}):")
+    print(f"  {'gas':38s} {'HHV':>7s} {'LHV':>7s} {'d':>6s} {'W_s':>7s} {'W_i':>7s} {'dW':>7s}  band")
+    print(f"  {'':38s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'-':>6s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'%':>7s}")
+    for g in table:
+        band = "" if g["wobbe_in_band"] is None else ("inside" if g["wobbe_in_band"] else "OUTSIDE")
+        print(f"  {_blend_label(g) + ' in ' + g['oxidizer']:38s} {g['higher_heating_value_MJ_m3']:7.3f} "
+              f"{g['lower_heating_value_MJ_m3']:7.3f} {g['relative_density']:6.4f} "
+              f"{g['higher_wobbe_index_MJ_m3']:7.3f} {g['lower_wobbe_index_MJ_m3']:7.3f} "
+              f"{g['wobbe_change_percent']:+7.2f}  {band}")
+
+
+def _print_burner(study) -> None:
+    b = study.burner
+    if b is None:
+        print("Burner: none given (add a [burner] table for flashback and blowoff margins)")
+        return
+    size = f"{'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"
+    how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
+           f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm2 of ports"
+           + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+    print(f"Burner: {b.name}: {b.port} ports, {size}; {how}; minimum margins flashback "
+          f"{b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}")
+
+
+def _print_margins(study, rows) -> None:
+    from .design import first_flashback_fraction, margin_summary
+
+    summary = margin_summary(study, rows)
+    if not summary:
+        return
+    b = study.burner
+    print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, "
+          f"blowoff {b.min_blowoff_margin:g}):")
+    for s in summary:
+        print(f"  {_blend_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
+              f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
+              f"(phi {s['at_phi_flashback']:g}), blowoff margin >= {s['min_blowoff_margin']:.2f} "
+              f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
+    for (fuel, ox, p, T), frac in first_flashback_fraction(study, rows).items():
+        what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
+                else f"at no {study.blend_with} fraction of the study")
+        print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+
+
 def _finish_outputs(study, rows, out: Path, charts: bool) -> list[Path]:
     from .charts import draw_all
-    from .export import write_about, write_csv
+    from .design import fuel_gas_table
+    from .export import GAS_TABLE_COLUMNS, write_about, write_csv
 
-    files = [write_csv(rows, out / "results.csv"), write_about(study, out / "about.txt")]
+    files = [write_csv(rows, out / "results.csv"), write_about(study, out / "about.txt"),
+             write_csv(fuel_gas_table(study), out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
     if charts:
         files += draw_all(rows, study, out)
     return files
@@ -126,7 +183,8 @@ def _cmd_run(args) -> int:
                 f"{r['unburned_temperature_K']:g} K: {r['message']}")
     if len(summary.failures) > 20:
         print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
-    print(f"Results: {files[0]}")
+    _print_margins(study, summary.rows)
+    print(f"Results: {files[0]} (fuel-gas properties: {files[2]})")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
     print("Screening estimates, not certification: follow local codes and the applicable standards; "

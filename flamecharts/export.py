@@ -12,6 +12,7 @@ import tempfile
 from pathlib import Path
 
 from . import __version__
+from .design import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS
 from .flame import NUMERICS
 from .study import Study
 
@@ -22,6 +23,14 @@ COLUMNS = (
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
+) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS
+
+GAS_TABLE_COLUMNS = (
+    "fuel", "blend_with", "blend_fraction", "oxidizer", "higher_heating_value_MJ_kg", "lower_heating_value_MJ_kg",
+    "higher_heating_value_MJ_m3", "lower_heating_value_MJ_m3", "relative_density", "higher_wobbe_index_MJ_m3",
+    "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_band_low_MJ_m3", "wobbe_band_high_MJ_m3",
+    "wobbe_in_band", "stoich_oxidizer_volume_m3_m3", "stoich_oxidizer_mass_kg_kg", "stoich_fuel_mole_fraction",
+    "reference_gas", "conditions", "method",
 )
 
 _FROM_METRICS = {
@@ -92,15 +101,15 @@ def _fmt(v) -> str:
     return str(v)
 
 
-def write_csv(rows: list[dict], path: Path) -> Path:
-    """results.csv: one row per point, columns as in COLUMNS."""
+def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
+    """A CSV of ``rows`` with ``columns`` (results.csv by default: one row per point)."""
     import io
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
-    w.writerow(COLUMNS)
+    w.writerow(columns)
     for r in rows:
-        w.writerow([_fmt(r.get(c)) for c in COLUMNS])
+        w.writerow([_fmt(r.get(c)) for c in columns])
     write_atomic(Path(path), buf.getvalue())
     return Path(path)
 

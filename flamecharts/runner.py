@@ -135,10 +135,12 @@ def resolve_jobs(jobs: int | None) -> int:
 
 
 def study_rows(study: Study, pts: list[planmod.Point], stored: dict[str, dict]) -> list[dict]:
-    """One flat row per point, in study order, from stored results (missing -> 'pending')."""
+    """One flat row per point, in study order, from stored results (missing -> 'pending'),
+    with the design indicators, fuel-gas properties and burner margins added."""
+    from .design import annotate
     from .export import flat_row
 
-    return [flat_row(study, p, stored.get(p.key)) for p in pts]
+    return annotate(study, [flat_row(study, p, stored.get(p.key)) for p in pts])
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,

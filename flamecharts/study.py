@@ -40,7 +40,14 @@ TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points",
-            "fuels", "oxidizers", "sweep")
+            "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators")
+BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
+               "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
+               "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
+GAS_QUALITY_KEYS = ("combustion_temperature_C", "metering_temperature_C", "wobbe", "wobbe_band_MJ_m3",
+                    "wobbe_tolerance_percent")
+#: Default minimum margins of the burner verdict (common practice without source: set your own).
+DEFAULT_MIN_MARGIN = 1.5
 SWEEP_KEYS = ("fuel", "oxidizer", "blend", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
 BLEND_KEYS = ("with", "fraction")
 RANGE_KEYS = ("from", "to", "step")
@@ -54,6 +61,42 @@ AXIS_LIMITS = {
 }
 
 MAX_CONFIG_BYTES = 1_000_000
+
+
+@dataclass(frozen=True)
+class Burner:
+    """The user's burner: port geometry, how its port velocity is set, minimum margins (SI)."""
+
+    name: str
+    port: str                      # "round" or "slot"
+    port_size_m: float             # diameter (round) or gap (slot)
+    port_velocity_m_s: float | None = None
+    thermal_input_W: float | None = None
+    port_area_m2: float | None = None
+    input_follows_wobbe: bool = False
+    min_flashback_margin: float = DEFAULT_MIN_MARGIN
+    min_blowoff_margin: float = DEFAULT_MIN_MARGIN
+    stabilizer_size_m: float | None = None
+    approach_velocity_m_s: float | None = None
+    min_stabilizer_margin: float = DEFAULT_MIN_MARGIN
+
+    @property
+    def mode(self) -> str:
+        """'velocity', 'thermal input' or 'supply pressure' (thermal input follows the Wobbe index)."""
+        if self.port_velocity_m_s is not None:
+            return "velocity"
+        return "supply pressure" if self.input_follows_wobbe else "thermal input"
+
+
+@dataclass(frozen=True)
+class GasQuality:
+    """Reference state of the fuel-gas properties and the allowed Wobbe band."""
+
+    combustion_T_C: int = 15
+    metering_T_C: int = 15
+    wobbe: str = "higher"                       # which Wobbe index the band applies to
+    band_MJ_m3: tuple[float, float] | None = None
+    tolerance_percent: float | None = None      # +/- around the reference fuel
 
 
 @dataclass(frozen=True)
@@ -84,6 +127,10 @@ class Study:
     atoms: dict[str, dict[str, float]] = field(repr=False)
     max_points: int = 10000
     config_path: str | None = None
+    reference_fuel: str | None = None
+    burner: "Burner | None" = None
+    gas_quality: "GasQuality" = None  # type: ignore[assignment]
+    indicator_settings: dict = field(default_factory=dict)
 
     @property
     def n_points(self) -> int:
@@ -231,6 +278,95 @@ def load_mechanism_atoms(path: Path) -> dict[str, dict[str, float]]:
     return {sp.name: dict(sp.composition) for sp in gas.species()}
 
 
+def _positive(table: dict, key: str, where: str, scale: float = 1.0) -> float | None:
+    if key not in table:
+        return None
+    v = _number(table[key], f"{where}.{key}")
+    if v <= 0:
+        raise ConfigError(f"'{where}.{key}' must be > 0, got {v:g}")
+    return v * scale
+
+
+def _burner(b: Any) -> Burner:
+    if not isinstance(b, dict):
+        raise ConfigError("'burner' must be a table")
+    _check_keys(b, BURNER_KEYS, "burner.")
+    port = _string(b.get("port", "round"), "burner.port")
+    if port not in ("round", "slot"):
+        raise ConfigError(f"'burner.port' is {port!r}{_suggest(port, ('round', 'slot'))}")
+    size_key = "port_diameter_mm" if port == "round" else "port_gap_mm"
+    other = "port_gap_mm" if port == "round" else "port_diameter_mm"
+    if other in b:
+        raise ConfigError(f"'burner.{other}' does not apply to a {port} port; give 'burner.{size_key}'")
+    size = _positive(b, size_key, "burner", 1e-3)
+    if size is None:
+        raise ConfigError(f"[burner] with port = '{port}' needs '{size_key}'")
+    velocity = _positive(b, "port_velocity_m_s", "burner")
+    q = _positive(b, "thermal_input_kW", "burner", 1e3)
+    area = _positive(b, "port_area_mm2", "burner", 1e-6)
+    follows = b.get("input_follows_wobbe", False)
+    if not isinstance(follows, bool):
+        raise ConfigError(f"'burner.input_follows_wobbe' must be true or false, got {follows!r}")
+    if (velocity is None) == (q is None):
+        raise ConfigError("[burner] sets its port velocity one way: give either 'port_velocity_m_s', or "
+                          "'thermal_input_kW' with 'port_area_mm2'")
+    if q is not None and area is None:
+        raise ConfigError("'burner.thermal_input_kW' needs 'burner.port_area_mm2' (total port area)")
+    if velocity is not None and (area is not None or follows):
+        raise ConfigError("'burner.port_velocity_m_s' fixes the velocity; drop 'port_area_mm2' and "
+                          "'input_follows_wobbe', which go with 'thermal_input_kW'")
+    margins = {k: _positive(b, k, "burner") for k in ("min_flashback_margin", "min_blowoff_margin",
+                                                      "min_stabilizer_margin")}
+    stab = _positive(b, "stabilizer_size_mm", "burner", 1e-3)
+    approach = _positive(b, "approach_velocity_m_s", "burner")
+    if (stab is None) != (approach is None):
+        raise ConfigError("a bluff-body stabilizer needs both 'burner.stabilizer_size_mm' and "
+                          "'burner.approach_velocity_m_s'")
+    return Burner(name=_string(b.get("name", "burner"), "burner.name"), port=port, port_size_m=size,
+                  port_velocity_m_s=velocity, thermal_input_W=q, port_area_m2=area, input_follows_wobbe=follows,
+                  stabilizer_size_m=stab, approach_velocity_m_s=approach,
+                  **{k: v for k, v in margins.items() if v is not None})
+
+
+def _gas_quality(g: Any) -> GasQuality:
+    if not isinstance(g, dict):
+        raise ConfigError("'gas_quality' must be a table")
+    _check_keys(g, GAS_QUALITY_KEYS, "gas_quality.")
+    out = {}
+    for key, allowed in (("combustion_temperature_C", (0, 15, 25)), ("metering_temperature_C", (0, 15))):
+        if key in g:
+            v = _number(g[key], f"gas_quality.{key}")
+            if v not in allowed:
+                raise ConfigError(f"'gas_quality.{key}' is {v:g}; allowed: {', '.join(map(str, allowed))} "
+                                  "(the reference temperatures of ISO 6976)")
+            out["combustion_T_C" if key.startswith("comb") else "metering_T_C"] = int(v)
+    wobbe = _string(g.get("wobbe", "higher"), "gas_quality.wobbe")
+    if wobbe not in ("higher", "lower"):
+        raise ConfigError(f"'gas_quality.wobbe' is {wobbe!r}; allowed: higher, lower")
+    band = g.get("wobbe_band_MJ_m3")
+    tol = _positive(g, "wobbe_tolerance_percent", "gas_quality")
+    if band is not None and tol is not None:
+        raise ConfigError("give either 'gas_quality.wobbe_band_MJ_m3' or 'gas_quality.wobbe_tolerance_percent', "
+                          "not both")
+    if band is not None:
+        if not isinstance(band, list) or len(band) != 2:
+            raise ConfigError("'gas_quality.wobbe_band_MJ_m3' must be [low, high] in MJ/m^3")
+        lo, hi = (_number(v, f"gas_quality.wobbe_band_MJ_m3[{i}]") for i, v in enumerate(band))
+        if not 0 < lo < hi:
+            raise ConfigError(f"'gas_quality.wobbe_band_MJ_m3' must satisfy 0 < low < high, got [{lo:g}, {hi:g}]")
+        band = (lo, hi)
+    return GasQuality(wobbe=wobbe, band_MJ_m3=band, tolerance_percent=tol, **out)
+
+
+def _indicator_settings(t: Any) -> dict:
+    from .indicators import DEFAULTS
+
+    if not isinstance(t, dict):
+        raise ConfigError("'indicators' must be a table")
+    _check_keys(t, tuple(DEFAULTS), "indicators.")
+    return {**DEFAULTS, **{k: _positive(t, k, "indicators") for k in t}}
+
+
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
                     config_path: str | None = None) -> Study:
     """Validate a parsed config table and build the :class:`Study`."""
@@ -310,6 +446,16 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
                 what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
                 raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
 
+    reference_fuel = None
+    if "reference_fuel" in data:
+        reference_fuel = _string(data["reference_fuel"], "reference_fuel")
+        if reference_fuel not in sweep_fuels:
+            raise ConfigError(f"'reference_fuel' {reference_fuel!r} must be one of sweep.fuel "
+                              f"({', '.join(sweep_fuels)}) so that its flames are solved")
+    burner = _burner(data["burner"]) if "burner" in data else None
+    gas_quality = _gas_quality(data.get("gas_quality", {}))
+    indicator_settings = _indicator_settings(data.get("indicators", {}))
+
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
         mechanism_sha256=file_sha256(mech_path), transport=transport,
@@ -317,7 +463,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
-        max_points=max_points, config_path=config_path)
+        max_points=max_points, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
+        gas_quality=gas_quality, indicator_settings=indicator_settings)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -36,8 +36,8 @@ def cfg(**changes):
 def test_demo_config_loads_with_its_axes():
     s = load_study(ROOT / "configs" / "valley_hydrogen_injection.toml")
     assert s.equivalence_ratios == (0.7, 0.8, 0.9, 1.0, 1.1, 1.2, 1.3)
-    assert s.blend_with == "hydrogen" and s.blend_fractions == (0.0, 0.3)
-    assert s.n_points == 14
+    assert s.blend_with == "hydrogen" and s.blend_fractions == (0.0, 0.1, 0.2, 0.3)
+    assert s.n_points == 28 and s.burner.mode == "supply pressure"
     assert sum(s.fuels["district_gas"].values()) == pytest.approx(1.0)
     assert s.transport == "mixture-averaged" and s.mechanism_path.endswith("gri30.yaml")
 
@@ -94,6 +94,24 @@ BAD = [
     ({"mechanism": "no_such_mechanism.yaml"}, MechanismError, ["no_such_mechanism.yaml", "not found"]),
     ({"thermal_diffusion": "yes"}, ConfigError, ["thermal_diffusion", "true or false"]),
     ({"max_points": 1}, ConfigError, ["max_points", "2 points"]),
+    ({"burner": {"port": "square", "port_diameter_mm": 2.0, "port_velocity_m_s": 1.0}}, ConfigError,
+     ["burner.port", "round"]),
+    ({"burner": {"port": "round", "port_velocity_m_s": 1.0}}, ConfigError, ["port_diameter_mm"]),
+    ({"burner": {"port": "slot", "port_diameter_mm": 2.0, "port_velocity_m_s": 1.0}}, ConfigError,
+     ["burner.port_diameter_mm", "port_gap_mm"]),
+    ({"burner": {"port_diameter_mm": 2.0}}, ConfigError, ["port_velocity_m_s", "thermal_input_kW"]),
+    ({"burner": {"port_diameter_mm": 2.0, "thermal_input_kW": 1.0}}, ConfigError, ["port_area_mm2"]),
+    ({"burner": {"port_diameter_mm": -2.0, "port_velocity_m_s": 1.0}}, ConfigError, ["burner.port_diameter_mm", "> 0"]),
+    ({"burner": {"port_diameter_mm": 2.0, "port_velocity_m_s": 1.0, "stabilizer_size_mm": 5.0}}, ConfigError,
+     ["approach_velocity_m_s"]),
+    ({"burner": {"port_diameter_mm": 2.0, "port_velocity_m_s": 1.0, "port_speed": 1}}, ConfigError,
+     ["unknown key 'burner.port_speed'"]),
+    ({"gas_quality": {"combustion_temperature_C": 20}}, ConfigError, ["combustion_temperature_C", "0, 15, 25"]),
+    ({"gas_quality": {"wobbe_band_MJ_m3": [50.0, 45.0]}}, ConfigError, ["wobbe_band_MJ_m3", "low < high"]),
+    ({"gas_quality": {"wobbe_band_MJ_m3": [45.0, 50.0], "wobbe_tolerance_percent": 5}}, ConfigError, ["not both"]),
+    ({"indicators": {"flashback_peclet": 0}}, ConfigError, ["indicators.flashback_peclet", "> 0"]),
+    ({"indicators": {"flash_peclet": 10}}, ConfigError, ["did you mean 'flashback_peclet'"]),
+    ({"reference_fuel": "diluted"}, ConfigError, ["reference_fuel", "sweep.fuel"]),
 ]
 
 
@@ -142,3 +160,42 @@ def test_broken_mechanism_file(tmp_path):
     (tmp_path / "broken.yaml").write_text("phases: [this is not a mechanism\n")
     with pytest.raises(MechanismError, match="cannot be loaded"):
         study_from_dict(cfg(mechanism="broken.yaml"), base_dir=tmp_path)
+
+
+ISSUE_EXAMPLE = """
+title = "Valley district gas with hydrogen injection"
+mechanism = "gri30.yaml"
+transport = "mixture-averaged"
+
+[fuels]
+district_gas = { CH4 = 0.91, C2H6 = 0.05, C3H8 = 0.01, N2 = 0.02, CO2 = 0.01 }
+hydrogen = { H2 = 1.0 }
+
+[oxidizers]
+air = { O2 = 1.0, N2 = 3.76 }
+
+[sweep]
+fuel = ["district_gas"]
+oxidizer = ["air"]
+blend = { with = "hydrogen", fraction = [0.0, 0.3] }
+equivalence_ratio = { from = 0.7, to = 1.3, step = 0.1 }
+pressure_bar = [1.0]
+unburned_temperature_K = [300.0]
+"""
+
+
+def test_the_core_example_without_burner_loads_unchanged(tmp_path):
+    path = tmp_path / "example.toml"
+    path.write_text(ISSUE_EXAMPLE)
+    s = load_study(path)
+    assert s.n_points == 14 and s.burner is None and s.gas_quality.combustion_T_C == 15
+
+
+def test_burner_and_gas_quality_parse_to_si():
+    s = study_from_dict(cfg(burner={"port": "round", "port_diameter_mm": 2.5, "thermal_input_kW": 0.1,
+                                    "port_area_mm2": 117.8, "input_follows_wobbe": True},
+                            gas_quality={"wobbe_tolerance_percent": 5.0, "metering_temperature_C": 0}))
+    b = s.burner
+    assert b.port_size_m == pytest.approx(2.5e-3) and b.thermal_input_W == pytest.approx(100.0)
+    assert b.port_area_m2 == pytest.approx(117.8e-6) and b.mode == "supply pressure"
+    assert s.gas_quality.metering_T_C == 0 and s.gas_quality.tolerance_percent == 5.0

@@ -1,0 +1,227 @@
+"""Design read-out: stored flames + fuel-gas properties + the burner -> indicators, margins, verdict.
+
+Runs on flat rows (see export.py) after they are read from the store, so changing an
+indicator setting or the burner never needs a flame to be solved again.
+
+fuel_gas_table   ISO 6976 properties and stoichiometric air of every fuel and blend
+annotate         adds indicator, ratio, gas-property and burner-margin columns to rows
+"""
+from __future__ import annotations
+
+from functools import lru_cache
+
+from . import indicators as ind
+from . import mixtures
+from .gasprops import fallback_data, fuel_gas_properties, ISO6976_2016
+
+INDICATOR_COLUMNS = (
+    "chemical_time_s", "blint_thickness_mm", "flashback_critical_gradient_1_s",
+    "blowoff_critical_gradient_1_s", "quenching_distance_mm", "tube_quenching_diameter_mm",
+    "flame_speed_ratio", "flashback_gradient_ratio", "blowoff_gradient_ratio",
+    "quenching_distance_ratio", "chemical_time_ratio", "reference",
+)
+GAS_COLUMNS = (
+    "higher_heating_value_MJ_m3", "lower_heating_value_MJ_m3", "higher_wobbe_index_MJ_m3",
+    "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_in_band",
+)
+BURNER_COLUMNS = (
+    "port_velocity_m_s", "thermal_input_kW", "wall_velocity_gradient_1_s", "flashback_margin",
+    "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
+)
+
+
+@lru_cache(maxsize=4)
+def _gas(mechanism_path: str):
+    import cantera as ct
+
+    return ct.Solution(mechanism_path, transport_model=None)
+
+
+def _molar_masses(mechanism_path: str, species) -> dict[str, float]:
+    gas = _gas(mechanism_path)
+    return {sp: gas.molecular_weights[gas.species_index(sp)] for sp in species}
+
+
+def fuel_composition(study, fuel: str, fraction: float) -> dict[str, float]:
+    return (mixtures.blend(study.fuels[fuel], study.fuels[study.blend_with], fraction)
+            if study.blend_with else dict(study.fuels[fuel]))
+
+
+def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
+    """ISO 6976 properties of a fuel gas plus its stoichiometric need of ``oxidizer``."""
+    gq = study.gas_quality
+    outside = [sp for sp in X_fuel if sp not in ISO6976_2016]
+    fb = fallback_data(_gas(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
+    props = fuel_gas_properties(X_fuel, gq.combustion_T_C, gq.metering_T_C, fallback=fb)
+    X_ox = study.oxidizers[oxidizer]
+    n_ox = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel) / X_ox["O2"]
+    M = _molar_masses(study.mechanism_path, set(X_fuel) | set(X_ox))
+    M_fuel = sum(x * M[k] for k, x in X_fuel.items())
+    M_ox = sum(x * M[k] for k, x in X_ox.items())
+    return {"props": props, "stoich_oxidizer_volume_m3_m3": n_ox,
+            "stoich_oxidizer_mass_kg_kg": n_ox * M_ox / M_fuel,
+            "stoich_fuel_mole_fraction": 1.0 / (1.0 + n_ox)}
+
+
+def _reference_fuel(study, fuel: str) -> str:
+    return study.reference_fuel or fuel
+
+
+def fuel_gas_table(study) -> list[dict]:
+    """One row per (fuel, blend fraction, oxidizer) with ISO 6976 properties, air need and Wobbe band."""
+    gq = study.gas_quality
+    out = []
+    refs = {}
+    for ox in study.sweep_oxidizers:
+        for fuel in study.sweep_fuels:
+            for frac in study.blend_fractions:
+                rec = gas_record(study, fuel_composition(study, fuel, frac), ox)
+                ref_name = _reference_fuel(study, fuel)
+                if (ref_name, ox) not in refs:
+                    refs[(ref_name, ox)] = gas_record(study, dict(study.fuels[ref_name]), ox)
+                ref = refs[(ref_name, ox)]
+                p = rec["props"]
+                W = p.higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else p.lower_wobbe_index_MJ_m3
+                W_ref = (ref["props"].higher_wobbe_index_MJ_m3 if gq.wobbe == "higher"
+                         else ref["props"].lower_wobbe_index_MJ_m3)
+                if gq.band_MJ_m3 is not None:
+                    lo, hi = gq.band_MJ_m3
+                elif gq.tolerance_percent is not None:
+                    lo, hi = W_ref * (1 - gq.tolerance_percent / 100), W_ref * (1 + gq.tolerance_percent / 100)
+                else:
+                    lo = hi = None
+                out.append({
+                    "fuel": fuel, "blend_with": study.blend_with or "", "blend_fraction": frac, "oxidizer": ox,
+                    "higher_heating_value_MJ_kg": p.higher_heating_value_MJ_kg,
+                    "lower_heating_value_MJ_kg": p.lower_heating_value_MJ_kg,
+                    "higher_heating_value_MJ_m3": p.higher_heating_value_MJ_m3,
+                    "lower_heating_value_MJ_m3": p.lower_heating_value_MJ_m3,
+                    "relative_density": p.relative_density,
+                    "higher_wobbe_index_MJ_m3": p.higher_wobbe_index_MJ_m3,
+                    "lower_wobbe_index_MJ_m3": p.lower_wobbe_index_MJ_m3,
+                    "wobbe_change_percent": 100.0 * (W / W_ref - 1.0),
+                    "wobbe_band_low_MJ_m3": lo, "wobbe_band_high_MJ_m3": hi,
+                    "wobbe_in_band": None if lo is None else bool(lo <= W <= hi),
+                    "stoich_oxidizer_volume_m3_m3": rec["stoich_oxidizer_volume_m3_m3"],
+                    "stoich_oxidizer_mass_kg_kg": rec["stoich_oxidizer_mass_kg_kg"],
+                    "stoich_fuel_mole_fraction": rec["stoich_fuel_mole_fraction"],
+                    "reference_gas": ref_name,
+                    "conditions": p.conditions, "method": p.method,
+                    "_W": W, "_W_ref": W_ref, "_lhv_J_kg": p.lower_heating_value_MJ_kg * 1e6,
+                })
+    return out
+
+
+def _indicators(r: dict, s: dict) -> dict:
+    S_L, a = r["laminar_flame_speed_m_s"], r["unburned_thermal_diffusivity_m2_s"]
+    d_q = ind.quenching_distance(a, S_L, s["quench_peclet"])
+    return {
+        "chemical_time_s": ind.chemical_time(a, S_L),
+        "blint_thickness_mm": 1e3 * ind.blint_thickness(a, S_L, r["adiabatic_flame_temperature_K"],
+                                                        r["unburned_temperature_K"]),
+        "flashback_critical_gradient_1_s": ind.flashback_critical_gradient(S_L, a, s["flashback_peclet"]),
+        "blowoff_critical_gradient_1_s": ind.blowoff_critical_gradient(S_L, a, s["blowoff_karlovitz"]),
+        "quenching_distance_mm": 1e3 * d_q,
+        "tube_quenching_diameter_mm": 1e3 * ind.tube_quenching_diameter(d_q, s["tube_quench_factor"]),
+    }
+
+
+RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
+          ("flashback_gradient_ratio", "flashback_critical_gradient_1_s"),
+          ("blowoff_gradient_ratio", "blowoff_critical_gradient_1_s"),
+          ("quenching_distance_ratio", "quenching_distance_mm"),
+          ("chemical_time_ratio", "chemical_time_s"))
+
+
+def _burner_margins(study, r: dict, gas: dict, s: dict) -> dict:
+    b = study.burner
+    out = dict.fromkeys(BURNER_COLUMNS)
+    if b is None or r["status"] != "ok":
+        return out
+    if b.port_velocity_m_s is not None:
+        U, Q = b.port_velocity_m_s, None
+    else:
+        Q = b.thermal_input_W * (gas["_W"] / gas["_W_ref"] if b.input_follows_wobbe else 1.0)
+        U = ind.port_velocity_at_thermal_input(Q, gas["_lhv_J_kg"], gas["stoich_oxidizer_mass_kg_kg"],
+                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2)
+    g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
+         else ind.wall_velocity_gradient_slot(U, b.port_size_m))
+    fb = g / r["flashback_critical_gradient_1_s"]
+    bo = r["blowoff_critical_gradient_1_s"] / g
+    quench = (r["tube_quenching_diameter_mm"] if b.port == "round" else r["quenching_distance_mm"]) / (1e3 * b.port_size_m)
+    risks = []
+    if fb < b.min_flashback_margin:
+        risks.append("flashback risk")
+    if bo < b.min_blowoff_margin:
+        risks.append("blowoff risk")
+    out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
+               flashback_margin=fb, blowoff_margin=bo, quench_ratio=quench)
+    if b.stabilizer_size_m is not None:
+        U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])
+        out.update(bluff_body_blowoff_velocity_m_s=U_bo, stabilizer_margin=U_bo / b.approach_velocity_m_s)
+        if U_bo / b.approach_velocity_m_s < b.min_stabilizer_margin:
+            risks.append("stabilizer blowoff risk")
+    out["verdict"] = " and ".join(risks) if risks else "ok"
+    return out
+
+
+def annotate(study, rows: list[dict]) -> list[dict]:
+    """Add indicator, reference-ratio, fuel-gas and burner columns to flat rows (in place)."""
+    s = study.indicator_settings
+    gases = {(g["fuel"], g["blend_fraction"], g["oxidizer"]): g for g in fuel_gas_table(study)}
+    for r in rows:
+        r.update(dict.fromkeys(INDICATOR_COLUMNS))
+        if r["status"] == "ok":
+            r.update(_indicators(r, s))
+    index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
+              r["unburned_temperature_K"]): r for r in rows}
+    has_zero = 0.0 in study.blend_fractions
+    for r in rows:
+        ref_fuel = _reference_fuel(study, r["fuel"])
+        ref = index.get((ref_fuel, r["oxidizer"], 0.0, r["equivalence_ratio"], r["pressure_bar"],
+                         r["unburned_temperature_K"])) if has_zero else None
+        if ref is not None:
+            r["reference"] = ref_fuel
+            if r["status"] == "ok" and ref["status"] == "ok":
+                for col, src in RATIOS:
+                    r[col] = r[src] / ref[src]
+        gas = gases[(r["fuel"], r["blend_fraction"], r["oxidizer"])]
+        for col in GAS_COLUMNS:
+            r[col] = gas[col]
+        r.update(_burner_margins(study, r, gas, s))
+    return rows
+
+
+def margin_summary(study, rows: list[dict]) -> list[dict]:
+    """Per (fuel, oxidizer, blend fraction, p, T): the smallest burner margins and where they occur."""
+    if study.burner is None:
+        return []
+    groups: dict[tuple, list[dict]] = {}
+    for r in rows:
+        if r["status"] == "ok" and r["flashback_margin"] is not None:
+            groups.setdefault((r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"],
+                               r["unburned_temperature_K"]), []).append(r)
+    out = []
+    for key, rs in groups.items():
+        fb = min(rs, key=lambda r: r["flashback_margin"])
+        bo = min(rs, key=lambda r: r["blowoff_margin"])
+        out.append({"fuel": key[0], "oxidizer": key[1], "blend_fraction": key[2], "pressure_bar": key[3],
+                    "unburned_temperature_K": key[4],
+                    "min_flashback_margin": fb["flashback_margin"], "at_phi_flashback": fb["equivalence_ratio"],
+                    "min_blowoff_margin": bo["blowoff_margin"], "at_phi_blowoff": bo["equivalence_ratio"],
+                    "points_ok": sum(r["verdict"] == "ok" for r in rs), "points": len(rs)})
+    return out
+
+
+def first_flashback_fraction(study, rows: list[dict]) -> dict[tuple, float | None]:
+    """Smallest blend fraction at which the flashback margin falls below the burner's minimum,
+    per (fuel, oxidizer, p, T); None where it never does in the study."""
+    if study.burner is None or not study.blend_with:
+        return {}
+    out: dict[tuple, float | None] = {}
+    for s in sorted(margin_summary(study, rows), key=lambda s: s["blend_fraction"]):
+        key = (s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"])
+        out.setdefault(key, None)
+        if out[key] is None and s["min_flashback_margin"] < study.burner.min_flashback_margin:
+            out[key] = s["blend_fraction"]
+    return out
