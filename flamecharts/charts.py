@@ -24,6 +24,7 @@ from .export import resolution_label  # noqa: E402
 
 MARKERS = ("o", "s", "^", "D", "v", "P", "X", "h")
 LINESTYLES = ("-", "--", "-.", ":")
+NOT_BURNING = (("no_flame", "v"), ("failed", "x"))
 CMAP = "viridis"  # perceptually uniform, readable with colour-vision deficiency
 
 
@@ -67,7 +68,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                              squeeze=False, layout="constrained")
     colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
     handles = {}
-    any_bad = False
+    shown: set[str] = set()
     for ax, (P, T) in zip(axes.flat, panels):
         for ci, ck in enumerate(curves):
             sel = sorted((r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == ck
@@ -79,15 +80,16 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                 label += f" in {ck[1]}"
             style = dict(color=colours[ci], marker=MARKERS[ci % len(MARKERS)],
                          linestyle=LINESTYLES[(ci // len(MARKERS)) % len(LINESTYLES)], markersize=5, lw=1.6)
-            if good:
-                h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
-                             label=label, **style)
-                handles.setdefault(label, h)
-            bad = [r for r in sel if r["status"] != "ok"]
-            if bad:
-                ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker="x",
-                           color=colours[ci], s=40, zorder=5, clip_on=False)
-                any_bad = True
+            h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
+                         label=label, **style)
+            handles.setdefault(label, h)  # a curve with no flame at all still has its legend entry
+            for status, marker in NOT_BURNING:
+                bad = [r for r in sel if r["status"] == status or (status == "failed" and r["status"] == "pending")]
+                if bad:
+                    ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker=marker,
+                               edgecolors=colours[ci], facecolors="none" if marker == "v" else colours[ci],
+                               s=40, zorder=5, clip_on=False)
+                    shown.add(status)
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Equivalence ratio φ [-]")
         ax.set_ylabel(ylabel)
@@ -95,9 +97,12 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
         ax.grid(True, color="0.88", lw=0.7)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
-    if any_bad:
-        handles["no flame, failed or not solved\n(marked on the axis, colour of its curve)"] = Line2D(
-            [], [], color="0.35", marker="x", linestyle="none", markersize=7)
+    for status, marker in NOT_BURNING:
+        if status in shown:
+            text = ("no flame (on the axis, colour of its curve)" if status == "no_flame"
+                    else "solver failed or not solved yet (on the axis)")
+            handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
+                                   linestyle="none", markersize=7)
     fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)

@@ -144,7 +144,7 @@ def _cmd_run(args) -> int:
     from tqdm import tqdm
 
     from .runner import default_out_dir, run_study
-    from .study import load_study, save_config_copy
+    from .study import load_study
 
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
@@ -157,7 +157,7 @@ def _cmd_run(args) -> int:
         if bar is None:
             bar = tqdm(total=pr.total, unit="flame", file=sys.stderr, dynamic_ncols=True,
                        desc=f"flames ({pr.reused} from the store)", disable=None)
-        bar.set_postfix(failed=pr.failed, refresh=False)
+        bar.set_postfix(no_flame=pr.no_flame, failed=pr.failed, refresh=False)
         bar.update(pr.done - bar.n)
 
     try:
@@ -170,7 +170,6 @@ def _cmd_run(args) -> int:
         return 130
     if bar is not None:
         bar.close()
-    save_config_copy(study, out)
     files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts)
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "

@@ -21,3 +21,12 @@ class MechanismError(FlamechartsError):
 
 class StoreError(FlamechartsError):
     """The results store cannot be opened, is corrupt, or belongs to another version."""
+
+
+def first_line(exc: BaseException, limit: int = 300) -> str:
+    """The first informative line of an exception's message (Cantera wraps its own in banners)."""
+    for line in str(exc).splitlines():
+        t = line.strip()
+        if t and not set(t) <= set("*-=") and not t.startswith("CanteraError thrown by"):
+            return t[:limit]
+    return type(exc).__name__

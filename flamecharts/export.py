@@ -9,6 +9,7 @@ import csv
 import json
 import os
 import tempfile
+import time
 from pathlib import Path
 
 from . import __version__
@@ -82,6 +83,9 @@ def write_atomic(path: Path, text: str) -> None:
     """Write a text file so a reader never sees half of it."""
     path.parent.mkdir(parents=True, exist_ok=True)
     fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=path.name + ".")
+    umask = os.umask(0)
+    os.umask(umask)
+    os.chmod(tmp, 0o666 & ~umask)  # like any file the user writes, not mkstemp's 0600
     try:
         with os.fdopen(fd, "w", newline="") as fh:
             fh.write(text)
@@ -114,6 +118,12 @@ def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
     return Path(path)
 
 
+def cantera_version() -> str:
+    import cantera
+
+    return cantera.__version__
+
+
 def write_about(study: Study, path: Path) -> Path:
     """about.txt beside the CSV: what produced it, with the cautions."""
     n = NUMERICS[study.resolution]
@@ -123,7 +133,7 @@ def write_about(study: Study, path: Path) -> Path:
         f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256[:16]})",
         f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
-        f"flamecharts {__version__}",
+        f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",
         "CAUTION: " + CAUTION,
         "",

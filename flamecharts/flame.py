@@ -25,11 +25,14 @@ from dataclasses import dataclass, asdict
 import numpy as np
 
 from . import profiles
+from .errors import first_line
 
 #: Flames whose burned-side temperature rise is below this share of the equilibrium
 #: rise, or whose speed is below MIN_FLAME_SPEED, did not burn (solver found the cold branch).
 MIN_RISE_SHARE = 0.5
-MIN_FLAME_SPEED = 1e-3  # m/s
+#: 1 cm/s: slower flames are carried by buoyancy and do not propagate as planar flames
+#: (common practice); the limit mixtures of methane and hydrogen burn at about 2-5 cm/s.
+MIN_FLAME_SPEED = 0.01  # m/s
 
 #: Mixtures whose equilibrium temperature rise is below this are not solved: even the
 #: leanest flammable hydrogen-air mixture (4 % H2, Coward & Jones, US Bureau of Mines
@@ -78,14 +81,6 @@ class FlameError(Exception):
     """Cantera could not solve this flame (raised inside workers, recorded as status)."""
 
 
-def _first_line(exc: BaseException) -> str:
-    for line in str(exc).splitlines():
-        s = line.strip()
-        if s and not set(s) <= set("*-=") and not s.startswith("CanteraError thrown by"):
-            return s[:300]
-    return type(exc).__name__
-
-
 def _make_flame(ct, gas, width: float, transport: str, soret: bool, numerics: Numerics):
     f = ct.FreeFlame(gas, width=width)
     f.set_max_grid_points(f.flame, numerics.max_grid_points)
@@ -101,11 +96,8 @@ def _set_criteria(f, stage, prune):
 
 
 def _initial_guess(ct, gas, warm: dict, P: float):
-    """A neighbour's converged profile as a Cantera SolutionArray (grid scaled for pressure)."""
+    """A neighbour's converged profile as a Cantera SolutionArray at pressure P."""
     x = np.asarray(warm["grid"], dtype=float)
-    scale = float(warm.get("P", P)) / P
-    if abs(scale - 1.0) > 1e-9:
-        x = x[0] + (x - x[0]) * scale  # flame thickness scales about as 1/p
     Y_src = np.asarray(warm["Y"], dtype=float)
     index = {n: i for i, n in enumerate(warm["species"])}
     Y = np.zeros((len(x), gas.n_species))
@@ -229,7 +221,7 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     if rise < MIN_EQUILIBRIUM_RISE_K:
         return {"status": "no_flame", "start": "fresh", "metrics": None, "profile": None,
                 "message": (f"not solved: equilibrium temperature rise {rise:.0f} K is below "
-                            f"{MIN_EQUILIBRIUM_RISE_K:.0f} K, leaner than any flammable mixture"),
+                            f"{MIN_EQUILIBRIUM_RISE_K:.0f} K; too lean or too diluted to burn"),
                 "solve_seconds": time.perf_counter() - t0}
     attempts = [("warm", warm)] if warm is not None else []
     attempts.append(("fresh", None))
@@ -244,7 +236,7 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
                     f = _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, w)
                 metrics = measure(f, gas, T_u, P, X)
         except ct.CanteraError as exc:
-            errors.append(f"{start} start: {_first_line(exc)}")
+            errors.append(f"{start} start: {first_line(exc)}")
             continue
         except (ValueError, IndexError, FloatingPointError) as exc:
             if start != "warm":

@@ -22,10 +22,10 @@ from pathlib import Path
 from typing import Callable
 
 from . import plan as planmod
-from .errors import FlamechartsError
+from .errors import FlamechartsError, StoreError, first_line
 from .flame import NUMERICS, solve_flame
 from .store import DB_NAME, RunLock, Store
-from .study import Study
+from .study import Study, save_config_copy
 
 #: A worker that dies (killed, out of memory) costs its point this many retries.
 MAX_RETRIES = 2
@@ -38,6 +38,7 @@ class Progress:
     done: int
     total: int
     failed: int
+    no_flame: int
     reused: int
     elapsed_s: float
     last: dict | None = None
@@ -170,7 +171,10 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
     pts = planmod.points(study)
     run_id = uuid.uuid4().hex[:12]
     with RunLock(out), Store(out / DB_NAME) as store:
-        done_keys = store.keys()
+        save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
+        # points are solved again only when a worker died on them (a transient failure)
+        done_keys = {k for k, r in store.rows().items()
+                     if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
         by_key = {p.key: p for p in pts}
         todo = [p for p in pts if p.key not in done_keys]
         # one solve per distinct key: two points of a study may be the same flame
@@ -193,21 +197,24 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         retries: dict[int, int] = {}
         in_flight: dict = {}
         limit = stop_after if stop_after is not None else len(unique)
-        submitted = solved = failed = 0
+        submitted = solved = failed = no_flame = 0
         executor = _executor(jobs)
 
         def warm_for(p: planmod.Point) -> dict | None:
-            """Profile of the nearest finished, burning point up the chain."""
+            """Profile of the nearest finished, burning point up the chain, else of the
+            nearest stored neighbour from an earlier run (None: solve fresh)."""
             src = pred.get(p.index)
             while src is not None:
                 prof = finished.get(src, {}).get("profile")
                 if prof is not None:
                     return prof
                 src = pred.get(src)
-            return None
+            return store.nearest_profile(p.family, planmod.point_inputs(settings, p.X_fuel, p.X_oxidizer, p.phi,
+                                                                        p.pressure_bar, p.T_u)["fuel"],
+                                         p.phi, p.pressure_bar, p.T_u)
 
         if progress is not None:
-            progress(Progress(done=0, total=len(unique), failed=0, reused=reused, elapsed_s=0.0))
+            progress(Progress(done=0, total=len(unique), failed=0, no_flame=0, reused=reused, elapsed_s=0.0))
         clean_exit = False
         try:
             while ready or in_flight:
@@ -230,7 +237,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                             executor = _executor(jobs)
                             continue
                         result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
-                                  "message": f"worker error: {type(exc).__name__}: {str(exc)[:200]}",
+                                  "message": f"worker error: {type(exc).__name__}: {first_line(exc)}",
                                   "solve_seconds": 0.0}
                     result["inputs"] = planmod.point_inputs(
                         settings, p.X_fuel, p.X_oxidizer, p.phi, p.pressure_bar, p.T_u)
@@ -238,9 +245,10 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     finished[p.index] = result
                     ready.extend(successors.get(p.index, []))
                     solved += 1
-                    failed += result["status"] != "ok"
+                    failed += result["status"] == "failed"
+                    no_flame += result["status"] == "no_flame"
                     if progress is not None:
-                        progress(Progress(done=solved, total=len(unique), failed=failed, reused=reused,
+                        progress(Progress(done=solved, total=len(unique), failed=failed, no_flame=no_flame, reused=reused,
                                           elapsed_s=time.perf_counter() - t0,
                                           last={"point": p, "status": result["status"],
                                                 "message": result["message"]}))
@@ -265,4 +273,9 @@ def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     pts = planmod.points(study)
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
         stored = store.rows([p.key for p in pts])
+        n_stored = len(store.keys())
+    if n_stored and not stored:
+        raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches the study any more: the "
+                         "mechanism file or the Cantera version changed since the run; rerun the study "
+                         "(flamecharts run CONFIG --out DIR) to solve it with what is installed now")
     return study, study_rows(study, pts, stored)

@@ -46,6 +46,8 @@ CREATE TABLE IF NOT EXISTS points (
 );
 CREATE INDEX IF NOT EXISTS points_family ON points (family);
 """
+_POINT_COLUMNS = ["key", "family", "inputs", "phi", "pressure_bar", "unburned_temperature_K", "status", "message",
+                  "start", "metrics", "solve_seconds", "finished_at", "run_id", "profile"]
 
 
 def pack_profile(profile: dict | None) -> bytes | None:
@@ -74,7 +76,11 @@ class RunLock:
         self._fh = None
 
     def acquire(self) -> "RunLock":
-        fh = open(self.path, "a+")
+        try:
+            fh = open(self.path, "a+")
+        except OSError as exc:
+            raise StoreError(f"output folder {self.path.parent} is not writable ({exc.strerror}); "
+                             "choose another --out") from None
         try:
             fcntl.flock(fh, fcntl.LOCK_EX | fcntl.LOCK_NB)
         except BlockingIOError:
@@ -114,20 +120,27 @@ class Store:
             uri = f"file:{self.path}?mode=ro" if readonly else f"file:{self.path}"
             self.db = sqlite3.connect(uri, uri=True, timeout=30.0)
             version = self.db.execute("PRAGMA user_version").fetchone()[0]
+            tables = {r[0] for r in self.db.execute("SELECT name FROM sqlite_master WHERE type='table'")}
+            # every check comes before the first write, so a foreign file is never changed
             if version > SCHEMA_VERSION:
                 raise StoreError(f"results store {self.path} has schema version {version}, newer than this "
                                  f"flamecharts ({SCHEMA_VERSION}); upgrade flamecharts or use another --out")
+            if tables and (version == 0 or "points" not in tables):
+                raise StoreError(f"{self.path} is not a flamecharts results store; it is left untouched: "
+                                 "move it away or choose another --out")
+            if tables:
+                cols = [r[1] for r in self.db.execute("PRAGMA table_info(points)")]
+                if cols != _POINT_COLUMNS:
+                    raise StoreError(f"results store {self.path} has a points table of another layout; it is "
+                                     "left untouched: move it away or choose another --out")
+            if readonly and not tables:
+                raise StoreError(f"{self.path} is empty; run the study first (flamecharts run CONFIG)")
             if not readonly:
                 self.db.execute("PRAGMA journal_mode=WAL")
                 self.db.execute("PRAGMA synchronous=FULL")
                 self.db.executescript(_SCHEMA)
-                if version == 0:
-                    self.db.execute(f"PRAGMA user_version = {SCHEMA_VERSION}")
+                self.db.execute(f"PRAGMA user_version = {SCHEMA_VERSION}")
                 self.db.commit()
-            tables = {r[0] for r in self.db.execute("SELECT name FROM sqlite_master WHERE type='table'")}
-            if "points" not in tables:
-                raise StoreError(f"{self.path} is not a flamecharts results store (no points table); "
-                                 "move it away or choose another --out")
         except sqlite3.DatabaseError as exc:
             raise StoreError(f"results store {self.path} is unreadable ({exc}); it is left untouched: "
                              "move it away to start afresh, or choose another --out") from None
@@ -171,6 +184,17 @@ class Store:
     def profile(self, key: str) -> dict | None:
         row = self.db.execute("SELECT profile FROM points WHERE key = ?", (key,)).fetchone()
         return unpack_profile(row[0]) if row else None
+
+    def nearest_profile(self, family: str, fuel: dict, phi: float, pressure_bar: float, T_u: float) -> dict | None:
+        """Profile of the stored burning flame nearest in equivalence ratio with the same settings,
+        oxidizer, fuel, pressure and temperature (None if there is none)."""
+        best = None
+        for key, p_phi, inputs in self.db.execute(
+                "SELECT key, phi, inputs FROM points WHERE family = ? AND status = 'ok' AND pressure_bar = ? "
+                "AND unburned_temperature_K = ? AND profile IS NOT NULL", (family, pressure_bar, T_u)):
+            if json.loads(inputs)["fuel"] == fuel and (best is None or abs(p_phi - phi) < best[0]):
+                best = (abs(p_phi - phi), key)
+        return self.profile(best[1]) if best else None
 
     def integrity_ok(self) -> bool:
         return self.db.execute("PRAGMA integrity_check").fetchone()[0] == "ok"

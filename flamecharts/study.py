@@ -33,7 +33,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-from .errors import ConfigError, MechanismError
+from .errors import ConfigError, MechanismError, first_line
 from . import mixtures
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
@@ -127,6 +127,7 @@ class Study:
     atoms: dict[str, dict[str, float]] = field(repr=False)
     max_points: int = 10000
     config_path: str | None = None
+    raw: dict = field(default_factory=dict, repr=False, compare=False)
     reference_fuel: str | None = None
     burner: "Burner | None" = None
     gas_quality: "GasQuality" = None  # type: ignore[assignment]
@@ -142,6 +143,14 @@ def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
     close = difflib.get_close_matches(key, list(allowed), n=1, cutoff=0.6)
     hint = f" (did you mean '{close[0]}'?)" if close else ""
     return f"{hint}; allowed: {', '.join(allowed)}"
+
+
+def _suggest_species(name: str, species: list[str]) -> str:
+    by_lower = {s.lower(): s for s in species}
+    close = difflib.get_close_matches(name.lower(), list(by_lower), n=1, cutoff=0.6)
+    hint = f" (did you mean '{by_lower[close[0]]}'?)" if close else ""
+    listed = ", ".join(species[:15]) + (f", ... ({len(species)} species)" if len(species) > 15 else "")
+    return f"{hint}; it has {listed}"
 
 
 def _check_keys(table: dict, allowed: tuple[str, ...], where: str) -> None:
@@ -265,16 +274,20 @@ def file_sha256(path: Path) -> str:
     return h.hexdigest()
 
 
-def load_mechanism_atoms(path: Path) -> dict[str, dict[str, float]]:
-    """Species -> {element: atoms} for every species of a mechanism (raises MechanismError)."""
+def load_mechanism_atoms(path: Path, transport: str = "mixture-averaged") -> dict[str, dict[str, float]]:
+    """Species -> {element: atoms} for every species of a mechanism that has the transport
+    data ``transport`` needs (raises MechanismError)."""
     import cantera as ct
 
     try:
         gas = ct.Solution(str(path), transport_model=None)
     except Exception as exc:  # Cantera raises CanteraError or YAML errors
-        first = str(exc).strip().splitlines()
-        detail = next((ln.strip() for ln in first if ln.strip() and not set(ln.strip()) <= set("*-")), "")
-        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera: {detail[:200]}") from None
+        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera: {first_line(exc, 200)}") from None
+    try:
+        ct.Solution(str(path), transport_model="mixture-averaged" if transport == "unity-Lewis-number" else transport)
+    except Exception as exc:
+        raise MechanismError(f"'mechanism' {path} has no usable {transport} transport data "
+                             f"({first_line(exc, 160)}); a flame needs a mechanism with transport data") from None
     return {sp.name: dict(sp.composition) for sp in gas.species()}
 
 
@@ -427,7 +440,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
 
     mech_path = find_mechanism(mechanism, base_dir)
-    atoms = load_mechanism_atoms(mech_path)
+    atoms = load_mechanism_atoms(mech_path, transport)
     used = {**{n: fuels[n] for n in sweep_fuels}, **({blend_with: fuels[blend_with]} if blend_with else {})}
     for kind, table in (("fuels", used), ("oxidizers", {n: oxidizers[n] for n in sweep_oxidizers})):
         for n, comp in table.items():
@@ -435,10 +448,14 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
                 if sp not in atoms:
                     raise MechanismError(
                         f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
-                        f"{_suggest(sp, sorted(atoms))[:300]}")
+                        f"{_suggest_species(sp, list(atoms))}")
     for n in sweep_oxidizers:
         if oxidizers[n].get("O2", 0.0) <= 0:
             raise ConfigError(f"'oxidizers.{n}' has no O2; an oxidizer must contain O2")
+        burnable = [sp for sp in oxidizers[n] if sp != "O2" and mixtures.stoich_o2_per_fuel(atoms, {sp: 1.0}) > 0]
+        if burnable:
+            raise ConfigError(f"'oxidizers.{n}' contains combustible {', '.join(burnable)}; the equivalence "
+                              "ratio would be wrong: put fuels in [fuels] and blend them there")
     for n in sweep_fuels:
         for f in fractions:
             comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
@@ -464,7 +481,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
         max_points=max_points, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
-        gas_quality=gas_quality, indicator_settings=indicator_settings)
+        gas_quality=gas_quality, indicator_settings=indicator_settings, raw=data)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
@@ -486,7 +503,7 @@ def load_study(path: str | os.PathLike) -> Study:
     except OSError as exc:
         raise ConfigError(f"config {str(p)!r} cannot be read: {exc.strerror}") from None
     try:
-        text = raw.decode("utf-8")
+        text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise ConfigError(f"config {str(p)!r} is not UTF-8 text (bad byte at position {exc.start})") from None
     try:
@@ -504,9 +521,7 @@ def save_config_copy(study: Study, out_dir: Path, data: dict | None = None) -> P
     import json
 
     if data is None:
-        if study.config_path is None:
-            raise ConfigError("this study was not read from a file; pass its config table")
-        data = tomllib.loads(Path(study.config_path).read_text(encoding="utf-8"))
+        data = study.raw
     base = str(Path(study.config_path).parent) if study.config_path else str(Path.cwd())
     path = Path(out_dir) / STUDY_COPY
     tmp = path.with_suffix(".tmp")

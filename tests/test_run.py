@@ -202,3 +202,53 @@ def test_cli_bad_input_is_one_line_exit_2_nothing_written(tmp_path, cli, name):
         assert words in r.stderr and "Traceback" not in r.stderr
         assert r.stdout == ""
     assert sorted(p.name for p in tmp_path.iterdir()) == [config.name]
+
+
+def test_foreign_sqlite_file_is_refused_and_left_untouched(tmp_path, cli):
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
+    out = tmp_path / "out"
+    out.mkdir()
+    con = sqlite3.connect(out / DB_NAME)
+    con.execute("CREATE TABLE customers (name TEXT)")
+    con.commit()
+    con.close()
+    before = (out / DB_NAME).read_bytes()
+    r = cli("run", config, "--out", out)
+    assert r.returncode == 2 and "not a flamecharts results store" in r.stderr
+    assert (out / DB_NAME).read_bytes() == before
+
+
+def test_unwritable_output_folder_is_one_line(tmp_path, cli):
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
+    r = cli("run", config, "--out", "/proc/self")
+    assert r.returncode == 2 and r.stderr.count("\n") == 1 and "Traceback" not in r.stderr
+
+
+def test_charts_refuse_when_the_mechanism_changed_since_the_run(tmp_path, cli):
+    import shutil
+    import cantera as ct
+
+    src = next(Path(d) / "h2o2.yaml" for d in ct.get_data_directories() if (Path(d) / "h2o2.yaml").exists())
+    shutil.copy(src, tmp_path / "mech.yaml")
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
+    config.write_text(config.read_text().replace('"h2o2.yaml"', '"mech.yaml"'))
+    out = tmp_path / "out"
+    assert cli("run", config, "--out", out, "--jobs", "1", "--no-charts").returncode == 0
+    good = (out / "results.csv").read_text()
+    with open(tmp_path / "mech.yaml", "a") as fh:
+        fh.write("\n# edited\n")
+    r = cli("charts", out)
+    assert r.returncode == 2 and "changed since the run" in r.stderr
+    assert (out / "results.csv").read_text() == good
+
+
+def test_a_later_run_warm_starts_from_stored_neighbours_and_files_are_readable(tmp_path):
+    a = load_study(write_h2_study(tmp_path, name="a", fractions="[0.0]", phis="[1.0]"))
+    b = load_study(write_h2_study(tmp_path, name="b", fractions="[0.0]", phis="[1.0, 1.2]"))
+    run_study(a, out_dir=tmp_path / "o", jobs=1)
+    s = run_study(b, out_dir=tmp_path / "o", jobs=1)
+    new = next(r for r in s.rows if r["equivalence_ratio"] == 1.2)
+    assert new["start"] == "warm"
+    from flamecharts.export import write_csv
+    path = write_csv(s.rows, tmp_path / "o" / "results.csv")
+    assert path.stat().st_mode & 0o044 == 0o044  # group and others may read it

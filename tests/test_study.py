@@ -199,3 +199,35 @@ def test_burner_and_gas_quality_parse_to_si():
     assert b.port_size_m == pytest.approx(2.5e-3) and b.thermal_input_W == pytest.approx(100.0)
     assert b.port_area_m2 == pytest.approx(117.8e-6) and b.mode == "supply pressure"
     assert s.gas_quality.metering_T_C == 0 and s.gas_quality.tolerance_percent == 5.0
+
+
+def test_oxidizer_with_fuel_in_it_is_refused():
+    with pytest.raises(ConfigError, match="contains combustible H2"):
+        study_from_dict(cfg(oxidizers__air={"O2": 1.0, "N2": 3.76, "H2": 0.5}))
+
+
+def test_species_hint_ignores_case():
+    with pytest.raises(MechanismError, match="did you mean 'H2'"):
+        study_from_dict(cfg(fuels__hydrogen={"h2": 1.0}))
+
+
+def test_config_with_a_byte_order_mark_loads(tmp_path):
+    path = tmp_path / "bom.toml"
+    path.write_bytes(b"\xef\xbb\xbf" + ISSUE_EXAMPLE.encode())
+    assert load_study(path).n_points == 14
+
+
+def test_mechanism_without_transport_data_is_refused_at_load(tmp_path):
+    import cantera as ct
+
+    # the h2o2 mechanism rewritten without its species' transport data
+    full = ct.Solution("h2o2.yaml")
+    bare = []
+    for sp in full.species():
+        new = ct.Species(sp.name, sp.composition)
+        new.thermo = sp.thermo
+        bare.append(new)
+    gas = ct.Solution(thermo="ideal-gas", kinetics="gas", species=bare, reactions=full.reactions())
+    gas.write_yaml(str(tmp_path / "notrans.yaml"))
+    with pytest.raises(MechanismError, match="transport data"):
+        study_from_dict(cfg(mechanism="notrans.yaml"), base_dir=tmp_path)
