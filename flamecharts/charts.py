@@ -57,7 +57,8 @@ def _footer(fig, study) -> None:
              fontsize=7, color="0.3", ha="left", va="bottom")
 
 
-def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str):
+def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str,
+               companion: tuple[str, str] | None = None):
     panels = _panels(rows)
     curves = _curves(rows)
     oxidizers = {c[1] for c in curves}
@@ -83,6 +84,10 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
             h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
                          label=label, **style)
             handles.setdefault(label, h)  # a curve with no flame at all still has its legend entry
+            if companion is not None:
+                ax.plot([r["equivalence_ratio"] for r in good], [r[companion[0]] * scale for r in good],
+                        color=colours[ci], marker=MARKERS[ci % len(MARKERS)], markerfacecolor="none",
+                        linestyle=":", markersize=4, lw=1.2)
             for status, marker in NOT_BURNING:
                 bad = [r for r in sel if r["status"] == status or (status == "failed" and r["status"] == "pending")]
                 if bad:
@@ -103,6 +108,9 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                     else "solver failed or not solved yet (on the axis)")
             handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
                                    linestyle="none", markersize=7)
+    if companion is not None:
+        handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
+                                       markersize=4)
     fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
@@ -120,18 +128,43 @@ def flame_speed_chart(rows, study):
 
 def thermal_thickness_chart(rows, study):
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
-    return _phi_chart(rows, study, "thermal_thickness_mm", 1.0, "Thermal thickness δ_T [mm]",
-                      ("Thermal flame thickness vs equivalence ratio",
-                       "How thick is each flame? δ_T = (T_b − T_u) / max|dT/dx|"))
+    return _phi_chart(rows, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
+                      ("Flame thickness vs equivalence ratio",
+                       "How thick is each flame? Solid: thermal δ_T = (T_b − T_u) / max|dT/dx|; "
+                       "dotted: reaction zone (heat release FWHM)"),
+                      companion=("reaction_zone_thickness_mm", "reaction zone thickness (dotted, same colour)"))
+
+
+#: chart file name -> one-line caption of how to read it (used by the report)
+CAPTIONS = {
+    "flame_speed_vs_equivalence_ratio": "Laminar flame speed of each fuel and blend against equivalence ratio, "
+        "a panel per pressure and preheat. Higher curves flash back more easily at the same port velocity.",
+    "thermal_thickness_vs_equivalence_ratio": "Thermal thickness (solid) and reaction-zone thickness (dotted). "
+        "Thinner flames quench in narrower gaps and need finer grids in CFD.",
+    "pressure_and_preheat_dependence": "Flame speed against pressure and against unburned temperature on log "
+        "axes; the legend gives the fitted power-law exponent of each curve.",
+    "blend_comparison": "Flame speed, thickness and adiabatic temperature against blend fraction at fixed "
+        "equivalence ratio, and flame speed at fixed adiabatic flame temperature.",
+    "flashback_chart": "Critical flashback gradient (solid) against the burner's wall velocity gradient (dashed); "
+        "the shaded band is the required margin: a dashed line inside or below it is a flashback risk.",
+    "operating_window": "Map over blend fraction and equivalence ratio: contours of flashback and blowoff "
+        "margin; the shaded region meets both minimum margins; dots are solved points.",
+    "fuel_interchangeability": "Wobbe index and heating value of the blends against blend fraction, with "
+        "the allowed Wobbe band.",
+}
 
 
 def draw_all(rows: list[dict], study, out_dir: Path) -> list[Path]:
-    """Draw every chart into out_dir/charts as PNG and SVG; returns the files written."""
+    """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files."""
+    from . import design_charts
+
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
+    makers = [("flame_speed_vs_equivalence_ratio", flame_speed_chart),
+              ("thermal_thickness_vs_equivalence_ratio", thermal_thickness_chart)]
+    makers += design_charts.makers(rows, study)
     written = []
-    for name, make in (("flame_speed_vs_equivalence_ratio", flame_speed_chart),
-                       ("thermal_thickness_vs_equivalence_ratio", thermal_thickness_chart)):
+    for name, make in makers:
         fig = make(rows, study)
         for ext in ("png", "svg"):
             path = charts_dir / f"{name}.{ext}"

@@ -133,8 +133,13 @@ def _finish_outputs(study, rows, out: Path, charts: bool) -> list[Path]:
     from .design import fuel_gas_table
     from .export import GAS_TABLE_COLUMNS, write_about, write_csv
 
+    from .fits import exponent_table
+
     files = [write_csv(rows, out / "results.csv"), write_about(study, out / "about.txt"),
              write_csv(fuel_gas_table(study), out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
+    exponents = exponent_table(rows)
+    if exponents:
+        files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if charts:
         files += draw_all(rows, study, out)
     return files

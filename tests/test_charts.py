@@ -1,0 +1,73 @@
+"""Every chart type renders from stored rows, for a full hydrogen study and one with failed points."""
+import numpy as np
+import pytest
+
+from flamecharts import load_study, run_study
+from flamecharts.charts import CAPTIONS, draw_all
+from flamecharts.fits import exponent_table, fit_power_law
+
+from conftest import write_h2_study
+
+BURNER = """
+[gas_quality]
+wobbe_tolerance_percent = 5.0
+
+[burner]
+name = "test burner"
+port = "round"
+port_diameter_mm = 1.0
+port_velocity_m_s = 4.0
+"""
+
+ALL = ("flame_speed_vs_equivalence_ratio", "thermal_thickness_vs_equivalence_ratio",
+       "pressure_and_preheat_dependence", "blend_comparison", "flashback_chart", "operating_window",
+       "fuel_interchangeability")
+
+
+@pytest.fixture(scope="module")
+def study_rows(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("charts")
+    config = write_h2_study(folder, phis="[0.08, 0.7, 1.0, 1.3]", pressures="[1.0, 3.0]")
+    config.write_text(config.read_text().replace("unburned_temperature_K = [300.0]",
+                                                 "unburned_temperature_K = [300.0, 400.0]") + BURNER)
+    study = load_study(config)
+    return study, run_study(study, out_dir=folder / "o", jobs=2).rows, folder
+
+
+def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
+    import matplotlib.image as mpimg
+
+    study, rows, folder = study_rows
+    assert any(r["status"] == "no_flame" for r in rows)  # phi 0.08 is below any flammable limit
+    files = draw_all(rows, study, folder / "o")
+    names = {f.stem for f in files}
+    assert names == set(ALL) == set(CAPTIONS)
+    for name in ALL:
+        png, svg = folder / "o" / "charts" / f"{name}.png", folder / "o" / "charts" / f"{name}.svg"
+        assert np.asarray(mpimg.imread(png)).std() > 0.05, name
+        text = svg.read_text()
+        assert text.count("[") >= 2, f"{name}: axis labels carry units in brackets"
+        assert "not certification" in text
+
+
+def test_charts_render_when_every_flame_failed(tmp_path):
+    study = load_study(write_h2_study(tmp_path, phis="[0.05, 0.08]"))
+    rows = run_study(study, out_dir=tmp_path / "o", jobs=1).rows
+    assert all(r["status"] == "no_flame" for r in rows)
+    files = draw_all(rows, study, tmp_path / "o")
+    assert {f.stem for f in files} >= {"flame_speed_vs_equivalence_ratio", "fuel_interchangeability"}
+
+
+def test_power_law_fit_reproduces_known_exponents():
+    # synthetic data with known exponents: S = 0.4 (p)^-0.45 (T/300)^1.8
+    rng_p = np.array([1.0, 2.0, 5.0, 10.0])
+    b, a = fit_power_law(rng_p, 0.4 * rng_p ** -0.45)
+    assert b == pytest.approx(-0.45, abs=1e-12) and a == pytest.approx(0.4, rel=1e-12)
+    rows = [{"status": "ok", "fuel": "f", "oxidizer": "air", "blend_with": "", "blend_fraction": 0.0,
+             "equivalence_ratio": 1.0, "pressure_bar": p, "unburned_temperature_K": T,
+             "laminar_flame_speed_m_s": 0.4 * p ** -0.45 * (T / 300) ** 1.8}
+            for p in (1.0, 4.0) for T in (300.0, 450.0, 600.0)]
+    table = exponent_table(rows)
+    betas = [t["value"] for t in table if t["exponent"] == "pressure_exponent_beta"]
+    alphas = [t["value"] for t in table if t["exponent"] == "temperature_exponent_alpha"]
+    assert betas == pytest.approx([-0.45] * 3) and alphas == pytest.approx([1.8] * 2)
