@@ -130,9 +130,10 @@ def thermal_thickness_chart(rows, study):
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
     return _phi_chart(rows, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
                       ("Flame thickness vs equivalence ratio",
-                       "How thick is each flame? Solid: thermal δ_T = (T_b − T_u) / max|dT/dx|; "
-                       "dotted: reaction zone (heat release FWHM)"),
-                      companion=("reaction_zone_thickness_mm", "reaction zone thickness (dotted, same colour)"))
+                       "How thick is each flame? Solid: thermal δ_T; dotted: reaction zone"),
+                      companion=("reaction_zone_thickness_mm",
+                                 "dotted: reaction zone thickness\n(heat-release full width at half maximum);\n"
+                                 "solid: thermal thickness (T_b − T_u)/max|dT/dx|"))
 
 
 #: chart file name -> one-line caption of how to read it (used by the report)

@@ -3,6 +3,7 @@
 flamecharts run CONFIG [--out DIR] [--jobs N]   solve, store, write results.csv and charts
 flamecharts check CONFIG [--out DIR]            validate a config and print the plan
 flamecharts charts DIR                          redraw results.csv and charts from the store
+flamecharts report DIR                          the same, plus DIR/report.html
 
 Exit codes: 0 done (also when some flames failed; they are listed), 2 bad input or
 unusable store (one line on stderr), 130 interrupted (what finished is kept).
@@ -26,13 +27,16 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("config", help="study config (TOML)")
     run.add_argument("--out", help="output folder (default output/<config name>/)")
     run.add_argument("--jobs", type=int, default=None, help="worker processes (default: all cores)")
-    run.add_argument("--no-charts", action="store_true", help="skip drawing charts")
+    run.add_argument("--no-charts", action="store_true", help="skip drawing charts (and the report)")
+    run.add_argument("--no-report", action="store_true", help="skip writing report.html")
     run.add_argument("--quiet", action="store_true", help="no progress bar")
     chk = sub.add_parser("check", help="validate a config and print the plan without solving")
     chk.add_argument("config", help="study config (TOML)")
     chk.add_argument("--out", help="output folder to compare with (default output/<config name>/)")
     ch = sub.add_parser("charts", help="redraw results.csv and the charts of a finished run from its store")
     ch.add_argument("dir", help="output folder of a run")
+    rp = sub.add_parser("report", help="write report.html of a finished run (redraws its charts from the store)")
+    rp.add_argument("dir", help="output folder of a run")
     return ap
 
 
@@ -128,7 +132,7 @@ def _print_margins(study, rows) -> None:
         print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
 
 
-def _finish_outputs(study, rows, out: Path, charts: bool) -> list[Path]:
+def _finish_outputs(study, rows, out: Path, charts: bool, report: bool = False) -> list[Path]:
     from .charts import draw_all
     from .design import fuel_gas_table
     from .export import GAS_TABLE_COLUMNS, write_about, write_csv
@@ -142,6 +146,10 @@ def _finish_outputs(study, rows, out: Path, charts: bool) -> list[Path]:
         files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if charts:
         files += draw_all(rows, study, out)
+    if charts and report:
+        from .report import write_report
+
+        files.append(write_report(study, rows, out))
     return files
 
 
@@ -175,7 +183,7 @@ def _cmd_run(args) -> int:
         return 130
     if bar is not None:
         bar.close()
-    files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts)
+    files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
@@ -191,17 +199,19 @@ def _cmd_run(args) -> int:
     print(f"Results: {files[0]} (fuel-gas properties: {files[2]})")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
+        if not args.no_report:
+            print(f"Report: {out / 'report.html'}")
     print("Screening estimates, not certification: follow local codes and the applicable standards; "
           "confirm by test.")
     return 0
 
 
-def _cmd_charts(args) -> int:
+def _cmd_charts(args, report: bool = False) -> int:
     from .runner import rows_from_dir
 
     study, rows = rows_from_dir(Path(args.dir))
-    files = _finish_outputs(study, rows, Path(args.dir), charts=True)
-    print(f"Wrote {len(files)} files in {args.dir}")
+    files = _finish_outputs(study, rows, Path(args.dir), charts=True, report=report)
+    print(f"Wrote {len(files)} files in {args.dir}" + (f"; report: {files[-1]}" if report else ""))
     return 0
 
 
@@ -209,7 +219,8 @@ def main(argv: list[str] | None = None) -> int:
     from .errors import FlamechartsError
 
     args = _parser().parse_args(argv)
-    handlers = {"run": _cmd_run, "check": _cmd_check, "charts": _cmd_charts}
+    handlers = {"run": _cmd_run, "check": _cmd_check, "charts": _cmd_charts,
+                "report": lambda a: _cmd_charts(a, report=True)}
     try:
         return handlers[args.command](args)
     except FlamechartsError as exc:

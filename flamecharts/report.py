@@ -1,0 +1,182 @@
+"""One self-contained HTML report per study: job, study definition, charts, key numbers, provenance.
+
+write_report(study, rows, out_dir) -> out_dir/report.html
+
+The charts are inlined as SVG from out_dir/charts (draw them first), so the file opens
+from disk with no network access and prints to PDF from a browser with its charts.
+"""
+from __future__ import annotations
+
+import html
+import time
+from pathlib import Path
+
+from . import __version__
+from .charts import CAPTIONS
+from .export import CAUTION, cantera_version, resolution_label, write_atomic
+from .flame import NUMERICS
+
+CSS = """
+body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif; color: #1d1d1d;
+       max-width: 1180px; margin: 2em auto; padding: 0 1.2em; line-height: 1.45; }
+h1 { font-size: 1.6em; margin-bottom: 0.2em; } h2 { font-size: 1.2em; margin-top: 1.8em;
+     border-bottom: 1px solid #ccc; padding-bottom: 0.2em; }
+.caution { border-left: 5px solid #b35900; background: #fff4e8; padding: 0.7em 1em; margin: 1em 0; }
+table { border-collapse: collapse; margin: 0.6em 0; font-size: 0.92em; }
+th, td { border: 1px solid #d0d0d0; padding: 0.25em 0.6em; text-align: left; vertical-align: top; }
+th { background: #f2f2f2; } td.num { text-align: right; font-variant-numeric: tabular-nums; }
+figure { margin: 1.2em 0; break-inside: avoid; page-break-inside: avoid; }
+figure svg { max-width: 100%; height: auto; display: block; }
+figcaption { font-size: 0.92em; color: #333; margin-top: 0.3em; }
+.muted { color: #666; font-size: 0.9em; }
+@media print { body { max-width: none; margin: 0; } h2 { break-after: avoid; } }
+"""
+
+
+def _e(x) -> str:
+    return html.escape(str(x))
+
+
+def _table(header: list[str], rows: list[list], num_cols: set[int] = frozenset()) -> str:
+    head = "".join(f"<th>{_e(h)}</th>" for h in header) if any(header) else ""
+    body = "".join("<tr>" + "".join(
+        f"<td class='num'>{_e(c)}</td>" if i in num_cols else f"<td>{_e(c)}</td>" for i, c in enumerate(r))
+        + "</tr>" for r in rows)
+    thead = f"<thead><tr>{head}</tr></thead>" if head else ""
+    return f"<table>{thead}<tbody>{body}</tbody></table>"
+
+
+def _inline_svg(path: Path) -> str:
+    import re
+
+    text = path.read_text(encoding="utf-8")
+    text = text[text.index("<svg"):]
+    return re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)  # drop the RDF block matplotlib writes
+
+
+def _label(r) -> str:
+    return r["fuel"] + (f" + {100 * r['blend_fraction']:g} % {r['blend_with']}" if r.get("blend_with") else "")
+
+
+def key_numbers(study, rows: list[dict]) -> list[list[str]]:
+    """The few numbers a design review asks for first, as table rows."""
+    ok = [r for r in rows if r["status"] == "ok"]
+    out = []
+    if ok:
+        top = max(ok, key=lambda r: r["laminar_flame_speed_m_s"])
+        out.append(["Highest laminar flame speed", f"{100 * top['laminar_flame_speed_m_s']:.1f} cm/s",
+                    f"{_label(top)}, φ {top['equivalence_ratio']:g}, {top['pressure_bar']:g} bar, "
+                    f"{top['unburned_temperature_K']:g} K"])
+        thin = min(ok, key=lambda r: r["thermal_thickness_mm"])
+        out.append(["Thinnest flame (thermal thickness)", f"{thin['thermal_thickness_mm']:.3f} mm",
+                    f"{_label(thin)}, φ {thin['equivalence_ratio']:g}, {thin['pressure_bar']:g} bar"])
+    fb = [r for r in ok if r.get("flashback_margin") is not None]
+    if fb:
+        w = min(fb, key=lambda r: r["flashback_margin"])
+        out.append(["Smallest flashback margin g_wall/g_F", f"{w['flashback_margin']:.2f}",
+                    f"{_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_flashback_margin:g})"])
+        w = min(fb, key=lambda r: r["blowoff_margin"])
+        out.append(["Smallest blowoff margin g_B/g_wall", f"{w['blowoff_margin']:.2f}",
+                    f"{_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_blowoff_margin:g})"])
+        n_ok = sum(r["verdict"] == "ok" for r in fb)
+        out.append(["Points meeting both margins", f"{n_ok} of {len(fb)}", study.burner.name])
+    bad = [r for r in rows if r["status"] != "ok"]
+    out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
+                "; ".join(f"{_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
+                + (" ..." if len(bad) > 6 else "")])
+    return out
+
+
+def write_report(study, rows: list[dict], out_dir: Path) -> Path:
+    """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
+    from .design import fuel_gas_table, margin_summary
+
+    out_dir = Path(out_dir)
+    parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
+             f"<style>{CSS}</style></head><body>",
+             f"<h1>{_e(study.title)}</h1>",
+             "<p>How fast does the premixed flame run and how thick is it, over this study's window of fuels, "
+             "blends, equivalence ratios, pressures and preheat temperatures; and, where a burner is described, "
+             "how close each mixture comes to flashback and blowoff. Computed with detailed chemistry "
+             "(freely propagating 1D laminar flames).</p>",
+             f"<div class='caution'><b>Caution.</b> {_e(CAUTION)}</div>"]
+
+    parts.append("<h2>Study</h2>")
+    parts.append(_table(["fuel", "composition (mole fractions)"],
+                        [[n, ", ".join(f"{k} {v:.4g}" for k, v in c.items())] for n, c in study.fuels.items()]))
+    parts.append(_table(["oxidizer", "composition (mole fractions)"],
+                        [[n, ", ".join(f"{k} {v:.4g}" for k, v in c.items())] for n, c in study.oxidizers.items()]))
+    window = [["fuels swept", ", ".join(study.sweep_fuels)], ["oxidizers", ", ".join(study.sweep_oxidizers)]]
+    if study.blend_with:
+        window.append([f"{study.blend_with} in the fuel gas [mol %]",
+                       ", ".join(f"{100 * f:g}" for f in study.blend_fractions)])
+    window += [["equivalence ratio", ", ".join(f"{v:g}" for v in study.equivalence_ratios)],
+               ["pressure [bar]", ", ".join(f"{v:g}" for v in study.pressures_bar)],
+               ["unburned temperature [K]", ", ".join(f"{v:g}" for v in study.unburned_temperatures_K)],
+               ["points", str(len(rows))]]
+    parts.append(_table(["axis", "values"], window))
+    b = study.burner
+    if b is not None:
+        how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
+               f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
+               + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
+        brows = [["name", b.name], ["port", f"{b.port}, {'diameter' if b.port == 'round' else 'gap'} "
+                                            f"{b.port_size_m * 1e3:g} mm"], ["port velocity set by", how],
+                 ["minimum margins", f"flashback {b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}"]]
+        if b.stabilizer_size_m is not None:
+            brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
+                                                   f"{b.approach_velocity_m_s:g} m/s approach"])
+        parts.append("<h3>Burner</h3>" + _table(["", ""], brows))
+    gases = fuel_gas_table(study)
+    parts.append(f"<h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; {_e(gases[0]['method'])}</p>")
+    parts.append(_table(["gas", "HHV [MJ/m³]", "LHV [MJ/m³]", "relative density", "Wobbe (higher) [MJ/m³]",
+                         "Wobbe change [%]", "in band"],
+                        [[_label(g) + f" in {g['oxidizer']}", f"{g['higher_heating_value_MJ_m3']:.3f}",
+                          f"{g['lower_heating_value_MJ_m3']:.3f}", f"{g['relative_density']:.4f}",
+                          f"{g['higher_wobbe_index_MJ_m3']:.3f}", f"{g['wobbe_change_percent']:+.2f}",
+                          "" if g["wobbe_in_band"] is None else ("yes" if g["wobbe_in_band"] else "NO")]
+                         for g in gases], num_cols={1, 2, 3, 4, 5}))
+
+    parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
+    summary = margin_summary(study, rows)
+    if summary:
+        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", "min blowoff margin (φ)",
+                             "points ok"],
+                            [[_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
+                              f"{s['unburned_temperature_K']:g}",
+                              f"{s['min_flashback_margin']:.2f} ({s['at_phi_flashback']:g})",
+                              f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
+                              f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}))
+
+    parts.append("<h2>Charts</h2>")
+    for name, caption in CAPTIONS.items():
+        svg = out_dir / "charts" / f"{name}.svg"
+        if svg.is_file():
+            parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
+
+    failed = [r for r in rows if r["status"] != "ok"]
+    if failed:
+        parts.append("<h2>Points without a flame</h2>")
+        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "reason"],
+                            [[_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                              f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
+
+    n = NUMERICS[study.resolution]
+    parts.append("<h2>Provenance</h2>")
+    parts.append(_table(["", ""], [
+        ["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
+        ["mechanism sha256", study.mechanism_sha256],
+        ["transport", study.transport + (", thermal diffusion on" if study.thermal_diffusion else "")],
+        ["numerical setting", f"{resolution_label(study)}; refinement stages (ratio, slope, curve) {list(n.stages)}"],
+        ["indicator settings", ", ".join(f"{k} = {v:g}" for k, v in study.indicator_settings.items())],
+        ["software", f"flamecharts {__version__}, Cantera {cantera_version()}"],
+        ["written", time.strftime("%Y-%m-%d %H:%M:%S %Z")],
+        ["config", study.config_path or "(from Python)"],
+    ]))
+    parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "
+                 "indicators rest on correlations whose constants are known to a factor of about 1.5-2; they rank "
+                 "mixtures and show trends, they do not replace certification tests.</div>")
+    parts.append("</body></html>")
+    path = out_dir / "report.html"
+    write_atomic(path, "\n".join(parts))
+    return path

@@ -1,0 +1,60 @@
+"""report.html: self-contained, every chart inlined, cautions and provenance, renders in a browser."""
+import re
+import shutil
+import subprocess
+import tempfile
+
+import numpy as np
+import pytest
+
+from flamecharts import load_study, run_study
+from flamecharts.charts import draw_all
+from flamecharts.report import write_report
+
+from conftest import write_h2_study
+
+BURNER = """
+[burner]
+name = "report rig"
+port = "slot"
+port_gap_mm = 1.5
+port_velocity_m_s = 5.0
+"""
+
+
+@pytest.fixture(scope="module")
+def report(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("report")
+    config = write_h2_study(folder, phis="[0.08, 0.8, 1.2]", pressures="[1.0, 2.0]")
+    config.write_text(config.read_text() + BURNER)
+    study = load_study(config)
+    rows = run_study(study, out_dir=folder / "o", jobs=2).rows
+    charts = {p.stem for p in draw_all(rows, study, folder / "o")}
+    return write_report(study, rows, folder / "o"), charts
+
+
+def test_report_is_self_contained_with_every_chart(report):
+    path, charts = report
+    text = path.read_text()
+    for name in charts:
+        assert f"<figure id='{name}'><svg" in text
+    # nothing to fetch: no external scripts, styles, images or links (xmlns names are not requests)
+    assert not re.search(r"""(src|href)\s*=\s*["']https?:""", text)
+    assert "<script" not in text and "<link" not in text and "@import" not in text
+    assert "not certification" in text and "sha256" in text and "Cantera" in text
+    assert "Points without a flame" in text and "no_flame" in text  # phi 0.08 is recorded, with its reason
+
+
+def test_report_renders_in_headless_chromium(report, tmp_path):
+    path, _ = report
+    browser = shutil.which("chromium") or shutil.which("chromium-browser")
+    if browser is None:
+        pytest.skip("chromium is not installed (.ci/run installs Debian's chromium package)")
+    shot = tmp_path / "report.png"
+    subprocess.run([browser, "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+                    "--disable-background-networking", "--disable-component-update", "--disable-sync",
+                    f"--user-data-dir={tempfile.mkdtemp()}", "--host-resolver-rules=MAP * ~NOTFOUND",
+                    "--window-size=1280,3000", f"--screenshot={shot}", path.as_uri()],
+                   capture_output=True, timeout=120, check=True)
+    import matplotlib.image as mpimg
+    assert np.asarray(mpimg.imread(shot)).std() > 0.05
