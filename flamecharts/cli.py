@@ -74,6 +74,12 @@ def _cmd_check(args) -> int:
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
     _print_gases(study)
     _print_burner(study)
+    if stored:
+        from .runner import study_rows
+
+        with Store(out / DB_NAME, readonly=True) as st:
+            rows = study_rows(study, pts, st.rows([p.key for p in pts]))
+        _print_points(study, [r for r in rows if r["status"] != "pending"])
     print(f"Plan: {len(pts)} points in {len(chains)} chains (longest {max(len(c.points) for c in chains)}); "
           f"{stored} already stored in {out}, {len(pts) - stored} to solve")
     return 0
@@ -130,6 +136,34 @@ def _print_margins(study, rows) -> None:
         what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
                 else f"at no {study.blend_with} fraction of the study")
         print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+
+
+MAX_POINT_LINES = 60
+
+
+def _print_points(study, rows) -> None:
+    """One line per point with the flame, its indicators and, with a burner, its margins."""
+    burner = study.burner is not None
+    head = (f"  {'gas':30s} {'phi':>5s} {'p':>6s} {'T_u':>6s} {'S_L':>7s} {'d_T':>6s} {'g_F':>7s} {'d_q':>5s}"
+            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {'BO':>5s}  verdict" if burner else ""))
+    unit = (f"  {'':30s} {'-':>5s} {'bar':>6s} {'K':>6s} {'cm/s':>7s} {'mm':>6s} {'1/s':>7s} {'mm':>5s}"
+            + (f" {'m/s':>6s} {'1/s':>7s} {'-':>5s} {'-':>5s}" if burner else ""))
+    print("Points (indicators per point; every column in results.csv):")
+    print(head)
+    print(unit)
+    for r in rows[:MAX_POINT_LINES]:
+        line = f"  {_blend_label(r):30s} {r['equivalence_ratio']:5.2f} {r['pressure_bar']:6g} {r['unburned_temperature_K']:6g} "
+        if r["status"] != "ok":
+            print(line + f"{r['status']}: {r['message'][:70]}")
+            continue
+        line += (f"{100 * r['laminar_flame_speed_m_s']:7.2f} {r['thermal_thickness_mm']:6.3f} "
+                 f"{r['flashback_critical_gradient_1_s']:7.0f} {r['quenching_distance_mm']:5.2f}")
+        if burner:
+            line += (f" {r['port_velocity_m_s']:6.3f} {r['wall_velocity_gradient_1_s']:7.0f} "
+                     f"{r['flashback_margin']:5.2f} {r['blowoff_margin']:5.2f}  {r['verdict']}")
+        print(line)
+    if len(rows) > MAX_POINT_LINES:
+        print(f"  ... and {len(rows) - MAX_POINT_LINES} more points in results.csv")
 
 
 def _finish_outputs(study, rows, out: Path, charts: bool, report: bool = False) -> list[Path]:
@@ -195,6 +229,8 @@ def _cmd_run(args) -> int:
                 f"{r['unburned_temperature_K']:g} K: {r['message']}")
     if len(summary.failures) > 20:
         print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
+    if not args.quiet:
+        _print_points(study, summary.rows)
     _print_margins(study, summary.rows)
     print(f"Results: {files[0]} (fuel-gas properties: {files[2]})")
     if not args.no_charts:

@@ -16,7 +16,7 @@ import matplotlib.pyplot as plt
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 
-from .charts import CMAP, MARKERS, _curve_label, _footer
+from .charts import CMAP, MARKERS, _curve_label, _curves as _fuel_keys, _footer
 from .fits import fit_power_law
 
 
@@ -41,15 +41,6 @@ def _finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str
 
 def _colours(n):
     return plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(n, 1)))
-
-
-def _fuel_keys(rows):
-    keys = []
-    for r in rows:
-        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
-        if k not in keys:
-            keys.append(k)
-    return keys
 
 
 def _of(rows, key):

@@ -55,6 +55,7 @@ def test_cli_run_writes_csv_and_charts(tmp_path, cli):
     assert "Newton" not in r.stdout + r.stderr and "Attempt" not in r.stdout + r.stderr
     assert "not certification" in r.stdout
     assert "not certification" in (out / "about.txt").read_text()
+    assert "not certification" in (out / "report.html").read_text()
 
 
 def test_charts_command_redraws_from_the_store(tmp_path, cli):
