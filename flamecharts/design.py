@@ -11,6 +11,7 @@ from __future__ import annotations
 from functools import lru_cache
 
 from . import indicators as ind
+from .errors import ConfigError
 from . import mixtures
 from .gasprops import fallback_data, fuel_gas_properties, ISO6976_2016
 
@@ -51,8 +52,11 @@ def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
     """ISO 6976 properties of a fuel gas plus its stoichiometric need of ``oxidizer``."""
     gq = study.gas_quality
     outside = [sp for sp in X_fuel if sp not in ISO6976_2016]
-    fb = fallback_data(_gas(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
-    props = fuel_gas_properties(X_fuel, gq.combustion_T_C, gq.metering_T_C, fallback=fb)
+    try:
+        fb = fallback_data(_gas(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
+        props = fuel_gas_properties(X_fuel, gq.combustion_T_C, gq.metering_T_C, fallback=fb)
+    except ValueError as exc:
+        raise ConfigError(f"fuel-gas properties of {', '.join(sorted(X_fuel))} cannot be computed: {exc}") from None
     X_ox = study.oxidizers[oxidizer]
     n_ox = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel) / X_ox["O2"]
     M = _molar_masses(study.mechanism_path, set(X_fuel) | set(X_ox))
