@@ -56,6 +56,7 @@ class Point:
     X_unburned: dict = field(compare=False, repr=False)
     key: str = ""
     family: str = ""
+    inputs: dict = field(default_factory=dict, compare=False, repr=False)  # what the key hashes
 
     @property
     def P(self) -> float:
@@ -105,7 +106,7 @@ def points(study: Study) -> list[Point]:
             index=len(out), fuel=fuel, oxidizer=ox, blend_with=study.blend_with,
             blend_fraction=frac, phi=phi, pressure_bar=P_bar, T_u=T_u, X_fuel=X_fuel,
             X_oxidizer=dict(X_ox), X_unburned=mixtures.unburned_mixture(X_fuel, X_ox, phi, o2),
-            key=_hash(inputs), family=_hash(fam)))
+            key=_hash(inputs), family=_hash(fam), inputs=inputs))
     return out
 
 

@@ -175,7 +175,6 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         # points are solved again only when a worker died on them (a transient failure)
         done_keys = {k for k, r in store.rows().items()
                      if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
-        by_key = {p.key: p for p in pts}
         todo = [p for p in pts if p.key not in done_keys]
         # one solve per distinct key: two points of a study may be the same flame
         seen, unique = set(), []
@@ -192,7 +191,6 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                 ready.append(p)
             else:
                 successors.setdefault(pred[p.index], []).append(p)
-        settings = planmod.settings_of(study)
         finished: dict[int, dict] = {}
         retries: dict[int, int] = {}
         in_flight: dict = {}
@@ -209,9 +207,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                 if prof is not None:
                     return prof
                 src = pred.get(src)
-            return store.nearest_profile(p.family, planmod.point_inputs(settings, p.X_fuel, p.X_oxidizer, p.phi,
-                                                                        p.pressure_bar, p.T_u)["fuel"],
-                                         p.phi, p.pressure_bar, p.T_u)
+            return store.nearest_profile(p.family, p.inputs["fuel"], p.phi, p.pressure_bar, p.T_u)
 
         if progress is not None:
             progress(Progress(done=0, total=len(unique), failed=0, no_flame=0, reused=reused, elapsed_s=0.0))
@@ -239,8 +235,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                         result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
                                   "message": f"worker error: {type(exc).__name__}: {first_line(exc)}",
                                   "solve_seconds": 0.0}
-                    result["inputs"] = planmod.point_inputs(
-                        settings, p.X_fuel, p.X_oxidizer, p.phi, p.pressure_bar, p.T_u)
+                    result["inputs"] = p.inputs
                     store.commit_point(p, result, run_id)
                     finished[p.index] = result
                     ready.extend(successors.get(p.index, []))
