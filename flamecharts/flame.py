@@ -37,8 +37,7 @@ MIN_FLAME_SPEED = 0.01  # m/s
 #: Mixtures whose equilibrium temperature rise is below this are not solved: even the
 #: leanest flammable hydrogen-air mixture (4 % H2, Coward & Jones, US Bureau of Mines
 #: Bulletin 503, 1952) rises about 330 K (computed, HP equilibrium), and methane at its
-#: 5 % lower limit about 1180 K (computed), so
-#: such points are recorded as "no_flame" at once.
+#: 5 % lower limit about 1180 K (computed). Such points are recorded as "no_flame" at once.
 MIN_EQUILIBRIUM_RISE_K = 300.0
 
 #: Relative mismatch between the end-of-domain temperature and HP equilibrium that is
@@ -133,8 +132,9 @@ def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     return f
 
 
-def measure(f, gas, T_u: float, P: float, X) -> dict:
-    """Measured quantities of a converged flame (SI units, plain floats)."""
+def measure(f, gas, T_u: float, P: float, X, T_eq: float) -> dict:
+    """Measured quantities of a converged flame (SI units, plain floats); T_eq is the HP
+    equilibrium temperature of the unburned mixture [K]."""
     # the flame's array properties set the shared gas object point by point, so read
     # them all before the gas is set to the inlet and equilibrium states below
     x = f.grid
@@ -145,15 +145,13 @@ def measure(f, gas, T_u: float, P: float, X) -> dict:
     q = f.heat_release_rate
     gas.TPX = T_u, P, X
     rho_u, cp_u = gas.density, gas.cp_mass
-    gas.equilibrate("HP")
-    T_eq = float(gas.T)
     return {
         "laminar_flame_speed_m_s": S_L,
         "thermal_thickness_m": profiles.thermal_thickness(x, T),
         "diffusive_thickness_m": profiles.diffusive_thickness(lam_u, rho_u, cp_u, S_L),
         "reaction_zone_thickness_m": profiles.reaction_zone_thickness(x, q),
         "adiabatic_flame_temperature_K": float(T[-1]),
-        "equilibrium_temperature_K": T_eq,
+        "equilibrium_temperature_K": float(T_eq),
         "max_temperature_K": float(T.max()),
         "expansion_ratio": profiles.expansion_ratio(rho[0], rho[-1]),
         "unburned_density_kg_m3": float(rho_u),
@@ -234,7 +232,7 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
                     f = _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics)
                 else:
                     f = _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, w)
-                metrics = measure(f, gas, T_u, P, X)
+                metrics = measure(f, gas, T_u, P, X, T_u + rise)
         except ct.CanteraError as exc:
             errors.append(f"{start} start: {first_line(exc)}")
             continue

@@ -46,8 +46,18 @@ CREATE TABLE IF NOT EXISTS points (
 );
 CREATE INDEX IF NOT EXISTS points_family ON points (family);
 """
-_POINT_COLUMNS = ["key", "family", "inputs", "phi", "pressure_bar", "unburned_temperature_K", "status", "message",
-                  "start", "metrics", "solve_seconds", "finished_at", "run_id", "profile"]
+
+
+def _schema_columns() -> list[str]:
+    """Columns of the points table as _SCHEMA defines them (the layout an existing store must have)."""
+    con = sqlite3.connect(":memory:")
+    con.executescript(_SCHEMA)
+    cols = [r[1] for r in con.execute("PRAGMA table_info(points)")]
+    con.close()
+    return cols
+
+
+_POINT_COLUMNS = _schema_columns()
 
 
 def pack_profile(profile: dict | None) -> bytes | None:
