@@ -33,6 +33,7 @@ def _parser() -> argparse.ArgumentParser:
     chk = sub.add_parser("check", help="validate a config and print the plan without solving")
     chk.add_argument("config", help="study config (TOML)")
     chk.add_argument("--out", help="output folder to compare with (default output/<config name>/)")
+    chk.add_argument("--jobs", type=int, default=None, help="workers to estimate the run time for (default: all cores)")
     ch = sub.add_parser("charts", help="redraw results.csv and the charts of a finished run from its store")
     ch.add_argument("dir", help="output folder of a run")
     rp = sub.add_parser("report", help="write report.html of a finished run (redraws its charts from the store)")
@@ -53,12 +54,14 @@ def _cmd_check(args) -> int:
 
     study = load_study(args.config)
     pts = plan.points(study)
-    chains = plan.chains(pts)
     out = Path(args.out) if args.out else default_out_dir(study)
-    stored = 0
+    stored, sources, timings = 0, [], {}
     if (out / DB_NAME).is_file():
         with Store(out / DB_NAME, readonly=True) as st:
             keys = st.keys()
+            families = {p.family for p in pts}
+            sources = [plan.StoredFlame(**s) for s in st.warm_sources(families)]
+            timings = st.timings(families)
         stored = sum(p.key in keys for p in pts)
     n = NUMERICS[study.resolution]
     print(f"Study: {study.title}")
@@ -80,9 +83,34 @@ def _cmd_check(args) -> int:
         with Store(out / DB_NAME, readonly=True) as st:
             rows = study_rows(study, pts, st.rows([p.key for p in pts]))
         _print_points(study, [r for r in rows if r["status"] != "pending"])
-    print(f"Plan: {len(pts)} points in {len(chains)} chains (longest {max(len(c.points) for c in chains)}); "
-          f"{stored} already stored in {out}, {len(pts) - stored} to solve")
+    todo = list({p.key: p for p in pts if p.key not in keys}.values()) if stored else pts
+    tree = plan.warm_tree(todo, sources)
+    print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
+          f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
+          f"(longest warm-start path {tree.depth})")
+    if todo:
+        print(_estimate_line(study, tree, timings, args.jobs))
     return 0
+
+
+def _estimate_line(study, tree, timings: dict, jobs) -> str:
+    """'Estimated run time ...' from stored timings of the same settings, else from the mechanism size."""
+    import statistics
+
+    from . import plan
+    from .runner import resolve_jobs
+
+    jobs = resolve_jobs(jobs)
+    secs = plan.default_flame_seconds(len(study.atoms))
+    basis = f"from the mechanism size ({len(study.atoms)} species)"
+    measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
+    if measured:
+        secs.update(measured)
+        basis = f"from {sum(len(v) for v in timings.values())} stored timings"
+    t = plan.estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
+    when = f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"
+    return (f"Estimated run time: about {when} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
+            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)")
 
 
 def _blend_label(r) -> str:

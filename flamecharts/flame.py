@@ -55,6 +55,9 @@ class Numerics:
     width_m : initial domain width at 1 bar [m]; scaled as 1/sqrt(p) and widened by
         Cantera's automatic solve when the flame needs it
     max_grid_points : ceiling on grid points
+    tail_share : a refinement pass of the final stage that would add no more than this
+        share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the flame
+        converged on the grid before it is kept (see :func:`_refine_loop`)
     """
 
     label: str
@@ -62,6 +65,7 @@ class Numerics:
     prune: float = 0.0
     width_m: float = 0.03
     max_grid_points: int = 5000
+    tail_share: float = 0.01
 
     def as_dict(self) -> dict:
         d = asdict(self)
@@ -74,6 +78,21 @@ NUMERICS = {
     "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01))),
     "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01), (2.0, 0.1, 0.004))),
 }
+
+
+#: Smallest refinement pass that is always skipped at the end (see Numerics.tail_share).
+TAIL_MIN_POINTS = 3
+
+#: Steady and time-stepping Jacobian ages for warm starts: a finite-difference Jacobian
+#: of a detailed mechanism costs as much as ~170 residual evaluations, so a stale
+#: Jacobian that needs more Newton steps is cheaper than a fresh one
+#: (tests/benchmarks/sweep_speed.py, DEVELOPERS.md).
+WARM_JACOBIAN_AGE = (40, 40)
+
+#: Pressure exponent used only to rescale a neighbour's profile to a new pressure
+#: before solving (S_L ~ p^beta; beta about -0.4 to -0.5 for methane-air, Gu et al.,
+#: Combust. Flame 121 (2000) 41). The solver corrects the rest.
+GUESS_PRESSURE_EXPONENT = -0.45
 
 
 class FlameError(Exception):
@@ -94,18 +113,89 @@ def _set_criteria(f, stage, prune):
     f.set_refine_criteria(ratio=ratio, slope=slope, curve=curve, prune=min(prune, 0.5 * slope))
 
 
+def scaled_profile(grid_m, velocity_m_s, T_K, P_from: float, P_to: float,
+                   beta: float = GUESS_PRESSURE_EXPONENT) -> tuple[np.ndarray, np.ndarray]:
+    """Grid and velocity of a converged flame stretched to another pressure.
+
+    A premixed flame's thickness scales as delta ~ alpha_u/S_L ~ p^-(1+beta) and all its
+    velocities as S_L ~ p^beta (Law, Combustion Physics, 2006, ch. 7), so the profile is
+    stretched about the point where T = 0.75 T_u + 0.25 T_b (where Cantera pins the free
+    flame) and its velocities scaled; temperature and composition keep their shape.
+
+    Parameters
+    ----------
+    grid_m, velocity_m_s, T_K : profile [m], [m/s], [K]
+    P_from, P_to : pressure of the profile and of the new flame [Pa]
+    beta : pressure exponent of the flame speed [-]
+
+    Returns
+    -------
+    (grid [m] starting at 0, velocity [m/s])
+
+    Examples
+    --------
+    >>> g, u = scaled_profile([0.0, 0.01, 0.02], [0.4, 1.0, 2.8], [300.0, 1200.0, 2200.0], 1e5, 4e5, -0.5)
+    >>> [round(float(v), 4) for v in g], [round(float(v), 2) for v in u]
+    ([0.0, 0.005, 0.01], [0.2, 0.5, 1.4])
+    """
+    x = np.asarray(grid_m, dtype=float)
+    u = np.asarray(velocity_m_s, dtype=float)
+    if P_from == P_to:
+        return x, u
+    T = np.asarray(T_K, dtype=float)
+    T_mid = 0.75 * T[0] + 0.25 * T[-1]
+    rising = int(np.argmax(T)) + 1
+    x_mid = float(np.interp(T_mid, T[:rising], x[:rising]))
+    stretch = (P_to / P_from) ** (-(1.0 + beta))
+    x_new = x_mid + (x - x_mid) * stretch
+    return x_new - x_new[0], u * (P_to / P_from) ** beta
+
+
 def _initial_guess(ct, gas, warm: dict, P: float):
-    """A neighbour's converged profile as a Cantera SolutionArray at pressure P."""
-    x = np.asarray(warm["grid"], dtype=float)
+    """A neighbour's converged profile as a Cantera SolutionArray at pressure P (stretched
+    to P when it was solved at another pressure)."""
+    x, velocity = scaled_profile(warm["grid"], warm["velocity"], warm["T"], float(warm.get("P", P)), P)
     Y_src = np.asarray(warm["Y"], dtype=float)
     index = {n: i for i, n in enumerate(warm["species"])}
     Y = np.zeros((len(x), gas.n_species))
     for k, name in enumerate(gas.species_names):
         if name in index:
             Y[:, k] = Y_src[index[name]]
-    arr = ct.SolutionArray(gas, shape=len(x), extra={"grid": x, "velocity": np.asarray(warm["velocity"], float)})
+    arr = ct.SolutionArray(gas, shape=len(x), extra={"grid": x, "velocity": velocity})
     arr.TPY = np.asarray(warm["T"], dtype=float), P, Y
     return arr
+
+
+def tail_points(n_points: int, share: float) -> int:
+    """Largest refinement pass [points] that is not taken at the end of the final stage.
+
+    >>> tail_points(750, 0.01), tail_points(120, 0.01)
+    (7, 3)
+    """
+    return max(TAIL_MIN_POINTS, int(share * n_points))
+
+
+def _refine_loop(f, numerics: Numerics) -> None:
+    """Refine a converged flame to the final criteria, one Cantera pass at a time.
+
+    Each pass that adds points costs a new Jacobian on the larger grid; near the end
+    Cantera's refiner tends to add a handful of points per pass (ratio criterion
+    cascades), each pass as costly as the first. A pass that would add at most
+    :func:`tail_points` points is undone and the flame converged on the grid before it
+    is kept: a 1 % denser grid moves S_L by far less than the setting's own error
+    (measured in tests/benchmarks/sweep_speed.py against Cantera's full refinement).
+    """
+    while True:
+        before = f.to_array()
+        n = len(f.grid)
+        f.refine(loglevel=0)
+        added = len(f.grid) - n
+        if added == 0:
+            return
+        if added <= tail_points(n, numerics.tail_share):
+            f.from_array(before)
+            return
+        f.solve(loglevel=0, refine_grid=False, auto=False)
 
 
 def _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics):
@@ -116,19 +206,48 @@ def _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics):
     f.solve(loglevel=0, auto=True)
     for stage in numerics.stages[1:]:
         _set_criteria(f, stage, numerics.prune)
-        f.solve(loglevel=0, refine_grid=True, auto=False)
+        _refine_loop(f, numerics)
     return f
+
+
+def _regrid(f, guess, stride: int = 2, max_passes: int = 40) -> None:
+    """Set a neighbour's profile as the initial guess on a grid refined afresh for it.
+
+    Carrying the neighbour's own grid from flame to flame only ever adds points (Cantera's
+    pruning removes almost none with a detailed mechanism), and every point costs
+    Jacobian time. Instead every other point of the neighbour's grid is kept and Cantera's
+    refiner, at the flame's criteria, adds points back where the neighbour's profile
+    needs them, each pass re-reading the profile at the new points (no solve happens
+    here). The grid ends close to what a fresh solve of the neighbour would have.
+    """
+    x = np.asarray(guess.grid)
+    keep = np.unique(np.r_[0:len(x):stride, len(x) - 1])
+    f.set_initial_guess(data=guess[keep])
+    gas = f.gas
+    columns = {"velocity": np.asarray(guess.velocity), "T": np.asarray(guess.T)}
+    Y = np.asarray(guess.Y)
+    columns.update({name: Y[:, k] for k, name in enumerate(gas.species_names)})
+    for _ in range(max_passes):
+        n = len(f.grid)
+        f.refine(loglevel=0)
+        if len(f.grid) == n:
+            return
+        grid = np.asarray(f.grid)
+        for name, values in columns.items():
+            f.flame.set_values(name, np.interp(grid, x, values))
 
 
 def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     gas.TPX = T_u, P, X
     f = _make_flame(ct, gas, numerics.width_m, transport, soret, numerics)
-    f.set_initial_guess(data=_initial_guess(ct, gas, warm, P))
+    _set_criteria(f, numerics.stages[-1], numerics.prune)
+    _regrid(f, _initial_guess(ct, gas, warm, P))
     f.P = P
     f.inlet.T = T_u
     f.inlet.X = X
-    _set_criteria(f, numerics.stages[-1], numerics.prune)
-    f.solve(loglevel=0, refine_grid=True, auto=False)
+    f.set_max_jac_age(*WARM_JACOBIAN_AGE)
+    f.solve(loglevel=0, refine_grid=False, auto=False)
+    _refine_loop(f, numerics)
     return f
 
 

@@ -1,4 +1,4 @@
-"""A Study -> its points (each with a key for the store) -> chains of warm-starting neighbours.
+"""A Study -> its points (each with a key for the store) -> a tree of warm-starting neighbours.
 
 A point's key is a hash of everything that changes its answer: mechanism file
 content, Cantera version, transport model, thermal diffusion, numerical settings,
@@ -6,19 +6,22 @@ the blended fuel and the oxidizer compositions, equivalence ratio, pressure and
 unburned temperature. Names given in the config are not part of the key, so a
 renamed fuel with the same composition reuses stored flames.
 
-Chains: points that differ only in equivalence ratio form a group. Each group is
-seeded at the equivalence ratio nearest SEED_PHI (hot, fast flames converge most
-reliably from scratch) and runs outward from there in two chains, leaner and
-richer, each flame warm-starting the next.
+Warm starts: every point starts from its nearest neighbour in a normalised
+(phi, fuel composition, log p, T_u) distance, among the points of the study and
+the flames stored by earlier runs (:func:`warm_tree`). Points farther than
+MAX_WARM_DISTANCE from everything are solved from scratch, starting with the one
+nearest SEED_PHI (hot, fast flames converge most reliably from scratch).
 """
 from __future__ import annotations
 
 import hashlib
 import json
+import math
 from dataclasses import dataclass, field
 from itertools import product
 
 import cantera
+import numpy as np
 
 from . import mixtures
 from .flame import NUMERICS
@@ -27,7 +30,7 @@ from .study import Study
 #: Bump when the measurements taken from a converged flame change meaning.
 MEASURE_VERSION = 1
 
-#: Groups start at the equivalence ratio nearest this value.
+#: Flames solved from scratch are chosen nearest this equivalence ratio.
 SEED_PHI = 1.05
 
 
@@ -63,9 +66,6 @@ class Point:
         """Pressure [Pa]."""
         return self.pressure_bar * 1e5
 
-    @property
-    def group(self) -> tuple:
-        return (self.fuel, self.oxidizer, self.blend_fraction, self.pressure_bar, self.T_u)
 
 
 def settings_of(study: Study) -> dict:
@@ -110,39 +110,200 @@ def points(study: Study) -> list[Point]:
     return out
 
 
-@dataclass
-class Chain:
-    """Points solved in order, each warm-starting from the one before.
+#: One unit of the normalised distance between two flames, per coordinate: a warm start
+#: across one unit costs about the same (measured on GRI-Mech 3.0 methane-air flames with
+#: tests/benchmarks/sweep_speed.py, DEVELOPERS.md: a step of 0.1 in phi, 15 % hydrogen
+#: blended in and a factor 1.6 in pressure each cost 2-3 Jacobians). The fuel coordinate
+#: is the total-variation distance of the fuel-stream mole fractions (0.1 = 10 % of the
+#: fuel replaced, e.g. a blend-fraction step of 0.1). The preheat scale is a guess.
+DISTANCE_SCALES = {"phi": 0.1, "fuel": 0.1, "ln_p": math.log(1.6), "T_u": 50.0}
 
-    after : index of the point whose result seeds the first point of this chain
-        (None: the first point starts from a stored neighbour or from scratch).
+#: A point farther than this (in units of DISTANCE_SCALES) from every solved or stored
+#: flame is solved from scratch: a factor-5 pressure jump (3.4 units) warm-starts more
+#: slowly than a fresh solve (measured, DEVELOPERS.md).
+MAX_WARM_DISTANCE = 3.0
+
+
+@dataclass(frozen=True)
+class StoredFlame:
+    """A burning flame in the store that may warm-start a point of this study."""
+
+    key: str
+    family: str
+    phi: float
+    pressure_bar: float
+    T_u: float
+    X_fuel: dict
+
+
+@dataclass
+class WarmPlan:
+    """Which flame each point warm-starts from.
+
+    parent : point index -> index of the point of this plan it starts from (None: none)
+    stored : point index -> key of the stored flame it starts from (earlier runs)
+    roots : points solved from scratch, in the order they were chosen
+    height : point index -> number of points on the longest warm-start path below it,
+        itself included (hand out the highest first to keep every worker busy to the end)
+    distance : point index -> normalised distance to its source (inf for roots)
     """
 
-    points: list[Point]
-    after: int | None = None
+    parent: dict[int, int | None]
+    stored: dict[int, str]
+    roots: list[int]
+    height: dict[int, int]
+    distance: dict[int, float]
+
+    @property
+    def depth(self) -> int:
+        """Points on the longest warm-start path of the plan."""
+        return max(self.height.values(), default=0)
 
 
-def chains(pts: list[Point]) -> list[Chain]:
-    """Group points by everything but equivalence ratio; split each group at its seed."""
-    groups: dict[tuple, list[Point]] = {}
-    for p in pts:
-        groups.setdefault(p.group, []).append(p)
-    out: list[Chain] = []
-    for members in groups.values():
-        members = sorted(members, key=lambda p: p.phi)
-        seed = min(range(len(members)), key=lambda i: (abs(members[i].phi - SEED_PHI), members[i].phi))
-        out.append(Chain(members[seed:]))
-        if seed > 0:
-            out.append(Chain(members[:seed][::-1], after=members[seed].index))
-    return out
+def _coordinates(items, species: list[str]) -> tuple[np.ndarray, np.ndarray]:
+    """(phi, ln p, T) scaled to DISTANCE_SCALES, and fuel mole fractions scaled likewise."""
+    s = DISTANCE_SCALES
+    scal = np.array([[it.phi / s["phi"], math.log(it.pressure_bar) / s["ln_p"], it.T_u / s["T_u"]]
+                     for it in items], dtype=float).reshape(-1, 3)
+    fuel = np.array([[float(it.X_fuel.get(k, 0.0)) for k in species] for it in items],
+                    dtype=float).reshape(-1, len(species))
+    return scal, fuel / s["fuel"]
 
 
-def predecessors(chain_list: list[Chain]) -> dict[int, int | None]:
-    """Point index -> index of the point it warm-starts from (None for chain seeds)."""
-    pred: dict[int, int | None] = {}
-    for c in chain_list:
-        prev = c.after
-        for p in c.points:
-            pred[p.index] = prev
-            prev = p.index
-    return pred
+def warm_distance(scal_a: np.ndarray, fuel_a: np.ndarray, scal_b: np.ndarray, fuel_b: np.ndarray) -> np.ndarray:
+    """Normalised distance from one flame (a: 1-D coordinates) to many (b: rows).
+
+    Euclidean in (phi, ln p, T_u) and the total-variation distance of the fuel stream,
+    each divided by its scale in DISTANCE_SCALES.
+
+    >>> a = np.array([10.0, 0.0, 6.0]); b = np.array([[9.0, 0.0, 6.0], [10.0, 1.0, 6.0]])
+    >>> fa = np.array([10.0, 0.0]); fb = np.array([[10.0, 0.0], [7.0, 3.0]])
+    >>> [round(float(v), 3) for v in warm_distance(a, fa, b, fb)]
+    [1.0, 3.162]
+    """
+    d2 = ((scal_b - scal_a) ** 2).sum(axis=1) + (0.5 * np.abs(fuel_b - fuel_a).sum(axis=1)) ** 2
+    return np.sqrt(d2)
+
+
+def warm_tree(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
+    """Plan the warm starts of ``pts``: each point starts from its nearest neighbour.
+
+    A greedy spanning tree (Prim's order): repeatedly take the unsolved point nearest to
+    any flame already solved or planned (stored flames of earlier runs included) and
+    warm-start it from that flame; when every remaining point is farther than
+    MAX_WARM_DISTANCE, the one nearest SEED_PHI (then lowest pressure, highest preheat)
+    becomes a new root, solved from scratch. Points only warm-start from flames of the
+    same family (settings and oxidizer). The plan depends only on the points and the
+    stored flames, never on timing, so a run gives the same answers however many
+    workers it has.
+    """
+    pts = sorted(pts, key=lambda p: p.index)  # ties go to the earlier point of the study
+    n = len(pts)
+    if n == 0:
+        return WarmPlan(parent={}, stored={}, roots=[], height={}, distance={})
+    species = sorted({k for p in pts for k in p.X_fuel} | {k for f in stored for k in f.X_fuel})
+    scal, fuel = _coordinates(pts, species)
+    fam = np.array([p.family for p in pts], dtype=object)
+    best = np.full(n, np.inf)
+    src: list[tuple[str, int | str] | None] = [None] * n
+
+    def relax(s_scal, s_fuel, s_family, label) -> None:
+        d = warm_distance(s_scal, s_fuel, scal, fuel)
+        d[fam != s_family] = np.inf
+        better = d < best
+        best[better] = d[better]
+        for i in np.flatnonzero(better):
+            src[i] = label
+
+    if stored:
+        st_scal, st_fuel = _coordinates(stored, species)
+        for j, f in enumerate(stored):
+            relax(st_scal[j], st_fuel[j], f.family, ("stored", f.key))
+    open_ = np.ones(n, dtype=bool)
+    parent: dict[int, int | None] = {}
+    stored_of: dict[int, str] = {}
+    roots: list[int] = []
+    distance: dict[int, float] = {}
+    order: list[int] = []
+    for _ in range(n):
+        cand = np.where(open_, best, np.nan)
+        i = int(np.nanargmin(cand))
+        if best[i] > MAX_WARM_DISTANCE:
+            i = min(np.flatnonzero(open_), key=lambda k: (abs(pts[k].phi - SEED_PHI), pts[k].phi,
+                                                          pts[k].pressure_bar, -pts[k].T_u, k))
+            parent[i] = None
+            roots.append(i)
+            distance[i] = math.inf
+        else:
+            kind, ref = src[i]
+            parent[i] = ref if kind == "point" else None
+            if kind == "stored":
+                stored_of[i] = ref
+            distance[i] = float(best[i])
+        open_[i] = False
+        best[i] = np.inf
+        order.append(i)
+        relax(scal[i], fuel[i], fam[i], ("point", i))
+        best[~open_] = np.inf
+    height = {i: 1 for i in range(n)}
+    for i in reversed(order):
+        if parent[i] is not None:
+            height[parent[i]] = max(height[parent[i]], height[i] + 1)
+    ix = [p.index for p in pts]  # positions in pts -> point indices
+    return WarmPlan(parent={ix[i]: (None if parent[i] is None else ix[parent[i]]) for i in range(n)},
+                    stored={ix[i]: k for i, k in stored_of.items()}, roots=[ix[i] for i in roots],
+                    height={ix[i]: h for i, h in height.items()}, distance={ix[i]: d for i, d in distance.items()})
+
+
+#: Default seconds per flame on one core, per (mechanism species + 4)^2, when the store
+#: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
+#: (variables per point) x (residual cost per point ~ variables) (measured on the
+#: project's 2-core machine: h2o2.yaml and gri30.yaml, DEVELOPERS.md).
+SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 1.2e-3}
+
+#: Worker start-up and mechanism parsing per run [s] (measured, DEVELOPERS.md).
+START_UP_SECONDS = 2.0
+
+
+def default_flame_seconds(n_species: int) -> dict[str, float]:
+    """Seconds per flame solved fresh and warm on one core, from the mechanism size.
+
+    >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
+    {'fresh': 19.5, 'warm': 3.9}
+    """
+    nv2 = (n_species + 4) ** 2
+    return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
+
+
+def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float) -> float:
+    """Wall time [s] of running ``plan`` on ``jobs`` workers, roots taking ``fresh_s`` and
+    the other points ``warm_s``: a list-scheduling simulation of the runner's own rule
+    (a point is ready once its source has finished; the ready point with the longest
+    path below it goes first), plus START_UP_SECONDS.
+
+    >>> p = WarmPlan(parent={0: None, 1: 0, 2: 0, 3: 1}, stored={}, roots=[0],
+    ...              height={0: 3, 1: 2, 2: 1, 3: 1}, distance={})
+    >>> estimate_run_seconds(p, 2, 10.0, 2.0) - START_UP_SECONDS
+    14.0
+    """
+    import heapq
+
+    children: dict[int, list[int]] = {}
+    ready: list[tuple[int, int]] = []
+    for i, par in plan.parent.items():
+        if par is None:
+            heapq.heappush(ready, (-plan.height[i], i))
+        else:
+            children.setdefault(par, []).append(i)
+    slots = max(1, jobs)
+    running: list[tuple[float, int]] = []  # (finish time, point)
+    now = 0.0
+    while ready or running:
+        while ready and len(running) < slots:
+            _, i = heapq.heappop(ready)
+            cost = fresh_s if (plan.parent[i] is None and i not in plan.stored) else warm_s
+            heapq.heappush(running, (now + cost, i))
+        now, i = heapq.heappop(running)
+        for c in children.get(i, []):
+            heapq.heappush(ready, (-plan.height[c], c))
+    return now + START_UP_SECONDS

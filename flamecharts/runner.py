@@ -1,22 +1,22 @@
 """Run a study: solve every point the store lacks, in parallel, commit each as it finishes.
 
-The parent process drives the chains: a point is handed to a worker once the point
-it warm-starts from has finished, with that neighbour's profile in the task. Each
-task is one flame, so every finished flame comes back, and is committed, at once;
-idle workers take the next ready point of any chain. Workers are joblib's loky
-processes (the executor behind ``joblib.Parallel``), used through its futures
-interface because chains hand work on point by point. With ``jobs=1`` everything
-runs in this process.
+The parent process walks the warm-start tree of the plan (plan.warm_tree): a point
+is handed to a worker once the flame it warm-starts from has finished, with that
+flame's profile in the task. Each task is one flame, so every finished flame comes
+back, and is committed, at once; an idle worker takes the ready point with the
+longest warm-start path below it. Workers are joblib's loky processes (the executor
+behind ``joblib.Parallel``), used through its futures interface because the tree
+hands work on point by point. With ``jobs=1`` everything runs in this process.
 
 Workers return plain data; only the parent writes the store.
 """
 from __future__ import annotations
 
+import heapq
 import os
 import time
 import uuid
 from concurrent.futures import FIRST_COMPLETED, wait
-from collections import deque
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Callable
@@ -82,10 +82,12 @@ def _gas(mechanism_path: str, sha: str, transport: str):
 
 def solve_task(task: dict) -> dict:
     """Solve one point from a plain task dict; returns a plain result dict (runs in a worker)."""
+    cpu0 = time.process_time()
     gas = _gas(task["mechanism_path"], task["mechanism_sha256"], task["transport"])
     result = solve_flame(gas, task["T_u"], task["P"], task["X"], task["transport"],
                          task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"))
     result["key"] = task["key"]
+    result["cpu_seconds"] = time.process_time() - cpu0
     return result
 
 
@@ -183,14 +185,16 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                 seen.add(p.key)
                 unique.append(p)
         reused = len(pts) - len(todo)
-        pred = planmod.predecessors(planmod.chains(unique))
-        successors: dict[int, list[planmod.Point]] = {}
-        ready: deque[planmod.Point] = deque()
+        sources = [planmod.StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})]
+        tree = planmod.warm_tree(unique, sources)
+        by_index = {p.index: p for p in unique}
+        children: dict[int, list[int]] = {}
+        ready: list[tuple[int, int]] = []  # heap: the longest warm-start path below first
         for p in unique:
-            if pred[p.index] is None:
-                ready.append(p)
+            if tree.parent[p.index] is None:
+                heapq.heappush(ready, (-tree.height[p.index], p.index))
             else:
-                successors.setdefault(pred[p.index], []).append(p)
+                children.setdefault(tree.parent[p.index], []).append(p.index)
         finished: dict[int, dict] = {}
         retries: dict[int, int] = {}
         in_flight: dict = {}
@@ -199,15 +203,16 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         executor = _executor(jobs)
 
         def warm_for(p: planmod.Point) -> dict | None:
-            """Profile of the nearest finished, burning point up the chain, else of the
-            nearest stored neighbour from an earlier run (None: solve fresh)."""
-            src = pred.get(p.index)
-            while src is not None:
-                prof = finished.get(src, {}).get("profile")
+            """Profile of the nearest finished, burning flame up the point's warm-start path
+            (a failed flame passes its own source on), else of the stored flame the path
+            starts from (None: solve fresh)."""
+            cur = p.index
+            while tree.parent[cur] is not None:
+                cur = tree.parent[cur]
+                prof = finished.get(cur, {}).get("profile")
                 if prof is not None:
                     return prof
-                src = pred.get(src)
-            return store.nearest_profile(p.family, p.inputs["fuel"], p.phi, p.pressure_bar, p.T_u)
+            return store.profile(tree.stored[cur]) if cur in tree.stored else None
 
         if progress is not None:
             progress(Progress(done=0, total=len(unique), failed=0, no_flame=0, reused=reused, elapsed_s=0.0))
@@ -215,7 +220,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         try:
             while ready or in_flight:
                 while ready and len(in_flight) < jobs and submitted < limit:
-                    p = ready.popleft()
+                    p = by_index[heapq.heappop(ready)[1]]
                     in_flight[executor.submit(solve_task, _task(study, p, warm_for(p)))] = p
                     submitted += 1
                 if not in_flight:
@@ -228,7 +233,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     except Exception as exc:  # the worker died or the task raised: retry, then record
                         retries[p.index] = retries.get(p.index, 0) + 1
                         if retries[p.index] <= MAX_RETRIES:
-                            ready.appendleft(p)
+                            heapq.heappush(ready, (-tree.height[p.index], p.index))
                             submitted -= 1
                             executor = _executor(jobs)
                             continue
@@ -238,7 +243,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     result["inputs"] = p.inputs
                     store.commit_point(p, result, run_id)
                     finished[p.index] = result
-                    ready.extend(successors.get(p.index, []))
+                    for c in children.get(p.index, []):
+                        heapq.heappush(ready, (-tree.height[c], c))
                     solved += 1
                     failed += result["status"] == "failed"
                     no_flame += result["status"] == "no_flame"
@@ -246,7 +252,9 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                         progress(Progress(done=solved, total=len(unique), failed=failed, no_flame=no_flame, reused=reused,
                                           elapsed_s=time.perf_counter() - t0,
                                           last={"point": p, "status": result["status"],
-                                                "message": result["message"]}))
+                                                "message": result["message"], "start": result["start"],
+                                                "solve_seconds": result["solve_seconds"],
+                                                "cpu_seconds": result.get("cpu_seconds", 0.0)}))
             clean_exit = True
         finally:
             if not clean_exit:

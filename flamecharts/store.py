@@ -195,16 +195,27 @@ class Store:
         row = self.db.execute("SELECT profile FROM points WHERE key = ?", (key,)).fetchone()
         return unpack_profile(row[0]) if row else None
 
-    def nearest_profile(self, family: str, fuel: dict, phi: float, pressure_bar: float, T_u: float) -> dict | None:
-        """Profile of the stored burning flame nearest in equivalence ratio with the same settings,
-        oxidizer, fuel, pressure and temperature (None if there is none)."""
-        best = None
-        for key, p_phi, inputs in self.db.execute(
-                "SELECT key, phi, inputs FROM points WHERE family = ? AND status = 'ok' AND pressure_bar = ? "
-                "AND unburned_temperature_K = ? AND profile IS NOT NULL", (family, pressure_bar, T_u)):
-            if json.loads(inputs)["fuel"] == fuel and (best is None or abs(p_phi - phi) < best[0]):
-                best = (abs(p_phi - phi), key)
-        return self.profile(best[1]) if best else None
+    def warm_sources(self, families: set[str]) -> list[dict]:
+        """Burning flames with a stored profile in the given families: key, family, phi,
+        pressure_bar, T_u and the fuel-stream composition, for planning warm starts."""
+        out = []
+        for fam in sorted(families):
+            for key, p_phi, p_bar, T_u, inputs in self.db.execute(
+                    "SELECT key, phi, pressure_bar, unburned_temperature_K, inputs FROM points "
+                    "WHERE family = ? AND status = 'ok' AND profile IS NOT NULL ORDER BY key", (fam,)):
+                fuel = {k: float(v) for k, v in json.loads(inputs)["fuel"].items()}
+                out.append({"key": key, "family": fam, "phi": p_phi, "pressure_bar": p_bar, "T_u": T_u,
+                            "X_fuel": fuel})
+        return out
+
+    def timings(self, families: set[str]) -> dict[str, list[float]]:
+        """Solve seconds of the burning flames of these families, by start ('fresh', 'warm')."""
+        out: dict[str, list[float]] = {"fresh": [], "warm": []}
+        for fam in sorted(families):
+            for start, secs in self.db.execute(
+                    "SELECT start, solve_seconds FROM points WHERE family = ? AND status = 'ok'", (fam,)):
+                out.setdefault(start, []).append(float(secs))
+        return out
 
     def integrity_ok(self) -> bool:
         return self.db.execute("PRAGMA integrity_check").fetchone()[0] == "ok"

@@ -147,7 +147,10 @@ def test_check_prints_the_plan_and_writes_nothing(tmp_path, cli):
     config = write_h2_study(tmp_path)
     r = cli("check", config, cwd=tmp_path)
     assert r.returncode == 0, r.stderr
-    assert "Plan: 6 points in 4 chains" in r.stdout
+    # blend fractions 0 and 0.5 lie 5 distance units apart: one flame from scratch for each
+    assert "Plan: 6 points; 0 already stored" in r.stdout
+    assert "6 to solve: 2 from scratch, 4 warm-started from a neighbour" in r.stdout
+    assert "Estimated run time: about" in r.stdout
     assert not (tmp_path / "output").exists()
 
 
