@@ -186,7 +186,7 @@ class ClusterSession:
         if n is not None:
             try:
                 self.cluster = LocalCluster(n_workers=n, threads_per_worker=1, processes=True,
-                                            dashboard_address=None, silence_logs=logging.ERROR)
+                                            dashboard_address=":0", silence_logs=logging.ERROR)
             except Exception as exc:  # noqa: BLE001 - anything that stops a local cluster from starting
                 raise ClusterError(f"a local Dask cluster of {n} workers (--cluster {self.spec}) did not "
                                    f"start: {first_line(exc, 200)}") from None
