@@ -89,7 +89,7 @@ def _mechanism_file(text: str, sha: str) -> str:
     """Write the mechanism text once per worker into its temporary folder; return the path."""
     path = Path(tempfile.gettempdir()) / f"flamecharts-mechanism-{sha[:16]}.yaml"
     if not path.is_file():
-        tmp = path.with_suffix(f".{os.getpid()}.tmp")
+        tmp = path.with_suffix(f".{uuid.uuid4().hex}.tmp")
         tmp.write_text(text, encoding="utf-8")
         os.replace(tmp, path)
     return str(path)

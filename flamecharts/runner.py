@@ -8,7 +8,8 @@ processes (the executor behind ``joblib.Parallel``), used through its futures
 interface because chains hand work on point by point. With ``jobs=1`` everything
 runs in this process.
 
-Workers return plain data; only the parent writes the store.
+Workers return plain data; only the parent writes the store. With ``cluster`` the
+same loop submits to Dask workers instead (see cluster.py).
 """
 from __future__ import annotations
 

@@ -38,7 +38,7 @@ def noop_round_trips(workers: int, n: int) -> dict:
     from distributed import Client, LocalCluster, wait
 
     with LocalCluster(n_workers=workers, threads_per_worker=1, processes=True, dashboard_address=":0",
-                      silence_logs=logging.ERROR) as cluster, Client(cluster, set_as_default=False) as client:
+                      silence_logs=logging.ERROR) as cluster, Client(cluster) as client:
         client.submit(_noop, 0, pure=False).result()  # warm up
         ex = client.get_executor(pure=False)
         t = time.perf_counter()
