@@ -1,6 +1,7 @@
 """Command line: the only place that prints, draws progress and picks exit codes.
 
-flamecharts run CONFIG [--out DIR] [--jobs N]   solve, store, write results.csv and charts
+flamecharts run CONFIG [--out DIR] [--jobs N] [--cluster ADDRESS|local:N]
+                                                solve, store, write results.csv and charts
 flamecharts check CONFIG [--out DIR]            validate a config and print the plan
 flamecharts charts DIR                          redraw results.csv and charts from the store
 flamecharts report DIR                          the same, plus DIR/report.html
@@ -27,6 +28,9 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("config", help="study config (TOML)")
     run.add_argument("--out", help="output folder (default output/<config name>/)")
     run.add_argument("--jobs", type=int, default=None, help="worker processes (default: all cores)")
+    run.add_argument("--cluster", metavar="ADDRESS",
+                     help="solve on a Dask cluster: tcp://HOST:PORT of a running scheduler, or local:N "
+                          "to start N local Dask workers (default: the config's 'cluster', else --jobs)")
     run.add_argument("--no-charts", action="store_true", help="skip drawing charts (and the report)")
     run.add_argument("--no-report", action="store_true", help="skip writing report.html")
     run.add_argument("--quiet", action="store_true", help="no progress bar")
@@ -219,8 +223,9 @@ def _cmd_run(args) -> int:
     from tqdm import tqdm
 
     from .runner import default_out_dir, run_study
-    from .study import load_study
+    from .study import check_cluster_spec, load_study
 
+    cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
     bar = None
@@ -236,7 +241,7 @@ def _cmd_run(args) -> int:
         bar.update(pr.done - bar.n)
 
     try:
-        summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress)
+        summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress, cluster=cluster)
     except KeyboardInterrupt:
         if bar is not None:
             bar.close()
@@ -249,7 +254,7 @@ def _cmd_run(args) -> int:
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
-          f"{summary.wall_seconds:.1f} s.")
+          f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
     for r in summary.failures[:20]:
         print(f"  {r['status']}: {r['fuel']}"
               + (f" + {r['blend_fraction']:g} {r['blend_with']}" if r["blend_with"] else "")
@@ -268,6 +273,14 @@ def _cmd_run(args) -> int:
     print("Screening estimates, not certification: follow local codes and the applicable standards; "
           "confirm by test.")
     return 0
+
+
+def _utilisation(summary) -> str:
+    """', 2 workers 87 % busy' (empty when nothing was solved)."""
+    u = summary.worker_utilisation
+    if u is None:
+        return ""
+    return f", {summary.workers} worker{'s' if summary.workers != 1 else ''} {100 * u:.0f} % busy"
 
 
 def _cmd_charts(args, report: bool = False) -> int:

@@ -8,7 +8,8 @@ longest warm-start path below it. Workers are joblib's loky processes (the execu
 behind ``joblib.Parallel``), used through its futures interface because the tree
 hands work on point by point. With ``jobs=1`` everything runs in this process.
 
-Workers return plain data; only the parent writes the store.
+Workers return plain data; only the parent writes the store. With ``cluster`` the
+same loop submits to Dask workers instead (see cluster.py).
 """
 from __future__ import annotations
 
@@ -56,6 +57,15 @@ class RunSummary:
     no_flame: int
     wall_seconds: float
     failures: list[dict] = field(default_factory=list)
+    solve_seconds: float = 0.0  # summed over the flames solved in this run, as measured by the workers
+    workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
+
+    @property
+    def worker_utilisation(self) -> float | None:
+        """Share of the workers' wall time spent solving flames: solve seconds / (workers x wall seconds)."""
+        if not self.solved or self.wall_seconds <= 0:
+            return None
+        return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
 # ---------------------------------------------------------------- worker side
@@ -120,7 +130,9 @@ class _InProcess:
         pass
 
 
-def _executor(jobs: int):
+def _executor(jobs: int, cluster=None, study: Study | None = None):
+    if cluster is not None:
+        return cluster.executor(study)
     if jobs == 1:
         return _InProcess()
     from joblib.externals.loky import get_reusable_executor
@@ -148,7 +160,7 @@ def study_rows(study: Study, pts: list[planmod.Point], stored: dict[str, dict]) 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
               progress: Callable[[Progress], None] | None = None,
-              stop_after: int | None = None) -> RunSummary:
+              stop_after: int | None = None, cluster=None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks.
 
     Parameters
@@ -158,18 +170,30 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
     jobs : worker processes; None or 0 = all cores, negative = all but |jobs|-1
     progress : called after each finished point with a :class:`Progress`
     stop_after : hand out at most this many new points, then stop (simulates an interruption)
+    cluster : Dask scheduler address ('tcp://HOST:PORT') or 'local:N' to solve on a Dask
+        cluster instead of local processes (``jobs`` is then ignored); default: the
+        study's ``cluster`` key, else local processes
 
     Returns
     -------
     RunSummary with the rows of every point (stored ones included).
     """
     t0 = time.perf_counter()
+    cluster = study.cluster if cluster is None else cluster
+    if isinstance(cluster, str):
+        from .cluster import open_cluster
+        from .study import check_cluster_spec
+
+        with open_cluster(check_cluster_spec(cluster, "cluster")) as session:
+            summary = run_study(study, out_dir, jobs, progress, stop_after, cluster=session)
+            summary.wall_seconds = time.perf_counter() - t0  # connecting (or starting the cluster) included
+        return summary
     out = Path(out_dir) if out_dir is not None else default_out_dir(study)
     try:
         out.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
         raise FlamechartsError(f"output folder {out} cannot be created: {exc.strerror}") from None
-    jobs = resolve_jobs(jobs)
+    jobs = resolve_jobs(jobs) if cluster is None else cluster.max_in_flight
     pts = planmod.points(study)
     run_id = uuid.uuid4().hex[:12]
     with RunLock(out), Store(out / DB_NAME) as store:
@@ -200,7 +224,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         in_flight: dict = {}
         limit = stop_after if stop_after is not None else len(unique)
         submitted = solved = failed = no_flame = 0
-        executor = _executor(jobs)
+        executor = _executor(jobs, cluster, study)
+        solve_seconds = 0.0
 
         def warm_for(p: planmod.Point) -> dict | None:
             """Profile of the nearest finished, burning flame up the point's warm-start path
@@ -230,12 +255,14 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     p = in_flight.pop(fut)
                     try:
                         result = fut.result()
+                    except FlamechartsError:
+                        raise  # a worker refused the task (other versions): stop the run
                     except Exception as exc:  # the worker died or the task raised: retry, then record
                         retries[p.index] = retries.get(p.index, 0) + 1
                         if retries[p.index] <= MAX_RETRIES:
                             heapq.heappush(ready, (-tree.height[p.index], p.index))
                             submitted -= 1
-                            executor = _executor(jobs)
+                            executor = _executor(jobs, cluster, study)
                             continue
                         result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
                                   "message": f"worker error: {type(exc).__name__}: {first_line(exc)}",
@@ -246,6 +273,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     for c in children.get(p.index, []):
                         heapq.heappush(ready, (-tree.height[c], c))
                     solved += 1
+                    solve_seconds += result["solve_seconds"]
                     failed += result["status"] == "failed"
                     no_flame += result["status"] == "no_flame"
                     if progress is not None:
@@ -265,7 +293,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
     return RunSummary(out_dir=out, rows=rows, solved=solved, reused=reused,
                       failed=sum(1 for r in rows if r["status"] == "failed"),
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
-                      wall_seconds=time.perf_counter() - t0, failures=failures)
+                      wall_seconds=time.perf_counter() - t0, failures=failures, solve_seconds=solve_seconds,
+                      workers=jobs if cluster is None else max(1, cluster.worker_threads()))
 
 
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:

@@ -14,6 +14,8 @@ thermal_diffusion         bool, Soret effect; default false
 resolution                "standard" (default, meets the accuracy in DEVELOPERS.md), "fine", or
                           "coarse" (faster, less accurate; labelled in every output)
 max_points                guard against runaway sweeps; default 10000
+cluster                   "tcp://HOST:PORT" of a running Dask scheduler, or "local:N" (N local Dask
+                          worker processes); default: none, local processes (--jobs)
 [fuels] / [oxidizers]     name = { SPECIES = amount, ... }, normalised to mole fractions
 [sweep]
   fuel, oxidizer          lists of names from [fuels] / [oxidizers]
@@ -40,7 +42,7 @@ TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points",
-            "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators")
+            "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -132,6 +134,7 @@ class Study:
     burner: "Burner | None" = None
     gas_quality: "GasQuality" = None  # type: ignore[assignment]
     indicator_settings: dict = field(default_factory=dict)
+    cluster: str | None = None   # Dask scheduler address or "local:N"; None: local processes
 
     @property
     def n_points(self) -> int:
@@ -241,6 +244,26 @@ def _names(value: Any, where: str, defined: dict, kind: str) -> tuple[str, ...]:
             raise ConfigError(f"'{where}' lists {kind} '{name}' more than once")
         out.append(name)
     return tuple(out)
+
+
+CLUSTER_SCHEMES = ("tcp://", "tls://")
+
+
+def check_cluster_spec(value: Any, where: str = "cluster") -> str:
+    """A Dask scheduler address (tcp://HOST:PORT, tls://HOST:PORT) or 'local:N' with N >= 1."""
+    allowed = "tcp://HOST:PORT or tls://HOST:PORT (a running Dask scheduler), or local:N (N local workers)"
+    value = _string(value, where)
+    if value.startswith("local:"):
+        n = value[len("local:"):]
+        if not n.isdigit() or int(n) < 1:
+            raise ConfigError(f"'{where}' is {value!r}: N in local:N must be a whole number >= 1")
+        return value
+    if value.startswith(CLUSTER_SCHEMES):
+        host, _, port = value.split("://", 1)[1].rpartition(":")
+        if host and port.isdigit() and 0 < int(port) < 65536:
+            return value
+        raise ConfigError(f"'{where}' is {value!r}: give the scheduler's host and port, e.g. tcp://10.0.0.5:8786")
+    raise ConfigError(f"'{where}' is {value!r}; allowed: {allowed}")
 
 
 def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
@@ -472,6 +495,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     burner = _burner(data["burner"]) if "burner" in data else None
     gas_quality = _gas_quality(data.get("gas_quality", {}))
     indicator_settings = _indicator_settings(data.get("indicators", {}))
+    cluster = check_cluster_spec(data["cluster"]) if "cluster" in data else None
 
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
@@ -481,7 +505,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
         max_points=max_points, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
-        gas_quality=gas_quality, indicator_settings=indicator_settings, raw=data)
+        gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
