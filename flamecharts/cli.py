@@ -48,18 +48,15 @@ def _cmd_check(args) -> int:
     from . import plan
     from .flame import NUMERICS
     from .runner import default_out_dir
-    from .store import DB_NAME, Store
+    from .store import DB_NAME, Store, stored_keys
     from .study import load_study
 
     study = load_study(args.config)
     pts = plan.points(study)
     chains = plan.chains(pts)
     out = Path(args.out) if args.out else default_out_dir(study)
-    stored = 0
-    if (out / DB_NAME).is_file():
-        with Store(out / DB_NAME, readonly=True) as st:
-            keys = st.keys()
-        stored = sum(p.key in keys for p in pts)
+    keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
+    stored = sum(p.key in keys for p in pts)
     n = NUMERICS[study.resolution]
     print(f"Study: {study.title}")
     print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
