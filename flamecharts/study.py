@@ -175,7 +175,8 @@ def _number(value: Any, where: str) -> float:
     try:
         value = float(value)
     except OverflowError:  # an integer too large for a float
-        raise ConfigError(f"'{where}' must be a finite number, got an integer of {len(str(abs(value)))} digits") from None
+        digits = int(abs(value).bit_length() * math.log10(2)) + 1  # str() of such an int may itself be refused
+        raise ConfigError(f"'{where}' must be a finite number, got an integer of about {digits} digits") from None
     if not math.isfinite(value):
         raise ConfigError(f"'{where}' must be a finite number, got {value}")
     return value
@@ -585,6 +586,9 @@ def parse_toml(text: str, where: str = "config") -> dict:
         raise ConfigError(f"config {where!r} is not valid TOML: {msg}") from None
     except RecursionError:
         raise ConfigError(f"config {where!r} nests arrays or tables too deeply to be a study config") from None
+    except ValueError as exc:  # Python refuses integers of more than 4300 digits before TOML sees them
+        raise ConfigError(f"config {where!r} is not valid TOML: it holds a value Python cannot read "
+                          f"({first_line(exc, 200).split(';')[0]}); numbers must fit a float") from None
 
 
 def study_from_toml(text: str, name: str = "study", base_dir: Path | None = None) -> Study:

@@ -18,7 +18,7 @@ import datetime
 import math
 
 import pytest
-from hypothesis import HealthCheck, assume, given, settings, strategies as st
+from hypothesis import HealthCheck, assume, event, given, settings, strategies as st
 
 from flamecharts import mixtures
 from flamecharts.errors import FlamechartsError, MixtureError
@@ -124,6 +124,10 @@ def _check_study(s: Study) -> None:
     if s.n_points <= 200:
         for p in plan.points(s):
             _assert_fractions(p.X_unburned)
+        from flamecharts.design import fuel_gas_table
+
+        for gas in fuel_gas_table(s):  # what `check` prints, and `run` writes to fuel_gases.csv
+            assert gas["higher_heating_value_MJ_m3"] >= gas["lower_heating_value_MJ_m3"] - 1e-9
 
 
 def _load_or_own_error(load, *args, **kwargs):
@@ -132,14 +136,58 @@ def _load_or_own_error(load, *args, **kwargs):
     except FlamechartsError as exc:
         msg = str(exc)
         assert msg and "\n" not in msg and msg.isprintable()
+        event(f"refused: {type(exc).__name__}: {msg[:45]}")
         return None
     _check_study(s)
+    event("loaded")
     return s
 
 
 @BOUNDED
 @given(mutated_configs())
 def test_mutated_configs_load_or_raise_our_error(d):
+    _load_or_own_error(study_from_dict, d)
+
+
+H2O2_SPECIES = ["H2", "O2", "N2", "AR", "H2O", "OH", "H", "O", "HO2", "H2O2"]
+plausible_amounts = st.floats(min_value=0.0, max_value=10.0) | st.sampled_from([0.0, 1e-12, 1e-7, 1e6, 1e300])
+plausible_axis = (st.lists(st.floats(min_value=1e-3, max_value=9.0), min_size=1, max_size=3)
+                  | st.floats(min_value=1e-3, max_value=9.0)
+                  | st.builds(lambda a, n, step: {"from": a, "to": a + n * step, "step": step},
+                              st.floats(0.05, 3.0), st.integers(0, 4), st.floats(0.01, 1.0))
+                  | st.sampled_from([[1e-3], [9.99], [0.5, 1.0, 2.0]]))
+
+
+@st.composite
+def plausible_configs(draw):
+    """Configs built from sensible parts (h2o2 species, numbers of the right kind): many load."""
+    fuels = {f"f{i}": {**draw(st.dictionaries(st.sampled_from(H2O2_SPECIES), plausible_amounts, max_size=3)),
+                       draw(st.sampled_from(["H2", "H"])): draw(st.floats(0.01, 10.0))}
+             for i in range(draw(st.integers(1, 3)))}
+    ox = {**draw(st.dictionaries(st.sampled_from(["N2", "AR", "H2O"]), plausible_amounts, max_size=2)),
+          "O2": draw(st.floats(0.01, 10.0))}
+    sweep = {"fuel": draw(st.lists(st.sampled_from(sorted(fuels)), min_size=1, max_size=2, unique=True)),
+             "oxidizer": ["air"], "equivalence_ratio": draw(plausible_axis)}
+    if draw(st.booleans()):
+        sweep["blend"] = {"with": draw(st.sampled_from(sorted(fuels))),
+                          "fraction": draw(st.lists(st.floats(0.0, 1.2), min_size=1, max_size=3))}
+    for key, scale in (("pressure_bar", 10.0), ("unburned_temperature_K", 200.0)):
+        if draw(st.booleans()):
+            axis = draw(plausible_axis)
+            sweep[key] = ([v * scale for v in axis] if isinstance(axis, list) else
+                          {k: v * scale for k, v in axis.items()} if isinstance(axis, dict) else axis * scale)
+    d = {"mechanism": "h2o2.yaml", "fuels": fuels, "oxidizers": {"air": ox}, "sweep": sweep,
+         "max_points": draw(st.sampled_from([10000, 50, 3]))}
+    if draw(st.booleans()):
+        d["burner"] = {"port_diameter_mm": draw(st.floats(0.1, 10.0)), "port_velocity_m_s": draw(st.floats(0.1, 50.0))}
+    if draw(st.booleans()):
+        d["gas_quality"] = {"wobbe_tolerance_percent": draw(st.floats(0.5, 20.0))}
+    return d
+
+
+@BOUNDED
+@given(plausible_configs())
+def test_plausible_configs_load_into_usable_studies_or_raise_our_error(d):
     _load_or_own_error(study_from_dict, d)
 
 
