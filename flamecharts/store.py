@@ -247,7 +247,7 @@ class Store:
             uri = f"file:{self.path}?mode=ro" if readonly else f"file:{self.path}"
             self.db = sqlite3.connect(uri, uri=True, timeout=30.0)
             self._check_and_migrate(readonly)
-        except sqlite3.DatabaseError as exc:
+        except (sqlite3.DatabaseError, UnicodeDecodeError) as exc:  # text that is not UTF-8: damaged too
             self._close_quietly()
             raise StoreError(f"results store {self.path} is damaged or unreadable ({exc}); {_WHAT_TO_DO}") from None
         except BaseException:
@@ -384,8 +384,19 @@ class Store:
     def __exit__(self, *exc):
         self.close()
 
+    def _damaged(self, key, what: str, exc: BaseException) -> StoreError:
+        return StoreError(f"results store {self.path} is damaged: the {what} of point {key} cannot be read "
+                          f"({type(exc).__name__}); {_WHAT_TO_DO}")
+
+    def _query(self, sql: str, args=()) -> list[tuple]:
+        """All rows of a query; SQLite finding damage on the way is a StoreError."""
+        try:
+            return self.db.execute(sql, args).fetchall()
+        except (sqlite3.DatabaseError, UnicodeDecodeError) as exc:
+            raise StoreError(f"results store {self.path} is damaged ({exc}); {_WHAT_TO_DO}") from None
+
     def keys(self) -> set[str]:
-        return {r[0] for r in self.db.execute("SELECT key FROM points")}
+        return {r[0] for r in self._query("SELECT key FROM points")}
 
     def commit_point(self, point, result: dict, run_id: str) -> None:
         """Write one finished point (ok, no_flame or failed) in its own transaction."""
@@ -399,30 +410,44 @@ class Store:
 
     def rows(self, keys=None) -> dict[str, dict]:
         """key -> stored row (without profile) for the given keys, or all."""
-        cur = self.db.execute(
+        cur = self._query(
             "SELECT key, status, message, start, metrics, solve_seconds, finished_at, run_id FROM points")
         wanted = set(keys) if keys is not None else None
         out = {}
         for key, status, message, start, metrics, secs, fin, run_id in cur:
             if wanted is not None and key not in wanted:
                 continue
-            out[key] = {"status": status, "message": message, "start": start,
-                        "metrics": json.loads(metrics) if metrics else None,
+            try:
+                metrics = json.loads(metrics) if metrics else None
+                if metrics is not None and not isinstance(metrics, dict):
+                    raise ValueError("not a table")
+            except ValueError as exc:
+                raise self._damaged(key, "metrics", exc) from None
+            out[key] = {"status": status, "message": message, "start": start, "metrics": metrics,
                         "solve_seconds": secs, "finished_at": fin, "run_id": run_id}
         return out
 
     def profile(self, key: str) -> dict | None:
-        row = self.db.execute("SELECT profile FROM points WHERE key = ?", (key,)).fetchone()
-        return unpack_profile(row[0]) if row else None
+        row = self._query("SELECT profile FROM points WHERE key = ?", (key,))
+        if not row:
+            return None
+        try:
+            return unpack_profile(row[0][0])
+        except Exception as exc:  # noqa: BLE001 - zip, zlib, numpy and key errors of a damaged blob
+            raise self._damaged(key, "flame profile", exc) from None
 
     def nearest_profile(self, family: str, fuel: dict, phi: float, pressure_bar: float, T_u: float) -> dict | None:
         """Profile of the stored burning flame nearest in equivalence ratio with the same settings,
         oxidizer, fuel, pressure and temperature (None if there is none)."""
         best = None
-        for key, p_phi, inputs in self.db.execute(
+        for key, p_phi, inputs in self._query(
                 "SELECT key, phi, inputs FROM points WHERE family = ? AND status = 'ok' AND pressure_bar = ? "
                 "AND unburned_temperature_K = ? AND profile IS NOT NULL", (family, pressure_bar, T_u)):
-            if json.loads(inputs)["fuel"] == fuel and (best is None or abs(p_phi - phi) < best[0]):
+            try:
+                stored_fuel = json.loads(inputs)["fuel"]
+            except (ValueError, KeyError, TypeError) as exc:
+                raise self._damaged(key, "inputs", exc) from None
+            if stored_fuel == fuel and (best is None or abs(p_phi - phi) < best[0]):
                 best = (abs(p_phi - phi), key)
         return self.profile(best[1]) if best else None
 

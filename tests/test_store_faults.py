@@ -1,7 +1,9 @@
 """Corrupt, foreign and old stores; two runs on one folder; a stale lock.
 
 A store that is not healthy gets one line (what is wrong, where, what to do) and exit
-code 2 from `run`, `check` and `charts`, and its bytes stay as they were. Migrations
+code 2 from `run`, `check`, `charts` and `report`, and its bytes stay as they were;
+random bytes overwritten anywhere in a real store (hypothesis) give a usable store
+or a StoreError, never another exception. Migrations
 are explicit: a registered one runs in a transaction after a backup copy; a missing
 one is refused. Two runs started together on one folder: one solves, the other is
 refused naming the first (pid, host, start time); nothing is lost or corrupted.
@@ -18,6 +20,7 @@ import sys
 from pathlib import Path
 
 import pytest
+from hypothesis import HealthCheck, event, given, settings, strategies as st
 
 from flamecharts import cli, load_study, run_study, store as store_module
 from flamecharts.errors import StoreError
@@ -143,7 +146,7 @@ FAULTS = {
 }
 
 
-@pytest.mark.parametrize("command", ["run", "check", "charts"])
+@pytest.mark.parametrize("command", ["run", "check", "charts", "report"])
 @pytest.mark.parametrize("fault", list(FAULTS))
 def test_a_bad_store_is_refused_in_one_line_and_left_untouched(fault, command, run_copy, capsys):
     config, out = run_copy
@@ -153,7 +156,7 @@ def test_a_bad_store_is_refused_in_one_line_and_left_untouched(fault, command, r
     csv_before = (out / "results.csv").read_bytes()
     argv = {"run": ["run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet"],
             "check": ["check", config, "--out", out],
-            "charts": ["charts", out]}[command]
+            "charts": ["charts", out], "report": ["report", out]}[command]
     assert_refused(*call(capsys, *argv), words)
     assert snapshot(out) == before
     assert (out / "results.csv").read_bytes() == csv_before
@@ -219,6 +222,33 @@ def test_an_unreadable_store_as_root_is_simulated(run_copy, capsys, monkeypatch)
                  ["charts", out]):
         assert_refused(*call(capsys, *argv), ["results.db", "permission denied", "chmod"])
     assert snapshot(out) == before
+
+
+@settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(flips=st.lists(st.tuples(st.floats(0.0, 1.0, exclude_max=True) | st.floats(0.0, 0.05), st.integers(0, 255)),
+                      min_size=1, max_size=30),
+       readonly=st.booleans())
+def test_flipped_bytes_give_a_usable_store_or_a_store_error(finished_run, flips, readonly):
+    """Random bytes of a real store overwritten: opening it and reading every row and profile
+    either works or raises StoreError, never another exception."""
+    import tempfile
+
+    data = bytearray((finished_run[1] / DB_NAME).read_bytes())
+    for where, byte in flips:
+        data[int(where * len(data))] = byte
+    with tempfile.TemporaryDirectory() as folder:
+        db = Path(folder) / DB_NAME
+        db.write_bytes(bytes(data))
+        try:
+            with Store(db, readonly=readonly) as st_:
+                rows = st_.rows()
+                for key in rows:
+                    st_.profile(key)
+                st_.nearest_profile("family", {}, 1.0, 1.0, 300.0)
+            event("read")
+        except StoreError as exc:
+            assert "\n" not in str(exc) and str(exc).isprintable()
+            event(f"refused: {str(exc).split(DB_NAME, 1)[-1][:40]}")
 
 
 # ------------------------------------------------------------------ schema versions and migrations
