@@ -54,6 +54,8 @@ from .errors import StoreError
 SCHEMA_VERSION = 1
 DB_NAME = "results.db"
 LOCK_NAME = ".flamecharts.lock"
+#: How long a write waits for another program's lock on the store before giving up [s].
+BUSY_TIMEOUT_S = 30.0
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS meta (name TEXT PRIMARY KEY, value TEXT NOT NULL);
@@ -245,7 +247,7 @@ class Store:
         self._examine_file(readonly)
         try:
             uri = f"file:{self.path}?mode=ro" if readonly else f"file:{self.path}"
-            self.db = sqlite3.connect(uri, uri=True, timeout=30.0)
+            self.db = sqlite3.connect(uri, uri=True, timeout=BUSY_TIMEOUT_S)
             self._check_and_migrate(readonly)
         except (sqlite3.DatabaseError, UnicodeDecodeError) as exc:  # text that is not UTF-8: damaged too
             self._close_quietly()
@@ -399,14 +401,25 @@ class Store:
         return {r[0] for r in self._query("SELECT key FROM points")}
 
     def commit_point(self, point, result: dict, run_id: str) -> None:
-        """Write one finished point (ok, no_flame or failed) in its own transaction."""
-        with self.db:
-            self.db.execute(
-                "INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)",
-                (point.key, point.family, json.dumps(result["inputs"], sort_keys=True), point.phi,
-                 point.pressure_bar, point.T_u, result["status"], result["message"], result["start"],
-                 json.dumps(result["metrics"]) if result["metrics"] is not None else None,
-                 float(result["solve_seconds"]), time.time(), run_id, pack_profile(result["profile"])))
+        """Write one finished point (ok, no_flame or failed) in its own transaction.
+
+        A write SQLite refuses (another program holds the file locked for longer than
+        BUSY_TIMEOUT_S, a full disk) is a StoreError; the transaction is rolled back, so
+        every point committed before stays.
+        """
+        row = (point.key, point.family, json.dumps(result["inputs"], sort_keys=True), point.phi,
+               point.pressure_bar, point.T_u, result["status"], result["message"], result["start"],
+               json.dumps(result["metrics"]) if result["metrics"] is not None else None,
+               float(result["solve_seconds"]), time.time(), run_id, pack_profile(result["profile"]))
+        try:
+            with self.db:
+                self.db.execute("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)", row)
+        except sqlite3.DatabaseError as exc:
+            text = str(exc)
+            why = ("another program holds it locked for writing: close that program" if "locked" in text or
+                   "busy" in text else "free some disk space" if "full" in text else "check the disk")
+            raise StoreError(f"results store {self.path} cannot be written ({text}): {why}, then run the same "
+                             "command again; every flame stored before is kept") from None
 
     def rows(self, keys=None) -> dict[str, dict]:
         """key -> stored row (without profile) for the given keys, or all."""

@@ -251,6 +251,28 @@ def test_flipped_bytes_give_a_usable_store_or_a_store_error(finished_run, flips,
             event(f"refused: {str(exc).split(DB_NAME, 1)[-1][:40]}")
 
 
+def test_a_store_locked_by_another_program_stops_the_run_in_one_line_and_keeps_every_flame(
+        run_copy, capsys, monkeypatch):
+    """Another program (a database browser, say) holds a write lock on results.db."""
+    _, out = run_copy
+    config = write_h2_study(out.parent, name="wider", fractions="[0.0]", phis="[0.8, 1.0, 1.2]")  # one new point
+    monkeypatch.setattr(store_module, "BUSY_TIMEOUT_S", 0.2)
+    other = sqlite3.connect(out / DB_NAME, isolation_level=None)
+    other.execute("BEGIN IMMEDIATE")
+    try:
+        assert_refused(*call(capsys, "run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet"),
+                       ["results.db", "cannot be written (database is locked)", "close that program",
+                        "every flame stored before is kept"])
+    finally:
+        other.execute("ROLLBACK")
+        other.close()
+    with Store(out / DB_NAME, readonly=True) as st_:
+        assert len(st_.keys()) == 2 and st_.integrity_ok()
+    rc, stdout, err = call(capsys, "run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
+    assert rc == 0, err
+    assert "solved 1 now, 2 from the store" in stdout
+
+
 # ------------------------------------------------------------------ schema versions and migrations
 V1_ROW = ("k1", "fam", "{}", 1.0, 1.0, 300.0, "ok", "", "fresh", '{"laminar_flame_speed_m_s": 2.0}', 1.5,
           1.0e9, "run1", None)
