@@ -53,20 +53,20 @@ def _cmd_check(args) -> int:
     from . import plan
     from .flame import NUMERICS
     from .runner import default_out_dir
-    from .store import DB_NAME, Store
+    from .store import DB_NAME, Store, stored_keys
     from .study import load_study
 
     study = load_study(args.config)
     pts = plan.points(study)
     out = Path(args.out) if args.out else default_out_dir(study)
-    stored, sources, timings = 0, [], {}
-    if (out / DB_NAME).is_file():
+    keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
+    stored = sum(p.key in keys for p in pts)
+    sources, timings = [], {}
+    if keys:
         with Store(out / DB_NAME, readonly=True) as st:
-            keys = st.keys()
             families = {p.family for p in pts}
             sources = [plan.StoredFlame(**s) for s in st.warm_sources(families)]
             timings = st.timings(families)
-        stored = sum(p.key in keys for p in pts)
     n = NUMERICS[study.resolution]
     print(f"Study: {study.title}")
     print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
@@ -87,7 +87,7 @@ def _cmd_check(args) -> int:
         with Store(out / DB_NAME, readonly=True) as st:
             rows = study_rows(study, pts, st.rows([p.key for p in pts]))
         _print_points(study, [r for r in rows if r["status"] != "pending"])
-    todo = list({p.key: p for p in pts if p.key not in keys}.values()) if stored else pts
+    todo = list({p.key: p for p in pts if p.key not in keys}.values())  # one solve per distinct flame
     tree = plan.warm_tree(todo, sources)
     print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
           f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
@@ -106,7 +106,7 @@ def _estimate_line(study, tree, timings: dict, jobs) -> str:
 
     jobs = resolve_jobs(jobs)
     secs = plan.default_flame_seconds(len(study.atoms))
-    basis = f"from the mechanism size ({len(study.atoms)} species)"
+    basis = f"from the mechanism size, {len(study.atoms)} species"
     measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
     if measured:
         secs.update(measured)

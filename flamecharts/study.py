@@ -30,12 +30,14 @@ import difflib
 import hashlib
 import math
 import os
+import stat
 import tomllib
+from collections import Counter
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-from .errors import ConfigError, MechanismError, first_line
+from .errors import ConfigError, MechanismError, first_line, show
 from . import mixtures
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
@@ -62,7 +64,13 @@ AXIS_LIMITS = {
     "unburned_temperature_K": (0.0, 2000.0),
 }
 
+#: A study config is a short text file; anything larger is refused before it is read.
 MAX_CONFIG_BYTES = 1_000_000
+#: Least O2 a fuel stream may need to burn [mol O2 / mol fuel stream]; below it the
+#: stream is inert for every practical purpose (and its mixtures underflow).
+MIN_O2_NEED = 1e-6
+#: Most values one sweep axis may have (max_points guards the whole sweep).
+MAX_AXIS_VALUES = 1_000_000
 
 
 @dataclass(frozen=True)
@@ -158,14 +166,20 @@ def _suggest_species(name: str, species: list[str]) -> str:
 
 def _check_keys(table: dict, allowed: tuple[str, ...], where: str) -> None:
     for key in table:
+        if not isinstance(key, str):
+            raise ConfigError(f"key {show(key)} in '{where or 'config'}' is not a name; allowed: {', '.join(allowed)}")
         if key not in allowed:
             raise ConfigError(f"unknown key '{where}{key}'{_suggest(key, allowed)}")
 
 
 def _number(value: Any, where: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise ConfigError(f"'{where}' must be a number, got {value!r}")
-    value = float(value)
+        raise ConfigError(f"'{where}' must be a number, got {show(value)}")
+    try:
+        value = float(value)
+    except OverflowError:  # an integer too large for a float
+        digits = int(abs(value).bit_length() * math.log10(2)) + 1  # str() of such an int may itself be refused
+        raise ConfigError(f"'{where}' must be a finite number, got an integer of about {digits} digits") from None
     if not math.isfinite(value):
         raise ConfigError(f"'{where}' must be a finite number, got {value}")
     return value
@@ -173,7 +187,7 @@ def _number(value: Any, where: str) -> float:
 
 def _string(value: Any, where: str) -> str:
     if not isinstance(value, str):
-        raise ConfigError(f"'{where}' must be a string, got {value!r}")
+        raise ConfigError(f"'{where}' must be a string, got {show(value)}")
     return value
 
 
@@ -189,10 +203,15 @@ def _axis(value: Any, where: str) -> tuple[float, ...]:
             raise ConfigError(f"'{where}.step' must be > 0, got {step:g}")
         if hi < lo:
             raise ConfigError(f"'{where}.to' ({hi:g}) must not be below '{where}.from' ({lo:g})")
-        n = int(math.floor((hi - lo) / step + 1e-9)) + 1
-        if n > 1_000_000:
-            raise ConfigError(f"'{where}' range gives {n} values; at most 1000000 are allowed")
+        span = (hi - lo) / step  # inf when the range overflows a float or the step is tiny
+        if not span < MAX_AXIS_VALUES:
+            many = f"{span + 1:.3g}" if math.isfinite(span) else "too many"
+            raise ConfigError(f"'{where}' range from {lo:g} to {hi:g} in steps of {step:g} gives {many} values; "
+                              f"at most {MAX_AXIS_VALUES} are allowed")
+        n = int(math.floor(span + 1e-9)) + 1
         values = [round(lo + i * step, 10) for i in range(n)]
+        if len(set(values)) != len(values):
+            raise ConfigError(f"'{where}.step' {step:g} is too small: values repeat when rounded to 10 decimals")
     elif isinstance(value, list):
         values = [_number(v, f"{where}[{i}]") for i, v in enumerate(value)]
     else:
@@ -200,8 +219,8 @@ def _axis(value: Any, where: str) -> tuple[float, ...]:
     if not values:
         raise ConfigError(f"sweep axis '{where}' is empty; give at least one value")
     if len(set(values)) != len(values):
-        dup = sorted({v for v in values if values.count(v) > 1})
-        raise ConfigError(f"sweep axis '{where}' lists {dup[0]:g} more than once")
+        dup = min(v for v, k in Counter(values).items() if k > 1)
+        raise ConfigError(f"sweep axis '{where}' lists {dup:g} more than once")
     return tuple(values)
 
 
@@ -221,6 +240,8 @@ def _composition(value: Any, where: str) -> dict[str, float]:
         raise ConfigError(f"'{where}' is empty; give at least one species with a positive amount")
     amounts = {}
     for sp, x in value.items():
+        if not isinstance(sp, str) or not sp.strip():
+            raise ConfigError(f"'{where}' has a species named {show(sp)}; give species names of the mechanism")
         x = _number(x, f"{where}.{sp}")
         if x < 0:
             raise ConfigError(f"'{where}.{sp}' is {x:g}; amounts must be >= 0")
@@ -271,7 +292,13 @@ def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
     import cantera as ct
 
     candidates = []
-    p = Path(mechanism).expanduser()
+    if not mechanism.strip() or "\0" in mechanism:
+        raise MechanismError(f"'mechanism' {mechanism!r} is not a file name; give a Cantera mechanism file, "
+                             "e.g. gri30.yaml")
+    try:
+        p = Path(mechanism).expanduser()
+    except RuntimeError:  # ~user that does not exist
+        p = Path(mechanism)
     if p.is_absolute():
         candidates.append(p)
     else:
@@ -280,9 +307,13 @@ def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
         candidates.append(Path.cwd() / p)
         candidates += [Path(d) / p for d in ct.get_data_directories()]
     for c in candidates:
-        if c.is_file():
-            return c.resolve()
-        if c.is_dir():
+        try:
+            if c.is_file():
+                return c.resolve()
+            is_dir = c.is_dir()
+        except OSError:  # a name too long, a folder we may not enter: not this candidate
+            continue
+        if is_dir:
             raise MechanismError(f"'mechanism' {mechanism!r} is a folder ({c}); give a mechanism file, e.g. gri30.yaml")
     raise MechanismError(
         f"'mechanism' file {mechanism!r} not found beside the config or in Cantera's data folders; "
@@ -305,7 +336,8 @@ def load_mechanism_atoms(path: Path, transport: str = "mixture-averaged") -> dic
     try:
         gas = ct.Solution(str(path), transport_model=None)
     except Exception as exc:  # Cantera raises CanteraError or YAML errors
-        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera: {first_line(exc, 200)}") from None
+        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera ({first_line(exc, 200).rstrip(':')}); "
+                             "give a Cantera mechanism file (YAML), e.g. gri30.yaml") from None
     try:
         ct.Solution(str(path), transport_model="mixture-averaged" if transport == "unity-Lewis-number" else transport)
     except Exception as exc:
@@ -342,7 +374,7 @@ def _burner(b: Any) -> Burner:
     area = _positive(b, "port_area_mm2", "burner", 1e-6)
     follows = b.get("input_follows_wobbe", False)
     if not isinstance(follows, bool):
-        raise ConfigError(f"'burner.input_follows_wobbe' must be true or false, got {follows!r}")
+        raise ConfigError(f"'burner.input_follows_wobbe' must be true or false, got {show(follows)}")
     if (velocity is None) == (q is None):
         raise ConfigError("[burner] sets its port velocity one way: give either 'port_velocity_m_s', or "
                           "'thermal_input_kW' with 'port_area_mm2'")
@@ -416,19 +448,21 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         raise ConfigError(f"'transport' is {transport!r}{_suggest(transport, TRANSPORT_MODELS)}")
     thermal_diffusion = data.get("thermal_diffusion", False)
     if not isinstance(thermal_diffusion, bool):
-        raise ConfigError(f"'thermal_diffusion' must be true or false, got {thermal_diffusion!r}")
+        raise ConfigError(f"'thermal_diffusion' must be true or false, got {show(thermal_diffusion)}")
     resolution = _string(data.get("resolution", "standard"), "resolution")
     if resolution not in RESOLUTIONS:
         raise ConfigError(f"'resolution' is {resolution!r}{_suggest(resolution, RESOLUTIONS)}")
     max_points = data.get("max_points", 10000)
     if isinstance(max_points, bool) or not isinstance(max_points, int) or max_points < 1:
-        raise ConfigError(f"'max_points' must be a whole number >= 1, got {max_points!r}")
+        raise ConfigError(f"'max_points' must be a whole number >= 1, got {show(max_points)}")
 
     for table in ("fuels", "oxidizers", "sweep"):
         if table not in data:
             raise ConfigError(f"config has no [{table}] table; it is required")
         if not isinstance(data[table], dict):
-            raise ConfigError(f"'{table}' must be a table")
+            raise ConfigError(f"'{table}' must be a table [{table}], got {show(data[table])}; "
+                              + ("its entries are name = { SPECIES = amount, ... }" if table != "sweep" else
+                                 f"its keys are {', '.join(SWEEP_KEYS)}"))
     fuels = {n: _composition(c, f"fuels.{n}") for n, c in data["fuels"].items()}
     oxidizers = {n: _composition(c, f"oxidizers.{n}") for n, c in data["oxidizers"].items()}
     if not fuels:
@@ -461,6 +495,11 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     phis = _limited_axis(sweep["equivalence_ratio"], "equivalence_ratio")
     pressures = _limited_axis(sweep.get("pressure_bar", [1.01325]), "pressure_bar")
     temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
+    n_points = (len(sweep_fuels) * len(sweep_oxidizers) * len(fractions) * len(phis) * len(pressures)
+                * len(temperatures))
+    if n_points > max_points:  # before the mechanism is loaded: a runaway sweep is refused at once
+        raise ConfigError(f"the sweep has {n_points} points, more than 'max_points' = {max_points}; "
+                          "raise 'max_points' if you mean it")
 
     mech_path = find_mechanism(mechanism, base_dir)
     atoms = load_mechanism_atoms(mech_path, transport)
@@ -482,9 +521,20 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     for n in sweep_fuels:
         for f in fractions:
             comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
-            if mixtures.stoich_o2_per_fuel(atoms, comp) <= 0:
-                what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
+            need = mixtures.stoich_o2_per_fuel(atoms, comp)
+            what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
+            if need <= 0:
                 raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
+            if need < MIN_O2_NEED:
+                raise ConfigError(f"{what} has almost no combustible species (it needs {need:.3g} mol O2 per mol "
+                                  f"to burn; at least {MIN_O2_NEED:g} is allowed)")
+            for ox in sweep_oxidizers:
+                for phi in (phis[0], phis[-1], min(phis), max(phis)):
+                    try:
+                        mixtures.unburned_mixture(comp, oxidizers[ox], phi, need)
+                    except mixtures.MixtureError as exc:
+                        raise ConfigError(f"{what} in 'oxidizers.{ox}' at equivalence ratio {phi:g} gives no "
+                                          f"usable mixture: {exc}") from None
 
     reference_fuel = None
     if "reference_fuel" in data:
@@ -513,28 +563,61 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
 
 
 def load_study(path: str | os.PathLike) -> Study:
-    """Read a TOML study config and validate it. Raises ConfigError or MechanismError."""
+    """Read a TOML study config and validate it. Raises ConfigError or MechanismError.
+
+    The file must be a regular file of at most MAX_CONFIG_BYTES; its size is checked
+    before anything is read, and no more than that is ever read (a device or a pipe
+    given as config is refused, not read without end).
+    """
     p = Path(path)
-    if not p.exists():
-        raise ConfigError(f"config file {str(p)!r} not found")
-    if p.is_dir():
-        raise ConfigError(f"config {str(p)!r} is a folder; give a .toml file")
     try:
-        if p.stat().st_size > MAX_CONFIG_BYTES:
-            raise ConfigError(f"config {str(p)!r} is larger than {MAX_CONFIG_BYTES // 1000} kB; "
-                              "a study config is a short text file")
-        raw = p.read_bytes()
+        st = p.stat()
+    except FileNotFoundError:
+        raise ConfigError(f"config file {str(p)!r} not found") from None
+    except (OSError, ValueError) as exc:
+        raise ConfigError(f"config {str(p)!r} cannot be read: {getattr(exc, 'strerror', None) or exc}") from None
+    if stat.S_ISDIR(st.st_mode):
+        raise ConfigError(f"config {str(p)!r} is a folder; give a .toml file")
+    if not stat.S_ISREG(st.st_mode):
+        raise ConfigError(f"config {str(p)!r} is not a regular file (a device, pipe or socket); give a .toml file")
+    if st.st_size > MAX_CONFIG_BYTES:
+        raise ConfigError(f"config {str(p)!r} is {st.st_size / 1e6:.1f} MB, larger than {MAX_CONFIG_BYTES // 1000} kB; "
+                          "a study config is a short text file")
+    try:
+        with open(p, "rb") as fh:
+            raw = fh.read(MAX_CONFIG_BYTES + 1)
     except OSError as exc:
         raise ConfigError(f"config {str(p)!r} cannot be read: {exc.strerror}") from None
+    if len(raw) > MAX_CONFIG_BYTES:  # grew while we looked
+        raise ConfigError(f"config {str(p)!r} is larger than {MAX_CONFIG_BYTES // 1000} kB; "
+                          "a study config is a short text file")
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise ConfigError(f"config {str(p)!r} is not UTF-8 text (bad byte at position {exc.start})") from None
-    try:
-        data = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        raise ConfigError(f"config {str(p)!r} is not valid TOML: {exc}") from None
+    data = parse_toml(text, str(p))
     return study_from_dict(data, name=p.stem, base_dir=p.resolve().parent, config_path=str(p.resolve()))
+
+
+def parse_toml(text: str, where: str = "config") -> dict:
+    """TOML text -> table; any syntax problem is a one-line ConfigError naming line and column."""
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        msg = str(exc)
+        if msg.startswith(("Cannot overwrite a value", "Cannot declare", "Duplicate")):
+            msg += " (a key or table is given twice; give each once)"
+        raise ConfigError(f"config {where!r} is not valid TOML: {msg}") from None
+    except RecursionError:
+        raise ConfigError(f"config {where!r} nests arrays or tables too deeply to be a study config") from None
+    except ValueError as exc:  # Python refuses integers of more than 4300 digits before TOML sees them
+        raise ConfigError(f"config {where!r} is not valid TOML: it holds a value Python cannot read "
+                          f"({first_line(exc, 200).split(';')[0]}); numbers must fit a float") from None
+
+
+def study_from_toml(text: str, name: str = "study", base_dir: Path | None = None) -> Study:
+    """Validate a study given as TOML text (as :func:`load_study` does for a file)."""
+    return study_from_dict(parse_toml(text, name), name=name, base_dir=base_dir)
 
 
 STUDY_COPY = "study.json"
@@ -567,5 +650,5 @@ def load_config_copy(out_dir: Path) -> Study:
         saved = json.loads(path.read_text(encoding="utf-8"))
         return study_from_dict(saved["config"], name=saved["name"], base_dir=Path(saved["base_dir"]),
                                config_path=saved.get("config_path"))
-    except (ValueError, KeyError, TypeError) as exc:
-        raise ConfigError(f"{path} is damaged ({exc}); rerun the study to rewrite it") from None
+    except (ValueError, KeyError, TypeError, RecursionError) as exc:
+        raise ConfigError(f"{path} is damaged ({type(exc).__name__}: {exc}); rerun the study to rewrite it") from None

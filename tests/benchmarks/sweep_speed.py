@@ -13,7 +13,8 @@ One study is solved two ways:
 
 Then, on the finished study: the floor (re-solving a converged flame on its own grid,
 the least work that proves a solution, timed on the same sample), a rerun (everything
-from the store), and an extension by one new pressure level (new points warm-start
+from the store; ``rerun_s`` through the library, ``rerun_cli_with_charts_s`` through
+the command line with CSV, charts and report), and an extension by one new pressure level (new points warm-start
 from the stored flames of the first run). Worker memory is polled all along; the
 run-time estimate that ``flamecharts check`` prints is compared with the real wall
 time. Sizes:
@@ -32,6 +33,7 @@ import argparse
 import json
 import random
 import statistics
+import subprocess
 import sys
 import tempfile
 import textwrap
@@ -205,6 +207,11 @@ def main(argv=None) -> int:
     rerun = run_study(study, out_dir=out, jobs=jobs)
     rerun_s = time.perf_counter() - t0
     assert rerun.solved == 0, "the rerun solved flames: the store lost results"
+    t0 = time.perf_counter()  # the same through the command line, charts and report included
+    cli = subprocess.run([sys.executable, "-m", "flamecharts", "run", str(tmp / "bench.toml"), "--out", str(out),
+                          "--jobs", str(jobs), "--quiet"], capture_output=True, text=True)
+    rerun_cli_s = time.perf_counter() - t0
+    assert cli.returncode == 0 and "solved 0 now" in cli.stdout, cli.stderr
 
     spec_p = json.loads(STUDIES[args.size]["pressures"])
     extended = load_study(write_study(tmp, args.size, json.dumps(sorted(spec_p + [STUDIES[args.size]["extend_bar"]]))))
@@ -229,6 +236,7 @@ def main(argv=None) -> int:
         "tool_cpu_s_fresh": by_start["fresh"], "tool_cpu_s_warm_median": statistics.median(by_start["warm"] or [0]),
         "ratio_to_floor": statistics.median(cpu) / floor,
         "rerun_s": rerun_s,
+        "rerun_cli_with_charts_s": rerun_cli_s,
         "extend_new_points": new_points,
         "extend_s_per_new_point": ext_wall / max(new_points, 1),
         "extend_cpu_s_per_new_point": statistics.median([f["cpu_seconds"] for f in ext_finished] or [0]),
