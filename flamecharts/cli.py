@@ -11,6 +11,7 @@ unusable store (one line on stderr), 130 interrupted (what finished is kept).
 from __future__ import annotations
 
 import argparse
+import signal
 import sys
 from pathlib import Path
 
@@ -224,10 +225,12 @@ def _cmd_run(args) -> int:
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
     bar = None
+    told = False
 
     def progress(pr) -> None:
-        nonlocal bar
-        if pr.stopping:
+        nonlocal bar, told
+        if pr.stopping and not told:
+            told = True
             print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
                   "(Ctrl-C again to stop at once).", file=sys.stderr)
         if args.quiet:
@@ -242,6 +245,7 @@ def _cmd_run(args) -> int:
         summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress)
         files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
     except KeyboardInterrupt as exc:
+        signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
         if bar is not None:
             bar.close()
         from .runner import RunInterrupted
@@ -315,6 +319,9 @@ def main(argv: list[str] | None = None) -> int:
     except FlamechartsError as exc:
         _err(str(exc))
         return 2
+    except KeyboardInterrupt:  # Ctrl-C outside a run's solving (reading the config, drawing charts)
+        print("\nInterrupted; nothing half-written is left (files are replaced whole).", file=sys.stderr)
+        return 130
 
 
 if __name__ == "__main__":

@@ -9,6 +9,11 @@ behind ``joblib.Parallel``), used through its futures interface because the tree
 hands work on point by point. With ``jobs=1`` everything runs in this process.
 
 Workers return plain data; only the parent writes the store.
+
+The tree spans every point of the study, stored ones included, so a resumed run starts
+each point from the same neighbour as an uninterrupted one (its stored profile) and
+gives the same flames. Ctrl-C: the first stops handing out work and lets running
+flames finish and be stored (then :class:`RunInterrupted`), a second stops at once.
 """
 from __future__ import annotations
 
@@ -182,6 +187,10 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
     progress : called after each finished point with a :class:`Progress`
     stop_after : hand out at most this many new points, then stop (simulates an interruption)
 
+    Raises
+    ------
+    RunInterrupted (a KeyboardInterrupt) after Ctrl-C, once the finished flames are stored.
+
     Returns
     -------
     RunSummary with the rows of every point (stored ones included).
@@ -252,13 +261,14 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         # First Ctrl-C: hand out nothing new, let running flames finish and commit them.
         # Second Ctrl-C: stop at once (running flames are abandoned, nothing partial is stored).
         stop = {"requested": False, "reported": False}
-        old_handler = None
+        installed, old_handler = False, None
         if threading.current_thread() is threading.main_thread():
             def on_sigint(signum, frame):
                 if stop["requested"]:
                     raise RunInterrupted(solved, len(pending), at_once=True)
                 stop["requested"] = True
             old_handler = signal.signal(signal.SIGINT, on_sigint)
+            installed = True
 
         def report(last=None) -> None:
             if progress is not None:
@@ -307,8 +317,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                             "cpu_seconds": result.get("cpu_seconds", 0.0)})
             clean_exit = not stop["requested"]
         finally:
-            if old_handler is not None:
-                signal.signal(signal.SIGINT, old_handler)
+            if installed:
+                signal.signal(signal.SIGINT, old_handler if old_handler is not None else signal.SIG_DFL)
             if not clean_exit:
                 executor.shutdown(wait=False, kill_workers=True)
         if stop["requested"]:

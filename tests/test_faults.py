@@ -290,6 +290,14 @@ def test_a_failed_point_does_not_poison_the_warm_start_below_it(tmp_path, monkey
     # 0.5 % at the standard setting (measured, DEVELOPERS.md "Accuracy of the numerical settings")
     assert below["laminar_flame_speed_m_s"] == pytest.approx(clean[0.6]["laminar_flame_speed_m_s"], rel=5e-3)
     assert s.failed == 1
+    # interrupted after 1.0 and the failed 0.8 were stored: the resumed run still starts 0.6 from
+    # 1.0's stored flame, as the uninterrupted run did (0.6 lies 4 distance units from 1.0, beyond
+    # plan.MAX_WARM_DISTANCE, so planning only the unsolved points would have solved it fresh)
+    part = run_study(study, out_dir=tmp_path / "resumed", jobs=1, stop_after=2)
+    assert part.solved == 2 and {r["equivalence_ratio"]: r["status"] for r in part.rows}[0.6] == "pending"
+    resumed = {r["equivalence_ratio"]: r for r in run_study(study, out_dir=tmp_path / "resumed", jobs=1).rows}
+    assert resumed[0.6]["start"] == "warm"
+    assert resumed[0.6]["laminar_flame_speed_m_s"] == pytest.approx(below["laminar_flame_speed_m_s"], rel=1e-6)
 
 
 def test_a_failed_fresh_solve_is_retried_with_robust_settings(tmp_path, monkeypatch):
