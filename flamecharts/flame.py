@@ -437,8 +437,8 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
             errors.append(f"warm start: {message}")
             continue  # a warm start may land on the cold branch; confirm with a fresh solve
         if errors and status == "ok":
-            how = ("warm and fresh starts failed, solved on the " + ROBUST_RETRY if start == "robust"
-                   else "warm start failed, solved fresh")
+            tried = " and ".join(e.split(":", 1)[0] for e in errors)
+            how = f"{tried} failed, solved on the {ROBUST_RETRY}" if start == "robust" else f"{tried} failed, solved fresh"
             message = "; ".join(filter(None, [message, how]))
         return {
             "status": status, "message": message, "start": "fresh" if start == "robust" else start,

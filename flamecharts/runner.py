@@ -151,6 +151,18 @@ def _executor(jobs: int):
     return get_reusable_executor(max_workers=jobs, initializer=_quiet_worker, timeout=60)
 
 
+def _fresh_executor(jobs: int, attempts: int = 3):
+    """The executor after a worker died: loky replaces a broken pool; starting its helper
+    processes again can hit a pipe that died with them, so try a few times."""
+    for i in range(attempts):
+        try:
+            return _executor(jobs)
+        except OSError:
+            if i == attempts - 1:
+                raise
+            time.sleep(0.5)
+
+
 def resolve_jobs(jobs: int | None) -> int:
     n = os.cpu_count() or 1
     if jobs is None or jobs == 0:
@@ -298,7 +310,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                         if retries[p.index] <= MAX_RETRIES:
                             heapq.heappush(ready, (-tree.height[p.index], p.index))
                             submitted -= 1
-                            executor = _executor(jobs)
+                            executor = _fresh_executor(jobs)
                             continue
                         result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
                                   "message": f"worker error: {type(exc).__name__}: {first_line(exc)}",

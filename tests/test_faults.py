@@ -61,7 +61,9 @@ def _start(config: Path, out: Path, *extra) -> subprocess.Popen:
 
 
 def _workers(pid: int) -> list[psutil.Process]:
-    """The loky worker processes of the run with this pid (not loky's resource tracker)."""
+    """The loky worker processes of the run with this pid, named by their command line
+    (not the resource trackers, nor a child between fork and exec, which still shows the
+    parent's command line)."""
     try:
         kids = psutil.Process(pid).children(recursive=True)
     except psutil.NoSuchProcess:
@@ -69,7 +71,7 @@ def _workers(pid: int) -> list[psutil.Process]:
     out = []
     for k in kids:
         try:
-            if "resource_tracker" not in " ".join(k.cmdline()):
+            if "LokyProcess" in " ".join(k.cmdline()):
                 out.append(k)
         except psutil.Error:
             pass
