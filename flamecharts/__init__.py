@@ -10,9 +10,9 @@ __version__ = "0.1.0"
 
 from .errors import FlamechartsError, ConfigError, MechanismError, StoreError  # noqa: E402
 from .study import Study, load_study  # noqa: E402
-from .runner import run_study, RunSummary  # noqa: E402
+from .runner import run_study, RunSummary, RunInterrupted  # noqa: E402
 
 __all__ = [
     "__version__", "FlamechartsError", "ConfigError", "MechanismError", "StoreError",
-    "Study", "load_study", "run_study", "RunSummary",
+    "Study", "load_study", "run_study", "RunSummary", "RunInterrupted",
 ]

@@ -12,6 +12,7 @@ unusable store (one line on stderr), 130 interrupted (what finished is kept).
 from __future__ import annotations
 
 import argparse
+import signal
 import sys
 from pathlib import Path
 
@@ -229,9 +230,14 @@ def _cmd_run(args) -> int:
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
     bar = None
+    told = False
 
     def progress(pr) -> None:
-        nonlocal bar
+        nonlocal bar, told
+        if pr.stopping and not told:
+            told = True
+            print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
+                  "(Ctrl-C again to stop at once).", file=sys.stderr)
         if args.quiet:
             return
         if bar is None:
@@ -242,19 +248,34 @@ def _cmd_run(args) -> int:
 
     try:
         summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress, cluster=cluster)
-    except KeyboardInterrupt:
+        files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
+    except KeyboardInterrupt as exc:
+        signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
         if bar is not None:
             bar.close()
-        print(f"\nInterrupted. Every finished flame is stored in {out}; run the same command again "
-              "to resume.", file=sys.stderr)
+        from .runner import RunInterrupted
+
+        what = ""
+        if isinstance(exc, RunInterrupted):
+            what = (f" {exc.solved} flames solved in this run, {exc.remaining} points left"
+                    + (" (running flames abandoned)" if exc.at_once else "") + ".")
+        print(f"\nInterrupted.{what} Every finished flame is stored in {out}; run the same command "
+              "again to resume.", file=sys.stderr)
         return 130
     if bar is not None:
         bar.close()
-    files = _finish_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
           f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
+    if summary.failed:
+        from .flame import failure_reason
+
+        reasons: dict[str, int] = {}
+        for r in summary.rows:
+            if r["status"] == "failed":
+                reasons[failure_reason(r["message"])] = reasons.get(failure_reason(r["message"]), 0) + 1
+        print(f"{summary.failed} failed: " + ", ".join(f"{n} {why}" for why, n in sorted(reasons.items())))
     for r in summary.failures[:20]:
         print(f"  {r['status']}: {r['fuel']}"
               + (f" + {r['blend_fraction']:g} {r['blend_with']}" if r["blend_with"] else "")
@@ -262,6 +283,14 @@ def _cmd_run(args) -> int:
                 f"{r['unburned_temperature_K']:g} K: {r['message']}")
     if len(summary.failures) > 20:
         print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
+    warned = [r for r in summary.rows if r.get("warnings")]
+    if warned:
+        print(f"{len(warned)} points outside the range the method or mechanism covers (column 'warnings'):")
+        for r in warned[:20]:
+            print(f"  {_blend_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+                  f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
+        if len(warned) > 20:
+            print(f"  ... and {len(warned) - 20} more (see results.csv)")
     if not args.quiet:
         _print_points(study, summary.rows)
     _print_margins(study, summary.rows)
@@ -303,6 +332,9 @@ def main(argv: list[str] | None = None) -> int:
     except FlamechartsError as exc:
         _err(str(exc))
         return 2
+    except KeyboardInterrupt:  # Ctrl-C outside a run's solving (reading the config, drawing charts)
+        print("\nInterrupted; nothing half-written is left (files are replaced whole).", file=sys.stderr)
+        return 130
 
 
 if __name__ == "__main__":

@@ -24,7 +24,7 @@ COLUMNS = (
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS
+) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + ("warnings",)
 
 GAS_TABLE_COLUMNS = (
     "fuel", "blend_with", "blend_fraction", "oxidizer", "higher_heating_value_MJ_kg", "lower_heating_value_MJ_kg",

@@ -17,6 +17,7 @@ solves on a coarse grid first (robust, cheap) and then refines to its final crit
 from __future__ import annotations
 
 import contextlib
+import dataclasses
 import io
 import time
 import warnings
@@ -93,6 +94,64 @@ WARM_JACOBIAN_AGE = (40, 40)
 #: before solving (S_L ~ p^beta; beta about -0.4 to -0.5 for methane-air, Gu et al.,
 #: Combust. Flame 121 (2000) 41). The solver corrects the rest.
 GUESS_PRESSURE_EXPONENT = -0.45
+
+
+#: A failed point's message starts with one of these reasons and a colon:
+#: "not converged" (the solver found no solution from a warm start, fresh, nor on the
+#: robust retry), "mechanism error" (the mechanism gives non-finite reaction rates or
+#: thermodynamics, or Cantera raises outside the 1D solver), "worker error" (the worker
+#: process died on the point; such points are solved again by the next run).
+#: A "no_flame" point's message starts with "no flame:".
+FAILURE_REASONS = ("not converged", "mechanism error", "worker error")
+
+
+def failure_reason(message: str) -> str:
+    """Reason of a failed point from its message (older stores: 'not converged').
+
+    >>> failure_reason("mechanism error: non-finite reaction rates at 2000 K")
+    'mechanism error'
+    """
+    head = message.split(":", 1)[0].strip()
+    return head if head in FAILURE_REASONS else "not converged"
+
+
+def robust_numerics(numerics: Numerics) -> Numerics:
+    """Settings of the last retry of a point that failed warm and fresh: a domain three
+    times wider (room for thick, slow flames and for Cantera's domain growth) and a
+    coarser first grid stage before the setting's own stages, so the first Newton
+    solves are small and forgiving. The final grid criteria are the setting's own.
+
+    >>> robust_numerics(NUMERICS["standard"]).stages[0], robust_numerics(NUMERICS["standard"]).width_m
+    ((5.0, 0.3, 0.5), 0.09)
+    """
+    return dataclasses.replace(numerics, width_m=round(3 * numerics.width_m, 12),
+                               stages=((5.0, 0.3, 0.5),) + tuple(numerics.stages))
+
+
+ROBUST_RETRY = "robust retry (3x wider domain, coarser first grid)"
+
+
+def mechanism_fault(gas, T_u: float, P: float, X, T_eq: float) -> str:
+    """'' if the mechanism gives finite thermodynamics and reaction rates along the way
+    from the unburned mixture (T_u) to the burned one (T_eq), else what is wrong.
+
+    Checks the unburned composition at five temperatures from T_u to T_eq and the
+    equilibrium composition at T_eq: a rate or a cp that is inf or NaN there would
+    break every solve of this mixture, so the point is recorded as a mechanism error at
+    once instead of being retried.
+    """
+    gas.TP = T_eq, P
+    Y_eq = gas.Y
+    states = [(T, X, "unburned mixture") for T in np.linspace(T_u, T_eq, 5)]
+    states.append((T_eq, None, "equilibrium products"))
+    for T, comp, what in states:
+        if comp is None:
+            gas.TPY = T, P, Y_eq
+        else:
+            gas.TPX = T, P, comp
+        if not (np.all(np.isfinite(gas.net_production_rates)) and np.isfinite(gas.cp_mass)):
+            return f"non-finite reaction rates or heat capacity for the {what} at {T:.0f} K"
+    return ""
 
 
 class FlameError(Exception):
@@ -299,7 +358,7 @@ def classify(metrics: dict, T_u: float) -> tuple[str, str]:
     rise = metrics["max_temperature_K"] - T_u
     eq_rise = metrics["equilibrium_temperature_K"] - T_u
     if metrics["laminar_flame_speed_m_s"] < MIN_FLAME_SPEED or rise < MIN_RISE_SHARE * max(eq_rise, 1.0):
-        return "no_flame", (f"solver converged to a non-burning state (temperature rise {rise:.0f} K of "
+        return "no_flame", (f"no flame: solver converged to a non-burning state (temperature rise {rise:.0f} K of "
                             f"{eq_rise:.0f} K at equilibrium, speed {metrics['laminar_flame_speed_m_s']:.2g} m/s)")
     notes = []
     mismatch = abs(metrics["adiabatic_flame_temperature_K"] - metrics["equilibrium_temperature_K"])
@@ -332,28 +391,41 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     import cantera as ct
 
     t0 = time.perf_counter()
-    gas.TPX = T_u, P, X
-    gas.equilibrate("HP")
-    rise = gas.T - T_u
+
+    def failed(reason: str, text: str) -> dict:
+        return {"status": "failed", "message": f"{reason}: {text}", "start": "fresh", "metrics": None,
+                "profile": None, "solve_seconds": time.perf_counter() - t0}
+
+    try:
+        gas.TPX = T_u, P, X
+        gas.equilibrate("HP")
+        rise = gas.T - T_u
+        fault = mechanism_fault(gas, T_u, P, X, gas.T) if np.isfinite(rise) else "non-finite equilibrium"
+    except ct.CanteraError as exc:
+        return failed("mechanism error", f"HP equilibrium of the mixture failed: {first_line(exc)}")
+    if fault:
+        return failed("mechanism error", fault + "; not solved (no retry can help: check the mechanism file)")
     if rise < MIN_EQUILIBRIUM_RISE_K:
         return {"status": "no_flame", "start": "fresh", "metrics": None, "profile": None,
-                "message": (f"not solved: equilibrium temperature rise {rise:.0f} K is below "
+                "message": (f"no flame: not solved, equilibrium temperature rise {rise:.0f} K is below "
                             f"{MIN_EQUILIBRIUM_RISE_K:.0f} K; too lean or too diluted to burn"),
                 "solve_seconds": time.perf_counter() - t0}
-    attempts = [("warm", warm)] if warm is not None else []
-    attempts.append(("fresh", None))
+    # warm start (when a neighbour is given), then fresh, then a fresh retry with robust settings
+    attempts = [("warm", warm, numerics)] if warm is not None else []
+    attempts += [("fresh", None, numerics), ("robust", None, robust_numerics(numerics))]
     errors = []
-    for start, w in attempts:
+    for start, w, num in attempts:
+        label = ROBUST_RETRY if start == "robust" else f"{start} start"
         try:
             with warnings.catch_warnings(), contextlib.redirect_stdout(io.StringIO()):
                 warnings.simplefilter("ignore")
                 if w is None:
-                    f = _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics)
+                    f = _solve_fresh(ct, gas, T_u, P, X, transport, soret, num)
                 else:
-                    f = _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, w)
+                    f = _solve_warm(ct, gas, T_u, P, X, transport, soret, num, w)
                 metrics = measure(f, gas, T_u, P, X, T_u + rise)
         except ct.CanteraError as exc:
-            errors.append(f"{start} start: {first_line(exc)}")
+            errors.append(f"{label}: {first_line(exc)}")
             continue
         except (ValueError, IndexError, FloatingPointError) as exc:
             if start != "warm":
@@ -365,15 +437,12 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
             errors.append(f"warm start: {message}")
             continue  # a warm start may land on the cold branch; confirm with a fresh solve
         if errors and status == "ok":
-            message = "; ".join(filter(None, [message, "warm start failed, solved fresh"]))
+            tried = " and ".join(e.split(":", 1)[0] for e in errors)
+            how = f"{tried} failed, solved on the {ROBUST_RETRY}" if start == "robust" else f"{tried} failed, solved fresh"
+            message = "; ".join(filter(None, [message, how]))
         return {
-            "status": status, "message": message, "start": start, "metrics": metrics,
-            "profile": profile_of(f, P) if status == "ok" else None,
+            "status": status, "message": message, "start": "fresh" if start == "robust" else start,
+            "metrics": metrics, "profile": profile_of(f, P) if status == "ok" else None,
             "solve_seconds": time.perf_counter() - t0,
         }
-    return {
-        "status": "failed",
-        "message": f"solver did not converge (HP equilibrium {T_u + rise:.0f} K): " + "; ".join(errors),
-        "start": "fresh", "metrics": None, "profile": None,
-        "solve_seconds": time.perf_counter() - t0,
-    }
+    return failed("not converged", f"no solution (HP equilibrium {T_u + rise:.0f} K); " + "; ".join(errors))

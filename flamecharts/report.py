@@ -161,6 +161,15 @@ def write_report(study, rows: list[dict], out_dir: Path) -> Path:
                             [[_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
 
+    warned = [r for r in rows if r.get("warnings")]
+    if warned:
+        parts.append("<h2 id='warnings'>Points outside the range of the method or mechanism</h2>")
+        parts.append("<p>These numbers were computed, but the inputs lie outside what a freely propagating "
+                     "laminar flame or the mechanism covers: read them as indications only.</p>")
+        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
+                            [[_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                              f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
+
     n = NUMERICS[study.resolution]
     parts.append("<h2>Provenance</h2>")
     parts.append(_table(["", ""], [

@@ -10,11 +10,18 @@ hands work on point by point. With ``jobs=1`` everything runs in this process.
 
 Workers return plain data; only the parent writes the store. With ``cluster`` the
 same loop submits to Dask workers instead (see cluster.py).
+
+The tree spans every point of the study, stored ones included, so a resumed run starts
+each point from the same neighbour as an uninterrupted one (its stored profile) and
+gives the same flames. Ctrl-C: the first stops handing out work and lets running
+flames finish and be stored (then :class:`RunInterrupted`), a second stops at once.
 """
 from __future__ import annotations
 
 import heapq
 import os
+import signal
+import threading
 import time
 import uuid
 from concurrent.futures import FIRST_COMPLETED, wait
@@ -43,6 +50,7 @@ class Progress:
     reused: int
     elapsed_s: float
     last: dict | None = None
+    stopping: bool = False  # a first Ctrl-C arrived: no new work, running flames finish
 
 
 @dataclass
@@ -68,12 +76,27 @@ class RunSummary:
         return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
+class RunInterrupted(KeyboardInterrupt):
+    """The run was stopped by Ctrl-C (SIGINT); every flame that finished is stored.
+
+    ``solved`` flames were committed by this run, ``remaining`` points of the study are
+    still unsolved; ``at_once`` is True when a second Ctrl-C abandoned running flames.
+    """
+
+    def __init__(self, solved: int = 0, remaining: int = 0, at_once: bool = False):
+        super().__init__("interrupted")
+        self.solved, self.remaining, self.at_once = solved, remaining, at_once
+
+
 # ---------------------------------------------------------------- worker side
 _GAS_CACHE: dict = {}
 
 
 def _quiet_worker() -> None:
-    """Keep Cantera's C++ log output and warnings away from the user's terminal."""
+    """Keep Cantera's C++ log output and warnings away from the user's terminal, and
+    leave Ctrl-C to the parent: a terminal sends SIGINT to the whole process group, and
+    the parent decides whether running flames finish (first Ctrl-C) or are abandoned."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
     devnull = os.open(os.devnull, os.O_WRONLY)
     os.dup2(devnull, 1)
     os.close(devnull)
@@ -140,6 +163,18 @@ def _executor(jobs: int, cluster=None, study: Study | None = None):
     return get_reusable_executor(max_workers=jobs, initializer=_quiet_worker, timeout=60)
 
 
+def _fresh_executor(jobs: int, cluster=None, study: Study | None = None, attempts: int = 3):
+    """The executor after a worker died: loky replaces a broken pool; starting its helper
+    processes again can hit a pipe that died with them, so try a few times."""
+    for i in range(attempts):
+        try:
+            return _executor(jobs, cluster, study)
+        except OSError:
+            if i == attempts - 1:
+                raise
+            time.sleep(0.5)
+
+
 def resolve_jobs(jobs: int | None) -> int:
     n = os.cpu_count() or 1
     if jobs is None or jobs == 0:
@@ -151,11 +186,16 @@ def resolve_jobs(jobs: int | None) -> int:
 
 def study_rows(study: Study, pts: list[planmod.Point], stored: dict[str, dict]) -> list[dict]:
     """One flat row per point, in study order, from stored results (missing -> 'pending'),
-    with the design indicators, fuel-gas properties and burner margins added."""
+    with the design indicators, fuel-gas properties and burner margins added, and the
+    range warnings of each point (column 'warnings', see ranges.py)."""
     from .design import annotate
     from .export import flat_row
+    from .ranges import point_warnings
 
-    return annotate(study, [flat_row(study, p, stored.get(p.key)) for p in pts])
+    rows = annotate(study, [flat_row(study, p, stored.get(p.key)) for p in pts])
+    for p, r in zip(pts, rows):
+        r["warnings"] = point_warnings(study, p, r)
+    return rows
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
@@ -173,6 +213,10 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
     cluster : Dask scheduler address ('tcp://HOST:PORT') or 'local:N' to solve on a Dask
         cluster instead of local processes (``jobs`` is then ignored); default: the
         study's ``cluster`` key, else local processes
+
+    Raises
+    ------
+    RunInterrupted (a KeyboardInterrupt) after Ctrl-C, once the finished flames are stored.
 
     Returns
     -------
@@ -201,56 +245,87 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         # points are solved again only when a worker died on them (a transient failure)
         done_keys = {k for k, r in store.rows().items()
                      if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
-        todo = [p for p in pts if p.key not in done_keys]
         # one solve per distinct key: two points of a study may be the same flame
         seen, unique = set(), []
-        for p in todo:
+        for p in pts:
             if p.key not in seen:
                 seen.add(p.key)
                 unique.append(p)
-        reused = len(pts) - len(todo)
-        sources = [planmod.StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})]
+        todo = [p for p in unique if p.key not in done_keys]
+        reused = len(pts) - sum(1 for p in pts if p.key not in done_keys)
+        # The warm-start tree spans ALL points of the study, stored ones included, and takes
+        # as extra sources only stored flames of other studies: a resumed run then starts
+        # every point from the same neighbour's profile as an uninterrupted run would (read
+        # from the store when that neighbour is stored), so it gives the same answers.
+        own = {p.key for p in unique}
+        sources = [planmod.StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})
+                   if s["key"] not in own]
         tree = planmod.warm_tree(unique, sources)
         by_index = {p.index: p for p in unique}
+        pending = {p.index for p in todo}
         children: dict[int, list[int]] = {}
         ready: list[tuple[int, int]] = []  # heap: the longest warm-start path below first
-        for p in unique:
-            if tree.parent[p.index] is None:
+        for p in todo:
+            par = tree.parent[p.index]
+            if par is None or par not in pending:
                 heapq.heappush(ready, (-tree.height[p.index], p.index))
             else:
-                children.setdefault(tree.parent[p.index], []).append(p.index)
+                children.setdefault(par, []).append(p.index)
         finished: dict[int, dict] = {}
         retries: dict[int, int] = {}
         in_flight: dict = {}
-        limit = stop_after if stop_after is not None else len(unique)
+        limit = stop_after if stop_after is not None else len(todo)
         submitted = solved = failed = no_flame = 0
         executor = _executor(jobs, cluster, study)
         solve_seconds = 0.0
 
         def warm_for(p: planmod.Point) -> dict | None:
-            """Profile of the nearest finished, burning flame up the point's warm-start path
-            (a failed flame passes its own source on), else of the stored flame the path
-            starts from (None: solve fresh)."""
+            """Profile of the nearest burning flame up the point's warm-start path, finished
+            in this run or stored by an earlier one (a failed flame passes its own source
+            on), else of the stored flame of another study the path starts from (None:
+            solve fresh)."""
             cur = p.index
             while tree.parent[cur] is not None:
                 cur = tree.parent[cur]
-                prof = finished.get(cur, {}).get("profile")
+                if cur in finished:
+                    prof = finished[cur].get("profile")
+                else:
+                    prof = store.profile(by_index[cur].key)
                 if prof is not None:
                     return prof
             return store.profile(tree.stored[cur]) if cur in tree.stored else None
 
-        if progress is not None:
-            progress(Progress(done=0, total=len(unique), failed=0, no_flame=0, reused=reused, elapsed_s=0.0))
+        # First Ctrl-C: hand out nothing new, let running flames finish and commit them.
+        # Second Ctrl-C: stop at once (running flames are abandoned, nothing partial is stored).
+        stop = {"requested": False, "reported": False}
+        installed, old_handler = False, None
+        if threading.current_thread() is threading.main_thread():
+            def on_sigint(signum, frame):
+                if stop["requested"]:
+                    raise RunInterrupted(solved, len(pending), at_once=True)
+                stop["requested"] = True
+            old_handler = signal.signal(signal.SIGINT, on_sigint)
+            installed = True
+
+        def report(last=None) -> None:
+            if progress is not None:
+                progress(Progress(done=solved, total=len(todo), failed=failed, no_flame=no_flame, reused=reused,
+                                  elapsed_s=time.perf_counter() - t0, last=last, stopping=stop["requested"]))
+
+        report()
         clean_exit = False
         try:
             while ready or in_flight:
-                while ready and len(in_flight) < jobs and submitted < limit:
+                while ready and len(in_flight) < jobs and submitted < limit and not stop["requested"]:
                     p = by_index[heapq.heappop(ready)[1]]
                     in_flight[executor.submit(solve_task, _task(study, p, warm_for(p)))] = p
                     submitted += 1
+                if stop["requested"] and not stop["reported"]:
+                    stop["reported"] = True
+                    report()
                 if not in_flight:
                     break
-                done, _ = wait(list(in_flight), return_when=FIRST_COMPLETED)
+                done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
                 for fut in done:
                     p = in_flight.pop(fut)
                     try:
@@ -262,7 +337,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                         if retries[p.index] <= MAX_RETRIES:
                             heapq.heappush(ready, (-tree.height[p.index], p.index))
                             submitted -= 1
-                            executor = _executor(jobs, cluster, study)
+                            executor = _fresh_executor(jobs, cluster, study)
                             continue
                         result = {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
                                   "message": f"worker error: {type(exc).__name__}: {first_line(exc)}",
@@ -270,23 +345,24 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
                     result["inputs"] = p.inputs
                     store.commit_point(p, result, run_id)
                     finished[p.index] = result
+                    pending.discard(p.index)
                     for c in children.get(p.index, []):
                         heapq.heappush(ready, (-tree.height[c], c))
                     solved += 1
                     solve_seconds += result["solve_seconds"]
                     failed += result["status"] == "failed"
                     no_flame += result["status"] == "no_flame"
-                    if progress is not None:
-                        progress(Progress(done=solved, total=len(unique), failed=failed, no_flame=no_flame, reused=reused,
-                                          elapsed_s=time.perf_counter() - t0,
-                                          last={"point": p, "status": result["status"],
-                                                "message": result["message"], "start": result["start"],
-                                                "solve_seconds": result["solve_seconds"],
-                                                "cpu_seconds": result.get("cpu_seconds", 0.0)}))
-            clean_exit = True
+                    report({"point": p, "status": result["status"], "message": result["message"],
+                            "start": result["start"], "solve_seconds": result["solve_seconds"],
+                            "cpu_seconds": result.get("cpu_seconds", 0.0)})
+            clean_exit = not stop["requested"]
         finally:
+            if installed:
+                signal.signal(signal.SIGINT, old_handler if old_handler is not None else signal.SIG_DFL)
             if not clean_exit:
                 executor.shutdown(wait=False, kill_workers=True)
+        if stop["requested"]:
+            raise RunInterrupted(solved, len(pending))
         stored = store.rows([p.key for p in pts])
     rows = study_rows(study, pts, stored)
     failures = [r for r in rows if r["status"] in ("failed", "no_flame")]

@@ -94,7 +94,8 @@ def test_interrupted_run_resumes_and_matches_an_uninterrupted_one(tmp_path):
     whole = run_study(study, out_dir=tmp_path / "b", jobs=2)
     for r1, r2 in zip(rest.rows, whole.rows):
         assert r1["status"] == r2["status"] == "ok"
-        assert r1["laminar_flame_speed_m_s"] == pytest.approx(r2["laminar_flame_speed_m_s"], rel=3e-3)
+        # the same warm-start source as an uninterrupted run (its stored profile): the same flame
+        assert r1["laminar_flame_speed_m_s"] == pytest.approx(r2["laminar_flame_speed_m_s"], rel=1e-6)
 
 
 def test_overlapping_study_reuses_shared_points(tmp_path):
