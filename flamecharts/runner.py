@@ -95,8 +95,11 @@ _GAS_CACHE: dict = {}
 def _quiet_worker() -> None:
     """Keep Cantera's C++ log output and warnings away from the user's terminal, and
     leave Ctrl-C to the parent: a terminal sends SIGINT to the whole process group, and
-    the parent decides whether running flames finish (first Ctrl-C) or are abandoned."""
-    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    the parent decides whether running flames finish (first Ctrl-C) or are abandoned.
+    A Dask worker runs tasks in a thread, where signals cannot be set (and its nanny
+    process handles them); there only the log is silenced."""
+    if threading.current_thread() is threading.main_thread():
+        signal.signal(signal.SIGINT, signal.SIG_IGN)
     devnull = os.open(os.devnull, os.O_WRONLY)
     os.dup2(devnull, 1)
     os.close(devnull)
