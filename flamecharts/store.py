@@ -181,6 +181,10 @@ def unpack_profile(blob: bytes | None) -> dict | None:
                 "species": [str(s) for s in z["species"]], "P": float(z["P"])}
 
 
+#: A refused run waits up to this many tenths of a second for the holder's name to appear.
+HOLDER_NAME_POLLS = 20
+
+
 class RunLock:
     """An exclusive lock on an output folder, so two runs never write one store at once.
 
@@ -203,8 +207,14 @@ class RunLock:
         try:
             fcntl.flock(fh, fcntl.LOCK_EX | fcntl.LOCK_NB)
         except BlockingIOError:
-            fh.seek(0)
-            holder = fh.read(300).strip() or "which has not yet written its name"
+            holder = ""
+            for _ in range(HOLDER_NAME_POLLS):  # the holder writes its name just after it takes the lock
+                fh.seek(0)
+                holder = fh.read(300).strip()
+                if holder:
+                    break
+                time.sleep(0.1)
+            holder = holder or "which has not yet written its name"
             fh.close()
             raise StoreError(f"output folder {self.path.parent} is in use by another run ({holder}); "
                              "wait for it to finish or choose another --out") from None
