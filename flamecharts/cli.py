@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import argparse
 import signal
+from collections import Counter
 import sys
 from pathlib import Path
 
@@ -53,7 +54,7 @@ def _err(msg: str) -> None:
 def _cmd_check(args) -> int:
     from . import plan
     from .flame import NUMERICS
-    from .runner import default_out_dir
+    from .runner import default_out_dir, study_rows, unique_points, warm_plan
     from .store import DB_NAME, Store, stored_keys
     from .study import load_study
 
@@ -62,12 +63,16 @@ def _cmd_check(args) -> int:
     out = Path(args.out) if args.out else default_out_dir(study)
     keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
     stored = sum(p.key in keys for p in pts)
-    sources, timings = [], {}
+    unique = unique_points(pts)
+    todo = {p.index for p in unique if p.key not in keys}
+    rows, timings = [], {}
     if keys:
         with Store(out / DB_NAME, readonly=True) as st:
-            families = {p.family for p in pts}
-            sources = [plan.StoredFlame(**s) for s in st.warm_sources(families)]
-            timings = st.timings(families)
+            tree = warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique})
+            timings = st.timings({p.family for p in pts})
+            rows = study_rows(study, pts, st.rows([p.key for p in pts]))
+    else:
+        tree = plan.warm_tree(unique)
     n = NUMERICS[study.resolution]
     print(f"Study: {study.title}")
     print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
@@ -83,13 +88,7 @@ def _cmd_check(args) -> int:
     _print_gases(study)
     _print_burner(study)
     if stored:
-        from .runner import study_rows
-
-        with Store(out / DB_NAME, readonly=True) as st:
-            rows = study_rows(study, pts, st.rows([p.key for p in pts]))
         _print_points(study, [r for r in rows if r["status"] != "pending"])
-    todo = list({p.key: p for p in pts if p.key not in keys}.values())  # one solve per distinct flame
-    tree = plan.warm_tree(todo, sources)
     print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
           f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
           f"(longest warm-start path {tree.depth})")
@@ -271,10 +270,7 @@ def _cmd_run(args) -> int:
     if summary.failed:
         from .flame import failure_reason
 
-        reasons: dict[str, int] = {}
-        for r in summary.rows:
-            if r["status"] == "failed":
-                reasons[failure_reason(r["message"])] = reasons.get(failure_reason(r["message"]), 0) + 1
+        reasons = Counter(failure_reason(r["message"]) for r in summary.rows if r["status"] == "failed")
         print(f"{summary.failed} failed: " + ", ".join(f"{n} {why}" for why, n in sorted(reasons.items())))
     for r in summary.failures[:20]:
         print(f"  {r['status']}: {r['fuel']}"

@@ -56,9 +56,9 @@ class Numerics:
     width_m : initial domain width at 1 bar [m]; scaled as 1/sqrt(p) and widened by
         Cantera's automatic solve when the flame needs it
     max_grid_points : ceiling on grid points
-    tail_share : a refinement pass of the final stage that would add no more than this
-        share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the flame
-        converged on the grid before it is kept (see :func:`_refine_loop`)
+    tail_share : a refinement pass (of any stage after the first) that would add no more
+        than this share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the
+        flame converged on the grid before it is kept (see :func:`_refine_loop`)
     """
 
     label: str

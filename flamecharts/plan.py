@@ -159,6 +159,29 @@ class WarmPlan:
         """Points on the longest warm-start path of the plan."""
         return max(self.height.values(), default=0)
 
+    def pending(self, todo: set[int], keys: dict[int, str]) -> "WarmPlan":
+        """The part of this plan still to solve: the points in ``todo``, where a point whose
+        source is already solved (outside ``todo``; ``keys`` gives its store key) starts
+        from that stored flame.
+
+        >>> p = WarmPlan(parent={0: None, 1: 0, 2: 1}, stored={}, roots=[0],
+        ...              height={0: 3, 1: 2, 2: 1}, distance={0: math.inf, 1: 1.0, 2: 1.0})
+        >>> q = p.pending({1, 2}, {0: "k0"})
+        >>> q.parent, q.stored, q.roots
+        ({1: None, 2: 1}, {1: 'k0'}, [])
+        """
+        parent, stored = {}, {}
+        for i in todo:
+            par = self.parent[i]
+            parent[i] = par if par in todo else None
+            if par is not None and par not in todo:
+                stored[i] = keys[par]
+            elif par is None and i in self.stored:
+                stored[i] = self.stored[i]
+        return WarmPlan(parent=parent, stored=stored, roots=[i for i in self.roots if i in todo],
+                        height={i: self.height[i] for i in todo},
+                        distance={i: self.distance[i] for i in todo})
+
 
 def _coordinates(items, species: list[str]) -> tuple[np.ndarray, np.ndarray]:
     """(phi, ln p, T) scaled to DISTANCE_SCALES, and fuel mole fractions scaled likewise."""

@@ -201,6 +201,25 @@ def study_rows(study: Study, pts: list[planmod.Point], stored: dict[str, dict]) 
     return rows
 
 
+def warm_plan(store: Store, unique: list[planmod.Point]) -> planmod.WarmPlan:
+    """The warm-start tree of a study's distinct points against its store.
+
+    The tree spans ALL points of the study, stored ones included, and takes as extra
+    sources only stored flames of other studies: a resumed run then starts every point
+    from the same neighbour's profile as an uninterrupted run would (read from the store
+    when that neighbour is stored), so it gives the same answers.
+    """
+    own = {p.key for p in unique}
+    sources = [planmod.StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})
+               if s["key"] not in own]
+    return planmod.warm_tree(unique, sources)
+
+
+def unique_points(pts: list[planmod.Point]) -> list[planmod.Point]:
+    """One point per distinct key, in study order: two points of a study may be the same flame."""
+    return list({p.key: p for p in pts}.values())
+
+
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
               progress: Callable[[Progress], None] | None = None,
               stop_after: int | None = None, cluster=None) -> RunSummary:
@@ -248,22 +267,10 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
         # points are solved again only when a worker died on them (a transient failure)
         done_keys = {k for k, r in store.rows().items()
                      if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
-        # one solve per distinct key: two points of a study may be the same flame
-        seen, unique = set(), []
-        for p in pts:
-            if p.key not in seen:
-                seen.add(p.key)
-                unique.append(p)
+        unique = unique_points(pts)
         todo = [p for p in unique if p.key not in done_keys]
         reused = len(pts) - sum(1 for p in pts if p.key not in done_keys)
-        # The warm-start tree spans ALL points of the study, stored ones included, and takes
-        # as extra sources only stored flames of other studies: a resumed run then starts
-        # every point from the same neighbour's profile as an uninterrupted run would (read
-        # from the store when that neighbour is stored), so it gives the same answers.
-        own = {p.key for p in unique}
-        sources = [planmod.StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})
-                   if s["key"] not in own]
-        tree = planmod.warm_tree(unique, sources)
+        tree = warm_plan(store, unique)
         by_index = {p.index: p for p in unique}
         pending = {p.index for p in todo}
         children: dict[int, list[int]] = {}
