@@ -110,13 +110,17 @@ def points(study: Study) -> list[Point]:
     return out
 
 
-#: One unit of the normalised distance between two flames, per coordinate: a warm start
-#: across one unit costs about the same (measured on GRI-Mech 3.0 methane-air flames with
-#: tests/benchmarks/sweep_speed.py, DEVELOPERS.md: a step of 0.1 in phi, 15 % hydrogen
-#: blended in and a factor 1.6 in pressure each cost 2-3 Jacobians). The fuel coordinate
-#: is the total-variation distance of the fuel-stream mole fractions (0.1 = 10 % of the
-#: fuel replaced, e.g. a blend-fraction step of 0.1). The preheat scale is a guess.
-DISTANCE_SCALES = {"phi": 0.1, "fuel": 0.1, "ln_p": math.log(1.6), "T_u": 50.0}
+#: One unit of the normalised distance between two flames, per coordinate, fitted to
+#: measured warm-start costs (GRI-Mech 3.0, natural gas with hydrogen, 1-5 bar, CPU
+#: seconds against a floor of about 3 s; DEVELOPERS.md, Benchmarks): a step of 0.1 in phi
+#: costs 4-8 s (rich steps 8-23 s), a factor 2-2.5 in pressure 8-9 s (so ln 1.6 per unit
+#: keeps a factor-5 jump, which costs more than a fresh solve, beyond MAX_WARM_DISTANCE),
+#: while replacing 15 % of the fuel by hydrogen at fixed phi costs only 3-5 s, one
+#: Jacobian: one unit is 25 % of the fuel replaced, so the tree steps across blends before
+#: it steps along phi. The fuel coordinate is the total-variation distance of the
+#: fuel-stream mole fractions (0.15 for a blend-fraction step of 0.15). Preheat: 50 K
+#: costs 3.5 s (one Jacobian), 100 K 9 s, 200 K 17 s.
+DISTANCE_SCALES = {"phi": 0.1, "fuel": 0.25, "ln_p": math.log(1.6), "T_u": 50.0}
 
 #: A point farther than this (in units of DISTANCE_SCALES) from every solved or stored
 #: flame is solved from scratch: a factor-5 pressure jump (3.4 units) warm-starts more

@@ -86,7 +86,9 @@ def test_warm_start_across_pressure_and_temperature(gas, stoich):
                           flame.NUMERICS["standard"], warm=stoich["profile"])
     fresh = flame.solve_flame(gas, 400.0, 2 * ct.one_atm, h2_air(1.0), "mixture-averaged", False,
                               flame.NUMERICS["standard"])
-    assert r["status"] == "ok"
+    # the neighbour's profile is moved to the new preheat: it stays a warm start (a profile
+    # left at 300 K against a 400 K inlet made the grid refiner run away to its ceiling)
+    assert r["status"] == "ok" and r["start"] == "warm"
     assert r["metrics"]["laminar_flame_speed_m_s"] == pytest.approx(
         fresh["metrics"]["laminar_flame_speed_m_s"], rel=3e-3)
 
