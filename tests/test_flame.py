@@ -127,3 +127,21 @@ def test_other_transport_models_solve(transport, soret):
     r = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.0), transport, soret, flame.NUMERICS["coarse"])
     assert r["status"] == "ok"
     assert 1.5 < r["metrics"]["laminar_flame_speed_m_s"] < 3.0
+
+
+def test_monotone_cubic_matches_scipy_pchip():
+    # Reference: scipy.interpolate.PchipInterpolator (Fritsch & Butland 1984 slopes, the
+    # three-point shape-preserving end slopes), a general reference library.
+    from scipy.interpolate import PchipInterpolator
+
+    rng = np.random.default_rng(7)
+    x = np.cumsum(rng.uniform(0.01, 1.0, 40))
+    table = np.column_stack([np.tanh(x - x.mean()), rng.uniform(0, 1, 40), np.full(40, 0.3),
+                             np.r_[np.zeros(20), np.ones(20)]])
+    x_new = np.linspace(x[0], x[-1], 997)
+    ours = flame.monotone_cubic(x, table, x_new)
+    assert ours == pytest.approx(PchipInterpolator(x, table, axis=0)(x_new), abs=1e-12)
+    # no overshoot: a step stays inside [0, 1]
+    assert ours[:, 3].min() >= 0.0 and ours[:, 3].max() <= 1.0
+    two = flame.monotone_cubic([0.0, 2.0], [1.0, 3.0], [0.5, 2.0])
+    assert two == pytest.approx([1.5, 3.0])
