@@ -113,10 +113,10 @@ def points(study: Study) -> list[Point]:
 #: One unit of the normalised distance between two flames, per coordinate, fitted to
 #: measured warm-start costs (GRI-Mech 3.0, natural gas with hydrogen, 1-5 bar, CPU
 #: seconds against a floor of about 3 s; DEVELOPERS.md, Benchmarks): a step of 0.1 in phi
-#: costs 4-8 s (rich steps 8-23 s), a factor 2-2.5 in pressure 8-9 s (so ln 1.6 per unit
+#: costs 4-16 s (rich steps 8-26 s), a factor 2-2.5 in pressure 8-9 s (so ln 1.6 per unit
 #: keeps a factor-5 jump, which costs more than a fresh solve, beyond MAX_WARM_DISTANCE),
-#: while replacing 15 % of the fuel by hydrogen at fixed phi costs only 3-5 s, one
-#: Jacobian: one unit is 25 % of the fuel replaced, so the tree steps across blends before
+#: while replacing 15 % of the fuel by hydrogen at fixed phi costs only 3-8 s, one or
+#: two Jacobians: one unit is 25 % of the fuel replaced, so the tree steps across blends before
 #: it steps along phi. The fuel coordinate is the total-variation distance of the
 #: fuel-stream mole fractions (0.15 for a blend-fraction step of 0.15). Preheat: 50 K
 #: costs 3.5 s (one Jacobian), 100 K 9 s, 200 K 17 s.
