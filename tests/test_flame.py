@@ -132,7 +132,7 @@ def test_other_transport_models_solve(transport, soret):
 def test_monotone_cubic_matches_scipy_pchip():
     # Reference: scipy.interpolate.PchipInterpolator (Fritsch & Butland 1984 slopes, the
     # three-point shape-preserving end slopes), a general reference library.
-    from scipy.interpolate import PchipInterpolator
+    PchipInterpolator = pytest.importorskip("scipy.interpolate").PchipInterpolator
 
     rng = np.random.default_rng(7)
     x = np.cumsum(rng.uniform(0.01, 1.0, 40))
@@ -145,3 +145,9 @@ def test_monotone_cubic_matches_scipy_pchip():
     assert ours[:, 3].min() >= 0.0 and ours[:, 3].max() <= 1.0
     two = flame.monotone_cubic([0.0, 2.0], [1.0, 3.0], [0.5, 2.0])
     assert two == pytest.approx([1.5, 3.0])
+    # tiny slopes (product underflows) still take the harmonic mean, as scipy does
+    tiny = np.array([1.0, 2.0, 4.0, 8.0, 16.0]) * 1e-200
+    assert flame.monotone_cubic(np.arange(5.0), tiny, [1.5])[0] == pytest.approx(
+        float(PchipInterpolator(np.arange(5.0), tiny)(1.5)), rel=1e-12)
+    with pytest.raises(ValueError):
+        flame.monotone_cubic([0.0, 1.0, 1.0], [0.0, 1.0, 2.0], [0.5])
