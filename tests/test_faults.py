@@ -95,13 +95,33 @@ def _integrity(db: Path) -> None:
         assert st.integrity_ok()
 
 
-def _assert_same_table(db: Path, reference: dict) -> None:
+def _assert_same_table(db: Path, reference: dict, loose: set[str] = frozenset()) -> None:
+    """Statuses equal and flame speeds equal to 1e-6; for the keys in ``loose``, which
+    started from another neighbour than in the reference, within the 0.5 % grid-history
+    spread of lean hydrogen (DEVELOPERS.md, Accuracy of the numerical settings)."""
     rows = _rows_ro(db)
     assert set(rows) == set(reference)
     for key, (status, _, _, speed, msg) in rows.items():
         assert status == reference[key][0], msg
         if speed is not None:
-            assert speed == pytest.approx(reference[key][3], rel=1e-6)
+            assert speed == pytest.approx(reference[key][3], rel=5e-3 if key in loose else 1e-6)
+
+
+def _below(config: Path, keys: list[str]) -> set[str]:
+    """Keys of the points whose warm-start path up the tree passes through one of ``keys``
+    (a failed point passes its own source on to the points below it)."""
+    pts = plan.points(load_study(config))
+    tree = plan.warm_tree(pts)
+    key_of = {p.index: p.key for p in pts}
+    out = set()
+    for p in pts:
+        i = tree.parent[p.index]
+        while i is not None:
+            if key_of[i] in keys:
+                out.add(p.key)
+                break
+            i = tree.parent[i]
+    return out
 
 
 @pytest.fixture(scope="module")
@@ -197,7 +217,10 @@ def test_kill_9_of_a_worker_at_five_moments_loses_nothing(tmp_path, reference):
     for key, row in rows.items():
         if key not in again:
             assert final[key][1:3] == row[1:3]
-    _assert_same_table(db, ref)
+    # a flame in flight when its worker died more than MAX_RETRIES times (loky breaks every
+    # flame in flight at each kill) is a worker error: the points below it started from
+    # the flame above it, as in a run where it failed, and keep that answer
+    _assert_same_table(db, ref, loose=_below(config, again))
 
 
 @pytest.mark.slow
