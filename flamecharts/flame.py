@@ -59,11 +59,13 @@ class Numerics:
     tail_share : a refinement pass (of any stage after the first) that would add no more
         than this share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the
         flame converged on the grid before it is kept (see :func:`_refine_loop`)
-    warm_share : the same for the first refinement pass after a warm start, whose grid was
-        already refined at the final criteria on the neighbour's profile (see
-        :func:`_regrid`); measured effect on S_L 0.005-0.03 % on five steps whose pass
-        would have added 5-7 % (a 9 % pass moved lean hydrogen blends by 0.12 %;
-        DEVELOPERS.md, Benchmarks)
+    warm_share : the same for the first refinement pass after the full-grid solve of a
+        warm start, whose grid was already refined at the final criteria on a converged
+        profile of the new flame (see :func:`_solve_warm`); measured effect on S_L
+        0.005-0.03 % on five steps whose pass would have added 5-7 % (a 9 % pass moved
+        lean hydrogen blends by 0.12 %; DEVELOPERS.md, Benchmarks)
+    warm_stride : a warm start first solves on every warm_stride-th point of the
+        neighbour's grid (see :func:`_solve_warm`)
     """
 
     label: str
@@ -73,6 +75,7 @@ class Numerics:
     max_grid_points: int = 5000
     tail_share: float = 0.01
     warm_share: float = 0.08
+    warm_stride: int = 4
 
     def as_dict(self) -> dict:
         d = asdict(self)
@@ -276,21 +279,25 @@ def tail_points(n_points: int, share: float) -> int:
 
 
 def _refine_loop(f, numerics: Numerics, first_share: float | None = None) -> None:
-    """Refine a converged flame to the final criteria, one Cantera pass at a time.
+    """Refine a converged flame to the final criteria, one solve at a time.
 
-    Each pass that adds points costs a new Jacobian on the larger grid; near the end
-    Cantera's refiner tends to add a handful of points per pass (ratio criterion
-    cascades), each pass as costly as the first. A pass that would add at most
-    :func:`tail_points` points is undone and the flame converged on the grid before it
-    is kept: a 1 % denser grid moves S_L by far less than the setting's own error
-    (measured in tests/benchmarks/sweep_speed.py against Cantera's full refinement).
+    Each solve on a new grid costs a new Jacobian. Before each solve the grid is settled
+    on the converged solution (:func:`_settle`: Cantera's refiner applied pass after
+    pass to that solution read through a monotone cubic, no solve in between), so one
+    solve takes what used to be several refine-and-solve passes (each pass of Cantera's
+    refiner exposes the next: ratio criterion cascades, new points read linearly).
+    Measured: two Jacobians instead of three on hard steps, S_L within 0.02 %
+    (DEVELOPERS.md, Benchmarks). A settled grid that adds at most :func:`tail_points`
+    points is undone and the flame converged on the grid before it is kept: a 1 %
+    denser grid moves S_L by far less than the setting's own error (measured in
+    tests/benchmarks/sweep_speed.py against Cantera's full refinement).
     ``first_share``, when given, replaces ``numerics.tail_share`` for the first pass only.
     """
     share = numerics.tail_share if first_share is None else first_share
     while True:
         before = f.to_array()
         n = len(f.grid)
-        f.refine(loglevel=0)
+        _settle(f, np.array(f.grid), _solution_table(f))
         added = len(f.grid) - n
         if added == 0:
             return
@@ -381,10 +388,10 @@ def _regrid(f, guess, stride: int = 2, max_passes: int = 40) -> None:
 
     Carrying the neighbour's own grid from flame to flame only ever adds points (Cantera's
     pruning removes almost none with a detailed mechanism), and every point costs
-    Jacobian time. Instead every other point of the neighbour's grid is kept and Cantera's
-    refiner, at the flame's criteria, adds points back where the neighbour's profile
-    needs them, each pass re-reading the profile at the new points (no solve happens
-    here). The grid ends close to what a fresh solve of the neighbour would have.
+    Jacobian time. Instead every ``stride``-th point of the neighbour's grid is kept and
+    Cantera's refiner, at f's current criteria, adds points back where the neighbour's
+    profile needs them, each pass re-reading the profile at the new points (no solve
+    happens here, see :func:`_settle`).
 
     The profile is read through a monotone piecewise-cubic interpolant
     (:func:`monotone_cubic`), whose slope is continuous and which never overshoots the
@@ -396,8 +403,21 @@ def _regrid(f, guess, stride: int = 2, max_passes: int = 40) -> None:
     x = np.asarray(guess.grid)
     keep = np.unique(np.r_[0:len(x):stride, len(x) - 1])
     f.set_initial_guess(data=guess[keep])
-    names = ["velocity", "T", *f.gas.species_names]
     table = np.column_stack([np.asarray(guess.velocity), np.asarray(guess.T), np.asarray(guess.Y)])
+    _settle(f, x, table, max_passes)
+
+
+def _solution_table(f) -> np.ndarray:
+    """The flame's velocity [m/s], temperature [K] and mass fractions as one table, one
+    row per grid point (columns in the order :func:`_settle` writes them back)."""
+    return np.column_stack([np.array(f.velocity), np.array(f.T), np.array(f.Y).T])
+
+
+def _settle(f, x, table, max_passes: int = 40) -> None:
+    """Refine f's grid at its criteria until Cantera's refiner adds no point, reading the
+    profile (x [m], table from :func:`_solution_table`) through :func:`monotone_cubic`
+    at every new grid after each pass. No solve happens here."""
+    names = ["velocity", "T", *f.gas.species_names]
     for _ in range(max_passes):
         n = len(f.grid)
         f.refine(loglevel=0)
@@ -409,14 +429,36 @@ def _regrid(f, guess, stride: int = 2, max_passes: int = 40) -> None:
 
 
 def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
+    """Solve a flame from a neighbour's converged profile, coarse grid first.
+
+    1. The neighbour's profile (stretched to the new pressure and preheat by
+       :func:`_initial_guess`) is read onto every ``warm_stride``-th point of its grid,
+       refined at the first-stage criteria (:func:`_regrid`), and solved there: Newton's
+       hard part, and any time stepping, happen on about a quarter of the points, where
+       a Jacobian costs a quarter.
+    2. The grid is settled at the final criteria on that converged coarse solution of
+       the new flame (:func:`_settle`) and solved once more: the guess is close, one
+       Jacobian on the full grid.
+    3. Refined to the final criteria (:func:`_refine_loop`, first pass skipped up to
+       ``warm_share``).
+
+    Measured against solving on the neighbour's full regridded grid (GRI-Mech 3.0,
+    DEVELOPERS.md, Benchmarks): hard steps (rich phi steps, 15 -> 30 % hydrogen) cost
+    half to two thirds, easy ones about the same, and the grid history, coarse then
+    fine like a fresh solve, puts S_L within 0.05 % of Cantera's own solve from scratch
+    (0.3 % before).
+    """
     gas.TPX = T_u, P, X
     f = _make_flame(ct, gas, numerics.width_m, transport, soret, numerics)
-    _set_criteria(f, numerics.stages[-1], numerics.prune)
-    _regrid(f, _initial_guess(ct, gas, warm, P, T_u))
+    _set_criteria(f, numerics.stages[0], numerics.prune)
+    _regrid(f, _initial_guess(ct, gas, warm, P, T_u), stride=numerics.warm_stride)
     f.P = P
     f.inlet.T = T_u
     f.inlet.X = X
     f.set_max_jac_age(*WARM_JACOBIAN_AGE)
+    f.solve(loglevel=0, refine_grid=False, auto=False)
+    _set_criteria(f, numerics.stages[-1], numerics.prune)
+    _settle(f, np.array(f.grid), _solution_table(f))
     f.solve(loglevel=0, refine_grid=False, auto=False)
     _refine_loop(f, numerics, first_share=numerics.warm_share)
     return f
