@@ -286,9 +286,9 @@ def warm_tree(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
 #: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
 #: (variables per point) x (residual cost per point ~ variables). Measured on the
 #: project's 2-core machine (tests/benchmarks/sweep_speed.py, DEVELOPERS.md): GRI-Mech 3.0
-#: (53 species) 17-22 s from scratch and a mean 9 s warm; h2o2 (10 species) about
-#: 1.2 s and 0.6 s.
-SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 2.8e-3}
+#: (53 species) 17-22 s from scratch and a mean 5.4 s warm; h2o2 (10 species) 0.4-0.7 s
+#: and a mean 0.25 s. The warm figure sits between the two (GRI-Mech 4.9 s, h2o2 0.29 s).
+SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 1.5e-3}
 
 #: Worker start-up and mechanism parsing per run [s] (measured, DEVELOPERS.md).
 START_UP_SECONDS = 2.0
@@ -298,7 +298,7 @@ def default_flame_seconds(n_species: int) -> dict[str, float]:
     """Seconds per flame solved fresh and warm on one core, from the mechanism size.
 
     >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
-    {'fresh': 19.5, 'warm': 9.1}
+    {'fresh': 19.5, 'warm': 4.9}
     """
     nv2 = (n_species + 4) ** 2
     return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
