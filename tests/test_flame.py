@@ -93,6 +93,35 @@ def test_warm_start_across_pressure_and_temperature(gas, stoich):
         fresh["metrics"]["laminar_flame_speed_m_s"], rel=3e-3)
 
 
+def test_warm_start_solves_on_a_coarse_grid_first(gas, stoich):
+    # flame._solve_warm: the first Newton solve runs on about a quarter of the points (the
+    # neighbour's grid at stride Numerics.warm_stride, refined at the first-stage criteria),
+    # the last on the full grid settled on that coarse solution
+    num = flame.NUMERICS["standard"]
+    f = flame._solve_warm(ct, gas, 300.0, ct.one_atm, h2_air(1.2), "mixture-averaged", False, num,
+                          stoich["profile"])
+    grids = list(f.grid_size_stats)
+    assert len(grids) >= 2
+    assert grids[0] < 0.5 * len(stoich["profile"]["grid"]) and grids[0] < 0.5 * grids[-1]
+
+
+def test_regridded_profile_meets_the_criteria_and_keeps_the_neighbours_values(gas, stoich):
+    # flame._regrid / flame._settle: Cantera's refiner, run again on the settled grid, adds no
+    # point, and at the neighbour's own grid points the guess is the neighbour's value
+    num = flame.NUMERICS["standard"]
+    gas.TPX = 300.0, ct.one_atm, h2_air(1.0)
+    f = flame._make_flame(ct, gas, num.width_m, "mixture-averaged", False, num)
+    flame._set_criteria(f, num.stages[-1], num.prune)
+    flame._regrid(f, flame._initial_guess(ct, gas, stoich["profile"], ct.one_atm), stride=4)
+    n = len(f.grid)
+    f.refine(loglevel=0)
+    assert len(f.grid) == n
+    x_nb, T_nb = stoich["profile"]["grid"], stoich["profile"]["T"]
+    common = np.isin(np.round(f.grid, 12), np.round(x_nb, 12))
+    assert common.sum() >= len(x_nb) // 4
+    assert np.allclose(f.T[common], np.interp(f.grid[common], x_nb, T_nb), rtol=1e-9)
+
+
 def test_far_beyond_the_lean_limit_is_recorded_not_raised(gas):
     # Hydrogen-air below about 4 % H2 does not propagate upward (Coward & Jones, US Bureau
     # of Mines Bulletin 503, 1952); phi 0.05 is 2 % H2.
