@@ -56,16 +56,18 @@ class Numerics:
     width_m : initial domain width at 1 bar [m]; scaled as 1/sqrt(p) and widened by
         Cantera's automatic solve when the flame needs it
     max_grid_points : ceiling on grid points
-    tail_share : a refinement pass (of any stage after the first) that would add no more
-        than this share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the
+    tail_share : a settled grid (of any stage after the first: Cantera's refiner run to
+        its end on the converged solution, :func:`_settle`) that would add no more than
+        this share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the
         flame converged on the grid before it is kept (see :func:`_refine_loop`)
-    warm_share : the same for the first refinement pass after the full-grid solve of a
+    warm_share : the same for the first settled grid after the full-grid solve of a
         warm start, whose grid was already refined at the final criteria on a converged
         profile of the new flame (see :func:`_solve_warm`); measured effect on S_L
         0.005-0.03 % on five steps whose pass would have added 5-7 % (a 9 % pass moved
         lean hydrogen blends by 0.12 %; DEVELOPERS.md, Benchmarks)
     warm_stride : a warm start first solves on every warm_stride-th point of the
-        neighbour's grid (see :func:`_solve_warm`)
+        neighbour's grid (fewer for small neighbours, :func:`warm_stride`; see
+        :func:`_solve_warm`)
     """
 
     label: str
@@ -428,6 +430,21 @@ def _settle(f, x, table, max_passes: int = 40) -> None:
             f.flame.set_values(name, values[:, k])
 
 
+#: Fewest neighbour points a warm start's coarse first grid keeps (before refinement): a
+#: handful would leave Cantera's fixed-temperature point at the inlet.
+MIN_COARSE_POINTS = 32
+
+
+def warm_stride(n_points: int, stride: int) -> int:
+    """Stride of a warm start's coarse first grid over a neighbour of n_points points:
+    ``stride``, reduced so that at least MIN_COARSE_POINTS points are kept.
+
+    >>> warm_stride(800, 4), warm_stride(100, 4), warm_stride(9, 4)
+    (4, 3, 1)
+    """
+    return max(1, min(stride, (n_points - 1) // MIN_COARSE_POINTS))
+
+
 def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     """Solve a flame from a neighbour's converged profile, coarse grid first.
 
@@ -445,13 +462,13 @@ def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     Measured against solving on the neighbour's full regridded grid (GRI-Mech 3.0,
     DEVELOPERS.md, Benchmarks): hard steps (rich phi steps, 15 -> 30 % hydrogen) cost
     half to two thirds, easy ones about the same, and the grid history, coarse then
-    fine like a fresh solve, puts S_L within 0.05 % of Cantera's own solve from scratch
-    (0.3 % before).
+    fine like a fresh solve, puts S_L within 0.12 % of Cantera's own solve from scratch on
+    fourteen steps and 0.15 % in the benchmark (0.3 % before).
     """
     gas.TPX = T_u, P, X
     f = _make_flame(ct, gas, numerics.width_m, transport, soret, numerics)
     _set_criteria(f, numerics.stages[0], numerics.prune)
-    _regrid(f, _initial_guess(ct, gas, warm, P, T_u), stride=numerics.warm_stride)
+    _regrid(f, _initial_guess(ct, gas, warm, P, T_u), stride=warm_stride(len(warm["grid"]), numerics.warm_stride))
     f.P = P
     f.inlet.T = T_u
     f.inlet.X = X

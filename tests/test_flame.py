@@ -105,6 +105,20 @@ def test_warm_start_solves_on_a_coarse_grid_first(gas, stoich):
     assert grids[0] < 0.5 * len(stoich["profile"]["grid"]) and grids[0] < 0.5 * grids[-1]
 
 
+def test_warm_start_from_a_neighbour_with_few_points(gas, stoich):
+    # an 8-point neighbour: the coarse first grid keeps all of it (flame.warm_stride); at
+    # stride 4 only three points were left, the fixed-temperature point fell on the inlet
+    # and the warm start failed into a fresh solve (checked: "warm start failed, solved fresh")
+    nb = dict(stoich["profile"])
+    pick = np.unique(np.r_[np.linspace(0, len(nb["grid"]) - 1, 8).astype(int)])
+    for k in ("grid", "T", "velocity"):
+        nb[k] = np.asarray(nb[k])[pick]
+    nb["Y"] = np.asarray(nb["Y"])[:, pick]
+    r = flame.solve_flame(gas, 300.0, ct.one_atm, h2_air(1.1), "mixture-averaged", False,
+                          flame.NUMERICS["standard"], warm=nb)
+    assert r["status"] == "ok" and r["start"] == "warm"
+
+
 def test_regridded_profile_meets_the_criteria_and_keeps_the_neighbours_values(gas, stoich):
     # flame._regrid / flame._settle: Cantera's refiner, run again on the settled grid, adds no
     # point, and at the neighbour's own grid points the guess is the neighbour's value
