@@ -385,7 +385,7 @@ def monotone_cubic(x, table, x_new) -> np.ndarray:
     return out[:, 0] if flat else out
 
 
-def _regrid(f, guess, stride: int = 2, max_passes: int = 40) -> None:
+def _regrid(f, guess, stride: int, max_passes: int = 40) -> None:
     """Set a neighbour's profile as the initial guess on a grid refined afresh for it.
 
     Carrying the neighbour's own grid from flame to flame only ever adds points (Cantera's
