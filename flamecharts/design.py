@@ -1,51 +1,29 @@
 """Design read-out: stored flames + fuel-gas properties + the burner -> indicators, margins, verdict.
 
-Runs on flat rows (see export.py) after they are read from the store, so changing an
+Runs on flat rows (results.flat_row) after they are read from the store, so changing an
 indicator setting or the burner never needs a flame to be solved again.
 
-fuel_gas_table   ISO 6976 properties and stoichiometric air of every fuel and blend
-annotate         adds indicator, ratio, gas-property and burner-margin columns to rows
+fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
+annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
+point_warnings            inputs outside the range the method or the mechanism covers
+margin_summary            smallest burner margins per fuel gas and condition
+first_flashback_fraction  first blend fraction whose flashback margin falls below the minimum
+exponent_table            pressure and temperature exponents of the flame speed (Metghalchi & Keck)
 """
 from __future__ import annotations
 
-from functools import lru_cache
+from dataclasses import dataclass
 
-from . import indicators as ind
+from .chemistry.ignition import autoignition_warning
+from .chemistry.mechanism import fallback_data, molar_masses, solution
+from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS
+from .config import fuel_stream
 from .errors import ConfigError
-from . import mixtures
-from .gasprops import fallback_data, fuel_gas_properties, ISO6976_2016
-
-INDICATOR_COLUMNS = (
-    "chemical_time_s", "blint_thickness_mm", "flashback_critical_gradient_1_s",
-    "blowoff_critical_gradient_1_s", "quenching_distance_mm", "tube_quenching_diameter_mm",
-    "flame_speed_ratio", "flashback_gradient_ratio", "blowoff_gradient_ratio",
-    "quenching_distance_ratio", "chemical_time_ratio", "reference",
-)
-GAS_COLUMNS = (
-    "higher_heating_value_MJ_m3", "lower_heating_value_MJ_m3", "higher_wobbe_index_MJ_m3",
-    "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_in_band",
-)
-BURNER_COLUMNS = (
-    "port_velocity_m_s", "thermal_input_kW", "wall_velocity_gradient_1_s", "flashback_margin",
-    "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
-)
-
-
-@lru_cache(maxsize=4)
-def _gas(mechanism_path: str):
-    import cantera as ct
-
-    return ct.Solution(mechanism_path, transport_model=None)
-
-
-def _molar_masses(mechanism_path: str, species) -> dict[str, float]:
-    gas = _gas(mechanism_path)
-    return {sp: gas.molecular_weights[gas.species_index(sp)] for sp in species}
-
-
-def fuel_composition(study, fuel: str, fraction: float) -> dict[str, float]:
-    return (mixtures.blend(study.fuels[fuel], study.fuels[study.blend_with], fraction)
-            if study.blend_with else dict(study.fuels[fuel]))
+from .physics import indicators as ind
+from .physics import mixtures
+from .physics.fits import fit_power_law
+from .physics.gasprops import ISO6976_2016, fuel_gas_properties
+from .physics.limits import flammability_warning, pressure_warning
 
 
 def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
@@ -53,13 +31,13 @@ def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
     gq = study.gas_quality
     outside = [sp for sp in X_fuel if sp not in ISO6976_2016]
     try:
-        fb = fallback_data(_gas(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
+        fb = fallback_data(solution(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
         props = fuel_gas_properties(X_fuel, gq.combustion_T_C, gq.metering_T_C, fallback=fb)
     except ValueError as exc:
         raise ConfigError(f"fuel-gas properties of {', '.join(sorted(X_fuel))} cannot be computed: {exc}") from None
     X_ox = study.oxidizers[oxidizer]
     n_ox = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel) / X_ox["O2"]
-    M = _molar_masses(study.mechanism_path, set(X_fuel) | set(X_ox))
+    M = molar_masses(study.mechanism_path, set(X_fuel) | set(X_ox))
     M_fuel = sum(x * M[k] for k, x in X_fuel.items())
     M_ox = sum(x * M[k] for k, x in X_ox.items())
     return {"props": props, "stoich_oxidizer_volume_m3_m3": n_ox,
@@ -71,15 +49,26 @@ def _reference_fuel(study, fuel: str) -> str:
     return study.reference_fuel or fuel
 
 
-def fuel_gas_table(study) -> list[dict]:
-    """One row per (fuel, blend fraction, oxidizer) with ISO 6976 properties, air need and Wobbe band."""
+@dataclass(frozen=True)
+class FuelGas:
+    """One fuel gas of the study: its public row (columns.GAS_TABLE_COLUMNS) and the
+    numbers the burner read-out needs besides."""
+
+    row: dict
+    wobbe_MJ_m3: float        # the study's Wobbe index (higher or lower, [gas_quality] wobbe)
+    wobbe_ref_MJ_m3: float    # the same of the reference gas
+    lhv_J_kg: float           # lower heating value [J/kg]
+
+
+def fuel_gases(study) -> dict[tuple[str, float, str], FuelGas]:
+    """(fuel, blend fraction, oxidizer) -> :class:`FuelGas`, in the study's order."""
     gq = study.gas_quality
-    out = []
+    out = {}
     refs = {}
     for ox in study.sweep_oxidizers:
         for fuel in study.sweep_fuels:
             for frac in study.blend_fractions:
-                rec = gas_record(study, fuel_composition(study, fuel, frac), ox)
+                rec = gas_record(study, fuel_stream(study, fuel, frac), ox)
                 ref_name = _reference_fuel(study, fuel)
                 if (ref_name, ox) not in refs:
                     refs[(ref_name, ox)] = gas_record(study, dict(study.fuels[ref_name]), ox)
@@ -94,7 +83,7 @@ def fuel_gas_table(study) -> list[dict]:
                     lo, hi = W_ref * (1 - gq.tolerance_percent / 100), W_ref * (1 + gq.tolerance_percent / 100)
                 else:
                     lo = hi = None
-                out.append({
+                row = {
                     "fuel": fuel, "blend_with": study.blend_with or "", "blend_fraction": frac, "oxidizer": ox,
                     "higher_heating_value_MJ_kg": p.higher_heating_value_MJ_kg,
                     "lower_heating_value_MJ_kg": p.lower_heating_value_MJ_kg,
@@ -111,9 +100,14 @@ def fuel_gas_table(study) -> list[dict]:
                     "stoich_fuel_mole_fraction": rec["stoich_fuel_mole_fraction"],
                     "reference_gas": ref_name,
                     "conditions": p.conditions, "method": p.method,
-                    "_W": W, "_W_ref": W_ref, "_lhv_J_kg": p.lower_heating_value_MJ_kg * 1e6,
-                })
+                }
+                out[(fuel, frac, ox)] = FuelGas(row, W, W_ref, p.lower_heating_value_MJ_kg * 1e6)
     return out
+
+
+def fuel_gas_table(study) -> list[dict]:
+    """One row per (fuel, blend fraction, oxidizer) with ISO 6976 properties, air need and Wobbe band."""
+    return [g.row for g in fuel_gases(study).values()]
 
 
 def _indicators(r: dict, s: dict) -> dict:
@@ -137,7 +131,7 @@ RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
           ("chemical_time_ratio", "chemical_time_s"))
 
 
-def _burner_margins(study, r: dict, gas: dict, s: dict) -> dict:
+def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     b = study.burner
     out = dict.fromkeys(BURNER_COLUMNS)
     if b is None or r["status"] != "ok":
@@ -145,8 +139,8 @@ def _burner_margins(study, r: dict, gas: dict, s: dict) -> dict:
     if b.port_velocity_m_s is not None:
         U, Q = b.port_velocity_m_s, None
     else:
-        Q = b.thermal_input_W * (gas["_W"] / gas["_W_ref"] if b.input_follows_wobbe else 1.0)
-        U = ind.port_velocity_at_thermal_input(Q, gas["_lhv_J_kg"], gas["stoich_oxidizer_mass_kg_kg"],
+        Q = b.thermal_input_W * (gas.wobbe_MJ_m3 / gas.wobbe_ref_MJ_m3 if b.input_follows_wobbe else 1.0)
+        U = ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
                                                r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2)
     g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
          else ind.wall_velocity_gradient_slot(U, b.port_size_m))
@@ -172,7 +166,7 @@ def _burner_margins(study, r: dict, gas: dict, s: dict) -> dict:
 def annotate(study, rows: list[dict]) -> list[dict]:
     """Add indicator, reference-ratio, fuel-gas and burner columns to flat rows (in place)."""
     s = study.indicator_settings
-    gases = {(g["fuel"], g["blend_fraction"], g["oxidizer"]): g for g in fuel_gas_table(study)}
+    gases = fuel_gases(study)
     for r in rows:
         r.update(dict.fromkeys(INDICATOR_COLUMNS))
         if r["status"] == "ok":
@@ -191,7 +185,7 @@ def annotate(study, rows: list[dict]) -> list[dict]:
                     r[col] = r[src] / ref[src]
         gas = gases[(r["fuel"], r["blend_fraction"], r["oxidizer"])]
         for col in GAS_COLUMNS:
-            r[col] = gas[col]
+            r[col] = gas.row[col]
         r.update(_burner_margins(study, r, gas, s))
     return rows
 
@@ -228,4 +222,34 @@ def first_flashback_fraction(study, rows: list[dict]) -> dict[tuple, float | Non
         out.setdefault(key, None)
         if out[key] is None and s["min_flashback_margin"] < study.burner.min_flashback_margin:
             out[key] = s["blend_fraction"]
+    return out
+
+
+def point_warnings(study, point, row: dict) -> str:
+    """All warnings of one point, joined by '; ' ('' when it is inside every range)."""
+    out = [pressure_warning(study.mechanism, point.pressure_bar),
+           flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
+           autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row)]
+    return "; ".join(w for w in out if w)
+
+
+def exponent_table(rows: list[dict]) -> list[dict]:
+    """Pressure exponent beta (at each T) and temperature exponent alpha (at each p) of the
+    flame speed, per fuel, oxidizer, blend fraction and equivalence ratio."""
+    ok = [r for r in rows if r["status"] == "ok"]
+    out = []
+    for along, fixed, name in (("pressure_bar", "unburned_temperature_K", "pressure_exponent_beta"),
+                               ("unburned_temperature_K", "pressure_bar", "temperature_exponent_alpha")):
+        groups: dict[tuple, list[dict]] = {}
+        for r in ok:
+            groups.setdefault((r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"],
+                               r["equivalence_ratio"], r[fixed]), []).append(r)
+        for key, rs in groups.items():
+            if len({r[along] for r in rs}) < 2:
+                continue
+            b, a = fit_power_law([r[along] for r in rs], [r["laminar_flame_speed_m_s"] for r in rs])
+            out.append({"fuel": key[0], "oxidizer": key[1], "blend_with": key[2], "blend_fraction": key[3],
+                        "equivalence_ratio": key[4], "exponent": name, "value": b, "held_fixed": fixed,
+                        "held_value": key[5], "range_low": min(r[along] for r in rs),
+                        "range_high": max(r[along] for r in rs), "points": len(rs)})
     return out

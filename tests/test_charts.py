@@ -2,9 +2,11 @@
 import numpy as np
 import pytest
 
+from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
-from flamecharts.charts import CAPTIONS, draw_all
-from flamecharts.fits import exponent_table, fit_power_law
+from flamecharts.outputs.charts import CAPTIONS, draw_all
+from flamecharts.design import exponent_table
+from flamecharts.physics.fits import fit_power_law
 
 from conftest import write_h2_study
 
@@ -39,7 +41,7 @@ def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
 
     study, rows, folder = study_rows
     assert any(r["status"] == "no_flame" for r in rows)  # phi 0.08 is below any flammable limit
-    files = draw_all(rows, study, folder / "o")
+    files = draw_all(rows, fuel_gas_table(study), study, folder / "o")
     names = {f.stem for f in files}
     assert names == set(ALL) == set(CAPTIONS)
     for name in ALL:
@@ -54,7 +56,7 @@ def test_charts_render_when_every_flame_failed(tmp_path):
     study = load_study(write_h2_study(tmp_path, phis="[0.05, 0.08]"))
     rows = run_study(study, out_dir=tmp_path / "o", jobs=1).rows
     assert all(r["status"] == "no_flame" for r in rows)
-    files = draw_all(rows, study, tmp_path / "o")
+    files = draw_all(rows, fuel_gas_table(study), study, tmp_path / "o")
     assert {f.stem for f in files} >= {"flame_speed_vs_equivalence_ratio", "fuel_interchangeability"}
 
 

@@ -13,8 +13,11 @@ from distributed import Client, LocalCluster
 
 import flamecharts
 from flamecharts import load_study, run_study
-from flamecharts.cluster import ClusterError, local_versions, mechanism_text, run_on_worker
-from flamecharts.runner import rows_from_dir, solve_task
+from flamecharts.pipeline import solve_study
+from flamecharts.chemistry.mechanism import mechanism_text
+from flamecharts.sweep.dask_backend import ClusterError, local_versions, run_on_worker
+from flamecharts.results import rows_from_dir
+from flamecharts.sweep.worker import solve_task
 from flamecharts.store import DB_NAME, Store
 
 from conftest import run_cli, write_h2_study
@@ -75,7 +78,7 @@ def test_a_worker_killed_mid_run_loses_nothing_and_nothing_is_committed_twice(tm
 def test_a_stopped_cluster_run_resumes_solving_only_the_missing_points(tmp_path, dask_cluster):
     study = load_study(write_h2_study(tmp_path, phis="[0.6, 0.8, 1.0, 1.2]"))
     address = dask_cluster.scheduler_address
-    part = run_study(study, out_dir=tmp_path / "o", cluster=address, stop_after=3)
+    part = solve_study(study, out_dir=tmp_path / "o", cluster=address, stop_after=3)
     assert part.solved == 3
     with Store(tmp_path / "o" / DB_NAME) as st:
         first = st.rows()
@@ -111,7 +114,7 @@ def test_a_worker_with_another_flamecharts_version_is_refused_with_one_line(tmp_
     fake = tmp_path / "fake"
     shutil.copytree(Path(flamecharts.__file__).parent, fake / "flamecharts",
                     ignore=shutil.ignore_patterns("__pycache__"))
-    init = fake / "flamecharts" / "__init__.py"
+    init = fake / "flamecharts" / "_version.py"
     init.write_text(init.read_text().replace(f'__version__ = "{flamecharts.__version__}"', '__version__ = "0.0.1"'))
     config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
     with LocalCluster(n_workers=0, processes=True, dashboard_address=":0", silence_logs=logging.ERROR) as cluster, \
@@ -132,7 +135,7 @@ def test_a_worker_with_another_flamecharts_version_is_refused_with_one_line(tmp_
 
 
 def test_a_worker_checks_versions_on_its_first_task(monkeypatch):
-    import flamecharts.cluster as cl
+    import flamecharts.sweep.dask_backend as cl
 
     monkeypatch.setattr(cl, "_CHECKED", {})
     expected = {**local_versions(), "Cantera": "0.0.0"}

@@ -3,7 +3,7 @@ import pytest
 
 from flamecharts import load_study, run_study
 from flamecharts.design import fuel_gas_table
-from flamecharts.gasprops import ISO6976_2016, L_WATER
+from flamecharts.physics.gasprops import ISO6976_2016, L_WATER
 
 from conftest import write_h2_study
 

@@ -24,9 +24,13 @@ import cantera as ct
 import psutil
 import pytest
 
-from flamecharts import flame, load_study, plan, run_study
-from flamecharts.ranges import flammability_warning, pressure_warning
-from flamecharts.runner import unique_points, warm_plan
+from flamecharts import load_study, run_study
+from flamecharts.chemistry import flame
+from flamecharts.pipeline import solve_study
+from flamecharts.sweep.points import points
+from flamecharts.sweep.warm_tree import warm_tree
+from flamecharts.physics.limits import flammability_warning, pressure_warning
+from flamecharts.sweep.run import unique_points, warm_plan
 from flamecharts.store import DB_NAME, Store
 
 from conftest import run_cli, write_h2_study
@@ -111,7 +115,7 @@ def _assert_same_table(db: Path, reference: dict, loose: set[str] = frozenset())
 def _below(config: Path, db: Path, keys: list[str]) -> set[str]:
     """Keys of the points whose warm-start path up the run's own tree passes through one
     of ``keys`` (a failed point passes its own source on to the points below it)."""
-    pts = unique_points(plan.points(load_study(config)))
+    pts = unique_points(points(load_study(config)))
     with Store(db, readonly=True) as store:
         tree = warm_plan(store, pts)
     key_of = {p.index: p.key for p in pts}
@@ -297,8 +301,8 @@ def _fail_for(monkeypatch, X_target: dict, fresh_too: bool = True, only_width: f
 
 def test_a_failed_point_does_not_poison_the_warm_start_below_it(tmp_path, monkeypatch):
     study = load_study(write_h2_study(tmp_path, fractions="[0.0]", phis="[0.6, 0.8, 1.0]"))
-    pts = plan.points(study)
-    tree = plan.warm_tree(pts)
+    pts = points(study)
+    tree = warm_tree(pts)
     by_phi = {p.phi: p for p in pts}
     # the plan: 1.0 from scratch -> 0.8 -> 0.6
     assert tree.parent[by_phi[0.8].index] == by_phi[1.0].index
@@ -319,8 +323,8 @@ def test_a_failed_point_does_not_poison_the_warm_start_below_it(tmp_path, monkey
     assert s.failed == 1
     # interrupted after 1.0 and the failed 0.8 were stored: the resumed run still starts 0.6 from
     # 1.0's stored flame, as the uninterrupted run did (0.6 lies 4 distance units from 1.0, beyond
-    # plan.MAX_WARM_DISTANCE, so planning only the unsolved points would have solved it fresh)
-    part = run_study(study, out_dir=tmp_path / "resumed", jobs=1, stop_after=2)
+    # plan_tree.MAX_WARM_DISTANCE, so planning only the unsolved points would have solved it fresh)
+    part = solve_study(study, out_dir=tmp_path / "resumed", jobs=1, stop_after=2)
     assert part.solved == 2 and {r["equivalence_ratio"]: r["status"] for r in part.rows}[0.6] == "pending"
     resumed = {r["equivalence_ratio"]: r for r in run_study(study, out_dir=tmp_path / "resumed", jobs=1).rows}
     assert resumed[0.6]["start"] == "warm"
@@ -372,7 +376,7 @@ def test_cli_groups_failures_by_reason(tmp_path, monkeypatch, capsys):
 
     config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0, 1.2]")
     study = load_study(config)
-    target = next(p for p in plan.points(study) if p.phi == 1.2)
+    target = next(p for p in points(study) if p.phi == 1.2)
     _fail_for(monkeypatch, target.X_unburned)
     code = climod.main(["run", str(config), "--out", str(tmp_path / "out"), "--jobs", "1", "--no-charts", "--quiet"])
     assert code == 0
@@ -418,8 +422,8 @@ def test_autoignition_before_the_flame_is_a_warning_in_csv_and_report(tmp_path):
     rows = {r["unburned_temperature_K"]: r for r in s.rows}
     assert rows[300.0]["warnings"] == ""
     assert rows[1000.0]["warnings"].startswith("autoignition:")
-    from flamecharts.export import write_csv
-    from flamecharts.report import write_report
+    from flamecharts.outputs.tables import write_csv
+    from flamecharts.outputs.report import write_report
 
     write_csv(s.rows, tmp_path / "out" / "results.csv")
     with open(tmp_path / "out" / "results.csv", newline="") as fh:

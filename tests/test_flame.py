@@ -3,7 +3,8 @@ import cantera as ct
 import numpy as np
 import pytest
 
-from flamecharts import flame, mixtures
+from flamecharts.chemistry import flame
+from flamecharts.physics import mixtures
 
 AIR = {"O2": 1.0, "N2": 3.76}
 

@@ -1,8 +1,8 @@
 """Fuel-gas properties against ISO 6976 (2016 edition, with 1995 cross-checks) and EN 437."""
 import pytest
 
-from flamecharts.gasprops import (ISO6976_2016, L_WATER, compression_factor, fallback_data,
-                                  fuel_gas_properties)
+from flamecharts.chemistry.mechanism import fallback_data
+from flamecharts.physics.gasprops import ISO6976_2016, L_WATER, compression_factor, fuel_gas_properties
 
 EXAMPLE_1 = {"CH4": 0.933212, "C2H6": 0.025656, "C3H8": 0.015368, "N2": 0.010350, "CO2": 0.015414}
 

@@ -13,7 +13,7 @@ from pathlib import Path
 
 import pytest
 
-from flamecharts import cli, study as study_module
+from flamecharts import cli, config as study_module
 
 CORPUS = Path(__file__).resolve().parent / "hostile_configs"
 FILES = sorted(CORPUS.glob("*.toml"))

@@ -2,7 +2,7 @@
 import numpy as np
 import pytest
 
-from flamecharts import indicators as ind
+from flamecharts.physics import indicators as ind
 
 
 def test_round_port_wall_gradient_is_poiseuille_exact():

@@ -2,7 +2,7 @@
 import cantera as ct
 import pytest
 
-from flamecharts import mixtures
+from flamecharts.physics import mixtures
 
 AIR = {"O2": 1.0, "N2": 3.76}
 

@@ -6,12 +6,12 @@ import math
 import pytest
 
 from conftest import write_h2_study
-from flamecharts import plan
-from flamecharts.study import load_study
+from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
+from flamecharts.config import load_study
 
 
 def _points(tmp_path, **kw):
-    return plan.points(load_study(write_h2_study(tmp_path, **kw)))
+    return plan_points.points(load_study(write_h2_study(tmp_path, **kw)))
 
 
 def _check_tree(tree, pts):
@@ -36,7 +36,7 @@ def _check_tree(tree, pts):
 def test_one_root_for_a_connected_sweep_started_near_phi_1_05(tmp_path):
     pts = _points(tmp_path, fractions="[0.0, 0.1, 0.2]", phis="{ from = 0.6, to = 1.4, step = 0.1 }",
                   pressures="[1.0, 1.5]")
-    tree = plan.warm_tree(pts)
+    tree = plan_tree.warm_tree(pts)
     _check_tree(tree, pts)
     assert len(tree.roots) == 1
     root = next(p for p in pts if p.index == tree.roots[0])
@@ -48,26 +48,26 @@ def test_one_root_for_a_connected_sweep_started_near_phi_1_05(tmp_path):
 def test_far_points_are_solved_from_scratch(tmp_path):
     # 1 and 5 bar lie log(5)/log(1.6) = 3.4 distance units apart: beyond MAX_WARM_DISTANCE
     pts = _points(tmp_path, fractions="[0.0]", phis="[0.9, 1.0, 1.1]", pressures="[1.0, 5.0]")
-    tree = plan.warm_tree(pts)
+    tree = plan_tree.warm_tree(pts)
     _check_tree(tree, pts)
     assert sorted((next(p for p in pts if p.index == r).pressure_bar) for r in tree.roots) == [1.0, 5.0]
 
 
 def test_the_plan_does_not_depend_on_the_order_of_the_points(tmp_path):
     pts = _points(tmp_path, fractions="[0.0, 0.5]", phis="[0.7, 0.8, 1.0, 1.3]", pressures="[1.0, 2.0]")
-    a = plan.warm_tree(pts)
-    b = plan.warm_tree(list(reversed(pts)))
+    a = plan_tree.warm_tree(pts)
+    b = plan_tree.warm_tree(list(reversed(pts)))
     assert a.parent == b.parent and sorted(a.roots) == sorted(b.roots)
 
 
 def test_stored_flames_seed_the_plan_so_nothing_is_solved_from_scratch(tmp_path):
     first = _points(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", pressures="[1.0]")
-    stored = [plan.StoredFlame(key=p.key, family=p.family, phi=p.phi, pressure_bar=p.pressure_bar,
+    stored = [plan_tree.StoredFlame(key=p.key, family=p.family, phi=p.phi, pressure_bar=p.pressure_bar,
                                T_u=p.T_u, X_fuel=p.X_fuel) for p in first]
     # a new pressure level of the same study: every new point starts from a stored flame
     # or from a new point that did
     new = _points(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", pressures="[2.0]")
-    tree = plan.warm_tree(new, stored)
+    tree = plan_tree.warm_tree(new, stored)
     _check_tree(tree, new)
     assert tree.roots == []
     assert set(tree.stored.values()) <= {s.key for s in stored}
@@ -76,19 +76,19 @@ def test_stored_flames_seed_the_plan_so_nothing_is_solved_from_scratch(tmp_path)
 
 def test_points_of_another_family_are_never_sources(tmp_path):
     pts = _points(tmp_path, fractions="[0.0]", phis="[0.9, 1.0]", pressures="[1.0]")
-    other = [plan.StoredFlame(key="x" * 32, family="another", phi=p.phi, pressure_bar=p.pressure_bar,
+    other = [plan_tree.StoredFlame(key="x" * 32, family="another", phi=p.phi, pressure_bar=p.pressure_bar,
                               T_u=p.T_u, X_fuel=p.X_fuel) for p in pts]
-    tree = plan.warm_tree(pts, other)
+    tree = plan_tree.warm_tree(pts, other)
     assert not tree.stored and len(tree.roots) == 1
 
 
 def test_estimate_grows_with_points_and_shrinks_with_workers(tmp_path):
     pts = _points(tmp_path, fractions="[0.0, 0.1]", phis="{ from = 0.6, to = 1.4, step = 0.1 }")
-    tree = plan.warm_tree(pts)
-    one = plan.estimate_run_seconds(tree, 1, 20.0, 4.0)
-    two = plan.estimate_run_seconds(tree, 2, 20.0, 4.0)
+    tree = plan_tree.warm_tree(pts)
+    one = plan_schedule.estimate_run_seconds(tree, 1, 20.0, 4.0)
+    two = plan_schedule.estimate_run_seconds(tree, 2, 20.0, 4.0)
     # one worker: everything in a row
-    assert one == pytest.approx(plan.START_UP_SECONDS + 20.0 + 17 * 4.0)
+    assert one == pytest.approx(plan_schedule.START_UP_SECONDS + 20.0 + 17 * 4.0)
     assert two < one
     # two workers cannot beat the longest warm-start path
-    assert two >= plan.START_UP_SECONDS + 20.0 + (tree.depth - 1) * 4.0
+    assert two >= plan_schedule.START_UP_SECONDS + 20.0 + (tree.depth - 1) * 4.0

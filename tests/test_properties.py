@@ -20,9 +20,9 @@ import math
 import pytest
 from hypothesis import HealthCheck, assume, event, given, settings, strategies as st
 
-from flamecharts import mixtures
+from flamecharts.physics import mixtures
 from flamecharts.errors import FlamechartsError, MixtureError
-from flamecharts.study import Study, study_from_dict, study_from_toml
+from flamecharts.config import Study, study_from_dict, study_from_toml
 
 BOUNDED = settings(max_examples=200, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
@@ -112,7 +112,7 @@ def mutated_configs(draw):
 
 def _check_study(s: Study) -> None:
     """A study that loaded is usable: normalised compositions, a plan, valid mixtures."""
-    from flamecharts import plan
+    from flamecharts.sweep import points as plan_points
 
     for comp in (*s.fuels.values(), *s.oxidizers.values()):
         _assert_fractions(comp)
@@ -122,7 +122,7 @@ def _check_study(s: Study) -> None:
     for v in (*s.pressures_bar, *s.unburned_temperatures_K):
         assert math.isfinite(v) and v > 0
     if s.n_points <= 200:
-        for p in plan.points(s):
+        for p in plan_points.points(s):
             _assert_fractions(p.X_unburned)
         from flamecharts.design import fuel_gas_table
 

@@ -7,9 +7,10 @@ import tempfile
 import numpy as np
 import pytest
 
+from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
-from flamecharts.charts import draw_all
-from flamecharts.report import write_report
+from flamecharts.outputs.charts import draw_all
+from flamecharts.outputs.report import write_report
 
 from conftest import write_h2_study
 
@@ -29,7 +30,7 @@ def report(tmp_path_factory):
     config.write_text(config.read_text() + BURNER)
     study = load_study(config)
     rows = run_study(study, out_dir=folder / "o", jobs=2).rows
-    charts = {p.stem for p in draw_all(rows, study, folder / "o")}
+    charts = {p.stem for p in draw_all(rows, fuel_gas_table(study), study, folder / "o")}
     return write_report(study, rows, folder / "o"), charts
 
 

@@ -12,7 +12,8 @@ import numpy as np
 import pytest
 
 from flamecharts import load_study, run_study
-from flamecharts.export import COLUMNS
+from flamecharts.pipeline import solve_study
+from flamecharts.columns import COLUMNS
 from flamecharts.store import DB_NAME, Store
 
 from conftest import write_h2_study
@@ -81,7 +82,7 @@ def test_python_api_returns_rows(tmp_path):
 
 def test_interrupted_run_resumes_and_matches_an_uninterrupted_one(tmp_path):
     study = load_study(write_h2_study(tmp_path, phis="[0.6, 0.8, 1.0, 1.2]"))
-    part = run_study(study, out_dir=tmp_path / "a", jobs=2, stop_after=3)
+    part = solve_study(study, out_dir=tmp_path / "a", jobs=2, stop_after=3)
     assert part.solved == 3
     with Store(tmp_path / "a" / DB_NAME) as st:
         first = st.rows()
@@ -254,6 +255,6 @@ def test_a_later_run_warm_starts_from_stored_neighbours_and_files_are_readable(t
     s = run_study(b, out_dir=tmp_path / "o", jobs=1)
     new = next(r for r in s.rows if r["equivalence_ratio"] == 1.2)
     assert new["start"] == "warm"
-    from flamecharts.export import write_csv
+    from flamecharts.outputs.tables import write_csv
     path = write_csv(s.rows, tmp_path / "o" / "results.csv")
     assert path.stat().st_mode & 0o044 == 0o044  # group and others may read it

@@ -22,7 +22,8 @@ from pathlib import Path
 import pytest
 from hypothesis import HealthCheck, event, given, settings, strategies as st
 
-from flamecharts import cli, load_study, run_study, store as store_module
+from flamecharts import cli, load_study, run_study
+from flamecharts.store import db as store_module
 from flamecharts.errors import StoreError
 from flamecharts.store import DB_NAME, LOCK_NAME, SCHEMA_VERSION, Store
 

@@ -5,7 +5,7 @@ from pathlib import Path
 import pytest
 
 from flamecharts import ConfigError, MechanismError, load_study
-from flamecharts.study import study_from_dict
+from flamecharts.config import study_from_dict
 
 ROOT = Path(__file__).resolve().parents[1]
 

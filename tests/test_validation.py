@@ -11,7 +11,7 @@ import numpy as np
 import pytest
 
 from flamecharts import load_study, run_study
-from flamecharts.flame import NUMERICS
+from flamecharts.chemistry.flame import NUMERICS
 
 from conftest import write_h2_study
 

@@ -21,7 +21,8 @@ import time
 import cantera as ct
 from joblib import Parallel, delayed
 
-from flamecharts import flame, mixtures
+from flamecharts.chemistry import flame
+from flamecharts.physics import mixtures
 
 CASES = [
     # (label, mechanism, fuel, phi, pressure_bar, T_u)

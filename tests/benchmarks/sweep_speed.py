@@ -45,11 +45,12 @@ import cantera as ct
 import numpy as np
 import psutil
 
-from flamecharts import plan as planmod
-from flamecharts.flame import NUMERICS, _initial_guess, _make_flame, _set_criteria
-from flamecharts.runner import resolve_jobs, run_study
+from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
+from flamecharts.chemistry.flame import NUMERICS, _initial_guess, _make_flame, _set_criteria
+from flamecharts.pipeline import run_study
+from flamecharts.sweep.backends import resolve_jobs
 from flamecharts.store import DB_NAME, Store
-from flamecharts.study import load_study
+from flamecharts.config import load_study
 
 STUDIES = {
     "small": dict(mechanism="h2o2.yaml", base='diluted_hydrogen = { H2 = 0.5, N2 = 0.5 }',
@@ -119,7 +120,7 @@ class MemoryWatch:
         self._thread.join()
 
 
-def baseline_flame(gas, p: planmod.Point) -> tuple[float, float, float]:
+def baseline_flame(gas, p: plan_points.Point) -> tuple[float, float, float]:
     """(S_L [m/s], wall [s], CPU [s]) of one flame solved alone from scratch, as a user would."""
     final = NUMERICS["standard"].stages[-1]
     w0, c0 = time.perf_counter(), time.process_time()
@@ -131,7 +132,7 @@ def baseline_flame(gas, p: planmod.Point) -> tuple[float, float, float]:
     return float(f.velocity[0]), time.perf_counter() - w0, time.process_time() - c0
 
 
-def floor_flame(gas, p: planmod.Point, profile: dict) -> float:
+def floor_flame(gas, p: plan_points.Point, profile: dict) -> float:
     """CPU seconds to re-solve a converged flame on its own grid (no refinement)."""
     num = NUMERICS["standard"]
     gas.TPX = p.T_u, p.P, p.X_unburned
@@ -170,11 +171,11 @@ def main(argv=None) -> int:
     jobs = resolve_jobs(args.jobs)
     tmp = Path(tempfile.mkdtemp(prefix="flamecharts-bench-"))
     study = load_study(write_study(tmp, args.size))
-    pts = planmod.points(study)
+    pts = plan_points.points(study)
     out = tmp / "out"
 
-    secs = planmod.default_flame_seconds(len(study.atoms))
-    estimate_s = planmod.estimate_run_seconds(planmod.warm_tree(pts), jobs, secs["fresh"], secs["warm"])
+    secs = plan_schedule.default_flame_seconds(len(study.atoms))
+    estimate_s = plan_schedule.estimate_run_seconds(plan_tree.warm_tree(pts), jobs, secs["fresh"], secs["warm"])
     log(f"{len(pts)} points, {args.size}; estimate before the run {estimate_s:.0f} s on {jobs} workers")
 
     with MemoryWatch() as mem:

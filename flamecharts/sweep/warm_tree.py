@@ -1,114 +1,23 @@
-"""A Study -> its points (each with a key for the store) -> a tree of warm-starting neighbours.
+"""The warm-start tree: which stored or planned flame each point of a study starts from.
 
-A point's key is a hash of everything that changes its answer: mechanism file
-content, Cantera version, transport model, thermal diffusion, numerical settings,
-the blended fuel and the oxidizer compositions, equivalence ratio, pressure and
-unburned temperature. Names given in the config are not part of the key, so a
-renamed fuel with the same composition reuses stored flames.
-
-Warm starts: every point starts from its nearest neighbour in a normalised
-(phi, fuel composition, log p, T_u) distance, among the points of the study and
-the flames stored by earlier runs (:func:`warm_tree`). Points farther than
-MAX_WARM_DISTANCE from everything are solved from scratch, starting with the one
-nearest SEED_PHI (hot, fast flames converge most reliably from scratch).
+Every point starts from its nearest neighbour in a normalised (phi, fuel composition,
+log p, T_u) distance, among the points of the study and the flames stored by earlier
+runs (:func:`warm_tree`). Points farther than MAX_WARM_DISTANCE from everything are
+solved from scratch, starting with the one nearest SEED_PHI (hot, fast flames converge
+most reliably from scratch). The tree depends on the points and the store only, never
+on timing or worker count, so answers do not depend on the backend.
 """
 from __future__ import annotations
 
-import hashlib
-import json
 import math
-from dataclasses import dataclass, field
-from itertools import product
+from dataclasses import dataclass
 
-import cantera
 import numpy as np
 
-from . import mixtures
-from .flame import NUMERICS
-from .study import Study
-
-#: Bump when the measurements taken from a converged flame change meaning.
-MEASURE_VERSION = 1
+from .points import Point
 
 #: Flames solved from scratch are chosen nearest this equivalence ratio.
 SEED_PHI = 1.05
-
-
-def _num(x: float) -> str:
-    return f"{x:.12g}"
-
-
-def _comp(X: dict[str, float]) -> dict[str, str]:
-    return {k: _num(v) for k, v in sorted(X.items())}
-
-
-@dataclass(frozen=True)
-class Point:
-    """One operating point of a study, with everything a worker needs to solve it."""
-
-    index: int
-    fuel: str
-    oxidizer: str
-    blend_with: str | None
-    blend_fraction: float
-    phi: float
-    pressure_bar: float
-    T_u: float
-    X_fuel: dict = field(compare=False, repr=False)
-    X_oxidizer: dict = field(compare=False, repr=False)
-    X_unburned: dict = field(compare=False, repr=False)
-    key: str = ""
-    family: str = ""
-    inputs: dict = field(default_factory=dict, compare=False, repr=False)  # what the key hashes
-
-    @property
-    def P(self) -> float:
-        """Pressure [Pa]."""
-        return self.pressure_bar * 1e5
-
-
-
-def settings_of(study: Study) -> dict:
-    """Everything study-wide that changes a flame's answer."""
-    return {
-        "mechanism_sha256": study.mechanism_sha256,
-        "cantera": cantera.__version__,
-        "transport": study.transport,
-        "thermal_diffusion": study.thermal_diffusion,
-        "numerics": NUMERICS[study.resolution].as_dict(),
-        "measure_version": MEASURE_VERSION,
-    }
-
-
-def _hash(obj) -> str:
-    return hashlib.sha256(json.dumps(obj, sort_keys=True).encode()).hexdigest()[:32]
-
-
-def point_inputs(settings: dict, X_fuel: dict, X_ox: dict, phi: float, P_bar: float, T_u: float) -> dict:
-    return {**settings, "fuel": _comp(X_fuel), "oxidizer": _comp(X_ox), "phi": _num(phi),
-            "pressure_bar": _num(P_bar), "T_u": _num(T_u)}
-
-
-def points(study: Study) -> list[Point]:
-    """Cartesian product of the sweep axes, in a stable order."""
-    settings = settings_of(study)
-    out = []
-    for fuel, ox, frac, P_bar, T_u, phi in product(
-            study.sweep_fuels, study.sweep_oxidizers, study.blend_fractions,
-            study.pressures_bar, study.unburned_temperatures_K, study.equivalence_ratios):
-        X_fuel = (mixtures.blend(study.fuels[fuel], study.fuels[study.blend_with], frac)
-                  if study.blend_with else dict(study.fuels[fuel]))
-        X_ox = study.oxidizers[ox]
-        o2 = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel)
-        inputs = point_inputs(settings, X_fuel, X_ox, phi, P_bar, T_u)
-        fam = {k: v for k, v in inputs.items() if k not in ("phi", "pressure_bar", "T_u", "fuel")}
-        out.append(Point(
-            index=len(out), fuel=fuel, oxidizer=ox, blend_with=study.blend_with,
-            blend_fraction=frac, phi=phi, pressure_bar=P_bar, T_u=T_u, X_fuel=X_fuel,
-            X_oxidizer=dict(X_ox), X_unburned=mixtures.unburned_mixture(X_fuel, X_ox, phi, o2),
-            key=_hash(inputs), family=_hash(fam), inputs=inputs))
-    return out
-
 
 #: One unit of the normalised distance between two flames, per coordinate, fitted to
 #: measured warm-start costs (GRI-Mech 3.0, natural gas with hydrogen, 1-5 bar, CPU
@@ -280,59 +189,3 @@ def warm_tree(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
     return WarmPlan(parent={ix[i]: (None if parent[i] is None else ix[parent[i]]) for i in range(n)},
                     stored={ix[i]: k for i, k in stored_of.items()}, roots=[ix[i] for i in roots],
                     height={ix[i]: h for i, h in height.items()}, distance={ix[i]: d for i, d in distance.items()})
-
-
-#: Default seconds per flame on one core, per (mechanism species + 4)^2, when the store
-#: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
-#: (variables per point) x (residual cost per point ~ variables). Measured on the
-#: project's 2-core machine (tests/benchmarks/sweep_speed.py, DEVELOPERS.md): GRI-Mech 3.0
-#: (53 species) 17-22 s from scratch and a mean 5.4 s warm; h2o2 (10 species) 0.4-0.7 s
-#: and a mean 0.25 s. The warm figure sits between the two (GRI-Mech 4.9 s, h2o2 0.29 s).
-SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 1.5e-3}
-
-#: Worker start-up and mechanism parsing per run [s] (measured, DEVELOPERS.md).
-START_UP_SECONDS = 2.0
-
-
-def default_flame_seconds(n_species: int) -> dict[str, float]:
-    """Seconds per flame solved fresh and warm on one core, from the mechanism size.
-
-    >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
-    {'fresh': 19.5, 'warm': 4.9}
-    """
-    nv2 = (n_species + 4) ** 2
-    return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
-
-
-def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float) -> float:
-    """Wall time [s] of running ``plan`` on ``jobs`` workers, roots taking ``fresh_s`` and
-    the other points ``warm_s``: a list-scheduling simulation of the runner's own rule
-    (a point is ready once its source has finished; the ready point with the longest
-    path below it goes first), plus START_UP_SECONDS.
-
-    >>> p = WarmPlan(parent={0: None, 1: 0, 2: 0, 3: 1}, stored={}, roots=[0],
-    ...              height={0: 3, 1: 2, 2: 1, 3: 1}, distance={})
-    >>> estimate_run_seconds(p, 2, 10.0, 2.0) - START_UP_SECONDS
-    14.0
-    """
-    import heapq
-
-    children: dict[int, list[int]] = {}
-    ready: list[tuple[int, int]] = []
-    for i, par in plan.parent.items():
-        if par is None:
-            heapq.heappush(ready, (-plan.height[i], i))
-        else:
-            children.setdefault(par, []).append(i)
-    slots = max(1, jobs)
-    running: list[tuple[float, int]] = []  # (finish time, point)
-    now = 0.0
-    while ready or running:
-        while ready and len(running) < slots:
-            _, i = heapq.heappop(ready)
-            cost = fresh_s if (plan.parent[i] is None and i not in plan.stored) else warm_s
-            heapq.heappush(running, (now + cost, i))
-        now, i = heapq.heappop(running)
-        for c in children.get(i, []):
-            heapq.heappush(ready, (-plan.height[c], c))
-    return now + START_UP_SECONDS

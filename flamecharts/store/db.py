@@ -35,11 +35,9 @@ _SCHEMA (what a new store gets) and register ``MIGRATIONS[old] = fn``.
 """
 from __future__ import annotations
 
-import fcntl
 import io
 import json
 import os
-import socket
 import sqlite3
 import stat
 import struct
@@ -49,11 +47,10 @@ from typing import Callable
 
 import numpy as np
 
-from .errors import StoreError
+from ..errors import StoreError
 
 SCHEMA_VERSION = 1
 DB_NAME = "results.db"
-LOCK_NAME = ".flamecharts.lock"
 #: How long a write waits for another program's lock on the store before giving up [s].
 BUSY_TIMEOUT_S = 30.0
 
@@ -158,11 +155,6 @@ def stored_keys(path: Path) -> set[str]:
         return store.keys()
 
 
-def _lock_holder_text() -> str:
-    return (f"pid {os.getpid()} on host {socket.gethostname()}, started "
-            f"{time.strftime('%Y-%m-%d %H:%M:%S %Z', time.localtime())}")
-
-
 def pack_profile(profile: dict | None) -> bytes | None:
     """Profile dict -> compressed npz bytes (None stays None)."""
     if profile is None:
@@ -179,67 +171,6 @@ def unpack_profile(blob: bytes | None) -> dict | None:
     with np.load(io.BytesIO(blob)) as z:
         return {"grid": z["grid"], "T": z["T"], "velocity": z["velocity"], "Y": z["Y"],
                 "species": [str(s) for s in z["species"]], "P": float(z["P"])}
-
-
-#: A refused run waits up to this many tenths of a second for the holder's name to appear.
-HOLDER_NAME_POLLS = 20
-
-
-class RunLock:
-    """An exclusive lock on an output folder, so two runs never write one store at once.
-
-    The lock is an ``flock`` on LOCK_NAME in the folder, which the kernel releases when
-    its process ends in any way (also kill -9): a lock file left behind by a killed run
-    never blocks the next one. The file names its holder (pid, host, start time), so
-    a refused run can say who holds the folder.
-    """
-
-    def __init__(self, folder: Path):
-        self.path = Path(folder) / LOCK_NAME
-        self._fh = None
-
-    def acquire(self) -> "RunLock":
-        try:
-            fh = open(self.path, "a+")
-        except OSError as exc:
-            raise StoreError(f"output folder {self.path.parent} cannot be locked: its lock file {self.path.name} "
-                             f"cannot be opened for writing ({exc.strerror}); choose another --out") from None
-        try:
-            fcntl.flock(fh, fcntl.LOCK_EX | fcntl.LOCK_NB)
-        except BlockingIOError:
-            holder = ""
-            for _ in range(HOLDER_NAME_POLLS):  # the holder writes its name just after it takes the lock
-                fh.seek(0)
-                holder = fh.read(300).strip()
-                if holder:
-                    break
-                time.sleep(0.1)
-            holder = holder or "which has not yet written its name"
-            fh.close()
-            raise StoreError(f"output folder {self.path.parent} is in use by another run ({holder}); "
-                             "wait for it to finish or choose another --out") from None
-        except OSError as exc:
-            fh.close()
-            raise StoreError(f"output folder {self.path.parent} cannot be locked ({exc.strerror}); "
-                             "choose another --out on a local disk") from None
-        fh.seek(0)
-        fh.truncate()
-        fh.write(_lock_holder_text())
-        fh.flush()
-        self._fh = fh
-        return self
-
-    def release(self) -> None:
-        if self._fh is not None:
-            fcntl.flock(self._fh, fcntl.LOCK_UN)
-            self._fh.close()
-            self._fh = None
-
-    def __enter__(self):
-        return self.acquire()
-
-    def __exit__(self, *exc):
-        self.release()
 
 
 class Store:

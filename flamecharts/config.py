@@ -27,7 +27,7 @@ cluster                   "tcp://HOST:PORT" of a running Dask scheduler, or "loc
 from __future__ import annotations
 
 import difflib
-import hashlib
+import json
 import math
 import os
 import stat
@@ -37,8 +37,10 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
+from .chemistry.mechanism import file_sha256, find_mechanism, load_mechanism_atoms
 from .errors import ConfigError, MechanismError, first_line, show
-from . import mixtures
+from .physics import mixtures
+from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
@@ -287,65 +289,6 @@ def check_cluster_spec(value: Any, where: str = "cluster") -> str:
     raise ConfigError(f"'{where}' is {value!r}; allowed: {allowed}")
 
 
-def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
-    """Resolve a mechanism name to a file: beside the config first, then Cantera's data folders."""
-    import cantera as ct
-
-    candidates = []
-    if not mechanism.strip() or "\0" in mechanism:
-        raise MechanismError(f"'mechanism' {mechanism!r} is not a file name; give a Cantera mechanism file, "
-                             "e.g. gri30.yaml")
-    try:
-        p = Path(mechanism).expanduser()
-    except RuntimeError:  # ~user that does not exist
-        p = Path(mechanism)
-    if p.is_absolute():
-        candidates.append(p)
-    else:
-        if base_dir is not None:
-            candidates.append(base_dir / p)
-        candidates.append(Path.cwd() / p)
-        candidates += [Path(d) / p for d in ct.get_data_directories()]
-    for c in candidates:
-        try:
-            if c.is_file():
-                return c.resolve()
-            is_dir = c.is_dir()
-        except OSError:  # a name too long, a folder we may not enter: not this candidate
-            continue
-        if is_dir:
-            raise MechanismError(f"'mechanism' {mechanism!r} is a folder ({c}); give a mechanism file, e.g. gri30.yaml")
-    raise MechanismError(
-        f"'mechanism' file {mechanism!r} not found beside the config or in Cantera's data folders; "
-        "give a path to a Cantera mechanism file (YAML), e.g. gri30.yaml")
-
-
-def file_sha256(path: Path) -> str:
-    h = hashlib.sha256()
-    with open(path, "rb") as fh:
-        for chunk in iter(lambda: fh.read(1 << 20), b""):
-            h.update(chunk)
-    return h.hexdigest()
-
-
-def load_mechanism_atoms(path: Path, transport: str = "mixture-averaged") -> dict[str, dict[str, float]]:
-    """Species -> {element: atoms} for every species of a mechanism that has the transport
-    data ``transport`` needs (raises MechanismError)."""
-    import cantera as ct
-
-    try:
-        gas = ct.Solution(str(path), transport_model=None)
-    except Exception as exc:  # Cantera raises CanteraError or YAML errors
-        raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera ({first_line(exc, 200).rstrip(':')}); "
-                             "give a Cantera mechanism file (YAML), e.g. gri30.yaml") from None
-    try:
-        ct.Solution(str(path), transport_model="mixture-averaged" if transport == "unity-Lewis-number" else transport)
-    except Exception as exc:
-        raise MechanismError(f"'mechanism' {path} has no usable {transport} transport data "
-                             f"({first_line(exc, 160)}); a flame needs a mechanism with transport data") from None
-    return {sp.name: dict(sp.composition) for sp in gas.species()}
-
-
 def _positive(table: dict, key: str, where: str, scale: float = 1.0) -> float | None:
     if key not in table:
         return None
@@ -427,12 +370,11 @@ def _gas_quality(g: Any) -> GasQuality:
 
 
 def _indicator_settings(t: Any) -> dict:
-    from .indicators import DEFAULTS
 
     if not isinstance(t, dict):
         raise ConfigError("'indicators' must be a table")
-    _check_keys(t, tuple(DEFAULTS), "indicators.")
-    return {**DEFAULTS, **{k: _positive(t, k, "indicators") for k in t}}
+    _check_keys(t, tuple(INDICATOR_DEFAULTS), "indicators.")
+    return {**INDICATOR_DEFAULTS, **{k: _positive(t, k, "indicators") for k in t}}
 
 
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
@@ -625,8 +567,6 @@ STUDY_COPY = "study.json"
 
 def save_config_copy(study: Study, out_dir: Path, data: dict | None = None) -> Path:
     """Keep the config a run used beside its store, so charts can be redrawn from the folder alone."""
-    import json
-
     if data is None:
         data = study.raw
     base = str(Path(study.config_path).parent) if study.config_path else str(Path.cwd())
@@ -640,8 +580,6 @@ def save_config_copy(study: Study, out_dir: Path, data: dict | None = None) -> P
 
 def load_config_copy(out_dir: Path) -> Study:
     """The study a run in ``out_dir`` used (see :func:`save_config_copy`)."""
-    import json
-
     path = Path(out_dir) / STUDY_COPY
     if not path.is_file():
         raise ConfigError(f"{out_dir} holds no finished run ({STUDY_COPY} missing); "
@@ -652,3 +590,17 @@ def load_config_copy(out_dir: Path) -> Study:
                                config_path=saved.get("config_path"))
     except (ValueError, KeyError, TypeError, RecursionError) as exc:
         raise ConfigError(f"{path} is damaged ({type(exc).__name__}: {exc}); rerun the study to rewrite it") from None
+
+
+def fuel_stream(study: Study, fuel: str, fraction: float) -> dict[str, float]:
+    """Mole fractions of the fuel stream of ``fuel`` with ``fraction`` of the study's
+    blend gas (the fuel itself when the study blends nothing): the one place a blend's
+    composition is made."""
+    if not study.blend_with:
+        return dict(study.fuels[fuel])
+    return mixtures.blend(study.fuels[fuel], study.fuels[study.blend_with], fraction)
+
+
+def resolution_label(study: Study) -> str:
+    """'standard', 'fine', or 'coarse (faster, less accurate)': how every output names the setting."""
+    return "coarse (faster, less accurate)" if study.resolution == "coarse" else study.resolution

@@ -5,71 +5,55 @@ blend_chart              S_L, delta_T, T_ad vs blend fraction; S_L at fixed T_ad
 flashback_chart          g_F vs phi with the burner's wall gradient; quenching size vs port size
 window_chart             (blend, phi) map of flashback and blowoff margins, acceptable region shaded
 gas_quality_chart        Wobbe index and heating value vs blend fraction with the allowed band
-makers                   the charts a study supports
 
-Drawn from flat rows only (see design.annotate), like every chart.
+Drawn from flat rows only (see design.annotate), like every chart; each registered with its caption.
 """
 from __future__ import annotations
 
 import numpy as np
-import matplotlib.pyplot as plt
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 
-from .charts import CMAP, MARKERS, _curve_label, _curves as _fuel_keys, _footer
-from .fits import fit_power_law
+from ...columns import gas_label
+from ...physics.fits import fit_power_law
+from .registry import chart
+from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, of, ok_rows, phi_near_one, plain_log_ticks
 
 
-def _ok(rows):
-    return [r for r in rows if r["status"] == "ok"]
+def _varies_p_or_T(data, study) -> bool:
+    ok = ok_rows(data.rows)
+    return bool(ok) and (len({r["pressure_bar"] for r in ok}) > 1 or len({r["unburned_temperature_K"] for r in ok}) > 1)
 
 
-def _figure(ncols: int, nrows: int = 1, width: float = 5.0, height: float = 4.0):
-    return plt.subplots(nrows, ncols, figsize=(max(width * ncols + 3.5, 11.0), height * nrows + 1.8), squeeze=False,
-                        layout="constrained")
+def _several_blends(data, study) -> bool:
+    return study.blend_with is not None and len(study.blend_fractions) > 1
 
 
-def _finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str):
-    fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
-    if handles:
-        fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
-                   frameon=False, title=legend_title, title_fontsize=8.5)
-    _footer(fig, study)
-    fig.get_layout_engine().set(rect=(0, 0.07, 1, 0.93))
-    return fig
+def _burning_blends(data, study) -> bool:
+    return _several_blends(data, study) and bool(ok_rows(data.rows))
 
 
-def _colours(n):
-    return plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(n, 1)))
+def _has_margins(data, study) -> bool:
+    return study.burner is not None and any(r["flashback_margin"] is not None for r in data.rows)
 
 
-def _of(rows, key):
-    return [r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == key]
+def _has_window(data, study) -> bool:
+    return _has_margins(data, study) and _several_blends(data, study) and len(study.equivalence_ratios) > 1
 
 
-def _plain_log_ticks(ax):
-    """Log axes labelled 2, 3, 400 rather than 2x10^0, 3x10^0, 4x10^2."""
-    from matplotlib.ticker import FuncFormatter
-
-    fmt = FuncFormatter(lambda v, _: f"{v:g}")
-    for axis in (ax.xaxis, ax.yaxis):
-        axis.set_major_formatter(fmt)
-        axis.set_minor_formatter(fmt)
-
-
-def _phi_near_one(rows):
-    phis = sorted({r["equivalence_ratio"] for r in rows})
-    return min(phis, key=lambda p: (abs(p - 1.0), p))
-
-
-def pressure_preheat_chart(rows, study):
+@chart("pressure_and_preheat_dependence",
+       "Flame speed against pressure and against unburned temperature on log "
+       "axes; the legend gives the fitted power-law exponent of each curve.",
+       _varies_p_or_T)
+def pressure_preheat_chart(data, study):
     """Flame speed vs pressure and vs unburned temperature (log axes), exponents in the legend."""
-    ok = _ok(rows)
-    phi = _phi_near_one(ok)
+    rows = data.rows
+    ok = ok_rows(rows)
+    phi = phi_near_one(ok)
     sel = [r for r in ok if r["equivalence_ratio"] == phi]
-    keys = _fuel_keys(sel)
-    colours = _colours(len(keys))
-    fig, axes = _figure(2)
+    keys = fuel_keys(sel)
+    colours = colour_scale(len(keys))
+    fig, axes = figure(2)
     handles = {}
     for ai, (along, fixed, sym, unit) in enumerate((("pressure_bar", "unburned_temperature_K", "β", "bar"),
                                                      ("unburned_temperature_K", "pressure_bar", "α", "K"))):
@@ -77,25 +61,25 @@ def pressure_preheat_chart(rows, study):
         fixed_values = sorted({r[fixed] for r in sel})
         for ci, key in enumerate(keys):
             for fi, fv in enumerate(fixed_values):
-                rs = sorted((r for r in _of(sel, key) if r[fixed] == fv), key=lambda r: r[along])
+                rs = sorted((r for r in of(sel, key) if r[fixed] == fv), key=lambda r: r[along])
                 if len(rs) < 2:
                     continue
                 x = [r[along] for r in rs]
                 y = [100 * r["laminar_flame_speed_m_s"] for r in rs]
                 b, _ = fit_power_law(x, y)
-                label = (f"{_curve_label(rs[0])}, {'T_u' if fixed.startswith('unburned') else 'p'} = {fv:g} "
+                label = (f"{gas_label(rs[0])}, {'T_u' if fixed.startswith('unburned') else 'p'} = {fv:g} "
                          f"{'K' if fixed.startswith('unburned') else 'bar'}: {sym} = {b:+.2f}")
                 h, = ax.plot(x, y, color=colours[ci], marker=MARKERS[fi % len(MARKERS)],
                              linestyle="-" if ai == 0 else "--", lw=1.5, label=label)
                 handles[label] = h
         ax.set_xscale("log")
         ax.set_yscale("log")
-        _plain_log_ticks(ax)
+        plain_log_ticks(ax)
         ax.set_xlabel("Pressure p [bar]" if ai == 0 else "Unburned temperature T_u [K]")
         ax.set_ylabel("Laminar flame speed S_L [cm/s]")
         ax.set_title(f"S_L ∝ {'p^β' if ai == 0 else 'T_u^α'} (φ = {phi:g})", fontsize=10)
         ax.grid(True, which="both", color="0.9", lw=0.6)
-    return _finish(fig, study, ("Pressure and preheat dependence of the flame speed",
+    return finish(fig, study, ("Pressure and preheat dependence of the flame speed",
                                 "How does S_L scale? Power-law exponents fitted per curve "
                                 "(Metghalchi & Keck form); all φ in power_law_exponents.csv"),
                    handles, "Fuel and fitted exponent")
@@ -115,17 +99,22 @@ def _interp_at_fixed_tad(rs, targets):
     return [float(np.interp(t, T, S, left=np.nan, right=np.nan)) for t in targets]
 
 
-def blend_chart(rows, study):
+@chart("blend_comparison",
+       "Flame speed, thickness and adiabatic temperature against blend fraction at fixed "
+       "equivalence ratio, and flame speed at fixed adiabatic flame temperature.",
+       _burning_blends)
+def blend_chart(data, study):
     """S_L, thermal thickness and T_ad vs blend fraction per phi; S_L at fixed T_ad."""
-    ok = _ok(rows)
+    rows = data.rows
+    ok = ok_rows(rows)
     P, T = sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok})[0]
     ok = [r for r in ok if r["pressure_bar"] == P and r["unburned_temperature_K"] == T]
     fuel, ox = ok[0]["fuel"], ok[0]["oxidizer"]
     ok = [r for r in ok if r["fuel"] == fuel and r["oxidizer"] == ox]
     phis = sorted({r["equivalence_ratio"] for r in ok})
     fracs = sorted({r["blend_fraction"] for r in ok})
-    colours = _colours(len(phis))
-    fig, axes = _figure(4, width=3.6)
+    colours = colour_scale(len(phis))
+    fig, axes = figure(4, width=3.6)
     handles = {}
     for ai, (col, scale, ylabel) in enumerate((("laminar_flame_speed_m_s", 100, "S_L [cm/s]"),
                                                ("thermal_thickness_mm", 1, "Thermal thickness δ_T [mm]"),
@@ -143,7 +132,7 @@ def blend_chart(rows, study):
     base = sorted((r for r in ok if r["blend_fraction"] == fracs[0]), key=lambda r: r["equivalence_ratio"])
     peak = int(np.argmax([r["adiabatic_flame_temperature_K"] for r in base])) if base else 0
     targets = [r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]]
-    tcol = _colours(len(targets))
+    tcol = colour_scale(len(targets))
     for ti, t in enumerate(targets):
         S = [_interp_at_fixed_tad([r for r in ok if r["blend_fraction"] == f], [t])[0] for f in fracs]
         h, = ax.plot([100 * f for f in fracs], [100 * s for s in S], color=tcol[ti], marker="s", lw=1.4,
@@ -153,32 +142,37 @@ def blend_chart(rows, study):
     ax.set_ylabel("S_L at fixed T_ad [cm/s]")
     ax.set_title("at equal flame temperature", fontsize=9)
     ax.grid(True, color="0.9", lw=0.6)
-    return _finish(fig, study, (f"Blend comparison: {fuel} with {study.blend_with}, p = {P:g} bar, T_u = {T:g} K",
+    return finish(fig, study, (f"Blend comparison: {fuel} with {study.blend_with}, p = {P:g} bar, T_u = {T:g} K",
                                 "What does blending change? Left three panels at fixed φ; right: S_L at fixed "
                                 "adiabatic flame temperature (interpolated along the lean side)"),
                    handles, "Equivalence ratio / flame temperature")
 
 
-def flashback_chart(rows, study):
+@chart("flashback_chart",
+       "Critical flashback gradient (solid) against the burner's wall velocity gradient "
+       "(dashed); the shaded band is the required margin: a dashed line inside or below it is a flashback risk.",
+       _has_margins)
+def flashback_chart(data, study):
     """Critical flashback gradient vs phi per blend, with the burner's wall gradient; quench size vs port."""
+    rows = data.rows
     b = study.burner
-    ok = [r for r in _ok(rows) if r["flashback_margin"] is not None]
+    ok = [r for r in ok_rows(rows) if r["flashback_margin"] is not None]
     panels = sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok})
-    keys = _fuel_keys(ok)
-    colours = _colours(len(keys))
-    fig, axes = _figure(2, nrows=len(panels))
+    keys = fuel_keys(ok)
+    colours = colour_scale(len(keys))
+    fig, axes = figure(2, nrows=len(panels))
     handles = {}
     for pi, (P, T) in enumerate(panels):
         ax, axq = axes[pi, 0], axes[pi, 1]
         for ci, key in enumerate(keys):
-            rs = sorted((r for r in _of(ok, key) if r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
+            rs = sorted((r for r in of(ok, key) if r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
                         key=lambda r: r["equivalence_ratio"])
             if not rs:
                 continue
             phi = [r["equivalence_ratio"] for r in rs]
             gF = np.array([r["flashback_critical_gradient_1_s"] for r in rs])
             gw = [r["wall_velocity_gradient_1_s"] for r in rs]
-            label = _curve_label(rs[0])
+            label = gas_label(rs[0])
             h, = ax.plot(phi, gF, color=colours[ci], marker=MARKERS[ci % len(MARKERS)], lw=1.6, label=label)
             ax.fill_between(phi, gF, gF * b.min_flashback_margin, color=colours[ci], alpha=0.15, lw=0)
             ax.plot(phi, gw, color=colours[ci], linestyle="--", lw=1.4)
@@ -202,17 +196,22 @@ def flashback_chart(rows, study):
     handles[f"required margin x{b.min_flashback_margin:g} (band)"] = Patch(color="0.35", alpha=0.2)
     handles[f"port {'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"] = Line2D(
         [], [], color="0.2", lw=1.4, linestyle="-.")
-    return _finish(fig, study, (f"Flashback check: {b.name}",
+    return finish(fig, study, (f"Flashback check: {b.name}",
                                 "Will the flame flash back? Safe where the dashed wall gradient stays above the "
                                 "shaded band of its own colour"), handles, "Fuel and burner")
 
 
-def window_chart(rows, study):
+@chart("operating_window",
+       "Map over blend fraction and equivalence ratio: contours of flashback and blowoff "
+       "margin; the shaded region meets both minimum margins; dots are solved points.",
+       _has_window)
+def window_chart(data, study):
     """Operating window over (blend fraction, phi): flashback and blowoff margin contours."""
+    rows = data.rows
     b = study.burner
     rs_all = [r for r in rows if r["flashback_margin"] is not None or r["status"] != "ok"]
     panels = sorted({(r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
-    fig, axes = _figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
+    fig, axes = figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
     fracs = sorted({r["blend_fraction"] for r in rows})
     phis = sorted({r["equivalence_ratio"] for r in rows})
     for ax, (fuel, ox, P, T) in zip(axes.flat, panels):
@@ -252,23 +251,25 @@ def window_chart(rows, study):
         "no flame or failed (hatched)": Patch(facecolor="0.85", hatch="//"),
         "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
     }
-    return _finish(fig, study, (f"Operating window: {b.name}",
+    return finish(fig, study, (f"Operating window: {b.name}",
                                 "Where can it run? Blend fraction and equivalence ratio that keep both margins"),
                    handles, "Margins")
 
 
-def gas_quality_chart(rows, study):
+@chart("fuel_interchangeability",
+       "Wobbe index and heating value of the blends against blend fraction, with the "
+       "allowed Wobbe band.",
+       _several_blends)
+def gas_quality_chart(data, study):
     """Wobbe index and heating value of the blends vs blend fraction, with the allowed band."""
-    from .design import fuel_gas_table
-
-    table = fuel_gas_table(study)
-    fig, axes = _figure(2)
+    table = data.gases
+    fig, axes = figure(2)
     keys = []
     for g in table:
         k = (g["fuel"], g["oxidizer"])
         if k not in keys:
             keys.append(k)
-    colours = _colours(len(keys))
+    colours = colour_scale(len(keys))
     handles = {}
     for ci, k in enumerate(keys):
         gs = sorted((g for g in table if (g["fuel"], g["oxidizer"]) == k), key=lambda g: g["blend_fraction"])
@@ -291,24 +292,6 @@ def gas_quality_chart(rows, study):
         ax.set_ylabel(yl)
         ax.grid(True, color="0.9", lw=0.6)
     gq = study.gas_quality
-    return _finish(fig, study, ("Fuel interchangeability: Wobbe index and heating value",
+    return finish(fig, study, ("Fuel interchangeability: Wobbe index and heating value",
                                 f"Is the blend interchangeable? ISO 6976:2016, combustion {gq.combustion_T_C} °C, "
                                 f"metering {gq.metering_T_C} °C, 101.325 kPa"), handles, "Fuel gas")
-
-
-def makers(rows, study) -> list[tuple[str, object]]:
-    """The design charts this study's axes and burner support, as (file name, function)."""
-    ok = _ok(rows)
-    out = []
-    if ok and (len({r["pressure_bar"] for r in ok}) > 1 or len({r["unburned_temperature_K"] for r in ok}) > 1):
-        out.append(("pressure_and_preheat_dependence", pressure_preheat_chart))
-    multi_blend = study.blend_with is not None and len(study.blend_fractions) > 1
-    if ok and multi_blend:
-        out.append(("blend_comparison", blend_chart))
-    if study.burner is not None and any(r["flashback_margin"] is not None for r in rows):
-        out.append(("flashback_chart", flashback_chart))
-        if multi_blend and len(study.equivalence_ratios) > 1:
-            out.append(("operating_window", window_chart))
-    if multi_blend:
-        out.append(("fuel_interchangeability", gas_quality_chart))
-    return out

@@ -207,36 +207,3 @@ def fuel_gas_properties(X, combustion_T_C: int = 15, metering_T_C: int = 15,
         higher_wobbe_index_MJ_m3=wobbe_index(Hs_v, d), lower_wobbe_index_MJ_m3=wobbe_index(Hi_v, d),
         conditions=(f"combustion {combustion_T_C} degC, metering {metering_T_C} degC, 101.325 kPa, real gas"),
         method=method, fallback_species=tuple(used_fallback))
-
-
-def fallback_data(gas, species, combustion_T_C: int = 15) -> dict:
-    """Ideal-gas (M, n_H, superior kJ/mol) from a Cantera mechanism for species outside ISO 6976.
-
-    The inferior value is the enthalpy of complete combustion to CO2, H2O (vapour), N2
-    and SO2 at the combustion temperature, from the mechanism's NASA polynomials; the
-    superior value adds (n_H/2) L_water (ISO 6976:2016 eq. 4 applied to ideal gases).
-    Species whose products are not in the mechanism raise ValueError.
-    """
-    T = 273.15 + combustion_T_C
-    out = {}
-    names = gas.species_names
-
-    def h(name):  # molar enthalpy [kJ/mol] at T
-        gas.TPX = T, P_ISO, {name: 1.0}
-        return gas.enthalpy_mole / 1e6
-
-    for sp in species:
-        comp = gas.species(sp).composition
-        c, hh, o, n = (comp.get(e, 0.0) for e in ("C", "H", "O", "N"))
-        if c == 0 and hh == 0:  # inert or oxidant: no heating value
-            out[sp] = (gas.molecular_weights[gas.species_index(sp)], 0.0, 0.0)
-            continue
-        need = {"CO2": c, "H2O": hh / 2.0, "N2": n / 2.0}
-        o2 = c + hh / 4.0 - o / 2.0
-        for prod in [k for k, v in need.items() if v] + (["O2"] if o2 else []):
-            if prod not in names:
-                raise ValueError(f"mechanism lacks {prod} to burn {sp}")
-        inferior = h(sp) + o2 * (h("O2") if o2 else 0.0) - sum(v * h(k) for k, v in need.items() if v)
-        out[sp] = (gas.molecular_weights[gas.species_index(sp)], hh,
-                   inferior + hh / 2.0 * L_WATER[combustion_T_C])
-    return out

@@ -1,8 +1,7 @@
-"""Design charts drawn from stored rows (never from solver objects), PNG and SVG.
+"""Flame speed and thickness against equivalence ratio.
 
 flame_speed_chart        laminar flame speed vs equivalence ratio
 thermal_thickness_chart  thermal flame thickness vs equivalence ratio
-draw_all                 both, into DIR/charts/
 
 Layout: one panel per (pressure, unburned temperature), one curve per fuel,
 oxidizer and blend fraction. Points that did not give a flame are not dropped:
@@ -10,57 +9,19 @@ they are marked on the axis floor with their status.
 """
 from __future__ import annotations
 
-from pathlib import Path
+import matplotlib.pyplot as plt
+import numpy as np
+from matplotlib.lines import Line2D
 
-import matplotlib
-
-matplotlib.use("Agg")
-import matplotlib.pyplot as plt  # noqa: E402
-from matplotlib.lines import Line2D  # noqa: E402
-import numpy as np  # noqa: E402
-
-from . import __version__  # noqa: E402
-from .export import resolution_label  # noqa: E402
-
-MARKERS = ("o", "s", "^", "D", "v", "P", "X", "h")
-LINESTYLES = ("-", "--", "-.", ":")
-NOT_BURNING = (("no_flame", "v"), ("failed", "x"))
-CMAP = "viridis"  # perceptually uniform, readable with colour-vision deficiency
-
-
-def _curve_label(r: dict) -> str:
-    label = r["fuel"]
-    if r["blend_with"]:
-        label += f" + {100 * r['blend_fraction']:.0f} % {r['blend_with']}"
-    return label
-
-
-def _curves(rows: list[dict]) -> list[tuple]:
-    keys = []
-    for r in rows:
-        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
-        if k not in keys:
-            keys.append(k)
-    return keys
-
-
-def _panels(rows: list[dict]) -> list[tuple[float, float]]:
-    return sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
-
-
-def _footer(fig, study) -> None:
-    fig.text(0.01, 0.01,
-             f"{study.title} | mechanism {study.mechanism} | transport {study.transport}"
-             f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
-             f"{resolution_label(study)} | flamecharts {__version__}\n"
-             "Screening estimate, not certification: follow local codes and standards, confirm by test.",
-             fontsize=7, color="0.3", ha="left", va="bottom")
+from ...columns import gas_label
+from .registry import chart
+from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys
 
 
 def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str,
                companion: tuple[str, str] | None = None):
-    panels = _panels(rows)
-    curves = _curves(rows)
+    panels = panel_keys(rows)
+    curves = curve_keys(rows)
     oxidizers = {c[1] for c in curves}
     n = len(panels)
     ncols = min(3, int(np.ceil(np.sqrt(n))))
@@ -76,7 +37,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                           and r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
                          key=lambda r: r["equivalence_ratio"])
             good = [r for r in sel if r["status"] == "ok" and r[column] is not None]
-            label = _curve_label(sel[0]) if sel else ck[0]
+            label = gas_label(sel[0]) if sel else ck[0]
             if len(oxidizers) > 1:
                 label += f" in {ck[1]}"
             style = dict(color=colours[ci], marker=MARKERS[ci % len(MARKERS)],
@@ -114,62 +75,29 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
-    _footer(fig, study)
+    footer(fig, study)
     fig.get_layout_engine().set(rect=(0, 0.07, 1, 0.93))
     return fig
 
 
-def flame_speed_chart(rows, study):
+@chart("flame_speed_vs_equivalence_ratio",
+       "Laminar flame speed of each fuel and blend against equivalence ratio, a panel per pressure and "
+       "preheat. Higher curves flash back more easily at the same port velocity.")
+def flame_speed_chart(data, study):
     """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at."""
-    return _phi_chart(rows, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
+    return _phi_chart(data.rows, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
                       ("Laminar flame speed vs equivalence ratio",
                        "How fast does each mixture's flame run? (flashback: compare with port velocity)"))
 
 
-def thermal_thickness_chart(rows, study):
+@chart("thermal_thickness_vs_equivalence_ratio",
+       "Thermal thickness (solid) and reaction-zone thickness (dotted). Thinner flames quench in narrower "
+       "gaps and need finer grids in CFD.")
+def thermal_thickness_chart(data, study):
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
-    return _phi_chart(rows, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
+    return _phi_chart(data.rows, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
                       ("Flame thickness vs equivalence ratio",
                        "How thick is each flame? Solid: thermal δ_T; dotted: reaction zone"),
                       companion=("reaction_zone_thickness_mm",
                                  "dotted: reaction zone thickness\n(heat-release full width at half maximum);\n"
                                  "solid: thermal thickness (T_b − T_u)/max|dT/dx|"))
-
-
-#: chart file name -> one-line caption of how to read it (used by the report)
-CAPTIONS = {
-    "flame_speed_vs_equivalence_ratio": "Laminar flame speed of each fuel and blend against equivalence ratio, "
-        "a panel per pressure and preheat. Higher curves flash back more easily at the same port velocity.",
-    "thermal_thickness_vs_equivalence_ratio": "Thermal thickness (solid) and reaction-zone thickness (dotted). "
-        "Thinner flames quench in narrower gaps and need finer grids in CFD.",
-    "pressure_and_preheat_dependence": "Flame speed against pressure and against unburned temperature on log "
-        "axes; the legend gives the fitted power-law exponent of each curve.",
-    "blend_comparison": "Flame speed, thickness and adiabatic temperature against blend fraction at fixed "
-        "equivalence ratio, and flame speed at fixed adiabatic flame temperature.",
-    "flashback_chart": "Critical flashback gradient (solid) against the burner's wall velocity gradient (dashed); "
-        "the shaded band is the required margin: a dashed line inside or below it is a flashback risk.",
-    "operating_window": "Map over blend fraction and equivalence ratio: contours of flashback and blowoff "
-        "margin; the shaded region meets both minimum margins; dots are solved points.",
-    "fuel_interchangeability": "Wobbe index and heating value of the blends against blend fraction, with "
-        "the allowed Wobbe band.",
-}
-
-
-def draw_all(rows: list[dict], study, out_dir: Path) -> list[Path]:
-    """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files."""
-    from . import design_charts
-
-    charts_dir = Path(out_dir) / "charts"
-    charts_dir.mkdir(parents=True, exist_ok=True)
-    makers = [("flame_speed_vs_equivalence_ratio", flame_speed_chart),
-              ("thermal_thickness_vs_equivalence_ratio", thermal_thickness_chart)]
-    makers += design_charts.makers(rows, study)
-    written = []
-    for name, make in makers:
-        fig = make(rows, study)
-        for ext in ("png", "svg"):
-            path = charts_dir / f"{name}.{ext}"
-            fig.savefig(path, dpi=130 if ext == "png" else None)
-            written.append(path)
-        plt.close(fig)
-    return written

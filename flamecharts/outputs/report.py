@@ -11,10 +11,14 @@ import html
 import time
 from pathlib import Path
 
-from . import __version__
+from .._version import __version__
+from ..chemistry.flame import NUMERICS
+from ..chemistry.mechanism import cantera_version
+from ..columns import gas_label
+from ..config import resolution_label
+from ..design import fuel_gas_table, margin_summary
 from .charts import CAPTIONS
-from .export import CAUTION, cantera_version, resolution_label, write_atomic
-from .flame import NUMERICS
+from .tables import CAUTION, write_atomic
 
 CSS = """
 body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif; color: #1d1d1d;
@@ -54,10 +58,6 @@ def _inline_svg(path: Path) -> str:
     return re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)  # drop the RDF block matplotlib writes
 
 
-def _label(r) -> str:
-    return r["fuel"] + (f" + {100 * r['blend_fraction']:g} % {r['blend_with']}" if r.get("blend_with") else "")
-
-
 def key_numbers(study, rows: list[dict]) -> list[list[str]]:
     """The few numbers a design review asks for first, as table rows."""
     ok = [r for r in rows if r["status"] == "ok"]
@@ -65,32 +65,30 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
     if ok:
         top = max(ok, key=lambda r: r["laminar_flame_speed_m_s"])
         out.append(["Highest laminar flame speed", f"{100 * top['laminar_flame_speed_m_s']:.1f} cm/s",
-                    f"{_label(top)}, φ {top['equivalence_ratio']:g}, {top['pressure_bar']:g} bar, "
+                    f"{gas_label(top)}, φ {top['equivalence_ratio']:g}, {top['pressure_bar']:g} bar, "
                     f"{top['unburned_temperature_K']:g} K"])
         thin = min(ok, key=lambda r: r["thermal_thickness_mm"])
         out.append(["Thinnest flame (thermal thickness)", f"{thin['thermal_thickness_mm']:.3f} mm",
-                    f"{_label(thin)}, φ {thin['equivalence_ratio']:g}, {thin['pressure_bar']:g} bar"])
+                    f"{gas_label(thin)}, φ {thin['equivalence_ratio']:g}, {thin['pressure_bar']:g} bar"])
     fb = [r for r in ok if r.get("flashback_margin") is not None]
     if fb:
         w = min(fb, key=lambda r: r["flashback_margin"])
         out.append(["Smallest flashback margin g_wall/g_F", f"{w['flashback_margin']:.2f}",
-                    f"{_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_flashback_margin:g})"])
+                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_flashback_margin:g})"])
         w = min(fb, key=lambda r: r["blowoff_margin"])
         out.append(["Smallest blowoff margin g_B/g_wall", f"{w['blowoff_margin']:.2f}",
-                    f"{_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_blowoff_margin:g})"])
+                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_blowoff_margin:g})"])
         n_ok = sum(r["verdict"] == "ok" for r in fb)
         out.append(["Points meeting both margins", f"{n_ok} of {len(fb)}", study.burner.name])
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
-                "; ".join(f"{_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
+                "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
                 + (" ..." if len(bad) > 6 else "")])
     return out
 
 
-def write_report(study, rows: list[dict], out_dir: Path) -> Path:
+def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
-    from .design import fuel_gas_table, margin_summary
-
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
              f"<style>{CSS}</style></head><body>",
@@ -127,11 +125,11 @@ def write_report(study, rows: list[dict], out_dir: Path) -> Path:
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
                                                    f"{b.approach_velocity_m_s:g} m/s approach"])
         parts.append("<h3>Burner</h3>" + _table(["", ""], brows))
-    gases = fuel_gas_table(study)
+    gases = fuel_gas_table(study) if gases is None else gases
     parts.append(f"<h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; {_e(gases[0]['method'])}</p>")
     parts.append(_table(["gas", "HHV [MJ/m³]", "LHV [MJ/m³]", "relative density", "Wobbe (higher) [MJ/m³]",
                          "Wobbe change [%]", "in band"],
-                        [[_label(g) + f" in {g['oxidizer']}", f"{g['higher_heating_value_MJ_m3']:.3f}",
+                        [[gas_label(g) + f" in {g['oxidizer']}", f"{g['higher_heating_value_MJ_m3']:.3f}",
                           f"{g['lower_heating_value_MJ_m3']:.3f}", f"{g['relative_density']:.4f}",
                           f"{g['higher_wobbe_index_MJ_m3']:.3f}", f"{g['wobbe_change_percent']:+.2f}",
                           "" if g["wobbe_in_band"] is None else ("yes" if g["wobbe_in_band"] else "NO")]
@@ -142,7 +140,7 @@ def write_report(study, rows: list[dict], out_dir: Path) -> Path:
     if summary:
         parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", "min blowoff margin (φ)",
                              "points ok"],
-                            [[_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
+                            [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
                               f"{s['unburned_temperature_K']:g}",
                               f"{s['min_flashback_margin']:.2f} ({s['at_phi_flashback']:g})",
                               f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
@@ -158,7 +156,7 @@ def write_report(study, rows: list[dict], out_dir: Path) -> Path:
     if failed:
         parts.append("<h2>Points without a flame</h2>")
         parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "reason"],
-                            [[_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                            [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
 
     warned = [r for r in rows if r.get("warnings")]
@@ -167,7 +165,7 @@ def write_report(study, rows: list[dict], out_dir: Path) -> Path:
         parts.append("<p>These numbers were computed, but the inputs lie outside what a freely propagating "
                      "laminar flame or the mechanism covers: read them as indications only.</p>")
         parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
-                            [[_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                            [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
 
     n = NUMERICS[study.resolution]

@@ -18,7 +18,7 @@ import math
 from numbers import Real
 from typing import Mapping
 
-from .errors import MixtureError, show
+from ..errors import MixtureError, show
 
 Composition = Mapping[str, float]
 

@@ -4,18 +4,18 @@
 ``tls://HOST:PORT``) or starts a local one (``local:N``: N worker processes, one thread
 each), checks that every worker runs the same flamecharts, Cantera and Python as this
 process, and returns a :class:`ClusterSession`. Its :meth:`ClusterSession.executor`
-looks like the local process pool to the runner (``submit``/``shutdown``, futures that
-``concurrent.futures.wait`` understands), so the runner's warm-start logic, retries and
+looks like the local process pool to the run loop (backends.py) (``submit``/``shutdown``, futures that
+``concurrent.futures.wait`` understands), so the run loop's warm-start logic, retries and
 one-commit-per-point store are the same for both.
 
 Workers may not share a filesystem with this process: each task carries the mechanism
 file's text, and the worker writes it to its own temporary folder (once per worker and
 mechanism) before it solves. A mechanism that pulls species or reactions from other
 files is sent as one self-contained YAML text written by Cantera. Workers return plain
-data; only the process that called :func:`flamecharts.run_study` writes the store.
+data; only the process that called :func:`flamecharts.run` writes the store.
 
 Dask's scheduler reruns a task whose worker died (up to its ``allowed-failures``
-setting, 3 by default) before the runner sees an error; the runner then retries the
+setting, 3 by default) before the run loop sees an error; it then retries the
 point MAX_RETRIES more times before recording it as failed. A point is committed once,
 when its future first completes.
 """
@@ -24,24 +24,19 @@ from __future__ import annotations
 import hashlib
 import logging
 import os
-import re
 import sys
 import tempfile
 import uuid
 from concurrent.futures import Future
 from pathlib import Path
 
-from .errors import FlamechartsError, MechanismError, first_line
+from .._version import __version__
+from ..chemistry.mechanism import cantera_version, mechanism_text
+from ..errors import FlamechartsError, first_line
+from .worker import code_fingerprint, quiet_worker
 
 #: Seconds to wait for a scheduler to answer before giving up.
 CONNECT_TIMEOUT_S = 10
-
-#: A mechanism that names another file's species, reactions or phases (``other.yaml/species``).
-_FILE_REFERENCE = re.compile(r"[\w./\\-]+\.ya?ml/\w+")
-
-#: Modules whose code decides a flame's answer; a worker must hold the same text of each.
-_SOLVER_MODULES = ("flame.py", "profiles.py", "runner.py", "cluster.py")
-
 
 class ClusterError(FlamechartsError):
     """The Dask cluster cannot be reached, started, or runs other versions than this process."""
@@ -49,17 +44,10 @@ class ClusterError(FlamechartsError):
 
 # ------------------------------------------------------------------ both sides
 def local_versions() -> dict[str, str]:
-    """Versions a worker must share with the client: flamecharts, its solver code, Cantera, Python."""
-    import cantera
-
-    from . import __version__
-
-    here = Path(__file__).parent
-    code = hashlib.sha256()
-    for name in _SOLVER_MODULES:
-        code.update((here / name).read_bytes())
-    return {"flamecharts": __version__, "flamecharts code": code.hexdigest()[:12],
-            "Cantera": cantera.__version__, "Python": f"{sys.version_info[0]}.{sys.version_info[1]}"}
+    """Versions a worker must share with the client: flamecharts, the worker's code
+    (sweep.worker.code_fingerprint), Cantera, Python."""
+    return {"flamecharts": __version__, "flamecharts code": code_fingerprint(),
+            "Cantera": cantera_version(), "Python": f"{sys.version_info[0]}.{sys.version_info[1]}"}
 
 
 def version_mismatch(expected: dict[str, str], found: dict[str, str], worker: str) -> str | None:
@@ -103,9 +91,7 @@ def run_on_worker(fn, task: dict, expected: dict[str, str], quiet: bool) -> dict
         if problem:
             raise ClusterError(problem)
         if quiet:
-            from .runner import _quiet_worker
-
-            _quiet_worker()
+            quiet_worker()
         _CHECKED["versions"] = True
     task = dict(task)
     task["mechanism_path"] = _mechanism_file(task.pop("mechanism_yaml"), task["mechanism_text_sha256"])
@@ -113,32 +99,6 @@ def run_on_worker(fn, task: dict, expected: dict[str, str], quiet: bool) -> dict
 
 
 # ---------------------------------------------------------------- client side
-def mechanism_text(path: str, transport: str) -> str:
-    """The mechanism as one YAML text a worker can load without any other file.
-
-    The file's own text when it is self-contained (the usual case, and the exact input
-    of a local run); otherwise Cantera's own serialisation of the loaded phase
-    (species, reactions, transport data), which inlines what the file pulled from others.
-    """
-    text = Path(path).read_text(encoding="utf-8")
-    if not _FILE_REFERENCE.search(re.sub(r"#.*", "", text)):
-        return text
-    import cantera as ct
-
-    model = "mixture-averaged" if transport == "unity-Lewis-number" else transport
-    try:
-        gas = ct.Solution(path, transport_model=model)
-        with tempfile.TemporaryDirectory() as tmp:
-            out = Path(tmp) / "mechanism.yaml"
-            gas.write_yaml(str(out))
-            merged = out.read_text(encoding="utf-8")
-        ct.Solution(yaml=merged, transport_model=model)
-    except Exception as exc:  # noqa: BLE001 - Cantera raises CanteraError or YAML errors
-        raise MechanismError(f"'mechanism' {path} refers to other files and cannot be sent to cluster workers "
-                             f"as one text ({first_line(exc, 160)}); merge it into one YAML file") from None
-    return merged
-
-
 def parse_spec(spec: str) -> tuple[str, int | None]:
     """'local:N' -> ('local', N); a scheduler address -> (address, None)."""
     if spec.startswith("local:"):
@@ -147,7 +107,7 @@ def parse_spec(spec: str) -> tuple[str, int | None]:
 
 
 class _Executor:
-    """The runner's view of the cluster: submit(fn, task) -> concurrent.futures.Future."""
+    """The run loop's view of the cluster: submit(fn, task) -> concurrent.futures.Future."""
 
     def __init__(self, session: "ClusterSession", study):
         self._session = session
@@ -217,18 +177,22 @@ class ClusterSession:
 
     #: Points in flight at once: every ready point is submitted and the scheduler hands it to the
     #: next idle worker, so workers that join later (adaptive clusters) find work at once.
-    max_in_flight = 1_000_000
+    slots = 1_000_000
 
-    def worker_threads(self) -> int:
+    def workers(self) -> int:
         """Threads of all workers connected now (each solves one flame at a time)."""
         workers = self.client.scheduler_info().get("workers", {})
         return sum(w.get("nthreads", 1) for w in workers.values())
 
     def executor(self, study) -> _Executor:
-        """The executor of this run (one per session: the runner asks again after a failure)."""
+        """The executor of this run (one per session)."""
         if self._executor is None:
             self._executor = _Executor(self, study)
         return self._executor
+
+    def renew(self, study) -> _Executor:
+        """The executor after a worker died: Dask replaces workers itself, the executor stays."""
+        return self.executor(study)
 
     def close(self) -> None:
         if self.client is not None:

@@ -23,10 +23,11 @@ import time
 import warnings
 from dataclasses import dataclass, asdict
 
+import cantera as ct
 import numpy as np
 
-from . import profiles
-from .errors import first_line
+from ..errors import first_line
+from ..physics import flame_measures as profiles
 
 #: Flames whose burned-side temperature rise is below this share of the equilibrium
 #: rise, or whose speed is below MIN_FLAME_SPEED, did not burn (solver found the cold branch).
@@ -163,10 +164,6 @@ def mechanism_fault(gas, T_u: float, P: float, X, T_eq: float) -> str:
         if not (np.all(np.isfinite(gas.net_production_rates)) and np.isfinite(gas.cp_mass)):
             return f"non-finite reaction rates or heat capacity for the {what} at {T:.0f} K"
     return ""
-
-
-class FlameError(Exception):
-    """Cantera could not solve this flame (raised inside workers, recorded as status)."""
 
 
 def _make_flame(ct, gas, width: float, transport: str, soret: bool, numerics: Numerics):
@@ -559,8 +556,6 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     'fresh'), 'metrics' (dict or None), 'profile' (dict or None), 'solve_seconds'.
     Cantera's log output is suppressed; this function never prints.
     """
-    import cantera as ct
-
     t0 = time.perf_counter()
 
     def failed(reason: str, text: str) -> dict:

@@ -1,0 +1,6 @@
+"""The only code that imports Cantera.
+
+mechanism   find, fingerprint and load mechanism files; the one Solution cache
+flame       one freely propagating flame: fresh or warm start, measured
+ignition    constant-pressure ignition delay (autoignition warning)
+"""

@@ -1,0 +1,76 @@
+"""Autoignition of the unburned mixture ahead of a flame (Cantera reactor).
+
+A warning is raised when the unburned mixture ignites on its own within
+AUTOIGNITION_FACTOR flame transit times delta_T/S_L (constant-pressure ignition delay
+at T_u, p, computed with Cantera's IdealGasConstPressureReactor over a bounded time).
+A freely propagating flame assumes the unburned gas stays chemically frozen while it
+crosses the flame, i.e. an ignition delay much longer than the flame transit time
+(common practice); when it is not, the computed "flame speed" measures autoignition
+in the domain, not a deflagration.
+"""
+from __future__ import annotations
+
+import math
+from functools import lru_cache
+
+import cantera as ct
+
+from .mechanism import solution
+
+#: Warn when the ignition delay is shorter than this many flame transit times (common
+#: practice: "much longer" taken as two orders of magnitude).
+AUTOIGNITION_FACTOR = 100.0
+#: The ignition delay is integrated for at most this long [s]; longer delays never warn.
+AUTOIGNITION_MAX_TIME_S = 1.0
+#: Below this preheat the ignition check is skipped: it lies below the autoignition
+#: temperature of common fuel gases (hydrogen about 800 K, methane about 810 K in air;
+#: the lowest common liquid fuel vapours, e.g. n-heptane, about 490 K; from memory).
+AUTOIGNITION_MIN_T_K = 450.0
+#: Ignition = temperature rise of this much [K] in the reactor (or half the rise to the
+#: flame's adiabatic temperature, if smaller).
+IGNITION_RISE_K = 400.0
+
+
+@lru_cache(maxsize=4096)
+def ignition_delay(mechanism_path: str, X: tuple, T: float, P: float, t_max: float, rise_K: float) -> float:
+    """Constant-pressure ignition delay [s] of mixture X (tuple of (species, mole fraction))
+    at T [K], P [Pa]: the time the temperature takes to rise by ``rise_K`` in an
+    adiabatic IdealGasConstPressureReactor; inf if it does not within ``t_max``.
+    """
+    gas = solution(mechanism_path)
+    gas.TPX = T, P, dict(X)
+    try:
+        reactor = ct.IdealGasConstPressureReactor(gas, clone=True)  # Cantera >= 3.2
+    except TypeError:
+        reactor = ct.IdealGasConstPressureReactor(gas)
+    net = ct.ReactorNet([reactor])
+    for _ in range(100000):
+        if net.time >= t_max:
+            break
+        net.step()
+        if reactor.T >= T + rise_K:
+            return float(net.time)
+    return math.inf
+
+
+def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
+    """'' or a warning when the mixture autoignites within AUTOIGNITION_FACTOR flame
+    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K)."""
+    if row.get("status") != "ok" or T_u < AUTOIGNITION_MIN_T_K:
+        return ""
+    S_L, d_mm = row.get("laminar_flame_speed_m_s"), row.get("thermal_thickness_mm")
+    if not S_L or not d_mm:
+        return ""
+    transit = d_mm * 1e-3 / S_L
+    rise = min(IGNITION_RISE_K, 0.5 * max((row.get("adiabatic_flame_temperature_K") or T_u) - T_u, 1.0))
+    t_max = min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S)
+    X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
+    try:
+        tau = ignition_delay(mechanism_path, X_key, float(T_u), float(P), float(f"{t_max:.6g}"), float(rise))
+    except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
+        return ""
+    if tau < t_max:
+        return (f"autoignition: ignition delay {tau:.2g} s at {T_u:g} K is within {tau / transit:.0f} flame "
+                f"transit times ({transit:.2g} s; needs >> 1): the mixture ignites before the flame arrives, "
+                "a freely propagating flame does not apply")
+    return ""

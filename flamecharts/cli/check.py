@@ -1,0 +1,74 @@
+"""flamecharts check CONFIG: validate a config and print the plan and its estimated run time."""
+from __future__ import annotations
+
+import statistics
+from pathlib import Path
+
+from ..chemistry.flame import NUMERICS
+from ..config import load_study
+from ..pipeline import default_out_dir
+from ..results import point_rows
+from ..store import DB_NAME, Store, stored_keys
+from ..sweep.backends import resolve_jobs
+from ..sweep.points import points
+from ..sweep.run import unique_points, warm_plan
+from ..sweep.schedule import default_flame_seconds, estimate_run_seconds
+from ..sweep.warm_tree import warm_tree
+from .tables import print_burner, print_gases, print_points
+
+
+def cmd_check(args) -> int:
+    study = load_study(args.config)
+    pts = points(study)
+    out = Path(args.out) if args.out else default_out_dir(study)
+    keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
+    stored = sum(p.key in keys for p in pts)
+    unique = unique_points(pts)
+    todo = {p.index for p in unique if p.key not in keys}
+    rows, timings = [], {}
+    if keys:
+        with Store(out / DB_NAME, readonly=True) as st:
+            tree = warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique})
+            timings = st.timings({p.family for p in pts})
+            rows = point_rows(study, pts, st.rows([p.key for p in pts]))
+    else:
+        tree = warm_tree(unique)
+    n = NUMERICS[study.resolution]
+    print(f"Study: {study.title}")
+    print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
+    print(f"Transport: {study.transport}, thermal diffusion {'on' if study.thermal_diffusion else 'off'}; "
+          f"resolution {study.resolution} (final grid ratio/slope/curve {n.stages[-1]})")
+    print(f"Fuels: {', '.join(study.sweep_fuels)}"
+          + (f"; blended with {study.blend_with} at {', '.join(f'{f:g}' for f in study.blend_fractions)}"
+             if study.blend_with else ""))
+    print(f"Oxidizers: {', '.join(study.sweep_oxidizers)}")
+    print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
+    print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
+    print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
+    print_gases(study)
+    print_burner(study)
+    if stored:
+        print_points(study, [r for r in rows if r["status"] != "pending"])
+    print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
+          f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
+          f"(longest warm-start path {tree.depth})")
+    if todo:
+        print(_estimate_line(study, tree, timings, args.jobs))
+    return 0
+
+
+def _estimate_line(study, tree, timings: dict, jobs) -> str:
+    """'Estimated run time ...' from stored timings of the same settings, else from the mechanism size."""
+    jobs = resolve_jobs(jobs)
+    secs = default_flame_seconds(len(study.atoms))
+    basis = f"from the mechanism size, {len(study.atoms)} species"
+    measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
+    if measured:
+        secs.update(measured)
+        basis = f"from {sum(len(v) for v in timings.values())} stored timings"
+    t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
+    when = f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"
+    return (f"Estimated run time: about {when} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
+            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)")
+
+

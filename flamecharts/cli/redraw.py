@@ -1,0 +1,20 @@
+"""flamecharts charts DIR / report DIR: redraw the outputs of a finished run from its store."""
+from __future__ import annotations
+
+from pathlib import Path
+
+from ..outputs import write_outputs
+from ..results import rows_from_dir
+
+
+def cmd_charts(args, report: bool = False) -> int:
+    study, rows = rows_from_dir(Path(args.dir))
+    files = write_outputs(study, rows, Path(args.dir), charts=True, report=report)
+    print(f"Wrote {len(files)} files in {args.dir}" + (f"; report: {files[-1]}" if report else ""))
+    return 0
+
+
+
+
+def cmd_report(args) -> int:
+    return cmd_charts(args, report=True)

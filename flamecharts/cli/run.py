@@ -1,0 +1,98 @@
+"""flamecharts run CONFIG: solve, store, write every output, print the outcome."""
+from __future__ import annotations
+
+import signal
+import sys
+from collections import Counter
+from pathlib import Path
+
+from tqdm import tqdm
+
+from ..chemistry.flame import failure_reason
+from ..config import check_cluster_spec, load_study
+from ..outputs import write_outputs
+from ..pipeline import default_out_dir, run_study
+from ..sweep.run import RunInterrupted
+from .tables import blend_label, print_margins, print_points
+
+
+def cmd_run(args) -> int:
+    cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
+    study = load_study(args.config)
+    out = Path(args.out) if args.out else default_out_dir(study)
+    bar = None
+    told = False
+
+    def progress(pr) -> None:
+        nonlocal bar, told
+        if pr.stopping and not told:
+            told = True
+            print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
+                  "(Ctrl-C again to stop at once).", file=sys.stderr)
+        if args.quiet:
+            return
+        if bar is None:
+            bar = tqdm(total=pr.total, unit="flame", file=sys.stderr, dynamic_ncols=True,
+                       desc=f"flames ({pr.reused} from the store)", disable=None)
+        bar.set_postfix(no_flame=pr.no_flame, failed=pr.failed, refresh=False)
+        bar.update(pr.done - bar.n)
+
+    try:
+        summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress, cluster=cluster)
+        files = write_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
+    except KeyboardInterrupt as exc:
+        signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
+        if bar is not None:
+            bar.close()
+        what = ""
+        if isinstance(exc, RunInterrupted):
+            what = (f" {exc.solved} flames solved in this run, {exc.remaining} points left"
+                    + (" (running flames abandoned)" if exc.at_once else "") + ".")
+        print(f"\nInterrupted.{what} Every finished flame is stored in {out}; run the same command "
+              "again to resume.", file=sys.stderr)
+        return 130
+    if bar is not None:
+        bar.close()
+    ok = sum(r["status"] == "ok" for r in summary.rows)
+    print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
+          f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
+          f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
+    if summary.failed:
+        reasons = Counter(failure_reason(r["message"]) for r in summary.rows if r["status"] == "failed")
+        print(f"{summary.failed} failed: " + ", ".join(f"{n} {why}" for why, n in sorted(reasons.items())))
+    for r in summary.failures[:20]:
+        print(f"  {r['status']}: {r['fuel']}"
+              + (f" + {r['blend_fraction']:g} {r['blend_with']}" if r["blend_with"] else "")
+              + f", phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+                f"{r['unburned_temperature_K']:g} K: {r['message']}")
+    if len(summary.failures) > 20:
+        print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
+    warned = [r for r in summary.rows if r.get("warnings")]
+    if warned:
+        print(f"{len(warned)} points outside the range the method or mechanism covers (column 'warnings'):")
+        for r in warned[:20]:
+            print(f"  {blend_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+                  f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
+        if len(warned) > 20:
+            print(f"  ... and {len(warned) - 20} more (see results.csv)")
+    if not args.quiet:
+        print_points(study, summary.rows)
+    print_margins(study, summary.rows)
+    print(f"Results: {files[0]} (fuel-gas properties: {files[2]})")
+    if not args.no_charts:
+        print(f"Charts: {out / 'charts'}/")
+        if not args.no_report:
+            print(f"Report: {out / 'report.html'}")
+    print("Screening estimates, not certification: follow local codes and the applicable standards; "
+          "confirm by test.")
+    return 0
+
+
+def _utilisation(summary) -> str:
+    """', 2 workers 87 % busy' (empty when nothing was solved)."""
+    u = summary.worker_utilisation
+    if u is None:
+        return ""
+    return f", {summary.workers} worker{'s' if summary.workers != 1 else ''} {100 * u:.0f} % busy"
+
+

@@ -1,0 +1,83 @@
+"""Terminal tables the commands print: fuel gases, the burner, per-point lines, margins."""
+from __future__ import annotations
+
+from ..design import first_flashback_fraction, fuel_gas_table, margin_summary
+
+
+def blend_label(r) -> str:
+    return r["fuel"] + (f" + {100 * r['blend_fraction']:g} % {r['blend_with'] or ''}".rstrip()
+                        if r.get("blend_with") else "")
+
+
+def print_gases(study) -> None:
+    table = fuel_gas_table(study)
+    print(f"Fuel gases ({table[0]['conditions']}; {table[0]['method']}):")
+    print(f"  {'gas':38s} {'HHV':>7s} {'LHV':>7s} {'d':>6s} {'W_s':>7s} {'W_i':>7s} {'dW':>7s}  band")
+    print(f"  {'':38s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'-':>6s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'%':>7s}")
+    for g in table:
+        band = "" if g["wobbe_in_band"] is None else ("inside" if g["wobbe_in_band"] else "OUTSIDE")
+        print(f"  {blend_label(g) + ' in ' + g['oxidizer']:38s} {g['higher_heating_value_MJ_m3']:7.3f} "
+              f"{g['lower_heating_value_MJ_m3']:7.3f} {g['relative_density']:6.4f} "
+              f"{g['higher_wobbe_index_MJ_m3']:7.3f} {g['lower_wobbe_index_MJ_m3']:7.3f} "
+              f"{g['wobbe_change_percent']:+7.2f}  {band}")
+
+
+def print_burner(study) -> None:
+    b = study.burner
+    if b is None:
+        print("Burner: none given (add a [burner] table for flashback and blowoff margins)")
+        return
+    size = f"{'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"
+    how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
+           f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm2 of ports"
+           + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+    print(f"Burner: {b.name}: {b.port} ports, {size}; {how}; minimum margins flashback "
+          f"{b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}")
+
+
+def print_margins(study, rows) -> None:
+    summary = margin_summary(study, rows)
+    if not summary:
+        return
+    b = study.burner
+    print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, "
+          f"blowoff {b.min_blowoff_margin:g}):")
+    for s in summary:
+        print(f"  {blend_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
+              f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
+              f"(phi {s['at_phi_flashback']:g}), blowoff margin >= {s['min_blowoff_margin']:.2f} "
+              f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
+    for (fuel, ox, p, T), frac in first_flashback_fraction(study, rows).items():
+        what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
+                else f"at no {study.blend_with} fraction of the study")
+        print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+
+
+MAX_POINT_LINES = 60
+
+
+def print_points(study, rows) -> None:
+    """One line per point with the flame, its indicators and, with a burner, its margins."""
+    burner = study.burner is not None
+    head = (f"  {'gas':30s} {'phi':>5s} {'p':>6s} {'T_u':>6s} {'S_L':>7s} {'d_T':>6s} {'g_F':>7s} {'d_q':>5s}"
+            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {'BO':>5s}  verdict" if burner else ""))
+    unit = (f"  {'':30s} {'-':>5s} {'bar':>6s} {'K':>6s} {'cm/s':>7s} {'mm':>6s} {'1/s':>7s} {'mm':>5s}"
+            + (f" {'m/s':>6s} {'1/s':>7s} {'-':>5s} {'-':>5s}" if burner else ""))
+    print("Points (indicators per point; every column in results.csv):")
+    print(head)
+    print(unit)
+    for r in rows[:MAX_POINT_LINES]:
+        line = f"  {blend_label(r):30s} {r['equivalence_ratio']:5.2f} {r['pressure_bar']:6g} {r['unburned_temperature_K']:6g} "
+        if r["status"] != "ok":
+            print(line + f"{r['status']}: {r['message'][:70]}")
+            continue
+        line += (f"{100 * r['laminar_flame_speed_m_s']:7.2f} {r['thermal_thickness_mm']:6.3f} "
+                 f"{r['flashback_critical_gradient_1_s']:7.0f} {r['quenching_distance_mm']:5.2f}")
+        if burner:
+            line += (f" {r['port_velocity_m_s']:6.3f} {r['wall_velocity_gradient_1_s']:7.0f} "
+                     f"{r['flashback_margin']:5.2f} {r['blowoff_margin']:5.2f}  {r['verdict']}")
+        print(line)
+    if len(rows) > MAX_POINT_LINES:
+        print(f"  ... and {len(rows) - MAX_POINT_LINES} more points in results.csv")
+
+

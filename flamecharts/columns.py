@@ -1,0 +1,142 @@
+"""Every column a result leaves the code under, declared once: name, unit, meaning.
+
+results.csv, results.nc, fuel_gases.csv, the design read-out and the charts all take
+their column names from here. Names carry their unit (``pressure_bar``,
+``laminar_flame_speed_m_s``); thickness columns are in mm because that is how burner
+designers read them, every other quantity is SI.
+"""
+from __future__ import annotations
+
+#: The sweep axes, in the order of the study's cartesian product (outermost first)
+#: and of the dimensions of results.nc.
+AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K", "equivalence_ratio")
+
+#: name -> (unit, long name). Unit "1" = dimensionless, "" = text or flag.
+UNITS: dict[str, tuple[str, str]] = {
+    "fuel": ("", "fuel (name in the study's [fuels])"),
+    "oxidizer": ("", "oxidizer (name in the study's [oxidizers])"),
+    "blend_with": ("", "blended gas (name in the study's [fuels])"),
+    "blend_fraction": ("1", "mole fraction of the blended gas in the fuel stream"),
+    "equivalence_ratio": ("1", "equivalence ratio"),
+    "pressure_bar": ("bar", "pressure"),
+    "unburned_temperature_K": ("K", "unburned (preheat) temperature"),
+    "status": ("", "ok, no_flame, failed or pending"),
+    "reason": ("", "why a point failed or gave no flame"),
+    "laminar_flame_speed_m_s": ("m/s", "laminar flame speed"),
+    "thermal_thickness_mm": ("mm", "thermal thickness (T_b - T_u) / max|dT/dx|"),
+    "diffusive_thickness_mm": ("mm", "diffusive thickness lambda_u / (rho_u c_p,u S_L)"),
+    "reaction_zone_thickness_mm": ("mm", "reaction-zone thickness (heat-release full width at half maximum)"),
+    "adiabatic_flame_temperature_K": ("K", "burned temperature at the end of the domain"),
+    "equilibrium_temperature_K": ("K", "HP equilibrium temperature of the unburned mixture"),
+    "expansion_ratio": ("1", "unburned over burned density"),
+    "unburned_density_kg_m3": ("kg/m3", "unburned density"),
+    "unburned_thermal_diffusivity_m2_s": ("m2/s", "unburned thermal diffusivity"),
+    "grid_points": ("1", "grid points of the final flame"),
+    "solve_seconds": ("s", "wall time of the flame's solve"),
+    "mechanism": ("", "reaction mechanism"),
+    "transport": ("", "transport model"),
+    "thermal_diffusion": ("", "thermal diffusion (Soret effect) on"),
+    "resolution": ("", "numerical resolution setting"),
+    "start": ("", "warm (from a neighbour's profile) or fresh"),
+    "message": ("", "solver message"),
+    "fuel_mole_fractions": ("", "fuel-stream composition (JSON, mole fractions)"),
+    "point_key": ("", "store key of the point"),
+    "chemical_time_s": ("s", "chemical time alpha_u / S_L^2"),
+    "blint_thickness_mm": ("mm", "Blint thickness 2 (alpha_u / S_L) (T_b / T_u)^0.7"),
+    "flashback_critical_gradient_1_s": ("1/s", "critical velocity gradient for flashback"),
+    "blowoff_critical_gradient_1_s": ("1/s", "critical velocity gradient for blowoff"),
+    "quenching_distance_mm": ("mm", "parallel-plate quenching distance"),
+    "tube_quenching_diameter_mm": ("mm", "tube quenching diameter"),
+    "flame_speed_ratio": ("1", "flame speed over the reference fuel's"),
+    "flashback_gradient_ratio": ("1", "flashback gradient over the reference fuel's"),
+    "blowoff_gradient_ratio": ("1", "blowoff gradient over the reference fuel's"),
+    "quenching_distance_ratio": ("1", "quenching distance over the reference fuel's"),
+    "chemical_time_ratio": ("1", "chemical time over the reference fuel's"),
+    "reference": ("", "reference fuel of the ratios"),
+    "higher_heating_value_MJ_kg": ("MJ/kg", "higher (superior) heating value, ISO 6976"),
+    "lower_heating_value_MJ_kg": ("MJ/kg", "lower (inferior) heating value, ISO 6976"),
+    "higher_heating_value_MJ_m3": ("MJ/m3", "higher (superior) heating value per metered volume, ISO 6976"),
+    "lower_heating_value_MJ_m3": ("MJ/m3", "lower (inferior) heating value per metered volume, ISO 6976"),
+    "relative_density": ("1", "relative density to air, ISO 6976"),
+    "higher_wobbe_index_MJ_m3": ("MJ/m3", "higher (superior) Wobbe index, ISO 6976"),
+    "lower_wobbe_index_MJ_m3": ("MJ/m3", "lower (inferior) Wobbe index, ISO 6976"),
+    "wobbe_change_percent": ("%", "Wobbe index change against the reference gas"),
+    "wobbe_in_band": ("", "Wobbe index inside the allowed band"),
+    "wobbe_band_low_MJ_m3": ("MJ/m3", "lower edge of the Wobbe band"),
+    "wobbe_band_high_MJ_m3": ("MJ/m3", "upper edge of the Wobbe band"),
+    "stoich_oxidizer_volume_m3_m3": ("1", "stoichiometric oxidizer volume per fuel volume"),
+    "stoich_oxidizer_mass_kg_kg": ("1", "stoichiometric oxidizer mass per fuel mass"),
+    "stoich_fuel_mole_fraction": ("1", "fuel mole fraction of the stoichiometric mixture"),
+    "reference_gas": ("", "reference gas of the Wobbe change"),
+    "conditions": ("", "reference conditions of the gas properties"),
+    "method": ("", "method of the gas properties"),
+    "port_velocity_m_s": ("m/s", "mean port velocity"),
+    "thermal_input_kW": ("kW", "thermal input"),
+    "wall_velocity_gradient_1_s": ("1/s", "velocity gradient at the port wall"),
+    "flashback_margin": ("1", "wall gradient over critical flashback gradient"),
+    "blowoff_margin": ("1", "critical blowoff gradient over wall gradient"),
+    "quench_ratio": ("1", "quenching size over port size"),
+    "bluff_body_blowoff_velocity_m_s": ("m/s", "blowoff velocity of the bluff-body stabilizer"),
+    "stabilizer_margin": ("1", "stabilizer blowoff velocity over approach velocity"),
+    "verdict": ("", "burner verdict: ok or the risks found"),
+    "warnings": ("", "inputs outside the range the method or mechanism covers"),
+}
+
+INDICATOR_COLUMNS = (
+    "chemical_time_s", "blint_thickness_mm", "flashback_critical_gradient_1_s",
+    "blowoff_critical_gradient_1_s", "quenching_distance_mm", "tube_quenching_diameter_mm",
+    "flame_speed_ratio", "flashback_gradient_ratio", "blowoff_gradient_ratio",
+    "quenching_distance_ratio", "chemical_time_ratio", "reference",
+)
+GAS_COLUMNS = (
+    "higher_heating_value_MJ_m3", "lower_heating_value_MJ_m3", "higher_wobbe_index_MJ_m3",
+    "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_in_band",
+)
+BURNER_COLUMNS = (
+    "port_velocity_m_s", "thermal_input_kW", "wall_velocity_gradient_1_s", "flashback_margin",
+    "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
+)
+
+#: results.csv, one row per point, in this order.
+COLUMNS = (
+    "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+    "unburned_temperature_K", "status", "laminar_flame_speed_m_s", "thermal_thickness_mm",
+    "diffusive_thickness_mm", "reaction_zone_thickness_mm", "adiabatic_flame_temperature_K",
+    "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
+    "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
+    "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
+) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + ("warnings",)
+
+#: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).
+GAS_TABLE_COLUMNS = (
+    "fuel", "blend_with", "blend_fraction", "oxidizer", "higher_heating_value_MJ_kg", "lower_heating_value_MJ_kg",
+    "higher_heating_value_MJ_m3", "lower_heating_value_MJ_m3", "relative_density", "higher_wobbe_index_MJ_m3",
+    "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_band_low_MJ_m3", "wobbe_band_high_MJ_m3",
+    "wobbe_in_band", "stoich_oxidizer_volume_m3_m3", "stoich_oxidizer_mass_kg_kg", "stoich_fuel_mole_fraction",
+    "reference_gas", "conditions", "method",
+)
+
+#: Stored flame measurement (SI, see chemistry.flame.measure) -> (column, scale to the column's unit).
+FROM_METRICS = {
+    "laminar_flame_speed_m_s": ("laminar_flame_speed_m_s", 1.0),
+    "thermal_thickness_m": ("thermal_thickness_mm", 1e3),
+    "diffusive_thickness_m": ("diffusive_thickness_mm", 1e3),
+    "reaction_zone_thickness_m": ("reaction_zone_thickness_mm", 1e3),
+    "adiabatic_flame_temperature_K": ("adiabatic_flame_temperature_K", 1.0),
+    "equilibrium_temperature_K": ("equilibrium_temperature_K", 1.0),
+    "expansion_ratio": ("expansion_ratio", 1.0),
+    "unburned_density_kg_m3": ("unburned_density_kg_m3", 1.0),
+    "unburned_thermal_diffusivity_m2_s": ("unburned_thermal_diffusivity_m2_s", 1.0),
+    "grid_points": ("grid_points", 1),
+}
+
+
+def gas_label(row: dict) -> str:
+    """How every output names a fuel gas: 'natural gas + 30 % hydrogen' (the fuel alone when unblended).
+
+    >>> gas_label({"fuel": "natural gas", "blend_with": "hydrogen", "blend_fraction": 0.3})
+    'natural gas + 30 % hydrogen'
+    """
+    if not row.get("blend_with"):
+        return row["fuel"]
+    return f"{row['fuel']} + {100 * row['blend_fraction']:.4g} % {row['blend_with']}"

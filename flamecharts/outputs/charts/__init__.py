@@ -1,0 +1,37 @@
+"""Design charts drawn from results (never from solver objects), as PNG and SVG.
+
+registry.py      the one list of charts: name, caption, when it applies
+style.py         what every chart shares: colours, markers, frame, footer with the cautions
+phi_charts.py    flame speed and thickness against equivalence ratio
+design_charts.py pressure/preheat dependence, blends, flashback, operating window, gas interchangeability
+"""
+from __future__ import annotations
+
+from pathlib import Path
+
+import matplotlib.pyplot as plt
+
+from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
+from . import design_charts  # noqa: F401,I001
+from .registry import CHARTS, ChartData
+
+#: chart file name -> one-line caption of how to read it (the report prints it)
+CAPTIONS = {c.name: c.caption for c in CHARTS}
+
+
+def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path) -> list[Path]:
+    """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files."""
+    data = ChartData(rows=rows, gases=gases)
+    charts_dir = Path(out_dir) / "charts"
+    charts_dir.mkdir(parents=True, exist_ok=True)
+    written = []
+    for c in CHARTS:
+        if not c.when(data, study):
+            continue
+        fig = c.draw(data, study)
+        for ext in ("png", "svg"):
+            path = charts_dir / f"{c.name}.{ext}"
+            fig.savefig(path, dpi=130 if ext == "png" else None)
+            written.append(path)
+        plt.close(fig)
+    return written

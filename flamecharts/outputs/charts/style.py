@@ -1,0 +1,81 @@
+"""What every chart shares: colours, markers, figure frame, footer with the cautions, selections of rows."""
+from __future__ import annotations
+
+import matplotlib
+
+matplotlib.use("Agg")
+import matplotlib.pyplot as plt  # noqa: E402
+import numpy as np  # noqa: E402
+from matplotlib.ticker import FuncFormatter  # noqa: E402
+
+from ..._version import __version__  # noqa: E402
+from ...config import resolution_label  # noqa: E402
+
+MARKERS = ("o", "s", "^", "D", "v", "P", "X", "h")
+LINESTYLES = ("-", "--", "-.", ":")
+NOT_BURNING = (("no_flame", "v"), ("failed", "x"))
+CMAP = "viridis"  # perceptually uniform, readable with colour-vision deficiency
+
+
+def curves(rows: list[dict]) -> list[tuple]:
+    keys = []
+    for r in rows:
+        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
+        if k not in keys:
+            keys.append(k)
+    return keys
+
+
+def panels(rows: list[dict]) -> list[tuple[float, float]]:
+    return sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
+
+
+def footer(fig, study) -> None:
+    fig.text(0.01, 0.01,
+             f"{study.title} | mechanism {study.mechanism} | transport {study.transport}"
+             f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
+             f"{resolution_label(study)} | flamecharts {__version__}\n"
+             "Screening estimate, not certification: follow local codes and standards, confirm by test.",
+             fontsize=7, color="0.3", ha="left", va="bottom")
+
+
+def ok_rows(rows):
+    return [r for r in rows if r["status"] == "ok"]
+
+
+def figure(ncols: int, nrows: int = 1, width: float = 5.0, height: float = 4.0):
+    return plt.subplots(nrows, ncols, figsize=(max(width * ncols + 3.5, 11.0), height * nrows + 1.8), squeeze=False,
+                        layout="constrained")
+
+
+def finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str):
+    fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
+    if handles:
+        fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
+                   frameon=False, title=legend_title, title_fontsize=8.5)
+    footer(fig, study)
+    fig.get_layout_engine().set(rect=(0, 0.07, 1, 0.93))
+    return fig
+
+
+def colour_scale(n):
+    return plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(n, 1)))
+
+
+def of(rows, key):
+    return [r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == key]
+
+
+def plain_log_ticks(ax):
+    """Log axes labelled 2, 3, 400 rather than 2x10^0, 3x10^0, 4x10^2."""
+    fmt = FuncFormatter(lambda v, _: f"{v:g}")
+    for axis in (ax.xaxis, ax.yaxis):
+        axis.set_major_formatter(fmt)
+        axis.set_minor_formatter(fmt)
+
+
+def phi_near_one(rows):
+    phis = sorted({r["equivalence_ratio"] for r in rows})
+    return min(phis, key=lambda p: (abs(p - 1.0), p))
+
+

@@ -1,0 +1,79 @@
+"""Text outputs of a run folder: results.csv (and other tables), about.txt; files replaced whole.
+
+write_atomic   a text file a reader never sees half of
+write_csv      a table of rows with given columns (results.csv by default: columns.COLUMNS)
+write_about    about.txt: what produced the results, with the cautions
+"""
+from __future__ import annotations
+
+import csv
+import io
+import os
+import tempfile
+import time
+from pathlib import Path
+
+from .._version import __version__
+from ..chemistry.flame import NUMERICS
+from ..chemistry.mechanism import cantera_version
+from ..columns import COLUMNS
+from ..config import Study, resolution_label
+
+CAUTION = ("Screening estimates from 1D laminar flame computations, not certification: follow local "
+           "codes, the applicable appliance or gas-turbine standards and licensed engineering practice, "
+           "and confirm every margin by test on the real hardware.")
+
+
+def write_atomic(path: Path, text: str) -> None:
+    """Write a text file so a reader never sees half of it."""
+    path.parent.mkdir(parents=True, exist_ok=True)
+    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=path.name + ".")
+    umask = os.umask(0)
+    os.umask(umask)
+    os.chmod(tmp, 0o666 & ~umask)  # like any file the user writes, not mkstemp's 0600
+    try:
+        with os.fdopen(fd, "w", newline="") as fh:
+            fh.write(text)
+        os.replace(tmp, path)
+    except BaseException:
+        os.unlink(tmp)
+        raise
+
+
+def _fmt(v) -> str:
+    if v is None:
+        return ""
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, float):
+        return f"{v:.6g}"
+    return str(v)
+
+
+def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
+    """A CSV of ``rows`` with ``columns`` (results.csv by default: one row per point)."""
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(columns)
+    for r in rows:
+        w.writerow([_fmt(r.get(c)) for c in columns])
+    write_atomic(Path(path), buf.getvalue())
+    return Path(path)
+
+
+def write_about(study: Study, path: Path) -> Path:
+    """about.txt beside the CSV: what produced it, with the cautions."""
+    n = NUMERICS[study.resolution]
+    lines = [
+        f"Study: {study.title}",
+        f"Config: {study.config_path or '(from Python)'}",
+        f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256[:16]})",
+        f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
+        f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
+        f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
+        "",
+        "CAUTION: " + CAUTION,
+        "",
+    ]
+    write_atomic(Path(path), "\n".join(lines))
+    return Path(path)

@@ -1,0 +1,9 @@
+"""Pure functions with cited sources: no Cantera, no I/O, floats or arrays in and out.
+
+mixtures        normalise, blend, stoichiometric oxygen, unburned mixture at phi
+flame_measures  thicknesses and diffusivity of a computed flame profile
+indicators      flashback, blowoff and quenching indicators from S_L and alpha_u
+gasprops        ISO 6976:2016 heating values, relative density, Wobbe index
+fits            power-law fits (Metghalchi & Keck)
+limits          mechanism pressure ranges, flammability limits (range warnings)
+"""

@@ -1,0 +1,72 @@
+"""Range checks from tables: inputs outside what the mechanism or the flammability limits cover.
+
+Warnings are derived from the inputs and the stored results each time rows are read
+(see design.point_warnings), never stored, so a threshold or a table here can change
+without solving a flame again. Each warning is one short sentence; a row's
+``warnings`` column joins them with "; ".
+
+- pressure outside the range a known mechanism states it was optimised for
+  (MECHANISM_RANGES, by file name; nothing for unknown mechanisms).
+- equivalence ratio outside the flammability range in air of every combustible in the
+  fuel (FLAMMABILITY_PHI; 1 atm, room temperature).
+"""
+from __future__ import annotations
+
+from pathlib import Path
+
+
+#: Pressure range [bar] a mechanism states it was optimised for, by file name.
+MECHANISM_RANGES = {
+    "gri30.yaml": (10 * 101325 / 760 / 1e5, 10 * 1.01325,
+                   "GRI-Mech 3.0 is optimised for about 10 Torr to 10 atm (Smith et al., GRI-Mech 3.0 "
+                   "web documentation, 1999)"),
+}
+
+#: Flammability limits in air at 1 atm and room temperature as equivalence ratios
+#: (Coward & Jones, US Bureau of Mines Bulletin 503, 1952: methane 5-15 %, hydrogen
+#: 4-75 % by volume).
+FLAMMABILITY_PHI = {"CH4": (0.5, 1.67), "H2": (0.1, 7.1)}
+#: Species of a fuel stream that do not burn (they only narrow the flammable range).
+INERTS = {"N2", "CO2", "H2O", "AR", "Ar", "HE", "He"}
+#: Oxidizers with at most this O2 mole fraction count as air or leaner than air (air: 0.21).
+AIR_O2_MAX = 0.22
+
+
+def pressure_warning(mechanism: str, pressure_bar: float) -> str:
+    """'' or a warning when a known mechanism is used outside its stated pressure range.
+
+    >>> pressure_warning("gri30.yaml", 20.0)[:40]
+    'pressure 20 bar outside 0.0133-10.1 bar:'
+    >>> pressure_warning("my_mechanism.yaml", 200.0)
+    ''
+    """
+    known = MECHANISM_RANGES.get(Path(mechanism).name)
+    if known is None:
+        return ""
+    lo, hi, source = known
+    if lo <= pressure_bar <= hi:
+        return ""
+    return f"pressure {pressure_bar:g} bar outside {lo:.3g}-{hi:.3g} bar: {source}"
+
+
+def flammability_warning(X_fuel: dict, X_oxidizer: dict, phi: float) -> str:
+    """'' or a warning when phi lies outside the flammability range in air of every
+    combustible of the fuel stream (only for fuels whose combustibles are all in
+    FLAMMABILITY_PHI and for air or leaner oxidizers; inert diluents narrow the range,
+    so a phi outside the pure-fuel range is outside the diluted one too).
+
+    >>> flammability_warning({"CH4": 1.0}, {"O2": 1.0, "N2": 3.76}, 0.4)[:49]
+    'equivalence ratio 0.4 outside the flammable range'
+    >>> flammability_warning({"CH4": 1.0}, {"O2": 1.0, "N2": 3.76}, 0.8)
+    ''
+    """
+    burn = [k for k, v in X_fuel.items() if v > 0 and k not in INERTS]
+    total_ox = sum(X_oxidizer.values()) or 1.0
+    if not burn or any(k not in FLAMMABILITY_PHI for k in burn) or X_oxidizer.get("O2", 0.0) / total_ox > AIR_O2_MAX:
+        return ""
+    lean = min(FLAMMABILITY_PHI[k][0] for k in burn)
+    rich = max(FLAMMABILITY_PHI[k][1] for k in burn)
+    if lean <= phi <= rich:
+        return ""
+    return (f"equivalence ratio {phi:g} outside the flammable range {lean:g}-{rich:g} in air of "
+            f"{', '.join(sorted(burn))} (1 atm, room temperature; Coward & Jones 1952)")

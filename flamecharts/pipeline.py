@@ -1,0 +1,96 @@
+"""One pipeline, the same from Python and the command line: plan, solve, store, read out, write.
+
+run_study   solve every point the store lacks and return the rows (no output files)
+"""
+from __future__ import annotations
+
+import os
+import time
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Callable
+
+from .config import Study, save_config_copy
+from .errors import FlamechartsError
+from .results import point_rows
+from .store import DB_NAME, RunLock, Store
+from .sweep.backends import open_backend
+from .sweep.points import points
+from .sweep.run import Progress, solve_points
+
+
+@dataclass
+class RunSummary:
+    """Outcome of :func:`run_study`."""
+
+    out_dir: Path
+    rows: list[dict]
+    solved: int     # flames solved in this run (any status)
+    reused: int     # points taken from the store
+    failed: int
+    no_flame: int
+    wall_seconds: float
+    failures: list[dict] = field(default_factory=list)
+    solve_seconds: float = 0.0  # summed over the flames solved in this run, as measured by the workers
+    workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
+
+    @property
+    def worker_utilisation(self) -> float | None:
+        """Share of the workers' wall time spent solving flames: solve seconds / (workers x wall seconds)."""
+        if not self.solved or self.wall_seconds <= 0:
+            return None
+        return self.solve_seconds / (self.workers * self.wall_seconds)
+
+
+def default_out_dir(study: Study) -> Path:
+    """output/<config name>/ in the current folder."""
+    return Path("output") / study.name
+
+
+def _out_folder(study: Study, out_dir) -> Path:
+    out = Path(out_dir) if out_dir is not None else default_out_dir(study)
+    try:
+        out.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise FlamechartsError(f"output folder {out} cannot be created: {exc.strerror}") from None
+    return out
+
+
+def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
+                progress: Callable[[Progress], None] | None = None, cluster: str | None = None,
+                stop_after: int | None = None) -> RunSummary:
+    """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
+
+    ``cluster`` (a Dask scheduler address or 'local:N', default the study's own) solves
+    on Dask workers instead of ``jobs`` local processes. ``stop_after`` hands out at most
+    that many new points (tests simulate an interruption with it). Raises
+    :class:`~flamecharts.sweep.run.RunInterrupted` after Ctrl-C, once the finished
+    flames are stored.
+    """
+    t0 = time.perf_counter()
+    cluster = study.cluster if cluster is None else cluster
+    pts = points(study)
+    with open_backend(jobs, cluster) as backend:  # an unreachable cluster leaves no folder behind
+        out = _out_folder(study, out_dir)
+        with RunLock(out), Store(out / DB_NAME) as store:
+            save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
+            done = solve_points(study, store, pts, backend, progress, stop_after, t0)
+            stored = store.rows([p.key for p in pts])
+        workers = max(1, backend.workers())
+    rows = point_rows(study, pts, stored)
+    return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
+                      failed=sum(1 for r in rows if r["status"] == "failed"),
+                      no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
+                      wall_seconds=time.perf_counter() - t0,
+                      failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
+                      solve_seconds=done.solve_seconds, workers=workers)
+
+
+def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
+              progress: Callable[[Progress], None] | None = None, cluster: str | None = None) -> RunSummary:
+    """Solve and store every missing point of ``study``; return the rows. Writes no output files.
+
+    Kept for one release beside :func:`flamecharts.run`, which also writes results.csv,
+    results.nc, the charts and the report.
+    """
+    return solve_study(study, out_dir, jobs, progress, cluster)

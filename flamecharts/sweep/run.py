@@ -1,0 +1,239 @@
+"""The run loop: solve every point of a study that the store lacks, commit each as it finishes.
+
+The loop walks the warm-start tree (warm_tree.py) with the shared :class:`Scheduler`:
+a point is handed to the backend once the flame it warm-starts from has finished,
+with that flame's profile in the task. Each task is one flame, so every finished
+flame comes back, and is committed, at once. Workers return plain data; only this
+process writes the store.
+
+The tree spans every point of the study, stored ones included, so a resumed run starts
+each point from the same neighbour as an uninterrupted one (its stored profile) and
+gives the same flames. A worker that dies costs its point up to MAX_RETRIES retries;
+then the point is recorded as failed (reason: worker error) and solved again by the
+next run. Ctrl-C: the first stops handing out work and lets running flames finish and
+be stored (then :class:`RunInterrupted`), a second stops at once.
+"""
+from __future__ import annotations
+
+import signal
+import threading
+import time
+import uuid
+from concurrent.futures import FIRST_COMPLETED, BrokenExecutor, wait
+from dataclasses import dataclass
+from typing import Callable
+
+from ..errors import FlamechartsError, first_line
+from ..store import Store
+from .points import Point
+from .schedule import Scheduler
+from .warm_tree import StoredFlame, WarmPlan, warm_tree
+from .worker import make_task, solve_task
+
+#: A worker that dies (killed, out of memory) costs its point this many retries.
+MAX_RETRIES = 2
+
+
+@dataclass
+class Progress:
+    """What a progress callback receives after every finished point."""
+
+    done: int
+    total: int
+    failed: int
+    no_flame: int
+    reused: int
+    elapsed_s: float
+    last: dict | None = None
+    stopping: bool = False  # a first Ctrl-C arrived: no new work, running flames finish
+
+
+class RunInterrupted(KeyboardInterrupt):
+    """The run was stopped by Ctrl-C (SIGINT); every flame that finished is stored.
+
+    ``solved`` flames were committed by this run, ``remaining`` points of the study are
+    still unsolved; ``at_once`` is True when a second Ctrl-C abandoned running flames.
+    """
+
+    def __init__(self, solved: int = 0, remaining: int = 0, at_once: bool = False):
+        super().__init__("interrupted")
+        self.solved, self.remaining, self.at_once = solved, remaining, at_once
+
+
+@dataclass
+class SolveOutcome:
+    """What one pass of the run loop did."""
+
+    solved: int = 0          # flames solved in this run (any status)
+    reused: int = 0          # points taken from the store
+    failed: int = 0          # of the solved ones
+    no_flame: int = 0        # of the solved ones
+    solve_seconds: float = 0.0
+
+
+def unique_points(pts: list[Point]) -> list[Point]:
+    """One point per distinct key, in study order: two points of a study may be the same flame."""
+    return list({p.key: p for p in pts}.values())
+
+
+def warm_plan(store: Store, unique: list[Point]) -> WarmPlan:
+    """The warm-start tree of a study's distinct points against its store.
+
+    The tree spans ALL points of the study, stored ones included, and takes as extra
+    sources only stored flames of other studies: a resumed run then starts every point
+    from the same neighbour's profile as an uninterrupted run would (read from the store
+    when that neighbour is stored), so it gives the same answers.
+    """
+    own = {p.key for p in unique}
+    sources = [StoredFlame(**s) for s in store.warm_sources({p.family for p in unique}) if s["key"] not in own]
+    return warm_tree(unique, sources)
+
+
+class _CtrlC:
+    """First Ctrl-C: ``requested`` (hand out nothing new); second: RunInterrupted at once.
+    Installed only in the main thread (a signal handler cannot be set elsewhere)."""
+
+    def __init__(self, count_solved: Callable[[], tuple[int, int]]):
+        self.requested = False
+        self._counts = count_solved
+        self._old = None
+        self._installed = False
+
+    def _on_sigint(self, signum, frame) -> None:
+        if self.requested:
+            raise RunInterrupted(*self._counts(), at_once=True)
+        self.requested = True
+
+    def __enter__(self) -> "_CtrlC":
+        if threading.current_thread() is threading.main_thread():
+            self._old = signal.signal(signal.SIGINT, self._on_sigint)
+            self._installed = True
+        return self
+
+    def __exit__(self, *exc) -> None:
+        if self._installed:
+            signal.signal(signal.SIGINT, self._old if self._old is not None else signal.SIG_DFL)
+
+
+def _worker_error(exc: BaseException) -> dict:
+    return {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
+            "message": f"worker error: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}
+
+
+class _Loop:
+    """State of one pass: the scheduler, the flames finished in it, the executor."""
+
+    def __init__(self, study, store: Store, unique: list[Point], todo: list[Point], backend, run_id: str):
+        self.study, self.store, self.backend, self.run_id = study, store, backend, run_id
+        self.tree = warm_plan(store, unique)
+        self.by_index = {p.index: p for p in unique}
+        self.sched = Scheduler(self.tree, [p.index for p in todo])
+        self.finished: dict[int, dict] = {}
+        self.retries: dict[int, int] = {}
+        self.in_flight: dict = {}
+        self.executor = backend.executor(study)
+
+    def warm_for(self, p: Point) -> dict | None:
+        """Profile of the nearest burning flame up the point's warm-start path, finished
+        in this run or stored by an earlier one (a failed flame passes its own source
+        on), else of the stored flame of another study the path starts from (None:
+        solve fresh)."""
+        parent, cur = self.tree.parent, p.index
+        while parent[cur] is not None:
+            cur = parent[cur]
+            prof = (self.finished[cur].get("profile") if cur in self.finished
+                    else self.store.profile(self.by_index[cur].key))
+            if prof is not None:
+                return prof
+        return self.store.profile(self.tree.stored[cur]) if cur in self.tree.stored else None
+
+    def submit(self, i: int) -> None:
+        p = self.by_index[i]
+        task = make_task(self.study, p, self.warm_for(p))
+        try:
+            fut = self.executor.submit(solve_task, task)
+        except BrokenExecutor:  # a worker died since the last wait: the pool must be renewed first
+            self.executor = self.backend.renew(self.study)
+            fut = self.executor.submit(solve_task, task)
+        self.in_flight[fut] = p
+
+    def result_of(self, fut, p: Point) -> dict | None:
+        """The finished flame, or None when the point goes back to the queue (worker died)."""
+        try:
+            return fut.result()
+        except FlamechartsError:
+            raise  # a worker refused the task (other versions): stop the run
+        except Exception as exc:  # the worker died or the task raised: retry, then record
+            self.retries[p.index] = self.retries.get(p.index, 0) + 1
+            if self.retries[p.index] <= MAX_RETRIES:
+                self.sched.push(p.index)
+                self.executor = self.backend.renew(self.study)
+                return None
+            return _worker_error(exc)
+
+
+def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
+                 stop_after: int | None = None, t0: float | None = None) -> SolveOutcome:
+    """Solve the points of ``pts`` that ``store`` lacks on ``backend``; commit each as it finishes.
+
+    ``stop_after`` hands out at most that many new points (tests simulate an
+    interruption with it). Raises :class:`RunInterrupted` after Ctrl-C, once the
+    finished flames are stored.
+    """
+    t0 = time.perf_counter() if t0 is None else t0
+    # points are solved again only when a worker died on them (a transient failure)
+    done_keys = {k for k, r in store.rows().items()
+                 if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
+    unique = unique_points(pts)
+    todo = [p for p in unique if p.key not in done_keys]
+    out = SolveOutcome(reused=len(pts) - sum(1 for p in pts if p.key not in done_keys))
+    loop = _Loop(study, store, unique, todo, backend, uuid.uuid4().hex[:12])
+    limit = stop_after if stop_after is not None else len(todo)
+    submitted = 0
+    ctrl_c = _CtrlC(lambda: (out.solved, loop.sched.remaining))
+
+    def report(last=None) -> None:
+        if progress is not None:
+            progress(Progress(done=out.solved, total=len(todo), failed=out.failed, no_flame=out.no_flame,
+                              reused=out.reused, elapsed_s=time.perf_counter() - t0, last=last,
+                              stopping=ctrl_c.requested))
+
+    report()
+    clean_exit, told = False, False
+    with ctrl_c:
+        try:
+            while loop.sched.has_ready() or loop.in_flight:
+                while (loop.sched.has_ready() and len(loop.in_flight) < backend.slots and submitted < limit
+                       and not ctrl_c.requested):
+                    loop.submit(loop.sched.pop())
+                    submitted += 1
+                if ctrl_c.requested and not told:
+                    told = True
+                    report()
+                if not loop.in_flight:
+                    break
+                done, _ = wait(list(loop.in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
+                for fut in done:
+                    p = loop.in_flight.pop(fut)
+                    result = loop.result_of(fut, p)
+                    if result is None:
+                        submitted -= 1
+                        continue
+                    result["inputs"] = p.inputs
+                    store.commit_point(p, result, loop.run_id)
+                    loop.finished[p.index] = result
+                    loop.sched.finished(p.index)
+                    out.solved += 1
+                    out.solve_seconds += result["solve_seconds"]
+                    out.failed += result["status"] == "failed"
+                    out.no_flame += result["status"] == "no_flame"
+                    report({"point": p, "status": result["status"], "message": result["message"],
+                            "start": result["start"], "solve_seconds": result["solve_seconds"],
+                            "cpu_seconds": result.get("cpu_seconds", 0.0)})
+            clean_exit = not ctrl_c.requested
+        finally:
+            if not clean_exit:
+                loop.executor.shutdown(wait=False, kill_workers=True)
+    if ctrl_c.requested:
+        raise RunInterrupted(out.solved, loop.sched.remaining)
+    return out

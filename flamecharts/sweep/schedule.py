@@ -1,0 +1,109 @@
+"""The order in which a warm-start plan is solved, shared by the run and its time estimate.
+
+A point is ready once the flame it warm-starts from has finished; among the ready
+points the one with the longest warm-start path below it goes first (it keeps every
+worker busy to the end). :class:`Scheduler` holds that rule; the run loop
+(run.py) and :func:`estimate_run_seconds` both drive it, so the estimate simulates
+exactly what a run does.
+"""
+from __future__ import annotations
+
+import heapq
+from typing import Iterable
+
+from .warm_tree import WarmPlan
+
+
+class Scheduler:
+    """Ready points of a warm-start plan, longest path below first.
+
+    ``todo`` are the point indices still to solve; a point whose source is not in
+    ``todo`` (a root, or one whose source is already stored) is ready at once.
+
+    >>> p = WarmPlan(parent={0: None, 1: 0, 2: 0}, stored={}, roots=[0],
+    ...              height={0: 2, 1: 1, 2: 1}, distance={})
+    >>> s = Scheduler(p, [0, 1, 2]); s.pop(), s.pop()
+    (0, None)
+    >>> s.finished(0); s.pop(), s.pop(), s.remaining
+    (1, 2, 2)
+    """
+
+    def __init__(self, plan: WarmPlan, todo: Iterable[int]):
+        self._height = plan.height
+        self._pending = set(todo)
+        self._children: dict[int, list[int]] = {}
+        self._ready: list[tuple[int, int]] = []
+        for i in sorted(self._pending):
+            par = plan.parent[i]
+            if par is None or par not in self._pending:
+                self.push(i)
+            else:
+                self._children.setdefault(par, []).append(i)
+
+    def push(self, i: int) -> None:
+        """Make point ``i`` ready (again, after a worker died on it)."""
+        heapq.heappush(self._ready, (-self._height[i], i))
+
+    def pop(self) -> int | None:
+        """The next ready point (None: none is ready now)."""
+        return heapq.heappop(self._ready)[1] if self._ready else None
+
+    def has_ready(self) -> bool:
+        return bool(self._ready)
+
+    def finished(self, i: int) -> None:
+        """Point ``i`` is solved (any status): the points that start from it become ready."""
+        self._pending.discard(i)
+        for c in self._children.get(i, []):
+            self.push(c)
+
+    @property
+    def remaining(self) -> int:
+        """Points not finished yet (ready, waiting or in flight)."""
+        return len(self._pending)
+
+
+#: Default seconds per flame on one core, per (mechanism species + 4)^2, when the store
+#: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
+#: (variables per point) x (residual cost per point ~ variables). Measured on the
+#: project's 2-core machine (tests/benchmarks/sweep_speed.py, docs/benchmarks.md): GRI-Mech 3.0
+#: (53 species) 17-22 s from scratch and a mean 5.4 s warm; h2o2 (10 species) 0.4-0.7 s
+#: and a mean 0.25 s. The warm figure sits between the two (GRI-Mech 4.9 s, h2o2 0.29 s).
+SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 1.5e-3}
+
+#: Worker start-up and mechanism parsing per run [s] (measured, docs/benchmarks.md).
+START_UP_SECONDS = 2.0
+
+
+def default_flame_seconds(n_species: int) -> dict[str, float]:
+    """Seconds per flame solved fresh and warm on one core, from the mechanism size.
+
+    >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
+    {'fresh': 19.5, 'warm': 4.9}
+    """
+    nv2 = (n_species + 4) ** 2
+    return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
+
+
+def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float) -> float:
+    """Wall time [s] of running ``plan`` on ``jobs`` workers, roots taking ``fresh_s`` and
+    the other points ``warm_s``: a list-scheduling simulation with the run's own
+    :class:`Scheduler`, plus START_UP_SECONDS.
+
+    >>> p = WarmPlan(parent={0: None, 1: 0, 2: 0, 3: 1}, stored={}, roots=[0],
+    ...              height={0: 3, 1: 2, 2: 1, 3: 1}, distance={})
+    >>> estimate_run_seconds(p, 2, 10.0, 2.0) - START_UP_SECONDS
+    14.0
+    """
+    sched = Scheduler(plan, plan.parent)
+    slots = max(1, jobs)
+    running: list[tuple[float, int]] = []  # (finish time, point)
+    now = 0.0
+    while sched.has_ready() or running:
+        while sched.has_ready() and len(running) < slots:
+            i = sched.pop()
+            cost = fresh_s if (plan.parent[i] is None and i not in plan.stored) else warm_s
+            heapq.heappush(running, (now + cost, i))
+        now, i = heapq.heappop(running)
+        sched.finished(i)
+    return now + START_UP_SECONDS

@@ -1,0 +1,63 @@
+"""The worker task: one flame, from plain data to plain data.
+
+The same function runs in this process (``jobs=1``), in a loky worker process and on
+a Dask worker, so a flame's answer never depends on where it was solved. The code a
+worker runs is fingerprinted (:func:`code_fingerprint`): a cluster refuses workers
+whose solver code differs from this process's, and only that code counts, so an edit
+to the run loop, a chart or the CLI leaves cluster workers compatible.
+"""
+from __future__ import annotations
+
+import hashlib
+import os
+import signal
+import threading
+import time
+from pathlib import Path
+
+from ..chemistry.flame import NUMERICS, solve_flame
+from ..chemistry.mechanism import solution
+
+#: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
+WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "physics/flame_measures.py", "sweep/worker.py")
+
+
+def code_fingerprint() -> str:
+    """12 hex digits of the sha256 of the worker's code (:data:`WORKER_CODE`)."""
+    root = Path(__file__).resolve().parent.parent
+    code = hashlib.sha256()
+    for name in WORKER_CODE:
+        code.update((root / name).read_bytes())
+    return code.hexdigest()[:12]
+
+
+def quiet_worker() -> None:
+    """Keep Cantera's C++ log output and warnings away from the user's terminal, and
+    leave Ctrl-C to the parent: a terminal sends SIGINT to the whole process group, and
+    the parent decides whether running flames finish (first Ctrl-C) or are abandoned.
+    A Dask worker runs tasks in a thread, where signals cannot be set (and its nanny
+    process handles them); there only the log is silenced."""
+    if threading.current_thread() is threading.main_thread():
+        signal.signal(signal.SIGINT, signal.SIG_IGN)
+    devnull = os.open(os.devnull, os.O_WRONLY)
+    os.dup2(devnull, 1)
+    os.close(devnull)
+
+
+def make_task(study, point, warm: dict | None) -> dict:
+    """The plain task of one point: what :func:`solve_task` needs, nothing else."""
+    return {"key": point.key, "mechanism_path": study.mechanism_path,
+            "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
+            "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
+            "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm}
+
+
+def solve_task(task: dict) -> dict:
+    """Solve one point from a plain task dict; returns a plain result dict (runs in a worker)."""
+    cpu0 = time.process_time()
+    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
+    result = solve_flame(gas, task["T_u"], task["P"], task["X"], task["transport"],
+                         task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"))
+    result["key"] = task["key"]
+    result["cpu_seconds"] = time.process_time() - cpu0
+    return result
