@@ -7,6 +7,11 @@ designers read them, every other quantity is SI.
 """
 from __future__ import annotations
 
+#: The caution every output carries (README, report, charts, about.txt, results.nc).
+CAUTION = ("Screening estimates from 1D laminar flame computations, not certification: follow local "
+           "codes, the applicable appliance or gas-turbine standards and licensed engineering practice, "
+           "and confirm every margin by test on the real hardware.")
+
 #: The sweep axes, in the order of the study's cartesian product (outermost first)
 #: and of the dimensions of results.nc.
 AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K", "equivalence_ratio")

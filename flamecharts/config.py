@@ -11,7 +11,7 @@ mechanism                 any file Cantera can load; default "gri30.yaml" (ships
                           A relative path is looked up beside the config, then in Cantera's data folders.
 transport                 "mixture-averaged" (default), "multicomponent" or "unity-Lewis-number"
 thermal_diffusion         bool, Soret effect; default false
-resolution                "standard" (default, meets the accuracy in DEVELOPERS.md), "fine", or
+resolution                "standard" (default, meets the accuracy in docs/benchmarks.md), "fine", or
                           "coarse" (faster, less accurate; labelled in every output)
 max_points                guard against runaway sweeps; default 10000
 cluster                   "tcp://HOST:PORT" of a running Dask scheduler, or "local:N" (N local Dask

@@ -8,7 +8,6 @@ annotate                  adds indicator, ratio, gas-property and burner-margin 
 point_warnings            inputs outside the range the method or the mechanism covers
 margin_summary            smallest burner margins per fuel gas and condition
 first_flashback_fraction  first blend fraction whose flashback margin falls below the minimum
-exponent_table            pressure and temperature exponents of the flame speed (Metghalchi & Keck)
 """
 from __future__ import annotations
 
@@ -21,7 +20,6 @@ from .config import fuel_stream
 from .errors import ConfigError
 from .physics import indicators as ind
 from .physics import mixtures
-from .physics.fits import fit_power_law
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
 from .physics.limits import flammability_warning, pressure_warning
 
@@ -231,25 +229,3 @@ def point_warnings(study, point, row: dict) -> str:
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row)]
     return "; ".join(w for w in out if w)
-
-
-def exponent_table(rows: list[dict]) -> list[dict]:
-    """Pressure exponent beta (at each T) and temperature exponent alpha (at each p) of the
-    flame speed, per fuel, oxidizer, blend fraction and equivalence ratio."""
-    ok = [r for r in rows if r["status"] == "ok"]
-    out = []
-    for along, fixed, name in (("pressure_bar", "unburned_temperature_K", "pressure_exponent_beta"),
-                               ("unburned_temperature_K", "pressure_bar", "temperature_exponent_alpha")):
-        groups: dict[tuple, list[dict]] = {}
-        for r in ok:
-            groups.setdefault((r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"],
-                               r["equivalence_ratio"], r[fixed]), []).append(r)
-        for key, rs in groups.items():
-            if len({r[along] for r in rs}) < 2:
-                continue
-            b, a = fit_power_law([r[along] for r in rs], [r["laminar_flame_speed_m_s"] for r in rs])
-            out.append({"fuel": key[0], "oxidizer": key[1], "blend_with": key[2], "blend_fraction": key[3],
-                        "equivalence_ratio": key[4], "exponent": name, "value": b, "held_fixed": fixed,
-                        "held_value": key[5], "range_low": min(r[along] for r in rs),
-                        "range_high": max(r[along] for r in rs), "points": len(rs)})
-    return out

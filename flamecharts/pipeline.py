@@ -1,6 +1,9 @@
 """One pipeline, the same from Python and the command line: plan, solve, store, read out, write.
 
-run_study   solve every point the store lacks and return the rows (no output files)
+run            solve every missing point, store it, write every output file -> Results
+open_results   the Results of a finished run folder, read from its store alone
+solve_study    solve and store only (no output files) -> RunSummary
+run_study      the same as solve_study, kept for one release
 """
 from __future__ import annotations
 
@@ -10,9 +13,10 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Callable
 
-from .config import Study, save_config_copy
+from .config import Study, load_study, save_config_copy
 from .errors import FlamechartsError
-from .results import point_rows
+from .outputs import write_outputs
+from .results import Results, point_rows, rows_from_dir
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.points import points
@@ -90,7 +94,40 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
               progress: Callable[[Progress], None] | None = None, cluster: str | None = None) -> RunSummary:
     """Solve and store every missing point of ``study``; return the rows. Writes no output files.
 
-    Kept for one release beside :func:`flamecharts.run`, which also writes results.csv,
-    results.nc, the charts and the report.
+    Kept for one release: use :func:`run`, which also writes results.csv, results.nc,
+    the charts and the report, and returns :class:`Results`.
     """
     return solve_study(study, out_dir, jobs, progress, cluster)
+
+
+def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None = None, jobs: int | None = None,
+        cluster: str | None = None, progress: Callable[[Progress], None] | None = None,
+        charts: bool = True, report: bool = True) -> Results:
+    """Solve every point of a study the store lacks, store each flame, write every output file.
+
+    Parameters
+    ----------
+    study_or_path : a :class:`Study` or the path of a study config (TOML)
+    out : output folder; default ``output/<config name>/`` in the current folder (give it
+        explicitly from a notebook, or the run goes where the notebook runs)
+    jobs : local worker processes; None or 0 = all cores, negative = all but |jobs|-1
+    cluster : 'tcp://HOST:PORT' of a Dask scheduler or 'local:N'; default the study's
+        ``cluster`` key, else local processes
+    progress : called after each finished flame with a :class:`~flamecharts.sweep.run.Progress`
+    charts, report : draw the charts, write report.html (the report needs the charts)
+
+    Returns
+    -------
+    Results: ``.dataset`` (xarray), ``.to_dataframe()`` (pandas), ``.summary``, ``.files``.
+    The command ``flamecharts run`` calls exactly this.
+    """
+    study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
+    summary = solve_study(study, out, jobs, progress, cluster)
+    files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report)
+    return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary)
+
+
+def open_results(out_dir: str | os.PathLike) -> Results:
+    """The results of a finished run folder, read from its store and study copy alone (nothing is solved)."""
+    study, rows = rows_from_dir(Path(out_dir))
+    return Results(study=study, rows=rows, out_dir=Path(out_dir))

@@ -3,16 +3,34 @@
 flat_row      a point's stored flame -> its row (columns.COLUMNS, units in the names)
 point_rows    every point of a study, in study order, annotated (indicators, gas, burner, warnings)
 rows_from_dir the study of a finished run folder and its rows, read from the store alone
+to_dataset    the rows as a labelled N-dimensional table (xarray) over the sweep axes
+exponent_table pressure and temperature exponents of the flame speed, fitted along the table's axes
+Results       what a run gives back: rows, dataset, pandas frame, summary, output files
+
+The sweep is a cartesian product, so its results are an array over the six axes of
+columns.AXES (fuel, oxidizer, blend fraction, pressure, preheat, equivalence ratio):
+every quantity is a variable over them with ``units`` and ``long_name`` attributes;
+failed and no-flame points are NaN, with their status and reason beside them.
 """
 from __future__ import annotations
 
+import itertools
 import json
+from dataclasses import dataclass, field
+from functools import cached_property
 from pathlib import Path
 
-from .columns import FROM_METRICS
+import numpy as np
+import pandas as pd
+import xarray as xr
+
+from ._version import __version__
+from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
 from .config import Study, load_config_copy, resolution_label
 from .design import annotate, point_warnings
 from .errors import StoreError
+from .outcome import Reason, Status
+from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
 from .sweep.points import Point, points
 
@@ -23,7 +41,8 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
         "fuel": p.fuel, "oxidizer": p.oxidizer, "blend_with": p.blend_with or "",
         "blend_fraction": p.blend_fraction, "equivalence_ratio": p.phi,
         "pressure_bar": p.pressure_bar, "unburned_temperature_K": p.T_u,
-        "status": stored["status"] if stored else "pending",
+        "status": Status(stored["status"]) if stored else Status.PENDING,
+        "reason": Reason(stored["reason"]) if stored else Reason.NONE,
         "solve_seconds": round(stored["solve_seconds"], 3) if stored else None,
         "mechanism": study.mechanism, "transport": study.transport,
         "thermal_diffusion": study.thermal_diffusion, "resolution": resolution_label(study),
@@ -61,3 +80,126 @@ def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
                          "mechanism file or the Cantera version changed since the run; rerun the study "
                          "(flamecharts run CONFIG --out DIR) to solve it with what is installed now")
     return study, point_rows(study, pts, stored)
+
+
+#: Variables of the dataset beyond results.csv's columns.
+DATASET_EXTRA = ("reason",)
+
+#: Columns that hold one value for the whole study: global attributes of the dataset.
+STUDY_WIDE = ("blend_with", "mechanism", "transport", "thermal_diffusion", "resolution")
+
+
+def _is_text(col: str) -> bool:
+    return UNITS[col][0] == ""
+
+
+def _axis_values(study: Study) -> dict[str, list]:
+    return {"fuel": list(study.sweep_fuels), "oxidizer": list(study.sweep_oxidizers),
+            "blend_fraction": list(study.blend_fractions), "pressure_bar": list(study.pressures_bar),
+            "unburned_temperature_K": list(study.unburned_temperatures_K),
+            "equivalence_ratio": list(study.equivalence_ratios)}
+
+
+def _text(v) -> str:
+    if v is None:
+        return ""
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    return str(v)
+
+
+def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
+    """The rows of a study (in study order, see point_rows) as an xarray Dataset over columns.AXES.
+
+    Numbers are float64 with NaN where a point has no value; text and flags are strings
+    ("" where empty, "true"/"false" for flags, as in results.csv). Columns with one value
+    for the whole study (STUDY_WIDE) are global attributes.
+    """
+    coords = _axis_values(study)
+    shape = tuple(len(coords[a]) for a in AXES)
+    n = int(np.prod(shape))
+    if len(rows) != n:
+        raise ValueError(f"{len(rows)} rows for a sweep of {n} points")
+    data_vars = {}
+    for col in COLUMNS + DATASET_EXTRA:
+        if col in AXES or col in STUDY_WIDE:
+            continue
+        values = [r.get(col) for r in rows]
+        if _is_text(col):
+            arr = np.array([_text(v) for v in values], dtype=str)
+        else:
+            arr = np.array([np.nan if v is None else float(v) for v in values], dtype=float)
+        unit, long_name = UNITS[col]
+        data_vars[col] = (AXES, arr.reshape(shape), {"units": unit, "long_name": long_name} if unit
+                          else {"long_name": long_name})
+    ds = xr.Dataset(data_vars, coords={a: (a, np.array(coords[a], dtype=str if a in ("fuel", "oxidizer") else float))
+                                       for a in AXES})
+    for a in AXES:
+        unit, long_name = UNITS[a]
+        ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
+    first = rows[0] if rows else {}
+    ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
+                     **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
+    return ds
+
+
+#: (axis fitted along, axis held fixed, name of the exponent) of power_law_exponents.csv
+EXPONENTS = (("pressure_bar", "unburned_temperature_K", "pressure_exponent_beta"),
+             ("unburned_temperature_K", "pressure_bar", "temperature_exponent_alpha"))
+
+
+def exponent_table(ds: xr.Dataset) -> list[dict]:
+    """Pressure exponent beta (at each T_u) and temperature exponent alpha (at each p) of the
+    flame speed, S_L ~ p^beta and S_L ~ T_u^alpha (Metghalchi & Keck, Combust. Flame 48
+    (1982) 191, fitted one variable at a time by :func:`~flamecharts.physics.fits.fit_power_law`),
+    per fuel, oxidizer, blend fraction and equivalence ratio, wherever at least two values
+    of the axis burn. One row per fit, in the order of the table's axes."""
+    S = ds["laminar_flame_speed_m_s"]
+    out = []
+    for along, fixed, name in EXPONENTS:
+        others = ("fuel", "oxidizer", "blend_fraction", fixed, "equivalence_ratio")
+        table = S.transpose(*others, along)
+        x = np.asarray(S[along].values, dtype=float)
+        for key, y in zip(itertools.product(*(table[d].values for d in others)), table.values.reshape(-1, len(x))):
+            burning = np.isfinite(y)
+            if len(set(x[burning])) < 2:
+                continue
+            b, _ = fit_power_law(x[burning], y[burning])
+            out.append({"fuel": str(key[0]), "oxidizer": str(key[1]), "blend_with": ds.attrs.get("blend_with", ""),
+                        "blend_fraction": float(key[2]), "equivalence_ratio": float(key[4]), "exponent": name,
+                        "value": b, "held_fixed": fixed, "held_value": float(key[3]),
+                        "range_low": float(x[burning].min()), "range_high": float(x[burning].max()),
+                        "points": int(burning.sum())})
+    return out
+
+
+@dataclass
+class Results:
+    """The results of a study: one row per point, as an xarray Dataset or a pandas DataFrame.
+
+    ``summary`` is the :class:`~flamecharts.pipeline.RunSummary` of the run that gave them
+    (None when read from a folder with :func:`flamecharts.open_results`); ``files`` are
+    the output files written, results.csv first.
+    """
+
+    study: Study
+    rows: list[dict]
+    out_dir: Path
+    files: list[Path] = field(default_factory=list)
+    summary: object | None = None
+
+    @cached_property
+    def dataset(self) -> xr.Dataset:
+        """Every quantity over the sweep axes (see :func:`to_dataset`)."""
+        return to_dataset(self.study, self.rows)
+
+    def to_dataframe(self):
+        """A pandas DataFrame with results.csv's columns, one row per point, in study order."""
+        return pd.DataFrame([[r.get(c) for c in COLUMNS] for r in self.rows], columns=list(COLUMNS))
+
+    def counts(self) -> dict[str, int]:
+        """Points by status: ok, no_flame, failed, pending."""
+        out = {"ok": 0, "no_flame": 0, "failed": 0, "pending": 0}
+        for r in self.rows:
+            out[r["status"]] = out.get(r["status"], 0) + 1
+        return out

@@ -5,7 +5,8 @@ import pytest
 from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
 from flamecharts.outputs.charts import CAPTIONS, draw_all
-from flamecharts.design import exponent_table
+from flamecharts.results import exponent_table
+import xarray as xr
 from flamecharts.physics.fits import fit_power_law
 
 from conftest import write_h2_study
@@ -65,11 +66,14 @@ def test_power_law_fit_reproduces_known_exponents():
     rng_p = np.array([1.0, 2.0, 5.0, 10.0])
     b, a = fit_power_law(rng_p, 0.4 * rng_p ** -0.45)
     assert b == pytest.approx(-0.45, abs=1e-12) and a == pytest.approx(0.4, rel=1e-12)
-    rows = [{"status": "ok", "fuel": "f", "oxidizer": "air", "blend_with": "", "blend_fraction": 0.0,
-             "equivalence_ratio": 1.0, "pressure_bar": p, "unburned_temperature_K": T,
-             "laminar_flame_speed_m_s": 0.4 * p ** -0.45 * (T / 300) ** 1.8}
-            for p in (1.0, 4.0) for T in (300.0, 450.0, 600.0)]
-    table = exponent_table(rows)
+    P, T = np.array([1.0, 4.0]), np.array([300.0, 450.0, 600.0])
+    S = 0.4 * P[:, None] ** -0.45 * (T[None, :] / 300) ** 1.8
+    ds = xr.Dataset({"laminar_flame_speed_m_s": (("fuel", "oxidizer", "blend_fraction", "pressure_bar",
+                                                  "unburned_temperature_K", "equivalence_ratio"),
+                                                 S[None, None, None, :, :, None])},
+                    coords={"fuel": ["f"], "oxidizer": ["air"], "blend_fraction": [0.0], "pressure_bar": P,
+                            "unburned_temperature_K": T, "equivalence_ratio": [1.0]})
+    table = exponent_table(ds)
     betas = [t["value"] for t in table if t["exponent"] == "pressure_exponent_beta"]
     alphas = [t["value"] for t in table if t["exponent"] == "temperature_exponent_alpha"]
     assert betas == pytest.approx([-0.45] * 3) and alphas == pytest.approx([1.8] * 2)

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import os
 import random
+import json
 import shutil
 import socket
 import sqlite3
@@ -285,14 +286,30 @@ V1_ROW = ("k1", "fam", "{}", 1.0, 1.0, 300.0, "ok", "", "fresh", '{"laminar_flam
           1.0e9, "run1", None)
 
 
-def hand_made_v1_store(path: Path) -> None:
-    """A version-1 store written by hand, as an older flamecharts would have left it."""
+def hand_made_v1_store(path: Path, rows=(V1_ROW,)) -> None:
+    """A version-1 store written by hand, as flamecharts 0.1 (schema 1) left it: its SQL
+    is written out here, not taken from the package, so it stays what version 1 was."""
     con = sqlite3.connect(path)
-    con.executescript(store_module._SCHEMA)
-    con.execute("INSERT INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)", V1_ROW)
+    con.executescript("""
+        CREATE TABLE meta (name TEXT PRIMARY KEY, value TEXT NOT NULL);
+        CREATE TABLE points (key TEXT PRIMARY KEY, family TEXT NOT NULL, inputs TEXT NOT NULL,
+            phi REAL NOT NULL, pressure_bar REAL NOT NULL, unburned_temperature_K REAL NOT NULL,
+            status TEXT NOT NULL, message TEXT NOT NULL, start TEXT NOT NULL, metrics TEXT,
+            solve_seconds REAL NOT NULL, finished_at REAL NOT NULL, run_id TEXT NOT NULL, profile BLOB);
+        CREATE INDEX points_family ON points (family);""")
+    con.executemany("INSERT INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)", rows)
     con.execute("PRAGMA user_version = 1")
     con.commit()
     con.close()
+
+
+def hand_made_current_store(path: Path) -> None:
+    """A store of the current schema version holding one flame (V1_ROW), migrated from version 1."""
+    hand_made_v1_store(path)
+    with Store(path):
+        pass
+    for old in path.parent.glob("results.db.v1-*.bak"):
+        old.unlink()
 
 
 def test_a_new_store_records_its_schema_version(tmp_path):
@@ -307,24 +324,51 @@ def test_an_older_store_is_migrated_in_a_transaction_after_a_backup(tmp_path, mo
         db.execute("CREATE TABLE notes (key TEXT, note TEXT)")
         db.execute("INSERT INTO notes SELECT key, 'migrated' FROM points")
 
-    monkeypatch.setattr(store_module, "SCHEMA_VERSION", 2)
-    monkeypatch.setitem(store_module.MIGRATIONS, 1, to_v2)
     db = tmp_path / DB_NAME
-    hand_made_v1_store(db)
+    hand_made_current_store(db)
+    now, nxt = SCHEMA_VERSION, SCHEMA_VERSION + 1
+    monkeypatch.setattr(store_module, "SCHEMA_VERSION", nxt)
+    monkeypatch.setitem(store_module.MIGRATIONS, now, to_v2)
     with Store(db) as st:
-        assert st.migrated_from == 1
+        assert st.migrated_from == now
         backup = st.backup_path
-        assert st.db.execute("PRAGMA user_version").fetchone()[0] == 2
+        assert st.db.execute("PRAGMA user_version").fetchone()[0] == nxt
         assert st.db.execute("SELECT note FROM notes").fetchall() == [("migrated",)]
         assert set(st.keys()) == {"k1"}
-        assert st.db.execute("SELECT name FROM meta WHERE name = 'schema_v2_from_v1'").fetchone()
-    assert backup.is_file() and backup.name.startswith("results.db.v1-")
+        assert st.db.execute(f"SELECT name FROM meta WHERE name = 'schema_v{nxt}_from_v{now}'").fetchone()
+    assert backup.is_file() and backup.name.startswith(f"results.db.v{now}-")
     con = sqlite3.connect(backup)
-    assert con.execute("PRAGMA user_version").fetchone()[0] == 1
+    assert con.execute("PRAGMA user_version").fetchone()[0] == now
     assert con.execute("SELECT key FROM points").fetchall() == [("k1",)]
     con.close()
     with Store(db) as st:  # opened again: nothing more to do
         assert st.migrated_from is None
+
+
+def test_a_version_1_store_gets_typed_reasons_and_gives_the_same_table(tmp_path):
+    old = [V1_ROW,
+           ("k2", "fam", "{}", 0.3, 1.0, 300.0, "no_flame", "no flame: not solved, rise 120 K", "fresh", None, 0.1,
+            1.0e9, "run1", None),
+           ("k3", "fam", "{}", 1.0, 1.0, 300.0, "failed", "mechanism error: non-finite rates", "fresh", None, 0.1,
+            1.0e9, "run1", None),
+           ("k4", "fam", "{}", 1.1, 1.0, 300.0, "failed", "worker error: TerminatedWorkerError: ...", "fresh", None,
+            0.0, 1.0e9, "run1", None),
+           ("k5", "fam", "{}", 1.2, 1.0, 300.0, "failed", "solver did not converge (HP equilibrium 2000 K)", "fresh",
+            None, 2.0, 1.0e9, "run1", None)]
+    db = tmp_path / DB_NAME
+    hand_made_v1_store(db, old)
+    con = sqlite3.connect(db)
+    before = {r[0]: r for r in con.execute("SELECT key, status, message, start, metrics, solve_seconds FROM points")}
+    con.close()
+    with Store(db) as st:
+        assert st.migrated_from == 1 and st.backup_path.is_file()
+        rows = st.rows()
+    assert {k: r["reason"] for k, r in rows.items()} == {
+        "k1": "", "k2": "no flame", "k3": "mechanism error", "k4": "worker error", "k5": "not converged"}
+    for key, (_, status, message, start, metrics, secs) in before.items():
+        r = rows[key]
+        assert (r["status"], r["message"], r["start"], r["solve_seconds"]) == (status, message, start, secs)
+        assert r["metrics"] == (None if metrics is None else json.loads(metrics))
 
 
 def test_a_failing_migration_changes_nothing(tmp_path, monkeypatch):
@@ -332,14 +376,15 @@ def test_a_failing_migration_changes_nothing(tmp_path, monkeypatch):
         db.execute("CREATE TABLE notes (key TEXT)")
         db.execute("INSERT INTO no_such_table VALUES (1)")
 
-    monkeypatch.setattr(store_module, "SCHEMA_VERSION", 2)
-    monkeypatch.setitem(store_module.MIGRATIONS, 1, broken)
     db = tmp_path / DB_NAME
-    hand_made_v1_store(db)
-    with pytest.raises(StoreError, match="could not be migrated from schema version 1 to 2.*unchanged"):
+    hand_made_current_store(db)
+    now = SCHEMA_VERSION
+    monkeypatch.setattr(store_module, "SCHEMA_VERSION", now + 1)
+    monkeypatch.setitem(store_module.MIGRATIONS, now, broken)
+    with pytest.raises(StoreError, match=f"could not be migrated from schema version {now} to {now + 1}.*unchanged"):
         Store(db)
     con = sqlite3.connect(db)
-    assert con.execute("PRAGMA user_version").fetchone()[0] == 1
+    assert con.execute("PRAGMA user_version").fetchone()[0] == now
     assert "notes" not in {r[0] for r in con.execute("SELECT name FROM sqlite_master")}
     assert con.execute("SELECT key FROM points").fetchall() == [("k1",)]
     con.close()
@@ -347,26 +392,28 @@ def test_a_failing_migration_changes_nothing(tmp_path, monkeypatch):
 
 def test_an_older_store_without_a_migration_path_is_refused(run_copy, capsys, monkeypatch):
     config, out = run_copy
-    monkeypatch.setattr(store_module, "SCHEMA_VERSION", 2)  # and no MIGRATIONS[1]
+    now = SCHEMA_VERSION
+    monkeypatch.setattr(store_module, "SCHEMA_VERSION", now + 1)  # and no MIGRATIONS[now]
     before = snapshot(out)
     for argv in (["run", config, "--out", out, "--jobs", "1", "--quiet"], ["check", config, "--out", out],
                  ["charts", out]):
-        assert_refused(*call(capsys, *argv), ["results.db", "schema version 1", "no migration from version 1 to 2",
-                                              "left untouched"])
+        assert_refused(*call(capsys, *argv), ["results.db", f"schema version {now}",
+                                              f"no migration from version {now} to {now + 1}", "left untouched"])
     assert snapshot(out) == before
 
 
 def test_an_older_store_is_migrated_by_run_and_only_run(run_copy, capsys, monkeypatch):
     config, out = run_copy
-    monkeypatch.setattr(store_module, "SCHEMA_VERSION", 2)
-    monkeypatch.setitem(store_module.MIGRATIONS, 1, lambda db: db.execute("CREATE INDEX points_status ON points (status)"))
+    now = SCHEMA_VERSION
+    monkeypatch.setattr(store_module, "SCHEMA_VERSION", now + 1)
+    monkeypatch.setitem(store_module.MIGRATIONS, now, lambda db: db.execute("CREATE INDEX points_status ON points (status)"))
     before = snapshot(out)
-    assert_refused(*call(capsys, "charts", out), ["older schema version 1", "'flamecharts run' migrates it"])
+    assert_refused(*call(capsys, "charts", out), [f"older schema version {now}", "'flamecharts run' migrates it"])
     assert snapshot(out) == before
     rc, stdout, err = call(capsys, "run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
     assert rc == 0, err
     assert "solved 0 now, 2 from the store" in stdout  # no flame lost in the migration
-    assert len(list(out.glob("results.db.v1-*.bak"))) == 1
+    assert len(list(out.glob(f"results.db.v{now}-*.bak"))) == 1
     rc, stdout, err = call(capsys, "charts", out)
     assert rc == 0, err
 

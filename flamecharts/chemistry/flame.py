@@ -9,9 +9,9 @@ Numerical settings
 ------------------
 Cantera's free-flame solver discretises convection with a first-order upwind
 scheme, so the flame speed converges slowly with the number of grid points; the
-thermal thickness converges much faster. Measured (tests/benchmarks/grid_convergence.py,
-figures in DEVELOPERS.md), the curvature criterion sets the flame-speed error and the
-slope criterion mostly adds points, so the settings refine on curvature. Each setting
+thermal thickness converges much faster. The curvature criterion sets the flame-speed
+error and the slope criterion mostly adds points, so the settings refine on curvature
+(tests/benchmarks/grid_convergence.py; figures in docs/benchmarks.md). Each setting
 solves on a coarse grid first (robust, cheap) and then refines to its final criteria.
 """
 from __future__ import annotations
@@ -27,6 +27,7 @@ import cantera as ct
 import numpy as np
 
 from ..errors import first_line
+from ..outcome import Reason, Status
 from ..physics import flame_measures as profiles
 
 #: Flames whose burned-side temperature rise is below this share of the equilibrium
@@ -63,9 +64,8 @@ class Numerics:
         flame converged on the grid before it is kept (see :func:`_refine_loop`)
     warm_share : the same for the first settled grid after the full-grid solve of a
         warm start, whose grid was already refined at the final criteria on a converged
-        profile of the new flame (see :func:`_solve_warm`); measured effect on S_L
-        0.005-0.03 % on five steps whose pass would have added 5-7 % (a 9 % pass moved
-        lean hydrogen blends by 0.12 %; DEVELOPERS.md, Benchmarks)
+        profile of the new flame (see :func:`_solve_warm`; its effect on S_L is in
+        docs/benchmarks.md)
     warm_stride : a warm start first solves on every warm_stride-th point of the
         neighbour's grid (fewer for small neighbours, :func:`warm_stride`; see
         :func:`_solve_warm`)
@@ -98,33 +98,13 @@ TAIL_MIN_POINTS = 3
 
 #: Steady and time-stepping Jacobian ages for warm starts: a finite-difference Jacobian
 #: of a detailed mechanism costs as much as ~170 residual evaluations, so a stale
-#: Jacobian that needs more Newton steps is cheaper than a fresh one
-#: (tests/benchmarks/sweep_speed.py, DEVELOPERS.md).
+#: Jacobian that needs more Newton steps is cheaper than a fresh one (docs/benchmarks.md).
 WARM_JACOBIAN_AGE = (40, 40)
 
 #: Pressure exponent used only to rescale a neighbour's profile to a new pressure
 #: before solving (S_L ~ p^beta; beta about -0.4 to -0.5 for methane-air, Gu et al.,
 #: Combust. Flame 121 (2000) 41). The solver corrects the rest.
 GUESS_PRESSURE_EXPONENT = -0.45
-
-
-#: A failed point's message starts with one of these reasons and a colon:
-#: "not converged" (the solver found no solution from a warm start, fresh, nor on the
-#: robust retry), "mechanism error" (the mechanism gives non-finite reaction rates or
-#: thermodynamics, or Cantera raises outside the 1D solver), "worker error" (the worker
-#: process died on the point; such points are solved again by the next run).
-#: A "no_flame" point's message starts with "no flame:".
-FAILURE_REASONS = ("not converged", "mechanism error", "worker error")
-
-
-def failure_reason(message: str) -> str:
-    """Reason of a failed point from its message (older stores: 'not converged').
-
-    >>> failure_reason("mechanism error: non-finite reaction rates at 2000 K")
-    'mechanism error'
-    """
-    head = message.split(":", 1)[0].strip()
-    return head if head in FAILURE_REASONS else "not converged"
 
 
 def robust_numerics(numerics: Numerics) -> Numerics:
@@ -285,11 +265,9 @@ def _refine_loop(f, numerics: Numerics, first_share: float | None = None) -> Non
     pass to that solution read through a monotone cubic, no solve in between), so one
     solve takes what used to be several refine-and-solve passes (each pass of Cantera's
     refiner exposes the next: ratio criterion cascades, new points read linearly).
-    Measured: two Jacobians instead of three on hard steps, S_L within 0.02 %
-    (DEVELOPERS.md, Benchmarks). A settled grid that adds at most :func:`tail_points`
-    points is undone and the flame converged on the grid before it is kept: a 1 %
-    denser grid moves S_L by far less than the setting's own error (measured in
-    tests/benchmarks/sweep_speed.py against Cantera's full refinement).
+    A settled grid that adds at most :func:`tail_points` points is undone and the flame
+    converged on the grid before it is kept: a 1 % denser grid moves S_L by far less
+    than the setting's own error (figures in docs/benchmarks.md).
     ``first_share``, when given, replaces ``numerics.tail_share`` for the first pass only.
     """
     share = numerics.tail_share if first_share is None else first_share
@@ -327,7 +305,7 @@ def monotone_cubic(x, table, x_new) -> np.ndarray:
     shape-preserving three-point formula at the ends (Moler, Numerical Computing with
     MATLAB, 2004, sec. 3.4); the same construction as ``scipy.interpolate.PchipInterpolator``
     (checked against it in tests/test_flame.py), written out here because importing
-    scipy.interpolate costs each worker about 50 MB (the benchmark counts worker memory).
+    scipy.interpolate adds to every worker's memory (docs/benchmarks.md).
     The slope is continuous and the curve never overshoots the data, so interpolated
     mass fractions stay within the range of the neighbour's own values (their sum may
     drift by ~1e-6, which the solver corrects).
@@ -456,11 +434,9 @@ def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     3. Refined to the final criteria (:func:`_refine_loop`, first pass skipped up to
        ``warm_share``).
 
-    Measured against solving on the neighbour's full regridded grid (GRI-Mech 3.0,
-    DEVELOPERS.md, Benchmarks): hard steps (rich phi steps, 15 -> 30 % hydrogen) cost
-    half to two thirds, easy ones about the same, and the grid history, coarse then
-    fine like a fresh solve, puts S_L within 0.12 % of Cantera's own solve from scratch on
-    fourteen steps and 0.15 % in the benchmark (0.3 % before).
+    The grid history, coarse then fine, is that of a fresh solve, so a warm-started
+    flame agrees with the same flame solved from scratch within the setting's error
+    (cost and agreement measured in docs/benchmarks.md).
     """
     gas.TPX = T_u, P, X
     f = _make_flame(ct, gas, numerics.width_m, transport, soret, numerics)
@@ -521,18 +497,18 @@ def profile_of(f, P: float) -> dict:
     }
 
 
-def classify(metrics: dict, T_u: float) -> tuple[str, str]:
+def classify(metrics: dict, T_u: float) -> tuple[Status, str]:
     """Status of a converged solution: ('ok', '') or ('no_flame', reason)."""
     rise = metrics["max_temperature_K"] - T_u
     eq_rise = metrics["equilibrium_temperature_K"] - T_u
     if metrics["laminar_flame_speed_m_s"] < MIN_FLAME_SPEED or rise < MIN_RISE_SHARE * max(eq_rise, 1.0):
-        return "no_flame", (f"no flame: solver converged to a non-burning state (temperature rise {rise:.0f} K of "
+        return Status.NO_FLAME, (f"no flame: solver converged to a non-burning state (temperature rise {rise:.0f} K of "
                             f"{eq_rise:.0f} K at equilibrium, speed {metrics['laminar_flame_speed_m_s']:.2g} m/s)")
     notes = []
     mismatch = abs(metrics["adiabatic_flame_temperature_K"] - metrics["equilibrium_temperature_K"])
     if mismatch > T_EQ_WARN_SHARE * metrics["equilibrium_temperature_K"]:
         notes.append(f"end-of-domain temperature differs from HP equilibrium by {mismatch:.0f} K")
-    return "ok", "; ".join(notes)
+    return Status.OK, "; ".join(notes)
 
 
 def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numerics: Numerics,
@@ -558,9 +534,9 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     """
     t0 = time.perf_counter()
 
-    def failed(reason: str, text: str) -> dict:
-        return {"status": "failed", "message": f"{reason}: {text}", "start": "fresh", "metrics": None,
-                "profile": None, "solve_seconds": time.perf_counter() - t0}
+    def failed(reason: Reason, text: str) -> dict:
+        return {"status": Status.FAILED, "reason": reason, "message": f"{reason}: {text}", "start": "fresh",
+                "metrics": None, "profile": None, "solve_seconds": time.perf_counter() - t0}
 
     try:
         gas.TPX = T_u, P, X
@@ -568,11 +544,12 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
         rise = gas.T - T_u
         fault = mechanism_fault(gas, T_u, P, X, gas.T) if np.isfinite(rise) else "non-finite equilibrium"
     except ct.CanteraError as exc:
-        return failed("mechanism error", f"HP equilibrium of the mixture failed: {first_line(exc)}")
+        return failed(Reason.MECHANISM_ERROR, f"HP equilibrium of the mixture failed: {first_line(exc)}")
     if fault:
-        return failed("mechanism error", fault + "; not solved (no retry can help: check the mechanism file)")
+        return failed(Reason.MECHANISM_ERROR, fault + "; not solved (no retry can help: check the mechanism file)")
     if rise < MIN_EQUILIBRIUM_RISE_K:
-        return {"status": "no_flame", "start": "fresh", "metrics": None, "profile": None,
+        return {"status": Status.NO_FLAME, "reason": Reason.NO_FLAME, "start": "fresh", "metrics": None,
+                "profile": None,
                 "message": (f"no flame: not solved, equilibrium temperature rise {rise:.0f} K is below "
                             f"{MIN_EQUILIBRIUM_RISE_K:.0f} K; too lean or too diluted to burn"),
                 "solve_seconds": time.perf_counter() - t0}
@@ -607,8 +584,9 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
             how = f"{tried} failed, solved on the {ROBUST_RETRY}" if start == "robust" else f"{tried} failed, solved fresh"
             message = "; ".join(filter(None, [message, how]))
         return {
-            "status": status, "message": message, "start": "fresh" if start == "robust" else start,
+            "status": status, "reason": Reason.NONE if status == Status.OK else Reason.NO_FLAME, "message": message,
+            "start": "fresh" if start == "robust" else start,
             "metrics": metrics, "profile": profile_of(f, P) if status == "ok" else None,
             "solve_seconds": time.perf_counter() - t0,
         }
-    return failed("not converged", f"no solution (HP equilibrium {T_u + rise:.0f} K); " + "; ".join(errors))
+    return failed(Reason.NOT_CONVERGED, f"no solution (HP equilibrium {T_u + rise:.0f} K); " + "; ".join(errors))

@@ -8,12 +8,12 @@ from pathlib import Path
 
 from tqdm import tqdm
 
-from ..chemistry.flame import failure_reason
+from ..columns import gas_label
 from ..config import check_cluster_spec, load_study
-from ..outputs import write_outputs
-from ..pipeline import default_out_dir, run_study
+from ..outcome import Status
+from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
-from .tables import blend_label, print_margins, print_points
+from .tables import print_margins, print_points
 
 
 def cmd_run(args) -> int:
@@ -38,8 +38,9 @@ def cmd_run(args) -> int:
         bar.update(pr.done - bar.n)
 
     try:
-        summary = run_study(study, out_dir=out, jobs=args.jobs, progress=progress, cluster=cluster)
-        files = write_outputs(study, summary.rows, out, charts=not args.no_charts, report=not args.no_report)
+        results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
+                      charts=not args.no_charts, report=not args.no_report)
+        summary = results.summary
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
         if bar is not None:
@@ -58,27 +59,25 @@ def cmd_run(args) -> int:
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
           f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
     if summary.failed:
-        reasons = Counter(failure_reason(r["message"]) for r in summary.rows if r["status"] == "failed")
+        reasons = Counter(r["reason"] for r in summary.rows if r["status"] == Status.FAILED)
         print(f"{summary.failed} failed: " + ", ".join(f"{n} {why}" for why, n in sorted(reasons.items())))
     for r in summary.failures[:20]:
-        print(f"  {r['status']}: {r['fuel']}"
-              + (f" + {r['blend_fraction']:g} {r['blend_with']}" if r["blend_with"] else "")
-              + f", phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
-                f"{r['unburned_temperature_K']:g} K: {r['message']}")
+        print(f"  {r['status']}: {gas_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+              f"{r['unburned_temperature_K']:g} K: {r['message']}")
     if len(summary.failures) > 20:
         print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
     warned = [r for r in summary.rows if r.get("warnings")]
     if warned:
         print(f"{len(warned)} points outside the range the method or mechanism covers (column 'warnings'):")
         for r in warned[:20]:
-            print(f"  {blend_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+            print(f"  {gas_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
                   f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
         if len(warned) > 20:
             print(f"  ... and {len(warned) - 20} more (see results.csv)")
     if not args.quiet:
         print_points(study, summary.rows)
     print_margins(study, summary.rows)
-    print(f"Results: {files[0]} (fuel-gas properties: {files[2]})")
+    print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'})")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
         if not args.no_report:

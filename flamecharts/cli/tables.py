@@ -1,12 +1,8 @@
 """Terminal tables the commands print: fuel gases, the burner, per-point lines, margins."""
 from __future__ import annotations
 
+from ..columns import gas_label
 from ..design import first_flashback_fraction, fuel_gas_table, margin_summary
-
-
-def blend_label(r) -> str:
-    return r["fuel"] + (f" + {100 * r['blend_fraction']:g} % {r['blend_with'] or ''}".rstrip()
-                        if r.get("blend_with") else "")
 
 
 def print_gases(study) -> None:
@@ -16,7 +12,7 @@ def print_gases(study) -> None:
     print(f"  {'':38s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'-':>6s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'%':>7s}")
     for g in table:
         band = "" if g["wobbe_in_band"] is None else ("inside" if g["wobbe_in_band"] else "OUTSIDE")
-        print(f"  {blend_label(g) + ' in ' + g['oxidizer']:38s} {g['higher_heating_value_MJ_m3']:7.3f} "
+        print(f"  {gas_label(g) + ' in ' + g['oxidizer']:38s} {g['higher_heating_value_MJ_m3']:7.3f} "
               f"{g['lower_heating_value_MJ_m3']:7.3f} {g['relative_density']:6.4f} "
               f"{g['higher_wobbe_index_MJ_m3']:7.3f} {g['lower_wobbe_index_MJ_m3']:7.3f} "
               f"{g['wobbe_change_percent']:+7.2f}  {band}")
@@ -43,7 +39,7 @@ def print_margins(study, rows) -> None:
     print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, "
           f"blowoff {b.min_blowoff_margin:g}):")
     for s in summary:
-        print(f"  {blend_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
+        print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
               f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
               f"(phi {s['at_phi_flashback']:g}), blowoff margin >= {s['min_blowoff_margin']:.2f} "
               f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
@@ -67,7 +63,7 @@ def print_points(study, rows) -> None:
     print(head)
     print(unit)
     for r in rows[:MAX_POINT_LINES]:
-        line = f"  {blend_label(r):30s} {r['equivalence_ratio']:5.2f} {r['pressure_bar']:6g} {r['unburned_temperature_K']:6g} "
+        line = f"  {gas_label(r):30s} {r['equivalence_ratio']:5.2f} {r['pressure_bar']:6g} {r['unburned_temperature_K']:6g} "
         if r["status"] != "ok":
             print(line + f"{r['status']}: {r['message'][:70]}")
             continue

@@ -14,11 +14,11 @@ from pathlib import Path
 from .._version import __version__
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
-from ..columns import gas_label
+from ..columns import CAUTION, gas_label
 from ..config import resolution_label
 from ..design import fuel_gas_table, margin_summary
 from .charts import CAPTIONS
-from .tables import CAUTION, write_atomic
+from .tables import write_atomic
 
 CSS = """
 body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif; color: #1d1d1d;

@@ -16,13 +16,8 @@ from pathlib import Path
 from .._version import __version__
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
-from ..columns import COLUMNS
+from ..columns import CAUTION, COLUMNS
 from ..config import Study, resolution_label
-
-CAUTION = ("Screening estimates from 1D laminar flame computations, not certification: follow local "
-           "codes, the applicable appliance or gas-turbine standards and licensed engineering practice, "
-           "and confirm every margin by test on the real hardware.")
-
 
 def write_atomic(path: Path, text: str) -> None:
     """Write a text file so a reader never sees half of it."""

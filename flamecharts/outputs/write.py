@@ -4,21 +4,24 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..columns import GAS_TABLE_COLUMNS
-from ..design import exponent_table, fuel_gas_table
+from ..design import fuel_gas_table
+from ..results import exponent_table, to_dataset
 from .charts import draw_all
+from .netcdf import write_netcdf
 from .report import write_report
 from .tables import write_about, write_csv
 
 
 def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, report: bool = True) -> list[Path]:
-    """results.csv, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
+    """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). Returns the files written, results.csv first."""
     out = Path(out)
     gases = fuel_gas_table(study)
-    files = [write_csv(rows, out / "results.csv"), write_about(study, out / "about.txt"),
-             write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
-    exponents = exponent_table(rows)
+    ds = to_dataset(study, rows)
+    files = [write_csv(rows, out / "results.csv"), write_netcdf(ds, out / "results.nc"),
+             write_about(study, out / "about.txt"), write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
+    exponents = exponent_table(ds)
     if exponents:
         files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if charts:

@@ -30,8 +30,8 @@ The schema version is kept in SQLite's ``user_version`` (0 = a new, empty file).
 version to the next. Opening an older store for a run copies it first to
 ``results.db.v<old>-<time>.bak`` (SQLite's backup API, so the copy is consistent),
 then applies every step up to :data:`SCHEMA_VERSION` in one transaction: either
-all steps land or none does. To change the schema: bump SCHEMA_VERSION, update
-_SCHEMA (what a new store gets) and register ``MIGRATIONS[old] = fn``.
+all steps land or none does. To change the schema: bump SCHEMA_VERSION, register
+``MIGRATIONS[old] = fn`` (a new store runs every step from 0).
 """
 from __future__ import annotations
 
@@ -49,12 +49,13 @@ import numpy as np
 
 from ..errors import StoreError
 
-SCHEMA_VERSION = 1
+SCHEMA_VERSION = 2
 DB_NAME = "results.db"
 #: How long a write waits for another program's lock on the store before giving up [s].
 BUSY_TIMEOUT_S = 30.0
 
-_SCHEMA = """
+#: The tables of schema version 1 (a new store is made by running every migration from 0).
+_SCHEMA_V1 = """
 CREATE TABLE IF NOT EXISTS meta (name TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE IF NOT EXISTS points (
     key TEXT PRIMARY KEY,
@@ -76,30 +77,45 @@ CREATE INDEX IF NOT EXISTS points_family ON points (family);
 """
 
 
-def _schema_columns() -> list[str]:
-    """Columns of the points table as _SCHEMA defines them (the layout an existing store must have)."""
-    con = sqlite3.connect(":memory:")
-    con.executescript(_SCHEMA)
-    cols = [r[1] for r in con.execute("PRAGMA table_info(points)")]
-    con.close()
-    return cols
-
-
-_POINT_COLUMNS = _schema_columns()
-
-
 def _create_v1(db: sqlite3.Connection) -> None:
-    """Version 0 (a new, empty file) -> 1: the tables of _SCHEMA."""
-    for statement in _SCHEMA.split(";"):
+    """Version 0 (a new, empty file) -> 1: the tables of _SCHEMA_V1."""
+    for statement in _SCHEMA_V1.split(";"):
         if statement.strip():
             db.execute(statement)
+
+
+def _add_reason(db: sqlite3.Connection) -> None:
+    """Version 1 -> 2: a ``reason`` column (outcome.Reason), filled from the message prefix
+    that version 1 wrote ("mechanism error: ...", "worker error: ...", "no flame: ...";
+    any other failure, including the oldest stores' wording, is "not converged")."""
+    db.execute("ALTER TABLE points ADD COLUMN reason TEXT NOT NULL DEFAULT ''")
+    db.execute("""UPDATE points SET reason = CASE
+                    WHEN status = 'no_flame' THEN 'no flame'
+                    WHEN message LIKE 'mechanism error:%' THEN 'mechanism error'
+                    WHEN message LIKE 'worker error:%' THEN 'worker error'
+                    ELSE 'not converged' END
+                  WHERE status != 'ok'""")
 
 
 #: Schema version -> function that upgrades a store from that version to the next,
 #: called inside the migration transaction (it must not commit).
 MIGRATIONS: dict[int, Callable[[sqlite3.Connection], None]] = {
     0: _create_v1,
+    1: _add_reason,
 }
+
+
+def _schema_columns() -> list[str]:
+    """Columns of the points table at SCHEMA_VERSION (the layout an existing store must have)."""
+    con = sqlite3.connect(":memory:")
+    for v in range(SCHEMA_VERSION):
+        MIGRATIONS[v](con)
+    cols = [r[1] for r in con.execute("PRAGMA table_info(points)")]
+    con.close()
+    return cols
+
+
+_POINT_COLUMNS = _schema_columns()
 
 _SQLITE_MAGIC = b"SQLite format 3\x00"
 _WAL_MAGICS = (0x377F0682, 0x377F0683)
@@ -349,12 +365,13 @@ class Store:
         every point committed before stays.
         """
         row = (point.key, point.family, json.dumps(result["inputs"], sort_keys=True), point.phi,
-               point.pressure_bar, point.T_u, result["status"], result["message"], result["start"],
+               point.pressure_bar, point.T_u, str(result["status"]), result["message"], result["start"],
                json.dumps(result["metrics"]) if result["metrics"] is not None else None,
-               float(result["solve_seconds"]), time.time(), run_id, pack_profile(result["profile"]))
+               float(result["solve_seconds"]), time.time(), run_id, pack_profile(result["profile"]),
+               str(result["reason"]))
         try:
             with self.db:
-                self.db.execute("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)", row)
+                self.db.execute("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", row)
         except sqlite3.DatabaseError as exc:
             text = str(exc)
             why = ("another program holds it locked for writing: close that program" if "locked" in text or
@@ -365,10 +382,10 @@ class Store:
     def rows(self, keys=None) -> dict[str, dict]:
         """key -> stored row (without profile) for the given keys, or all."""
         cur = self._query(
-            "SELECT key, status, message, start, metrics, solve_seconds, finished_at, run_id FROM points")
+            "SELECT key, status, reason, message, start, metrics, solve_seconds, finished_at, run_id FROM points")
         wanted = set(keys) if keys is not None else None
         out = {}
-        for key, status, message, start, metrics, secs, fin, run_id in cur:
+        for key, status, reason, message, start, metrics, secs, fin, run_id in cur:
             if wanted is not None and key not in wanted:
                 continue
             try:
@@ -377,7 +394,7 @@ class Store:
                     raise ValueError("not a table")
             except ValueError as exc:
                 raise self._damaged(key, "metrics", exc) from None
-            out[key] = {"status": status, "message": message, "start": start, "metrics": metrics,
+            out[key] = {"status": status, "reason": reason, "message": message, "start": start, "metrics": metrics,
                         "solve_seconds": secs, "finished_at": fin, "run_id": run_id}
         return out
 

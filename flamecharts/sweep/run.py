@@ -24,6 +24,7 @@ from dataclasses import dataclass
 from typing import Callable
 
 from ..errors import FlamechartsError, first_line
+from ..outcome import Reason, Status
 from ..store import Store
 from .points import Point
 from .schedule import Scheduler
@@ -116,8 +117,8 @@ class _CtrlC:
 
 
 def _worker_error(exc: BaseException) -> dict:
-    return {"status": "failed", "start": "fresh", "metrics": None, "profile": None,
-            "message": f"worker error: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}
+    return {"status": Status.FAILED, "reason": Reason.WORKER_ERROR, "start": "fresh", "metrics": None, "profile": None,
+            "message": f"{Reason.WORKER_ERROR}: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}
 
 
 class _Loop:
@@ -182,8 +183,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
     """
     t0 = time.perf_counter() if t0 is None else t0
     # points are solved again only when a worker died on them (a transient failure)
-    done_keys = {k for k, r in store.rows().items()
-                 if not (r["status"] == "failed" and r["message"].startswith("worker error"))}
+    done_keys = {k for k, r in store.rows().items() if r["reason"] != Reason.WORKER_ERROR}
     unique = unique_points(pts)
     todo = [p for p in unique if p.key not in done_keys]
     out = SolveOutcome(reused=len(pts) - sum(1 for p in pts if p.key not in done_keys))
@@ -225,8 +225,8 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
                     loop.sched.finished(p.index)
                     out.solved += 1
                     out.solve_seconds += result["solve_seconds"]
-                    out.failed += result["status"] == "failed"
-                    out.no_flame += result["status"] == "no_flame"
+                    out.failed += result["status"] == Status.FAILED
+                    out.no_flame += result["status"] == Status.NO_FLAME
                     report({"point": p, "status": result["status"], "message": result["message"],
                             "start": result["start"], "solve_seconds": result["solve_seconds"],
                             "cpu_seconds": result.get("cpu_seconds", 0.0)})

@@ -65,13 +65,11 @@ class Scheduler:
 
 #: Default seconds per flame on one core, per (mechanism species + 4)^2, when the store
 #: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
-#: (variables per point) x (residual cost per point ~ variables). Measured on the
-#: project's 2-core machine (tests/benchmarks/sweep_speed.py, docs/benchmarks.md): GRI-Mech 3.0
-#: (53 species) 17-22 s from scratch and a mean 5.4 s warm; h2o2 (10 species) 0.4-0.7 s
-#: and a mean 0.25 s. The warm figure sits between the two (GRI-Mech 4.9 s, h2o2 0.29 s).
+#: (variables per point) x (residual cost per point ~ variables). Calibrated on GRI-Mech
+#: 3.0 and h2o2 timings (tests/benchmarks/sweep_speed.py; figures in docs/benchmarks.md).
 SECONDS_PER_VARIABLE_SQUARED = {"fresh": 6.0e-3, "warm": 1.5e-3}
 
-#: Worker start-up and mechanism parsing per run [s] (measured, docs/benchmarks.md).
+#: Worker start-up and mechanism parsing per run [s] (an allowance; docs/benchmarks.md).
 START_UP_SECONDS = 2.0
 
 

@@ -20,20 +20,16 @@ from .points import Point
 SEED_PHI = 1.05
 
 #: One unit of the normalised distance between two flames, per coordinate, fitted to
-#: measured warm-start costs (GRI-Mech 3.0, natural gas with hydrogen, 1-5 bar, CPU
-#: seconds against a floor of about 3 s; DEVELOPERS.md, Benchmarks): a step of 0.1 in phi
-#: costs 4-16 s (rich steps 8-26 s), a factor 2-2.5 in pressure 8-9 s (so ln 1.6 per unit
-#: keeps a factor-5 jump, which costs more than a fresh solve, beyond MAX_WARM_DISTANCE),
-#: while replacing 15 % of the fuel by hydrogen at fixed phi costs only 3-8 s, one or
-#: two Jacobians: one unit is 25 % of the fuel replaced, so the tree steps across blends before
-#: it steps along phi. The fuel coordinate is the total-variation distance of the
-#: fuel-stream mole fractions (0.15 for a blend-fraction step of 0.15). Preheat: 50 K
-#: costs 3.5 s (one Jacobian), 100 K 9 s, 200 K 17 s.
+#: measured warm-start costs so that one unit costs about the same solver time on every
+#: axis (figures in docs/benchmarks.md). The fuel coordinate is the total-variation
+#: distance of the fuel-stream mole fractions (0.15 for a blend-fraction step of 0.15);
+#: a quarter of the fuel replaced is one unit, so the tree steps across blends (cheap)
+#: before it steps along phi (dearer).
 DISTANCE_SCALES = {"phi": 0.1, "fuel": 0.25, "ln_p": math.log(1.6), "T_u": 50.0}
 
 #: A point farther than this (in units of DISTANCE_SCALES) from every solved or stored
 #: flame is solved from scratch: a factor-5 pressure jump (3.4 units) warm-starts more
-#: slowly than a fresh solve (measured, DEVELOPERS.md).
+#: slowly than a fresh solve (docs/benchmarks.md).
 MAX_WARM_DISTANCE = 3.0
 
 

@@ -1,0 +1,24 @@
+"""What became of a point: its status and, when it has no flame speed, why.
+
+Both are ``StrEnum``s, so they compare equal to, and are stored and printed as, their
+plain text ("ok", "not converged"): results.csv and the store hold the text.
+"""
+from __future__ import annotations
+
+from enum import StrEnum
+
+
+class Status(StrEnum):
+    OK = "ok"                # a burning flame was solved and measured
+    NO_FLAME = "no_flame"    # the mixture does not burn (too lean, too diluted, cold branch)
+    FAILED = "failed"        # no solution: see the Reason
+    PENDING = "pending"      # not solved yet
+
+
+class Reason(StrEnum):
+    NONE = ""                           # a burning flame
+    NO_FLAME = "no flame"               # status no_flame
+    NOT_CONVERGED = "not converged"     # warm, fresh and robust solves found no solution
+    MECHANISM_ERROR = "mechanism error" # non-finite rates or thermodynamics, or Cantera failed outside the solver
+    WORKER_ERROR = "worker error"       # the worker process died on the point: solved again by the next run
+    TIME_LIMIT = "time limit"           # the flame took longer than the run's per-flame time limit
