@@ -14,6 +14,9 @@ thermal_diffusion         bool, Soret effect; default false
 resolution                "standard" (default, meets the accuracy in docs/benchmarks.md), "fine", or
                           "coarse" (faster, less accurate; labelled in every output)
 max_points                guard against runaway sweeps; default 10000
+flame_time_limit_s        give up a flame after this long [s] (recorded as failed, reason "time limit",
+                          solved again by the next run); default 20 times the estimated cost of a
+                          flame from scratch, at least 60 s (sweep.schedule.flame_time_limit)
 cluster                   "tcp://HOST:PORT" of a running Dask scheduler, or "local:N" (N local Dask
                           worker processes); default: none, local processes (--jobs)
 [fuels] / [oxidizers]     name = { SPECIES = amount, ... }, normalised to mole fractions
@@ -45,7 +48,7 @@ from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
 
-TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points",
+TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
@@ -65,6 +68,9 @@ AXIS_LIMITS = {
     "pressure_bar": (0.0, 500.0),
     "unburned_temperature_K": (0.0, 2000.0),
 }
+#: Lowest unburned temperature [K]: colder premixed gas is not met in burners, and a
+#: value below it is almost always degrees Celsius typed as kelvin (27 for 300 K).
+MIN_UNBURNED_TEMPERATURE_K = 200.0
 
 #: A study config is a short text file; anything larger is refused before it is read.
 MAX_CONFIG_BYTES = 1_000_000
@@ -138,6 +144,7 @@ class Study:
     unburned_temperatures_K: tuple[float, ...]
     atoms: dict[str, dict[str, float]] = field(repr=False)
     max_points: int = 10000
+    flame_time_limit_s: float | None = None  # None: sweep.schedule.flame_time_limit of the mechanism
     config_path: str | None = None
     raw: dict = field(default_factory=dict, repr=False, compare=False)
     reference_fuel: str | None = None
@@ -230,6 +237,10 @@ def _limited_axis(value: Any, name: str) -> tuple[float, ...]:
     values = _axis(value, f"sweep.{name}")
     lo, hi = AXIS_LIMITS[name]
     for v in values:
+        if name == "unburned_temperature_K" and lo < v < MIN_UNBURNED_TEMPERATURE_K:
+            raise ConfigError(f"'sweep.{name}' value {v:g} is below {MIN_UNBURNED_TEMPERATURE_K:g} K: temperatures "
+                              f"are in kelvin ({v:g} degC is {v + 273.15:g} K); allowed: >= "
+                              f"{MIN_UNBURNED_TEMPERATURE_K:g} and <= {hi:g}")
         if not lo < v <= hi:
             raise ConfigError(f"'sweep.{name}' value {v:g} is out of range; allowed: > {lo:g} and <= {hi:g}")
     return values
@@ -397,6 +408,11 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     max_points = data.get("max_points", 10000)
     if isinstance(max_points, bool) or not isinstance(max_points, int) or max_points < 1:
         raise ConfigError(f"'max_points' must be a whole number >= 1, got {show(max_points)}")
+    flame_time_limit_s = None
+    if "flame_time_limit_s" in data:
+        flame_time_limit_s = _number(data["flame_time_limit_s"], "flame_time_limit_s")
+        if not flame_time_limit_s > 0:
+            raise ConfigError(f"'flame_time_limit_s' must be > 0 seconds, got {flame_time_limit_s:g}")
 
     for table in ("fuels", "oxidizers", "sweep"):
         if table not in data:
@@ -496,7 +512,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
-        max_points=max_points, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
+        max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
         gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "

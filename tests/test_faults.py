@@ -340,6 +340,23 @@ def test_a_failed_fresh_solve_is_retried_with_robust_settings(tmp_path, monkeypa
     assert row["laminar_flame_speed_m_s"] == pytest.approx(clean["laminar_flame_speed_m_s"], rel=0.01)
 
 
+def test_a_flame_over_its_time_limit_fails_with_that_reason_and_the_run_goes_on(tmp_path, cli):
+    """No single flame may hang a run: with a limit no flame can meet, every point is recorded
+    as failed (reason: time limit), the run ends with exit 0, and the next run (normal limit)
+    solves them all."""
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", extra="flame_time_limit_s = 0.001")
+    out = tmp_path / "out"
+    r = cli("run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
+    assert r.returncode == 0, r.stderr
+    assert "2 failed: 2 time limit" in r.stdout
+    rows = list(csv.DictReader(open(out / "results.csv")))
+    assert all(row["status"] == "failed" and row["message"].startswith("time limit: gave up after") for row in rows)
+    config.write_text(config.read_text().replace("flame_time_limit_s = 0.001", ""))
+    r = cli("run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
+    assert r.returncode == 0 and "solved 2 now, 0 from the store" in r.stdout, r.stdout + r.stderr
+    assert all(row["status"] == "ok" for row in csv.DictReader(open(out / "results.csv")))
+
+
 def test_failure_reasons_are_typed_not_parsed():
     from flamecharts.outcome import Reason
 

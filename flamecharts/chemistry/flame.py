@@ -19,6 +19,7 @@ from __future__ import annotations
 import contextlib
 import dataclasses
 import io
+import threading
 import time
 import warnings
 from dataclasses import dataclass, asdict
@@ -146,12 +147,32 @@ def mechanism_fault(gas, T_u: float, P: float, X, T_eq: float) -> str:
     return ""
 
 
+class FlameTimeLimit(Exception):
+    """The flame being solved has used up its time limit (raised from Cantera's callbacks)."""
+
+
+#: The deadline (time.perf_counter() value) of the flame this thread is solving, if any.
+_LIMIT = threading.local()
+
+
+def _check_deadline(*_args) -> int:
+    """Raise FlameTimeLimit once the flame's deadline has passed. Installed as Cantera's
+    time-step and steady callbacks, so a flame that time-steps or iterates without end
+    stops at its limit; an exception raised there ends Cantera's solve."""
+    deadline = getattr(_LIMIT, "deadline", None)
+    if deadline is not None and time.perf_counter() > deadline:
+        raise FlameTimeLimit()
+    return 0
+
+
 def _make_flame(ct, gas, width: float, transport: str, soret: bool, numerics: Numerics):
     f = ct.FreeFlame(gas, width=width)
     f.set_max_grid_points(f.flame, numerics.max_grid_points)
     f.transport_model = transport
     if soret:
         f.soret_enabled = True
+    f.set_time_step_callback(_check_deadline)
+    f.set_steady_callback(_check_deadline)
     return f
 
 
@@ -272,6 +293,7 @@ def _refine_loop(f, numerics: Numerics, first_share: float | None = None) -> Non
     """
     share = numerics.tail_share if first_share is None else first_share
     while True:
+        _check_deadline()
         before = f.to_array()
         n = len(f.grid)
         _settle(f, np.array(f.grid), _solution_table(f))
@@ -512,7 +534,7 @@ def classify(metrics: dict, T_u: float) -> tuple[Status, str]:
 
 
 def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numerics: Numerics,
-                warm: dict | None = None) -> dict:
+                warm: dict | None = None, time_limit_s: float | None = None) -> dict:
     """Solve one freely propagating flame and measure it.
 
     Parameters
@@ -525,6 +547,7 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     soret : thermal diffusion on or off
     numerics : grid settings
     warm : profile of a converged neighbour (from :func:`profile_of`), or None
+    time_limit_s : give up after this long [s] (status failed, reason time limit); None: no limit
 
     Returns
     -------
@@ -533,6 +556,14 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
     Cantera's log output is suppressed; this function never prints.
     """
     t0 = time.perf_counter()
+    _LIMIT.deadline = None if time_limit_s is None else t0 + time_limit_s
+    try:
+        return _solve_flame(gas, T_u, P, X, transport, soret, numerics, warm, time_limit_s, t0)
+    finally:
+        _LIMIT.deadline = None
+
+
+def _solve_flame(gas, T_u, P, X, transport, soret, numerics, warm, time_limit_s, t0) -> dict:
 
     def failed(reason: Reason, text: str) -> dict:
         return {"status": Status.FAILED, "reason": reason, "message": f"{reason}: {text}", "start": "fresh",
@@ -567,6 +598,10 @@ def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numer
                 else:
                     f = _solve_warm(ct, gas, T_u, P, X, transport, soret, num, w)
                 metrics = measure(f, gas, T_u, P, X, T_u + rise)
+        except FlameTimeLimit:
+            return failed(Reason.TIME_LIMIT, f"gave up after {time.perf_counter() - t0:.0f} s on the {label} "
+                          f"(flame_time_limit_s {time_limit_s:g}); the next run tries it again: raise "
+                          "flame_time_limit_s if it needs longer")
         except ct.CanteraError as exc:
             errors.append(f"{label}: {first_line(exc)}")
             continue

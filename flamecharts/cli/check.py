@@ -1,7 +1,6 @@
 """flamecharts check CONFIG: validate a config and print the plan and its estimated run time."""
 from __future__ import annotations
 
-import statistics
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
@@ -12,7 +11,7 @@ from ..store import DB_NAME, Store, stored_keys
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
-from ..sweep.schedule import default_flame_seconds, estimate_run_seconds
+from ..sweep.schedule import estimate_run_seconds, flame_seconds
 from ..sweep.warm_tree import warm_tree
 from .tables import print_burner, print_gases, print_points
 
@@ -60,12 +59,7 @@ def cmd_check(args) -> int:
 def _estimate_line(study, tree, timings: dict, jobs) -> str:
     """'Estimated run time ...' from stored timings of the same settings, else from the mechanism size."""
     jobs = resolve_jobs(jobs)
-    secs = default_flame_seconds(len(study.atoms))
-    basis = f"from the mechanism size, {len(study.atoms)} species"
-    measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
-    if measured:
-        secs.update(measured)
-        basis = f"from {sum(len(v) for v in timings.values())} stored timings"
+    secs, basis = flame_seconds(len(study.atoms), timings)
     t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
     when = f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"
     return (f"Estimated run time: about {when} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "

@@ -6,13 +6,12 @@ import sys
 from collections import Counter
 from pathlib import Path
 
-from tqdm import tqdm
-
 from ..columns import gas_label
 from ..config import check_cluster_spec, load_study
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
+from .progress import ProgressDisplay
 from .tables import print_margins, print_points
 
 
@@ -20,22 +19,7 @@ def cmd_run(args) -> int:
     cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
-    bar = None
-    told = False
-
-    def progress(pr) -> None:
-        nonlocal bar, told
-        if pr.stopping and not told:
-            told = True
-            print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
-                  "(Ctrl-C again to stop at once).", file=sys.stderr)
-        if args.quiet:
-            return
-        if bar is None:
-            bar = tqdm(total=pr.total, unit="flame", file=sys.stderr, dynamic_ncols=True,
-                       desc=f"flames ({pr.reused} from the store)", disable=None)
-        bar.set_postfix(no_flame=pr.no_flame, failed=pr.failed, refresh=False)
-        bar.update(pr.done - bar.n)
+    progress = ProgressDisplay(quiet=args.quiet)
 
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
@@ -43,8 +27,7 @@ def cmd_run(args) -> int:
         summary = results.summary
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
-        if bar is not None:
-            bar.close()
+        progress.close()
         what = ""
         if isinstance(exc, RunInterrupted):
             what = (f" {exc.solved} flames solved in this run, {exc.remaining} points left"
@@ -52,8 +35,7 @@ def cmd_run(args) -> int:
         print(f"\nInterrupted.{what} Every finished flame is stored in {out}; run the same command "
               "again to resume.", file=sys.stderr)
         return 130
-    if bar is not None:
-        bar.close()
+    progress.close()
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "

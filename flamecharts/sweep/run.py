@@ -10,7 +10,7 @@ The tree spans every point of the study, stored ones included, so a resumed run 
 each point from the same neighbour as an uninterrupted one (its stored profile) and
 gives the same flames. A worker that dies costs its point up to MAX_RETRIES retries;
 then the point is recorded as failed (reason: worker error) and solved again by the
-next run. Ctrl-C: the first stops handing out work and lets running flames finish and
+next run, as is a flame that ran out of its time limit (reason: time limit). Ctrl-C: the first stops handing out work and lets running flames finish and
 be stored (then :class:`RunInterrupted`), a second stops at once.
 """
 from __future__ import annotations
@@ -27,12 +27,15 @@ from ..errors import FlamechartsError, first_line
 from ..outcome import Reason, Status
 from ..store import Store
 from .points import Point
-from .schedule import Scheduler
+from .schedule import Scheduler, estimate_run_seconds, flame_cost, flame_seconds
 from .warm_tree import StoredFlame, WarmPlan, warm_tree
 from .worker import make_task, solve_task
 
 #: A worker that dies (killed, out of memory) costs its point this many retries.
 MAX_RETRIES = 2
+
+#: Failed points that the next run solves again (the failure may not recur).
+RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
 
 
 @dataclass
@@ -47,6 +50,19 @@ class Progress:
     elapsed_s: float
     last: dict | None = None
     stopping: bool = False  # a first Ctrl-C arrived: no new work, running flames finish
+    estimate_s: float | None = None  # the plan's estimate of this run's wall time (as check prints it)
+    done_share: float = 0.0          # share of the plan's estimated flame cost finished so far
+
+    @property
+    def remaining_s(self) -> float | None:
+        """Seconds still to go: the plan's estimate before the first flame finishes, then the
+        elapsed time scaled by the cost share done (fresh flames, dear, come first: a count of
+        flames would overstate what is left)."""
+        if self.estimate_s is None:
+            return None
+        if self.done_share <= 0:
+            return max(self.estimate_s - self.elapsed_s, 0.0)
+        return self.elapsed_s * (1.0 - self.done_share) / self.done_share
 
 
 class RunInterrupted(KeyboardInterrupt):
@@ -182,12 +198,17 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
     finished flames are stored.
     """
     t0 = time.perf_counter() if t0 is None else t0
-    # points are solved again only when a worker died on them (a transient failure)
-    done_keys = {k for k, r in store.rows().items() if r["reason"] != Reason.WORKER_ERROR}
+    # points are solved again only when a worker died on them or they ran out of time
+    done_keys = {k for k, r in store.rows().items() if r["reason"] not in RETRIED_REASONS}
     unique = unique_points(pts)
     todo = [p for p in unique if p.key not in done_keys]
     out = SolveOutcome(reused=len(pts) - sum(1 for p in pts if p.key not in done_keys))
     loop = _Loop(study, store, unique, todo, backend, uuid.uuid4().hex[:12])
+    secs, _ = flame_seconds(len(study.atoms), store.timings({p.family for p in unique}))
+    cost = {p.index: flame_cost(loop.tree, p.index, secs) for p in todo}
+    total_cost, cost_done = sum(cost.values()) or 1.0, 0.0
+    estimate = estimate_run_seconds(loop.tree.pending(set(cost), {p.index: p.key for p in unique}),
+                                    backend.workers(), secs["fresh"], secs["warm"])
     limit = stop_after if stop_after is not None else len(todo)
     submitted = 0
     ctrl_c = _CtrlC(lambda: (out.solved, loop.sched.remaining))
@@ -196,7 +217,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
         if progress is not None:
             progress(Progress(done=out.solved, total=len(todo), failed=out.failed, no_flame=out.no_flame,
                               reused=out.reused, elapsed_s=time.perf_counter() - t0, last=last,
-                              stopping=ctrl_c.requested))
+                              stopping=ctrl_c.requested, estimate_s=estimate, done_share=cost_done / total_cost))
 
     report()
     clean_exit, told = False, False
@@ -223,6 +244,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
                     store.commit_point(p, result, loop.run_id)
                     loop.finished[p.index] = result
                     loop.sched.finished(p.index)
+                    cost_done += cost[p.index]
                     out.solved += 1
                     out.solve_seconds += result["solve_seconds"]
                     out.failed += result["status"] == Status.FAILED

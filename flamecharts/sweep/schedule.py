@@ -9,6 +9,7 @@ exactly what a run does.
 from __future__ import annotations
 
 import heapq
+import statistics
 from typing import Iterable
 
 from .warm_tree import WarmPlan
@@ -83,6 +84,45 @@ def default_flame_seconds(n_species: int) -> dict[str, float]:
     return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
 
 
+def flame_seconds(n_species: int, timings: dict[str, list[float]]) -> tuple[dict[str, float], str]:
+    """Seconds per flame ('fresh', 'warm') on one core and where they come from: the median of
+    the store's timings of the same settings where it holds at least 3 of a kind, else
+    :func:`default_flame_seconds` of the mechanism size.
+
+    >>> secs, basis = flame_seconds(10, {"fresh": [1.0, 2.0, 3.0], "warm": [0.1]})
+    >>> secs["fresh"], basis
+    (2.0, 'from 4 stored timings')
+    """
+    secs = default_flame_seconds(n_species)
+    measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
+    if not measured:
+        return secs, f"from the mechanism size, {n_species} species"
+    secs.update(measured)
+    return secs, f"from {sum(len(v) for v in timings.values())} stored timings"
+
+
+def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float]) -> float:
+    """Estimated seconds of point ``i`` of ``plan``: from scratch for a root without a stored source."""
+    return secs["fresh"] if (plan.parent[i] is None and i not in plan.stored) else secs["warm"]
+
+
+#: A flame gets this many times its estimated cost from scratch before it is given up ...
+TIME_LIMIT_FACTOR = 20.0
+#: ... and never less than this [s] (a loaded machine, a robust retry).
+MIN_TIME_LIMIT_S = 60.0
+
+
+def flame_time_limit(n_species: int) -> float:
+    """Default time limit of one flame [s]: TIME_LIMIT_FACTOR times the estimated cost of a
+    flame from scratch, at least MIN_TIME_LIMIT_S (a generous bound: only a flame that
+    time-steps or iterates without end reaches it).
+
+    >>> round(flame_time_limit(53)), flame_time_limit(10)
+    (390, 60.0)
+    """
+    return max(MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR * default_flame_seconds(n_species)["fresh"])
+
+
 def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float) -> float:
     """Wall time [s] of running ``plan`` on ``jobs`` workers, roots taking ``fresh_s`` and
     the other points ``warm_s``: a list-scheduling simulation with the run's own
@@ -100,8 +140,7 @@ def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: floa
     while sched.has_ready() or running:
         while sched.has_ready() and len(running) < slots:
             i = sched.pop()
-            cost = fresh_s if (plan.parent[i] is None and i not in plan.stored) else warm_s
-            heapq.heappush(running, (now + cost, i))
+            heapq.heappush(running, (now + flame_cost(plan, i, {"fresh": fresh_s, "warm": warm_s}), i))
         now, i = heapq.heappop(running)
         sched.finished(i)
     return now + START_UP_SECONDS

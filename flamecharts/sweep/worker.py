@@ -17,6 +17,7 @@ from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.mechanism import solution
+from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "physics/flame_measures.py", "sweep/worker.py")
@@ -49,7 +50,8 @@ def make_task(study, point, warm: dict | None) -> dict:
     return {"key": point.key, "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
-            "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm}
+            "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm,
+            "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms))}
 
 
 def solve_task(task: dict) -> dict:
@@ -57,7 +59,8 @@ def solve_task(task: dict) -> dict:
     cpu0 = time.process_time()
     gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
     result = solve_flame(gas, task["T_u"], task["P"], task["X"], task["transport"],
-                         task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"))
+                         task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"),
+                         task.get("time_limit_s"))
     result["key"] = task["key"]
     result["cpu_seconds"] = time.process_time() - cpu0
     return result

@@ -1,0 +1,86 @@
+"""Progress of a run on stderr: a bar on a terminal, plain lines in a log file or batch job."""
+from __future__ import annotations
+
+import sys
+import time
+
+from tqdm import tqdm
+
+#: Without a terminal, a line every this many seconds ...
+LINE_EVERY_S = 60.0
+#: ... or every this share of the flames, whichever comes first.
+LINE_EVERY_SHARE = 0.1
+
+
+def duration(seconds: float) -> str:
+    """'45 s', '3 min', '2 h 5 min'.
+
+    >>> duration(45.2), duration(200), duration(4800), duration(7500)
+    ('45 s', '3 min', '80 min', '2 h 5 min')
+    """
+    if seconds < 90:
+        return f"{seconds:.0f} s"
+    if seconds < 5400:
+        return f"{seconds / 60:.0f} min"
+    return f"{seconds // 3600:.0f} h {seconds % 3600 / 60:.0f} min"
+
+
+class ProgressDisplay:
+    """The progress callback of ``flamecharts run``: a tqdm bar whose time left comes from the
+    plan's estimate refined by the measured cost (Progress.remaining_s), or, when stderr is
+    not a terminal, a plain line every LINE_EVERY_S seconds or LINE_EVERY_SHARE of the flames."""
+
+    def __init__(self, quiet: bool = False, stream=None):
+        self.quiet = quiet
+        self.stream = stream or sys.stderr
+        self.terminal = hasattr(self.stream, "isatty") and self.stream.isatty()
+        self.bar = None
+        self.told_stop = False
+        self._last_line_t = None
+        self._last_line_done = -1
+
+    def __call__(self, pr) -> None:
+        if pr.stopping and not self.told_stop:
+            self.told_stop = True
+            print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
+                  "(Ctrl-C again to stop at once).", file=self.stream)
+        if self.quiet or pr.total == 0:
+            return
+        left = pr.remaining_s
+        left_text = "" if left is None else f"about {duration(left)} left"
+        if self.terminal:
+            self._bar(pr, left_text)
+        else:
+            self._line(pr, left_text)
+
+    def _bar(self, pr, left_text: str) -> None:
+        if self.bar is None:
+            self.bar = tqdm(total=pr.total, unit="flame", file=self.stream, dynamic_ncols=True,
+                            desc=f"flames ({pr.reused} from the store)",
+                            bar_format="{desc}: {percentage:3.0f}%|{bar}| {n_fmt}/{total_fmt} [{elapsed}{postfix}]")
+        self.bar.set_postfix_str(f"{pr.no_flame} no flame, {pr.failed} failed" + (f", {left_text}" if left_text else ""),
+                                 refresh=False)
+        self.bar.update(pr.done - self.bar.n)
+
+    def _line(self, pr, left_text: str) -> None:
+        now = time.monotonic()
+        if self._last_line_t is None:
+            self._last_line_t, self._last_line_done = now, pr.done
+            print(f"flamecharts: {pr.total} flames to solve, {pr.reused} from the store"
+                  + (f"; estimated {duration(pr.estimate_s)}" if pr.estimate_s is not None else ""),
+                  file=self.stream, flush=True)
+            return
+        step = max(1, round(LINE_EVERY_SHARE * pr.total))
+        due = (pr.done >= self._last_line_done + step or now - self._last_line_t >= LINE_EVERY_S
+               or pr.done == pr.total)
+        if not due or pr.done == self._last_line_done:
+            return
+        self._last_line_t, self._last_line_done = now, pr.done
+        print(f"flamecharts: {pr.done}/{pr.total} flames, {pr.no_flame} no flame, {pr.failed} failed, "
+              f"{duration(pr.elapsed_s)} elapsed" + (f", {left_text}" if left_text and pr.done < pr.total else ""),
+              file=self.stream, flush=True)
+
+    def close(self) -> None:
+        if self.bar is not None:
+            self.bar.close()
+            self.bar = None

@@ -1,0 +1,35 @@
+"""Progress of a run: plain lines without a terminal, and a time left from the plan's estimate."""
+import io
+
+from flamecharts.cli.progress import ProgressDisplay
+from flamecharts.sweep.run import Progress
+
+from conftest import run_cli, write_h2_study
+
+
+def test_time_left_starts_from_the_estimate_and_follows_the_cost_done():
+    assert Progress(0, 10, 0, 0, 0, elapsed_s=5.0, estimate_s=100.0).remaining_s == 95.0
+    # a quarter of the estimated cost done in 40 s: three quarters take 120 s more
+    assert Progress(1, 10, 0, 0, 0, elapsed_s=40.0, estimate_s=100.0, done_share=0.25).remaining_s == 120.0
+    assert Progress(0, 10, 0, 0, 0, elapsed_s=5.0).remaining_s is None
+
+
+def test_without_a_terminal_progress_is_plain_lines():
+    out = io.StringIO()
+    show = ProgressDisplay(stream=out)
+    show(Progress(0, 20, 0, 0, 3, elapsed_s=0.1, estimate_s=600.0))
+    for done in range(1, 21):
+        show(Progress(done, 20, 0, 0, 3, elapsed_s=10.0 * done, estimate_s=600.0, done_share=done / 20))
+    lines = out.getvalue().splitlines()
+    assert lines[0] == "flamecharts: 20 flames to solve, 3 from the store; estimated 10 min"
+    assert lines[1].startswith("flamecharts: 2/20 flames, 0 no flame, 0 failed, 20 s elapsed, about 3 min left")
+    assert lines[-1] == "flamecharts: 20/20 flames, 0 no flame, 0 failed, 3 min elapsed"
+    assert len(lines) == 11  # the first line, then every 10 % of the flames
+    assert "\r" not in out.getvalue()
+
+
+def test_a_run_into_a_log_file_shows_progress_lines(tmp_path):
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]")
+    r = run_cli("run", config, "--out", tmp_path / "out", "--jobs", "1", "--no-charts")
+    assert r.returncode == 0, r.stderr
+    assert "flamecharts: 2 flames to solve" in r.stderr and "flamecharts: 2/2 flames" in r.stderr
