@@ -20,6 +20,77 @@ def test_iso6976_2016_annex_d_example_1():
     assert p.method == "ISO 6976:2016"
 
 
+EXAMPLE_3 = {"CH4": 0.922393, "C2H6": 0.025358, "C3H8": 0.015190, "n-C4H10": 0.000523, "i-C4H10": 0.001512,
+             "n-C5H12": 0.002846, "i-C5H12": 0.002832, "neo-C5H12": 0.001015, "n-C6H14": 0.002865,
+             "N2": 0.010230, "CO2": 0.015236}
+
+
+def test_iso6976_2016_annex_d_example_3():
+    # ISO 6976:2016, Annex D, example 3 (11 components, with the C4-C6 alkanes), 15 degC
+    # combustion, 15 degC / 101.325 kPa metering, as printed: superior 39.73351, inferior
+    # 35.86811 MJ/m3, relative density 0.62391, superior Wobbe 50.30318, inferior Wobbe
+    # 45.40954 MJ/m3 (shared/REFERENCE-DATA.md). Tolerances at the last printed digit.
+    p = fuel_gas_properties(EXAMPLE_3, 15, 15)
+    assert p.higher_heating_value_MJ_m3 == pytest.approx(39.73351, abs=1e-5)
+    assert p.lower_heating_value_MJ_m3 == pytest.approx(35.86811, abs=1e-5)
+    assert p.relative_density == pytest.approx(0.62391, abs=1e-5)
+    assert p.higher_wobbe_index_MJ_m3 == pytest.approx(50.30318, abs=1e-5)
+    assert p.lower_wobbe_index_MJ_m3 == pytest.approx(45.40954, abs=1e-5)
+    assert p.method == "ISO 6976:2016" and p.fallback_species == ()
+
+
+def test_iso6976_2016_annex_d_example_3_at_25_0():
+    # ISO 6976:2016, Annex D, example 3 at 25 degC combustion, 0 degC / 101.325 kPa
+    # metering: superior 41.89360, inferior 37.85228 MJ/m3, relative density 0.62411,
+    # superior Wobbe 53.02930, inferior Wobbe 47.91376 MJ/m3, as printed in the standard
+    # and transcribed in the test suite of the open R package ISO6976.2016 (R. Forster,
+    # 2026, tests/testthat/test_iso6976.R); not in shared/REFERENCE-DATA.md. Checks the
+    # 25 degC superior values and 0 degC summation factors of the added alkanes.
+    p = fuel_gas_properties(EXAMPLE_3, 25, 0)
+    assert p.higher_heating_value_MJ_m3 == pytest.approx(41.89360, abs=1e-5)
+    assert p.lower_heating_value_MJ_m3 == pytest.approx(37.85228, abs=1e-5)
+    assert p.relative_density == pytest.approx(0.62411, abs=1e-5)
+    assert p.higher_wobbe_index_MJ_m3 == pytest.approx(53.02930, abs=1e-5)
+    assert p.lower_wobbe_index_MJ_m3 == pytest.approx(47.91376, abs=1e-5)
+
+
+# Atoms of each tabulated species, and the IUPAC atomic weights ISO 6976:2016 uses [g/mol]
+# (C, H, O, N are those the methane, hydrogen, carbon dioxide and nitrogen rows imply).
+ATOMIC_WEIGHT = {"C": 12.0107, "H": 1.00794, "O": 15.9994, "N": 14.0067, "S": 32.065, "He": 4.002602, "Ar": 39.948}
+ATOMS = {"CH4": {"C": 1, "H": 4}, "C2H6": {"C": 2, "H": 6}, "C3H8": {"C": 3, "H": 8}, "H2": {"H": 2},
+         "CO": {"C": 1, "O": 1}, "N2": {"N": 2}, "CO2": {"C": 1, "O": 2},
+         "n-C4H10": {"C": 4, "H": 10}, "i-C4H10": {"C": 4, "H": 10}, "n-C5H12": {"C": 5, "H": 12},
+         "i-C5H12": {"C": 5, "H": 12}, "neo-C5H12": {"C": 5, "H": 12}, "n-C6H14": {"C": 6, "H": 14},
+         "n-C7H16": {"C": 7, "H": 16}, "n-C8H18": {"C": 8, "H": 18}, "C3H6": {"C": 3, "H": 6},
+         "H2S": {"H": 2, "S": 1}, "H2O": {"H": 2, "O": 1}, "O2": {"O": 2}, "He": {"He": 1}, "Ar": {"Ar": 1}}
+
+
+@pytest.mark.parametrize("sp", sorted(ISO6976_2016))
+def test_table_rows_agree_with_their_formula(sp):
+    # Molar mass = sum of the atomic weights (ISO 6976:2016 Table 1 is built that way), the
+    # hydrogen count is the formula's, and every added row covers all reference temperatures.
+    M, n_H, Hs, s = ISO6976_2016[sp]
+    assert M == pytest.approx(sum(n * ATOMIC_WEIGHT[e] for e, n in ATOMS[sp].items()), abs=1e-5)
+    assert n_H == ATOMS[sp].get("H", 0)
+    assert set(s) == {0, 15}
+    if sp != "CO":  # the CO row has no 0 degC value yet
+        assert set(Hs) == {0, 15, 25}
+
+
+def test_added_species_heating_values_follow_the_standard():
+    # Water's superior value is its enthalpy of vaporisation, so its inferior value is zero;
+    # hydrogen sulphide's inferior value at 15 degC is 562.38 - 44.431 = 517.95 kJ/mol;
+    # O2, He and Ar carry no heating value but count in M and Z.
+    for T in (0, 15, 25):
+        assert fuel_gas_properties({"H2O": 1.0}, T, 15).inferior_molar_kJ_mol == pytest.approx(0.0, abs=1e-12)
+    assert fuel_gas_properties({"H2S": 1.0}, 15, 15).inferior_molar_kJ_mol == pytest.approx(517.95, abs=0.01)
+    base = fuel_gas_properties({"CH4": 0.9, "N2": 0.1})
+    for inert in ("O2", "He", "Ar"):
+        p = fuel_gas_properties({"CH4": 0.9, inert: 0.1})
+        assert p.superior_molar_kJ_mol == pytest.approx(base.superior_molar_kJ_mol)
+        assert p.method == "ISO 6976:2016"
+
+
 @pytest.mark.parametrize("gas,Hs,Hi,d,Ws,Wi", [
     # Single gases at 15/15, real gas, computed with the ISO 6976:1995 tables (compiled
     # from open implementations of the standard; not printed in it). The 2016 data used

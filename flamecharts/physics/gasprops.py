@@ -8,12 +8,13 @@ wobbe_index           W = H_v / sqrt(d)
 fuel_gas_properties   all of the above for a composition, with the reference state stated
 
 Data: ISO 6976:2016, Natural gas - Calculation of calorific values, density, relative
-density and Wobbe indices from composition, Table 3 (molar masses), Table 2
+density and Wobbe indices from composition, Table 1 (molar masses), Table 2
 (summation factors) and Table 3 (molar superior calorific values), for the species
-below; the inferior value by the standard's equation, superior minus (n_H/2) times
-the molar enthalpy of vaporisation of water at the combustion temperature. Species
-outside the table fall back to ideal-gas values from the mechanism's thermodynamic
-data (summation factor 0), and the result is flagged.
+below (the sources of each row are given beside the table); the inferior value by
+the standard's equation, superior minus (n_H/2) times the molar enthalpy of
+vaporisation of water at the combustion temperature. Species outside the table fall
+back to ideal-gas values from the mechanism's thermodynamic data (summation factor
+0), and the result is flagged.
 
 Reference states: combustion at 0, 15 or 25 degC; metering at 0 or 15 degC; both at
 101.325 kPa. "15/15" is the European base for appliance test gases (EN 437).
@@ -33,6 +34,29 @@ Z_AIR = {15: 0.999595, 0: 0.999419}
 L_WATER = {25: 44.013, 15: 44.431, 0: 45.064}
 
 #: species -> (M g/mol, hydrogen atoms, {T_comb degC: superior kJ/mol}, {T_meter degC: summation factor})
+#:
+#: Sources. CH4 to CO2 (the first seven rows): ISO 6976:2016 values as collected in
+#: shared/REFERENCE-DATA.md (read from open implementations of the standard).
+#: All other rows: ISO 6976:2016 Table 1 (M), Table 2 (s at 15 and 0 degC) and Table 3
+#: (superior value at 25, 15 and 0 degC), as transcribed in the open R package
+#: ISO6976.2016, R. Forster, version 0.1-0, 2026 (GPL-3; src/iso6976.cpp, arrays TAB_M,
+#: TAB_S, TAB_HC, which it labels Tables A.2-A.4), and identically in E. van der Werff's
+#: Python port of that package, iso6976-py_2016, 2026 (src/iso6976/_tables.py). That
+#: transcription holds every value of the first seven rows as written here, and with it
+#: this module reproduces ISO 6976:2016 Annex D example 3 (C4-C6 alkanes) to the printed
+#: digits (tests/test_gasprops.py). Cross-checks, not copied from: the superior values
+#: and molar masses of the alkanes, C3H6, H2S and H2O equal those of the gross
+#: calorific-value table (2016 form: five temperatures with 15.55 degC, and
+#: uncertainties) hard-coded in VSL's Met4H2 (met4h2.py); the alkane summation factors
+#: equal those of Equinor's NeqSim (src/main/resources/data/ISO6976constants2016.csv).
+#: For C3H6, H2S, H2O, O2, He and Ar the summation factors rest on the Forster
+#: transcription alone: NeqSim's file has other values for them (and H2 0, CO
+#: 0.0224, against the 2016 -0.0100 and 0.0217 above), so it was not used for them.
+#: Molar masses: each equals the sum of the IUPAC atomic weights the standard uses
+#: (C 12.0107, H 1.00794, O 15.9994, N 14.0067, S 32.065, He 4.002602, Ar 39.948;
+#: derived from the first seven rows for C, H, O, N; checked in tests/test_gasprops.py).
+#: Water's superior value is the enthalpy of vaporisation of water (inferior value 0),
+#: as in the standard's Table 3; O2, He and Ar have no heating value.
 ISO6976_2016 = {
     "CH4": (16.04246, 4, {25: 890.58, 15: 891.51, 0: 892.92}, {15: 0.04452, 0: 0.04886}),
     "C2H6": (30.06904, 6, {25: 1560.69, 15: 1562.14, 0: 1564.35}, {15: 0.0919, 0: 0.0997}),
@@ -41,6 +65,24 @@ ISO6976_2016 = {
     "CO": (28.0101, 0, {25: 282.98, 15: 282.91}, {15: 0.0217, 0: 0.0258}),
     "N2": (28.0134, 0, {25: 0.0, 15: 0.0, 0: 0.0}, {15: 0.0170, 0: 0.0214}),
     "CO2": (44.0095, 0, {25: 0.0, 15: 0.0, 0: 0.0}, {15: 0.0752, 0: 0.0821}),
+    # Alkanes (the standard's names: n-butane, 2-methylpropane, n-pentane, 2-methylbutane,
+    # 2,2-dimethylpropane, n-hexane, n-heptane, n-octane)
+    "n-C4H10": (58.1222, 10, {25: 2877.40, 15: 2879.76, 0: 2883.35}, {15: 0.1840, 0: 0.2022}),
+    "i-C4H10": (58.1222, 10, {25: 2868.20, 15: 2870.58, 0: 2874.21}, {15: 0.1722, 0: 0.1885}),
+    "n-C5H12": (72.14878, 12, {25: 3535.77, 15: 3538.60, 0: 3542.91}, {15: 0.2361, 0: 0.2586}),
+    "i-C5H12": (72.14878, 12, {25: 3528.83, 15: 3531.68, 0: 3536.01}, {15: 0.2251, 0: 0.2458}),
+    "neo-C5H12": (72.14878, 12, {25: 3514.61, 15: 3517.44, 0: 3521.75}, {15: 0.2040, 0: 0.2245}),
+    "n-C6H14": (86.17536, 14, {25: 4194.95, 15: 4198.24, 0: 4203.24}, {15: 0.3001, 0: 0.3319}),
+    "n-C7H16": (100.20194, 16, {25: 4853.43, 15: 4857.18, 0: 4862.88}, {15: 0.3668, 0: 0.4076}),
+    "n-C8H18": (114.22852, 18, {25: 5511.80, 15: 5516.01, 0: 5522.41}, {15: 0.4346, 0: 0.4845}),
+    # Alkene
+    "C3H6": (42.07974, 6, {25: 2058.02, 15: 2059.43, 0: 2061.57}, {15: 0.1267, 0: 0.1381}),
+    # Other gases
+    "H2S": (34.08088, 2, {25: 562.01, 15: 562.38, 0: 562.93}, {15: 0.0923, 0: 0.1006}),
+    "H2O": (18.01528, 2, {25: 44.013, 15: 44.431, 0: 45.064}, {15: 0.2562, 0: 0.3093}),
+    "O2": (31.9988, 0, {25: 0.0, 15: 0.0, 0: 0.0}, {15: 0.0276, 0: 0.0311}),
+    "He": (4.002602, 0, {25: 0.0, 15: 0.0, 0: 0.0}, {15: -0.0100, 0: -0.0100}),
+    "Ar": (39.948, 0, {25: 0.0, 15: 0.0, 0: 0.0}, {15: 0.0273, 0: 0.0307}),
 }
 COMBUSTION_TEMPERATURES_C = (0, 15, 25)
 METERING_TEMPERATURES_C = (0, 15)
