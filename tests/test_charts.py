@@ -23,8 +23,8 @@ port_velocity_m_s = 4.0
 """
 
 ALL = ("flame_speed_vs_equivalence_ratio", "thermal_thickness_vs_equivalence_ratio",
-       "pressure_and_preheat_dependence", "blend_comparison", "flashback_chart", "operating_window",
-       "fuel_interchangeability")
+       "adiabatic_flame_temperature_vs_equivalence_ratio", "pressure_and_preheat_dependence", "blend_comparison",
+       "flashback_chart", "operating_window", "fuel_interchangeability")
 
 
 @pytest.fixture(scope="module")
@@ -59,6 +59,27 @@ def test_charts_render_when_every_flame_failed(tmp_path):
     assert all(r["status"] == "no_flame" for r in rows)
     files = draw_all(rows, fuel_gas_table(study), study, tmp_path / "o")
     assert {f.stem for f in files} >= {"flame_speed_vs_equivalence_ratio", "fuel_interchangeability"}
+    assert "adiabatic_flame_temperature_vs_equivalence_ratio" not in {f.stem for f in files}  # needs a flame
+
+
+def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(study_rows):
+    import matplotlib.pyplot as plt
+    from flamecharts.outputs.charts import CHARTS, ChartData
+
+    study, rows, _ = study_rows
+    c = next(c for c in CHARTS if c.name == "adiabatic_flame_temperature_vs_equivalence_ratio")
+    data = ChartData(rows=rows, gases=fuel_gas_table(study))
+    assert c.when(data, study) and "equivalence ratio" in CAPTIONS[c.name]
+    fig = c.draw(data, study)
+    axes = [ax for ax in fig.axes if ax.get_visible() and ax.get_title()]
+    assert len(axes) == 4  # p in (1, 3) bar x T_u in (300, 400) K
+    plotted = {round(float(y), 6) for ax in axes for line in ax.get_lines() for y in line.get_ydata()}
+    stored = {round(r["adiabatic_flame_temperature_K"], 6) for r in rows if r["status"] == "ok"}
+    assert plotted == stored
+    for ax in axes:
+        T_u = float(ax.get_title().split("T_u = ")[1].split(" K")[0])
+        assert ax.get_ylim()[0] == T_u  # axis floor at the preheat, where no-flame points are marked
+    plt.close(fig)
 
 
 def test_power_law_fit_reproduces_known_exponents():

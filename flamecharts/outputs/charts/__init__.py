@@ -2,7 +2,7 @@
 
 registry.py      the one list of charts: name, caption, when it applies
 style.py         what every chart shares: colours, markers, frame, footer with the cautions
-phi_charts.py    flame speed and thickness against equivalence ratio
+phi_charts.py    flame speed, thickness and adiabatic flame temperature against equivalence ratio
 design_charts.py pressure/preheat dependence, blends, flashback, operating window, gas interchangeability
 """
 from __future__ import annotations

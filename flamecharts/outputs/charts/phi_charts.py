@@ -1,11 +1,13 @@
-"""Flame speed and thickness against equivalence ratio.
+"""Flame speed, thickness and adiabatic flame temperature against equivalence ratio.
 
 flame_speed_chart        laminar flame speed vs equivalence ratio
 thermal_thickness_chart  thermal flame thickness vs equivalence ratio
+flame_temperature_chart  adiabatic flame temperature vs equivalence ratio
 
 Layout: one panel per (pressure, unburned temperature), one curve per fuel,
 oxidizer and blend fraction. Points that did not give a flame are not dropped:
-they are marked on the axis floor with their status.
+they are marked on the axis floor with their status (zero, or the panel's unburned
+temperature for the flame temperature chart: no flame, no temperature rise).
 """
 from __future__ import annotations
 
@@ -19,7 +21,7 @@ from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys,
 
 
 def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str,
-               companion: tuple[str, str] | None = None):
+               companion: tuple[str, str] | None = None, floor_at_preheat: bool = False):
     panels = panel_keys(rows)
     curves = curve_keys(rows)
     oxidizers = {c[1] for c in curves}
@@ -32,6 +34,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     handles = {}
     shown: set[str] = set()
     for ax, (P, T) in zip(axes.flat, panels):
+        floor = T * scale if floor_at_preheat else 0.0
         for ci, ck in enumerate(curves):
             sel = sorted((r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == ck
                           and r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
@@ -52,14 +55,14 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
             for status, marker in NOT_BURNING:
                 bad = [r for r in sel if r["status"] == status or (status == "failed" and r["status"] == "pending")]
                 if bad:
-                    ax.scatter([r["equivalence_ratio"] for r in bad], np.zeros(len(bad)), marker=marker,
+                    ax.scatter([r["equivalence_ratio"] for r in bad], np.full(len(bad), floor), marker=marker,
                                edgecolors=colours[ci], facecolors="none" if marker == "v" else colours[ci],
                                s=40, zorder=5, clip_on=False)
                     shown.add(status)
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Equivalence ratio φ [-]")
         ax.set_ylabel(ylabel)
-        ax.set_ylim(bottom=0)
+        ax.set_ylim(bottom=floor)
         ax.grid(True, color="0.88", lw=0.7)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
@@ -101,3 +104,20 @@ def thermal_thickness_chart(data, study):
                       companion=("reaction_zone_thickness_mm",
                                  "dotted: reaction zone thickness\n(heat-release full width at half maximum);\n"
                                  "solid: thermal thickness (T_b − T_u)/max|dT/dx|"))
+
+
+def _any_burning(data, study) -> bool:
+    return any(r["status"] == "ok" and r["adiabatic_flame_temperature_K"] is not None for r in data.rows)
+
+
+@chart("adiabatic_flame_temperature_vs_equivalence_ratio",
+       "Adiabatic flame temperature (burned gas of the free flame) of each fuel and blend against equivalence "
+       "ratio, a panel per pressure and preheat; the axis starts at the preheat. Hotter flames make more "
+       "thermal NOx and heat the burner more.",
+       _any_burning)
+def flame_temperature_chart(data, study):
+    """Adiabatic flame temperature [K] vs equivalence ratio: how hot each mixture burns."""
+    return _phi_chart(data.rows, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
+                      ("Adiabatic flame temperature vs equivalence ratio",
+                       "How hot does each mixture burn? (no flame: marked at the preheat temperature)"),
+                      floor_at_preheat=True)
