@@ -16,35 +16,14 @@ from matplotlib.patches import Patch
 
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
-from .registry import chart
+from .registry import burning_blends, chart, has_margins, has_window, several_blends, varies_p_or_T
 from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, of, ok_rows, phi_near_one, plain_log_ticks
-
-
-def _varies_p_or_T(data, study) -> bool:
-    ok = ok_rows(data.rows)
-    return bool(ok) and (len({r["pressure_bar"] for r in ok}) > 1 or len({r["unburned_temperature_K"] for r in ok}) > 1)
-
-
-def _several_blends(data, study) -> bool:
-    return study.blend_with is not None and len(study.blend_fractions) > 1
-
-
-def _burning_blends(data, study) -> bool:
-    return _several_blends(data, study) and bool(ok_rows(data.rows))
-
-
-def _has_margins(data, study) -> bool:
-    return study.burner is not None and any(r["flashback_margin"] is not None for r in data.rows)
-
-
-def _has_window(data, study) -> bool:
-    return _has_margins(data, study) and _several_blends(data, study) and len(study.equivalence_ratios) > 1
 
 
 @chart("pressure_and_preheat_dependence",
        "Flame speed against pressure and against unburned temperature on log "
        "axes; the legend gives the fitted power-law exponent of each curve.",
-       _varies_p_or_T)
+       varies_p_or_T)
 def pressure_preheat_chart(data, study):
     """Flame speed vs pressure and vs unburned temperature (log axes), exponents in the legend."""
     rows = data.rows
@@ -102,7 +81,7 @@ def _interp_at_fixed_tad(rs, targets):
 @chart("blend_comparison",
        "Flame speed, thickness and adiabatic temperature against blend fraction at fixed "
        "equivalence ratio, and flame speed at fixed adiabatic flame temperature.",
-       _burning_blends)
+       burning_blends)
 def blend_chart(data, study):
     """S_L, thermal thickness and T_ad vs blend fraction per phi; S_L at fixed T_ad."""
     rows = data.rows
@@ -151,7 +130,7 @@ def blend_chart(data, study):
 @chart("flashback_chart",
        "Critical flashback gradient (solid) against the burner's wall velocity gradient "
        "(dashed); the shaded band is the required margin: a dashed line inside or below it is a flashback risk.",
-       _has_margins)
+       has_margins)
 def flashback_chart(data, study):
     """Critical flashback gradient vs phi per blend, with the burner's wall gradient; quench size vs port."""
     rows = data.rows
@@ -204,7 +183,7 @@ def flashback_chart(data, study):
 @chart("operating_window",
        "Map over blend fraction and equivalence ratio: contours of flashback and blowoff "
        "margin; the shaded region meets both minimum margins; dots are solved points.",
-       _has_window)
+       has_window)
 def window_chart(data, study):
     """Operating window over (blend fraction, phi): flashback and blowoff margin contours."""
     rows = data.rows
@@ -259,7 +238,7 @@ def window_chart(data, study):
 @chart("fuel_interchangeability",
        "Wobbe index and heating value of the blends against blend fraction, with the "
        "allowed Wobbe band.",
-       _several_blends)
+       several_blends)
 def gas_quality_chart(data, study):
     """Wobbe index and heating value of the blends vs blend fraction, with the allowed band."""
     table = data.gases

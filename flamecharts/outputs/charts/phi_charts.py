@@ -16,7 +16,7 @@ import numpy as np
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from .registry import chart
+from .registry import any_flame, chart
 from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys
 
 
@@ -106,15 +106,11 @@ def thermal_thickness_chart(data, study):
                                  "solid: thermal thickness (T_b − T_u)/max|dT/dx|"))
 
 
-def _any_burning(data, study) -> bool:
-    return any(r["status"] == "ok" and r["adiabatic_flame_temperature_K"] is not None for r in data.rows)
-
-
 @chart("adiabatic_flame_temperature_vs_equivalence_ratio",
        "Adiabatic flame temperature (burned gas of the free flame) of each fuel and blend against equivalence "
        "ratio, a panel per pressure and preheat; the axis starts at the preheat. Hotter flames make more "
        "thermal NOx and heat the burner more.",
-       _any_burning)
+       any_flame)
 def flame_temperature_chart(data, study):
     """Adiabatic flame temperature [K] vs equivalence ratio: how hot each mixture burns."""
     return _phi_chart(data.rows, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
