@@ -453,4 +453,4 @@ def test_a_lock_left_by_a_killed_run_does_not_block_the_next(tmp_path):
     config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
     s = run_study(load_study(config), out_dir=out, jobs=1)
     assert s.solved == 1
-    assert (out / LOCK_NAME).read_text().startswith(f"pid {os.getpid()} on host ")
+    assert not (out / LOCK_NAME).exists()  # a finished run takes its lock file away

@@ -34,7 +34,7 @@ def cfg(**changes):
 
 
 def test_demo_config_loads_with_its_axes():
-    s = load_study(ROOT / "configs" / "valley_hydrogen_injection.toml")
+    s = load_study(ROOT / "configs" / "district_hydrogen_demo.toml")
     assert s.equivalence_ratios == (0.7, 0.8, 0.9, 1.0, 1.1, 1.2, 1.3)
     assert s.blend_with == "hydrogen" and s.blend_fractions == (0.0, 0.1, 0.2, 0.3)
     assert s.n_points == 28 and s.burner.mode == "supply pressure"
@@ -163,7 +163,7 @@ def test_broken_mechanism_file(tmp_path):
 
 
 ISSUE_EXAMPLE = """
-title = "Valley district gas with hydrogen injection"
+title = "Demo district gas with hydrogen injection"
 mechanism = "gri30.yaml"
 transport = "mixture-averaged"
 

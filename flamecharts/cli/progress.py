@@ -12,6 +12,15 @@ LINE_EVERY_S = 60.0
 LINE_EVERY_SHARE = 0.1
 
 
+def plural(n: int, word: str) -> str:
+    """'1 point', '2 points'.
+
+    >>> plural(1, "point"), plural(28, "flame")
+    ('1 point', '28 flames')
+    """
+    return f"{n} {word}" if n == 1 else f"{n} {word}s"
+
+
 def duration(seconds: float) -> str:
     """'45 s', '3 min', '2 h 5 min'.
 

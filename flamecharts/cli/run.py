@@ -11,7 +11,7 @@ from ..config import check_cluster_spec, load_study
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
-from .progress import ProgressDisplay
+from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points
 
 
@@ -37,7 +37,7 @@ def cmd_run(args) -> int:
         return 130
     progress.close()
     ok = sum(r["status"] == "ok" for r in summary.rows)
-    print(f"{study.title}: {len(summary.rows)} points, {ok} flames, {summary.no_flame} no flame, "
+    print(f"{study.title}: {plural(len(summary.rows), 'point')}, {plural(ok, 'flame')}, {summary.no_flame} no flame, "
           f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
           f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
     if summary.failed:

@@ -9,7 +9,7 @@ def print_gases(study) -> None:
     table = fuel_gas_table(study)
     print(f"Fuel gases ({table[0]['conditions']}; {table[0]['method']}):")
     print(f"  {'gas':38s} {'HHV':>7s} {'LHV':>7s} {'d':>6s} {'W_s':>7s} {'W_i':>7s} {'dW':>7s}  band")
-    print(f"  {'':38s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'-':>6s} {'MJ/m3':>7s} {'MJ/m3':>7s} {'%':>7s}")
+    print(f"  {'':38s} {'MJ/m³':>7s} {'MJ/m³':>7s} {'-':>6s} {'MJ/m³':>7s} {'MJ/m³':>7s} {'%':>7s}")
     for g in table:
         band = "" if g["wobbe_in_band"] is None else ("inside" if g["wobbe_in_band"] else "OUTSIDE")
         print(f"  {gas_label(g) + ' in ' + g['oxidizer']:38s} {g['higher_heating_value_MJ_m3']:7.3f} "

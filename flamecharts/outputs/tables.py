@@ -62,7 +62,7 @@ def write_about(study: Study, path: Path) -> Path:
     lines = [
         f"Study: {study.title}",
         f"Config: {study.config_path or '(from Python)'}",
-        f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256[:16]})",
+        f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256})",
         f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
         f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",

@@ -66,7 +66,13 @@ class RunLock:
         return self
 
     def release(self) -> None:
+        """Unlock and remove the lock file (removed while still held: a run that opens it
+        meanwhile fails its non-blocking lock and says the folder is in use, as it should)."""
         if self._fh is not None:
+            try:
+                os.unlink(self.path)
+            except OSError:
+                pass  # already gone, or a read-only folder: the flock is what counts
             fcntl.flock(self._fh, fcntl.LOCK_UN)
             self._fh.close()
             self._fh = None

@@ -262,11 +262,11 @@ def gas_quality_chart(data, study):
         lo, hi = gs[0]["wobbe_band_low_MJ_m3"], gs[0]["wobbe_band_high_MJ_m3"]
         if lo is not None:
             axes[0, 0].axhspan(lo, hi, color=colours[ci], alpha=0.12)
-            handles[f"allowed {study.gas_quality.wobbe} Wobbe band {lo:.2f}-{hi:.2f} MJ/m3"] = Patch(
+            handles[f"allowed {study.gas_quality.wobbe} Wobbe band {lo:.2f}-{hi:.2f} MJ/m³"] = Patch(
                 color=colours[ci], alpha=0.25)
     handles["higher (superior) value (solid)"] = Line2D([], [], color="0.35")
     handles["lower (inferior) value (dashed)"] = Line2D([], [], color="0.35", linestyle="--")
-    for ax, yl in ((axes[0, 0], "Wobbe index [MJ/m3]"), (axes[0, 1], "Heating value [MJ/m3]")):
+    for ax, yl in ((axes[0, 0], "Wobbe index [MJ/m³]"), (axes[0, 1], "Heating value [MJ/m³]")):
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel(yl)
         ax.grid(True, color="0.9", lw=0.6)
