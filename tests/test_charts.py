@@ -5,7 +5,7 @@ import pytest
 from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
 from flamecharts.outputs.charts import CAPTIONS, draw_all
-from flamecharts.results import exponent_table
+from flamecharts.results import exponent_table, to_dataset
 import xarray as xr
 from flamecharts.physics.fits import fit_power_law
 
@@ -68,7 +68,7 @@ def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(stu
 
     study, rows, _ = study_rows
     c = next(c for c in CHARTS if c.name == "adiabatic_flame_temperature_vs_equivalence_ratio")
-    data = ChartData(rows=rows, gases=fuel_gas_table(study))
+    data = ChartData(rows=rows, gases=fuel_gas_table(study), dataset=to_dataset(study, rows))
     assert c.when(data, study) and "equivalence ratio" in CAPTIONS[c.name]
     fig = c.draw(data, study)
     axes = [ax for ax in fig.axes if ax.get_visible() and ax.get_title()]
@@ -76,9 +76,9 @@ def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(stu
     plotted = {round(float(y), 6) for ax in axes for line in ax.get_lines() for y in line.get_ydata()}
     stored = {round(r["adiabatic_flame_temperature_K"], 6) for r in rows if r["status"] == "ok"}
     assert plotted == stored
-    for ax in axes:
-        T_u = float(ax.get_title().split("T_u = ")[1].split(" K")[0])
-        assert ax.get_ylim()[0] == T_u  # axis floor at the preheat, where no-flame points are marked
+    lowest = min(float(ax.get_title().split("T_u = ")[1].split(" K")[0]) for ax in axes)
+    for ax in axes:  # one shared scale whose floor is the lowest preheat (no flame is marked at its own)
+        assert ax.get_ylim() == axes[0].get_ylim() and ax.get_ylim()[0] == lowest
     plt.close(fig)
 
 
@@ -98,3 +98,92 @@ def test_power_law_fit_reproduces_known_exponents():
     betas = [t["value"] for t in table if t["exponent"] == "pressure_exponent_beta"]
     alphas = [t["value"] for t in table if t["exponent"] == "temperature_exponent_alpha"]
     assert betas == pytest.approx([-0.45] * 3) and alphas == pytest.approx([1.8] * 2)
+
+
+# ---- what a new user found misleading (each test fails on the charts as they were)
+def _chart(name):
+    from flamecharts.outputs.charts import CHARTS
+
+    return next(c for c in CHARTS if c.name == name)
+
+
+def _data(study, rows):
+    from flamecharts.outputs.charts import ChartData
+
+    return ChartData(rows=rows, gases=fuel_gas_table(study), dataset=to_dataset(study, rows))
+
+
+def test_the_window_fill_and_its_edge_lines_come_from_one_field():
+    """A cell whose corners each break one margin, while both margins hold at its centre
+    (bilinear): the centre is green. Filling the corner-wise minimum, as the chart did,
+    left the whole cell white between the two lines."""
+    import matplotlib.pyplot as plt
+    from types import SimpleNamespace
+
+    from flamecharts.outputs.charts.design_charts import window_chart
+
+    fb = 1.5 * np.array([[2.0, 0.5], [0.5, 2.0]])  # (blend fraction, phi)
+    bo = 1.5 * np.array([[0.5, 2.0], [2.0, 0.5]])
+    dims = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K", "equivalence_ratio")
+
+    def var(a):
+        return (dims, a[None, None, :, None, None, :])
+    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo),
+                     "warnings": var(np.full((2, 2), ""))},
+                    coords={"fuel": ["gas"], "oxidizer": ["air"], "blend_fraction": [0.0, 0.2], "pressure_bar": [1.0],
+                            "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
+    burner = SimpleNamespace(min_flashback_margin=1.5, min_blowoff_margin=1.5, name="test burner")
+    study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
+                            thermal_diffusion=False, resolution="standard")
+    fig = window_chart(SimpleNamespace(dataset=ds, rows=[], gases=[]), study)
+    ax = fig.axes[0]
+    green = [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
+             and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
+    assert green and any(p.contains_point((10.0, 1.0)) for c in green for p in c.get_paths())
+    assert not any(p.contains_point((1.0, 0.91)) for c in green for p in c.get_paths())  # corner: FB fails
+    plt.close(fig)
+
+
+def test_panels_share_one_flame_speed_scale_and_warned_points_are_ringed(study_rows):
+    import matplotlib.pyplot as plt
+
+    study, rows, _ = study_rows
+    rows = [dict(r) for r in rows]
+    burning = [r for r in rows if r["status"] == "ok"]
+    burning[0]["warnings"] = burning[3]["warnings"] = "pressure outside the mechanism's range (test)"
+    fig = _chart("flame_speed_vs_equivalence_ratio").draw(_data(study, rows), study)
+    axes = [ax for ax in fig.axes if ax.get_visible() and ax.get_title()]
+    assert len(axes) == 4 and len({ax.get_ylim() for ax in axes}) == 1
+    red = (0xb2 / 255, 0x18 / 255, 0x2b / 255)
+    rings = sum(len(c.get_offsets()) for ax in axes for c in ax.collections
+                if len(c.get_edgecolor()) and np.allclose(c.get_edgecolor()[0][:3], red))
+    assert rings == 2
+    plt.close(fig)
+
+
+def test_only_the_varied_axis_is_drawn_and_two_point_fits_say_so(tmp_path):
+    import matplotlib.pyplot as plt
+
+    study = load_study(write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]", pressures="[1.0, 2.0]"))
+    rows = run_study(study, out_dir=tmp_path / "o", jobs=1).rows
+    c = _chart("pressure_and_preheat_dependence")
+    fig = c.draw(_data(study, rows), study)
+    titles = [ax.get_title() for ax in fig.axes if ax.get_visible() and ax.get_title()]
+    assert titles == ["S_L ∝ p^β (φ = 1)"]  # one preheat: no empty T_u panel
+    assert all("through 2 points only" in t.get_text() for t in fig.legends[0].get_texts())
+    plt.close(fig)
+
+
+def test_blend_comparison_covers_every_condition_and_flashback_plots_the_margin(study_rows):
+    import matplotlib.pyplot as plt
+
+    study, rows, _ = study_rows
+    fig = _chart("blend_comparison").draw(_data(study, rows), study)
+    titles = " ".join(ax.get_title() for ax in fig.axes)
+    assert "1 bar, 300 K" in titles and "3 bar, 300 K" in titles and "1 bar, 400 K" in titles
+    plt.close(fig)
+    fig = _chart("flashback_chart").draw(_data(study, rows), study)
+    plotted = {round(float(y), 9) for ax in fig.axes[::2] for line in ax.get_lines() for y in line.get_ydata()}
+    margins = {round(r["flashback_margin"], 9) for r in rows if r["flashback_margin"] is not None}
+    assert margins <= plotted  # the verdict's own number, one curve per blend
+    plt.close(fig)

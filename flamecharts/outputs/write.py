@@ -25,7 +25,7 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     if exponents:
         files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if charts:
-        files += draw_all(rows, gases, study, out)
+        files += draw_all(rows, gases, study, out, ds)
     if charts and report:
         files.append(write_report(study, rows, out, gases))
     return files

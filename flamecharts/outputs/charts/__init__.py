@@ -10,6 +10,9 @@ from __future__ import annotations
 from pathlib import Path
 
 import matplotlib.pyplot as plt
+import xarray as xr
+
+from ...results import to_dataset
 
 from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
 from . import design_charts  # noqa: F401,I001
@@ -19,9 +22,10 @@ from .registry import CHARTS, ChartData
 CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
-def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path) -> list[Path]:
-    """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files."""
-    data = ChartData(rows=rows, gases=gases)
+def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None) -> list[Path]:
+    """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
+    ``dataset`` is results.to_dataset of the rows (made here when not given)."""
+    data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset)
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
     written = []

@@ -13,6 +13,7 @@ from __future__ import annotations
 import numpy as np
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
+from scipy.interpolate import RegularGridInterpolator
 
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
@@ -32,11 +33,14 @@ def pressure_preheat_chart(data, study):
     sel = [r for r in ok if r["equivalence_ratio"] == phi]
     keys = fuel_keys(sel)
     colours = colour_scale(len(keys))
-    fig, axes = figure(2)
+    varied = [axis for axis in (("pressure_bar", "unburned_temperature_K", "β", "bar"),
+                                ("unburned_temperature_K", "pressure_bar", "α", "K"))
+              if len({r[axis[0]] for r in ok}) > 1]  # draw only what the study varies
+    fig, axes = figure(len(varied))
     handles = {}
-    for ai, (along, fixed, sym, unit) in enumerate((("pressure_bar", "unburned_temperature_K", "β", "bar"),
-                                                     ("unburned_temperature_K", "pressure_bar", "α", "K"))):
+    for ai, (along, fixed, sym, unit) in enumerate(varied):
         ax = axes[0, ai]
+        is_p = along == "pressure_bar"
         fixed_values = sorted({r[fixed] for r in sel})
         for ci, key in enumerate(keys):
             for fi, fv in enumerate(fixed_values):
@@ -46,21 +50,22 @@ def pressure_preheat_chart(data, study):
                 x = [r[along] for r in rs]
                 y = [100 * r["laminar_flame_speed_m_s"] for r in rs]
                 b, _ = fit_power_law(x, y)
-                label = (f"{gas_label(rs[0])}, {'T_u' if fixed.startswith('unburned') else 'p'} = {fv:g} "
-                         f"{'K' if fixed.startswith('unburned') else 'bar'}: {sym} = {b:+.2f}")
+                label = (f"{gas_label(rs[0])}, {'p' if not is_p else 'T_u'} = {fv:g} "
+                         f"{'bar' if not is_p else 'K'}: {sym} = {b:+.2f}"
+                         + (" (through 2 points only)" if len(rs) == 2 else f" ({len(rs)} points)"))
                 h, = ax.plot(x, y, color=colours[ci], marker=MARKERS[fi % len(MARKERS)],
-                             linestyle="-" if ai == 0 else "--", lw=1.5, label=label)
+                             linestyle="-" if is_p else "--", lw=1.5, label=label)
                 handles[label] = h
         ax.set_xscale("log")
         ax.set_yscale("log")
         plain_log_ticks(ax)
-        ax.set_xlabel("Pressure p [bar]" if ai == 0 else "Unburned temperature T_u [K]")
+        ax.set_xlabel("Pressure p [bar]" if is_p else "Unburned temperature T_u [K]")
         ax.set_ylabel("Laminar flame speed S_L [cm/s]")
-        ax.set_title(f"S_L ∝ {'p^β' if ai == 0 else 'T_u^α'} (φ = {phi:g})", fontsize=10)
+        ax.set_title(f"S_L ∝ {'p^β' if is_p else 'T_u^α'} (φ = {phi:g})", fontsize=10)
         ax.grid(True, which="both", color="0.9", lw=0.6)
     return finish(fig, study, ("Pressure and preheat dependence of the flame speed",
-                                "How does S_L scale? Power-law exponents fitted per curve "
-                                "(Metghalchi & Keck form); all φ in power_law_exponents.csv"),
+                                "How does S_L scale? Exponents fitted per curve (Metghalchi & Keck);\n"
+                                "every φ in power_law_exponents.csv"),
                    handles, "Fuel and fitted exponent")
 
 
@@ -78,61 +83,79 @@ def _interp_at_fixed_tad(rs, targets):
     return [float(np.interp(t, T, S, left=np.nan, right=np.nan)) for t in targets]
 
 
+#: Conditions (fuel, oxidizer, pressure, preheat) the blend comparison draws at most; the
+#: rest are named on the chart and are in results.csv.
+MAX_BLEND_CONDITIONS = 3
+
+
 @chart("blend_comparison",
-       "Flame speed, thickness and adiabatic temperature against blend fraction at fixed "
-       "equivalence ratio, and flame speed at fixed adiabatic flame temperature.",
+       "Flame speed, thickness and adiabatic temperature against blend fraction at fixed equivalence ratio, and "
+       "flame speed at fixed adiabatic flame temperature, a block of four panels per fuel and condition.",
        burning_blends)
 def blend_chart(data, study):
-    """S_L, thermal thickness and T_ad vs blend fraction per phi; S_L at fixed T_ad."""
-    rows = data.rows
-    ok = ok_rows(rows)
-    P, T = sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok})[0]
-    ok = [r for r in ok if r["pressure_bar"] == P and r["unburned_temperature_K"] == T]
-    fuel, ox = ok[0]["fuel"], ok[0]["oxidizer"]
-    ok = [r for r in ok if r["fuel"] == fuel and r["oxidizer"] == ox]
-    phis = sorted({r["equivalence_ratio"] for r in ok})
-    fracs = sorted({r["blend_fraction"] for r in ok})
+    """S_L, thermal thickness and T_ad vs blend fraction per phi; S_L at fixed T_ad; per fuel and condition."""
+    ok_all = ok_rows(data.rows)
+    conditions = sorted({(r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) for r in ok_all},
+                        key=lambda c: (study.sweep_fuels.index(c[0]), study.sweep_oxidizers.index(c[1]), c[2], c[3]))
+    shown = conditions[:MAX_BLEND_CONDITIONS]
+    phis = sorted({r["equivalence_ratio"] for r in ok_all})
     colours = colour_scale(len(phis))
-    fig, axes = figure(4, width=3.6)
+    fig, axes = figure(2, nrows=2 * len(shown), width=5.0, height=3.3)
     handles = {}
-    for ai, (col, scale, ylabel) in enumerate((("laminar_flame_speed_m_s", 100, "S_L [cm/s]"),
-                                               ("thermal_thickness_mm", 1, "Thermal thickness δ_T [mm]"),
-                                               ("adiabatic_flame_temperature_K", 1, "Adiabatic flame T [K]"))):
-        ax = axes[0, ai]
-        for pi, phi in enumerate(phis):
-            rs = sorted((r for r in ok if r["equivalence_ratio"] == phi), key=lambda r: r["blend_fraction"])
-            h, = ax.plot([100 * r["blend_fraction"] for r in rs], [scale * r[col] for r in rs],
-                         color=colours[pi], marker=MARKERS[pi % len(MARKERS)], lw=1.4, markersize=4)
-            handles[f"φ = {phi:g}"] = h
+    for k, (fuel, ox, P, T) in enumerate(shown):
+        ok = [r for r in ok_all if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
+              == (fuel, ox, P, T)]
+        fracs = sorted({r["blend_fraction"] for r in ok})
+        where = f"{fuel} in {ox}, {P:g} bar, {T:g} K"
+        for ai, (col, scale, ylabel) in enumerate((("laminar_flame_speed_m_s", 100, "S_L [cm/s]"),
+                                                   ("thermal_thickness_mm", 1, "Thermal thickness δ_T [mm]"),
+                                                   ("adiabatic_flame_temperature_K", 1, "Adiabatic flame T [K]"))):
+            ax = axes[2 * k + ai // 2, ai % 2]
+            for pi, phi in enumerate(phis):
+                rs = sorted((r for r in ok if r["equivalence_ratio"] == phi), key=lambda r: r["blend_fraction"])
+                if not rs:
+                    continue
+                h, = ax.plot([100 * r["blend_fraction"] for r in rs], [scale * r[col] for r in rs],
+                             color=colours[pi], marker=MARKERS[pi % len(MARKERS)], lw=1.4, markersize=4)
+                handles[f"φ = {phi:g}"] = h
+            ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
+            ax.set_ylabel(ylabel)
+            ax.set_title(where, fontsize=9)
+            ax.grid(True, color="0.9", lw=0.6)
+        ax = axes[2 * k + 1, 1]
+        base = sorted((r for r in ok if r["blend_fraction"] == fracs[0]), key=lambda r: r["equivalence_ratio"])
+        peak = int(np.argmax([r["adiabatic_flame_temperature_K"] for r in base])) if base else 0
+        targets = [r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]]
+        greys = [str(g) for g in np.linspace(0.0, 0.6, max(len(targets), 1))]
+        for ti, t in enumerate(targets):
+            S = np.array([_interp_at_fixed_tad([r for r in ok if r["blend_fraction"] == f], [t])[0] for f in fracs])
+            if np.isfinite(S).sum() < 2:
+                continue  # one blend reaches this temperature on its lean side: no comparison to draw
+            ax.plot([100 * f for f in fracs], 100 * S, color=greys[ti], marker="s", lw=1.4, markersize=4,
+                    linestyle="--")
+            ax.annotate(f"{t:.0f} K", (100 * fracs[np.flatnonzero(np.isfinite(S))[-1]], 100 * S[np.isfinite(S)][-1]),
+                        textcoords="offset points", xytext=(4, 0), fontsize=7, color=greys[ti], va="center")
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
-        ax.set_ylabel(ylabel)
+        ax.set_ylabel("S_L at fixed T_ad [cm/s]")
+        ax.set_title(f"{where}: at equal flame temperature", fontsize=9)
         ax.grid(True, color="0.9", lw=0.6)
-    ax = axes[0, 3]
-    base = sorted((r for r in ok if r["blend_fraction"] == fracs[0]), key=lambda r: r["equivalence_ratio"])
-    peak = int(np.argmax([r["adiabatic_flame_temperature_K"] for r in base])) if base else 0
-    targets = [r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]]
-    tcol = colour_scale(len(targets))
-    for ti, t in enumerate(targets):
-        S = [_interp_at_fixed_tad([r for r in ok if r["blend_fraction"] == f], [t])[0] for f in fracs]
-        h, = ax.plot([100 * f for f in fracs], [100 * s for s in S], color=tcol[ti], marker="s", lw=1.4,
-                     markersize=4, linestyle="--")
-        handles[f"T_ad = {t:.0f} K (dashed, right panel)"] = h
-    ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
-    ax.set_ylabel("S_L at fixed T_ad [cm/s]")
-    ax.set_title("at equal flame temperature", fontsize=9)
-    ax.grid(True, color="0.9", lw=0.6)
-    return finish(fig, study, (f"Blend comparison: {fuel} with {study.blend_with}, p = {P:g} bar, T_u = {T:g} K",
-                                "What does blending change? Left three panels at fixed φ; right: S_L at fixed "
-                                "adiabatic flame temperature (interpolated along the lean side)"),
+    handles["S_L at a fixed T_ad (grey, dashed;\nT_ad of the unblended gas on its lean side)"] = Line2D(
+        [], [], color="0.3", marker="s", linestyle="--")
+    note = ("" if len(conditions) == len(shown) else
+            f"\nShown: the first {len(shown)} of {len(conditions)} fuel/condition blocks; all are in results.csv")
+    return finish(fig, study, (f"Blend comparison: {study.blend_with} blended in",
+                                "What does blending change? At fixed φ, and S_L at equal adiabatic flame "
+                                f"temperature{note}"),
                    handles, "Equivalence ratio / flame temperature")
 
 
 @chart("flashback_chart",
-       "Critical flashback gradient (solid) against the burner's wall velocity gradient "
-       "(dashed); the shaded band is the required margin: a dashed line inside or below it is a flashback risk.",
+       "Flashback margin g_wall/g_F of each blend against equivalence ratio, one panel per pressure and preheat: "
+       "a curve in the red zone under the minimum-margin line is a flashback risk. Right: quenching size "
+       "against the port size.",
        has_margins)
 def flashback_chart(data, study):
-    """Critical flashback gradient vs phi per blend, with the burner's wall gradient; quench size vs port."""
+    """Flashback margin vs phi per blend with the required minimum; quench size vs port size."""
     rows = data.rows
     b = study.burner
     ok = [r for r in ok_rows(rows) if r["flashback_margin"] is not None]
@@ -141,28 +164,30 @@ def flashback_chart(data, study):
     colours = colour_scale(len(keys))
     fig, axes = figure(2, nrows=len(panels))
     handles = {}
+    top = max(r["flashback_margin"] for r in ok)
     for pi, (P, T) in enumerate(panels):
         ax, axq = axes[pi, 0], axes[pi, 1]
+        ax.axhspan(0, b.min_flashback_margin, color="#f4cccc", lw=0, zorder=0)
+        ax.axhline(b.min_flashback_margin, color="#b2182b", lw=1.4, zorder=1)
         for ci, key in enumerate(keys):
             rs = sorted((r for r in of(ok, key) if r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
                         key=lambda r: r["equivalence_ratio"])
             if not rs:
                 continue
             phi = [r["equivalence_ratio"] for r in rs]
-            gF = np.array([r["flashback_critical_gradient_1_s"] for r in rs])
-            gw = [r["wall_velocity_gradient_1_s"] for r in rs]
-            label = gas_label(rs[0])
-            h, = ax.plot(phi, gF, color=colours[ci], marker=MARKERS[ci % len(MARKERS)], lw=1.6, label=label)
-            ax.fill_between(phi, gF, gF * b.min_flashback_margin, color=colours[ci], alpha=0.15, lw=0)
-            ax.plot(phi, gw, color=colours[ci], linestyle="--", lw=1.4)
+            low = min(of(ok, key), key=lambda r: r["flashback_margin"])
+            where = f", {low['pressure_bar']:g} bar, {low['unburned_temperature_K']:g} K" if len(panels) > 1 else ""
+            label = f"{gas_label(rs[0])}\n(lowest {low['flashback_margin']:.2f} at φ {low['equivalence_ratio']:g}{where})"
+            h, = ax.plot(phi, [r["flashback_margin"] for r in rs], color=colours[ci],
+                         marker=MARKERS[ci % len(MARKERS)], lw=1.8, label=label, zorder=3)
             handles[label] = h
             q = "tube_quenching_diameter_mm" if b.port == "round" else "quenching_distance_mm"
             axq.plot(phi, [r[q] for r in rs], color=colours[ci], marker=MARKERS[ci % len(MARKERS)], lw=1.4)
-        ax.set_yscale("log")
+        ax.set_ylim(0, 1.08 * max(top, 1.2 * b.min_flashback_margin))
         ax.set_xlabel("Equivalence ratio φ [-]")
-        ax.set_ylabel("Velocity gradient [1/s]")
-        ax.set_title(f"Flashback, p = {P:g} bar, T_u = {T:g} K", fontsize=10)
-        ax.grid(True, which="both", color="0.9", lw=0.6)
+        ax.set_ylabel("Flashback margin g_wall / g_F [-]")
+        ax.set_title(f"Flashback margin, p = {P:g} bar, T_u = {T:g} K", fontsize=10)
+        ax.grid(True, color="0.9", lw=0.6)
         axq.axhline(b.port_size_m * 1e3, color="0.2", lw=1.4, linestyle="-.")
         axq.set_xlabel("Equivalence ratio φ [-]")
         axq.set_ylabel(("Tube quenching diameter" if b.port == "round" else "Plate quenching distance") + " [mm]")
@@ -170,66 +195,87 @@ def flashback_chart(data, study):
                       fontsize=9)
         axq.set_ylim(bottom=0)
         axq.grid(True, color="0.9", lw=0.6)
-    handles["critical gradient g_F (solid)"] = Line2D([], [], color="0.35", lw=1.6)
-    handles[f"burner wall gradient, {b.name} (dashed)"] = Line2D([], [], color="0.35", lw=1.4, linestyle="--")
-    handles[f"required margin x{b.min_flashback_margin:g} (band)"] = Patch(color="0.35", alpha=0.2)
+    handles[f"minimum flashback margin {b.min_flashback_margin:g} (red line);\nunder it: flashback risk"] = Patch(
+        facecolor="#f4cccc", edgecolor="#b2182b")
     handles[f"port {'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"] = Line2D(
         [], [], color="0.2", lw=1.4, linestyle="-.")
     return finish(fig, study, (f"Flashback check: {b.name}",
-                                "Will the flame flash back? Safe where the dashed wall gradient stays above the "
-                                "shaded band of its own colour"), handles, "Fuel and burner")
+                                "Will the flame flash back? Each blend is safe where its curve stays above the red "
+                                "line"), handles, "Fuel and burner")
+
+
+#: Points per axis of the fine grid the window's margins are interpolated on.
+WINDOW_GRID_POINTS = 241
+
+
+def _fine_field(values: np.ndarray, fracs: np.ndarray, phis: np.ndarray, xf: np.ndarray, yf: np.ndarray):
+    """A margin on the solved (blend fraction, phi) grid read bilinearly onto the fine grid
+    (xf, yf); NaN wherever a corner of its cell has no flame."""
+    return RegularGridInterpolator((fracs, phis), values, method="linear", bounds_error=False)(
+        np.stack(np.meshgrid(xf, yf, indexing="ij"), axis=-1))
 
 
 @chart("operating_window",
-       "Map over blend fraction and equivalence ratio: contours of flashback and blowoff "
-       "margin; the shaded region meets both minimum margins; dots are solved points.",
+       "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read bilinearly "
+       "between the solved points (dots); the green region keeps both minimum margins and is bounded by "
+       "exactly the two lines drawn; hatched: no flame or failed.",
        has_window)
 def window_chart(data, study):
-    """Operating window over (blend fraction, phi): flashback and blowoff margin contours."""
-    rows = data.rows
-    b = study.burner
-    rs_all = [r for r in rows if r["flashback_margin"] is not None or r["status"] != "ok"]
-    panels = sorted({(r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
+    """Operating window over (blend fraction, phi): one interpolated field per margin, the fill and
+    both edge lines drawn from it, so the two can never disagree."""
+    ds, b = data.dataset, study.burner
+    panels = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in ds.pressure_bar.values
+              for t in ds.unburned_temperature_K.values]
     fig, axes = figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
-    fracs = sorted({r["blend_fraction"] for r in rows})
-    phis = sorted({r["equivalence_ratio"] for r in rows})
+    products = []
     for ax, (fuel, ox, P, T) in zip(axes.flat, panels):
-        fb = np.full((len(phis), len(fracs)), np.nan)
-        bo = np.full_like(fb, np.nan)
-        for r in rs_all:
-            if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) != (fuel, ox, P, T):
-                continue
-            i, j = phis.index(r["equivalence_ratio"]), fracs.index(r["blend_fraction"])
-            if r["flashback_margin"] is not None:
-                fb[i, j], bo[i, j] = r["flashback_margin"], r["blowoff_margin"]
-        X, Y = np.meshgrid([100 * f for f in fracs], phis)
-        # the acceptable region is where the smaller of the two margin ratios is at least 1
-        worst = np.fmin(fb / b.min_flashback_margin, bo / b.min_blowoff_margin)
-        if np.nanmax(worst) >= 1.0:
+        at = ds.sel(fuel=fuel, oxidizer=ox, pressure_bar=P, unburned_temperature_K=T).sortby(
+            ["blend_fraction", "equivalence_ratio"])
+        fracs, phis = at.blend_fraction.values, at.equivalence_ratio.values
+        fb = at.flashback_margin.transpose("blend_fraction", "equivalence_ratio").values
+        bo = at.blowoff_margin.transpose("blend_fraction", "equivalence_ratio").values
+        products.append((fb * bo)[np.isfinite(fb * bo)])
+        xf = np.linspace(fracs[0], fracs[-1], WINDOW_GRID_POINTS)
+        yf = np.linspace(phis[0], phis[-1], WINDOW_GRID_POINTS)
+        fbf, bof = _fine_field(fb, fracs, phis, xf, yf), _fine_field(bo, fracs, phis, xf, yf)
+        X, Y = np.meshgrid(100 * xf, yf, indexing="ij")
+        worst = np.fmin(fbf / b.min_flashback_margin, bof / b.min_blowoff_margin)
+        if np.nanmax(worst, initial=-np.inf) >= 1.0:
             ax.contourf(X, Y, worst, levels=[1.0, np.inf], colors=["#bfe3bf"])
-        if np.isnan(fb).any():
-            ax.contourf(X, Y, np.isnan(fb).astype(float), levels=[0.5, 1.5], colors=["0.85"], hatches=["//"])
-        for grid, level, colour, style, tag in ((fb, b.min_flashback_margin, "#7b2d8e", "-", "flashback"),
-                                                (bo, b.min_blowoff_margin, "#1f6f6f", "--", "blowoff")):
-            if np.nanmin(grid) < level < np.nanmax(grid):
-                cs = ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.6, linestyles=style)
-                ax.clabel(cs, fmt=f"{tag} %.1f", fontsize=7.5)
-        ax.plot(X.ravel(), Y.ravel(), "k.", markersize=3)
+        if np.isnan(worst).any():
+            ax.contourf(X, Y, np.isnan(worst).astype(float), levels=[0.5, 1.5], colors=["0.85"], hatches=["//"])
+        for grid, level, colour, style in ((fbf, b.min_flashback_margin, "#7b2d8e", "-"),
+                                           (bof, b.min_blowoff_margin, "#1f6f6f", "--")):
+            if np.nanmin(grid, initial=np.inf) < level < np.nanmax(grid, initial=-np.inf):
+                ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.8, linestyles=style)
+        Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
+        warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
+        ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, clip_on=False, zorder=6)
+        if warned.any():
+            ax.plot(Xs[warned], Ys[warned], "x", color="#b2182b", markersize=6, clip_on=False, zorder=6)
+        ax.margins(0.03)
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel("Equivalence ratio φ [-]")
         ax.set_title(f"{fuel} in {ox}, p = {P:g} bar, T_u = {T:g} K", fontsize=10)
     for ax in list(axes.flat)[len(panels):]:
         ax.set_visible(False)
     handles = {
-        f"meets both minimum margins (FB ≥ {b.min_flashback_margin:g}, BO ≥ {b.min_blowoff_margin:g})":
-            Patch(color="#cfe8cf"),
-        f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(more hydrogen or φ nearer 1.1 lowers it)":
-            Line2D([], [], color="#7b2d8e", lw=1.6),
-        f"blowoff margin g_B/g_wall = {b.min_blowoff_margin:g}\n(leaner or richer lowers it)":
-            Line2D([], [], color="#1f6f6f", lw=1.6, linestyle="--"),
+        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, BO ≥ {b.min_blowoff_margin:g})":
+            Patch(color="#bfe3bf"),
+        f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, lowers it)":
+            Line2D([], [], color="#7b2d8e", lw=1.8),
+        f"blowoff margin g_B/g_wall = {b.min_blowoff_margin:g}\n(a slower flame lowers it)":
+            Line2D([], [], color="#1f6f6f", lw=1.8, linestyle="--"),
         "no flame or failed (hatched)": Patch(facecolor="0.85", hatch="//"),
         "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
     }
+    if any((ds.warnings.values != "").ravel()):
+        handles["solved point with a range warning\n(see results.csv, warnings)"] = Line2D(
+            [], [], color="#b2182b", marker="x", linestyle="none")
+    allp = np.concatenate(products) if products else np.array([])
+    if allp.size and np.ptp(allp) <= 0.01 * np.median(allp):
+        handles[f"FB × BO = g_B/g_F = {np.median(allp):.2f} at every point:\nboth edges are one quantity, "
+                "S_L²/α_u against\nthe wall gradient (indicator constants)"] = Line2D([], [], linestyle="none")
     return finish(fig, study, (f"Operating window: {b.name}",
                                 "Where can it run? Blend fraction and equivalence ratio that keep both margins"),
                    handles, "Margins")

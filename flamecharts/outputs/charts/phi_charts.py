@@ -29,7 +29,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     ncols = min(3, int(np.ceil(np.sqrt(n))))
     nrows = int(np.ceil(n / ncols))
     fig, axes = plt.subplots(nrows, ncols, figsize=(max(10.0, 4.4 * ncols + 3.5), 3.5 * nrows + 2.0),
-                             squeeze=False, layout="constrained")
+                             squeeze=False, layout="constrained", sharey=True)  # one scale: panels compare
     colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
     handles = {}
     shown: set[str] = set()
@@ -48,6 +48,11 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
             h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
                          label=label, **style)
             handles.setdefault(label, h)  # a curve with no flame at all still has its legend entry
+            warned = [r for r in good if r.get("warnings")]
+            if warned:
+                ax.scatter([r["equivalence_ratio"] for r in warned], [r[column] * scale for r in warned],
+                           marker="o", s=110, facecolors="none", edgecolors="#b2182b", linewidths=1.3, zorder=6)
+                shown.add("warned")
             if companion is not None:
                 ax.plot([r["equivalence_ratio"] for r in good], [r[companion[0]] * scale for r in good],
                         color=colours[ci], marker=MARKERS[ci % len(MARKERS)], markerfacecolor="none",
@@ -62,8 +67,9 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Equivalence ratio φ [-]")
         ax.set_ylabel(ylabel)
-        ax.set_ylim(bottom=floor)
+        ax.tick_params(labelleft=True)  # shared scale, but every panel keeps its numbers
         ax.grid(True, color="0.88", lw=0.7)
+    axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale if floor_at_preheat else 0.0)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
     for status, marker in NOT_BURNING:
@@ -72,6 +78,9 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
                     else "solver failed or not solved yet (on the axis)")
             handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
                                    linestyle="none", markersize=7)
+    if "warned" in shown:
+        handles["outside the range the method or mechanism\ncovers (red ring; see warnings in results.csv)"] = Line2D(
+            [], [], marker="o", markersize=9, markerfacecolor="none", markeredgecolor="#b2182b", linestyle="none")
     if companion is not None:
         handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
                                        markersize=4)

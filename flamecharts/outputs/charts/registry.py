@@ -12,13 +12,17 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable
 
+import xarray as xr
+
 
 @dataclass(frozen=True)
 class ChartData:
-    """What charts read: one row per point (columns.COLUMNS) and one per fuel gas (GAS_TABLE_COLUMNS)."""
+    """What charts read: one row per point (columns.COLUMNS), one per fuel gas
+    (GAS_TABLE_COLUMNS), and the same points as the labelled table (results.to_dataset)."""
 
     rows: list[dict]
     gases: list[dict]
+    dataset: xr.Dataset
 
 
 @dataclass(frozen=True)
