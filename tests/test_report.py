@@ -44,6 +44,9 @@ def test_report_is_self_contained_with_every_chart(report):
     assert "<script" not in text and "<link" not in text and "@import" not in text
     assert "not certification" in text and "sha256" in text and "Cantera" in text
     assert "Points without a flame" in text and "no_flame" in text  # phi 0.08 is recorded, with its reason
+    appendix = text.split("<h2 id='points'>Appendix: every point</h2>")[1]
+    assert appendix.count("<tr>") == 1 + 12  # header and every point (2 blends x 3 phi x 2 p)
+    assert "break-inside: avoid" in text and "@page" in text  # printed tables stay whole
 
 
 def test_report_renders_in_headless_chromium(report, tmp_path):

@@ -33,21 +33,36 @@ figure { margin: 1.2em 0; break-inside: avoid; page-break-inside: avoid; }
 figure svg { max-width: 100%; height: auto; display: block; }
 figcaption { font-size: 0.92em; color: #333; margin-top: 0.3em; }
 .muted { color: #666; font-size: 0.9em; }
-@media print { body { max-width: none; margin: 0; } h2 { break-after: avoid; } }
+table.points { font-size: 0.8em; } table.points td, table.points th { padding: 0.1em 0.4em; }
+@page { size: A4; margin: 12mm 11mm; }
+@media print {
+  body { max-width: none; margin: 0; padding: 0; font-size: 10pt; }
+  h2, h3 { break-after: avoid; page-break-after: avoid; }
+  table, .keep { break-inside: avoid; page-break-inside: avoid; }
+  table.points { break-inside: auto; page-break-inside: auto; }
+  table.points tr { break-inside: avoid; page-break-inside: avoid; }
+  table.points thead { display: table-header-group; }
+  figure { break-inside: avoid; page-break-inside: avoid; }
+  figure svg { width: 100%; max-height: 24cm; }
+  .appendix { break-before: page; page-break-before: always; }
+}
 """
+
+#: Most points the report's appendix lists (the rest are in results.csv, which it names).
+MAX_POINT_ROWS = 2000
 
 
 def _e(x) -> str:
     return html.escape(str(x))
 
 
-def _table(header: list[str], rows: list[list], num_cols: set[int] = frozenset()) -> str:
+def _table(header: list[str], rows: list[list], num_cols: set[int] = frozenset(), cls: str = "") -> str:
     head = "".join(f"<th>{_e(h)}</th>" for h in header) if any(header) else ""
     body = "".join("<tr>" + "".join(
         f"<td class='num'>{_e(c)}</td>" if i in num_cols else f"<td>{_e(c)}</td>" for i, c in enumerate(r))
         + "</tr>" for r in rows)
     thead = f"<thead><tr>{head}</tr></thead>" if head else ""
-    return f"<table>{thead}<tbody>{body}</tbody></table>"
+    return f"<table{f' class={cls!r}' if cls else ''}>{thead}<tbody>{body}</tbody></table>"
 
 
 def _inline_svg(path: Path) -> str:
@@ -87,6 +102,35 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
     return out
 
 
+def _num(v, fmt: str) -> str:
+    return "" if v is None else format(v, fmt)
+
+
+def _points_appendix(study, rows: list[dict]) -> str:
+    """Appendix at the end of the report: one line per point (the first MAX_POINT_ROWS), printed on pages of its own."""
+    burner = study.burner is not None
+    head = ["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "δ_T [mm]", "T_ad [K]", "g_F [1/s]",
+            "d_q [mm]"] + (["U [m/s]", "FB", "BO", "verdict"] if burner else []) + ["warning"]
+    lines = []
+    for r in rows[:MAX_POINT_ROWS]:
+        S = r["laminar_flame_speed_m_s"]
+        line = [gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                f"{r['unburned_temperature_K']:g}", r["status"], _num(None if S is None else 100 * S, ".2f"),
+                _num(r["thermal_thickness_mm"], ".3f"), _num(r["adiabatic_flame_temperature_K"], ".0f"),
+                _num(r["flashback_critical_gradient_1_s"], ".0f"), _num(r["quenching_distance_mm"], ".2f")]
+        if burner:
+            line += [_num(r["port_velocity_m_s"], ".3f"), _num(r["flashback_margin"], ".2f"),
+                     _num(r["blowoff_margin"], ".2f"), r["verdict"] or ""]
+        lines.append(line + ["yes" if r.get("warnings") else ""])
+    more = (f" The first {MAX_POINT_ROWS} of {len(rows)} points are listed; all are in results.csv."
+            if len(rows) > MAX_POINT_ROWS else " Every column of every point is in results.csv.")
+    numeric = set(range(1, 4)) | set(range(5, 10)) | ({10, 11, 12} if burner else set())
+    return ("<section class='appendix'><h2 id='points'>Appendix: every point</h2>"
+            f"<p class='muted'>{len(rows)} points.{_e(more)}</p>"
+            f"{_table(head, lines, numeric, 'points')}"
+            "</section>")
+
+
 def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
     out_dir = Path(out_dir)
@@ -124,16 +168,17 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
         if b.stabilizer_size_m is not None:
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
                                                    f"{b.approach_velocity_m_s:g} m/s approach"])
-        parts.append("<h3>Burner</h3>" + _table(["", ""], brows))
+        parts.append("<div class='keep'><h3>Burner</h3>" + _table(["", ""], brows) + "</div>")
     gases = fuel_gas_table(study) if gases is None else gases
-    parts.append(f"<h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; {_e(gases[0]['method'])}</p>")
+    parts.append(f"<div class='keep'><h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; "
+                 f"{_e(gases[0]['method'])}</p>")
     parts.append(_table(["gas", "HHV [MJ/m³]", "LHV [MJ/m³]", "relative density", "Wobbe (higher) [MJ/m³]",
                          "Wobbe change [%]", "in band"],
                         [[gas_label(g) + f" in {g['oxidizer']}", f"{g['higher_heating_value_MJ_m3']:.3f}",
                           f"{g['lower_heating_value_MJ_m3']:.3f}", f"{g['relative_density']:.4f}",
                           f"{g['higher_wobbe_index_MJ_m3']:.3f}", f"{g['wobbe_change_percent']:+.2f}",
                           "" if g["wobbe_in_band"] is None else ("yes" if g["wobbe_in_band"] else "NO")]
-                         for g in gases], num_cols={1, 2, 3, 4, 5}))
+                         for g in gases], num_cols={1, 2, 3, 4, 5}) + "</div>")
 
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
     summary = margin_summary(study, rows)
@@ -183,6 +228,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "
                  "indicators rest on correlations whose constants are known to a factor of about 1.5-2; they rank "
                  "mixtures and show trends, they do not replace certification tests.</div>")
+    parts.append(_points_appendix(study, rows))
     parts.append("</body></html>")
     path = out_dir / "report.html"
     write_atomic(path, "\n".join(parts))
