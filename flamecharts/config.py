@@ -42,7 +42,8 @@ from typing import Any
 
 from .chemistry.mechanism import file_sha256, find_mechanism, load_mechanism_atoms
 from .errors import ConfigError, MechanismError, first_line, show
-from .physics import mixtures
+from .physics import lumping, mixtures
+from .physics.gasprops import ISO6976_2016
 from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
@@ -142,7 +143,8 @@ class Study:
     equivalence_ratios: tuple[float, ...]
     pressures_bar: tuple[float, ...]
     unburned_temperatures_K: tuple[float, ...]
-    atoms: dict[str, dict[str, float]] = field(repr=False)
+    atoms: dict[str, dict[str, float]] = field(repr=False)   # the mechanism's species -> element counts
+    analysis_atoms: dict[str, dict[str, float]] = field(default_factory=dict, repr=False)  # fuel species it lacks
     max_points: int = 10000
     flame_time_limit_s: float | None = None  # None: sweep.schedule.flame_time_limit of the mechanism
     config_path: str | None = None
@@ -462,13 +464,27 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     mech_path = find_mechanism(mechanism, base_dir)
     atoms = load_mechanism_atoms(mech_path, transport)
     used = {**{n: fuels[n] for n in sweep_fuels}, **({blend_with: fuels[blend_with]} if blend_with else {})}
+    analysis_atoms: dict[str, dict[str, float]] = {}
     for kind, table in (("fuels", used), ("oxidizers", {n: oxidizers[n] for n in sweep_oxidizers})):
         for n, comp in table.items():
             for sp in comp:
-                if sp not in atoms:
-                    raise MechanismError(
-                        f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
-                        f"{_suggest_species(sp, list(atoms))}")
+                if sp in atoms:
+                    continue
+                if kind == "fuels" and sp in ISO6976_2016:  # a gas-analysis component: lumped for the flame
+                    try:
+                        lumping.lump({sp: 1.0}, atoms)
+                        analysis_atoms[sp] = dict(lumping.formula_atoms(sp))
+                        continue
+                    except ValueError as exc:
+                        raise MechanismError(f"species '{sp}' in 'fuels.{n}' is not in mechanism {mech_path.name}"
+                                             f"{_suggest_species(sp, list(atoms))}; nor can it be lumped onto "
+                                             f"the mechanism's species ({exc})") from None
+                raise MechanismError(
+                    f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
+                    f"{_suggest_species(sp, list(atoms))}"
+                    + ("; gas-analysis components (ISO 6976 names such as n-C4H10, He) are lumped onto the "
+                       "mechanism's species" if kind == "fuels" else ""))
+    atoms_all = {**analysis_atoms, **atoms}
     for n in sweep_oxidizers:
         if oxidizers[n].get("O2", 0.0) <= 0:
             raise ConfigError(f"'oxidizers.{n}' has no O2; an oxidizer must contain O2")
@@ -479,7 +495,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     for n in sweep_fuels:
         for f in fractions:
             comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
-            need = mixtures.stoich_o2_per_fuel(atoms, comp)
+            need = mixtures.stoich_o2_per_fuel(atoms_all, comp)
             what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
             if need <= 0:
                 raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
@@ -511,7 +527,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         thermal_diffusion=thermal_diffusion, resolution=resolution, fuels=fuels,
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
-        pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms,
+        pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
         gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data)
     if study.n_points > max_points:
@@ -606,6 +622,34 @@ def load_config_copy(out_dir: Path) -> Study:
                                config_path=saved.get("config_path"))
     except (ValueError, KeyError, TypeError, RecursionError) as exc:
         raise ConfigError(f"{path} is damaged ({type(exc).__name__}: {exc}); rerun the study to rewrite it") from None
+
+
+def all_atoms(study: Study) -> dict[str, dict[str, float]]:
+    """Element counts of every species a study names: the mechanism's and the gas-analysis ones it lacks."""
+    return {**study.analysis_atoms, **study.atoms}
+
+
+def flame_stream(study: Study, X_fuel: dict[str, float]) -> tuple[dict[str, float], list[str]]:
+    """A fuel stream as the flame sees it: lumped onto the mechanism's species
+    (physics.lumping), with a note per lumped component (none: X_fuel as it is)."""
+    return lumping.lump(X_fuel, study.atoms)
+
+
+def lumped_species(study: Study) -> list[str]:
+    """The fuel species of the study the mechanism lacks (lumped for the flames), sorted."""
+    used = list(study.sweep_fuels) + ([study.blend_with] if study.blend_with else [])
+    return sorted({sp for fuel in used for sp in study.fuels[fuel] if sp not in study.atoms})
+
+
+def lumping_note(study: Study) -> str:
+    """One sentence on what the flames of the study burn instead of the given analysis ('' when
+    nothing is lumped); every output carries it (CLI, about.txt, results.nc, charts, report)."""
+    used = list(study.sweep_fuels) + ([study.blend_with] if study.blend_with else [])
+    notes = sorted({n for fuel in used for n in lumping.lump(study.fuels[fuel], study.atoms)[1]})
+    if not notes:
+        return ""
+    return (f"Fuel lumped for the flames ({Path(study.mechanism).name} lacks these species; the gas properties use "
+            f"the full analysis): {', '.join(notes)}.")
 
 
 def fuel_stream(study: Study, fuel: str, fraction: float) -> dict[str, float]:

@@ -16,7 +16,7 @@ from dataclasses import dataclass
 from .chemistry.ignition import autoignition_warning
 from .chemistry.mechanism import fallback_data, molar_masses, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS
-from .config import fuel_stream
+from .config import all_atoms, fuel_stream
 from .errors import ConfigError
 from .physics import indicators as ind
 from .physics import mixtures
@@ -34,8 +34,10 @@ def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
     except ValueError as exc:
         raise ConfigError(f"fuel-gas properties of {', '.join(sorted(X_fuel))} cannot be computed: {exc}") from None
     X_ox = study.oxidizers[oxidizer]
-    n_ox = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel) / X_ox["O2"]
-    M = molar_masses(study.mechanism_path, set(X_fuel) | set(X_ox))
+    n_ox = mixtures.stoich_o2_per_fuel(all_atoms(study), X_fuel) / X_ox["O2"]
+    in_mech = (set(X_fuel) | set(X_ox)) & set(study.atoms)
+    M = {**{sp: ISO6976_2016[sp][0] for sp in X_fuel if sp not in study.atoms},  # analysis species: ISO 6976
+         **molar_masses(study.mechanism_path, in_mech)}
     M_fuel = sum(x * M[k] for k, x in X_fuel.items())
     M_ox = sum(x * M[k] for k, x in X_ox.items())
     return {"props": props, "stoich_oxidizer_volume_m3_m3": n_ox,

@@ -26,7 +26,7 @@ import xarray as xr
 
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
-from .config import Study, load_config_copy, resolution_label
+from .config import Study, load_config_copy, lumping_note, resolution_label
 from .design import annotate, point_warnings
 from .errors import StoreError
 from .outcome import Reason, Status
@@ -139,7 +139,8 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
-                     **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
+                     **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION,
+                     **({"lumped_fuel": lumping_note(study)} if lumping_note(study) else {})})
     return ds
 
 

@@ -63,7 +63,7 @@ def test_the_plan_does_not_depend_on_the_order_of_the_points(tmp_path):
 def test_stored_flames_seed_the_plan_so_nothing_is_solved_from_scratch(tmp_path):
     first = _points(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", pressures="[1.0]")
     stored = [plan_tree.StoredFlame(key=p.key, family=p.family, phi=p.phi, pressure_bar=p.pressure_bar,
-                               T_u=p.T_u, X_fuel=p.X_fuel) for p in first]
+                               T_u=p.T_u, X_flame=p.X_flame) for p in first]
     # a new pressure level of the same study: every new point starts from a stored flame
     # or from a new point that did
     new = _points(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", pressures="[2.0]")
@@ -77,7 +77,7 @@ def test_stored_flames_seed_the_plan_so_nothing_is_solved_from_scratch(tmp_path)
 def test_points_of_another_family_are_never_sources(tmp_path):
     pts = _points(tmp_path, fractions="[0.0]", phis="[0.9, 1.0]", pressures="[1.0]")
     other = [plan_tree.StoredFlame(key="x" * 32, family="another", phi=p.phi, pressure_bar=p.pressure_bar,
-                              T_u=p.T_u, X_fuel=p.X_fuel) for p in pts]
+                              T_u=p.T_u, X_flame=p.X_flame) for p in pts]
     tree = plan_tree.warm_tree(pts, other)
     assert not tree.stored and len(tree.roots) == 1
 

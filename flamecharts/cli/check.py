@@ -4,7 +4,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
-from ..config import load_study
+from ..config import load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows
 from ..store import DB_NAME, Store, stored_keys
@@ -44,6 +44,8 @@ def cmd_check(args) -> int:
     print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
     print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
+    if lumping_note(study):
+        print(lumping_note(study))
     print_gases(study)
     print_burner(study)
     if stored:

@@ -7,7 +7,7 @@ from collections import Counter
 from pathlib import Path
 
 from ..columns import gas_label
-from ..config import check_cluster_spec, load_study
+from ..config import check_cluster_spec, load_study, lumping_note
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
@@ -56,6 +56,8 @@ def cmd_run(args) -> int:
                   f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
         if len(warned) > 20:
             print(f"  ... and {len(warned) - 20} more (see results.csv)")
+    if lumping_note(study):
+        print(lumping_note(study))
     if not args.quiet:
         print_points(study, summary.rows)
     print_margins(study, summary.rows)

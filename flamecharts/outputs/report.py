@@ -15,7 +15,7 @@ from .._version import __version__
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
-from ..config import resolution_label
+from ..config import lumping_note, resolution_label
 from ..design import fuel_gas_table, margin_summary
 from .charts import CAPTIONS
 from .tables import write_atomic
@@ -157,6 +157,8 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                ["unburned temperature [K]", ", ".join(f"{v:g}" for v in study.unburned_temperatures_K)],
                ["points", str(len(rows))]]
     parts.append(_table(["axis", "values"], window))
+    if lumping_note(study):
+        parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(lumping_note(study))}</div>")
     b = study.burner
     if b is not None:
         how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else

@@ -17,7 +17,7 @@ from .._version import __version__
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, COLUMNS
-from ..config import Study, resolution_label
+from ..config import Study, lumping_note, resolution_label
 
 def write_atomic(path: Path, text: str) -> None:
     """Write a text file so a reader never sees half of it."""
@@ -67,6 +67,7 @@ def write_about(study: Study, path: Path) -> Path:
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
         f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",
+        *([lumping_note(study), ""] if lumping_note(study) else []),
         "CAUTION: " + CAUTION,
         "",
     ]

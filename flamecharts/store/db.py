@@ -420,7 +420,7 @@ class Store:
                 except (ValueError, KeyError, TypeError, AttributeError) as exc:
                     raise self._damaged(key, "inputs", exc) from None
                 out.append({"key": key, "family": fam, "phi": p_phi, "pressure_bar": p_bar, "T_u": T_u,
-                            "X_fuel": fuel})
+                            "X_flame": fuel})
         return out
 
     def timings(self, families: set[str]) -> dict[str, list[float]]:

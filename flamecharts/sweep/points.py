@@ -17,7 +17,7 @@ from itertools import product
 
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
-from ..config import Study, fuel_stream
+from ..config import Study, flame_stream, fuel_stream
 from ..physics import mixtures
 
 #: Bump when the measurements taken from a converged flame change meaning.
@@ -44,12 +44,13 @@ class Point:
     phi: float
     pressure_bar: float
     T_u: float
-    X_fuel: dict = field(compare=False, repr=False)
+    X_fuel: dict = field(compare=False, repr=False)       # the fuel stream as the study gives it (gas analysis)
     X_oxidizer: dict = field(compare=False, repr=False)
     X_unburned: dict = field(compare=False, repr=False)
     key: str = ""
     family: str = ""
     inputs: dict = field(default_factory=dict, compare=False, repr=False)  # what the key hashes
+    X_flame: dict = field(default_factory=dict, compare=False, repr=False)  # the fuel stream the flame burns
 
     @property
     def P(self) -> float:
@@ -87,13 +88,14 @@ def points(study: Study) -> list[Point]:
             study.sweep_fuels, study.sweep_oxidizers, study.blend_fractions,
             study.pressures_bar, study.unburned_temperatures_K, study.equivalence_ratios):
         X_fuel = fuel_stream(study, fuel, frac)
+        X_flame, _ = flame_stream(study, X_fuel)  # lumped onto the mechanism's species where it lacks some
         X_ox = study.oxidizers[ox]
-        o2 = mixtures.stoich_o2_per_fuel(study.atoms, X_fuel)
-        inputs = point_inputs(settings, X_fuel, X_ox, phi, P_bar, T_u)
+        o2 = mixtures.stoich_o2_per_fuel(study.atoms, X_flame)
+        inputs = point_inputs(settings, X_flame, X_ox, phi, P_bar, T_u)
         fam = {k: v for k, v in inputs.items() if k not in ("phi", "pressure_bar", "T_u", "fuel")}
         out.append(Point(
             index=len(out), fuel=fuel, oxidizer=ox, blend_with=study.blend_with,
             blend_fraction=frac, phi=phi, pressure_bar=P_bar, T_u=T_u, X_fuel=X_fuel,
-            X_oxidizer=dict(X_ox), X_unburned=mixtures.unburned_mixture(X_fuel, X_ox, phi, o2),
-            key=_hash(inputs), family=_hash(fam), inputs=inputs))
+            X_oxidizer=dict(X_ox), X_unburned=mixtures.unburned_mixture(X_flame, X_ox, phi, o2),
+            key=_hash(inputs), family=_hash(fam), inputs=inputs, X_flame=X_flame))
     return out

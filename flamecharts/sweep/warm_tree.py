@@ -42,7 +42,7 @@ class StoredFlame:
     phi: float
     pressure_bar: float
     T_u: float
-    X_fuel: dict
+    X_flame: dict  # the fuel stream the flame burned
 
 
 @dataclass
@@ -97,7 +97,7 @@ def _coordinates(items, species: list[str]) -> tuple[np.ndarray, np.ndarray]:
     s = DISTANCE_SCALES
     scal = np.array([[it.phi / s["phi"], math.log(it.pressure_bar) / s["ln_p"], it.T_u / s["T_u"]]
                      for it in items], dtype=float).reshape(-1, 3)
-    fuel = np.array([[float(it.X_fuel.get(k, 0.0)) for k in species] for it in items],
+    fuel = np.array([[float(it.X_flame.get(k, 0.0)) for k in species] for it in items],
                     dtype=float).reshape(-1, len(species))
     return scal, fuel / s["fuel"]
 
@@ -133,7 +133,7 @@ def warm_tree(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
     n = len(pts)
     if n == 0:
         return WarmPlan(parent={}, stored={}, roots=[], height={}, distance={})
-    species = sorted({k for p in pts for k in p.X_fuel} | {k for f in stored for k in f.X_fuel})
+    species = sorted({k for p in pts for k in p.X_flame} | {k for f in stored for k in f.X_flame})
     scal, fuel = _coordinates(pts, species)
     fam = np.array([p.family for p in pts], dtype=object)
     best = np.full(n, np.inf)

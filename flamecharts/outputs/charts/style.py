@@ -9,7 +9,7 @@ import numpy as np  # noqa: E402
 from matplotlib.ticker import FuncFormatter  # noqa: E402
 
 from ..._version import __version__  # noqa: E402
-from ...config import resolution_label  # noqa: E402
+from ...config import lumped_species, resolution_label  # noqa: E402
 
 MARKERS = ("o", "s", "^", "D", "v", "P", "X", "h")
 LINESTYLES = ("-", "--", "-.", ":")
@@ -35,7 +35,9 @@ def footer(fig, study) -> None:
              f"{study.title} | mechanism {study.mechanism} | transport {study.transport}"
              f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
              f"{resolution_label(study)} | flamecharts {__version__}\n"
-             "Screening estimate, not certification: follow local codes and standards, confirm by test.",
+             + (f"Flames burn a lumped fuel: {', '.join(lumped_species(study))} stand in as mechanism species "
+                "(see about.txt)\n" if getattr(study, "analysis_atoms", None) else "")
+             + "Screening estimate, not certification: follow local codes and standards, confirm by test.",
              fontsize=7, color="0.3", ha="left", va="bottom")
 
 
