@@ -390,6 +390,64 @@ def _indicator_settings(t: Any) -> dict:
     return {**INDICATOR_DEFAULTS, **{k: _positive(t, k, "indicators") for k in t}}
 
 
+def _check_species(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, blend_with, atoms: dict,
+                   mech_path: Path) -> dict[str, dict[str, float]]:
+    """Every species the study burns is the mechanism's or, in a fuel, a gas-analysis component that
+    can be lumped onto it (physics.lumping); returns the element counts of the latter."""
+    used = {**{n: fuels[n] for n in sweep_fuels}, **({blend_with: fuels[blend_with]} if blend_with else {})}
+    analysis_atoms: dict[str, dict[str, float]] = {}
+    for kind, table in (("fuels", used), ("oxidizers", {n: oxidizers[n] for n in sweep_oxidizers})):
+        for n, comp in table.items():
+            for sp in comp:
+                if sp in atoms:
+                    continue
+                if kind == "fuels" and sp in ISO6976_2016:  # a gas-analysis component: lumped for the flame
+                    try:
+                        lumping.lump({sp: 1.0}, atoms)
+                        analysis_atoms[sp] = dict(lumping.formula_atoms(sp))
+                        continue
+                    except ValueError as exc:
+                        raise MechanismError(f"species '{sp}' in 'fuels.{n}' is not in mechanism {mech_path.name}"
+                                             f"{_suggest_species(sp, list(atoms))}; nor can it be lumped onto "
+                                             f"the mechanism's species ({exc})") from None
+                raise MechanismError(
+                    f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
+                    f"{_suggest_species(sp, list(atoms))}"
+                    + ("; gas-analysis components (ISO 6976 names such as n-C4H10, He) are lumped onto the "
+                       "mechanism's species" if kind == "fuels" else ""))
+    return analysis_atoms
+
+
+def _check_mixtures(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
+                    atoms_all: dict) -> None:
+    """Oxidizers hold O2 and nothing combustible; every fuel stream burns and gives a usable
+    mixture at the ends of the equivalence-ratio axis."""
+    for n in sweep_oxidizers:
+        if oxidizers[n].get("O2", 0.0) <= 0:
+            raise ConfigError(f"'oxidizers.{n}' has no O2; an oxidizer must contain O2")
+        burnable = [sp for sp in oxidizers[n] if sp != "O2" and mixtures.stoich_o2_per_fuel(atoms_all, {sp: 1.0}) > 0]
+        if burnable:
+            raise ConfigError(f"'oxidizers.{n}' contains combustible {', '.join(burnable)}; the equivalence "
+                              "ratio would be wrong: put fuels in [fuels] and blend them there")
+    for n in sweep_fuels:
+        for f in fractions:
+            comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
+            need = mixtures.stoich_o2_per_fuel(atoms_all, comp)
+            what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
+            if need <= 0:
+                raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
+            if need < MIN_O2_NEED:
+                raise ConfigError(f"{what} has almost no combustible species (it needs {need:.3g} mol O2 per mol "
+                                  f"to burn; at least {MIN_O2_NEED:g} is allowed)")
+            for ox in sweep_oxidizers:
+                for phi in (phis[0], phis[-1], min(phis), max(phis)):
+                    try:
+                        mixtures.unburned_mixture(comp, oxidizers[ox], phi, need)
+                    except mixtures.MixtureError as exc:
+                        raise ConfigError(f"{what} in 'oxidizers.{ox}' at equivalence ratio {phi:g} gives no "
+                                          f"usable mixture: {exc}") from None
+
+
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
                     config_path: str | None = None) -> Study:
     """Validate a parsed config table and build the :class:`Study`."""
@@ -463,52 +521,9 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
 
     mech_path = find_mechanism(mechanism, base_dir)
     atoms = load_mechanism_atoms(mech_path, transport)
-    used = {**{n: fuels[n] for n in sweep_fuels}, **({blend_with: fuels[blend_with]} if blend_with else {})}
-    analysis_atoms: dict[str, dict[str, float]] = {}
-    for kind, table in (("fuels", used), ("oxidizers", {n: oxidizers[n] for n in sweep_oxidizers})):
-        for n, comp in table.items():
-            for sp in comp:
-                if sp in atoms:
-                    continue
-                if kind == "fuels" and sp in ISO6976_2016:  # a gas-analysis component: lumped for the flame
-                    try:
-                        lumping.lump({sp: 1.0}, atoms)
-                        analysis_atoms[sp] = dict(lumping.formula_atoms(sp))
-                        continue
-                    except ValueError as exc:
-                        raise MechanismError(f"species '{sp}' in 'fuels.{n}' is not in mechanism {mech_path.name}"
-                                             f"{_suggest_species(sp, list(atoms))}; nor can it be lumped onto "
-                                             f"the mechanism's species ({exc})") from None
-                raise MechanismError(
-                    f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
-                    f"{_suggest_species(sp, list(atoms))}"
-                    + ("; gas-analysis components (ISO 6976 names such as n-C4H10, He) are lumped onto the "
-                       "mechanism's species" if kind == "fuels" else ""))
-    atoms_all = {**analysis_atoms, **atoms}
-    for n in sweep_oxidizers:
-        if oxidizers[n].get("O2", 0.0) <= 0:
-            raise ConfigError(f"'oxidizers.{n}' has no O2; an oxidizer must contain O2")
-        burnable = [sp for sp in oxidizers[n] if sp != "O2" and mixtures.stoich_o2_per_fuel(atoms, {sp: 1.0}) > 0]
-        if burnable:
-            raise ConfigError(f"'oxidizers.{n}' contains combustible {', '.join(burnable)}; the equivalence "
-                              "ratio would be wrong: put fuels in [fuels] and blend them there")
-    for n in sweep_fuels:
-        for f in fractions:
-            comp = mixtures.blend(fuels[n], fuels[blend_with], f) if blend_with else fuels[n]
-            need = mixtures.stoich_o2_per_fuel(atoms_all, comp)
-            what = f"'fuels.{n}'" + (f" blended with {f:g} of '{blend_with}'" if blend_with else "")
-            if need <= 0:
-                raise ConfigError(f"{what} has no combustible species (it needs no oxygen to burn)")
-            if need < MIN_O2_NEED:
-                raise ConfigError(f"{what} has almost no combustible species (it needs {need:.3g} mol O2 per mol "
-                                  f"to burn; at least {MIN_O2_NEED:g} is allowed)")
-            for ox in sweep_oxidizers:
-                for phi in (phis[0], phis[-1], min(phis), max(phis)):
-                    try:
-                        mixtures.unburned_mixture(comp, oxidizers[ox], phi, need)
-                    except mixtures.MixtureError as exc:
-                        raise ConfigError(f"{what} in 'oxidizers.{ox}' at equivalence ratio {phi:g} gives no "
-                                          f"usable mixture: {exc}") from None
+    analysis_atoms = _check_species(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, atoms, mech_path)
+    _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
+                    {**analysis_atoms, **atoms})
 
     reference_fuel = None
     if "reference_fuel" in data:

@@ -33,3 +33,15 @@ def test_the_fingerprint_follows_the_solver_and_ignores_the_parent_loop_and_char
 def test_every_file_the_worker_runs_is_fingerprinted():
     assert all((PACKAGE / name).is_file() for name in WORKER_CODE)
     assert {"chemistry/flame.py", "chemistry/mechanism.py", "sweep/worker.py"} <= set(WORKER_CODE)
+
+
+def test_a_worker_loads_no_chart_or_table_library():
+    """Workers import the worker task only: matplotlib, xarray, pandas and scipy stay out of
+    every worker process (start-up time and memory; the package's public names load lazily)."""
+    code = ("import sys, flamecharts, flamecharts.sweep.worker; "
+            "print(sorted(m for m in ('matplotlib', 'xarray', 'pandas', 'scipy') if m in sys.modules))")
+    r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert r.stdout.strip() == "[]"
+    r = subprocess.run([sys.executable, "-c", "import flamecharts; print(flamecharts.run.__module__)"],
+                       capture_output=True, text=True, check=True)
+    assert r.stdout.strip() == "flamecharts.pipeline"

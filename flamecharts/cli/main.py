@@ -13,12 +13,15 @@ from __future__ import annotations
 
 import argparse
 import sys
+from importlib import import_module
 
 from .._version import __version__
 from ..errors import FlamechartsError
-from .check import cmd_check
-from .redraw import cmd_charts, cmd_report
-from .run import cmd_run
+
+#: command -> (module of this package, function): a command's module is imported when it runs,
+#: so ``check`` never loads the chart and table libraries that ``run`` needs.
+COMMANDS = {"run": ("run", "cmd_run"), "check": ("check", "cmd_check"), "charts": ("redraw", "cmd_charts"),
+            "report": ("redraw", "cmd_report")}
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -54,9 +57,9 @@ def err(msg: str) -> None:
 
 def main(argv: list[str] | None = None) -> int:
     args = _parser().parse_args(argv)
-    handlers = {"run": cmd_run, "check": cmd_check, "charts": cmd_charts, "report": cmd_report}
     try:
-        return handlers[args.command](args)
+        module, function = COMMANDS[args.command]
+        return getattr(import_module(f".{module}", __package__), function)(args)
     except FlamechartsError as exc:
         err(str(exc))
         return 2

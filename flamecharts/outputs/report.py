@@ -131,18 +131,9 @@ def _points_appendix(study, rows: list[dict]) -> str:
             "</section>")
 
 
-def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None) -> Path:
-    """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
-    out_dir = Path(out_dir)
-    parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
-             f"<style>{CSS}</style></head><body>",
-             f"<h1>{_e(study.title)}</h1>",
-             "<p>How fast does the premixed flame run and how thick is it, over this study's window of fuels, "
-             "blends, equivalence ratios, pressures and preheat temperatures; and, where a burner is described, "
-             "how close each mixture comes to flashback and blowoff. Computed with detailed chemistry "
-             "(freely propagating 1D laminar flames).</p>",
-             f"<div class='caution'><b>Caution.</b> {_e(CAUTION)}</div>"]
-
+def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[str]:
+    """The study's definition: fuels, oxidizers, sweep axes, lumping, burner, fuel-gas table."""
+    parts: list[str] = []
     parts.append("<h2>Study</h2>")
     parts.append(_table(["fuel", "composition (mole fractions)"],
                         [[n, ", ".join(f"{k} {v:.4g}" for k, v in c.items())] for n, c in study.fuels.items()]))
@@ -181,6 +172,23 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                           f"{g['higher_wobbe_index_MJ_m3']:.3f}", f"{g['wobbe_change_percent']:+.2f}",
                           "" if g["wobbe_in_band"] is None else ("yes" if g["wobbe_in_band"] else "NO")]
                          for g in gases], num_cols={1, 2, 3, 4, 5}) + "</div>")
+
+    return parts
+
+
+def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None) -> Path:
+    """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
+    out_dir = Path(out_dir)
+    parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
+             f"<style>{CSS}</style></head><body>",
+             f"<h1>{_e(study.title)}</h1>",
+             "<p>How fast does the premixed flame run and how thick is it, over this study's window of fuels, "
+             "blends, equivalence ratios, pressures and preheat temperatures; and, where a burner is described, "
+             "how close each mixture comes to flashback and blowoff. Computed with detailed chemistry "
+             "(freely propagating 1D laminar flames).</p>",
+             f"<div class='caution'><b>Caution.</b> {_e(CAUTION)}</div>"]
+
+    parts += _study_section(study, rows, gases)
 
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
     summary = margin_summary(study, rows)
