@@ -6,8 +6,6 @@ indicator setting or the burner never needs a flame to be solved again.
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
 point_warnings            inputs outside the range the method or the mechanism covers
-margin_summary            smallest burner margins per fuel gas and condition
-first_flashback_fraction  first blend fraction whose flashback margin falls below the minimum
 """
 from __future__ import annotations
 
@@ -188,41 +186,6 @@ def annotate(study, rows: list[dict]) -> list[dict]:
             r[col] = gas.row[col]
         r.update(_burner_margins(study, r, gas, s))
     return rows
-
-
-def margin_summary(study, rows: list[dict]) -> list[dict]:
-    """Per (fuel, oxidizer, blend fraction, p, T): the smallest burner margins and where they occur."""
-    if study.burner is None:
-        return []
-    groups: dict[tuple, list[dict]] = {}
-    for r in rows:
-        if r["status"] == "ok" and r["flashback_margin"] is not None:
-            groups.setdefault((r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"],
-                               r["unburned_temperature_K"]), []).append(r)
-    out = []
-    for key, rs in groups.items():
-        fb = min(rs, key=lambda r: r["flashback_margin"])
-        bo = min(rs, key=lambda r: r["blowoff_margin"])
-        out.append({"fuel": key[0], "oxidizer": key[1], "blend_fraction": key[2], "pressure_bar": key[3],
-                    "unburned_temperature_K": key[4],
-                    "min_flashback_margin": fb["flashback_margin"], "at_phi_flashback": fb["equivalence_ratio"],
-                    "min_blowoff_margin": bo["blowoff_margin"], "at_phi_blowoff": bo["equivalence_ratio"],
-                    "points_ok": sum(r["verdict"] == "ok" for r in rs), "points": len(rs)})
-    return out
-
-
-def first_flashback_fraction(study, rows: list[dict]) -> dict[tuple, float | None]:
-    """Smallest blend fraction at which the flashback margin falls below the burner's minimum,
-    per (fuel, oxidizer, p, T); None where it never does in the study."""
-    if study.burner is None or not study.blend_with:
-        return {}
-    out: dict[tuple, float | None] = {}
-    for s in sorted(margin_summary(study, rows), key=lambda s: s["blend_fraction"]):
-        key = (s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"])
-        out.setdefault(key, None)
-        if out[key] is None and s["min_flashback_margin"] < study.burner.min_flashback_margin:
-            out[key] = s["blend_fraction"]
-    return out
 
 
 def point_warnings(study, point, row: dict) -> str:

@@ -5,6 +5,8 @@ point_rows    every point of a study, in study order, annotated (indicators, gas
 rows_from_dir the study of a finished run folder and its rows, read from the store alone
 to_dataset    the rows as a labelled N-dimensional table (xarray) over the sweep axes
 exponent_table pressure and temperature exponents of the flame speed, fitted along the table's axes
+margin_summary smallest burner margins over phi per fuel gas and condition, read along the table's phi axis
+first_flashback_fraction  first blend fraction whose flashback margin falls below the minimum
 Results       what a run gives back: rows, dataset, pandas frame, summary, output files
 
 The sweep is a cartesian product, so its results are an array over the six axes of
@@ -171,6 +173,50 @@ def exponent_table(ds: xr.Dataset) -> list[dict]:
                         "value": b, "held_fixed": fixed, "held_value": float(key[3]),
                         "range_low": float(x[burning].min()), "range_high": float(x[burning].max()),
                         "points": int(burning.sum())})
+    return out
+
+
+#: The axes a margin summary groups by (the minimum is taken along equivalence_ratio).
+CONDITION_AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K")
+
+
+def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
+    """Per fuel, oxidizer, blend fraction, pressure and preheat with a burning flame: the smallest
+    flashback and blowoff margins along equivalence ratio and the phi where each occurs (the
+    first in the study's order on a tie), and how many burning points keep both margins."""
+    if burner is None:
+        return []
+    phis = ds.equivalence_ratio.values
+
+    def along_phi(name):
+        return ds[name].transpose(*CONDITION_AXES, "equivalence_ratio").values.reshape(-1, len(phis))
+    out = []
+    keys = itertools.product(*(ds[d].values for d in CONDITION_AXES))
+    for key, fb, bo, verdict in zip(keys, along_phi("flashback_margin"), along_phi("blowoff_margin"),
+                                    along_phi("verdict")):
+        burning = np.isfinite(fb)
+        if not burning.any():
+            continue
+        i, j = int(np.nanargmin(fb)), int(np.nanargmin(bo))
+        out.append({"fuel": str(key[0]), "oxidizer": str(key[1]), "blend_fraction": float(key[2]),
+                    "pressure_bar": float(key[3]), "unburned_temperature_K": float(key[4]),
+                    "min_flashback_margin": float(fb[i]), "at_phi_flashback": float(phis[i]),
+                    "min_blowoff_margin": float(bo[j]), "at_phi_blowoff": float(phis[j]),
+                    "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum())})
+    return out
+
+
+def first_flashback_fraction(ds: xr.Dataset, study: Study) -> dict[tuple, float | None]:
+    """Smallest blend fraction at which the flashback margin falls below the burner's minimum,
+    per (fuel, oxidizer, p, T); None where it never does in the study."""
+    if study.burner is None or not study.blend_with:
+        return {}
+    out: dict[tuple, float | None] = {}
+    for s in sorted(margin_summary(ds, study.burner), key=lambda s: s["blend_fraction"]):
+        key = (s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"])
+        out.setdefault(key, None)
+        if out[key] is None and s["min_flashback_margin"] < study.burner.min_flashback_margin:
+            out[key] = s["blend_fraction"]
     return out
 
 

@@ -2,7 +2,8 @@
 from __future__ import annotations
 
 from ..columns import gas_label
-from ..design import first_flashback_fraction, fuel_gas_table, margin_summary
+from ..design import fuel_gas_table
+from ..results import first_flashback_fraction, margin_summary, to_dataset
 
 
 def print_gases(study) -> None:
@@ -25,14 +26,17 @@ def print_burner(study) -> None:
         return
     size = f"{'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"
     how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
-           f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm2 of ports"
+           f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
            + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
     print(f"Burner: {b.name}: {b.port} ports, {size}; {how}; minimum margins flashback "
           f"{b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}")
 
 
 def print_margins(study, rows) -> None:
-    summary = margin_summary(study, rows)
+    if study.burner is None:
+        return
+    ds = to_dataset(study, rows)
+    summary = margin_summary(ds, study.burner)
     if not summary:
         return
     b = study.burner
@@ -43,7 +47,7 @@ def print_margins(study, rows) -> None:
               f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
               f"(phi {s['at_phi_flashback']:g}), blowoff margin >= {s['min_blowoff_margin']:.2f} "
               f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
-    for (fuel, ox, p, T), frac in first_flashback_fraction(study, rows).items():
+    for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
         what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
                 else f"at no {study.blend_with} fraction of the study")
         print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")

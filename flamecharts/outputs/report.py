@@ -16,7 +16,8 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import fuel_gas_table, margin_summary
+from ..design import fuel_gas_table
+from ..results import margin_summary, to_dataset
 from .charts import CAPTIONS
 from .tables import write_atomic
 
@@ -191,7 +192,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts += _study_section(study, rows, gases)
 
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
-    summary = margin_summary(study, rows)
+    summary = margin_summary(to_dataset(study, rows), study.burner)
     if summary:
         parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", "min blowoff margin (φ)",
                              "points ok"],
