@@ -244,7 +244,9 @@ def _limited_axis(value: Any, name: str) -> tuple[float, ...]:
                               f"are in kelvin ({v:g} degC is {v + 273.15:g} K); allowed: >= "
                               f"{MIN_UNBURNED_TEMPERATURE_K:g} and <= {hi:g}")
         if not lo < v <= hi:
-            raise ConfigError(f"'sweep.{name}' value {v:g} is out of range; allowed: > {lo:g} and <= {hi:g}")
+            hint = (f" (pressures are in bar: {v:g} Pa is {v / 1e5:g} bar)" if name == "pressure_bar" and v > 1000
+                    else "")
+            raise ConfigError(f"'sweep.{name}' value {v:g} is out of range{hint}; allowed: > {lo:g} and <= {hi:g}")
     return values
 
 
@@ -509,7 +511,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         fractions = _axis(b["fraction"], "sweep.blend.fraction")
         for f in fractions:
             if not 0.0 <= f <= 1.0:
-                raise ConfigError(f"'sweep.blend.fraction' value {f:g} is out of range; allowed: 0 to 1")
+                hint = f" (mole fractions, not per cent: {f:g} % is {f / 100:g})" if 1 < f <= 100 else ""
+                raise ConfigError(f"'sweep.blend.fraction' value {f:g} is out of range{hint}; allowed: 0 to 1")
     phis = _limited_axis(sweep["equivalence_ratio"], "equivalence_ratio")
     pressures = _limited_axis(sweep.get("pressure_bar", [1.01325]), "pressure_bar")
     temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
@@ -653,7 +656,8 @@ def flame_stream(study: Study, X_fuel: dict[str, float]) -> tuple[dict[str, floa
 def lumped_species(study: Study) -> list[str]:
     """The fuel species of the study the mechanism lacks (lumped for the flames), sorted."""
     used = list(study.sweep_fuels) + ([study.blend_with] if study.blend_with else [])
-    return sorted({sp for fuel in used for sp in study.fuels[fuel] if sp not in study.atoms})
+    upper = {m.upper() for m in study.atoms}
+    return sorted({sp for fuel in used for sp in study.fuels[fuel] if sp.upper() not in upper})
 
 
 def lumping_note(study: Study) -> str:

@@ -19,7 +19,7 @@ from .errors import ConfigError
 from .physics import indicators as ind
 from .physics import mixtures
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
-from .physics.limits import flammability_warning, pressure_warning
+from .physics.limits import flammability_warning, heavy_hydrocarbon_warning, pressure_warning
 
 
 def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
@@ -53,8 +53,8 @@ class FuelGas:
     numbers the burner read-out needs besides."""
 
     row: dict
-    wobbe_MJ_m3: float        # the study's Wobbe index (higher or lower, [gas_quality] wobbe)
-    wobbe_ref_MJ_m3: float    # the same of the reference gas
+    input_ratio: float        # lower Wobbe index over the reference gas's: the thermal input (on the lower
+                              # heating value) through a fixed nozzle at fixed supply pressure scales with it
     lhv_J_kg: float           # lower heating value [J/kg]
 
 
@@ -99,7 +99,8 @@ def fuel_gases(study) -> dict[tuple[str, float, str], FuelGas]:
                     "reference_gas": ref_name,
                     "conditions": p.conditions, "method": p.method,
                 }
-                out[(fuel, frac, ox)] = FuelGas(row, W, W_ref, p.lower_heating_value_MJ_kg * 1e6)
+                out[(fuel, frac, ox)] = FuelGas(row, p.lower_wobbe_index_MJ_m3 / ref["props"].lower_wobbe_index_MJ_m3,
+                                                p.lower_heating_value_MJ_kg * 1e6)
     return out
 
 
@@ -137,7 +138,7 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     if b.port_velocity_m_s is not None:
         U, Q = b.port_velocity_m_s, None
     else:
-        Q = b.thermal_input_W * (gas.wobbe_MJ_m3 / gas.wobbe_ref_MJ_m3 if b.input_follows_wobbe else 1.0)
+        Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
         U = ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
                                                r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2)
     g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
@@ -192,5 +193,6 @@ def point_warnings(study, point, row: dict) -> str:
     """All warnings of one point, joined by '; ' ('' when it is inside every range)."""
     out = [pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
+           heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
            autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row)]
     return "; ".join(w for w in out if w)

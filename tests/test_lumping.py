@@ -97,3 +97,19 @@ def test_a_species_nobody_can_place_is_refused_with_the_rule(tmp_path):
     config.write_text(config.read_text().replace("diluted = { H2 = 0.6, N2 = 0.4 }", "diluted = { H2 = 0.6, C4H10 = 0.4 }"))
     with pytest.raises(MechanismError, match="species 'C4H10' in 'fuels.diluted' is not in mechanism h2o2.yaml"):
         load_study(config)
+
+
+def test_argon_the_mechanism_spells_in_capitals_is_not_lumped():
+    X, notes = lump({"CH4": 0.9, "Ar": 0.1}, {"CH4": {"C": 1, "H": 4}, "AR": {"Ar": 1}, "N2": {"N": 2}})
+    assert X == {"CH4": 0.9, "AR": 0.1} and notes == []
+
+
+def test_a_propane_butane_fuel_on_gri30_is_warned():
+    from flamecharts.physics.limits import heavy_hydrocarbon_warning
+
+    atoms = {**GRI_LIKE, "n-C4H10": formula_atoms("n-C4H10"), "i-C4H10": formula_atoms("i-C4H10")}
+    lpg = {"C3H8": 0.3, "n-C4H10": 0.5, "i-C4H10": 0.2}
+    assert "100 % C3+ hydrocarbons" in heavy_hydrocarbon_warning("gri30.yaml", lpg, atoms)
+    assert heavy_hydrocarbon_warning("gri30.yaml", EXAMPLE_3, {**atoms, **{sp: formula_atoms(sp) for sp in EXAMPLE_3
+                                                                           if sp not in atoms}}) == ""
+    assert heavy_hydrocarbon_warning("my_propane_mechanism.yaml", lpg, atoms) == ""

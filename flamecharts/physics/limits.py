@@ -70,3 +70,34 @@ def flammability_warning(X_fuel: dict, X_oxidizer: dict, phi: float) -> str:
         return ""
     return (f"equivalence ratio {phi:g} outside the flammable range {lean:g}-{rich:g} in air of "
             f"{', '.join(sorted(burn))} (1 atm, room temperature; Coward & Jones 1952)")
+
+
+#: Mechanisms built for natural gas, by file name: the share of C3+ hydrocarbons in the fuel's
+#: combustibles above which they are used outside their validation (GRI-Mech 3.0 is optimised
+#: for methane and natural gas with ethane and a little propane; it over-predicts propane-air
+#: flame speeds by about 25 %, see the README's Accuracy section and tests/test_validation.py).
+NATURAL_GAS_MECHANISMS = {"gri30.yaml": 0.10}
+
+
+def heavy_hydrocarbon_warning(mechanism: str, X_fuel: dict, atoms: dict) -> str:
+    """'' or a warning when hydrocarbons with three or more carbon atoms make up more than the
+    mechanism's allowance (NATURAL_GAS_MECHANISMS) of the fuel's combustibles (by moles).
+
+    >>> atoms = {"CH4": {"C": 1, "H": 4}, "C3H8": {"C": 3, "H": 8}, "N2": {"N": 2}}
+    >>> heavy_hydrocarbon_warning("gri30.yaml", {"CH4": 0.3, "C3H8": 0.7}, atoms)[:42]
+    'fuel is 70 % C3+ hydrocarbons (combustible'
+    >>> heavy_hydrocarbon_warning("gri30.yaml", {"CH4": 0.95, "C3H8": 0.05}, atoms)
+    ''
+    """
+    limit = NATURAL_GAS_MECHANISMS.get(Path(mechanism).name)
+    if limit is None:
+        return ""
+    burn = {sp: x for sp, x in X_fuel.items() if x > 0 and atoms.get(sp, {}).get("C", 0) + atoms.get(sp, {}).get("H", 0) > 0
+            and sp not in INERTS and sp != "CO2" and sp != "H2O"}
+    total = sum(burn.values())
+    heavy = sum(x for sp, x in burn.items() if atoms[sp].get("C", 0) >= 3)
+    if total <= 0 or heavy / total <= limit:
+        return ""
+    return (f"fuel is {100 * heavy / total:.0f} % C3+ hydrocarbons (combustibles, by moles): {Path(mechanism).name} "
+            f"is built for natural gas and over-predicts propane-air flame speeds by about 25 %; use a mechanism "
+            "validated for propane and butanes")

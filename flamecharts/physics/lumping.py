@@ -76,8 +76,9 @@ def lump(X: Mapping[str, float], mechanism_atoms: Mapping[str, Mapping[str, floa
     out: dict[str, float] = {}
     notes = []
     for sp, x in X.items():
-        if sp in mechanism_atoms:
-            out[sp] = out.get(sp, 0.0) + x
+        same = sp if sp in mechanism_atoms else next((m for m in mechanism_atoms if m.upper() == sp.upper()), None)
+        if same is not None:  # the mechanism's own species, maybe spelled in other case (Ar / AR)
+            out[same] = out.get(same, 0.0) + x
             continue
         if sp in DROPPED:
             notes.append(f"{sp} left out (no sulphur chemistry)")
@@ -96,7 +97,7 @@ def lump(X: Mapping[str, float], mechanism_atoms: Mapping[str, Mapping[str, floa
         name, k = alkane
         out[name] = out.get(name, 0.0) + x * n / k
         notes.append(f"{sp} as {Fraction(n, k)} {name} (equal carbon)" if n != k else f"{sp} as {name} (equal carbon)")
-    if not notes:
+    if not notes and set(out) == set(X):
         return dict(X), []  # nothing lumped: the composition exactly as given
     total = sum(out.values())
     return {k: v / total for k, v in out.items()}, notes

@@ -135,6 +135,7 @@ def blend_chart(data, study):
                     linestyle="--")
             ax.annotate(f"{t:.0f} K", (100 * fracs[np.flatnonzero(np.isfinite(S))[-1]], 100 * S[np.isfinite(S)][-1]),
                         textcoords="offset points", xytext=(4, 0), fontsize=7, color=greys[ti], va="center")
+        ax.margins(x=0.14)  # room for the temperature labels at the right end
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel("S_L at fixed T_ad [cm/s]")
         ax.set_title(f"{where}: at equal flame temperature", fontsize=9)
@@ -200,8 +201,8 @@ def flashback_chart(data, study):
     handles[f"port {'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"] = Line2D(
         [], [], color="0.2", lw=1.4, linestyle="-.")
     return finish(fig, study, (f"Flashback check: {b.name}",
-                                "Will the flame flash back? Each blend is safe where its curve stays above the red "
-                                "line"), handles, "Fuel and burner")
+                                "Will the flame flash back? A blend keeps the required margin where its curve stays "
+                                "above the red line (a screening margin, not a proof of safety)"), handles, "Fuel and burner")
 
 
 #: Points per axis of the fine grid the window's margins are interpolated on.

@@ -69,7 +69,10 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
         ax.set_ylabel(ylabel)
         ax.tick_params(labelleft=True)  # shared scale, but every panel keeps its numbers
         ax.grid(True, color="0.88", lw=0.7)
-    axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale if floor_at_preheat else 0.0)
+    if not floor_at_preheat:
+        axes.flat[0].set_ylim(bottom=0.0)
+    elif shown & {"no_flame", "failed"}:  # points without a flame sit at the preheat: show it
+        axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
     for status, marker in NOT_BURNING:
@@ -117,7 +120,7 @@ def thermal_thickness_chart(data, study):
 
 @chart("adiabatic_flame_temperature_vs_equivalence_ratio",
        "Adiabatic flame temperature (burned gas of the free flame) of each fuel and blend against equivalence "
-       "ratio, a panel per pressure and preheat; the axis starts at the preheat. Hotter flames make more "
+       "ratio, a panel per pressure and preheat; points without a flame sit at the preheat temperature. Hotter flames make more "
        "thermal NOx and heat the burner more.",
        any_flame)
 def flame_temperature_chart(data, study):
