@@ -448,6 +448,10 @@ def _check_mixtures(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, 
                     except mixtures.MixtureError as exc:
                         raise ConfigError(f"{what} in 'oxidizers.{ox}' at equivalence ratio {phi:g} gives no "
                                           f"usable mixture: {exc}") from None
+    for n in sweep_fuels:  # each sweep fuel alone is the reference gas of its blends (Wobbe index, ratios)
+        if mixtures.stoich_o2_per_fuel(atoms_all, fuels[n]) < MIN_O2_NEED:
+            raise ConfigError(f"'fuels.{n}' has (almost) no combustible species; it is the reference gas of its "
+                              "blends (Wobbe index, ratios), so it must burn on its own")
 
 
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,

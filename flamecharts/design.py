@@ -33,6 +33,9 @@ def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
         raise ConfigError(f"fuel-gas properties of {', '.join(sorted(X_fuel))} cannot be computed: {exc}") from None
     X_ox = study.oxidizers[oxidizer]
     n_ox = mixtures.stoich_o2_per_fuel(all_atoms(study), X_fuel) / X_ox["O2"]
+    if not n_ox > 0 or not props.lower_wobbe_index_MJ_m3 > 0:
+        raise ConfigError(f"fuel gas {', '.join(sorted(X_fuel))} has no heating value (it needs no oxygen to "
+                          "burn); a fuel or reference gas must contain combustible species")
     in_mech = (set(X_fuel) | set(X_ox)) & set(study.atoms)
     M = {**{sp: ISO6976_2016[sp][0] for sp in X_fuel if sp not in study.atoms},  # analysis species: ISO 6976
          **molar_masses(study.mechanism_path, in_mech)}

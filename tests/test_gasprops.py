@@ -43,7 +43,7 @@ def test_iso6976_2016_annex_d_example_3_at_25_0():
     # ISO 6976:2016, Annex D, example 3 at 25 degC combustion, 0 degC / 101.325 kPa
     # metering: superior 41.89360, inferior 37.85228 MJ/m3, relative density 0.62411,
     # superior Wobbe 53.02930, inferior Wobbe 47.91376 MJ/m3, as printed in the standard
-    # and transcribed in the test suite of the open R package ISO6976.2016 (R. Forster,
+    # and copied into the test suite of the open R package ISO6976.2016 (R. Forster,
     # 2026, tests/testthat/test_iso6976.R); not in shared/REFERENCE-DATA.md. Checks the
     # 25 degC superior values and 0 degC summation factors of the added alkanes.
     p = fuel_gas_properties(EXAMPLE_3, 25, 0)

@@ -366,4 +366,13 @@ def test_examples_found_by_hypothesis_stay_fixed():
         study_from_dict({**BASE, "sweep": {**BASE["sweep"], "pressure_bar": [10 ** 400]}})
     with pytest.raises(FlamechartsError, match="too deeply"):
         study_from_toml("x = " + "[" * 3000 + "]" * 3000)
+    # a sweep fuel that is almost all O2 or water, blended only at fraction 1, is still the Wobbe
+    # reference of its blends: its zero heating value used to divide by zero in the gas table
+    for other in ("O2", "H2O"):
+        d = {"mechanism": "h2o2.yaml", "fuels": {"f0": {"H2": 1.0}, "f1": {other: 1e300, "H2": 1.0}},
+             "oxidizers": {"air": {"O2": 1.0}},
+             "sweep": {"fuel": ["f1"], "oxidizer": ["air"], "equivalence_ratio": [1.0],
+                       "blend": {"with": "f0", "fraction": [1.0]}}}
+        with pytest.raises(FlamechartsError, match="'fuels.f1' has .almost. no combustible species"):
+            study_from_dict(d)
     assert datetime  # dates are among the generated values

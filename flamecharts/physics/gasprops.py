@@ -38,11 +38,11 @@ L_WATER = {25: 44.013, 15: 44.431, 0: 45.064}
 #: Sources. CH4 to CO2 (the first seven rows): ISO 6976:2016 values as collected in
 #: shared/REFERENCE-DATA.md (read from open implementations of the standard).
 #: All other rows: ISO 6976:2016 Table 1 (M), Table 2 (s at 15 and 0 degC) and Table 3
-#: (superior value at 25, 15 and 0 degC), as transcribed in the open R package
+#: (superior value at 25, 15 and 0 degC), as copied into the open R package
 #: ISO6976.2016, R. Forster, version 0.1-0, 2026 (GPL-3; src/iso6976.cpp, arrays TAB_M,
 #: TAB_S, TAB_HC, which it labels Tables A.2-A.4), and identically in E. van der Werff's
 #: Python port of that package, iso6976-py_2016, 2026 (src/iso6976/_tables.py). That
-#: transcription holds every value of the first seven rows as written here, and with it
+#: copy holds every value of the first seven rows as written here, and with it
 #: this module reproduces ISO 6976:2016 Annex D example 3 (C4-C6 alkanes) to the printed
 #: digits (tests/test_gasprops.py). Cross-checks, not copied from: the superior values
 #: and molar masses of the alkanes, C3H6, H2S and H2O equal those of the gross
@@ -50,7 +50,7 @@ L_WATER = {25: 44.013, 15: 44.431, 0: 45.064}
 #: uncertainties) hard-coded in VSL's Met4H2 (met4h2.py); the alkane summation factors
 #: equal those of Equinor's NeqSim (src/main/resources/data/ISO6976constants2016.csv).
 #: For C3H6, H2S, H2O, O2, He and Ar the summation factors rest on the Forster
-#: transcription alone: NeqSim's file has other values for them (and H2 0, CO
+#: copy alone: NeqSim's file has other values for them (and H2 0, CO
 #: 0.0224, against the 2016 -0.0100 and 0.0217 above), so it was not used for them.
 #: Molar masses: each equals the sum of the IUPAC atomic weights the standard uses
 #: (C 12.0107, H 1.00794, O 15.9994, N 14.0067, S 32.065, He 4.002602, Ar 39.948;
