@@ -19,7 +19,6 @@ from __future__ import annotations
 import itertools
 import json
 from dataclasses import dataclass, field
-from functools import cached_property
 from pathlib import Path
 
 import numpy as np
@@ -141,8 +140,10 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
-                     **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION,
-                     **({"lumped_fuel": lumping_note(study)} if lumping_note(study) else {})})
+                     **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
+    note = lumping_note(study)
+    if note:
+        ds.attrs["lumped_fuel"] = note
     return ds
 
 
@@ -234,11 +235,14 @@ class Results:
     out_dir: Path
     files: list[Path] = field(default_factory=list)
     summary: object | None = None
+    table: xr.Dataset | None = field(default=None, repr=False)  # the dataset, when already made
 
-    @cached_property
+    @property
     def dataset(self) -> xr.Dataset:
-        """Every quantity over the sweep axes (see :func:`to_dataset`)."""
-        return to_dataset(self.study, self.rows)
+        """Every quantity over the sweep axes (see :func:`to_dataset`), made once."""
+        if self.table is None:
+            self.table = to_dataset(self.study, self.rows)
+        return self.table
 
     def to_dataframe(self):
         """A pandas DataFrame with results.csv's columns, one row per point, in study order."""

@@ -134,7 +134,7 @@ def test_the_window_fill_and_its_edge_lines_come_from_one_field():
                             "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
     burner = SimpleNamespace(min_flashback_margin=1.5, min_blowoff_margin=1.5, name="test burner")
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
-                            thermal_diffusion=False, resolution="standard")
+                            thermal_diffusion=False, resolution="standard", analysis_atoms={})
     fig = window_chart(SimpleNamespace(dataset=ds, rows=[], gases=[]), study)
     ax = fig.axes[0]
     green = [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())

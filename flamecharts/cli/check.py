@@ -44,8 +44,9 @@ def cmd_check(args) -> int:
     print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
     print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
-    if lumping_note(study):
-        print(lumping_note(study))
+    note = lumping_note(study)
+    if note:
+        print(note)
     print_gases(study)
     print_burner(study)
     if stored:

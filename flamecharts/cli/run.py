@@ -56,11 +56,12 @@ def cmd_run(args) -> int:
                   f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
         if len(warned) > 20:
             print(f"  ... and {len(warned) - 20} more (see results.csv)")
-    if lumping_note(study):
-        print(lumping_note(study))
+    note = lumping_note(study)
+    if note:
+        print(note)
     if not args.quiet:
         print_points(study, summary.rows)
-    print_margins(study, summary.rows)
+    print_margins(study, results.dataset)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'})")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")

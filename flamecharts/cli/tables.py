@@ -3,7 +3,7 @@ from __future__ import annotations
 
 from ..columns import gas_label
 from ..design import fuel_gas_table
-from ..results import first_flashback_fraction, margin_summary, to_dataset
+from ..results import first_flashback_fraction, margin_summary
 
 
 def print_gases(study) -> None:
@@ -32,10 +32,8 @@ def print_burner(study) -> None:
           f"{b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}")
 
 
-def print_margins(study, rows) -> None:
-    if study.burner is None:
-        return
-    ds = to_dataset(study, rows)
+def print_margins(study, ds) -> None:
+    """Smallest margins per gas and condition, read from the results Dataset."""
     summary = margin_summary(ds, study.burner)
     if not summary:
         return

@@ -149,8 +149,9 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
                ["unburned temperature [K]", ", ".join(f"{v:g}" for v in study.unburned_temperatures_K)],
                ["points", str(len(rows))]]
     parts.append(_table(["axis", "values"], window))
-    if lumping_note(study):
-        parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(lumping_note(study))}</div>")
+    note = lumping_note(study)
+    if note:
+        parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
     b = study.burner
     if b is not None:
         how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
@@ -177,7 +178,7 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
     return parts
 
 
-def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None) -> Path:
+def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
@@ -192,7 +193,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts += _study_section(study, rows, gases)
 
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
-    summary = margin_summary(to_dataset(study, rows), study.burner)
+    summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
         parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", "min blowoff margin (φ)",
                              "points ok"],

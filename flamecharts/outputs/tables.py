@@ -67,7 +67,7 @@ def write_about(study: Study, path: Path) -> Path:
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
         f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",
-        *([lumping_note(study), ""] if lumping_note(study) else []),
+        *([note, ""] if (note := lumping_note(study)) else []),
         "CAUTION: " + CAUTION,
         "",
     ]

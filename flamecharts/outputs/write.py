@@ -12,13 +12,15 @@ from .report import write_report
 from .tables import write_about, write_csv
 
 
-def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, report: bool = True) -> list[Path]:
+def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, report: bool = True,
+                  dataset=None) -> list[Path]:
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
-    (with the charts, unless ``report`` is False). Returns the files written, results.csv first."""
+    (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
+    rows when the caller has it. Returns the files written, results.csv first."""
     out = Path(out)
     gases = fuel_gas_table(study)
-    ds = to_dataset(study, rows)
+    ds = to_dataset(study, rows) if dataset is None else dataset
     files = [write_csv(rows, out / "results.csv"), write_netcdf(ds, out / "results.nc"),
              write_about(study, out / "about.txt"), write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
     exponents = exponent_table(ds)
@@ -27,5 +29,5 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     if charts:
         files += draw_all(rows, gases, study, out, ds)
     if charts and report:
-        files.append(write_report(study, rows, out, gases))
+        files.append(write_report(study, rows, out, gases, ds))
     return files

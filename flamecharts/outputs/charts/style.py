@@ -36,7 +36,7 @@ def footer(fig, study) -> None:
              f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
              f"{resolution_label(study)} | flamecharts {__version__}\n"
              + (f"Flames burn a lumped fuel: {', '.join(lumped_species(study))} stand in as mechanism species "
-                "(see about.txt)\n" if getattr(study, "analysis_atoms", None) and lumped_species(study) else "")
+                "(see about.txt)\n" if study.analysis_atoms and lumped_species(study) else "")
              + "Screening estimate, not certification: follow local codes and standards, confirm by test.",
              fontsize=7, color="0.3", ha="left", va="bottom")
 
