@@ -85,6 +85,25 @@ UNITS: dict[str, tuple[str, str]] = {
     "stabilizer_margin": ("1", "stabilizer blowoff velocity over approach velocity"),
     "verdict": ("", "burner verdict: ok or the risks found"),
     "warnings": ("", "inputs outside the range the method or mechanism covers"),
+    "ignition_delay_ms": ("ms", "constant-pressure ignition delay of the fresh mixture (time of max dT/dt)"),
+    "autoignition_margin": ("1", "ignition delay over premixer residence time"),
+    "autoignition_verdict": ("", "ok or autoignition risk (margin below the premixer's minimum)"),
+    "limit": ("", "which limit: max_blend_fraction, lean_edge_equivalence_ratio, rich_edge_equivalence_ratio"),
+    "limit_value": ("1", "the limit: admissible end of the final bracket (blend fraction or equivalence ratio)"),
+    "outcome": ("", "found, whole range, beyond swept range, none admissible or stopped"),
+    "binding": ("", "criterion that fails just past the limit (flashback, blowoff, stabilizer, Wobbe band, "
+                    "none in range)"),
+    "margin_at_limit": ("1", "the binding criterion's margin at the limit"),
+    "flashback_margin_at_limit": ("1", "flashback margin at the limit"),
+    "blowoff_margin_at_limit": ("1", "blowoff margin at the limit"),
+    "stabilizer_margin_at_limit": ("1", "stabilizer margin at the limit"),
+    "wobbe_limit_blend_fraction": ("1", "largest blend fraction inside the Wobbe band"),
+    "bracket_admissible": ("1", "admissible end of the final bracket"),
+    "bracket_failing": ("1", "failing end of the final bracket"),
+    "tolerance_reached": ("1", "width of the final bracket"),
+    "flames_evaluated": ("1", "flames the search asked for beyond the sweep (stored ones count)"),
+    "evaluated_at": ("", "where the search asked for flames, in order"),
+    "note": ("", "how the search ended"),
 }
 
 INDICATOR_COLUMNS = (
@@ -111,6 +130,17 @@ COLUMNS = (
     "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
 ) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + ("warnings",)
+
+#: Premixer autoignition columns (results.csv, when the study has a [premixer] table).
+PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+
+#: limits.csv, one row per limit search.
+LIMIT_COLUMNS = (
+    "limit", "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+    "unburned_temperature_K", "limit_value", "outcome", "binding", "margin_at_limit", "flashback_margin_at_limit",
+    "blowoff_margin_at_limit", "stabilizer_margin_at_limit", "wobbe_limit_blend_fraction", "bracket_admissible",
+    "bracket_failing", "tolerance_reached", "flames_evaluated", "evaluated_at", "note",
+)
 
 #: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).
 GAS_TABLE_COLUMNS = (

@@ -50,7 +50,8 @@ TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
-            "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster")
+            "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
+            "limits", "premixer")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -58,6 +59,22 @@ GAS_QUALITY_KEYS = ("combustion_temperature_C", "metering_temperature_C", "wobbe
                     "wobbe_tolerance_percent")
 #: Default minimum margins of the burner verdict (common practice without source: set your own).
 DEFAULT_MIN_MARGIN = 1.5
+LIMITS_KEYS = ("find", "criteria", "blend_fraction_tolerance", "equivalence_ratio_tolerance",
+               "max_flames_per_search")
+#: What a [limits] table may ask for: the largest admissible blend fraction at every other
+#: sweep setting, and the lean and rich edges of the equivalence-ratio window at every blend.
+LIMIT_KINDS = ("blend_fraction", "equivalence_ratio")
+#: Burner margins a limit may keep (the stabilizer one only where the burner has a stabilizer).
+LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer")
+#: Default tolerances of a limit search: the width of the final bracket (0.5 percentage
+#: points of blend fraction; 0.005 in equivalence ratio).
+DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
+#: Flames one limit search may solve before it stops and reports its bracket.
+DEFAULT_MAX_FLAMES_PER_SEARCH = 12
+PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
+#: Default required autoignition margin (ignition delay over premixer residence time;
+#: common practice without source: set your own).
+DEFAULT_MIN_AUTOIGNITION_MARGIN = 3.0
 SWEEP_KEYS = ("fuel", "oxidizer", "blend", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
 BLEND_KEYS = ("with", "fraction")
 RANGE_KEYS = ("from", "to", "step")
@@ -108,6 +125,25 @@ class Burner:
 
 
 @dataclass(frozen=True)
+class Limits:
+    """What a [limits] table asks for: which limits, kept by which burner margins, how fine."""
+
+    find: tuple[str, ...]               # members of LIMIT_KINDS
+    criteria: tuple[str, ...]           # members of LIMIT_CRITERIA
+    tolerance: dict                     # kind -> width of the final bracket (blend fraction 0..1, phi)
+    max_flames_per_search: int = DEFAULT_MAX_FLAMES_PER_SEARCH
+
+
+@dataclass(frozen=True)
+class Premixer:
+    """A premixer ahead of the flame: how long the fresh mixture stays in it, and the
+    autoignition margin (ignition delay / residence time) the verdict requires."""
+
+    residence_time_s: float
+    min_autoignition_margin: float = DEFAULT_MIN_AUTOIGNITION_MARGIN
+
+
+@dataclass(frozen=True)
 class GasQuality:
     """Reference state of the fuel-gas properties and the allowed Wobbe band."""
 
@@ -154,6 +190,8 @@ class Study:
     gas_quality: "GasQuality" = None  # type: ignore[assignment]
     indicator_settings: dict = field(default_factory=dict)
     cluster: str | None = None   # Dask scheduler address or "local:N"; None: local processes
+    limits: "Limits | None" = None
+    premixer: "Premixer | None" = None
 
     @property
     def n_points(self) -> int:
@@ -354,6 +392,62 @@ def _burner(b: Any) -> Burner:
                   **{k: v for k, v in margins.items() if v is not None})
 
 
+def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str, ...]:
+    items = [value] if isinstance(value, str) else value
+    if not isinstance(items, list) or not items:
+        raise ConfigError(f"'{where}' must be a list of names; allowed: {', '.join(allowed)}")
+    for v in items:
+        if not isinstance(v, str) or v not in allowed:
+            raise ConfigError(f"'{where}' names {show(v)}{_suggest(str(v), allowed)}")
+    return tuple(dict.fromkeys(items))
+
+
+def _limits(t: Any, burner: "Burner | None", blend_with: str | None) -> Limits:
+    """The [limits] table: checked against the burner and the sweep it needs."""
+    if not isinstance(t, dict):
+        raise ConfigError("'limits' must be a table")
+    _check_keys(t, LIMITS_KEYS, "limits.")
+    if burner is None:
+        raise ConfigError("[limits] keeps the burner's margins: the study needs a [burner] table")
+    find = _string_list(t.get("find", list(LIMIT_KINDS) if blend_with else ["equivalence_ratio"]), "limits.find",
+                        LIMIT_KINDS)
+    if "blend_fraction" in find and not blend_with:
+        raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
+                          "sweep.blend = { with = ..., fraction = [...] }")
+    default = ["flashback", "blowoff"] + (["stabilizer"] if burner.stabilizer_size_m is not None else [])
+    criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
+    if "stabilizer" in criteria and burner.stabilizer_size_m is None:
+        raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
+    tol = dict(DEFAULT_LIMIT_TOLERANCE)
+    for kind, top in (("blend_fraction", 0.1), ("equivalence_ratio", 0.1)):
+        key = f"{kind}_tolerance"
+        if key in t:
+            v = _number(t[key], f"limits.{key}")
+            if not 0 < v <= top:
+                raise ConfigError(f"'limits.{key}' is {v:g}; allowed: above 0, at most {top:g}"
+                                  + (" (a mole fraction: 0.5 percentage points is 0.005)"
+                                     if kind == "blend_fraction" and v > top else ""))
+            tol[kind] = v
+    n = t.get("max_flames_per_search", DEFAULT_MAX_FLAMES_PER_SEARCH)
+    if isinstance(n, bool) or not isinstance(n, int) or not 1 <= n <= 100:
+        raise ConfigError(f"'limits.max_flames_per_search' must be a whole number from 1 to 100, got {show(n)}")
+    return Limits(find=find, criteria=criteria, tolerance=tol, max_flames_per_search=n)
+
+
+def _premixer(t: Any) -> Premixer:
+    if not isinstance(t, dict):
+        raise ConfigError("'premixer' must be a table")
+    _check_keys(t, PREMIXER_KEYS, "premixer.")
+    tau = _positive(t, "residence_time_ms", "premixer", 1e-3)
+    if tau is None:
+        raise ConfigError("[premixer] needs 'residence_time_ms' (mean residence time of the fresh mixture, ms)")
+    if tau > 10.0:
+        raise ConfigError(f"'premixer.residence_time_ms' is {tau * 1e3:g} ms, more than 10 s: the key is in "
+                          "milliseconds (a 2 ms premixer is 2)")
+    m = _positive(t, "min_autoignition_margin", "premixer")
+    return Premixer(residence_time_s=tau, **({} if m is None else {"min_autoignition_margin": m}))
+
+
 def _gas_quality(g: Any) -> GasQuality:
     if not isinstance(g, dict):
         raise ConfigError("'gas_quality' must be a table")
@@ -542,6 +636,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     gas_quality = _gas_quality(data.get("gas_quality", {}))
     indicator_settings = _indicator_settings(data.get("indicators", {}))
     cluster = check_cluster_spec(data["cluster"]) if "cluster" in data else None
+    limits = _limits(data["limits"], burner, blend_with) if "limits" in data else None
+    premixer = _premixer(data["premixer"]) if "premixer" in data else None
 
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
@@ -551,7 +647,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
-        gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data)
+        gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data,
+        limits=limits, premixer=premixer)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

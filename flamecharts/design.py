@@ -59,52 +59,56 @@ class FuelGas:
     input_ratio: float        # lower Wobbe index over the reference gas's: the thermal input (on the lower
                               # heating value) through a fixed nozzle at fixed supply pressure scales with it
     lhv_J_kg: float           # lower heating value [J/kg]
+    wobbe_MJ_m3: float        # the Wobbe index the study's band applies to (higher or lower) [MJ/m^3]
+
+
+def fuel_gas(study, fuel: str, frac: float, ox: str, refs: dict | None = None) -> FuelGas:
+    """:class:`FuelGas` of ``fuel`` with ``frac`` of the study's blend gas, burned in ``ox``
+    (any fraction, swept or not: the limit searches ask between the swept ones). ``refs``
+    caches the reference gases' records across calls."""
+    gq = study.gas_quality
+    refs = {} if refs is None else refs
+    rec = gas_record(study, fuel_stream(study, fuel, frac), ox)
+    ref_name = _reference_fuel(study, fuel)
+    if (ref_name, ox) not in refs:
+        refs[(ref_name, ox)] = gas_record(study, dict(study.fuels[ref_name]), ox)
+    ref = refs[(ref_name, ox)]
+    p = rec["props"]
+    W = p.higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else p.lower_wobbe_index_MJ_m3
+    W_ref = ref["props"].higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else ref["props"].lower_wobbe_index_MJ_m3
+    if gq.band_MJ_m3 is not None:
+        lo, hi = gq.band_MJ_m3
+    elif gq.tolerance_percent is not None:
+        lo, hi = W_ref * (1 - gq.tolerance_percent / 100), W_ref * (1 + gq.tolerance_percent / 100)
+    else:
+        lo = hi = None
+    row = {
+        "fuel": fuel, "blend_with": study.blend_with or "", "blend_fraction": frac, "oxidizer": ox,
+        "higher_heating_value_MJ_kg": p.higher_heating_value_MJ_kg,
+        "lower_heating_value_MJ_kg": p.lower_heating_value_MJ_kg,
+        "higher_heating_value_MJ_m3": p.higher_heating_value_MJ_m3,
+        "lower_heating_value_MJ_m3": p.lower_heating_value_MJ_m3,
+        "relative_density": p.relative_density,
+        "higher_wobbe_index_MJ_m3": p.higher_wobbe_index_MJ_m3,
+        "lower_wobbe_index_MJ_m3": p.lower_wobbe_index_MJ_m3,
+        "wobbe_change_percent": 100.0 * (W / W_ref - 1.0),
+        "wobbe_band_low_MJ_m3": lo, "wobbe_band_high_MJ_m3": hi,
+        "wobbe_in_band": None if lo is None else bool(lo <= W <= hi),
+        "stoich_oxidizer_volume_m3_m3": rec["stoich_oxidizer_volume_m3_m3"],
+        "stoich_oxidizer_mass_kg_kg": rec["stoich_oxidizer_mass_kg_kg"],
+        "stoich_fuel_mole_fraction": rec["stoich_fuel_mole_fraction"],
+        "reference_gas": ref_name,
+        "conditions": p.conditions, "method": p.method,
+    }
+    return FuelGas(row, p.lower_wobbe_index_MJ_m3 / ref["props"].lower_wobbe_index_MJ_m3,
+                   p.lower_heating_value_MJ_kg * 1e6, W)
 
 
 def fuel_gases(study) -> dict[tuple[str, float, str], FuelGas]:
     """(fuel, blend fraction, oxidizer) -> :class:`FuelGas`, in the study's order."""
-    gq = study.gas_quality
-    out = {}
-    refs = {}
-    for ox in study.sweep_oxidizers:
-        for fuel in study.sweep_fuels:
-            for frac in study.blend_fractions:
-                rec = gas_record(study, fuel_stream(study, fuel, frac), ox)
-                ref_name = _reference_fuel(study, fuel)
-                if (ref_name, ox) not in refs:
-                    refs[(ref_name, ox)] = gas_record(study, dict(study.fuels[ref_name]), ox)
-                ref = refs[(ref_name, ox)]
-                p = rec["props"]
-                W = p.higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else p.lower_wobbe_index_MJ_m3
-                W_ref = (ref["props"].higher_wobbe_index_MJ_m3 if gq.wobbe == "higher"
-                         else ref["props"].lower_wobbe_index_MJ_m3)
-                if gq.band_MJ_m3 is not None:
-                    lo, hi = gq.band_MJ_m3
-                elif gq.tolerance_percent is not None:
-                    lo, hi = W_ref * (1 - gq.tolerance_percent / 100), W_ref * (1 + gq.tolerance_percent / 100)
-                else:
-                    lo = hi = None
-                row = {
-                    "fuel": fuel, "blend_with": study.blend_with or "", "blend_fraction": frac, "oxidizer": ox,
-                    "higher_heating_value_MJ_kg": p.higher_heating_value_MJ_kg,
-                    "lower_heating_value_MJ_kg": p.lower_heating_value_MJ_kg,
-                    "higher_heating_value_MJ_m3": p.higher_heating_value_MJ_m3,
-                    "lower_heating_value_MJ_m3": p.lower_heating_value_MJ_m3,
-                    "relative_density": p.relative_density,
-                    "higher_wobbe_index_MJ_m3": p.higher_wobbe_index_MJ_m3,
-                    "lower_wobbe_index_MJ_m3": p.lower_wobbe_index_MJ_m3,
-                    "wobbe_change_percent": 100.0 * (W / W_ref - 1.0),
-                    "wobbe_band_low_MJ_m3": lo, "wobbe_band_high_MJ_m3": hi,
-                    "wobbe_in_band": None if lo is None else bool(lo <= W <= hi),
-                    "stoich_oxidizer_volume_m3_m3": rec["stoich_oxidizer_volume_m3_m3"],
-                    "stoich_oxidizer_mass_kg_kg": rec["stoich_oxidizer_mass_kg_kg"],
-                    "stoich_fuel_mole_fraction": rec["stoich_fuel_mole_fraction"],
-                    "reference_gas": ref_name,
-                    "conditions": p.conditions, "method": p.method,
-                }
-                out[(fuel, frac, ox)] = FuelGas(row, p.lower_wobbe_index_MJ_m3 / ref["props"].lower_wobbe_index_MJ_m3,
-                                                p.lower_heating_value_MJ_kg * 1e6)
-    return out
+    refs: dict = {}
+    return {(fuel, frac, ox): fuel_gas(study, fuel, frac, ox, refs)
+            for ox in study.sweep_oxidizers for fuel in study.sweep_fuels for frac in study.blend_fractions}
 
 
 def fuel_gas_table(study) -> list[dict]:

@@ -13,6 +13,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Callable
 
+from .admissible import LimitsProgress, find_limits
 from .config import Study, load_study, save_config_copy
 from .errors import FlamechartsError
 from .outputs import write_outputs
@@ -37,6 +38,8 @@ class RunSummary:
     failures: list[dict] = field(default_factory=list)
     solve_seconds: float = 0.0  # summed over the flames solved in this run, as measured by the workers
     workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
+    limits: list[dict] = field(default_factory=list)  # limits.csv rows (the study's [limits] table)
+    limit_flames: int = 0       # flames the limit searches solved in this run (stored ones not counted)
 
     @property
     def worker_utilisation(self) -> float | None:
@@ -62,8 +65,13 @@ def _out_folder(study: Study, out_dir) -> Path:
 
 def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
                 progress: Callable[[Progress], None] | None = None, cluster: str | None = None,
-                stop_after: int | None = None) -> RunSummary:
+                stop_after: int | None = None,
+                limits_progress: Callable[[LimitsProgress], None] | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
+
+    Then, when the study has a [limits] table, run its limit searches: each asks for
+    flames between the swept ones, solved on the same backend and stored like any point
+    (``limits_progress`` is called after each round of them).
 
     ``cluster`` (a Dask scheduler address or 'local:N', default the study's own) solves
     on Dask workers instead of ``jobs`` local processes. ``stop_after`` hands out at most
@@ -80,14 +88,22 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
             save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
             done = solve_points(study, store, pts, backend, progress, stop_after, t0)
             stored = store.rows([p.key for p in pts])
+            rows = point_rows(study, pts, stored)
+            limits, limit_solved = [], [0]
+            if study.limits is not None and stop_after is None:
+                def solve(new_points) -> int:
+                    n = solve_points(study, store, new_points, backend).solved
+                    limit_solved[0] += n
+                    return n
+                limits = find_limits(study, rows, store, solve, limits_progress)
         workers = max(1, backend.workers())
-    rows = point_rows(study, pts, stored)
     return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
                       failed=sum(1 for r in rows if r["status"] == "failed"),
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
                       wall_seconds=time.perf_counter() - t0,
                       failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
-                      solve_seconds=done.solve_seconds, workers=workers)
+                      solve_seconds=done.solve_seconds, workers=workers, limits=limits,
+                      limit_flames=limit_solved[0])
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
@@ -102,7 +118,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
 
 def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None = None, jobs: int | None = None,
         cluster: str | None = None, progress: Callable[[Progress], None] | None = None,
-        charts: bool = True, report: bool = True) -> Results:
+        charts: bool = True, report: bool = True,
+        limits_progress: Callable[[LimitsProgress], None] | None = None) -> Results:
     """Solve every point of a study the store lacks, store each flame, write every output file.
 
     Parameters
@@ -115,6 +132,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
         ``cluster`` key, else local processes
     progress : called after each finished flame with a :class:`~flamecharts.sweep.run.Progress`
     charts, report : draw the charts, write report.html (the report needs the charts)
+    limits_progress : called after each round of limit flames (studies with [limits])
 
     Returns
     -------
@@ -122,13 +140,24 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     The command ``flamecharts run`` calls exactly this.
     """
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
-    summary = solve_study(study, out, jobs, progress, cluster)
+    summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress)
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
-    files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report, dataset=ds)
-    return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary, table=ds)
+    files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report, dataset=ds,
+                          limits=summary.limits)
+    return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary, table=ds,
+                   limits=summary.limits)
+
+
+def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
+    """The study's limits from the flames stored in ``out_dir`` alone (nothing is solved; a
+    search whose flame is missing says so in its row). [] when the study asks for none."""
+    if study.limits is None:
+        return []
+    with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
+        return find_limits(study, rows, store, solve=None)
 
 
 def open_results(out_dir: str | os.PathLike) -> Results:
     """The results of a finished run folder, read from its store and study copy alone (nothing is solved)."""
     study, rows = rows_from_dir(Path(out_dir))
-    return Results(study=study, rows=rows, out_dir=Path(out_dir))
+    return Results(study=study, rows=rows, out_dir=Path(out_dir), limits=read_limits(study, rows, out_dir))

@@ -236,6 +236,7 @@ class Results:
     files: list[Path] = field(default_factory=list)
     summary: object | None = None
     table: xr.Dataset | None = field(default=None, repr=False)  # the dataset, when already made
+    limits: list[dict] = field(default_factory=list)  # limits.csv rows (studies with a [limits] table)
 
     @property
     def dataset(self) -> xr.Dataset:

@@ -16,6 +16,7 @@ LAYERS = (
     ("sweep",),        # points, warm-start tree, scheduler, worker task, backends, run loop
     ("design",),       # indicators, margins, verdicts, warnings from stored flames
     ("results",),      # rows and the labelled table (xarray)
+    ("admissible",),   # limit searches: admissible blend fraction, equivalence-ratio window
     ("outputs",),      # CSV, netCDF, charts, report
     ("pipeline",),     # run(), open_results()
     ("cli", "__init__", "__main__"),

@@ -4,6 +4,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
+from ..admissible.driver import planned_searches
 from ..config import load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows
@@ -56,7 +57,29 @@ def cmd_check(args) -> int:
           f"(longest warm-start path {tree.depth})")
     if todo:
         print(_estimate_line(study, tree, timings, args.jobs))
+    if study.limits is not None:
+        print(_limits_line(study, timings, args.jobs))
     return 0
+
+
+def _limits_line(study, timings: dict, jobs) -> str:
+    """What the [limits] table asks for and about how many flames beyond the sweep it needs."""
+    plan = planned_searches(study)
+    lim, b = study.limits, study.burner
+    asks = []
+    if plan["blend_fraction"]:
+        asks.append(f"the largest {study.blend_with} fraction at {plan['blend_fraction']} settings "
+                    f"(to {lim.tolerance['blend_fraction']:g})")
+    if plan["equivalence_ratio"]:
+        asks.append(f"up to {plan['equivalence_ratio']} equivalence-ratio window edges "
+                    f"(to {lim.tolerance['equivalence_ratio']:g})")
+    secs, _ = flame_seconds(len(study.atoms), timings)
+    t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)
+    keep = ", ".join(f"{c} >= {getattr(b, 'min_' + c + '_margin'):g}" for c in lim.criteria)
+    return (f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "
+            f"(warm-started, about {t / 60:.0f} min; stored flames are not solved again)" if t >= 120 else
+            f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "
+            f"(warm-started, about {t:.0f} s; stored flames are not solved again)")
 
 
 def _estimate_line(study, tree, timings: dict, jobs) -> str:

@@ -7,6 +7,7 @@ from collections import Counter
 from pathlib import Path
 
 from ..columns import gas_label
+from ..admissible.driver import limit_sentence
 from ..config import check_cluster_spec, load_study, lumping_note
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
@@ -23,7 +24,8 @@ def cmd_run(args) -> int:
 
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
-                      charts=not args.no_charts, report=not args.no_report)
+                      charts=not args.no_charts, report=not args.no_report,
+                      limits_progress=None if args.quiet else _limits_line)
         summary = results.summary
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
@@ -62,7 +64,9 @@ def cmd_run(args) -> int:
     if not args.quiet:
         print_points(study, summary.rows)
     print_margins(study, results.dataset)
-    print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'})")
+    _print_limits(study, summary)
+    print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
+          + (f"; limits: {out / 'limits.csv'}" if summary.limits else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
         if not args.no_report:
@@ -70,6 +74,26 @@ def cmd_run(args) -> int:
     print("Screening estimates, not certification: follow local codes and the applicable standards; "
           "confirm by test.")
     return 0
+
+
+def _limits_line(p) -> None:
+    """One plain line per round of limit flames (stderr, like the progress bar)."""
+    print(f"limits: round {p.round}, {p.searches - p.open_searches} of {p.searches} searches answered, "
+          f"{plural(p.flames_solved, 'flame')} solved, {p.elapsed_s:.0f} s", file=sys.stderr)
+
+
+def _print_limits(study, summary) -> None:
+    """The [limits] answers, one sentence each."""
+    if not summary.limits:
+        return
+    b, lim = study.burner, study.limits
+    keep = ", ".join(f"{c} >= {getattr(b, 'min_' + c + '_margin'):g}" for c in lim.criteria)
+    print(f"Limits ({b.name}; keeping {keep}"
+          + (", the Wobbe band" if "blend_fraction" in lim.find else "")
+          + f"; {sum(r['flames_evaluated'] for r in summary.limits)} flames beyond the sweep, "
+          f"{summary.limit_flames} solved in this run):")
+    for r in summary.limits:
+        print("  " + limit_sentence(r, study))
 
 
 def _utilisation(summary) -> str:

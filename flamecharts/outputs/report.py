@@ -178,7 +178,8 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
     return parts
 
 
-def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None) -> Path:
+def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None,
+                 limits: list[dict] = ()) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"

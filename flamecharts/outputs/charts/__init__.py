@@ -22,10 +22,12 @@ from .registry import CHARTS, ChartData
 CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
-def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None) -> list[Path]:
+def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None,
+             limits: list[dict] = ()) -> list[Path]:
     """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
     ``dataset`` is results.to_dataset of the rows (made here when not given)."""
-    data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset)
+    data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset,
+                     limits=list(limits))
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
     written = []

@@ -9,7 +9,7 @@ own); draw_all and the report pick it up, in the order the charts are registered
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Callable
 
 import xarray as xr
@@ -23,6 +23,7 @@ class ChartData:
     rows: list[dict]
     gases: list[dict]
     dataset: xr.Dataset
+    limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
 
 
 @dataclass(frozen=True)

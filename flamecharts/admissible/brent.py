@@ -1,0 +1,120 @@
+"""Brent's method for a root, written as a generator so that each evaluation can be a flame.
+
+A limit search cannot call ``f(x)`` and wait: every evaluation is a flame solved by
+the run's backend, and several independent searches share the workers. So the root
+finder is a generator: it yields the next x to evaluate and is sent f(x) back
+(:func:`brent_steps`); :func:`drive` runs it against a plain function (tests, and the
+Wobbe bound, which needs no flame).
+"""
+from __future__ import annotations
+
+import math
+import sys
+from dataclasses import dataclass
+from typing import Callable, Generator
+
+#: Machine epsilon of float64: the relative part of the convergence test.
+EPS = sys.float_info.epsilon
+
+
+@dataclass(frozen=True)
+class Bracket:
+    """Where a root search ended: f(good) >= 0 > f(bad) (or the other way round when the
+    function falls the other way), ``width`` = |bad - good|, ``evaluations`` made by the
+    search (the two ends given to it not counted), ``converged`` False when the search was
+    stopped by its evaluation budget."""
+
+    good: float
+    f_good: float
+    bad: float
+    f_bad: float
+    evaluations: int
+    converged: bool
+
+    @property
+    def width(self) -> float:
+        """How far the root may lie from ``good``: 0 when f(good) is exactly 0."""
+        return 0.0 if self.f_good == 0.0 else abs(self.bad - self.good)
+
+
+def brent_steps(a: float, fa: float, b: float, fb: float, xtol: float,
+                max_evaluations: int = 50) -> Generator[float, float, Bracket]:
+    """Find a sign change of f inside [a, b] (f(a), f(b) of opposite signs, both given).
+
+    Brent's method: inverse quadratic interpolation or the secant step where it makes
+    progress, bisection where it does not, so it converges at least as surely as
+    bisection and usually much faster on smooth functions (Brent, *Algorithms for
+    Minimization without Derivatives*, Prentice-Hall 1973, ch. 4; the 'zeroin' routine
+    as printed in Forsythe, Malcolm & Moler, *Computer Methods for Mathematical
+    Computations*, 1977, section 7.2). It stops when the bracket around the sign change
+    is at most ``xtol`` wide (plus 4 eps|x|), or after ``max_evaluations``.
+
+    Yields x, receives f(x) (a finite float); returns a :class:`Bracket` whose ``good``
+    end has f >= 0.
+
+    >>> gen = brent_steps(0.0, 1.0, 1.0, -1.0, 1e-3)
+    >>> x = next(gen)
+    >>> try:
+    ...     while True:
+    ...         x = gen.send(0.3 - x)   # root at 0.3, f falls
+    ... except StopIteration as stop:
+    ...     r = stop.value
+    >>> abs(r.good - 0.3) <= 1e-3, r.f_good >= 0 > r.f_bad
+    (True, True)
+    """
+    if not (fa >= 0) != (fb >= 0):
+        raise ValueError(f"f({a:g}) = {fa:g} and f({b:g}) = {fb:g} have the same sign: no bracket")
+    n = 0
+    c, fc = a, fa
+    d = e = b - a
+    while True:
+        if (fb >= 0) == (fc >= 0):  # the new point lies on c's side: the bracket is [a, b]
+            c, fc = a, fa
+            d = e = b - a
+        if abs(fc) < abs(fb):
+            a, b, c = b, c, b
+            fa, fb, fc = fb, fc, fb
+        tol1 = 2.0 * EPS * abs(b) + 0.5 * xtol
+        xm = 0.5 * (c - b)
+        if abs(xm) <= tol1 or fb == 0.0 or n >= max_evaluations:
+            converged = abs(xm) <= tol1 or fb == 0.0
+            return _bracket(b, fb, c, fc, n, converged)
+        if abs(e) >= tol1 and abs(fa) > abs(fb):
+            s = fb / fa
+            if a == c:  # secant
+                p, q = 2.0 * xm * s, 1.0 - s
+            else:       # inverse quadratic interpolation
+                q, r = fa / fc, fb / fc
+                p = s * (2.0 * xm * q * (q - r) - (b - a) * (r - 1.0))
+                q = (q - 1.0) * (r - 1.0) * (s - 1.0)
+            if p > 0:
+                q = -q
+            p = abs(p)
+            if 2.0 * p < min(3.0 * xm * q - abs(tol1 * q), abs(0.5 * e * q)):
+                e, d = d, p / q
+            else:
+                d = e = xm
+        else:
+            d = e = xm
+        a, fa = b, fb
+        b = b + d if abs(d) > tol1 else b + math.copysign(tol1, xm)
+        fb = yield b
+        n += 1
+        if not math.isfinite(fb):
+            raise ValueError(f"f({b:g}) = {fb!r} is not a finite number")
+
+
+def _bracket(b: float, fb: float, c: float, fc: float, n: int, converged: bool) -> Bracket:
+    if fb >= 0:
+        return Bracket(good=b, f_good=fb, bad=c, f_bad=fc, evaluations=n, converged=converged)
+    return Bracket(good=c, f_good=fc, bad=b, f_bad=fb, evaluations=n, converged=converged)
+
+
+def drive(gen: Generator[float, float, Bracket], f: Callable[[float], float]) -> Bracket:
+    """Run a root-search generator against a plain function f."""
+    try:
+        x = next(gen)
+        while True:
+            x = gen.send(float(f(x)))
+    except StopIteration as stop:
+        return stop.value
