@@ -197,6 +197,15 @@ def limit_row(study, s: _Search) -> dict:
     }
 
 
+def kept(study) -> str:
+    """What the study's limits keep, in words: 'flashback >= 1.5, blowoff >= 1.5 and the Wobbe band'."""
+    b, lim, gq = study.burner, study.limits, study.gas_quality
+    words = [f"{c} >= {getattr(b, CRITERIA[c][1]):g}" for c in lim.criteria]
+    if "blend_fraction" in lim.find and (gq.band_MJ_m3 is not None or gq.tolerance_percent is not None):
+        words.append("the Wobbe band")
+    return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
+
+
 def _where(r: dict) -> str:
     return f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K"
 

@@ -4,7 +4,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
-from ..admissible.driver import planned_searches
+from ..admissible.driver import kept, planned_searches
 from ..config import load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows
@@ -65,7 +65,7 @@ def cmd_check(args) -> int:
 def _limits_line(study, timings: dict, jobs) -> str:
     """What the [limits] table asks for and about how many flames beyond the sweep it needs."""
     plan = planned_searches(study)
-    lim, b = study.limits, study.burner
+    lim = study.limits
     asks = []
     if plan["blend_fraction"]:
         asks.append(f"the largest {study.blend_with} fraction at {plan['blend_fraction']} settings "
@@ -75,7 +75,7 @@ def _limits_line(study, timings: dict, jobs) -> str:
                     f"(to {lim.tolerance['equivalence_ratio']:g})")
     secs, _ = flame_seconds(len(study.atoms), timings)
     t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)
-    keep = ", ".join(f"{c} >= {getattr(b, 'min_' + c + '_margin'):g}" for c in lim.criteria)
+    keep = kept(study)
     return (f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "
             f"(warm-started, about {t / 60:.0f} min; stored flames are not solved again)" if t >= 120 else
             f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "

@@ -7,7 +7,7 @@ from collections import Counter
 from pathlib import Path
 
 from ..columns import gas_label
-from ..admissible.driver import limit_sentence
+from ..admissible.driver import kept, limit_sentence
 from ..config import check_cluster_spec, load_study, lumping_note
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
@@ -86,10 +86,7 @@ def _print_limits(study, summary) -> None:
     """The [limits] answers, one sentence each."""
     if not summary.limits:
         return
-    b, lim = study.burner, study.limits
-    keep = ", ".join(f"{c} >= {getattr(b, 'min_' + c + '_margin'):g}" for c in lim.criteria)
-    print(f"Limits ({b.name}; keeping {keep}"
-          + (", the Wobbe band" if "blend_fraction" in lim.find else "")
+    print(f"Limits ({study.burner.name}; keeping {kept(study)}"
           + f"; {sum(r['flames_evaluated'] for r in summary.limits)} flames beyond the sweep, "
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:

@@ -12,6 +12,7 @@ import time
 from pathlib import Path
 
 from .._version import __version__
+from ..admissible.driver import limit_sentence
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
@@ -178,6 +179,25 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
     return parts
 
 
+def _limits_section(study, limits: list[dict]) -> list[str]:
+    """The [limits] answers: one sentence per search, then how they were found."""
+    if not limits:
+        return []
+    lim = study.limits
+    out = ["<h2 id='limits'>Limits</h2>", "<ul>"]
+    out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in limits]
+    out.append("</ul>")
+    flames = sum(r["flames_evaluated"] for r in limits)
+    out.append(f"<p>Found by Brent's method between the swept points (the Wobbe band, which needs no flame, "
+               f"bounds the blend search first); each step is a flame warm-started from the nearest stored one "
+               f"and stored like any point ({flames} flames beyond the sweep). Each limit is the admissible end "
+               f"of a bracket at most {lim.tolerance['blend_fraction']:g} wide in blend fraction and "
+               f"{lim.tolerance['equivalence_ratio']:g} in equivalence ratio (limits.csv gives both ends and how "
+               "each search ended). A limit inherits every uncertainty of the margins it keeps: it is a screening "
+               "estimate; confirm it by test on the burner.</p>")
+    return out
+
+
 def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None,
                  limits: list[dict] = ()) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
@@ -203,6 +223,8 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['min_flashback_margin']:.2f} ({s['at_phi_flashback']:g})",
                               f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}))
+
+    parts += _limits_section(study, limits)
 
     parts.append("<h2>Charts</h2>")
     for name, caption in CAPTIONS.items():

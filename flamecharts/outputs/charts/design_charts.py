@@ -15,6 +15,7 @@ from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from scipy.interpolate import RegularGridInterpolator
 
+from ...admissible.driver import kept
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
 from .registry import burning_blends, chart, has_margins, has_window, several_blends, varies_p_or_T
@@ -321,3 +322,103 @@ def gas_quality_chart(data, study):
     return finish(fig, study, ("Fuel interchangeability: Wobbe index and heating value",
                                 f"Is the blend interchangeable? ISO 6976:2016, combustion {gq.combustion_T_C} °C, "
                                 f"metering {gq.metering_T_C} °C, 101.325 kPa"), handles, "Fuel gas")
+
+
+#: How the limits chart marks the criterion that binds at each limit.
+BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blowoff binds"),
+                   "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds"),
+                   "none in range": ("o", "every margin holds (whole range)")}
+
+
+def has_limits(data, study) -> bool:
+    return any(r["limit_value"] is not None or r["outcome"] == "none admissible" for r in data.limits)
+
+
+def _limit_curves(rows: list[dict], along: str) -> dict[tuple, list[dict]]:
+    """Limit rows grouped into one curve per (fuel, oxidizer, p, T_u[, blend]), sorted along ``along``."""
+    out: dict[tuple, list[dict]] = {}
+    for r in rows:
+        key = (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) + (
+            (r["blend_fraction"],) if along == "blend_fraction" else ())
+        out.setdefault(key, []).append(r)
+    return {k: sorted(v, key=lambda r: r[along]) for k, v in out.items()}
+
+
+def _draw_blend_limits(ax, rows, study, colours, handles):
+    for ci, (key, rs) in enumerate(_limit_curves(rows, "equivalence_ratio").items()):
+        col = colours[ci]
+        label = f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"
+        xs = [r["equivalence_ratio"] for r in rs]
+        ys = [100 * r["limit_value"] if r["limit_value"] is not None else np.nan for r in rs]
+        h, = ax.plot(xs, ys, "-", color=col, lw=1.6)
+        handles[label] = h
+        for r, x, y in zip(rs, xs, ys):
+            if r["outcome"] == "none admissible":
+                ax.plot(x, 0, "x", color="crimson", ms=9, mew=2)
+                handles.setdefault("not admissible even unblended", Line2D([], [], ls="", marker="x", color="crimson"))
+                continue
+            mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"]))
+            ax.plot(x, y, mk, color=col, ms=8, mec="k")
+            handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
+            if r["bracket_failing"] is not None:  # the bracket: the limit lies between
+                ax.plot([x, x], [100 * r["bracket_admissible"], 100 * r["bracket_failing"]], color=col, lw=3, alpha=0.5)
+            asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
+            ax.plot([x] * len(asked), [100 * v for v in asked], ".", color="0.35", ms=4)
+        wob = [r["wobbe_limit_blend_fraction"] for r in rs if r["wobbe_limit_blend_fraction"] is not None]
+        if wob and min(wob) < 1.0:
+            h, = ax.plot(xs, [100 * min(wob)] * len(xs), ":", color=col, lw=1.2)
+            handles["Wobbe band edge (dotted)"] = h
+    handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
+    ax.set_xlabel("equivalence ratio φ")
+    ax.set_ylabel(f"largest admissible {study.blend_with} fraction [%]")
+    ax.set_ylim(bottom=-3)
+    ax.grid(alpha=0.3)
+
+
+def _draw_window_edges(ax, rows, study, colours, handles):
+    curves: dict[tuple, dict[str, list]] = {}
+    for r in rows:
+        key = (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
+        side = "lean" if r["limit"].startswith("lean") else "rich"
+        curves.setdefault(key, {"lean": [], "rich": []})[side].append(r)
+    for ci, (key, sides) in enumerate(curves.items()):
+        col = colours[ci]
+        for side, ls in (("lean", "-"), ("rich", "--")):
+            rs = sorted((r for r in sides[side] if r["limit_value"] is not None), key=lambda r: r["blend_fraction"])
+            if not rs:
+                continue
+            ax.plot([100 * r["blend_fraction"] for r in rs], [r["limit_value"] for r in rs], ls, color=col, lw=1.4)
+            for r in rs:
+                mk = "o" if r["outcome"] == "found" else ">"
+                ax.plot(100 * r["blend_fraction"], r["limit_value"], BINDING_MARKERS.get(r["binding"], (mk,))[0]
+                        if r["outcome"] == "found" else mk, color=col, ms=7, mec="k",
+                        mfc=col if r["outcome"] == "found" else "white")
+        handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col))
+    handles.setdefault("lean edge (solid), rich edge (dashed)", Line2D([], [], color="0.4"))
+    handles.setdefault("hollow: edge beyond the swept φ range", Line2D([], [], ls="", marker=">", mfc="white", color="0.4"))
+    ax.set_xlabel(f"{study.blend_with} fraction [%]")
+    ax.set_ylabel("admissible equivalence ratio φ")
+    ax.grid(alpha=0.3)
+
+
+@chart("admissible_limits",
+       "The burner's limits found by root finding between the solved points: left, the largest admissible "
+       "blend fraction against equivalence ratio (marker: the criterion that binds; bar: the final bracket; "
+       "grey dots: flames the search solved); right, the lean and rich edges of the admissible "
+       "equivalence-ratio window at each swept blend.",
+       has_limits)
+def limits_chart(data, study):
+    """Admissible blend fraction vs phi and the phi-window edges vs blend fraction (limits.csv)."""
+    blend = [r for r in data.limits if r["limit"] == "max_blend_fraction"]
+    window = [r for r in data.limits if r["limit"] != "max_blend_fraction"]
+    parts = [p for p in (("blend", blend), ("window", window)) if p[1]]
+    fig, axes = figure(len(parts))
+    handles: dict = {}
+    n = max(len(_limit_curves(blend, "equivalence_ratio")), len({(r["fuel"], r["pressure_bar"],
+                                                                   r["unburned_temperature_K"]) for r in window}))
+    colours = colour_scale(n)
+    for ax, (kind, rows) in zip(axes[0], parts):
+        (_draw_blend_limits if kind == "blend" else _draw_window_edges)(ax, rows, study, colours, handles)
+    return finish(fig, study, (f"Admissible limits: {study.burner.name}",
+                               f"keeping {kept(study).replace('>=', '≥')}; tolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
+                               f"{study.limits.tolerance['equivalence_ratio']:g} in φ"), handles, "")
