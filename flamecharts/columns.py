@@ -121,6 +121,9 @@ BURNER_COLUMNS = (
     "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
 )
 
+#: Premixer autoignition columns (empty unless the study has a [premixer] table).
+PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+
 #: results.csv, one row per point, in this order.
 COLUMNS = (
     "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
@@ -129,10 +132,7 @@ COLUMNS = (
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + ("warnings",)
-
-#: Premixer autoignition columns (results.csv, when the study has a [premixer] table).
-PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
 
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (

@@ -28,7 +28,7 @@ import xarray as xr
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
 from .config import Study, load_config_copy, lumping_note, resolution_label
-from .design import annotate, point_warnings
+from .design import annotate, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.fits import fit_power_law
@@ -66,6 +66,8 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
     rows = annotate(study, [flat_row(study, p, stored.get(p.key)) for p in pts])
     for p, r in zip(pts, rows):
         r["warnings"] = point_warnings(study, p, r)
+        if study.premixer is not None:
+            r.update(premixer_columns(study, p))
     return rows
 
 
@@ -204,6 +206,26 @@ def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
                     "min_flashback_margin": float(fb[i]), "at_phi_flashback": float(phis[i]),
                     "min_blowoff_margin": float(bo[j]), "at_phi_blowoff": float(phis[j]),
                     "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum())})
+    return out
+
+
+def premixer_summary(study: Study, rows: list[dict]) -> list[dict]:
+    """Per gas and condition: the shortest ignition delay of the fresh mixture over phi, its
+    autoignition margin and verdict (studies with a [premixer] table; [] otherwise)."""
+    if study.premixer is None:
+        return []
+    groups: dict[tuple, list[dict]] = {}
+    for r in rows:
+        if r.get("ignition_delay_ms") is not None:
+            groups.setdefault((r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"],
+                               r["unburned_temperature_K"]), []).append(r)
+    out = []
+    for (fuel, ox, frac, p, T), rs in groups.items():
+        worst = min(rs, key=lambda r: r["ignition_delay_ms"])
+        out.append({"fuel": fuel, "oxidizer": ox, "blend_with": study.blend_with or "", "blend_fraction": frac,
+                    "pressure_bar": p, "unburned_temperature_K": T, "ignition_delay_ms": worst["ignition_delay_ms"],
+                    "autoignition_margin": worst["autoignition_margin"], "at_phi": worst["equivalence_ratio"],
+                    "risky_points": sum(r["autoignition_verdict"] != "ok" for r in rs), "points": len(rs)})
     return out
 
 

@@ -13,7 +13,7 @@ from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
 from .progress import ProgressDisplay, plural
-from .tables import print_margins, print_points
+from .tables import print_margins, print_points, print_premixer
 
 
 def cmd_run(args) -> int:
@@ -64,6 +64,7 @@ def cmd_run(args) -> int:
     if not args.quiet:
         print_points(study, summary.rows)
     print_margins(study, results.dataset)
+    print_premixer(study, summary.rows)
     _print_limits(study, summary)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "") + ")")

@@ -3,7 +3,7 @@ from __future__ import annotations
 
 from ..columns import gas_label
 from ..design import fuel_gas_table
-from ..results import first_flashback_fraction, margin_summary
+from ..results import first_flashback_fraction, margin_summary, premixer_summary
 
 
 def print_gases(study) -> None:
@@ -49,6 +49,22 @@ def print_margins(study, ds) -> None:
         what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
                 else f"at no {study.blend_with} fraction of the study")
         print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+
+
+def print_premixer(study, rows) -> None:
+    """Shortest ignition delay and smallest autoignition margin per gas and condition."""
+    summary = premixer_summary(study, rows)
+    if not summary:
+        return
+    pm = study.premixer
+    print(f"Premixer autoignition (residence time {pm.residence_time_s * 1e3:g} ms, minimum margin "
+          f"{pm.min_autoignition_margin:g}; delay = time of max dT/dt at constant pressure):")
+    for s in summary:
+        delay = ("no ignition within the horizon" if s["ignition_delay_ms"] == float("inf")
+                 else f"shortest ignition delay {s['ignition_delay_ms']:.3g} ms (phi {s['at_phi']:g}), "
+                      f"margin {s['autoignition_margin']:.3g}")
+        print(f"  {gas_label(s)}, {s['pressure_bar']:g} bar, {s['unburned_temperature_K']:g} K: {delay}; "
+              f"{s['points'] - s['risky_points']} of {s['points']} points ok")
 
 
 MAX_POINT_LINES = 60

@@ -18,7 +18,7 @@ from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import fuel_gas_table
-from ..results import margin_summary, to_dataset
+from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .tables import write_atomic
 
@@ -179,6 +179,27 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
     return parts
 
 
+def _premixer_section(study, rows: list[dict]) -> list[str]:
+    """Autoignition in the premixer: the shortest delay per gas and condition, its margin and verdict."""
+    summary = premixer_summary(study, rows)
+    if not summary:
+        return []
+    pm = study.premixer
+    inf = float("inf")
+    return ["<h2 id='premixer'>Premixer autoignition</h2>",
+            f"<p>Ignition delay of the fresh mixture at the preheat and pressure of each point: the time of the "
+            f"largest temperature rise rate in an adiabatic constant-pressure reactor (Cantera). Margin = delay / "
+            f"residence time ({pm.residence_time_s * 1e3:g} ms); required at least {pm.min_autoignition_margin:g}. "
+            f"The delays of the mechanism were checked against shock-tube measurements within a factor of 2 "
+            f"(README); a mean residence time hides the slowest fluid in wakes and recirculation: confirm by "
+            f"test.</p>",
+            _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "points ok"],
+                   [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
+                     "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
+                     "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
+                     f"{s['points'] - s['risky_points']} of {s['points']}"] for s in summary], {1, 2, 4})]
+
+
 def _limits_section(study, limits: list[dict]) -> list[str]:
     """The [limits] answers: one sentence per search, then how they were found."""
     if not limits:
@@ -225,6 +246,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}))
 
     parts += _limits_section(study, limits)
+    parts += _premixer_section(study, rows)
 
     parts.append("<h2>Charts</h2>")
     for name, caption in CAPTIONS.items():
