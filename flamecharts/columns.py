@@ -77,7 +77,9 @@ UNITS: dict[str, tuple[str, str]] = {
     "method": ("", "method of the gas properties"),
     "port_velocity_m_s": ("m/s", "mean port velocity"),
     "thermal_input_kW": ("kW", "thermal input"),
-    "wall_velocity_gradient_1_s": ("1/s", "velocity gradient at the port wall"),
+    "wall_velocity_gradient_1_s": ("1/s", "velocity gradient at the port wall (laminar, or Blasius turbulent "
+                                           "above Re 2300)"),
+    "port_reynolds_number": ("1", "port Reynolds number U D_h / nu of the fresh mixture"),
     "flashback_margin": ("1", "wall gradient over critical flashback gradient"),
     "blowoff_margin": ("1", "critical blowoff gradient over wall gradient"),
     "quench_ratio": ("1", "quenching size over port size"),
@@ -117,7 +119,7 @@ GAS_COLUMNS = (
     "lower_wobbe_index_MJ_m3", "wobbe_change_percent", "wobbe_in_band",
 )
 BURNER_COLUMNS = (
-    "port_velocity_m_s", "thermal_input_kW", "wall_velocity_gradient_1_s", "flashback_margin",
+    "port_velocity_m_s", "thermal_input_kW", "port_reynolds_number", "wall_velocity_gradient_1_s", "flashback_margin",
     "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
 )
 

@@ -148,8 +148,14 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
         Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
         U = ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
                                                r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2)
-    g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
-         else ind.wall_velocity_gradient_slot(U, b.port_size_m))
+    D_h = b.port_size_m if b.port == "round" else 2.0 * b.port_size_m  # hydraulic diameter
+    mu = r.get("unburned_viscosity_Pa_s")
+    Re = U * D_h * r["unburned_density_kg_m3"] / mu if mu else None
+    if Re is not None and Re > ind.TURBULENT_REYNOLDS:
+        g = ind.wall_velocity_gradient_turbulent(U, D_h, mu / r["unburned_density_kg_m3"])
+    else:
+        g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
+             else ind.wall_velocity_gradient_slot(U, b.port_size_m))
     fb = g / r["flashback_critical_gradient_1_s"]
     bo = r["blowoff_critical_gradient_1_s"] / g
     quench = (r["tube_quenching_diameter_mm"] if b.port == "round" else r["quenching_distance_mm"]) / (1e3 * b.port_size_m)
@@ -159,6 +165,7 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     if bo < b.min_blowoff_margin:
         risks.append("blowoff risk")
     out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
+               port_reynolds_number=Re,
                flashback_margin=fb, blowoff_margin=bo, quench_ratio=quench)
     if b.stabilizer_size_m is not None:
         U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])

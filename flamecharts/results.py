@@ -27,6 +27,7 @@ import xarray as xr
 
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
+from .chemistry.mechanism import viscosity
 from .config import Study, load_config_copy, lumping_note, resolution_label
 from .design import annotate, point_warnings, premixer_columns
 from .errors import StoreError
@@ -59,11 +60,21 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     return row
 
 
+def unburned_viscosity(study: Study, p: Point) -> float:
+    """Viscosity [Pa s] of the point's fresh mixture at its preheat and pressure."""
+    X = tuple(sorted((k, float(v)) for k, v in p.X_unburned.items() if v > 0))
+    return viscosity(study.mechanism_path, X, float(p.T_u), float(p.P))
+
+
 def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[dict]:
     """One flat row per point, in study order, from stored results (missing -> 'pending'),
     with the design indicators, fuel-gas properties and burner margins added, and the
     range warnings of each point (column 'warnings', see design.point_warnings)."""
-    rows = annotate(study, [flat_row(study, p, stored.get(p.key)) for p in pts])
+    flat = [flat_row(study, p, stored.get(p.key)) for p in pts]
+    if study.burner is not None:  # the port's Reynolds number decides laminar or turbulent wall gradient
+        for p, r in zip(pts, flat):
+            r["unburned_viscosity_Pa_s"] = unburned_viscosity(study, p)
+    rows = annotate(study, flat)
     for p, r in zip(pts, rows):
         r["warnings"] = point_warnings(study, p, r)
         if study.premixer is not None:

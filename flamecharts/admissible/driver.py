@@ -20,8 +20,8 @@ from typing import Callable, Generator
 from scipy.optimize import brentq
 
 from ..columns import gas_label
-from ..design import annotate, fuel_gas
-from ..results import flat_row
+from ..design import fuel_gas
+from ..results import point_rows
 from ..sweep.points import Point, points
 from .search import CRITERIA, Found, blend_search, crossing, limit_value, window_searches
 
@@ -160,7 +160,7 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
         stored = store.rows([p.key for _, p in asked])
         for s, (sub, p) in zip(open_, asked):
             if p.key in stored:
-                _advance(s, annotate(sub, [flat_row(sub, p, stored[p.key])])[0])
+                _advance(s, point_rows(sub, [p], stored)[0])
             else:
                 s.gen.close()
                 s.found = Found("stopped", None, "", None, note=f"the flame at {s.axis.replace('_', ' ')} "

@@ -170,3 +170,12 @@ def fallback_data(gas, species, combustion_T_C: int = 15) -> dict:
         out[sp] = (gas.molecular_weights[gas.species_index(sp)], hh,
                    inferior + hh / 2.0 * L_WATER[combustion_T_C])
     return out
+
+
+@lru_cache(maxsize=65536)
+def viscosity(path: str, X: tuple, T: float, P: float) -> float:
+    """Dynamic viscosity [Pa s] of mixture X (tuple of (species, mole fraction)) at T [K],
+    P [Pa], from the mechanism's transport data (mixture-averaged)."""
+    gas = solution(path, "mixture-averaged")
+    gas.TPX = T, P, dict(X)
+    return float(gas.viscosity)

@@ -189,6 +189,31 @@ def wall_velocity_gradient_round(U, D):
     return 8.0 * U / D
 
 
+#: Port Reynolds number U D_h / nu above which the port flow is taken as turbulent (common
+#: practice for pipe flow: laminar below about 2300).
+TURBULENT_REYNOLDS = 2300.0
+
+
+def wall_velocity_gradient_turbulent(U, D_h, nu):
+    """Wall velocity gradient of fully developed turbulent flow in a smooth duct [1/s].
+
+    g = tau_w / mu = lambda U^2 / (8 nu) with Blasius's friction factor
+    lambda = 0.3164 Re^-0.25, Re = U D_h / nu (Blasius 1913, Mitt. Forschungsarb.
+    Ing.-Wes. 131; smooth pipes, within a few per cent of the Prandtl-Karman law for
+    4e3 < Re < 1e5, about 10 % low at 1e6). U [m/s], hydraulic diameter D_h [m] (the
+    diameter of a round port, twice the gap of a slot), nu [m^2/s]. Boundary-layer
+    flashback in turbulent premixer flow is judged by this gradient (as in the
+    critical-gradient literature for turbulent flashback), not by the laminar one.
+
+    Examples
+    --------
+    >>> round(wall_velocity_gradient_turbulent(40.0, 0.025, 6e-6))  # Re = 1.67e5
+    521979
+    """
+    Re = U * D_h / nu
+    return 0.3164 * Re ** -0.25 * U * U / (8.0 * nu)
+
+
 def wall_velocity_gradient_slot(U, h):
     """Wall velocity gradient of fully developed laminar flow in a slot of gap h, g = 6 U / h [1/s].
 
