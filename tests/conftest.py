@@ -53,6 +53,30 @@ def run_cli(*args, cwd=None, timeout=600):
                           capture_output=True, text=True, timeout=timeout)
 
 
+#: Command-line marks of worker processes: loky's, and a local Dask cluster's (multiprocessing spawn).
+WORKER_MARKS = ("LokyProcess", "spawn_main")
+
+
+def run_workers(pid: int) -> list:
+    """The worker processes (psutil) of the run with this pid, loky or local Dask, named by
+    their command line (not the resource trackers, nor a child between fork and exec,
+    which still shows the parent's command line)."""
+    import psutil
+
+    try:
+        kids = psutil.Process(pid).children(recursive=True)
+    except psutil.NoSuchProcess:
+        return []
+    out = []
+    for kid in kids:
+        try:
+            if any(mark in " ".join(kid.cmdline()) for mark in WORKER_MARKS):
+                out.append(kid)
+        except psutil.Error:
+            pass
+    return out
+
+
 @pytest.fixture
 def cli():
     return run_cli

@@ -140,7 +140,7 @@ def test_a_worker_checks_versions_on_its_first_task(monkeypatch):
     monkeypatch.setattr(cl, "_CHECKED", {})
     expected = {**local_versions(), "Cantera": "0.0.0"}
     with pytest.raises(ClusterError, match="runs Cantera .*, this process 0.0.0"):
-        run_on_worker(solve_task, {}, expected, quiet=False)
+        run_on_worker(solve_task, {}, expected, parent=None)
 
 
 def test_a_mechanism_that_pulls_from_other_files_is_sent_as_one_text(tmp_path):

@@ -17,7 +17,7 @@ from concurrent.futures import Future
 from joblib.externals.loky import get_reusable_executor
 
 from ..config import check_cluster_spec
-from .worker import quiet_worker
+from .worker import local_worker
 
 
 class InProcess:
@@ -57,7 +57,8 @@ class LocalBackend:
     def executor(self, study=None):
         if self.slots == 1:
             return InProcess()
-        return get_reusable_executor(max_workers=self.slots, initializer=quiet_worker, timeout=60)
+        return get_reusable_executor(max_workers=self.slots, initializer=local_worker, initargs=(os.getpid(),),
+                                     timeout=60)
 
     def renew(self, study=None):
         """The executor after a worker died: loky replaces a broken pool; starting its helper

@@ -33,7 +33,7 @@ from pathlib import Path
 from .._version import __version__
 from ..chemistry.mechanism import cantera_version, mechanism_text
 from ..errors import FlamechartsError, first_line
-from .worker import code_fingerprint, quiet_worker
+from .worker import code_fingerprint, local_worker
 
 #: Seconds to wait for a scheduler to answer before giving up.
 CONNECT_TIMEOUT_S = 10
@@ -83,15 +83,18 @@ def _mechanism_file(text: str, sha: str) -> str:
     return str(path)
 
 
-def run_on_worker(fn, task: dict, expected: dict[str, str], quiet: bool) -> dict:
+def run_on_worker(fn, task: dict, expected: dict[str, str], parent: int | None) -> dict:
     """Worker entry of every cluster task: check versions (first task of this worker),
-    write the mechanism locally, then run ``fn(task)`` exactly as a local process would."""
+    write the mechanism locally, then run ``fn(task)`` exactly as a local process would.
+    ``parent`` is the pid of the run's process when it started the cluster itself
+    (``local:N``): the worker is then quiet and ends when that process dies
+    (worker.local_worker); None for a cluster started elsewhere."""
     if "versions" not in _CHECKED:
         problem = version_mismatch(expected, local_versions(), _worker_name())
         if problem:
             raise ClusterError(problem)
-        if quiet:
-            quiet_worker()
+        if parent is not None:
+            local_worker(parent)
         _CHECKED["versions"] = True
     task = dict(task)
     task["mechanism_path"] = _mechanism_file(task.pop("mechanism_yaml"), task["mechanism_text_sha256"])
@@ -118,7 +121,7 @@ class _Executor:
     def submit(self, fn, task: dict) -> Future:
         key = f"flame-{task['key'][:10]}-{uuid.uuid4().hex[:8]}"
         return self._inner.submit(run_on_worker, fn, {**task, **self._extra}, self._session.expected,
-                                  self._session.quiet, key=key)
+                                  self._session.parent, key=key)
 
     def shutdown(self, wait: bool = True, kill_workers: bool = False) -> None:
         """Cancel what has not finished (the cluster itself stays up)."""
@@ -133,7 +136,7 @@ class ClusterSession:
         self.expected = local_versions()
         self.cluster = None
         self.client = None
-        self.quiet = False
+        self.parent = None  # this process's pid once it has started the cluster itself (local:N)
         self._executor = None
 
     # -- connection
@@ -150,7 +153,7 @@ class ClusterSession:
             except Exception as exc:  # noqa: BLE001 - anything that stops a local cluster from starting
                 raise ClusterError(f"a local Dask cluster of {n} workers (--cluster {self.spec}) did not "
                                    f"start: {first_line(exc, 200)}") from None
-            address, self.quiet = self.cluster.scheduler_address, True
+            address, self.parent = self.cluster.scheduler_address, os.getpid()
         try:
             self.client = Client(address, timeout=f"{CONNECT_TIMEOUT_S}s", set_as_default=False)
         except (OSError, TimeoutError, ValueError) as exc:

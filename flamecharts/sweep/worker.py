@@ -17,6 +17,7 @@ from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.mechanism import solution
+from .lifeline import exit_with
 from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
@@ -43,6 +44,16 @@ def quiet_worker() -> None:
     devnull = os.open(os.devnull, os.O_WRONLY)
     os.dup2(devnull, 1)
     os.close(devnull)
+
+
+def local_worker(parent: int) -> None:
+    """Start-up of every worker process a run starts itself (the loky pool, a
+    ``--cluster local:N`` worker): quiet (:func:`quiet_worker`), and bound to the run's
+    process ``parent``, so that it ends within seconds when that process dies, SIGKILL
+    included, instead of lingering as an orphan (:func:`lifeline.exit_with`). Workers of
+    a cluster started elsewhere belong to their own nannies and get neither."""
+    quiet_worker()
+    exit_with(parent)
 
 
 def make_task(study, point, warm: dict | None) -> dict:
