@@ -96,8 +96,9 @@ class WarmPlan:
 def _coordinates(items, species: list[str]) -> tuple[np.ndarray, np.ndarray]:
     """(phi, ln p, T) scaled to DISTANCE_SCALES, and fuel mole fractions scaled likewise."""
     s = DISTANCE_SCALES
-    scal = np.array([[it.phi / s["phi"], math.log(it.pressure_bar) / s["ln_p"], it.T_u / s["T_u"]]
-                     for it in items], dtype=float).reshape(-1, 3)
+    scal = np.column_stack([np.array([it.phi for it in items], dtype=float) / s["phi"],
+                            np.array([math.log(it.pressure_bar) for it in items], dtype=float) / s["ln_p"],
+                            np.array([it.T_u for it in items], dtype=float) / s["T_u"]]).reshape(-1, 3)
     fuel = np.array([[float(it.X_flame.get(k, 0.0)) for k in species] for it in items],
                     dtype=float).reshape(-1, len(species))
     return scal, fuel / s["fuel"]
@@ -342,13 +343,13 @@ def _fuel_pairs(fuels: np.ndarray) -> list[tuple[int, int]] | None:
     return out
 
 
-def _adjacency(n: int, u: np.ndarray, v: np.ndarray, w: np.ndarray) -> list[list[tuple[float, int]]]:
-    """Per point, its (distance, neighbour) pairs: both directions of every pair."""
-    adj: list[list[tuple[float, int]]] = [[] for _ in range(n)]
-    for a, b, d in zip(u.tolist(), v.tolist(), w.tolist()):
-        adj[a].append((d, b))
-        adj[b].append((d, a))
-    return adj
+def _adjacency(n: int, u: np.ndarray, v: np.ndarray, w: np.ndarray) -> tuple[list[int], list[int], list[float]]:
+    """Both directions of every pair in compressed rows: the neighbours of point i are
+    ``nbr[start[i]:start[i + 1]]`` at distances ``dist[...]`` (plain lists: fast to walk)."""
+    a, b, d = np.concatenate([u, v]), np.concatenate([v, u]), np.concatenate([w, w])
+    order = np.argsort(a, kind="stable")
+    start = np.concatenate([[0], np.cumsum(np.bincount(a, minlength=n))])
+    return start.tolist(), b[order].tolist(), d[order].tolist()
 
 
 def _seed_order(pts: list[Point]) -> list[int]:
@@ -358,13 +359,14 @@ def _seed_order(pts: list[Point]) -> list[int]:
                                                   pts[k].pressure_bar, -pts[k].T_u, k))
 
 
-def _greedy_tree(best: np.ndarray, src: list, adj: list, seed: list[int]):
+def _greedy_tree(best: np.ndarray, src: list, adj: tuple, seed: list[int]):
     """Prim's greedy order (Prim 1957) over a sparse graph with a binary heap and lazy
     deletion: O(E log E) for E pairs. ``best``/``src``: each point's distance to, and key
     of, its nearest stored flame (inf/None). Returns parent (position or None), stored
     source keys, roots, distances and the order points were taken.
     """
     n = len(best)
+    start, nbr, dist = adj
     key = best.tolist()
     source: list = list(src)  # a stored key (str) or a position (int)
     heap = [(d, i) for i, d in enumerate(key) if d <= MAX_WARM_DISTANCE]
@@ -393,7 +395,7 @@ def _greedy_tree(best: np.ndarray, src: list, adj: list, seed: list[int]):
             distance[i] = math.inf
         closed[i] = 1
         order.append(i)
-        for d, j in adj[i]:
+        for j, d in zip(nbr[start[i]:start[i + 1]], dist[start[i]:start[i + 1]]):
             if d < key[j] and not closed[j]:
                 key[j] = d
                 source[j] = i
