@@ -16,7 +16,6 @@ from typing import Callable
 from .admissible import LimitsProgress, find_limits
 from .config import Study, load_study, save_config_copy
 from .errors import FlamechartsError
-from .outputs import write_outputs
 from .results import Results, point_rows, rows_from_dir, to_dataset
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
@@ -142,6 +141,8 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
     summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress)
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
+    from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
+
     files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report, dataset=ds,
                           limits=summary.limits)
     return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary, table=ds,

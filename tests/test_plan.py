@@ -92,3 +92,16 @@ def test_estimate_grows_with_points_and_shrinks_with_workers(tmp_path):
     assert two < one
     # two workers cannot beat the longest warm-start path
     assert two >= plan_schedule.START_UP_SECONDS + 20.0 + (tree.depth - 1) * 4.0
+
+
+def test_point_keys_are_the_hash_of_their_inputs(tmp_path):
+    # points() writes the key text once per fuel stream and fills in phi, p and T_u
+    pts = _points(tmp_path, fractions="[0.0, 0.5]", phis="[0.7, 1.0]", pressures="[1.0, 2.0]")
+    for p in pts:
+        inputs = plan_points.point_inputs(plan_points.settings_of(load_study(tmp_path / "h2rig.toml")), p.X_flame,
+                                          p.X_oxidizer, p.phi, p.pressure_bar, p.T_u)
+        assert p.inputs == inputs
+        assert p.key == plan_points._hash(inputs)
+        assert p.family == plan_points._hash({k: v for k, v in inputs.items()
+                                              if k not in ("phi", "pressure_bar", "T_u", "fuel")})
+    assert len({p.key for p in pts}) == len(pts)

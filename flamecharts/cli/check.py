@@ -30,7 +30,8 @@ def cmd_check(args) -> int:
         with Store(out / DB_NAME, readonly=True) as st:
             tree = warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique})
             timings = st.timings({p.family for p in pts})
-            rows = point_rows(study, pts, st.rows([p.key for p in pts]))
+            done = [p for p in pts if p.key in keys]  # only stored points are printed
+            rows = point_rows(study, done, st.rows([p.key for p in done]))
     else:
         tree = warm_tree(unique)
     n = NUMERICS[study.resolution]

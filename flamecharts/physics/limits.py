@@ -12,6 +12,7 @@ without solving a flame again. Each warning is one short sentence; a row's
 """
 from __future__ import annotations
 
+from functools import lru_cache
 from pathlib import Path
 
 
@@ -32,6 +33,12 @@ INERTS = {"N2", "CO2", "H2O", "AR", "Ar", "HE", "He"}
 AIR_O2_MAX = 0.22
 
 
+@lru_cache(maxsize=64)
+def _file_name(mechanism: str) -> str:
+    """The file name of a mechanism path (asked once per point: kept)."""
+    return Path(mechanism).name
+
+
 def pressure_warning(mechanism: str, pressure_bar: float) -> str:
     """'' or a warning when a known mechanism is used outside its stated pressure range.
 
@@ -40,7 +47,7 @@ def pressure_warning(mechanism: str, pressure_bar: float) -> str:
     >>> pressure_warning("my_mechanism.yaml", 200.0)
     ''
     """
-    known = MECHANISM_RANGES.get(Path(mechanism).name)
+    known = MECHANISM_RANGES.get(_file_name(mechanism))
     if known is None:
         return ""
     lo, hi, source = known
@@ -89,7 +96,7 @@ def heavy_hydrocarbon_warning(mechanism: str, X_fuel: dict, atoms: dict) -> str:
     >>> heavy_hydrocarbon_warning("gri30.yaml", {"CH4": 0.95, "C3H8": 0.05}, atoms)
     ''
     """
-    limit = NATURAL_GAS_MECHANISMS.get(Path(mechanism).name)
+    limit = NATURAL_GAS_MECHANISMS.get(_file_name(mechanism))
     if limit is None:
         return ""
     burn = {sp: x for sp, x in X_fuel.items() if x > 0 and atoms.get(sp, {}).get("C", 0) + atoms.get(sp, {}).get("H", 0) > 0

@@ -76,26 +76,67 @@ def _hash(obj) -> str:
 
 
 def point_inputs(settings: dict, X_fuel: dict, X_ox: dict, phi: float, P_bar: float, T_u: float) -> dict:
-    return {**settings, "fuel": _comp(X_fuel), "oxidizer": _comp(X_ox), "phi": _num(phi),
+    return _inputs(settings, _comp(X_fuel), _comp(X_ox), phi, P_bar, T_u)
+
+
+def _inputs(settings: dict, fuel: dict, oxidizer: dict, phi: float, P_bar: float, T_u: float) -> dict:
+    """:func:`point_inputs` from compositions already written as text (:func:`_comp`)."""
+    return {**settings, "fuel": dict(fuel), "oxidizer": dict(oxidizer), "phi": _num(phi),
             "pressure_bar": _num(P_bar), "T_u": _num(T_u)}
 
 
+#: The inputs of a point that vary within one fuel stream and oxidizer.
+PER_POINT = ("phi", "pressure_bar", "T_u")
+
+
+def key_template(inputs: dict) -> str | None:
+    """The text :func:`_hash` hashes for ``inputs``, with a slot for each PER_POINT value
+    (None if a slot's mark occurs elsewhere in the text): :func:`fill_key` then makes a
+    point's key without encoding the whole table again.
+
+    >>> t = key_template({"fuel": {"H2": "1"}, "phi": "0.8", "pressure_bar": "1", "T_u": "300"})
+    >>> fill_key(t, {"phi": "0.8", "pressure_bar": "1", "T_u": "300"}) == _hash(
+    ...     {"fuel": {"H2": "1"}, "phi": "0.8", "pressure_bar": "1", "T_u": "300"})
+    True
+    """
+    slots = {k: f"@@{k}@@" for k in PER_POINT}
+    text = json.dumps({**inputs, **slots}, sort_keys=True)
+    return text if all(text.count(json.dumps(v)) == 1 for v in slots.values()) else None
+
+
+def fill_key(template: str, inputs: dict) -> str:
+    """The key of ``inputs`` from its :func:`key_template`: the same as ``_hash(inputs)``."""
+    for k in PER_POINT:
+        template = template.replace(f'"@@{k}@@"', json.dumps(inputs[k]), 1)
+    return hashlib.sha256(template.encode()).hexdigest()[:32]
+
+
 def points(study: Study) -> list[Point]:
-    """Cartesian product of the sweep axes, in a stable order."""
+    """Cartesian product of the sweep axes, in a stable order.
+
+    The fuel stream, its family, its mixtures and the text of its keys are made once per
+    fuel, oxidizer and blend fraction (and equivalence ratio), not once per point
+    (timings at 100,000 points in docs/benchmarks.md).
+    """
     settings = settings_of(study)
     out = []
-    for fuel, ox, frac, P_bar, T_u, phi in product(
-            study.sweep_fuels, study.sweep_oxidizers, study.blend_fractions,
-            study.pressures_bar, study.unburned_temperatures_K, study.equivalence_ratios):
+    for fuel, ox, frac in product(study.sweep_fuels, study.sweep_oxidizers, study.blend_fractions):
         X_fuel = fuel_stream(study, fuel, frac)
         X_flame, _ = flame_stream(study, X_fuel)  # lumped onto the mechanism's species where it lacks some
         X_ox = study.oxidizers[ox]
         o2 = mixtures.stoich_o2_per_fuel(study.atoms, X_flame)
-        inputs = point_inputs(settings, X_flame, X_ox, phi, P_bar, T_u)
-        fam = {k: v for k, v in inputs.items() if k not in ("phi", "pressure_bar", "T_u", "fuel")}
-        out.append(Point(
-            index=len(out), fuel=fuel, oxidizer=ox, blend_with=study.blend_with,
-            blend_fraction=frac, phi=phi, pressure_bar=P_bar, T_u=T_u, X_fuel=X_fuel,
-            X_oxidizer=dict(X_ox), X_unburned=mixtures.unburned_mixture(X_flame, X_ox, phi, o2),
-            key=_hash(inputs), family=_hash(fam), inputs=inputs, X_flame=X_flame))
+        unburned = {phi: mixtures.unburned_mixture(X_flame, X_ox, phi, o2) for phi in study.equivalence_ratios}
+        family = template = None
+        comp_fuel, comp_ox = _comp(X_flame), _comp(X_ox)
+        for P_bar, T_u, phi in product(study.pressures_bar, study.unburned_temperatures_K, study.equivalence_ratios):
+            inputs = _inputs(settings, comp_fuel, comp_ox, phi, P_bar, T_u)
+            if family is None:
+                family = _hash({k: v for k, v in inputs.items() if k not in PER_POINT + ("fuel",)})
+                template = key_template(inputs)
+            key = _hash(inputs) if template is None else fill_key(template, inputs)
+            out.append(Point(
+                index=len(out), fuel=fuel, oxidizer=ox, blend_with=study.blend_with,
+                blend_fraction=frac, phi=phi, pressure_bar=P_bar, T_u=T_u, X_fuel=dict(X_fuel),
+                X_oxidizer=dict(X_ox), X_unburned=dict(unburned[phi]),
+                key=key, family=family, inputs=inputs, X_flame=dict(X_flame)))
     return out

@@ -1,0 +1,201 @@
+"""Scale: studies of 10,000 to 100,000 points, in one process, nothing solved.
+
+Run:  python tests/benchmarks/scale.py [--sections planning] [--sizes 10k,30k,100k] [--old-at 10k]
+
+Sections (one function each, ``SECTIONS``; a section returns a dict of figures):
+
+- planning: h2o2.yaml studies of two oxidizers (two families) x 10 blend fractions x
+  pressures x preheats x equivalence ratios. Per size: the points (``sweep.points``),
+  the warm-start tree (``warm_tree``: time and the peak of memory it allocates, by
+  tracemalloc, in a second run), and ``flamecharts check`` end to end in this process
+  (``cli.check.cmd_check``, output thrown away) and as a command (``python -m
+  flamecharts check``, start-up included). The old all-pairs tree
+  (``_warm_tree_dense``) is timed at the ``--old-at`` sizes for the ratio, and the two
+  trees compared there; on the studies of tests/benchmarks/sweep_speed.py (small and
+  full, planning only) the total warm-start distance of the new tree over the old one.
+
+The last line printed is one JSON object with every figure (times in seconds, memory
+in MB); progress goes to stderr.
+"""
+from __future__ import annotations
+
+import argparse
+import contextlib
+import io
+import json
+import math
+import subprocess
+import sys
+import tempfile
+import textwrap
+import time
+import tracemalloc
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+ROOT = HERE.parents[1]
+sys.path[:0] = [str(ROOT), str(HERE)]  # this checkout's package; sweep_speed beside this file
+
+from flamecharts.cli.check import cmd_check  # noqa: E402
+from flamecharts.config import load_study  # noqa: E402
+from flamecharts.sweep import points as plan_points, warm_tree as plan_tree  # noqa: E402
+
+#: (equivalence ratios, pressures, preheats) per size; 2 oxidizers x 10 blend fractions each.
+SIZES = {"10k": (25, 5, 4), "30k": (50, 5, 6), "100k": (50, 10, 10)}
+
+TEMPLATE = """
+title = "Scale benchmark: {n} points"
+mechanism = "h2o2.yaml"
+max_points = 1000000
+
+[fuels]
+diluted = {{ H2 = 0.6, N2 = 0.4 }}
+hydrogen = {{ H2 = 1.0 }}
+
+[oxidizers]
+air = {{ O2 = 1.0, N2 = 3.76 }}
+enriched_air = {{ O2 = 1.0, N2 = 2.5 }}
+
+[sweep]
+fuel = ["diluted"]
+oxidizer = ["air", "enriched_air"]
+blend = {{ with = "hydrogen", fraction = {fractions} }}
+equivalence_ratio = {phis}
+pressure_bar = {pressures}
+unburned_temperature_K = {temperatures}
+"""
+
+
+def log(msg: str) -> None:
+    print(msg, file=sys.stderr, flush=True)
+
+
+def write_scale_study(folder: Path, size: str) -> Path:
+    """A config of SIZES[size]: phi from 0.5 in steps of 0.02, pressures from 1 bar in
+    steps of x1.25, preheats from 300 K in steps of 25 K, blend fractions 0 to 1 in ninths."""
+    n_phi, n_p, n_T = SIZES[size]
+    text = TEMPLATE.format(
+        n=2 * 10 * n_phi * n_p * n_T,
+        fractions=[round(k / 9, 4) for k in range(10)],
+        phis=[round(0.5 + 0.02 * k, 4) for k in range(n_phi)],
+        pressures=[round(1.25 ** k, 4) for k in range(n_p)],
+        temperatures=[300.0 + 25 * k for k in range(n_T)])
+    path = folder / f"scale_{size}.toml"
+    path.write_text(textwrap.dedent(text))
+    return path
+
+
+def timed(fn, *args):
+    """(result, wall seconds) of fn(*args)."""
+    t0 = time.perf_counter()
+    out = fn(*args)
+    return out, time.perf_counter() - t0
+
+
+def peak_mb(fn, *args) -> float:
+    """Peak of the memory fn(*args) allocates above what is allocated before [MB] (tracemalloc)."""
+    tracemalloc.start()
+    try:
+        base = tracemalloc.get_traced_memory()[0]
+        fn(*args)
+        return (tracemalloc.get_traced_memory()[1] - base) / 2**20
+    finally:
+        tracemalloc.stop()
+
+
+def total_distance(plan) -> float:
+    """Sum of the warm-start distances of a plan (roots excluded), in DISTANCE_SCALES units."""
+    return sum(d for d in plan.distance.values() if math.isfinite(d))
+
+
+def check_in_process(config: Path, out: Path) -> float:
+    """Wall seconds of ``flamecharts check`` in this process (modules already loaded), printout discarded."""
+    args = argparse.Namespace(config=str(config), out=str(out), jobs=2)
+    with contextlib.redirect_stdout(io.StringIO()):
+        _, secs = timed(cmd_check, args)
+    return secs
+
+
+def check_command(config: Path, out: Path) -> float:
+    """Wall seconds of ``python -m flamecharts check`` (start-up and imports included)."""
+    t0 = time.perf_counter()
+    subprocess.run([sys.executable, "-m", "flamecharts", "check", str(config), "--out", str(out), "--jobs", "2"],
+                   cwd=ROOT, check=True, capture_output=True)
+    return time.perf_counter() - t0
+
+
+def plan_size(tmp: Path, size: str, old: bool) -> dict:
+    """Planning figures of one size (see the module docstring)."""
+    config = write_scale_study(tmp, size)
+    study = load_study(config)
+    pts, t_points = timed(plan_points.points, study)
+    tree, t_tree = timed(plan_tree.warm_tree, pts)
+    fig = {"points": len(pts), "points_s": t_points, "tree_s": t_tree, "roots": len(tree.roots),
+           "depth": tree.depth, "tree_peak_mb": peak_mb(plan_tree.warm_tree, pts),
+           "check_s": check_in_process(config, tmp / f"out_{size}"),
+           "check_command_s": check_command(config, tmp / f"out_{size}")}
+    log(f"{size}: {len(pts)} points in {t_points:.2f} s, tree {t_tree:.2f} s "
+        f"({fig['tree_peak_mb']:.0f} MB), check {fig['check_s']:.2f} s, as a command {fig['check_command_s']:.2f} s")
+    if old:
+        ref, t_old = timed(plan_tree._warm_tree_dense, pts)
+        fig.update(old_tree_s=t_old, old_over_new=t_old / t_tree, same_as_old=_same_plan(tree, ref))
+        log(f"{size}: old tree {t_old:.1f} s ({t_old / t_tree:.0f}x), same plan: {fig['same_as_old']}")
+    return fig
+
+
+def _same_plan(a, b) -> bool:
+    return (a.parent, a.stored, a.roots, a.distance, a.height) == (b.parent, b.stored, b.roots, b.distance, b.height)
+
+
+def sweep_speed_distances(tmp: Path) -> dict:
+    """Total warm-start distance, new tree over old, on sweep_speed.py's studies (planning only)."""
+    import sweep_speed
+
+    out = {}
+    for size in ("small", "full"):
+        pts = plan_points.points(load_study(sweep_speed.write_study(tmp, size, name=f"speed_{size}")))
+        new, old = plan_tree.warm_tree(pts), plan_tree._warm_tree_dense(pts)
+        out[f"sweep_speed_{size}_distance_new"] = total_distance(new)
+        out[f"sweep_speed_{size}_distance_old"] = total_distance(old)
+        out[f"sweep_speed_{size}_distance_ratio"] = total_distance(new) / total_distance(old)
+        out[f"sweep_speed_{size}_same_plan"] = _same_plan(new, old)
+        log(f"sweep_speed {size}: distance new/old {out[f'sweep_speed_{size}_distance_ratio']:.4f}, "
+            f"same plan: {out[f'sweep_speed_{size}_same_plan']}")
+    return out
+
+
+def planning(tmp: Path, args) -> dict:
+    """The planning section: every size of ``--sizes``, then the sweep_speed studies."""
+    figures = {}
+    for size in args.sizes:
+        for k, v in plan_size(tmp, size, size in args.old_at).items():
+            figures[f"plan_{size}_{k}"] = v
+    figures.update(sweep_speed_distances(tmp))
+    return figures
+
+
+SECTIONS = {"planning": planning}
+
+
+def main(argv=None) -> int:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--sections", default=",".join(SECTIONS),
+                    help=f"comma-separated sections to run (of {', '.join(SECTIONS)})")
+    ap.add_argument("--sizes", default=",".join(SIZES), help=f"planning sizes (of {', '.join(SIZES)})")
+    ap.add_argument("--old-at", default="10k", help="sizes at which the old all-pairs tree is timed too ('' for none)")
+    args = ap.parse_args(argv)
+    args.sizes = [s for s in args.sizes.split(",") if s]
+    args.old_at = {s for s in args.old_at.split(",") if s}
+    unknown = [s for s in args.sections.split(",") if s not in SECTIONS] + [s for s in args.sizes if s not in SIZES]
+    if unknown:
+        ap.error(f"unknown section or size: {', '.join(unknown)}")
+    tmp = Path(tempfile.mkdtemp(prefix="flamecharts-scale-"))
+    figures = {}
+    for name in args.sections.split(","):
+        figures.update(SECTIONS[name](tmp, args))
+    print(json.dumps({k: (round(v, 4) if isinstance(v, float) else v) for k, v in figures.items()}))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
