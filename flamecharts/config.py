@@ -117,6 +117,19 @@ class Burner:
     min_stabilizer_margin: float = DEFAULT_MIN_MARGIN
 
     @property
+    def on_stabilizer(self) -> bool:
+        """The flame is held by a bluff body: its blowoff is the stabilizer's (Zukoski-Marble
+        velocity), not the port rim's critical gradient."""
+        return self.stabilizer_size_m is not None
+
+    @property
+    def blowoff(self) -> tuple[str, float, str]:
+        """(margin column, minimum, name) of the blowoff criterion that applies to this burner."""
+        if self.on_stabilizer:
+            return "stabilizer_margin", self.min_stabilizer_margin, "stabilizer"
+        return "blowoff_margin", self.min_blowoff_margin, "blowoff"
+
+    @property
     def mode(self) -> str:
         """'velocity', 'thermal input' or 'supply pressure' (thermal input follows the Wobbe index)."""
         if self.port_velocity_m_s is not None:
@@ -414,7 +427,7 @@ def _limits(t: Any, burner: "Burner | None", blend_with: str | None) -> Limits:
     if "blend_fraction" in find and not blend_with:
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
                           "sweep.blend = { with = ..., fraction = [...] }")
-    default = ["flashback", "blowoff"] + (["stabilizer"] if burner.stabilizer_size_m is not None else [])
+    default = ["flashback", burner.blowoff[2]]
     criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
     if "stabilizer" in criteria and burner.stabilizer_size_m is None:
         raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")

@@ -162,7 +162,7 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     risks = []
     if fb < b.min_flashback_margin:
         risks.append("flashback risk")
-    if bo < b.min_blowoff_margin:
+    if bo < b.min_blowoff_margin and not b.on_stabilizer:  # a bluff body holds the flame: its margin applies
         risks.append("blowoff risk")
     out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
                port_reynolds_number=Re,

@@ -197,16 +197,19 @@ CONDITION_AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburne
 def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
     """Per fuel, oxidizer, blend fraction, pressure and preheat with a burning flame: the smallest
     flashback and blowoff margins along equivalence ratio and the phi where each occurs (the
-    first in the study's order on a tie), and how many burning points keep both margins."""
+    first in the study's order on a tie), and how many burning points keep both margins. The
+    blowoff margin is the one that applies (config.Burner.blowoff: the stabilizer's when a
+    bluff body holds the flame)."""
     if burner is None:
         return []
+    bo_col = burner.blowoff[0]
     phis = ds.equivalence_ratio.values
 
     def along_phi(name):
         return ds[name].transpose(*CONDITION_AXES, "equivalence_ratio").values.reshape(-1, len(phis))
     out = []
     keys = itertools.product(*(ds[d].values for d in CONDITION_AXES))
-    for key, fb, bo, verdict in zip(keys, along_phi("flashback_margin"), along_phi("blowoff_margin"),
+    for key, fb, bo, verdict in zip(keys, along_phi("flashback_margin"), along_phi(bo_col),
                                     along_phi("verdict")):
         burning = np.isfinite(fb)
         if not burning.any():

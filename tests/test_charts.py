@@ -5,6 +5,7 @@ import pytest
 from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
 from flamecharts.outputs.charts import CAPTIONS, draw_all
+from flamecharts.pipeline import read_limits
 from flamecharts.results import exponent_table, to_dataset
 import xarray as xr
 from flamecharts.physics.fits import fit_power_law
@@ -24,7 +25,7 @@ port_velocity_m_s = 4.0
 
 ALL = ("flame_speed_vs_equivalence_ratio", "thermal_thickness_vs_equivalence_ratio",
        "adiabatic_flame_temperature_vs_equivalence_ratio", "pressure_and_preheat_dependence", "blend_comparison",
-       "flashback_chart", "operating_window", "fuel_interchangeability")
+       "flashback_chart", "operating_window", "fuel_interchangeability", "admissible_limits")
 
 
 @pytest.fixture(scope="module")
@@ -32,7 +33,9 @@ def study_rows(tmp_path_factory):
     folder = tmp_path_factory.mktemp("charts")
     config = write_h2_study(folder, phis="[0.08, 0.7, 1.0, 1.3]", pressures="[1.0, 3.0]")
     config.write_text(config.read_text().replace("unburned_temperature_K = [300.0]",
-                                                 "unburned_temperature_K = [300.0, 400.0]") + BURNER)
+                                                 "unburned_temperature_K = [300.0, 400.0]") + BURNER
+                      + "\n[limits]\ncriteria = ['flashback']\nblend_fraction_tolerance = 0.02\n"
+                        "equivalence_ratio_tolerance = 0.02\n")
     study = load_study(config)
     return study, run_study(study, out_dir=folder / "o", jobs=2).rows, folder
 
@@ -42,7 +45,7 @@ def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
 
     study, rows, folder = study_rows
     assert any(r["status"] == "no_flame" for r in rows)  # phi 0.08 is below any flammable limit
-    files = draw_all(rows, fuel_gas_table(study), study, folder / "o")
+    files = draw_all(rows, fuel_gas_table(study), study, folder / "o", limits=read_limits(study, rows, folder / "o"))
     names = {f.stem for f in files}
     assert names == set(ALL) == set(CAPTIONS)
     for name in ALL:
@@ -132,7 +135,8 @@ def test_the_window_fill_and_its_edge_lines_come_from_one_field():
                      "warnings": var(np.full((2, 2), ""))},
                     coords={"fuel": ["gas"], "oxidizer": ["air"], "blend_fraction": [0.0, 0.2], "pressure_bar": [1.0],
                             "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
-    burner = SimpleNamespace(min_flashback_margin=1.5, min_blowoff_margin=1.5, name="test burner")
+    burner = SimpleNamespace(min_flashback_margin=1.5, min_blowoff_margin=1.5, name="test burner", on_stabilizer=False,
+                             blowoff=("blowoff_margin", 1.5, "blowoff"))
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
                             thermal_diffusion=False, resolution="standard", analysis_atoms={})
     fig = window_chart(SimpleNamespace(dataset=ds, rows=[], gases=[]), study)

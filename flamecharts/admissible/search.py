@@ -127,35 +127,44 @@ def blend_search(swept: list[tuple[float, dict]], x_wobbe: float, wobbe_side: st
         return Found("none admissible", None, WOBBE, None,
                      note=f"every swept fraction lies outside the Wobbe band (it leaves it on the {wobbe_side} "
                           f"side at {x_wobbe:.4g})")
+    # a blend that fails at the lowest fractions and holds higher up (hydrogen raising a lean
+    # flame's blowoff margin) has a lower edge too: it is named in the note, from the sweep
+    start = next((i for i, (x, r) in enumerate(cands) if (value(r)[0] or -1.0) >= 0), None)
+    if start is None:
+        g0, why0 = value(cands[0][1])
+        return Found("none admissible", None, why0, cands[0][1],
+                     note=f"{why0} margin below its minimum at every swept fraction up to {cands[-1][0]:.4g}"
+                     if g0 is not None else f"no burning flame at {cands[0][0]:.4g} ({why0})")
+    lower = ("" if start == 0 else f"needs more than {cands[start - 1][0]:.4g} ({value(cands[start - 1][1])[1]} "
+             f"margin below its minimum there; admissible from {cands[start][0]:.4g} of the swept fractions); ")
     last_good = None
-    for x, row in cands:
+    for x, row in cands[start:]:
         g, why = value(row)
         if g is None:
-            if last_good is None:
-                return Found("none admissible", None, why, None, note=f"no burning flame at {x:.4g} ({why})")
             return Found("stopped", last_good[0], why, last_good[1], (last_good[0], x), 0, False,
-                         f"no burning flame at {x:.4g} ({why}): the limit lies between {last_good[0]:.4g} and {x:.4g}")
+                         lower + f"no burning flame at {x:.4g} ({why}): the limit lies between {last_good[0]:.4g} "
+                         f"and {x:.4g}")
         if g < 0:
-            if last_good is None:
-                return Found("none admissible", None, why, row,
-                             note=f"{why} margin below its minimum already at the lowest swept fraction {x:.4g}")
-            return (yield from crossing(last_good[0], last_good[1], x, row, tol, max_flames, value))
+            found = yield from crossing(last_good[0], last_good[1], x, row, tol, max_flames, value)
+            found.note = lower + found.note
+            return found
         last_good = (x, row)
     x0, row0 = last_good
     top = min(x_wobbe, 1.0)
     binding = WOBBE if x_wobbe < 1.0 else NONE_IN_RANGE
     if top <= x0 + 1e-12:
         return Found("found" if binding == WOBBE else "whole range", x0, binding, row0, None, 0, True,
-                     _wobbe_note(x_wobbe, wobbe_side))
+                     lower + _wobbe_note(x_wobbe, wobbe_side))
     row_top = yield top
     g, why = value(row_top)
     if g is None:
         return Found("stopped", x0, why, row0, (x0, top), 1, False,
-                     f"no burning flame at {top:.4g} ({why}): the limit lies between {x0:.4g} and {top:.4g}", [(top, None)])
+                     lower + f"no burning flame at {top:.4g} ({why}): the limit lies between {x0:.4g} and {top:.4g}", [(top, None)])
     if g >= 0:
         return Found("found" if binding == WOBBE else "whole range", top, binding, row_top, None, 1, True,
-                     _wobbe_note(x_wobbe, wobbe_side), [(top, g)])
+                     lower + _wobbe_note(x_wobbe, wobbe_side), [(top, g)])
     found = yield from crossing(x0, row0, top, row_top, tol, max_flames - 1, value)
+    found.note = lower + found.note
     found.evaluations += 1
     found.evaluated.insert(0, (top, g))
     return found

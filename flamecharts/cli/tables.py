@@ -28,8 +28,10 @@ def print_burner(study) -> None:
     how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
            f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
            + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+    _, bo_min, bo_name = b.blowoff
     print(f"Burner: {b.name}: {b.port} ports, {size}; {how}; minimum margins flashback "
-          f"{b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}")
+          f"{b.min_flashback_margin:g}, {bo_name} {bo_min:g}"
+          + (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body)" if b.on_stabilizer else ""))
 
 
 def print_margins(study, ds) -> None:
@@ -38,12 +40,12 @@ def print_margins(study, ds) -> None:
     if not summary:
         return
     b = study.burner
-    print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, "
-          f"blowoff {b.min_blowoff_margin:g}):")
+    _, bo_min, bo_name = b.blowoff
+    print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}):")
     for s in summary:
         print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
               f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
-              f"(phi {s['at_phi_flashback']:g}), blowoff margin >= {s['min_blowoff_margin']:.2f} "
+              f"(phi {s['at_phi_flashback']:g}), {bo_name} margin >= {s['min_blowoff_margin']:.2f} "
               f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
         what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None

@@ -92,9 +92,10 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
         w = min(fb, key=lambda r: r["flashback_margin"])
         out.append(["Smallest flashback margin g_wall/g_F", f"{w['flashback_margin']:.2f}",
                     f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_flashback_margin:g})"])
-        w = min(fb, key=lambda r: r["blowoff_margin"])
-        out.append(["Smallest blowoff margin g_B/g_wall", f"{w['blowoff_margin']:.2f}",
-                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_blowoff_margin:g})"])
+        col, need, name = study.burner.blowoff
+        w = min(fb, key=lambda r: r[col])
+        out.append([f"Smallest {name} margin " + ("U_BO/U" if name == "stabilizer" else "g_B/g_wall"), f"{w[col]:.2f}",
+                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {need:g})"])
         n_ok = sum(r["verdict"] == "ok" for r in fb)
         out.append(["Points meeting both margins", f"{n_ok} of {len(fb)}", study.burner.name])
     bad = [r for r in rows if r["status"] != "ok"]
@@ -160,7 +161,7 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
                + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
         brows = [["name", b.name], ["port", f"{b.port}, {'diameter' if b.port == 'round' else 'gap'} "
                                             f"{b.port_size_m * 1e3:g} mm"], ["port velocity set by", how],
-                 ["minimum margins", f"flashback {b.min_flashback_margin:g}, blowoff {b.min_blowoff_margin:g}"]]
+                 ["minimum margins", f"flashback {b.min_flashback_margin:g}, {b.blowoff[2]} {b.blowoff[1]:g}"]]
         if b.stabilizer_size_m is not None:
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
                                                    f"{b.approach_velocity_m_s:g} m/s approach"])
@@ -237,7 +238,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
     summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
-        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", "min blowoff margin (φ)",
+        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {study.burner.blowoff[2]} margin (φ)",
                              "points ok"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
                               f"{s['unburned_temperature_K']:g}",

@@ -202,6 +202,15 @@ CASES = {
     "gas_quality_bad_temperature": (["gas_quality.combustion_temperature_C", "allowed: 0, 15, 25"],
                                     config(tail='\n[gas_quality]\ncombustion_temperature_C = 20\n')),
     "indicators_zero": (["indicators.flashback_peclet", "> 0"], config(tail='\n[indicators]\nflashback_peclet = 0\n')),
+    "limits_without_burner": (["[limits]", "needs a [burner]"], config(tail='\n[limits]\n')),
+    "limits_unknown_criterion": (["limits.criteria", "'quench'", "allowed"],
+                                 config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                             '\n[limits]\ncriteria = ["quench"]\n')),
+    "limits_tolerance_in_percent": (["limits.equivalence_ratio_tolerance", "at most 0.1"],
+                                    config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                                '\n[limits]\nequivalence_ratio_tolerance = 1\n')),
+    "premixer_residence_in_seconds": (["premixer.residence_time_ms", "milliseconds"],
+                                      config(tail='\n[premixer]\nresidence_time_ms = 40000\n')),
 }
 
 

@@ -226,6 +226,8 @@ def window_chart(data, study):
     """Operating window over (blend fraction, phi): one interpolated field per margin, the fill and
     both edge lines drawn from it, so the two can never disagree."""
     ds, b = data.dataset, study.burner
+    bo_col, bo_min, _ = b.blowoff
+    bo_short = "SM" if b.on_stabilizer else "BO"
     panels = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in ds.pressure_bar.values
               for t in ds.unburned_temperature_K.values]
     fig, axes = figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
@@ -235,19 +237,19 @@ def window_chart(data, study):
             ["blend_fraction", "equivalence_ratio"])
         fracs, phis = at.blend_fraction.values, at.equivalence_ratio.values
         fb = at.flashback_margin.transpose("blend_fraction", "equivalence_ratio").values
-        bo = at.blowoff_margin.transpose("blend_fraction", "equivalence_ratio").values
+        bo = at[bo_col].transpose("blend_fraction", "equivalence_ratio").values
         products.append((fb * bo)[np.isfinite(fb * bo)])
         xf = np.linspace(fracs[0], fracs[-1], WINDOW_GRID_POINTS)
         yf = np.linspace(phis[0], phis[-1], WINDOW_GRID_POINTS)
         fbf, bof = _fine_field(fb, fracs, phis, xf, yf), _fine_field(bo, fracs, phis, xf, yf)
         X, Y = np.meshgrid(100 * xf, yf, indexing="ij")
-        worst = np.fmin(fbf / b.min_flashback_margin, bof / b.min_blowoff_margin)
+        worst = np.fmin(fbf / b.min_flashback_margin, bof / bo_min)
         if np.nanmax(worst, initial=-np.inf) >= 1.0:
             ax.contourf(X, Y, worst, levels=[1.0, np.inf], colors=["#bfe3bf"])
         if np.isnan(worst).any():
             ax.contourf(X, Y, np.isnan(worst).astype(float), levels=[0.5, 1.5], colors=["0.85"], hatches=["//"])
         for grid, level, colour, style in ((fbf, b.min_flashback_margin, "#7b2d8e", "-"),
-                                           (bof, b.min_blowoff_margin, "#1f6f6f", "--")):
+                                           (bof, bo_min, "#1f6f6f", "--")):
             if np.nanmin(grid, initial=np.inf) < level < np.nanmax(grid, initial=-np.inf):
                 ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.8, linestyles=style)
         Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
@@ -262,11 +264,12 @@ def window_chart(data, study):
     for ax in list(axes.flat)[len(panels):]:
         ax.set_visible(False)
     handles = {
-        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, BO ≥ {b.min_blowoff_margin:g})":
+        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g})":
             Patch(color="#bfe3bf"),
         f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, lowers it)":
             Line2D([], [], color="#7b2d8e", lw=1.8),
-        f"blowoff margin g_B/g_wall = {b.min_blowoff_margin:g}\n(a slower flame lowers it)":
+        (f"stabilizer margin U_BO/U = {bo_min:g}" if b.on_stabilizer else f"blowoff margin g_B/g_wall = {bo_min:g}")
+        + "\n(a slower flame lowers it)":
             Line2D([], [], color="#1f6f6f", lw=1.8, linestyle="--"),
         "no flame or failed (hatched)": Patch(facecolor="0.85", hatch="//"),
         "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
@@ -355,7 +358,8 @@ def _draw_blend_limits(ax, rows, study, colours, handles):
         for r, x, y in zip(rs, xs, ys):
             if r["outcome"] == "none admissible":
                 ax.plot(x, 0, "x", color="crimson", ms=9, mew=2)
-                handles.setdefault("not admissible even unblended", Line2D([], [], ls="", marker="x", color="crimson"))
+                handles.setdefault("not admissible at any swept fraction", Line2D([], [], ls="", marker="x",
+                                                                                 color="crimson"))
                 continue
             mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"]))
             ax.plot(x, y, mk, color=col, ms=8, mec="k")
@@ -389,10 +393,12 @@ def _draw_window_edges(ax, rows, study, colours, handles):
                 continue
             ax.plot([100 * r["blend_fraction"] for r in rs], [r["limit_value"] for r in rs], ls, color=col, lw=1.4)
             for r in rs:
-                mk = "o" if r["outcome"] == "found" else ">"
-                ax.plot(100 * r["blend_fraction"], r["limit_value"], BINDING_MARKERS.get(r["binding"], (mk,))[0]
-                        if r["outcome"] == "found" else mk, color=col, ms=7, mec="k",
-                        mfc=col if r["outcome"] == "found" else "white")
+                found = r["outcome"] == "found"
+                mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"])) if found else (">", "")
+                ax.plot(100 * r["blend_fraction"], r["limit_value"], mk, color=col, ms=7, mec="k",
+                        mfc=col if found else "white")
+                if found:
+                    handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
         handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col))
     handles.setdefault("lean edge (solid), rich edge (dashed)", Line2D([], [], color="0.4"))
     handles.setdefault("hollow: edge beyond the swept φ range", Line2D([], [], ls="", marker=">", mfc="white", color="0.4"))
