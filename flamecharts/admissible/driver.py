@@ -230,14 +230,15 @@ def limit_sentence(r: dict, study) -> str:
         head = f"{r['fuel']} at phi {r['equivalence_ratio']:g}, {_where(r)}: {b.name}"
         wob = r.get("wobbe_limit_blend_fraction")
         wob_txt = f"; the Wobbe band allows {100 * wob:.1f} %" if wob is not None and wob < 1.0 and why != "Wobbe band" else ""
-        low = r["note"].split("; ")[0] + "; " if r["note"].startswith("needs more than") else ""
+        note = r["note"] or ""
+        low = note[:note.index("); ") + 1] + " and" if note.startswith("needs more than") and "); " in note else ""
         low = low.replace("needs more than", f"needs more than {blend} fraction", 1)
         if r["outcome"] == "found" and why == "Wobbe band":
-            return f"{head} {low}takes {100 * v:.1f} % {blend}, where the Wobbe index leaves the band (binding)"
+            return f"{head} {low + ' ' if low else ''}takes {100 * v:.1f} % {blend}, where the Wobbe index leaves the band (binding)"
         if r["outcome"] == "found":
-            return f"{head} {low}takes at most {100 * v:.1f} % {blend} ({why} binds: {margin}){wob_txt}"
+            return f"{head} {low + ' ' if low else ''}takes at most {100 * v:.1f} % {blend} ({why} binds: {margin}){wob_txt}"
         if r["outcome"] == "whole range":
-            return f"{head} {low}keeps every margin up to 100 % {blend}"
+            return f"{head} {low + ' ' if low else ''}keeps every margin up to 100 % {blend}"
         if r["outcome"] == "none admissible":
             return f"{head}: not admissible ({r['note']})"
         return f"{head}: search stopped ({r['note']})"

@@ -426,5 +426,5 @@ def limits_chart(data, study):
     for ax, (kind, rows) in zip(axes[0], parts):
         (_draw_blend_limits if kind == "blend" else _draw_window_edges)(ax, rows, study, colours, handles)
     return finish(fig, study, (f"Admissible limits: {study.burner.name}",
-                               f"keeping {kept(study).replace('>=', '≥')}; tolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
+                               f"keeping {kept(study).replace('>=', '≥')};\ntolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
                                f"{study.limits.tolerance['equivalence_ratio']:g} in φ"), handles, "")
