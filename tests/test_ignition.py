@@ -33,11 +33,38 @@ H2_SHOCK_TUBE = [
 ]
 
 
-@pytest.mark.parametrize("mech", ["h2o2.yaml", "gri30.yaml"])
+@pytest.mark.parametrize("mech", ["h2o2.yaml", "gri30.yaml"])  # h2o2.yaml is GRI-Mech 3.0's H2/O2 part
 @pytest.mark.parametrize("T, p_atm, measured_us, source", H2_SHOCK_TUBE)
 def test_hydrogen_air_ignition_delay_within_a_factor_2_of_shock_tube_data(mech, T, p_atm, measured_us, source):
     tau = ignition_delay_peak(str(find_mechanism(mech, None)), H2_AIR, T, p_atm * ATM, 0.1, "volume") * 1e6
     assert measured_us / 2 <= tau <= measured_us * 2, f"{tau:.1f} us vs {measured_us} us ({source})"
+
+
+#: Methane-air near gas-turbine pressures: Huang, Hill, Bushe & Munshi, Combust. Flame 136
+#: (2004) 25-42, shock tube, ignition at the extrapolated onset of the pressure rise; read
+#: from the ChemKED database files methane/Huang_2004/x10004132_1.yaml (A, phi 0.99),
+#: x10004133_1.yaml and Huang_2004_st_p16atm.yaml (B, phi 0.69). The files give a relative
+#: standard deviation of 0.32-0.38 (scatter and stated uncertainty combined), so two
+#: standard deviations are a factor of about 2.1; GRI-Mech 3.0 adds its own error at
+#: these pressures. The check: within a factor 2.5 from 1175 K up to 1305 K. Below about
+#: 1150 K GRI-Mech 3.0 gives delays 2-7 times LONGER than measured (an overstated
+#: autoignition margin: the README says so); at 1370 K (B, 39 atm) it gives 0.31 x.
+METHANE_A = (("CH4", 0.095), ("O2", 0.192), ("N2", 0.715))
+METHANE_B = (("CH4", 0.068), ("O2", 0.196), ("N2", 0.736))
+METHANE_SHOCK_TUBE = [
+    (METHANE_A, 1175.0, 39.9, 612.0),
+    (METHANE_A, 1295.0, 36.5, 395.0),
+    (METHANE_B, 1233.0, 38.8, 798.0),
+    (METHANE_B, 1213.0, 14.9, 984.0),
+    (METHANE_B, 1304.0, 15.7, 690.0),
+]
+
+
+@pytest.mark.parametrize("X, T, p_atm, measured_us", METHANE_SHOCK_TUBE)
+def test_methane_air_ignition_delay_at_gas_turbine_pressures(X, T, p_atm, measured_us):
+    """Huang, Hill, Bushe & Munshi 2004 (see above): factor 2.5."""
+    tau = ignition_delay_peak(str(find_mechanism("gri30.yaml", None)), X, T, p_atm * ATM, 0.1, "volume") * 1e6
+    assert measured_us / 2.5 <= tau <= measured_us * 2.5, f"{tau:.0f} us vs {measured_us} us at {T} K, {p_atm} atm"
 
 
 def test_no_ignition_within_the_horizon_is_inf():
