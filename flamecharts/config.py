@@ -51,7 +51,7 @@ RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer")
+            "limits", "premixer", "keep_profiles")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -205,6 +205,7 @@ class Study:
     cluster: str | None = None   # Dask scheduler address or "local:N"; None: local processes
     limits: "Limits | None" = None
     premixer: "Premixer | None" = None
+    keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
 
     @property
     def n_points(self) -> int:
@@ -587,6 +588,10 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         if not flame_time_limit_s > 0:
             raise ConfigError(f"'flame_time_limit_s' must be > 0 seconds, got {flame_time_limit_s:g}")
 
+    keep_profiles = data.get("keep_profiles", True)
+    if not isinstance(keep_profiles, bool):
+        raise ConfigError(f"'keep_profiles' must be true or false, got {show(keep_profiles)}")
+
     for table in ("fuels", "oxidizers", "sweep"):
         if table not in data:
             raise ConfigError(f"config has no [{table}] table; it is required")
@@ -661,7 +666,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
         gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data,
-        limits=limits, premixer=premixer)
+        limits=limits, premixer=premixer, keep_profiles=keep_profiles)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -5,6 +5,7 @@ flamecharts run CONFIG [--out DIR] [--jobs N] [--cluster ADDRESS|local:N]
 flamecharts check CONFIG [--out DIR]            validate a config and print the plan
 flamecharts charts DIR                          redraw results.csv and charts from the store
 flamecharts report DIR                          the same, plus DIR/report.html
+flamecharts compact DIR                         migrate the store, then shrink the file (VACUUM)
 
 Exit codes: 0 done (also when some flames failed; they are listed), 2 bad input or
 unusable store (one line on stderr), 130 interrupted (what finished is kept).
@@ -21,7 +22,7 @@ from ..errors import FlamechartsError
 #: command -> (module of this package, function): a command's module is imported when it runs,
 #: so ``check`` never loads the chart and table libraries that ``run`` needs.
 COMMANDS = {"run": ("run", "cmd_run"), "check": ("check", "cmd_check"), "charts": ("redraw", "cmd_charts"),
-            "report": ("redraw", "cmd_report")}
+            "report": ("redraw", "cmd_report"), "compact": ("compact", "cmd_compact")}
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -48,6 +49,9 @@ def _parser() -> argparse.ArgumentParser:
     ch.add_argument("dir", help="output folder of a run")
     rp = sub.add_parser("report", help="write report.html of a finished run (redraws its charts from the store)")
     rp.add_argument("dir", help="output folder of a run")
+    cp = sub.add_parser("compact", help="migrate a run folder's store to the compact profile format and "
+                                        "give its free space back (SQLite VACUUM)")
+    cp.add_argument("dir", help="output folder of a run")
     return ap
 
 

@@ -35,7 +35,6 @@ all steps land or none does. To change the schema: bump SCHEMA_VERSION, register
 """
 from __future__ import annotations
 
-import io
 import json
 import os
 import sqlite3
@@ -45,11 +44,11 @@ import time
 from pathlib import Path
 from typing import Callable
 
-import numpy as np
 
 from ..errors import StoreError
+from . import profiles
 
-SCHEMA_VERSION = 2
+SCHEMA_VERSION = 3
 DB_NAME = "results.db"
 #: How long a write waits for another program's lock on the store before giving up [s].
 BUSY_TIMEOUT_S = 30.0
@@ -99,9 +98,19 @@ def _add_reason(db: sqlite3.Connection) -> None:
 
 #: Schema version -> function that upgrades a store from that version to the next,
 #: called inside the migration transaction (it must not commit).
+def _compact_profiles(db: sqlite3.Connection) -> None:
+    """Version 2 -> 3: every stored profile re-encoded compactly (store.profiles; float64
+    npz before). The file keeps its size until `flamecharts compact DIR` (SQLite VACUUM)."""
+    keys = [r[0] for r in db.execute("SELECT key FROM points WHERE profile IS NOT NULL")]
+    for key in keys:
+        (blob,) = db.execute("SELECT profile FROM points WHERE key = ?", (key,)).fetchone()
+        db.execute("UPDATE points SET profile = ? WHERE key = ?", (profiles.encode(profiles.decode(blob)), key))
+
+
 MIGRATIONS: dict[int, Callable[[sqlite3.Connection], None]] = {
     0: _create_v1,
     1: _add_reason,
+    2: _compact_profiles,
 }
 
 
@@ -172,21 +181,13 @@ def stored_keys(path: Path) -> set[str]:
 
 
 def pack_profile(profile: dict | None) -> bytes | None:
-    """Profile dict -> compressed npz bytes (None stays None)."""
-    if profile is None:
-        return None
-    buf = io.BytesIO()
-    np.savez_compressed(buf, grid=profile["grid"], T=profile["T"], velocity=profile["velocity"],
-                        Y=profile["Y"], species=np.array(profile["species"]), P=np.array(profile["P"]))
-    return buf.getvalue()
+    """Profile dict -> the stored bytes (store.profiles; None stays None)."""
+    return None if profile is None else profiles.encode(profile)
 
 
 def unpack_profile(blob: bytes | None) -> dict | None:
-    if blob is None:
-        return None
-    with np.load(io.BytesIO(blob)) as z:
-        return {"grid": z["grid"], "T": z["T"], "velocity": z["velocity"], "Y": z["Y"],
-                "species": [str(s) for s in z["species"]], "P": float(z["P"])}
+    """Stored bytes -> profile dict (either encoding: older stores may hold float64 npz)."""
+    return None if blob is None else profiles.decode(blob)
 
 
 class Store:
@@ -357,17 +358,18 @@ class Store:
     def keys(self) -> set[str]:
         return {r[0] for r in self._query("SELECT key FROM points")}
 
-    def commit_point(self, point, result: dict, run_id: str) -> None:
+    def commit_point(self, point, result: dict, run_id: str) -> bytes | None:
         """Write one finished point (ok, no_flame or failed) in its own transaction.
 
         A write SQLite refuses (another program holds the file locked for longer than
         BUSY_TIMEOUT_S, a full disk) is a StoreError; the transaction is rolled back, so
-        every point committed before stays.
+        every point committed before stays. Returns the stored profile bytes (None: none).
         """
+        blob = pack_profile(result["profile"])
         row = (point.key, point.family, json.dumps(result["inputs"], sort_keys=True), point.phi,
                point.pressure_bar, point.T_u, str(result["status"]), result["message"], result["start"],
                json.dumps(result["metrics"]) if result["metrics"] is not None else None,
-               float(result["solve_seconds"]), time.time(), run_id, pack_profile(result["profile"]),
+               float(result["solve_seconds"]), time.time(), run_id, blob,
                str(result["reason"]))
         try:
             with self.db:
@@ -378,6 +380,16 @@ class Store:
                    "busy" in text else "free some disk space" if "full" in text else "check the disk")
             raise StoreError(f"results store {self.path} cannot be written ({text}): {why}, then run the same "
                              "command again; every flame stored before is kept") from None
+        return blob
+
+    def compact(self) -> tuple[int, int]:
+        """SQLite VACUUM: the file rewritten without the free pages a migration or deletes left.
+        Returns (bytes before, bytes after)."""
+        before = self.path.stat().st_size
+        self.db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
+        self.db.execute("VACUUM")
+        self.db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
+        return before, self.path.stat().st_size
 
     def rows(self, keys=None) -> dict[str, dict]:
         """key -> stored row (without profile) for the given keys, or all."""

@@ -26,6 +26,7 @@ from typing import Callable
 from ..errors import FlamechartsError, first_line
 from ..outcome import Reason, Status
 from ..store import Store
+from ..store.db import unpack_profile
 from .points import Point
 from .schedule import Scheduler, estimate_run_seconds, flame_cost, flame_seconds
 from .warm_tree import StoredFlame, WarmPlan, warm_tree
@@ -241,7 +242,10 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
                         submitted -= 1
                         continue
                     result["inputs"] = p.inputs
-                    store.commit_point(p, result, loop.run_id)
+                    if not study.keep_profiles:
+                        result["profile"] = None
+                    # an in-run warm start gets exactly what the store gives back to a resumed run
+                    result["profile"] = unpack_profile(store.commit_point(p, result, loop.run_id))
                     loop.finished[p.index] = result
                     loop.sched.finished(p.index)
                     cost_done += cost[p.index]
