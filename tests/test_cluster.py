@@ -53,7 +53,7 @@ def test_a_worker_killed_mid_run_loses_nothing_and_nothing_is_committed_twice(tm
     commits = []
     original = Store.commit_point
     monkeypatch.setattr(Store, "commit_point", lambda self, p, res, run_id: (commits.append(p.key),
-                                                                               original(self, p, res, run_id)))
+                                                                               original(self, p, res, run_id))[1])
     killed = []
     with Client(dask_cluster, set_as_default=False) as client:
         def progress(pr):
@@ -158,3 +158,19 @@ def test_a_mechanism_that_pulls_from_other_files_is_sent_as_one_text(tmp_path):
     gas = ct.Solution(yaml=text, transport_model="mixture-averaged")
     assert gas.n_species == ct.Solution(str(h2o2)).n_species
     assert gas.n_reactions == ct.Solution(str(h2o2)).n_reactions
+
+
+def test_limit_searches_run_on_the_cluster_with_the_same_answers(tmp_path, dask_cluster):
+    """The limit flames go through the same backend: a cluster run finds the local run's limits."""
+    limits = ('\n[burner]\nname = "rig"\nport = "round"\nport_diameter_mm = 3.0\nport_velocity_m_s = 2.5\n'
+              "\n[limits]\ncriteria = ['flashback']\n")
+    config = write_h2_study(tmp_path, phis="[0.7, 1.0, 1.3]", fractions="[0.0, 0.5]", extra=limits)
+    study = load_study(config)
+    local = solve_study(study, out_dir=tmp_path / "local", jobs=1)
+    remote = solve_study(study, out_dir=tmp_path / "dask", cluster=dask_cluster.scheduler_address)
+    assert local.limit_flames > 0 and remote.limit_flames == local.limit_flames
+    for a, b in zip(local.limits, remote.limits):
+        assert (a["limit"], a["outcome"], a["binding"]) == (b["limit"], b["outcome"], b["binding"])
+        assert (a["limit_value"] is None) == (b["limit_value"] is None)
+        if a["limit_value"] is not None:
+            assert b["limit_value"] == pytest.approx(a["limit_value"], abs=1e-9)
