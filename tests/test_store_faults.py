@@ -408,7 +408,7 @@ def test_an_older_store_is_migrated_by_run_and_only_run(run_copy, capsys, monkey
     monkeypatch.setattr(store_module, "SCHEMA_VERSION", now + 1)
     monkeypatch.setitem(store_module.MIGRATIONS, now, lambda db: db.execute("CREATE INDEX points_status ON points (status)"))
     before = snapshot(out)
-    assert_refused(*call(capsys, "charts", out), [f"older schema version {now}", "'flamecharts run' migrates it"])
+    assert_refused(*call(capsys, "charts", out), [f"older schema version {now}", "'flamecharts run' migrates it", "flamecharts compact DIR"])
     assert snapshot(out) == before
     rc, stdout, err = call(capsys, "run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
     assert rc == 0, err

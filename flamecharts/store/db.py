@@ -284,8 +284,8 @@ class Store:
                                  "untouched: open it with the flamecharts that wrote it, or choose another --out")
             if readonly:
                 raise StoreError(f"results store {path} has the older schema version {version} (this "
-                                 f"flamecharts uses {SCHEMA_VERSION}); 'flamecharts run' migrates it, keeping "
-                                 "a backup copy")
+                                 f"flamecharts uses {SCHEMA_VERSION}); 'flamecharts compact DIR' or 'flamecharts "
+                                 "run' migrates it, keeping a backup copy")
         if not readonly:
             db.execute("PRAGMA journal_mode=WAL")
             db.execute("PRAGMA synchronous=FULL")
