@@ -124,6 +124,7 @@ def test_the_window_fill_and_its_edge_lines_come_from_one_field():
     from types import SimpleNamespace
 
     from flamecharts.outputs.charts.design_charts import window_chart
+    from flamecharts.outputs.charts.registry import ChartData
 
     fb = 1.5 * np.array([[2.0, 0.5], [0.5, 2.0]])  # (blend fraction, phi)
     bo = 1.5 * np.array([[0.5, 2.0], [2.0, 0.5]])
@@ -139,7 +140,7 @@ def test_the_window_fill_and_its_edge_lines_come_from_one_field():
                              blowoff=("blowoff_margin", 1.5, "blowoff"))
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
                             thermal_diffusion=False, resolution="standard", analysis_atoms={})
-    fig = window_chart(SimpleNamespace(dataset=ds, rows=[], gases=[]), study)
+    fig = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study)
     ax = fig.axes[0]
     green = [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
              and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
@@ -184,10 +185,50 @@ def test_blend_comparison_covers_every_condition_and_flashback_plots_the_margin(
     study, rows, _ = study_rows
     fig = _chart("blend_comparison").draw(_data(study, rows), study)
     titles = " ".join(ax.get_title() for ax in fig.axes)
-    assert "1 bar, 300 K" in titles and "3 bar, 300 K" in titles and "1 bar, 400 K" in titles
+    # 4 conditions, 2 drawn (the chart rule: at most 9 panels, four per block): first and last, the rest named
+    assert "1 bar, 300 K" in titles and "3 bar, 400 K" in titles
+    assert "Shown: 2 of 4 fuel/condition blocks" in fig._suptitle.get_text().replace("\n", " ")
     plt.close(fig)
     fig = _chart("flashback_chart").draw(_data(study, rows), study)
     plotted = {round(float(y), 9) for ax in fig.axes[::2] for line in ax.get_lines() for y in line.get_ydata()}
     margins = {round(r["flashback_margin"], 9) for r in rows if r["flashback_margin"] is not None}
     assert margins <= plotted  # the verdict's own number, one curve per blend
+    plt.close(fig)
+
+
+def test_a_big_study_keeps_every_chart_readable(study_rows, tmp_path):
+    """The chart rule of registry.py (README, 'Charts of big studies'): 5 pressures x 4 preheats
+    x 10 blend fractions draw at most 9 panels and 12 curves a figure, and each figure names
+    the levels it leaves out. Rows: the solved flames of the small study copied to every point."""
+    import matplotlib.pyplot as plt
+
+    from flamecharts.outputs.charts.registry import ChartData, MAX_CURVES, MAX_PANELS
+    from flamecharts.results import point_rows
+    from flamecharts.store import DB_NAME, Store
+    from flamecharts.sweep.points import points
+
+    small, _, folder = study_rows
+    with Store(folder / "o" / DB_NAME, readonly=True) as store:
+        solved = [r for r in store.rows().values() if r["status"] == "ok"]
+    config = write_h2_study(tmp_path, name="big", fractions=str([k / 9 for k in range(10)]), phis="[0.7, 1.0, 1.3]",
+                            pressures="[1.0, 2.0, 3.0, 5.0, 8.0]")
+    config.write_text(config.read_text().replace("unburned_temperature_K = [300.0]",
+                                                 "unburned_temperature_K = [300.0, 350.0, 400.0, 450.0]") + BURNER)
+    big = load_study(config)
+    pts = points(big)
+    rows = point_rows(big, pts, {p.key: solved[i % len(solved)] for i, p in enumerate(pts)})
+    data = ChartData(rows=rows, gases=fuel_gas_table(big), dataset=to_dataset(big, rows))
+    assert data.shown["pressure_bar"] == [1.0, 3.0, 8.0] and data.shown["unburned_temperature_K"] == [300.0, 400.0, 450.0]
+    assert len(data.shown["blend_fraction"]) == 6 and data.shown["blend_fraction"][::5] == [0.0, 1.0]
+    for name in ("flame_speed_vs_equivalence_ratio", "flashback_chart", "operating_window", "blend_comparison",
+                 "pressure_and_preheat_dependence"):
+        fig = _chart(name).draw(data, big)
+        panels = [ax for ax in fig.axes if ax.get_visible()]
+        assert len(panels) <= MAX_PANELS, name
+        assert max(len(ax.get_lines()) for ax in panels) <= 3 * MAX_CURVES, name  # curves (+ companions, rings)
+        assert "Shown:" in fig._suptitle.get_text(), name
+        plt.close(fig)
+    fig = _chart("flame_speed_vs_equivalence_ratio").draw(data, big)
+    assert "3 of 5 pressures (1, 3, 8 bar)" in fig._suptitle.get_text().replace("\n", " ")
+    assert max(len(ax.get_lines()) for ax in fig.axes) <= MAX_CURVES
     plt.close(fig)

@@ -52,6 +52,21 @@ table.points { font-size: 0.8em; } table.points td, table.points th { padding: 0
 
 #: Most points the report's appendix lists (the rest are in results.csv, which it names).
 MAX_POINT_ROWS = 2000
+#: Most rows any other table of the report lists (the rest are in the CSV it names): a
+#: 100,000-point study keeps a report of a few MB.
+MAX_TABLE_ROWS = 60
+
+
+def _first(items: list, where: str, order=None) -> tuple[list, str]:
+    """At most MAX_TABLE_ROWS of ``items`` (those first by ``order`` when some are left out)
+    and the note saying so ('' when all are listed)."""
+    if len(items) <= MAX_TABLE_ROWS:
+        return items, ""
+    which = "first"
+    if order is not None:
+        items, which = sorted(items, key=order), "most critical"
+    return items[:MAX_TABLE_ROWS], (f"<p class='muted'>The {which} {MAX_TABLE_ROWS} of {len(items)} are listed; "
+                                    f"all are in {_e(where)}.</p>")
 
 
 def _e(x) -> str:
@@ -185,6 +200,7 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
     summary = premixer_summary(study, rows)
     if not summary:
         return []
+    summary, more = _first(summary, "results.csv", order=lambda s: s["autoignition_margin"])
     pm = study.premixer
     inf = float("inf")
     return ["<h2 id='premixer'>Premixer autoignition</h2>",
@@ -199,7 +215,7 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
                    [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
-                     f"{s['points'] - s['risky_points']} of {s['points']}"] for s in summary], {1, 2, 4})]
+                     f"{s['points'] - s['risky_points']} of {s['points']}"] for s in summary], {1, 2, 4}) + more]
 
 
 def _limits_section(study, limits: list[dict]) -> list[str]:
@@ -207,9 +223,10 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
     if not limits:
         return []
     lim = study.limits
+    listed, more = _first(limits, "limits.csv")
     out = ["<h2 id='limits'>Limits</h2>", "<ul>"]
-    out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in limits]
-    out.append("</ul>")
+    out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in listed]
+    out.append("</ul>" + more)
     flames = sum(r["flames_evaluated"] for r in limits)
     out.append(f"<p>Found by Brent's method between the swept points (the Wobbe band, which needs no flame, "
                f"bounds the blend search first); each step is a flame warm-started from the nearest stored one "
@@ -239,13 +256,16 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
     summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
+        b = study.burner
+        summary, more = _first(summary, "results.csv", order=lambda s: min(
+            s["min_flashback_margin"] / b.min_flashback_margin, s["min_blowoff_margin"] / b.blowoff[1]))
         parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {study.burner.blowoff[2]} margin (φ)",
                              "points ok"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
                               f"{s['unburned_temperature_K']:g}",
                               f"{s['min_flashback_margin']:.2f} ({s['at_phi_flashback']:g})",
                               f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
-                              f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}))
+                              f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
 
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
@@ -256,16 +276,16 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
         if svg.is_file():
             parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
 
-    failed = [r for r in rows if r["status"] != "ok"]
+    failed, more = _first([r for r in rows if r["status"] != "ok"], "results.csv (status, message)")
     if failed:
-        parts.append("<h2>Points without a flame</h2>")
+        parts.append("<h2>Points without a flame</h2>" + more)
         parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "reason"],
                             [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
 
-    warned = [r for r in rows if r.get("warnings")]
+    warned, more = _first([r for r in rows if r.get("warnings")], "results.csv (warnings)")
     if warned:
-        parts.append("<h2 id='warnings'>Points outside the range of the method or mechanism</h2>")
+        parts.append("<h2 id='warnings'>Points outside the range of the method or mechanism</h2>" + more)
         parts.append("<p>These numbers were computed, but the inputs lie outside what a freely propagating "
                      "laminar flame or the mechanism covers: read them as indications only.</p>")
         parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],

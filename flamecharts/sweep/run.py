@@ -19,6 +19,7 @@ import signal
 import threading
 import time
 import uuid
+from collections import OrderedDict
 from concurrent.futures import FIRST_COMPLETED, BrokenExecutor, wait
 from dataclasses import dataclass
 from typing import Callable
@@ -34,6 +35,11 @@ from .worker import make_task, solve_task
 
 #: A worker that dies (killed, out of memory) costs its point this many retries.
 MAX_RETRIES = 2
+
+#: Profiles of the last finished flames kept in memory for the warm starts that follow them;
+#: older ones are read back from the store (the same bytes), so a 100,000-flame run
+#: holds at most this many (a GRI-Mech 3.0 profile is about 130 KB decoded).
+RECENT_PROFILES = 64
 
 #: Failed points that the next run solves again (the failure may not recur).
 RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
@@ -146,7 +152,7 @@ class _Loop:
         self.tree = warm_plan(store, unique)
         self.by_index = {p.index: p for p in unique}
         self.sched = Scheduler(self.tree, [p.index for p in todo])
-        self.finished: dict[int, dict] = {}
+        self.recent: OrderedDict[int, dict | None] = OrderedDict()  # profiles of the last finished flames
         self.retries: dict[int, int] = {}
         self.in_flight: dict = {}
         self.executor = backend.executor(study)
@@ -159,11 +165,17 @@ class _Loop:
         parent, cur = self.tree.parent, p.index
         while parent[cur] is not None:
             cur = parent[cur]
-            prof = (self.finished[cur].get("profile") if cur in self.finished
-                    else self.store.profile(self.by_index[cur].key))
+            prof = self.recent[cur] if cur in self.recent else self.store.profile(self.by_index[cur].key)
             if prof is not None:
                 return prof
         return self.store.profile(self.tree.stored[cur]) if cur in self.tree.stored else None
+
+    def keep(self, i: int, profile: dict | None) -> None:
+        """Remember a finished flame's profile (as the store gives it back) for the warm starts
+        that follow soon; older ones are read back from the store, so memory stays bounded."""
+        self.recent[i] = profile
+        while len(self.recent) > RECENT_PROFILES:
+            self.recent.popitem(last=False)
 
     def submit(self, i: int) -> None:
         p = self.by_index[i]
@@ -245,8 +257,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
                     if not study.keep_profiles:
                         result["profile"] = None
                     # an in-run warm start gets exactly what the store gives back to a resumed run
-                    result["profile"] = unpack_profile(store.commit_point(p, result, loop.run_id))
-                    loop.finished[p.index] = result
+                    loop.keep(p.index, unpack_profile(store.commit_point(p, result, loop.run_id)))
                     loop.sched.finished(p.index)
                     cost_done += cost[p.index]
                     out.solved += 1

@@ -20,6 +20,15 @@ Sections (one function each, ``SECTIONS``; a section returns a dict of figures):
   same decoded profiles, which understates the old size (rounded values compress better
   than the solver's own: the demo store's real old profiles took 343 KB, not ~157 KB).
 
+- outputs: per size of ``--sizes``, a store of the planning study (with a cooktop-like
+  burner, so the margin charts are drawn too) filled with real h2o2 flames (12 solved
+  here, then copied under every point's key: no 100,000 flames are solved). Commits
+  through ``Store.commit_point`` (profile encoding included) are timed on the empty store
+  and again on the full one; the rest is filled in one transaction. Then, in a child
+  process (its peak memory is the figure), each step of the read-out: the rows
+  (``results.rows_from_dir``), the dataset, results.csv, results.nc, the charts and
+  report.html, with the report's size.
+
 The last line printed is one JSON object with every figure (times in seconds, memory
 in MB); progress goes to stderr.
 """
@@ -240,7 +249,144 @@ def store(tmp: Path, args) -> dict:
     return {**_store_figures(tmp, "h2o2", h2), **_store_figures(tmp, "gri30", gri)}
 
 
-SECTIONS = {"planning": planning, "store": store}
+BURNER = """
+[burner]
+name = "scale benchmark burner"
+port = "round"
+port_diameter_mm = 4.0
+port_velocity_m_s = 1.0
+min_flashback_margin = 1.5
+min_blowoff_margin = 1.5
+"""
+
+#: Commits timed at each end of the fill (on the empty and on the full store).
+TIMED_COMMITS = 1000
+
+
+def _source_flames(tmp: Path) -> list[dict]:
+    """12 real flames of the scale study's families (2 oxidizers x 2 blends x 3 phi), as stored rows."""
+    import sqlite3
+
+    import flamecharts
+    from flamecharts.store import DB_NAME
+
+    text = TEMPLATE.format(n=12, fractions=[0.0, 1.0], phis=[0.6, 1.0, 1.4], pressures=[1.0], temperatures=[300.0])
+    cfg = tmp / "outputs_sources.toml"
+    cfg.write_text(textwrap.dedent(text))
+    out = tmp / "outputs_sources"
+    flamecharts.run(cfg, out=out, jobs=2, charts=False)
+    con = sqlite3.connect(out / DB_NAME)
+    con.row_factory = sqlite3.Row
+    rows = [dict(r) for r in con.execute("SELECT * FROM points WHERE status = 'ok' ORDER BY phi")]
+    con.close()
+    return rows
+
+
+def _fill(out: Path, study, sources: list[dict]) -> dict:
+    """The store of ``study`` in ``out`` with every point a copy of a source flame (nearest
+    phi, same oxidizer); commit_point timed at both ends, the middle in one transaction."""
+    import json as _json
+    import uuid
+
+    from flamecharts.config import save_config_copy
+    from flamecharts.store import DB_NAME, Store
+    from flamecharts.store.db import unpack_profile
+
+    out.mkdir(parents=True, exist_ok=True)
+    save_config_copy(study, out)
+    pts = plan_points.points(study)
+    pool = sources
+
+    def source_of(p):
+        return min(pool, key=lambda r: (r["family"] != p.family, abs(r["phi"] - p.phi)))
+
+    def result_of(p, src, profile=None):
+        return {"inputs": p.inputs, "status": src["status"], "message": src["message"], "start": src["start"],
+                "metrics": _json.loads(src["metrics"]), "solve_seconds": src["solve_seconds"],
+                "reason": src["reason"], "profile": profile}
+
+    decoded = {r["key"]: unpack_profile(r["profile"]) for r in pool}
+    run_id = uuid.uuid4().hex[:12]
+    n = len(pts)
+    first, last = pts[:TIMED_COMMITS], pts[max(TIMED_COMMITS, n - TIMED_COMMITS):]
+    middle = pts[TIMED_COMMITS:max(TIMED_COMMITS, n - TIMED_COMMITS)]
+    with Store(out / DB_NAME) as store:
+        t0 = time.perf_counter()
+        for p in first:
+            src = source_of(p)
+            store.commit_point(p, result_of(p, src, decoded[src["key"]]), run_id)
+        t_first = time.perf_counter() - t0
+        with store.db:
+            store.db.executemany("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", (
+                (p.key, p.family, _json.dumps(p.inputs, sort_keys=True), p.phi, p.pressure_bar, p.T_u, src["status"],
+                 src["message"], src["start"], src["metrics"], src["solve_seconds"], time.time(), run_id,
+                 src["profile"], src["reason"]) for p in middle for src in (source_of(p),)))
+        t0 = time.perf_counter()
+        for p in last:
+            src = source_of(p)
+            store.commit_point(p, result_of(p, src, decoded[src["key"]]), run_id)
+        t_last = time.perf_counter() - t0
+    return {"points": n, "commit_ms_empty_store": 1e3 * t_first / max(len(first), 1),
+            "commit_ms_full_store": 1e3 * t_last / max(len(last), 1),
+            "db_mb": (out / DB_NAME).stat().st_size / 2**20}
+
+
+def outputs_child(out: Path) -> dict:
+    """Each read-out step on the store in ``out`` (run in a child process): seconds and the
+    process's peak resident memory after it [MB]."""
+    import resource
+
+    from flamecharts.design import fuel_gas_table
+    from flamecharts.outputs.charts import draw_all
+    from flamecharts.outputs.netcdf import write_netcdf
+    from flamecharts.outputs.report import write_report
+    from flamecharts.outputs.tables import write_csv
+    from flamecharts.results import rows_from_dir, to_dataset
+
+    figures = {}
+
+    def step(name, fn, *a):
+        value, secs = timed(fn, *a)
+        figures[f"{name}_s"] = secs
+        figures[f"{name}_peak_rss_mb"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+        return value
+
+    figures["start_peak_rss_mb"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    study, rows = step("read_rows", rows_from_dir, out)
+    ds = step("dataset", to_dataset, study, rows)
+    step("csv", write_csv, rows, out / "results.csv")
+    step("netcdf", write_netcdf, ds, out / "results.nc")
+    gases = fuel_gas_table(study)
+    charts = step("charts", draw_all, rows, gases, study, out, ds)
+    report = step("report", write_report, study, rows, out, gases, ds)
+    figures.update(charts=len(charts) // 2, report_mb=report.stat().st_size / 2**20,
+                   csv_mb=(out / "results.csv").stat().st_size / 2**20,
+                   netcdf_mb=(out / "results.nc").stat().st_size / 2**20,
+                   largest_chart_png_kb=max(c.stat().st_size for c in charts if c.suffix == ".png") / 1024)
+    return figures
+
+
+def outputs(tmp: Path, args) -> dict:
+    """The outputs section (see the module docstring)."""
+    from flamecharts.config import load_study as _load
+
+    sources = _source_flames(tmp)
+    figures = {}
+    for size in args.sizes:
+        config = write_scale_study(tmp, size)
+        config.write_text(config.read_text() + textwrap.dedent(BURNER))
+        out = tmp / f"outputs_{size}"
+        fill = _fill(out, _load(config), sources)
+        log(f"outputs {size}: filled {fill}")
+        child = subprocess.run([sys.executable, __file__, "--outputs-child", str(out)], cwd=ROOT, check=True,
+                               capture_output=True, text=True)
+        got = {**fill, **json.loads(child.stdout.strip().splitlines()[-1])}
+        log(f"outputs {size}: {got}")
+        figures.update({f"outputs_{size}_{k}": v for k, v in got.items()})
+    return figures
+
+
+SECTIONS = {"planning": planning, "store": store, "outputs": outputs}
 
 
 def main(argv=None) -> int:
@@ -249,7 +395,11 @@ def main(argv=None) -> int:
                     help=f"comma-separated sections to run (of {', '.join(SECTIONS)})")
     ap.add_argument("--sizes", default=",".join(SIZES), help=f"planning sizes (of {', '.join(SIZES)})")
     ap.add_argument("--old-at", default="10k", help="sizes at which the old all-pairs tree is timed too ('' for none)")
+    ap.add_argument("--outputs-child", help=argparse.SUPPRESS)  # the outputs section's child process
     args = ap.parse_args(argv)
+    if args.outputs_child:
+        print(json.dumps(outputs_child(Path(args.outputs_child))))
+        return 0
     args.sizes = [s for s in args.sizes.split(",") if s]
     args.old_at = {s for s in args.old_at.split(",") if s}
     unknown = [s for s in args.sections.split(",") if s not in SECTIONS] + [s for s in args.sizes if s not in SIZES]

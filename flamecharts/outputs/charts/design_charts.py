@@ -10,6 +10,8 @@ Drawn from flat rows only (see design.annotate), like every chart; each register
 """
 from __future__ import annotations
 
+import textwrap
+
 import numpy as np
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
@@ -18,8 +20,9 @@ from scipy.interpolate import RegularGridInterpolator
 from ...admissible.driver import kept
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
-from .registry import burning_blends, chart, has_margins, has_window, several_blends, varies_p_or_T
-from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, of, ok_rows, phi_near_one, plain_log_ticks
+from .registry import (MAX_PANELS, NOTE_WIDTH, burning_blends, chart, conditions_note, has_margins, has_window,
+                       several_blends, spread, varies_p_or_T)
+from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, ok_rows, phi_near_one, plain_log_ticks
 
 
 @chart("pressure_and_preheat_dependence",
@@ -28,10 +31,10 @@ from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, o
        varies_p_or_T)
 def pressure_preheat_chart(data, study):
     """Flame speed vs pressure and vs unburned temperature (log axes), exponents in the legend."""
-    rows = data.rows
-    ok = ok_rows(rows)
+    ok = ok_rows(data.rows)
     phi = phi_near_one(ok)
-    sel = [r for r in ok if r["equivalence_ratio"] == phi]
+    blends = set(data.shown["blend_fraction"])
+    sel = [r for r in ok if r["equivalence_ratio"] == phi and r["blend_fraction"] in blends]
     keys = fuel_keys(sel)
     colours = colour_scale(len(keys))
     varied = [axis for axis in (("pressure_bar", "unburned_temperature_K", "β", "bar"),
@@ -42,10 +45,13 @@ def pressure_preheat_chart(data, study):
     for ai, (along, fixed, sym, unit) in enumerate(varied):
         ax = axes[0, ai]
         is_p = along == "pressure_bar"
-        fixed_values = sorted({r[fixed] for r in sel})
+        fixed_values = [v for v in data.shown[fixed] if any(r[fixed] == v for r in sel)]
+        lines: dict[tuple, list[dict]] = {}
+        for r in sel:
+            lines.setdefault((r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"], r[fixed]), []).append(r)
         for ci, key in enumerate(keys):
             for fi, fv in enumerate(fixed_values):
-                rs = sorted((r for r in of(sel, key) if r[fixed] == fv), key=lambda r: r[along])
+                rs = sorted(lines.get(key + (fv,), []), key=lambda r: r[along])
                 if len(rs) < 2:
                     continue
                 x = [r[along] for r in rs]
@@ -66,7 +72,8 @@ def pressure_preheat_chart(data, study):
         ax.grid(True, which="both", color="0.9", lw=0.6)
     return finish(fig, study, ("Pressure and preheat dependence of the flame speed",
                                 "How does S_L scale? Exponents fitted per curve (Metghalchi & Keck);\n"
-                                "every φ in power_law_exponents.csv"),
+                                "every φ in power_law_exponents.csv" + data.note("blend_fraction", *(
+                                    ax[1] for ax in varied))),
                    handles, "Fuel and fitted exponent")
 
 
@@ -84,9 +91,11 @@ def _interp_at_fixed_tad(rs, targets):
     return [float(np.interp(t, T, S, left=np.nan, right=np.nan)) for t in targets]
 
 
-#: Conditions (fuel, oxidizer, pressure, preheat) the blend comparison draws at most; the
-#: rest are named on the chart and are in results.csv.
-MAX_BLEND_CONDITIONS = 3
+#: Conditions (fuel, oxidizer, pressure, preheat) the blend comparison draws at most (evenly
+#: spread, first and last); the rest are named on the chart and are in results.csv.
+MAX_BLEND_CONDITIONS = MAX_PANELS // 4  # four panels each
+#: Equivalence ratios (and fixed flame temperatures) it draws as curves, at most.
+MAX_PHI_CURVES = 8
 
 
 @chart("blend_comparison",
@@ -98,14 +107,17 @@ def blend_chart(data, study):
     ok_all = ok_rows(data.rows)
     conditions = sorted({(r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) for r in ok_all},
                         key=lambda c: (study.sweep_fuels.index(c[0]), study.sweep_oxidizers.index(c[1]), c[2], c[3]))
-    shown = conditions[:MAX_BLEND_CONDITIONS]
-    phis = sorted({r["equivalence_ratio"] for r in ok_all})
+    shown = spread(conditions, MAX_BLEND_CONDITIONS)
+    by_condition: dict[tuple, list[dict]] = {}
+    for r in ok_all:
+        by_condition.setdefault((r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
+    all_phis = sorted({r["equivalence_ratio"] for r in ok_all})
+    phis = spread(all_phis, MAX_PHI_CURVES)
     colours = colour_scale(len(phis))
     fig, axes = figure(2, nrows=2 * len(shown), width=5.0, height=3.3)
     handles = {}
     for k, (fuel, ox, P, T) in enumerate(shown):
-        ok = [r for r in ok_all if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
-              == (fuel, ox, P, T)]
+        ok = by_condition[(fuel, ox, P, T)]
         fracs = sorted({r["blend_fraction"] for r in ok})
         where = f"{fuel} in {ox}, {P:g} bar, {T:g} K"
         for ai, (col, scale, ylabel) in enumerate((("laminar_flame_speed_m_s", 100, "S_L [cm/s]"),
@@ -126,7 +138,7 @@ def blend_chart(data, study):
         ax = axes[2 * k + 1, 1]
         base = sorted((r for r in ok if r["blend_fraction"] == fracs[0]), key=lambda r: r["equivalence_ratio"])
         peak = int(np.argmax([r["adiabatic_flame_temperature_K"] for r in base])) if base else 0
-        targets = [r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]]
+        targets = spread([r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]], MAX_PHI_CURVES)
         greys = [str(g) for g in np.linspace(0.0, 0.6, max(len(targets), 1))]
         for ti, t in enumerate(targets):
             S = np.array([_interp_at_fixed_tad([r for r in ok if r["blend_fraction"] == f], [t])[0] for f in fracs])
@@ -144,7 +156,11 @@ def blend_chart(data, study):
     handles["S_L at a fixed T_ad (grey, dashed;\nT_ad of the unblended gas on its lean side)"] = Line2D(
         [], [], color="0.3", marker="s", linestyle="--")
     note = ("" if len(conditions) == len(shown) else
-            f"\nShown: the first {len(shown)} of {len(conditions)} fuel/condition blocks; all are in results.csv")
+            f"\nShown: {len(shown)} of {len(conditions)} fuel/condition blocks (evenly spread, first and last)")
+    if len(phis) < len(all_phis):
+        note += (f"{';' if note else chr(10) + 'Shown:'} {len(phis)} of {len(all_phis)} equivalence ratios "
+                 f"({', '.join(f'{v:g}' for v in phis)})")
+    note = "\n" + textwrap.fill(note.strip() + "; every point is in results.csv and results.nc", NOTE_WIDTH) if note else ""
     return finish(fig, study, (f"Blend comparison: {study.blend_with} blended in",
                                 "What does blending change? At fixed φ, and S_L at equal adiabatic flame "
                                 f"temperature{note}"),
@@ -158,11 +174,17 @@ def blend_chart(data, study):
        has_margins)
 def flashback_chart(data, study):
     """Flashback margin vs phi per blend with the required minimum; quench size vs port size."""
-    rows = data.rows
     b = study.burner
-    ok = [r for r in ok_rows(rows) if r["flashback_margin"] is not None]
-    panels = sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok})
+    ok = [r for r in ok_rows(data.shown_rows) if r["flashback_margin"] is not None]
+    panels = spread(sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok}),
+                    MAX_PANELS // 2)  # two panels per condition
+    n_every = len(data.every["pressure_bar"]) * len(data.every["unburned_temperature_K"])
     keys = fuel_keys(ok)
+    lowest: dict[tuple, dict] = {}  # per curve, over every pressure and preheat (also those not drawn)
+    for r in ok_rows(data.rows):
+        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
+        if r["flashback_margin"] is not None and (k not in lowest or r["flashback_margin"] < lowest[k]["flashback_margin"]):
+            lowest[k] = r
     colours = colour_scale(len(keys))
     fig, axes = figure(2, nrows=len(panels))
     handles = {}
@@ -172,13 +194,12 @@ def flashback_chart(data, study):
         ax.axhspan(0, b.min_flashback_margin, color="#f4cccc", lw=0, zorder=0)
         ax.axhline(b.min_flashback_margin, color="#b2182b", lw=1.4, zorder=1)
         for ci, key in enumerate(keys):
-            rs = sorted((r for r in of(ok, key) if r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
-                        key=lambda r: r["equivalence_ratio"])
+            rs = [r for r in data.series.get(key + (P, T), []) if r["status"] == "ok" and r["flashback_margin"] is not None]
             if not rs:
                 continue
             phi = [r["equivalence_ratio"] for r in rs]
-            low = min(of(ok, key), key=lambda r: r["flashback_margin"])
-            where = f", {low['pressure_bar']:g} bar, {low['unburned_temperature_K']:g} K" if len(panels) > 1 else ""
+            low = lowest[key]
+            where = f", {low['pressure_bar']:g} bar, {low['unburned_temperature_K']:g} K" if n_every > 1 else ""
             label = f"{gas_label(rs[0])}\n(lowest {low['flashback_margin']:.2f} at φ {low['equivalence_ratio']:g}{where})"
             h, = ax.plot(phi, [r["flashback_margin"] for r in rs], color=colours[ci],
                          marker=MARKERS[ci % len(MARKERS)], lw=1.8, label=label, zorder=3)
@@ -203,7 +224,9 @@ def flashback_chart(data, study):
         [], [], color="0.2", lw=1.4, linestyle="-.")
     return finish(fig, study, (f"Flashback check: {b.name}",
                                 "Will the flame flash back? A blend keeps the required margin where its curve stays "
-                                "above the red line (a screening margin, not a proof of safety)"), handles, "Fuel and burner")
+                                "above the red line (a screening margin, not a proof of safety)"
+                                + data.note("blend_fraction") + conditions_note(panels, n_every)),
+                   handles, "Fuel and burner")
 
 
 #: Points per axis of the fine grid the window's margins are interpolated on.
@@ -228,8 +251,9 @@ def window_chart(data, study):
     ds, b = data.dataset, study.burner
     bo_col, bo_min, _ = b.blowoff
     bo_short = "SM" if b.on_stabilizer else "BO"
-    panels = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in ds.pressure_bar.values
-              for t in ds.unburned_temperature_K.values]
+    every = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in data.shown["pressure_bar"]
+             for t in data.shown["unburned_temperature_K"]]
+    panels = spread(every, MAX_PANELS)
     fig, axes = figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
     products = []
     for ax, (fuel, ox, P, T) in zip(axes.flat, panels):
@@ -282,7 +306,11 @@ def window_chart(data, study):
         handles[f"FB × BO = g_B/g_F = {np.median(allp):.2f} at every point:\nboth edges are one quantity, "
                 "S_L²/α_u against\nthe wall gradient (indicator constants)"] = Line2D([], [], linestyle="none")
     return finish(fig, study, (f"Operating window: {b.name}",
-                                "Where can it run? Blend fraction and equivalence ratio that keep both margins"),
+                                "Where can it run? Blend fraction and equivalence ratio that keep both margins"
+                                + conditions_note(sorted({(p[2], p[3]) for p in panels}),
+                                                  len(data.every["pressure_bar"]) * len(data.every["unburned_temperature_K"]))
+                                + (f"\nShown: {len(panels)} of {len(every)} fuel/oxidizer/condition panels"
+                                   if len(panels) < len(every) else "")),
                    handles, "Margins")
 
 
@@ -415,8 +443,10 @@ def _draw_window_edges(ax, rows, study, colours, handles):
        has_limits)
 def limits_chart(data, study):
     """Admissible blend fraction vs phi and the phi-window edges vs blend fraction (limits.csv)."""
-    blend = [r for r in data.limits if r["limit"] == "max_blend_fraction"]
-    window = [r for r in data.limits if r["limit"] != "max_blend_fraction"]
+    P_shown, T_shown = set(data.shown["pressure_bar"]), set(data.shown["unburned_temperature_K"])
+    drawn = [r for r in data.limits if r["pressure_bar"] in P_shown and r["unburned_temperature_K"] in T_shown]
+    blend = [r for r in drawn if r["limit"] == "max_blend_fraction"]
+    window = [r for r in drawn if r["limit"] != "max_blend_fraction"]
     parts = [p for p in (("blend", blend), ("window", window)) if p[1]]
     fig, axes = figure(len(parts))
     handles: dict = {}
@@ -427,4 +457,6 @@ def limits_chart(data, study):
         (_draw_blend_limits if kind == "blend" else _draw_window_edges)(ax, rows, study, colours, handles)
     return finish(fig, study, (f"Admissible limits: {study.burner.name}",
                                f"keeping {kept(study).replace('>=', '≥')};\ntolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
-                               f"{study.limits.tolerance['equivalence_ratio']:g} in φ"), handles, "")
+                               f"{study.limits.tolerance['equivalence_ratio']:g} in φ"
+                               + data.note("pressure_bar", "unburned_temperature_K").replace("results.nc", "limits.csv")),
+                   handles, "")

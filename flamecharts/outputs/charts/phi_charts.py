@@ -5,7 +5,7 @@ thermal_thickness_chart  thermal flame thickness vs equivalence ratio
 flame_temperature_chart  adiabatic flame temperature vs equivalence ratio
 
 Layout: one panel per (pressure, unburned temperature), one curve per fuel,
-oxidizer and blend fraction. Points that did not give a flame are not dropped:
+oxidizer and blend fraction (big studies: the levels of registry.py's chart rule). Points that did not give a flame are not dropped:
 they are marked on the axis floor with their status (zero, or the panel's unburned
 temperature for the flame temperature chart: no flame, no temperature rise).
 """
@@ -20,8 +20,9 @@ from .registry import any_flame, chart
 from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys
 
 
-def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, title: str,
+def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
                companion: tuple[str, str] | None = None, floor_at_preheat: bool = False):
+    rows = data.shown_rows  # big studies: the chart rule of registry.py picks the levels drawn
     panels = panel_keys(rows)
     curves = curve_keys(rows)
     oxidizers = {c[1] for c in curves}
@@ -36,9 +37,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     for ax, (P, T) in zip(axes.flat, panels):
         floor = T * scale if floor_at_preheat else 0.0
         for ci, ck in enumerate(curves):
-            sel = sorted((r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == ck
-                          and r["pressure_bar"] == P and r["unburned_temperature_K"] == T),
-                         key=lambda r: r["equivalence_ratio"])
+            sel = data.series.get(ck + (P, T), [])
             good = [r for r in sel if r["status"] == "ok" and r[column] is not None]
             label = gas_label(sel[0]) if sel else ck[0]
             if len(oxidizers) > 1:
@@ -87,7 +86,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
     if companion is not None:
         handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
                                        markersize=4)
-    fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
+    fig.suptitle(f"{title[0]}\n{title[1]}{data.note()}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
     footer(fig, study)
@@ -100,7 +99,7 @@ def _phi_chart(rows: list[dict], study, column: str, scale: float, ylabel: str, 
        "preheat. Higher curves flash back more easily at the same port velocity.")
 def flame_speed_chart(data, study):
     """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at."""
-    return _phi_chart(data.rows, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
+    return _phi_chart(data, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
                       ("Laminar flame speed vs equivalence ratio",
                        "How fast does each mixture's flame run? (flashback: compare with port velocity)"))
 
@@ -110,7 +109,7 @@ def flame_speed_chart(data, study):
        "gaps and need finer grids in CFD.")
 def thermal_thickness_chart(data, study):
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
-    return _phi_chart(data.rows, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
+    return _phi_chart(data, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
                       ("Flame thickness vs equivalence ratio",
                        "How thick is each flame? Solid: thermal δ_T; dotted: reaction zone"),
                       companion=("reaction_zone_thickness_mm",
@@ -125,7 +124,7 @@ def thermal_thickness_chart(data, study):
        any_flame)
 def flame_temperature_chart(data, study):
     """Adiabatic flame temperature [K] vs equivalence ratio: how hot each mixture burns."""
-    return _phi_chart(data.rows, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
+    return _phi_chart(data, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
                       ("Adiabatic flame temperature vs equivalence ratio",
                        "How hot does each mixture burn? (no flame: marked at the preheat temperature)"),
                       floor_at_preheat=True)

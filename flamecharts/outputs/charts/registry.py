@@ -9,21 +9,121 @@ own); draw_all and the report pick it up, in the order the charts are registered
 """
 from __future__ import annotations
 
+import textwrap
 from dataclasses import dataclass, field
+from functools import cached_property
 from typing import Callable
 
 import xarray as xr
+
+# ---- the rule for big studies: what one figure shows (README, "Charts of big studies")
+#: Pressures, and preheats, a figure draws as panels or curves: lowest, middle, highest.
+MAX_LEVELS = 3
+#: Curves of one panel (fuel x oxidizer x blend fraction); blend fractions are thinned to fit,
+#: keeping at least the first and the last.
+MAX_CURVES = 12
+#: Blend fractions drawn as curves, at most.
+MAX_BLEND_CURVES = 6
+#: Panels of one figure, at most.
+MAX_PANELS = 9
+
+#: Characters per line of a chart's note on the levels it leaves out.
+NOTE_WIDTH = 100
+
+#: Axis -> (name in a chart's note, unit)
+_AXIS_WORDS = {"pressure_bar": ("pressures", "bar"), "unburned_temperature_K": ("preheats", "K"),
+               "blend_fraction": ("blend fractions", ""), "equivalence_ratio": ("equivalence ratios", "")}
+
+
+def spread(values, k: int) -> list:
+    """At most ``k`` of ``values``, evenly spread over their order, first and last included.
+
+    >>> spread([1, 2, 3, 4, 5, 6, 7, 8, 9, 10], 3)
+    [1, 6, 10]
+    >>> spread([1, 2], 3)
+    [1, 2]
+    """
+    values = list(values)
+    if len(values) <= k:
+        return values
+    if k <= 1:
+        return values[:1]
+    return [values[i] for i in sorted({int(j * (len(values) - 1) / (k - 1) + 0.5) for j in range(k)})]
+
+
+def thinned_note(shown: dict[str, list], every: dict[str, list]) -> str:
+    """One line naming the levels a chart leaves out ('' when it draws them all)."""
+    parts = []
+    for axis, values in shown.items():
+        if len(values) < len(every[axis]):
+            name, unit = _AXIS_WORDS[axis]
+            parts.append(f"{len(values)} of {len(every[axis])} {name} ({', '.join(f'{v:g}' for v in values)}"
+                         f"{' ' + unit if unit else ''})")
+    if not parts:
+        return ""
+    return "\n" + textwrap.fill("Shown: " + "; ".join(parts) + "; every point is in results.csv and results.nc",
+                                NOTE_WIDTH)
+
+
+def conditions_note(drawn: list[tuple[float, float]], n_every: int) -> str:
+    """One line naming the (pressure, preheat) conditions a chart draws when it leaves some out."""
+    if len(drawn) >= n_every:
+        return ""
+    return "\n" + textwrap.fill(f"Shown: {len(drawn)} of {n_every} conditions (p, T_u): "
+                                + ", ".join(f"{P:g} bar {T:g} K" for P, T in drawn)
+                                + "; every point is in results.csv and results.nc", NOTE_WIDTH)
 
 
 @dataclass(frozen=True)
 class ChartData:
     """What charts read: one row per point (columns.COLUMNS), one per fuel gas
-    (GAS_TABLE_COLUMNS), and the same points as the labelled table (results.to_dataset)."""
+    (GAS_TABLE_COLUMNS), and the same points as the labelled table (results.to_dataset).
+
+    Big studies: ``shown`` is the rule above applied to the study's axes, ``shown_rows``
+    the rows at those levels, ``series`` the same rows grouped per curve and panel (one
+    pass over the rows, so a chart of 100,000 points never filters them per curve)."""
 
     rows: list[dict]
     gases: list[dict]
     dataset: xr.Dataset
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
+
+    @cached_property
+    def every(self) -> dict[str, list]:
+        """Every level of the axes a figure may thin."""
+        ds = self.dataset
+        return {a: sorted(float(v) for v in ds[a].values) for a in _AXIS_WORDS}
+
+    @cached_property
+    def shown(self) -> dict[str, list]:
+        """Levels a figure draws: MAX_LEVELS pressures and preheats, blend fractions to keep
+        at most MAX_CURVES curves per panel (and MAX_BLEND_CURVES)."""
+        ds = self.dataset
+        fuel_ox = max(1, ds.sizes["fuel"] * ds.sizes["oxidizer"])
+        return {"pressure_bar": spread(self.every["pressure_bar"], MAX_LEVELS),
+                "unburned_temperature_K": spread(self.every["unburned_temperature_K"], MAX_LEVELS),
+                "blend_fraction": spread(self.every["blend_fraction"],
+                                         max(2, min(MAX_BLEND_CURVES, MAX_CURVES // fuel_ox)))}
+
+    def note(self, *axes: str) -> str:
+        """The line naming what the chart leaves out along ``axes`` (default: pressure, preheat, blend)."""
+        axes = axes or ("pressure_bar", "unburned_temperature_K", "blend_fraction")
+        return thinned_note({a: self.shown[a] for a in axes}, self.every)
+
+    @cached_property
+    def shown_rows(self) -> list[dict]:
+        sets = {a: set(v) for a, v in self.shown.items()}
+        return [r for r in self.rows if all(float(r[a]) in s for a, s in sets.items())]
+
+    @cached_property
+    def series(self) -> dict[tuple, list[dict]]:
+        """(fuel, oxidizer, blend_with, blend_fraction, pressure_bar, unburned_temperature_K) ->
+        the shown rows of that curve and panel, by equivalence ratio."""
+        out: dict[tuple, list[dict]] = {}
+        for r in self.shown_rows:
+            out.setdefault((r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"], r["pressure_bar"],
+                            r["unburned_temperature_K"]), []).append(r)
+        return {k: sorted(v, key=lambda r: r["equivalence_ratio"]) for k, v in out.items()}
 
 
 @dataclass(frozen=True)

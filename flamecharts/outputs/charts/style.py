@@ -18,12 +18,8 @@ CMAP = "viridis"  # perceptually uniform, readable with colour-vision deficiency
 
 
 def curves(rows: list[dict]) -> list[tuple]:
-    keys = []
-    for r in rows:
-        k = (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"])
-        if k not in keys:
-            keys.append(k)
-    return keys
+    """(fuel, oxidizer, blend_with, blend_fraction) of the rows, in first-seen order."""
+    return list(dict.fromkeys((r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) for r in rows))
 
 
 def panels(rows: list[dict]) -> list[tuple[float, float]]:
@@ -62,10 +58,6 @@ def finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str)
 
 def colour_scale(n):
     return plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(n, 1)))
-
-
-def of(rows, key):
-    return [r for r in rows if (r["fuel"], r["oxidizer"], r["blend_with"], r["blend_fraction"]) == key]
 
 
 def plain_log_ticks(ax):
