@@ -57,6 +57,8 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     for name, (col, scale) in FROM_METRICS.items():
         v = metrics.get(name)
         row[col] = None if v is None else v * scale
+    if "autoignition_screen_delay_s" in metrics:  # for the range warning (not a column)
+        row["autoignition_screen_delay_s"] = metrics["autoignition_screen_delay_s"]
     return row
 
 

@@ -422,6 +422,13 @@ def test_autoignition_before_the_flame_is_a_warning_in_csv_and_report(tmp_path):
     rows = {r["unburned_temperature_K"]: r for r in s.rows}
     assert rows[300.0]["warnings"] == ""
     assert rows[1000.0]["warnings"].startswith("autoignition:")
+    # the worker stored the delay with the flame (the read-out integrates no reactor); recomputing it
+    # from the row, as for a store written before, gives the same warning
+    assert 0 < rows[1000.0]["autoignition_screen_delay_s"] < 1e-3
+    from flamecharts.chemistry.ignition import autoignition_warning
+    fresh = {k: v for k, v in rows[1000.0].items() if k != "autoignition_screen_delay_s"}
+    p1000 = next(p for p in points(study) if p.T_u == 1000.0)
+    assert autoignition_warning(study.mechanism_path, p1000.X_unburned, 1000.0, p1000.P, fresh) == rows[1000.0]["warnings"]
     from flamecharts.outputs.tables import write_csv
     from flamecharts.outputs.report import write_report
 

@@ -53,23 +53,42 @@ def ignition_delay(mechanism_path: str, X: tuple, T: float, P: float, t_max: flo
     return math.inf
 
 
-def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
-    """'' or a warning when the mixture autoignites within AUTOIGNITION_FACTOR flame
-    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K)."""
-    if row.get("status") != "ok" or T_u < AUTOIGNITION_MIN_T_K:
-        return ""
-    S_L, d_mm = row.get("laminar_flame_speed_m_s"), row.get("thermal_thickness_mm")
-    if not S_L or not d_mm:
-        return ""
-    transit = d_mm * 1e-3 / S_L
-    rise = min(IGNITION_RISE_K, 0.5 * max((row.get("adiabatic_flame_temperature_K") or T_u) - T_u, 1.0))
+def autoignition_screen(mechanism_path: str, X: dict, T_u: float, P: float, S_L: float | None,
+                        thickness_m: float | None, T_ad: float | None) -> float | None:
+    """Ignition delay [s] of the unburned mixture over the window the warning looks at:
+    min(AUTOIGNITION_FACTOR flame transit times delta_T/S_L, AUTOIGNITION_MAX_TIME_S),
+    inf beyond it; None where the check does not apply (no flame, T_u below
+    AUTOIGNITION_MIN_T_K) or cannot be made. Workers store it with each flame (metric
+    ``autoignition_screen_delay_s``), so a read-out of 100,000 points integrates no reactor."""
+    if T_u < AUTOIGNITION_MIN_T_K or not S_L or not thickness_m:
+        return None
+    transit = thickness_m / S_L
+    rise = min(IGNITION_RISE_K, 0.5 * max((T_ad or T_u) - T_u, 1.0))
     t_max = min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S)
     X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
     try:
-        tau = ignition_delay(mechanism_path, X_key, float(T_u), float(P), float(f"{t_max:.6g}"), float(rise))
+        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), float(f"{t_max:.6g}"), float(rise))
     except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
+        return None
+
+
+def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
+    """'' or a warning when the mixture autoignites within AUTOIGNITION_FACTOR flame
+    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K).
+    Uses the delay the worker stored with the flame (row key ``autoignition_screen_delay_s``)
+    when there is one, else computes it (stores written before it was stored)."""
+    if row.get("status") != "ok":
         return ""
-    if tau < t_max:
+    S_L, d_mm = row.get("laminar_flame_speed_m_s"), row.get("thermal_thickness_mm")
+    if "autoignition_screen_delay_s" in row:
+        tau = row["autoignition_screen_delay_s"]
+    else:
+        tau = autoignition_screen(mechanism_path, X, T_u, P, S_L, d_mm * 1e-3 if d_mm else None,
+                                  row.get("adiabatic_flame_temperature_K"))
+    if tau is None or not S_L or not d_mm:
+        return ""
+    transit = d_mm * 1e-3 / S_L
+    if tau < min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S):
         return (f"autoignition: ignition delay {tau:.2g} s at {T_u:g} K is within {tau / transit:.0f} flame "
                 f"transit times ({transit:.2g} s; needs >> 1): the mixture ignites before the flame arrives, "
                 "a freely propagating flame does not apply")

@@ -363,9 +363,10 @@ class Store:
 
         A write SQLite refuses (another program holds the file locked for longer than
         BUSY_TIMEOUT_S, a full disk) is a StoreError; the transaction is rolled back, so
-        every point committed before stays. Returns the stored profile bytes (None: none).
+        every point committed before stays. The profile comes encoded (``profile_blob``,
+        as workers send it) or as arrays (``profile``). Returns the stored bytes (None: none).
         """
-        blob = pack_profile(result["profile"])
+        blob = result["profile_blob"] if "profile_blob" in result else pack_profile(result.get("profile"))
         row = (point.key, point.family, json.dumps(result["inputs"], sort_keys=True), point.phi,
                point.pressure_bar, point.T_u, str(result["status"]), result["message"], result["start"],
                json.dumps(result["metrics"]) if result["metrics"] is not None else None,

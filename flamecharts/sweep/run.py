@@ -255,7 +255,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
                         continue
                     result["inputs"] = p.inputs
                     if not study.keep_profiles:
-                        result["profile"] = None
+                        result["profile_blob"] = None
                     # an in-run warm start gets exactly what the store gives back to a resumed run
                     loop.keep(p.index, unpack_profile(store.commit_point(p, result, loop.run_id)))
                     loop.sched.finished(p.index)

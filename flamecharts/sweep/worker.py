@@ -16,7 +16,9 @@ import time
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
+from ..chemistry.ignition import autoignition_screen
 from ..chemistry.mechanism import solution
+from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
 
@@ -73,5 +75,13 @@ def solve_task(task: dict) -> dict:
                          task["thermal_diffusion"], NUMERICS[task["resolution"]], task.get("warm"),
                          task.get("time_limit_s"))
     result["key"] = task["key"]
+    m = result.get("metrics")
+    if result.get("status") == "ok" and m:
+        m["autoignition_screen_delay_s"] = autoignition_screen(
+            task["mechanism_path"], task["X"], task["T_u"], task["P"], m.get("laminar_flame_speed_m_s"),
+            m.get("thermal_thickness_m"), m.get("adiabatic_flame_temperature_K"))
+    # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
+    # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
+    result["profile_blob"] = pack_profile(result.pop("profile", None))
     result["cpu_seconds"] = time.process_time() - cpu0
     return result

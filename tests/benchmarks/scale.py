@@ -23,8 +23,9 @@ Sections (one function each, ``SECTIONS``; a section returns a dict of figures):
 - outputs: per size of ``--sizes``, a store of the planning study (with a cooktop-like
   burner, so the margin charts are drawn too) filled with real h2o2 flames (12 solved
   here, then copied under every point's key: no 100,000 flames are solved). Commits
-  through ``Store.commit_point`` (profile encoding included) are timed on the empty store
-  and again on the full one; the rest is filled in one transaction. Then, in a child
+  as the run loop makes them (``Store.commit_point`` of a worker's encoded profile, then
+  its decoding for the in-run warm starts) are timed on the empty store and again on the
+  full one; the rest is filled in one transaction. Then, in a child
   process (its peak memory is the figure), each step of the read-out: the rows
   (``results.rows_from_dir``), the dataset, results.csv, results.nc, the charts and
   report.html, with the report's size.
@@ -300,12 +301,11 @@ def _fill(out: Path, study, sources: list[dict]) -> dict:
     def source_of(p):
         return min(pool, key=lambda r: (r["family"] != p.family, abs(r["phi"] - p.phi)))
 
-    def result_of(p, src, profile=None):
+    def result_of(p, src):  # as a worker sends it: the profile already encoded
         return {"inputs": p.inputs, "status": src["status"], "message": src["message"], "start": src["start"],
                 "metrics": _json.loads(src["metrics"]), "solve_seconds": src["solve_seconds"],
-                "reason": src["reason"], "profile": profile}
+                "reason": src["reason"], "profile_blob": src["profile"]}
 
-    decoded = {r["key"]: unpack_profile(r["profile"]) for r in pool}
     run_id = uuid.uuid4().hex[:12]
     n = len(pts)
     first, last = pts[:TIMED_COMMITS], pts[max(TIMED_COMMITS, n - TIMED_COMMITS):]
@@ -314,7 +314,7 @@ def _fill(out: Path, study, sources: list[dict]) -> dict:
         t0 = time.perf_counter()
         for p in first:
             src = source_of(p)
-            store.commit_point(p, result_of(p, src, decoded[src["key"]]), run_id)
+            unpack_profile(store.commit_point(p, result_of(p, src), run_id))  # what the run loop does
         t_first = time.perf_counter() - t0
         with store.db:
             store.db.executemany("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", (
@@ -324,18 +324,25 @@ def _fill(out: Path, study, sources: list[dict]) -> dict:
         t0 = time.perf_counter()
         for p in last:
             src = source_of(p)
-            store.commit_point(p, result_of(p, src, decoded[src["key"]]), run_id)
+            unpack_profile(store.commit_point(p, result_of(p, src), run_id))  # what the run loop does
         t_last = time.perf_counter() - t0
     return {"points": n, "commit_ms_empty_store": 1e3 * t_first / max(len(first), 1),
             "commit_ms_full_store": 1e3 * t_last / max(len(last), 1),
             "db_mb": (out / DB_NAME).stat().st_size / 2**20}
 
 
+def peak_rss_mb() -> float:
+    """This process's peak resident memory so far [MB] (Linux VmHWM; unlike ru_maxrss it does
+    not inherit the parent's peak across fork and exec)."""
+    for line in Path("/proc/self/status").read_text().splitlines():
+        if line.startswith("VmHWM:"):
+            return int(line.split()[1]) / 1024
+    return float("nan")
+
+
 def outputs_child(out: Path) -> dict:
     """Each read-out step on the store in ``out`` (run in a child process): seconds and the
     process's peak resident memory after it [MB]."""
-    import resource
-
     from flamecharts.design import fuel_gas_table
     from flamecharts.outputs.charts import draw_all
     from flamecharts.outputs.netcdf import write_netcdf
@@ -348,10 +355,10 @@ def outputs_child(out: Path) -> dict:
     def step(name, fn, *a):
         value, secs = timed(fn, *a)
         figures[f"{name}_s"] = secs
-        figures[f"{name}_peak_rss_mb"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+        figures[f"{name}_peak_rss_mb"] = peak_rss_mb()
         return value
 
-    figures["start_peak_rss_mb"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    figures["start_peak_rss_mb"] = peak_rss_mb()
     study, rows = step("read_rows", rows_from_dir, out)
     ds = step("dataset", to_dataset, study, rows)
     step("csv", write_csv, rows, out / "results.csv")
