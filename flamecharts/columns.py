@@ -90,6 +90,17 @@ UNITS: dict[str, tuple[str, str]] = {
     "ignition_delay_ms": ("ms", "constant-pressure ignition delay of the fresh mixture (time of max dT/dt)"),
     "autoignition_margin": ("1", "ignition delay over premixer residence time"),
     "autoignition_verdict": ("", "ok or autoignition risk (margin below the premixer's minimum)"),
+    "lewis_number_fuel": ("1", "Lewis number of the fuel in the fresh mixture (blends: heat-release weighted, "
+                               "Law et al. 2005)"),
+    "lewis_number_oxygen": ("1", "Lewis number of O2 in the fresh mixture"),
+    "zeldovich_number": ("1", "Zeldovich number from the mass burning rate against T_ad by inert dilution "
+                              "(Egolfopoulos & Law 1990; [flame_response])"),
+    "effective_lewis_number": ("1", "effective Lewis number of the two reactants (Matalon, Cui & Bechtold 2003)"),
+    "markstein_number_unburned": ("1", "Markstein number relative to the unburned gas, hydrodynamic theory "
+                                       "(Clavin & Williams 1982)"),
+    "markstein_length_mm": ("mm", "Markstein length Ma_u alpha_u / S_L"),
+    "instability": ("", "thermodiffusive regime by Ze (Le_eff - 1) (Sivashinsky 1977): cellular, pulsating or "
+                        "stable; every flame is also hydrodynamically unstable"),
     "limit": ("", "which limit: max_blend_fraction, lean_edge_equivalence_ratio, rich_edge_equivalence_ratio"),
     "limit_value": ("1", "the limit: admissible end of the final bracket (blend fraction or equivalence ratio)"),
     "outcome": ("", "found, whole range, beyond swept range, none admissible or stopped"),
@@ -125,6 +136,9 @@ BURNER_COLUMNS = (
 
 #: Premixer autoignition columns (empty unless the study has a [premixer] table).
 PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+#: How the flame responds to stretch (physics.flame_response); Ze and what needs it with [flame_response].
+RESPONSE_COLUMNS = ("lewis_number_fuel", "lewis_number_oxygen", "zeldovich_number", "effective_lewis_number",
+                    "markstein_number_unburned", "markstein_length_mm", "instability")
 
 #: results.csv, one row per point, in this order.
 COLUMNS = (
@@ -134,7 +148,7 @@ COLUMNS = (
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
+) + INDICATOR_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
 
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (
@@ -165,6 +179,9 @@ FROM_METRICS = {
     "unburned_density_kg_m3": ("unburned_density_kg_m3", 1.0),
     "unburned_thermal_diffusivity_m2_s": ("unburned_thermal_diffusivity_m2_s", 1.0),
     "grid_points": ("grid_points", 1),
+    "lewis_number_fuel": ("lewis_number_fuel", 1.0),
+    "lewis_number_oxygen": ("lewis_number_oxygen", 1.0),
+    "zeldovich_number": ("zeldovich_number", 1.0),
 }
 
 

@@ -51,7 +51,7 @@ RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles")
+            "limits", "premixer", "keep_profiles", "flame_response")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -72,6 +72,9 @@ DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 #: Flames one limit search may solve before it stops and reports its bracket.
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
+FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
+#: Default step of the inert's mole fraction for the Zeldovich flames.
+from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 #: Default required autoignition margin (ignition delay over premixer residence time;
 #: common practice without source: set your own).
 DEFAULT_MIN_AUTOIGNITION_MARGIN = 3.0
@@ -157,6 +160,16 @@ class Premixer:
 
 
 @dataclass(frozen=True)
+class FlameResponse:
+    """The [flame_response] request: two extra flames per point with the inert's mole
+    fraction moved by ``inert_step`` either way give the Zeldovich number, and with it the
+    effective Lewis number, the Markstein number and the thermodiffusive regime."""
+
+    zeldovich: bool = True
+    inert_step: float = DEFAULT_INERT_STEP
+
+
+@dataclass(frozen=True)
 class GasQuality:
     """Reference state of the fuel-gas properties and the allowed Wobbe band."""
 
@@ -206,6 +219,7 @@ class Study:
     limits: "Limits | None" = None
     premixer: "Premixer | None" = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
+    flame_response: "FlameResponse | None" = None
 
     @property
     def n_points(self) -> int:
@@ -462,6 +476,20 @@ def _premixer(t: Any) -> Premixer:
     return Premixer(residence_time_s=tau, **({} if m is None else {"min_autoignition_margin": m}))
 
 
+def _flame_response(t: Any) -> FlameResponse:
+    if not isinstance(t, dict):
+        raise ConfigError("'flame_response' must be a table")
+    _check_keys(t, FLAME_RESPONSE_KEYS, "flame_response.")
+    z = t.get("zeldovich", True)
+    if not isinstance(z, bool):
+        raise ConfigError(f"'flame_response.zeldovich' must be true or false, got {show(z)}")
+    step = _positive(t, "inert_step", "flame_response")
+    if step is not None and step > 0.1:
+        raise ConfigError(f"'flame_response.inert_step' is {step:g}; allowed: above 0, at most 0.1 (a mole "
+                          "fraction of the mixture: 0.5 % is 0.005)")
+    return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
+
+
 def _gas_quality(g: Any) -> GasQuality:
     if not isinstance(g, dict):
         raise ConfigError("'gas_quality' must be a table")
@@ -656,6 +684,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     cluster = check_cluster_spec(data["cluster"]) if "cluster" in data else None
     limits = _limits(data["limits"], burner, blend_with) if "limits" in data else None
     premixer = _premixer(data["premixer"]) if "premixer" in data else None
+    flame_response = _flame_response(data["flame_response"]) if "flame_response" in data else None
 
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
@@ -666,7 +695,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
         gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data,
-        limits=limits, premixer=premixer, keep_profiles=keep_profiles)
+        limits=limits, premixer=premixer, keep_profiles=keep_profiles, flame_response=flame_response)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -16,6 +16,7 @@ from .chemistry.mechanism import fallback_data, molar_masses, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
+from .physics import flame_response as fr
 from .physics import indicators as ind
 from .physics import mixtures
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
@@ -184,6 +185,7 @@ def annotate(study, rows: list[dict]) -> list[dict]:
         r.update(dict.fromkeys(INDICATOR_COLUMNS))
         if r["status"] == "ok":
             r.update(_indicators(r, s))
+        r.update(response_columns(r))
     index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
               r["unburned_temperature_K"]): r for r in rows}
     has_zero = 0.0 in study.blend_fractions
@@ -203,12 +205,42 @@ def annotate(study, rows: list[dict]) -> list[dict]:
     return rows
 
 
+def response_columns(row: dict) -> dict:
+    """Effective Lewis number, Markstein number and length, and the thermodiffusive regime of
+    a burning point from its stored Lewis and Zeldovich numbers (physics.flame_response);
+    None where one is missing (Ze is there only with [flame_response])."""
+    out = dict.fromkeys(("effective_lewis_number", "markstein_number_unburned", "markstein_length_mm", "instability"))
+    ze, le_f, le_o = row.get("zeldovich_number"), row.get("lewis_number_fuel"), row.get("lewis_number_oxygen")
+    if row["status"] != "ok" or None in (ze, le_f, le_o) or not ze > 0:
+        return out
+    phi = row["equivalence_ratio"]
+    lean = phi <= 1.0  # the fuel is the deficient reactant
+    le_eff = fr.effective_lewis_number(le_o if lean else le_f, le_f if lean else le_o, ze, 1.0 / phi if lean else phi)
+    ma = fr.markstein_number_unburned(row["expansion_ratio"], ze, le_eff)
+    delta_mm = 1e3 * row["unburned_thermal_diffusivity_m2_s"] / row["laminar_flame_speed_m_s"]
+    out.update(effective_lewis_number=le_eff, markstein_number_unburned=ma, markstein_length_mm=ma * delta_mm,
+               instability=fr.thermodiffusive_regime(ze, le_eff))
+    return out
+
+
+def instability_warning(row: dict) -> str:
+    """'' or a warning where the flame is thermodiffusively unstable (cellular): it burns
+    faster than its S_L, so every S_L-based indicator understates the risk."""
+    if row.get("instability") != "cellular":
+        return ""
+    reduced = row["zeldovich_number"] * (row["effective_lewis_number"] - 1.0)
+    return (f"thermodiffusively unstable: Ze (Le_eff - 1) = {reduced:.1f} < {fr.CELLULAR_THRESHOLD:g} (cellular, "
+            "Sivashinsky 1977): the real flame wrinkles and runs faster than S_L; flashback risk underestimated "
+            "by the S_L-based indicators")
+
+
 def point_warnings(study, point, row: dict) -> str:
     """All warnings of one point, joined by '; ' ('' when it is inside every range)."""
     out = [pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
-           autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row)]
+           autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row),
+           instability_warning(row)]
     return "; ".join(w for w in out if w)
 
 

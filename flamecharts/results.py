@@ -28,6 +28,7 @@ import xarray as xr
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
 from .chemistry.mechanism import viscosity
+from .chemistry.response import lewis_numbers_of
 from .config import Study, load_config_copy, lumping_note, resolution_label
 from .design import annotate, point_warnings, premixer_columns
 from .errors import StoreError
@@ -73,6 +74,11 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
     with the design indicators, fuel-gas properties and burner margins added, and the
     range warnings of each point (column 'warnings', see design.point_warnings)."""
     flat = [flat_row(study, p, stored.get(p.key)) for p in pts]
+    for p, r in zip(pts, flat):  # stores written before the workers stored the Lewis numbers
+        if r["status"] == "ok" and r["lewis_number_fuel"] is None:
+            X = tuple(sorted((k, float(v)) for k, v in p.X_unburned.items() if v > 0))
+            r["lewis_number_fuel"], r["lewis_number_oxygen"] = lewis_numbers_of(study.mechanism_path, X, float(p.T_u),
+                                                                                float(p.P))
     if study.burner is not None:  # the port's Reynolds number decides laminar or turbulent wall gradient
         for p, r in zip(pts, flat):
             r["unburned_viscosity_Pa_s"] = unburned_viscosity(study, p)

@@ -218,6 +218,45 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
                      f"{s['points'] - s['risky_points']} of {s['points']}"] for s in summary], {1, 2, 4}) + more]
 
 
+def _response_section(study, rows: list[dict]) -> list[str]:
+    """Flame response to stretch per gas and condition: Lewis numbers, and with [flame_response]
+    the Zeldovich and Markstein numbers and where the flame is thermodiffusively unstable."""
+    ok = [r for r in rows if r["status"] == "ok" and r.get("lewis_number_fuel") is not None]
+    if not ok:
+        return []
+    groups: dict[tuple, list[dict]] = {}
+    for r in ok:
+        groups.setdefault((gas_label(r), r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
+    table = []
+    for (gas, ox, P, T), rs in groups.items():
+        rs = sorted(rs, key=lambda r: r["equivalence_ratio"])
+        cellular = [r["equivalence_ratio"] for r in rs if r.get("instability") == "cellular"]
+        ze = [r["zeldovich_number"] for r in rs if r.get("zeldovich_number") is not None]
+        ma = [(r["markstein_number_unburned"], r["equivalence_ratio"]) for r in rs
+              if r.get("markstein_number_unburned") is not None]
+        table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}",
+                      f"{min(r['lewis_number_fuel'] for r in rs):.2f}-{max(r['lewis_number_fuel'] for r in rs):.2f}",
+                      f"{min(ze):.1f}-{max(ze):.1f}" if ze else "",
+                      f"{min(ma)[0]:+.2f} (φ {min(ma)[1]:g})" if ma else "",
+                      ", ".join(f"{v:g}" for v in cellular) if cellular else ("none" if ze else "")])
+    table, more = _first(table, "results.csv")
+    asked = study.flame_response is not None and study.flame_response.zeldovich
+    return ["<h2 id='flame-response'>Flame response to stretch</h2>",
+            "<p>Lean hydrogen-rich flames (Lewis number of the deficient reactant well below 1) burn faster where "
+            "they are stretched or curved than their unstretched S_L: they wrinkle into cells and flash back earlier "
+            "than the S_L-based indicators say. Lewis numbers of the fresh mixture (mixture-averaged transport; "
+            "blends weighted by heat release, Law et al. 2005)"
+            + ("; Zeldovich number from two extra flames per point with the inert moved "
+               f"{study.flame_response.inert_step:g} either way (Egolfopoulos &amp; Law 1990); effective Lewis number "
+               "(Matalon, Cui &amp; Bechtold 2003); Markstein number relative to the unburned gas (Clavin &amp; "
+               "Williams 1982); cellular where Ze (Le_eff - 1) &lt; -2 (Sivashinsky 1977). Theoretical numbers: "
+               "compare signs and trends with measurements, not values."
+               if asked else ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
+                             "and the instability flag (two extra flames per point).") + "</p>",
+            _table(["gas", "p [bar]", "T_u [K]", "Le fuel", "Ze", "lowest Ma_u (φ)", "cellular at φ"], table, {1, 2})
+            + more]
+
+
 def _limits_section(study, limits: list[dict]) -> list[str]:
     """The [limits] answers: one sentence per search, then how they were found."""
     if not limits:
@@ -267,6 +306,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
 
+    parts += _response_section(study, rows)
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
 

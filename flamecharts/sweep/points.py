@@ -60,8 +60,9 @@ class Point:
 
 
 def settings_of(study: Study) -> dict:
-    """Everything study-wide that changes a flame's answer."""
-    return {
+    """Everything study-wide that changes a flame's answer (the Zeldovich flames only when
+    asked for, so the keys of studies without them stay as they were)."""
+    out = {
         "mechanism_sha256": study.mechanism_sha256,
         "cantera": cantera_version(),
         "transport": study.transport,
@@ -69,6 +70,15 @@ def settings_of(study: Study) -> dict:
         "numerics": NUMERICS[study.resolution].as_dict(),
         "measure_version": MEASURE_VERSION,
     }
+    if zeldovich_step(study) is not None:
+        out["zeldovich_inert_step"] = _num(zeldovich_step(study))
+    return out
+
+
+def zeldovich_step(study: Study) -> float | None:
+    """The inert step of the study's Zeldovich flames, None when it asks for none."""
+    fr = study.flame_response
+    return fr.inert_step if fr is not None and fr.zeldovich else None
 
 
 def _hash(obj) -> str:

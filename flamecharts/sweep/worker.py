@@ -17,13 +17,16 @@ from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen
+from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
 from .lifeline import exit_with
+from .points import zeldovich_step
 from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
-WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "physics/flame_measures.py", "sweep/worker.py")
+WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
+               "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
 
 
 def code_fingerprint() -> str:
@@ -64,7 +67,22 @@ def make_task(study, point, warm: dict | None) -> dict:
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
             "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm,
-            "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms))}
+            "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms)),
+            "zeldovich_step": zeldovich_step(study)}
+
+
+def _flame_response(gas, task: dict, base: dict) -> dict:
+    """Lewis numbers of the fresh mixture and, when the study asks, the Zeldovich flames."""
+    mixed = solution(task["mechanism_path"], "mixture-averaged", task["mechanism_sha256"])
+    le_fuel, le_o2 = lewis_numbers(mixed, task["X"], task["T_u"], task["P"])
+    out = {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2}
+    if task.get("zeldovich_step"):
+        def solve(X, warm):
+            return solve_flame(gas, task["T_u"], task["P"], X, task["transport"], task["thermal_diffusion"],
+                               NUMERICS[task["resolution"]], warm, task.get("time_limit_s"))
+        out.update(zeldovich_flames(solve, task["X"], list(gas.species_names), task["T_u"], base,
+                                    task["zeldovich_step"]))
+    return out
 
 
 def solve_task(task: dict) -> dict:
@@ -80,6 +98,8 @@ def solve_task(task: dict) -> dict:
         m["autoignition_screen_delay_s"] = autoignition_screen(
             task["mechanism_path"], task["X"], task["T_u"], task["P"], m.get("laminar_flame_speed_m_s"),
             m.get("thermal_thickness_m"), m.get("adiabatic_flame_temperature_K"))
+        m.update(_flame_response(gas, task, result))
+        result["solve_seconds"] += m.get("zeldovich_seconds", 0.0)  # the point's cost, for run-time estimates
     # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
     # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
     result["profile_blob"] = pack_profile(result.pop("profile", None))

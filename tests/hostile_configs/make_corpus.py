@@ -212,6 +212,12 @@ CASES = {
     "keep_profiles_not_a_flag": (["'keep_profiles'", "true or false"], 'keep_profiles = "no"\n' + config()),
     "premixer_residence_in_seconds": (["premixer.residence_time_ms", "milliseconds"],
                                       config(tail='\n[premixer]\nresidence_time_ms = 40000\n')),
+    "flame_response_step_in_percent": (["flame_response.inert_step", "at most 0.1"],
+                                       config(tail='\n[flame_response]\ninert_step = 0.5\n')),
+    "flame_response_unknown_key": (["flame_response.markstein"],
+                                   config(tail='\n[flame_response]\nmarkstein = true\n')),
+    "flame_response_not_a_flag": (["flame_response.zeldovich", "true or false"],
+                                  config(tail='\n[flame_response]\nzeldovich = "yes"\n')),
 }
 
 
