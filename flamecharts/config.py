@@ -51,7 +51,7 @@ RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response")
+            "limits", "premixer", "keep_profiles", "flame_response", "stretch")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -73,6 +73,10 @@ DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
+#: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
+STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
+#: Most strained-flame ladders one study may ask for (each is 10-40 flames).
+MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
 from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 #: Default required autoignition margin (ignition delay over premixer residence time;
@@ -170,6 +174,24 @@ class FlameResponse:
 
 
 @dataclass(frozen=True)
+class Stretch:
+    """The [stretch] request: the swept mixtures (a subset of each sweep axis) that get a
+    twin counterflow flame ladder from low strain to extinction (chemistry.strained)."""
+
+    fuels: tuple[str, ...]
+    oxidizers: tuple[str, ...]
+    blend_fractions: tuple[float, ...]
+    equivalence_ratios: tuple[float, ...]
+    pressures_bar: tuple[float, ...]
+    unburned_temperatures_K: tuple[float, ...]
+
+    @property
+    def n_ladders(self) -> int:
+        return (len(self.fuels) * len(self.oxidizers) * len(self.blend_fractions) * len(self.equivalence_ratios)
+                * len(self.pressures_bar) * len(self.unburned_temperatures_K))
+
+
+@dataclass(frozen=True)
 class GasQuality:
     """Reference state of the fuel-gas properties and the allowed Wobbe band."""
 
@@ -220,6 +242,7 @@ class Study:
     premixer: "Premixer | None" = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
     flame_response: "FlameResponse | None" = None
+    stretch: "Stretch | None" = None
 
     @property
     def n_points(self) -> int:
@@ -490,6 +513,39 @@ def _flame_response(t: Any) -> FlameResponse:
     return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
 
 
+def _stretch(t: Any, axes: dict[str, tuple]) -> Stretch:
+    """The [stretch] table: each key a subset of its sweep axis (default: the whole axis,
+    except equivalence_ratio, which must be given)."""
+    if not isinstance(t, dict):
+        raise ConfigError("'stretch' must be a table")
+    _check_keys(t, STRETCH_KEYS, "stretch.")
+    if "equivalence_ratio" not in t:
+        raise ConfigError("[stretch] needs 'equivalence_ratio': the swept values that get a strained-flame ladder "
+                          f"(allowed: {', '.join(f'{v:g}' for v in axes['equivalence_ratio'])})")
+    chosen = {}
+    for key in STRETCH_KEYS:
+        allowed = axes[key]
+        if key not in t:
+            chosen[key] = allowed
+        elif key in ("fuel", "oxidizer"):
+            chosen[key] = _string_list(t[key], f"stretch.{key}", allowed)
+        else:
+            values = _axis(t[key], f"stretch.{key}")
+            for v in values:
+                if not any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12) for a in allowed):
+                    raise ConfigError(f"'stretch.{key}' lists {v:g}, which the sweep does not have; allowed: "
+                                      f"{', '.join(f'{a:g}' for a in allowed)}")
+            chosen[key] = tuple(a for a in allowed if any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12)
+                                                          for v in values))
+    st = Stretch(fuels=chosen["fuel"], oxidizers=chosen["oxidizer"], blend_fractions=chosen["blend_fraction"],
+                 equivalence_ratios=chosen["equivalence_ratio"], pressures_bar=chosen["pressure_bar"],
+                 unburned_temperatures_K=chosen["unburned_temperature_K"])
+    if st.n_ladders > MAX_STRETCH_LADDERS:
+        raise ConfigError(f"[stretch] asks for {st.n_ladders} strained-flame ladders, more than {MAX_STRETCH_LADDERS} "
+                          "(each is 10-40 flames): choose fewer equivalence ratios, blends, pressures or preheats")
+    return st
+
+
 def _gas_quality(g: Any) -> GasQuality:
     if not isinstance(g, dict):
         raise ConfigError("'gas_quality' must be a table")
@@ -685,6 +741,10 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     limits = _limits(data["limits"], burner, blend_with) if "limits" in data else None
     premixer = _premixer(data["premixer"]) if "premixer" in data else None
     flame_response = _flame_response(data["flame_response"]) if "flame_response" in data else None
+    stretch = _stretch(data["stretch"], {
+        "fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
+        "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures,
+    }) if "stretch" in data else None
 
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
@@ -695,7 +755,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
         gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data,
-        limits=limits, premixer=premixer, keep_profiles=keep_profiles, flame_response=flame_response)
+        limits=limits, premixer=premixer, keep_profiles=keep_profiles, flame_response=flame_response,
+        stretch=stretch)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

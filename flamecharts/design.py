@@ -173,6 +173,8 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
         out.update(bluff_body_blowoff_velocity_m_s=U_bo, stabilizer_margin=U_bo / b.approach_velocity_m_s)
         if U_bo / b.approach_velocity_m_s < b.min_stabilizer_margin:
             risks.append("stabilizer blowoff risk")
+    if r.get("instability") == "cellular":  # [flame_response]: the thermal criterion is optimistic here
+        risks.append("flashback risk underestimated (thermodiffusively unstable)")
     out["verdict"] = " and ".join(risks) if risks else "ok"
     return out
 

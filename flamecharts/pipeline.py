@@ -21,6 +21,7 @@ from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, solve_points
+from .sweep.stretch import solve_stretch, stretch_rows
 
 
 @dataclass
@@ -39,6 +40,8 @@ class RunSummary:
     workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (the study's [limits] table)
     limit_flames: int = 0       # flames the limit searches solved in this run (stored ones not counted)
+    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (the study's [stretch] table)
+    stretch_ladders: int = 0    # strained-flame ladders solved in this run
 
     @property
     def worker_utilisation(self) -> float | None:
@@ -65,7 +68,8 @@ def _out_folder(study: Study, out_dir) -> Path:
 def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
                 progress: Callable[[Progress], None] | None = None, cluster: str | None = None,
                 stop_after: int | None = None,
-                limits_progress: Callable[[LimitsProgress], None] | None = None) -> RunSummary:
+                limits_progress: Callable[[LimitsProgress], None] | None = None,
+                stretch_progress: Callable[[int, int], None] | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
 
     Then, when the study has a [limits] table, run its limit searches: each asks for
@@ -95,6 +99,11 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                     limit_solved[0] += n
                     return n
                 limits = find_limits(study, rows, store, solve, limits_progress)
+            stretch, ladders = [], 0
+            if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
+                by_key = {r["point_key"]: r for r in rows}
+                ladders = solve_stretch(study, store, pts, by_key, backend, stretch_progress)
+                stretch = stretch_rows(study, pts, by_key, store)
         workers = max(1, backend.workers())
     return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
                       failed=sum(1 for r in rows if r["status"] == "failed"),
@@ -102,7 +111,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       wall_seconds=time.perf_counter() - t0,
                       failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
                       solve_seconds=done.solve_seconds, workers=workers, limits=limits,
-                      limit_flames=limit_solved[0])
+                      limit_flames=limit_solved[0], stretch=stretch, stretch_ladders=ladders)
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
@@ -118,7 +127,8 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
 def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None = None, jobs: int | None = None,
         cluster: str | None = None, progress: Callable[[Progress], None] | None = None,
         charts: bool = True, report: bool = True,
-        limits_progress: Callable[[LimitsProgress], None] | None = None) -> Results:
+        limits_progress: Callable[[LimitsProgress], None] | None = None,
+        stretch_progress: Callable[[int, int], None] | None = None) -> Results:
     """Solve every point of a study the store lacks, store each flame, write every output file.
 
     Parameters
@@ -132,6 +142,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     progress : called after each finished flame with a :class:`~flamecharts.sweep.run.Progress`
     charts, report : draw the charts, write report.html (the report needs the charts)
     limits_progress : called after each round of limit flames (studies with [limits])
+    stretch_progress : called with (ladders done, ladders to solve) after each strained-flame ladder
 
     Returns
     -------
@@ -139,14 +150,15 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     The command ``flamecharts run`` calls exactly this.
     """
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
-    summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress)
+    summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress,
+                          stretch_progress=stretch_progress)
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
     from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
 
     files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report, dataset=ds,
-                          limits=summary.limits)
+                          limits=summary.limits, stretch=summary.stretch)
     return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary, table=ds,
-                   limits=summary.limits)
+                   limits=summary.limits, stretch=summary.stretch)
 
 
 def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
@@ -158,7 +170,17 @@ def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> l
         return find_limits(study, rows, store, solve=None)
 
 
+def read_stretch(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
+    """The study's strained-flame ladders from the store in ``out_dir`` alone (nothing is
+    solved; a ladder not solved yet is 'pending'). [] when the study asks for none."""
+    if study.stretch is None:
+        return []
+    with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
+        return stretch_rows(study, points(study), {r["point_key"]: r for r in rows}, store)
+
+
 def open_results(out_dir: str | os.PathLike) -> Results:
     """The results of a finished run folder, read from its store and study copy alone (nothing is solved)."""
     study, rows = rows_from_dir(Path(out_dir))
-    return Results(study=study, rows=rows, out_dir=Path(out_dir), limits=read_limits(study, rows, out_dir))
+    return Results(study=study, rows=rows, out_dir=Path(out_dir), limits=read_limits(study, rows, out_dir),
+                   stretch=read_stretch(study, rows, out_dir))

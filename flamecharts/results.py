@@ -281,6 +281,7 @@ class Results:
     summary: object | None = None
     table: xr.Dataset | None = field(default=None, repr=False)  # the dataset, when already made
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (studies with a [limits] table)
+    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (studies with a [stretch] table)
 
     @property
     def dataset(self) -> xr.Dataset:

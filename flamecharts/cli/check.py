@@ -4,6 +4,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
+from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import kept, planned_searches
 from ..config import load_study, lumping_note
 from ..pipeline import default_out_dir
@@ -15,6 +16,9 @@ from ..sweep.run import unique_points, warm_plan
 from ..sweep.schedule import estimate_run_seconds, flame_seconds
 from ..sweep.warm_tree import warm_tree
 from .tables import print_burner, print_gases, print_points
+
+#: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
+GRI_LADDER_NOTE = "about 30 s a strained flame"
 
 
 def cmd_check(args) -> int:
@@ -60,6 +64,12 @@ def cmd_check(args) -> int:
         print(_estimate_line(study, tree, timings, args.jobs))
     if study.limits is not None:
         print(_limits_line(study, timings, args.jobs))
+    if study.stretch is not None:
+        st = study.stretch
+        print(f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
+              f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep "
+              f"(measured on 2 cores: 7-18 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with GRI-Mech 3.0); "
+              "stored ladders are not solved again")
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
         print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "

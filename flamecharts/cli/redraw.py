@@ -4,14 +4,14 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..outputs import write_outputs
-from ..pipeline import read_limits
+from ..pipeline import read_limits, read_stretch
 from ..results import rows_from_dir
 
 
 def cmd_charts(args, report: bool = False) -> int:
     study, rows = rows_from_dir(Path(args.dir))
     files = write_outputs(study, rows, Path(args.dir), charts=True, report=report,
-                          limits=read_limits(study, rows, args.dir))
+                          limits=read_limits(study, rows, args.dir), stretch=read_stretch(study, rows, args.dir))
     print(f"Wrote {len(files)} files in {args.dir}" + (f"; report: {files[-1]}" if report else ""))
     return 0
 

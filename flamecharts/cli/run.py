@@ -25,7 +25,8 @@ def cmd_run(args) -> int:
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
                       charts=not args.no_charts, report=not args.no_report,
-                      limits_progress=None if args.quiet else _limits_line)
+                      limits_progress=None if args.quiet else _limits_line,
+                      stretch_progress=None if args.quiet else _stretch_line)
         summary = results.summary
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
@@ -66,8 +67,10 @@ def cmd_run(args) -> int:
     print_margins(study, results.dataset)
     print_premixer(study, summary.rows)
     _print_limits(study, summary)
+    _print_stretch(summary)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
-          + (f"; limits: {out / 'limits.csv'}" if summary.limits else "") + ")")
+          + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
+          + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
         if not args.no_report:
@@ -92,6 +95,29 @@ def _print_limits(study, summary) -> None:
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:
         print("  " + limit_sentence(r, study))
+
+
+def _stretch_line(done: int, total: int) -> None:
+    """One plain line per finished strained-flame ladder (stderr, like the progress bar)."""
+    print(f"strained flames: {done} of {plural(total, 'ladder')} done", file=sys.stderr)
+
+
+def _print_stretch(summary) -> None:
+    """The [stretch] ladders, one line each."""
+    if not summary.stretch:
+        return
+    print(f"Strained flames ({plural(len(summary.stretch), 'ladder')}, {summary.stretch_ladders} solved in this run; "
+          "strain = largest |du/dz| ahead of the flame):")
+    for r in summary.stretch:
+        where = (f"{gas_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
+                 f"{r['unburned_temperature_K']:g} K")
+        if r["status"] != "ok":
+            print(f"  {where}: {r['status']} {r['message']}".rstrip())
+            continue
+        ext = (f"goes out above {r['extinction_strain_rate_1_s']:.4g} 1/s" if r["extinction_strain_rate_1_s"]
+               else f"no extinction found ({r['message']})")
+        ma = r["markstein_number_strain"]
+        print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else ""))
 
 
 def _utilisation(summary) -> str:

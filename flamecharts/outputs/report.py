@@ -257,6 +257,38 @@ def _response_section(study, rows: list[dict]) -> list[str]:
             + more]
 
 
+def _stretch_section(study, stretch: list[dict]) -> list[str]:
+    """The [stretch] ladders: extinction strain rate and the measured Markstein number per mixture."""
+    if not stretch:
+        return []
+    table = [[gas_label(r) + f" in {r['oxidizer']}", f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+              f"{r['unburned_temperature_K']:g}", r["status"],
+              _num(None if r["laminar_flame_speed_m_s"] is None else 100 * r["laminar_flame_speed_m_s"], ".1f"),
+              _num(r["extinction_strain_rate_1_s"], ".4g") or (r["message"] if r["status"] == "ok" else ""),
+              _num(r["markstein_number_strain"], "+.2f"), _num(r["effective_lewis_number"], ".2f"),
+              _num(r["markstein_number_unburned"], "+.2f"), _num(r["extinction_strain_margin"], ".3g"),
+              _num(r["strained_flames"], "d"), _num(r["ladder_seconds"], ".0f")] for r in stretch]
+    table, more = _first(table, "stretch.csv")
+    return ["<h2 id='stretch'>Strained flames</h2>",
+            "<p>Twin premixed counterflow flames (Cantera), nozzle to symmetry plane 400 flame thicknesses (2-30 mm) "
+            "α_u/S_L, from a weakly strained flame (nozzle velocity 4 S_L) up by factors of 1.6 in nozzle velocity "
+            "until the flame goes out, then the last step halved (in log) until it is below 2 %. Strain rate: the "
+            "largest axial velocity gradient ahead of the flame (Law's reference strain rate); other definitions "
+            "(global 2U/L, at the flame) give other numbers. Consumption speed: heat released by one flame over "
+            "the fresh mixture's heat of combustion (equals S_L unstrained). Markstein number (strain): -dS_c/dK "
+            "α_u/S_L² over the steps below Karlovitz 0.1. In the hydrodynamic theory a consumption speed answers "
+            "stretch through the thermodiffusive term alone, so its Markstein number has the sign of Le_eff - 1; "
+            "the theoretical Ma_u ([flame_response]) refers to the unburned gas and adds a hydrodynamic term: "
+            "compare signs and trends, not values. Extinction strain rates of a burner's stabilization zone "
+            "are not these numbers: read them as a ranking of mixtures. With a [burner], K_ext is set against the "
+            "strain the burner imposes where its flame is held (the wall velocity gradient at the rim, or approach "
+            "velocity over bluff-body size): a blowoff indicator beside the Karlovitz and Damköhler ones; a "
+            "margin near or below a few means the flame base is strained toward extinction.</p>",
+            _table(["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "K_ext [1/s]", "Ma (strain)",
+                    "Le_eff", "Ma_u (theory)", "K_ext / burner strain", "flames", "time [s]"], table,
+                   {1, 2, 3, 5, 6, 7, 8, 9, 10, 11, 12}) + more]
+
+
 def _limits_section(study, limits: list[dict]) -> list[str]:
     """The [limits] answers: one sentence per search, then how they were found."""
     if not limits:
@@ -278,7 +310,7 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
 
 
 def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None,
-                 limits: list[dict] = ()) -> Path:
+                 limits: list[dict] = (), stretch: list[dict] = ()) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
@@ -307,6 +339,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
 
     parts += _response_section(study, rows)
+    parts += _stretch_section(study, stretch)
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
 

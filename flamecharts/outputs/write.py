@@ -3,7 +3,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ..columns import GAS_TABLE_COLUMNS, LIMIT_COLUMNS
+from ..columns import GAS_TABLE_COLUMNS, LIMIT_COLUMNS, STRETCH_COLUMNS
 from ..design import fuel_gas_table
 from ..results import exponent_table, to_dataset
 from .charts import draw_all
@@ -13,11 +13,11 @@ from .tables import write_about, write_csv
 
 
 def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, report: bool = True,
-                  dataset=None, limits: list[dict] | None = None) -> list[Path]:
+                  dataset=None, limits: list[dict] | None = None, stretch: list[dict] | None = None) -> list[Path]:
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
-    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]). Returns the files written, results.csv first."""
+    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]), ``stretch`` those of stretch.csv ([stretch]). Returns the files written, results.csv first."""
     out = Path(out)
     gases = fuel_gas_table(study)
     ds = to_dataset(study, rows) if dataset is None else dataset
@@ -28,8 +28,10 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
         files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if limits:
         files.append(write_csv(limits, out / "limits.csv", LIMIT_COLUMNS))
+    if stretch:
+        files.append(write_csv(stretch, out / "stretch.csv", STRETCH_COLUMNS))
     if charts:
-        files += draw_all(rows, gases, study, out, ds, limits or [])
+        files += draw_all(rows, gases, study, out, ds, limits or [], stretch or [])
     if charts and report:
-        files.append(write_report(study, rows, out, gases, ds, limits or []))
+        files.append(write_report(study, rows, out, gases, ds, limits or [], stretch or []))
     return files

@@ -18,6 +18,7 @@ from pathlib import Path
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen
 from ..chemistry.response import lewis_numbers, zeldovich_flames
+from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
 from .lifeline import exit_with
@@ -26,6 +27,7 @@ from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
+               "chemistry/strained.py",
                "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
 
 
@@ -83,6 +85,30 @@ def _flame_response(gas, task: dict, base: dict) -> dict:
         out.update(zeldovich_flames(solve, task["X"], list(gas.species_names), task["T_u"], base,
                                     task["zeldovich_step"]))
     return out
+
+
+def stretch_task(task: dict) -> dict:
+    """One strained-flame ladder (chemistry.strained.twin_flame_ladder) from a plain task dict;
+    a plain result dict in the store's form (runs in a worker, like :func:`solve_task`)."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
+    try:
+        ladder = twin_flame_ladder(gas, task["T_u"], task["P"], task["X"], task["S_L"], task["T_ad"],
+                                   task.get("time_limit_s"))
+    except Exception as exc:  # noqa: BLE001 - a ladder that breaks is recorded with its reason
+        ladder, message = None, f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    burning = bool(ladder and ladder["strain_rates_1_s"])
+    if burning:
+        ladder["markstein_number_strain"] = markstein_number_from_strain(
+            ladder["strain_rates_1_s"], ladder["consumption_speeds_m_s"], task["S_L"],
+            ladder["unburned_thermal_diffusivity_m2_s"])
+        message = ladder["message"] or ("extinguished" if ladder["extinction_strain_rate_1_s"] else "")
+    elif ladder is not None:
+        message = f"not converged: {ladder['message']}"
+    return {"key": task["key"], "status": "ok" if burning else "failed",
+            "reason": "" if burning else "not converged", "message": message, "start": "fresh",
+            "metrics": ladder if burning else None, "profile_blob": None,
+            "solve_seconds": time.perf_counter() - t0, "cpu_seconds": time.process_time() - cpu0}
 
 
 def solve_task(task: dict) -> dict:

@@ -218,6 +218,10 @@ CASES = {
                                    config(tail='\n[flame_response]\nmarkstein = true\n')),
     "flame_response_not_a_flag": (["flame_response.zeldovich", "true or false"],
                                   config(tail='\n[flame_response]\nzeldovich = "yes"\n')),
+    "stretch_without_equivalence_ratio": (["[stretch] needs 'equivalence_ratio'", "allowed: 0.8, 1"],
+                                          config(tail='\n[stretch]\npressure_bar = [1.0]\n')),
+    "stretch_fuel_not_swept": (["stretch.fuel", "'diluted'"],
+                               config(tail='\n[stretch]\nequivalence_ratio = [1.0]\nfuel = ["diluted"]\n')),
 }
 
 

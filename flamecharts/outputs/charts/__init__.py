@@ -16,6 +16,7 @@ from ...results import to_dataset
 
 from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
 from . import design_charts  # noqa: F401,I001
+from . import stretch_charts  # noqa: F401,I001
 from .registry import CHARTS, ChartData
 
 #: chart file name -> one-line caption of how to read it (the report prints it)
@@ -23,11 +24,11 @@ CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
 def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None,
-             limits: list[dict] = ()) -> list[Path]:
+             limits: list[dict] = (), stretch: list[dict] = ()) -> list[Path]:
     """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
     ``dataset`` is results.to_dataset of the rows (made here when not given)."""
     data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset,
-                     limits=list(limits))
+                     limits=list(limits), stretch=list(stretch))
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
     written = []

@@ -87,6 +87,7 @@ class ChartData:
     gases: list[dict]
     dataset: xr.Dataset
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
+    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (STRETCH_COLUMNS)
 
     @cached_property
     def every(self) -> dict[str, list]:

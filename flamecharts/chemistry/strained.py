@@ -1,0 +1,166 @@
+"""Strained premixed flames: the twin counterflow flame along a ladder of strain rates, to extinction.
+
+twin_flame_ladder   consumption speed against strain from low strain up to extinction (one task)
+strain_rate         the largest axial velocity gradient ahead of the flame [1/s]
+consumption_speed   integral of the heat release over the fresh mixture's heat of combustion [m/s]
+heat_of_combustion  J/kg of fresh mixture: burned to its HP equilibrium, cooled back to T_u
+
+Two identical premixed flames face each other across a symmetry plane (Cantera's
+CounterflowTwinPremixedFlame: fresh mixture from one nozzle, the plane half a nozzle
+separation away). Raising the nozzle velocity strains the flames until they go out. The
+ladder is one continuation: each step starts from the last converged flame; the step in
+nozzle velocity is cut when a step loses the burning branch, until it is below
+EXTINCTION_RESOLUTION, so the extinction strain rate is bracketed to that resolution.
+"""
+from __future__ import annotations
+
+import math
+import time
+
+import cantera as ct
+import numpy as np
+
+#: Half the nozzle separation (nozzle to symmetry plane) in flame thicknesses alpha_u / S_L:
+#: the same geometry in flame units for every mixture (methane-air at phi 1: about 24 mm;
+#: hydrogen-air: about 8 mm), within HALF_SEPARATION_BOUNDS_M.
+HALF_SEPARATION_THICKNESSES = 400.0
+HALF_SEPARATION_BOUNDS_M = (0.002, 0.03)
+#: First nozzle velocity as a multiple of S_L: the flame well off the nozzle, weakly strained
+#: (Karlovitz number about 2 x 4 / 400 = 0.02).
+FIRST_VELOCITY_FACTOR = 4.0
+#: Factor of the nozzle velocity between ladder steps while the flame burns.
+LADDER_FACTOR = 1.6
+#: The continuation stops refining the extinction bracket when the velocity step is below this
+#: ratio (the extinction strain rate is then known to about 2 %).
+EXTINCTION_RESOLUTION = 1.02
+#: A flame counts as burning while its peak temperature rises above T_u by at least this share
+#: of T_ad - T_u.
+BURNING_SHARE = 0.5
+#: Grid refinement of the strained flames (Cantera's ratio, slope, curve, prune).
+REFINE = dict(ratio=3.0, slope=0.1, curve=0.2, prune=0.03)
+#: Most solves one ladder may make (burning steps and refinement of the extinction bracket).
+MAX_SOLVES = 40
+
+
+def heat_of_combustion(gas, T_u: float, P: float, X) -> float:
+    """Heat released per kg of fresh mixture [J/kg]: h of the fresh mixture minus h of its HP
+    equilibrium products brought back to T_u at frozen composition."""
+    gas.TPX = T_u, P, X
+    h_u = gas.enthalpy_mass
+    gas.equilibrate("HP")
+    Y_b = gas.Y
+    gas.TPY = T_u, P, Y_b
+    return float(h_u - gas.enthalpy_mass)
+
+
+def strain_rate(z, u, T) -> float:
+    """Largest axial velocity gradient |du/dz| ahead of the flame [1/s]: between the nozzle
+    and the axial-velocity minimum that the flame's dilatation makes just ahead of its
+    preheat zone (Law's "reference strain rate"; the flow behind the flame, decelerating to
+    the symmetry plane, is not counted).
+
+    >>> z = np.linspace(0, 1, 11); u = 1 - 0.5 * z; u[6:] = 0.7 + z[6:]; T = np.where(z > 0.55, 2000, 300)
+    >>> round(strain_rate(z, u, T), 3)
+    0.5
+    """
+    z, u, T = np.asarray(z), np.asarray(u), np.asarray(T)
+    rise = T.min() + 0.05 * (T.max() - T.min())
+    front = int(np.argmax(T > rise)) or len(T) - 1   # first point of the temperature rise
+    i_min = int(np.argmin(u[:front + 1]))
+    grad = np.abs(np.diff(u[:i_min + 1]) / np.diff(z[:i_min + 1]))
+    return float(grad.max()) if grad.size else float("nan")
+
+
+def consumption_speed(z, heat_release_W_m3, rho_u: float, q_J_kg: float) -> float:
+    """Consumption speed [m/s]: int q_dot dz / (rho_u q), heat released by one of the twin
+    flames over the heat the fresh mixture carries. Equals S_L for an unstrained flame."""
+    return float(np.trapezoid(heat_release_W_m3, z) / (rho_u * q_J_kg))
+
+
+def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
+                      time_limit_s: float | None = None) -> dict:
+    """Consumption speed against strain rate of the twin premixed flame, to extinction.
+
+    Parameters
+    ----------
+    gas : cantera.Solution of the mechanism with the study's transport (state overwritten)
+    T_u, P, X : fresh mixture [K], [Pa], mole fractions
+    S_L, T_ad : the unstretched flame's speed [m/s] and adiabatic temperature [K] (first
+        velocity and the burning test)
+    time_limit_s : stop refining after this long [s] (the bracket found so far is kept)
+
+    Returns
+    -------
+    dict: strain_rates_1_s, consumption_speeds_m_s, peak_temperatures_K (burning steps, in
+    order), extinction_strain_rate_1_s (the last burning step's strain; None when the flame
+    never went out), extinguished_above_1_s (strain of the nozzle velocity that lost it),
+    solves, message.
+    """
+    t0 = time.perf_counter()
+    gas.TPX = T_u, P, X
+    rho_u = gas.density
+    alpha_u = gas.thermal_conductivity / (rho_u * gas.cp_mass)
+    q = heat_of_combustion(gas, T_u, P, X)
+    gas.TPX = T_u, P, X
+    lo, hi = HALF_SEPARATION_BOUNDS_M
+    width = min(max(HALF_SEPARATION_THICKNESSES * alpha_u / S_L, lo), hi)
+    flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
+    flame.set_refine_criteria(**REFINE)
+    U = FIRST_VELOCITY_FACTOR * S_L
+    factor = LADDER_FACTOR
+    out = {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
+           "extinction_strain_rate_1_s": None, "extinguished_above_1_s": None, "solves": 0, "message": "",
+           "half_separation_m": width, "unburned_thermal_diffusivity_m2_s": alpha_u}
+    saved = None
+    while out["solves"] < MAX_SOLVES:
+        if time_limit_s is not None and time.perf_counter() - t0 > time_limit_s:
+            out["message"] = "time limit: bracket so far"
+            break
+        flame.reactants.mdot = rho_u * U
+        out["solves"] += 1
+        try:
+            flame.solve(loglevel=0, auto=saved is None)
+            burning = flame.T.max() > T_u + BURNING_SHARE * (T_ad - T_u)
+        except ct.CanteraError:
+            burning = False
+        if burning:
+            saved = flame.to_array()
+            out["strain_rates_1_s"].append(strain_rate(flame.grid, flame.velocity, flame.T))
+            out["consumption_speeds_m_s"].append(consumption_speed(flame.grid, flame.heat_release_rate, rho_u, q))
+            out["peak_temperatures_K"].append(float(flame.T.max()))
+            U *= factor
+            continue
+        if saved is None:
+            out["message"] = "no burning twin flame at the first strain rate"
+            break
+        out["extinguished_above_1_s"] = out["strain_rates_1_s"][-1] * factor
+        if factor < EXTINCTION_RESOLUTION:
+            out["extinction_strain_rate_1_s"] = out["strain_rates_1_s"][-1]
+            break
+        U /= factor
+        factor = math.sqrt(factor)
+        U *= factor
+        flame.from_array(saved)
+    else:
+        out["message"] = f"still burning after {MAX_SOLVES} solves"
+    return out
+
+
+def markstein_number_from_strain(strain_rates_1_s, consumption_speeds_m_s, S_L: float, alpha_u: float,
+                                 max_karlovitz: float = 0.1) -> float | None:
+    """Markstein number of the consumption speed against strain, from the low-strain slope [-].
+
+    S_c = S_L - L K with L fitted through the unstretched S_L (K = 0) and the ladder points
+    with Karlovitz number K alpha_u / S_L^2 below ``max_karlovitz`` (linear-response regime);
+    Ma = L / delta with delta = alpha_u / S_L. None with fewer than two such points.
+    Consumption-speed Markstein numbers differ in value from displacement-speed and
+    spherical-flame ones (the reference surface differs); compare signs and trends.
+    """
+    K = np.asarray(strain_rates_1_s, dtype=float)
+    S = np.asarray(consumption_speeds_m_s, dtype=float)
+    low = K * alpha_u / S_L ** 2 < max_karlovitz
+    if low.sum() < 2:
+        return None
+    Kf, Sf = np.concatenate([[0.0], K[low]]), np.concatenate([[S_L], S[low]])
+    slope = np.polyfit(Kf, Sf, 1)[0]
+    return float(-slope * S_L / alpha_u)

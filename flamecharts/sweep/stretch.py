@@ -1,0 +1,158 @@
+"""Strained-flame ladders of the [stretch] request: which, their keys, solving and storing them.
+
+stretch_points   the swept points a [stretch] table selects
+stretch_key      a ladder's store key: the free flame's key and the ladder's settings
+solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each
+stretch_rows     one row per ladder (STRETCH_COLUMNS), from the store
+
+A ladder needs its mixture's unstretched S_L and T_ad, so it runs after the sweep, one task
+per ladder on the same workers (local or Dask), stored in the same table as the free flames
+under its own key (family 'stretch:...', no profile: never a warm-start source).
+"""
+from __future__ import annotations
+
+import hashlib
+import json
+import uuid
+from concurrent.futures import FIRST_COMPLETED, wait
+from dataclasses import dataclass
+
+from ..chemistry import strained
+from ..store import Store
+from .points import Point
+from .schedule import flame_time_limit
+from .worker import stretch_task
+
+#: Everything of chemistry.strained that changes a ladder's answer (part of its key).
+LADDER_SETTINGS = {
+    "version": 1, "half_separation_thicknesses": strained.HALF_SEPARATION_THICKNESSES,
+    "half_separation_bounds_m": list(strained.HALF_SEPARATION_BOUNDS_M),
+    "first_velocity_factor": strained.FIRST_VELOCITY_FACTOR, "ladder_factor": strained.LADDER_FACTOR,
+    "extinction_resolution": strained.EXTINCTION_RESOLUTION, "burning_share": strained.BURNING_SHARE,
+    "refine": strained.REFINE, "max_solves": strained.MAX_SOLVES,
+}
+
+#: Time limit of one ladder, in time limits of one free flame of the mechanism.
+LADDER_TIME_LIMITS = 4.0
+
+
+@dataclass(frozen=True)
+class Ladder:
+    """What the store's commit needs of a ladder (a point's key fields)."""
+
+    key: str
+    family: str
+    phi: float
+    pressure_bar: float
+    T_u: float
+    inputs: dict
+
+
+def stretch_points(study, pts: list[Point]) -> list[Point]:
+    """The points of ``pts`` that the study's [stretch] table selects (none without one)."""
+    st = study.stretch
+    if st is None:
+        return []
+    return [p for p in pts if p.fuel in st.fuels and p.oxidizer in st.oxidizers
+            and p.blend_fraction in st.blend_fractions and p.phi in st.equivalence_ratios
+            and p.pressure_bar in st.pressures_bar and p.T_u in st.unburned_temperatures_K]
+
+
+def stretch_key(point_key: str) -> str:
+    """Store key of the ladder of the free flame ``point_key`` (which already hashes the
+    mechanism, transport, compositions, phi, p, T_u)."""
+    text = json.dumps({"stretch": LADDER_SETTINGS, "point": point_key}, sort_keys=True)
+    return hashlib.sha256(text.encode()).hexdigest()[:32]
+
+
+def _ladder(p: Point) -> Ladder:
+    return Ladder(key=stretch_key(p.key), family=f"stretch:{p.family}", phi=p.phi, pressure_bar=p.pressure_bar,
+                  T_u=p.T_u, inputs={"stretch_of": p.key})
+
+
+def _task(study, p: Point, row: dict) -> dict:
+    return {"key": stretch_key(p.key), "mechanism_path": study.mechanism_path,
+            "mechanism_sha256": study.mechanism_sha256, "transport": study.transport, "T_u": p.T_u, "P": p.P,
+            "X": p.X_unburned, "S_L": row["laminar_flame_speed_m_s"], "T_ad": row["adiabatic_flame_temperature_K"],
+            "time_limit_s": LADDER_TIME_LIMITS * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
+
+
+def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend,
+                  progress=None) -> int:
+    """Solve the ladder of every selected point whose free flame burns and whose ladder the
+    store lacks; commit each as it finishes. Returns how many were solved."""
+    stored = store.keys()
+    todo = [p for p in stretch_points(study, pts)
+            if rows_by_key.get(p.key, {}).get("status") == "ok" and stretch_key(p.key) not in stored]
+    if not todo:
+        return 0
+    executor = backend.executor(study)
+    run_id = uuid.uuid4().hex[:12]
+    in_flight = {executor.submit(stretch_task, _task(study, p, rows_by_key[p.key])): p for p in todo}
+    done_n = 0
+    while in_flight:
+        done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
+        for fut in done:
+            p = in_flight.pop(fut)
+            try:
+                result = fut.result()
+            except Exception as exc:  # noqa: BLE001 - the worker died: record it, the next run tries again
+                result = {"status": "failed", "reason": "worker error", "start": "fresh", "metrics": None,
+                          "message": f"worker error: {type(exc).__name__}", "solve_seconds": 0.0, "profile_blob": None}
+            ladder = _ladder(p)
+            store.commit_point(ladder, {**result, "inputs": ladder.inputs}, run_id)
+            done_n += 1
+            if progress is not None:
+                progress(done_n, len(todo))
+    return done_n
+
+
+def characteristic_strain(study, row: dict) -> float | None:
+    """Strain rate the burner imposes where its flame is held [1/s]: the wall velocity gradient
+    at the port rim, or U/D of a bluff-body stabilizer (the order of its shear-layer strain);
+    None without a [burner]. An order of magnitude, not the local strain of a real flame base."""
+    b = study.burner
+    if b is None:
+        return None
+    if b.on_stabilizer:
+        return b.approach_velocity_m_s / b.stabilizer_size_m
+    return row.get("wall_velocity_gradient_1_s")
+
+
+def stretch_rows(study, pts: list[Point], rows_by_key: dict[str, dict], store: Store) -> list[dict]:
+    """One row per selected ladder (STRETCH_COLUMNS), in study order; ladders not solved yet
+    (or whose free flame does not burn) have status 'pending' or the free flame's status."""
+    selected = stretch_points(study, pts)
+    stored = store.rows([stretch_key(p.key) for p in selected])
+    out = []
+    for p in selected:
+        free = rows_by_key.get(p.key, {})
+        s = stored.get(stretch_key(p.key))
+        m = (s or {}).get("metrics") or {}
+        S_L = free.get("laminar_flame_speed_m_s")
+        out.append({
+            "fuel": p.fuel, "oxidizer": p.oxidizer, "blend_with": p.blend_with or "", "blend_fraction": p.blend_fraction,
+            "equivalence_ratio": p.phi, "pressure_bar": p.pressure_bar, "unburned_temperature_K": p.T_u,
+            "status": s["status"] if s else ("pending" if free.get("status") == "ok" else "no free flame"),
+            "laminar_flame_speed_m_s": S_L,
+            "extinction_strain_rate_1_s": m.get("extinction_strain_rate_1_s"),
+            "extinguished_above_1_s": m.get("extinguished_above_1_s"),
+            "markstein_number_strain": m.get("markstein_number_strain"),
+            "effective_lewis_number": free.get("effective_lewis_number"),
+            "markstein_number_unburned": free.get("markstein_number_unburned"),
+            "characteristic_strain_1_s": characteristic_strain(study, free),
+            "half_separation_mm": 1e3 * m["half_separation_m"] if m.get("half_separation_m") else None,
+            "strained_flames": m.get("solves"), "ladder_seconds": round(s["solve_seconds"], 2) if s else None,
+            "strain_rates_1_s": " ".join(f"{k:.6g}" for k in m.get("strain_rates_1_s", [])),
+            "consumption_speeds_m_s": " ".join(f"{v:.6g}" for v in m.get("consumption_speeds_m_s", [])),
+            "message": s["message"] if s else "",
+        })
+    for r in out:
+        K, c = r["extinction_strain_rate_1_s"], r["characteristic_strain_1_s"]
+        r["extinction_strain_margin"] = K / c if K and c else None
+    return out
+
+
+def stretch_flames(study) -> int:
+    """Upper bound of the strained flames a study's [stretch] request solves (for check)."""
+    return 0 if study.stretch is None else study.stretch.n_ladders * strained.MAX_SOLVES

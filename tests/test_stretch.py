@@ -1,0 +1,119 @@
+"""Strained flames ([stretch]): twin counterflow ladders to extinction, stored, charted, reported.
+
+Checks against outside facts: an unstrained flame's consumption speed is its S_L (energy
+balance); the sign of the measured Markstein number follows the Lewis number of the
+deficient reactant (negative for lean hydrogen-air, positive rich: Law, Combustion Physics
+2006, ch. 10, from memory) and agrees with the theoretical one; extinction strain rates of
+hydrogen-air peak near stoichiometric and fall to the lean side (Law & Sung 2000, counterflow
+extinction of hydrogen-air, from memory). h2o2.yaml throughout; GRI-Mech 3.0 methane in the
+slow test.
+"""
+import numpy as np
+import pytest
+
+from flamecharts import load_study
+from flamecharts.pipeline import open_results, run, solve_study
+from flamecharts.sweep.points import points
+from flamecharts.sweep.stretch import stretch_key, stretch_points
+
+from conftest import run_cli, write_h2_study
+
+STRETCH = "\n[flame_response]\n\n[stretch]\nequivalence_ratio = [0.5, 1.0, 2.0]\n"
+
+
+@pytest.fixture(scope="module")
+def ladders(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("stretch")
+    config = write_h2_study(folder, fractions="[1.0]", phis="[0.5, 1.0, 2.0]")
+    config.write_text(config.read_text() + STRETCH)
+    res = run(config, out=folder / "o", jobs=2)
+    return load_study(config), res, folder
+
+
+def _by_phi(rows):
+    return {r["equivalence_ratio"]: r for r in rows}
+
+
+def test_every_ladder_burns_then_goes_out(ladders):
+    _, res, _ = ladders
+    rows = _by_phi(res.stretch)
+    assert set(rows) == {0.5, 1.0, 2.0}
+    for r in rows.values():
+        assert r["status"] == "ok", r["message"]
+        K = [float(v) for v in r["strain_rates_1_s"].split()]
+        assert len(K) >= 4 and K == sorted(K)  # a ladder up in strain
+        assert r["extinction_strain_rate_1_s"] == pytest.approx(K[-1], rel=1e-5)
+        assert r["extinguished_above_1_s"] <= 1.03 * r["extinction_strain_rate_1_s"]  # bracket within ~2 %
+
+
+def test_consumption_speed_tends_to_the_free_flame_speed_without_strain(ladders):
+    """Energy balance: heat released over the heat the fresh mixture carries = S_L for an
+    unstrained adiabatic flame. The two weakest steps, extrapolated linearly to K = 0, land
+    within 3 % of the free flame's S_L where the response is linear (phi 1 and 2)."""
+    _, res, _ = ladders
+    for phi in (1.0, 2.0):
+        r = _by_phi(res.stretch)[phi]
+        K = np.array([float(v) for v in r["strain_rates_1_s"].split()])[:2]
+        S = np.array([float(v) for v in r["consumption_speeds_m_s"].split()])[:2]
+        S0 = S[0] - K[0] * (S[1] - S[0]) / (K[1] - K[0])
+        assert S0 == pytest.approx(r["laminar_flame_speed_m_s"], rel=0.03)
+
+
+def test_markstein_numbers_measured_and_theoretical_agree_in_sign_and_trend(ladders):
+    """In the hydrodynamic theory the consumption speed responds to stretch through the
+    thermodiffusive term alone (Matalon, Cui & Bechtold 2003; from memory), so the measured
+    (consumption-speed) Markstein number has the sign of Le_eff - 1; both it and the theoretical
+    unburned-gas number rise from lean to rich."""
+    _, res, _ = ladders
+    rows = _by_phi(res.stretch)
+    assert rows[0.5]["markstein_number_strain"] < 0 < rows[1.0]["markstein_number_strain"]
+    assert rows[2.0]["markstein_number_strain"] > 0
+    for r in rows.values():
+        assert np.sign(r["markstein_number_strain"]) == np.sign(r["effective_lewis_number"] - 1.0)
+    for col in ("markstein_number_strain", "markstein_number_unburned"):
+        assert rows[0.5][col] < rows[1.0][col] < rows[2.0][col]
+
+
+def test_extinction_strain_peaks_near_stoichiometric(ladders):
+    _, res, _ = ladders
+    rows = _by_phi(res.stretch)
+    assert rows[1.0]["extinction_strain_rate_1_s"] > 1.5 * rows[0.5]["extinction_strain_rate_1_s"]
+    assert rows[1.0]["extinction_strain_rate_1_s"] > rows[2.0]["extinction_strain_rate_1_s"]
+
+
+def test_ladders_are_stored_and_read_back_without_solving(ladders):
+    study, res, folder = ladders
+    again = solve_study(study, folder / "o", jobs=1)
+    assert again.solved == 0 and again.stretch_ladders == 0
+    assert again.stretch == res.stretch
+    assert open_results(folder / "o").stretch == res.stretch
+    keys = {stretch_key(p.key) for p in stretch_points(study, points(study))}
+    assert len(keys) == 3
+
+
+def test_stretch_csv_chart_and_report(ladders):
+    _, res, folder = ladders
+    out = folder / "o"
+    assert (out / "stretch.csv").read_text().count("\n") == 4
+    assert (out / "charts" / "consumption_speed_vs_strain.png").is_file()
+    html = (out / "report.html").read_text()
+    assert "Strained flames" in html and "K_ext [1/s]" in html
+    r = run_cli("report", out)
+    assert r.returncode == 0, r.stderr
+    assert "Strained flames" in (out / "report.html").read_text()
+
+
+def test_check_says_what_a_stretch_request_costs(tmp_path):
+    config = write_h2_study(tmp_path, fractions="[1.0]", phis="[0.5, 1.0, 2.0]")
+    config.write_text(config.read_text() + STRETCH)
+    r = run_cli("check", config, "--out", tmp_path / "none")
+    assert r.returncode == 0, r.stderr
+    assert "Strained flames: 3 twin counterflow ladder(s)" in r.stdout
+
+
+def test_a_stretch_value_outside_the_sweep_is_refused(tmp_path):
+    config = write_h2_study(tmp_path, fractions="[1.0]", phis="[0.5, 1.0]")
+    config.write_text(config.read_text() + "\n[stretch]\nequivalence_ratio = [0.7]\n")
+    r = run_cli("check", config)
+    assert r.returncode == 2
+    assert "'stretch.equivalence_ratio' lists 0.7, which the sweep does not have; allowed: 0.5, 1" in r.stderr
