@@ -646,6 +646,58 @@ def _check_mixtures(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, 
                               "blends (Wobbe index, ratios), so it must burn on its own")
 
 
+def _run_settings(data: dict) -> tuple[float | None, bool]:
+    """(flame_time_limit_s or None, keep_profiles) of the config's top level."""
+    flame_time_limit_s = None
+    if "flame_time_limit_s" in data:
+        flame_time_limit_s = _number(data["flame_time_limit_s"], "flame_time_limit_s")
+        if not flame_time_limit_s > 0:
+            raise ConfigError(f"'flame_time_limit_s' must be > 0 seconds, got {flame_time_limit_s:g}")
+    keep_profiles = data.get("keep_profiles", True)
+    if not isinstance(keep_profiles, bool):
+        raise ConfigError(f"'keep_profiles' must be true or false, got {show(keep_profiles)}")
+    return flame_time_limit_s, keep_profiles
+
+
+def _blend(b: Any, fuels: dict) -> tuple[str, tuple[float, ...]]:
+    """sweep.blend = { with = FUEL, fraction = [...] } -> (fuel name, mole fractions 0..1)."""
+    if not isinstance(b, dict):
+        raise ConfigError("'sweep.blend' must be a table { with = fuel name, fraction = [...] }")
+    _check_keys(b, BLEND_KEYS, "sweep.blend.")
+    if "with" not in b or "fraction" not in b:
+        raise ConfigError("'sweep.blend' needs both 'with' (a fuel name) and 'fraction' (a list)")
+    blend_with = _string(b["with"], "sweep.blend.with")
+    if blend_with not in fuels:
+        raise ConfigError(f"'sweep.blend.with' names unknown fuel '{blend_with}'{_suggest(blend_with, list(fuels))}")
+    fractions = _axis(b["fraction"], "sweep.blend.fraction")
+    for f in fractions:
+        if not 0.0 <= f <= 1.0:
+            hint = f" (mole fractions, not per cent: {f:g} % is {f / 100:g})" if 1 < f <= 100 else ""
+            raise ConfigError(f"'sweep.blend.fraction' value {f:g} is out of range{hint}; allowed: 0 to 1")
+    return blend_with, fractions
+
+
+def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -> dict:
+    """The optional tables beyond the sweep, validated: Study fields by name."""
+    reference_fuel = None
+    if "reference_fuel" in data:
+        reference_fuel = _string(data["reference_fuel"], "reference_fuel")
+        if reference_fuel not in axes["fuel"]:
+            raise ConfigError(f"'reference_fuel' {reference_fuel!r} must be one of sweep.fuel "
+                              f"({', '.join(axes['fuel'])}) so that its flames are solved")
+    burner = _burner(data["burner"]) if "burner" in data else None
+    return {
+        "reference_fuel": reference_fuel, "burner": burner,
+        "gas_quality": _gas_quality(data.get("gas_quality", {})),
+        "indicator_settings": _indicator_settings(data.get("indicators", {})),
+        "cluster": check_cluster_spec(data["cluster"]) if "cluster" in data else None,
+        "limits": _limits(data["limits"], burner, blend_with) if "limits" in data else None,
+        "premixer": _premixer(data["premixer"]) if "premixer" in data else None,
+        "flame_response": _flame_response(data["flame_response"]) if "flame_response" in data else None,
+        "stretch": _stretch(data["stretch"], axes) if "stretch" in data else None,
+    }
+
+
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
                     config_path: str | None = None) -> Study:
     """Validate a parsed config table and build the :class:`Study`."""
@@ -666,15 +718,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     max_points = data.get("max_points", 10000)
     if isinstance(max_points, bool) or not isinstance(max_points, int) or max_points < 1:
         raise ConfigError(f"'max_points' must be a whole number >= 1, got {show(max_points)}")
-    flame_time_limit_s = None
-    if "flame_time_limit_s" in data:
-        flame_time_limit_s = _number(data["flame_time_limit_s"], "flame_time_limit_s")
-        if not flame_time_limit_s > 0:
-            raise ConfigError(f"'flame_time_limit_s' must be > 0 seconds, got {flame_time_limit_s:g}")
-
-    keep_profiles = data.get("keep_profiles", True)
-    if not isinstance(keep_profiles, bool):
-        raise ConfigError(f"'keep_profiles' must be true or false, got {show(keep_profiles)}")
+    flame_time_limit_s, keep_profiles = _run_settings(data)
 
     for table in ("fuels", "oxidizers", "sweep"):
         if table not in data:
@@ -697,22 +741,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
             raise ConfigError(f"[sweep] has no '{required}'; it is required")
     sweep_fuels = _names(sweep["fuel"], "sweep.fuel", fuels, "fuel")
     sweep_oxidizers = _names(sweep["oxidizer"], "sweep.oxidizer", oxidizers, "oxidizer")
-    blend_with, fractions = None, (0.0,)
-    if "blend" in sweep:
-        b = sweep["blend"]
-        if not isinstance(b, dict):
-            raise ConfigError("'sweep.blend' must be a table { with = fuel name, fraction = [...] }")
-        _check_keys(b, BLEND_KEYS, "sweep.blend.")
-        if "with" not in b or "fraction" not in b:
-            raise ConfigError("'sweep.blend' needs both 'with' (a fuel name) and 'fraction' (a list)")
-        blend_with = _string(b["with"], "sweep.blend.with")
-        if blend_with not in fuels:
-            raise ConfigError(f"'sweep.blend.with' names unknown fuel '{blend_with}'{_suggest(blend_with, list(fuels))}")
-        fractions = _axis(b["fraction"], "sweep.blend.fraction")
-        for f in fractions:
-            if not 0.0 <= f <= 1.0:
-                hint = f" (mole fractions, not per cent: {f:g} % is {f / 100:g})" if 1 < f <= 100 else ""
-                raise ConfigError(f"'sweep.blend.fraction' value {f:g} is out of range{hint}; allowed: 0 to 1")
+    blend_with, fractions = _blend(sweep["blend"], fuels) if "blend" in sweep else (None, (0.0,))
     phis = _limited_axis(sweep["equivalence_ratio"], "equivalence_ratio")
     pressures = _limited_axis(sweep.get("pressure_bar", [1.01325]), "pressure_bar")
     temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
@@ -728,24 +757,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
                     {**analysis_atoms, **atoms})
 
-    reference_fuel = None
-    if "reference_fuel" in data:
-        reference_fuel = _string(data["reference_fuel"], "reference_fuel")
-        if reference_fuel not in sweep_fuels:
-            raise ConfigError(f"'reference_fuel' {reference_fuel!r} must be one of sweep.fuel "
-                              f"({', '.join(sweep_fuels)}) so that its flames are solved")
-    burner = _burner(data["burner"]) if "burner" in data else None
-    gas_quality = _gas_quality(data.get("gas_quality", {}))
-    indicator_settings = _indicator_settings(data.get("indicators", {}))
-    cluster = check_cluster_spec(data["cluster"]) if "cluster" in data else None
-    limits = _limits(data["limits"], burner, blend_with) if "limits" in data else None
-    premixer = _premixer(data["premixer"]) if "premixer" in data else None
-    flame_response = _flame_response(data["flame_response"]) if "flame_response" in data else None
-    stretch = _stretch(data["stretch"], {
-        "fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
-        "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures,
-    }) if "stretch" in data else None
-
+    axes = {"fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
+            "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures}
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
         mechanism_sha256=file_sha256(mech_path), transport=transport,
@@ -753,10 +766,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
-        max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, reference_fuel=reference_fuel, burner=burner,
-        gas_quality=gas_quality, indicator_settings=indicator_settings, cluster=cluster, raw=data,
-        limits=limits, premixer=premixer, keep_profiles=keep_profiles, flame_response=flame_response,
-        stretch=stretch)
+        max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
+        keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with))
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
