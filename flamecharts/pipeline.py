@@ -99,10 +99,10 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                     limit_solved[0] += n
                     return n
                 limits = find_limits(study, rows, store, solve, limits_progress)
-            stretch, ladders = [], 0
+            stretch, ladders, ladder_seconds = [], 0, 0.0
             if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
                 by_key = {r["point_key"]: r for r in rows}
-                ladders = solve_stretch(study, store, pts, by_key, backend, stretch_progress)
+                ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend, stretch_progress)
                 stretch = stretch_rows(study, pts, by_key, store)
         workers = max(1, backend.workers())
     return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
@@ -110,7 +110,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
                       wall_seconds=time.perf_counter() - t0,
                       failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
-                      solve_seconds=done.solve_seconds, workers=workers, limits=limits,
+                      solve_seconds=done.solve_seconds + ladder_seconds, workers=workers, limits=limits,
                       limit_flames=limit_solved[0], stretch=stretch, stretch_ladders=ladders)
 
 

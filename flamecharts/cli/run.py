@@ -116,8 +116,9 @@ def _print_stretch(summary) -> None:
             continue
         ext = (f"goes out above {r['extinction_strain_rate_1_s']:.4g} 1/s" if r["extinction_strain_rate_1_s"]
                else f"no extinction found ({r['message']})")
-        ma = r["markstein_number_strain"]
-        print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else ""))
+        ma, margin = r["markstein_number_strain"], r["extinction_strain_margin"]
+        print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else "")
+              + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
 
 
 def _utilisation(summary) -> str:

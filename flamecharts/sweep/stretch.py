@@ -78,18 +78,18 @@ def _task(study, p: Point, row: dict) -> dict:
 
 
 def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend,
-                  progress=None) -> int:
+                  progress=None) -> tuple[int, float]:
     """Solve the ladder of every selected point whose free flame burns and whose ladder the
-    store lacks; commit each as it finishes. Returns how many were solved."""
+    store lacks; commit each as it finishes. Returns (ladders solved, their summed seconds)."""
     stored = store.keys()
     todo = [p for p in stretch_points(study, pts)
             if rows_by_key.get(p.key, {}).get("status") == "ok" and stretch_key(p.key) not in stored]
     if not todo:
-        return 0
+        return 0, 0.0
     executor = backend.executor(study)
     run_id = uuid.uuid4().hex[:12]
     in_flight = {executor.submit(stretch_task, _task(study, p, rows_by_key[p.key])): p for p in todo}
-    done_n = 0
+    done_n, seconds = 0, 0.0
     while in_flight:
         done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
         for fut in done:
@@ -102,9 +102,10 @@ def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, 
             ladder = _ladder(p)
             store.commit_point(ladder, {**result, "inputs": ladder.inputs}, run_id)
             done_n += 1
+            seconds += float(result.get("solve_seconds") or 0.0)
             if progress is not None:
                 progress(done_n, len(todo))
-    return done_n
+    return done_n, seconds
 
 
 def characteristic_strain(study, row: dict) -> float | None:
