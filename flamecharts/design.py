@@ -11,7 +11,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .chemistry.ignition import autoignition_warning, ignition_delay_peak
+from .chemistry.ignition import autoignition_warning, ignition_delay_peak, premixer_horizon
 from .chemistry.mechanism import fallback_data, molar_masses, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
@@ -246,14 +246,7 @@ def point_warnings(study, point, row: dict) -> str:
     return "; ".join(w for w in out if w)
 
 
-#: The premixer's ignition delay is integrated for at least this long [s], and at least
-#: this many times the residence time the margin requires: a mixture that has not ignited
-#: by then is reported as not igniting (delay inf).
-PREMIXER_HORIZON_S = 1.0
-PREMIXER_HORIZON_FACTOR = 100.0
-
-
-def premixer_columns(study, point) -> dict:
+def premixer_columns(study, point, row: dict | None = None) -> dict:
     """Ignition delay of the fresh mixture at the point's preheat and pressure, the
     autoignition margin (delay / residence time) and its verdict (columns.PREMIXER_COLUMNS).
 
@@ -266,13 +259,16 @@ def premixer_columns(study, point) -> dict:
     out = dict.fromkeys(PREMIXER_COLUMNS)
     if pm is None:
         return out
-    horizon = max(PREMIXER_HORIZON_S, PREMIXER_HORIZON_FACTOR * pm.min_autoignition_margin * pm.residence_time_s)
+    horizon = premixer_horizon(pm.residence_time_s, pm.min_autoignition_margin)
     X = tuple(sorted((k, float(v)) for k, v in point.X_unburned.items() if v > 0))
-    try:
-        tau = ignition_delay_peak(study.mechanism_path, X, float(point.T_u), float(point.P), float(horizon))
-    except Exception as exc:  # noqa: BLE001 - the column says why instead of stopping the read-out
-        out["autoignition_verdict"] = f"not computed: {type(exc).__name__}"
-        return out
+    if row is not None and row.get("premixer_horizon_s") == horizon:  # the worker's, stored with the flame
+        tau = row["premixer_ignition_delay_s"]
+    else:
+        try:
+            tau = ignition_delay_peak(study.mechanism_path, X, float(point.T_u), float(point.P), float(horizon))
+        except Exception as exc:  # noqa: BLE001 - the column says why instead of stopping the read-out
+            out["autoignition_verdict"] = f"not computed: {type(exc).__name__}"
+            return out
     margin = tau / pm.residence_time_s
     out.update(ignition_delay_ms=tau * 1e3, autoignition_margin=margin,
                autoignition_verdict="ok" if margin >= pm.min_autoignition_margin else "autoignition risk")

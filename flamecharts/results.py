@@ -58,8 +58,9 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     for name, (col, scale) in FROM_METRICS.items():
         v = metrics.get(name)
         row[col] = None if v is None else v * scale
-    if "autoignition_screen_delay_s" in metrics:  # for the range warning (not a column)
-        row["autoignition_screen_delay_s"] = metrics["autoignition_screen_delay_s"]
+    for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "premixer_horizon_s"):
+        if name in metrics:  # computed by the worker for the read-out (not columns)
+            row[name] = metrics[name]
     return row
 
 
@@ -86,7 +87,7 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
     for p, r in zip(pts, rows):
         r["warnings"] = point_warnings(study, p, r)
         if study.premixer is not None:
-            r.update(premixer_columns(study, p))
+            r.update(premixer_columns(study, p, r))
     return rows
 
 

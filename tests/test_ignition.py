@@ -86,6 +86,14 @@ def test_premixer_columns_and_verdict(tmp_path):
     assert hot["ignition_delay_ms"] < 5.0 and hot["autoignition_verdict"] == "autoignition risk"
     assert hot["autoignition_margin"] == pytest.approx(hot["ignition_delay_ms"] / 5.0)
     assert "autoignition_margin" in (tmp_path / "out" / "results.csv").read_text().splitlines()[0]
+    # the worker stored the delay with each burning flame (a read-out of many points integrates no
+    # reactor); computing it again at read-out gives the same number
+    from flamecharts.design import premixer_columns
+    from flamecharts.sweep.points import points
+
+    assert hot["premixer_horizon_s"] == 1.5  # max(1 s, 100 x 3 x 5 ms)
+    p_hot = next(p for p in points(res.study) if p.T_u == 1000.0)
+    assert premixer_columns(res.study, p_hot)["ignition_delay_ms"] == pytest.approx(hot["ignition_delay_ms"], rel=1e-12)
 
 
 @pytest.mark.parametrize("extra, message", [

@@ -99,6 +99,23 @@ def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row
 MIN_IGNITION_RISE_K = 100.0
 
 
+#: A premixer's ignition delay is integrated for at least this long [s], and at least
+#: this many times the residence time the margin requires: a mixture that has not ignited
+#: by then is reported as not igniting (delay inf).
+PREMIXER_HORIZON_S = 1.0
+PREMIXER_HORIZON_FACTOR = 100.0
+
+
+def premixer_horizon(residence_time_s: float, min_margin: float) -> float:
+    """How long a premixer's ignition delay is integrated [s]: max(PREMIXER_HORIZON_S,
+    PREMIXER_HORIZON_FACTOR x required margin x residence time).
+
+    >>> premixer_horizon(0.002, 3.0), premixer_horizon(0.01, 3.0)
+    (1.0, 3.0)
+    """
+    return max(PREMIXER_HORIZON_S, PREMIXER_HORIZON_FACTOR * min_margin * residence_time_s)
+
+
 @lru_cache(maxsize=4096)
 def ignition_delay_peak(mechanism_path: str, X: tuple, T: float, P: float, t_max: float,
                         constant: str = "pressure") -> float:

@@ -16,7 +16,7 @@ import time
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
-from ..chemistry.ignition import autoignition_screen
+from ..chemistry.ignition import autoignition_screen, ignition_delay_peak, premixer_horizon
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..chemistry.mechanism import solution
@@ -70,7 +70,9 @@ def make_task(study, point, warm: dict | None) -> dict:
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
             "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm,
             "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms)),
-            "zeldovich_step": zeldovich_step(study)}
+            "zeldovich_step": zeldovich_step(study),
+            "premixer_horizon_s": None if study.premixer is None else premixer_horizon(
+                study.premixer.residence_time_s, study.premixer.min_autoignition_margin)}
 
 
 def _flame_response(gas, task: dict, base: dict) -> dict:
@@ -125,6 +127,14 @@ def solve_task(task: dict) -> dict:
             task["mechanism_path"], task["X"], task["T_u"], task["P"], m.get("laminar_flame_speed_m_s"),
             m.get("thermal_thickness_m"), m.get("adiabatic_flame_temperature_K"))
         m.update(_flame_response(gas, task, result))
+        if task.get("premixer_horizon_s"):  # [premixer]: the fresh mixture's ignition delay, stored for read-outs
+            X = tuple(sorted((k, float(v)) for k, v in task["X"].items() if v > 0))
+            try:
+                m["premixer_ignition_delay_s"] = ignition_delay_peak(
+                    task["mechanism_path"], X, float(task["T_u"]), float(task["P"]), float(task["premixer_horizon_s"]))
+                m["premixer_horizon_s"] = task["premixer_horizon_s"]
+            except Exception:  # noqa: BLE001 - the read-out tries again and says why in its column
+                pass
         result["solve_seconds"] += m.get("zeldovich_seconds", 0.0)  # the point's cost, for run-time estimates
     # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
     # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
