@@ -150,7 +150,7 @@ BURNER_COLUMNS = (
 PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
 #: How the flame responds to stretch (physics.flame_response); Ze and what needs it with [flame_response].
 RESPONSE_COLUMNS = ("lewis_number_fuel", "lewis_number_oxygen", "zeldovich_number", "effective_lewis_number",
-                    "markstein_number_unburned", "characteristic_strain_1_s", "extinction_strain_margin", "markstein_length_mm", "instability")
+                    "markstein_number_unburned", "markstein_length_mm", "instability")
 
 #: stretch.csv, one row per strained-flame ladder ([stretch]), in this order.
 STRETCH_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",

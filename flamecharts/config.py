@@ -533,7 +533,7 @@ def _stretch(t: Any, axes: dict[str, tuple]) -> Stretch:
             values = _axis(t[key], f"stretch.{key}")
             for v in values:
                 if not any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12) for a in allowed):
-                    raise ConfigError(f"'stretch.{key}' lists {v:g}, which the sweep does not have; allowed: "
+                    raise ConfigError(f"'stretch.{key}' lists {v:.10g}, which the sweep does not have; allowed: "
                                       f"{', '.join(f'{a:g}' for a in allowed)}")
             chosen[key] = tuple(a for a in allowed if any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12)
                                                           for v in values))

@@ -68,8 +68,8 @@ def cmd_check(args) -> int:
         st = study.stretch
         print(f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
               f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep "
-              f"(measured on 2 cores: 7-18 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with GRI-Mech 3.0); "
-              "stored ladders are not solved again")
+              f"(measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with GRI-Mech 3.0; "
+              "not in the estimate above); stored ladders are not solved again")
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
         print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "

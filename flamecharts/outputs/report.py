@@ -234,8 +234,8 @@ def _response_section(study, rows: list[dict]) -> list[str]:
         ze = [r["zeldovich_number"] for r in rs if r.get("zeldovich_number") is not None]
         ma = [(r["markstein_number_unburned"], r["equivalence_ratio"]) for r in rs
               if r.get("markstein_number_unburned") is not None]
-        table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}",
-                      f"{min(r['lewis_number_fuel'] for r in rs):.2f}-{max(r['lewis_number_fuel'] for r in rs):.2f}",
+        le_d = [r["lewis_number_fuel"] if r["equivalence_ratio"] <= 1 else r["lewis_number_oxygen"] for r in rs]
+        table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", f"{min(le_d):.2f}-{max(le_d):.2f}",
                       f"{min(ze):.1f}-{max(ze):.1f}" if ze else "",
                       f"{min(ma)[0]:+.2f} (φ {min(ma)[1]:g})" if ma else "",
                       ", ".join(f"{v:g}" for v in cellular) if cellular else ("none" if ze else "")])
@@ -250,10 +250,13 @@ def _response_section(study, rows: list[dict]) -> list[str]:
                f"{study.flame_response.inert_step:g} either way (Egolfopoulos &amp; Law 1990); effective Lewis number "
                "(Matalon, Cui &amp; Bechtold 2003); Markstein number relative to the unburned gas (Clavin &amp; "
                "Williams 1982); cellular where Ze (Le_eff - 1) &lt; -2 (Sivashinsky 1977). Theoretical numbers: "
-               "compare signs and trends with measurements, not values."
+               "compare signs and trends with measurements, not values. A point can be cellular with Ma_u above 0: "
+               "Ma_u adds the expansion term σ ln σ/(σ - 1) to the thermodiffusive one that sets the cellular "
+               "instability."
                if asked else ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
                              "and the instability flag (two extra flames per point).") + "</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "Le fuel", "Ze", "lowest Ma_u (φ)", "cellular at φ"], table, {1, 2})
+            _table(["gas", "p [bar]", "T_u [K]", "Le deficient reactant", "Ze", "lowest Ma_u (φ)", "cellular at φ"],
+                   table, {1, 2})
             + more]
 
 
@@ -271,15 +274,17 @@ def _stretch_section(study, stretch: list[dict]) -> list[str]:
     table, more = _first(table, "stretch.csv")
     return ["<h2 id='stretch'>Strained flames</h2>",
             "<p>Twin premixed counterflow flames (Cantera), nozzle to symmetry plane 400 flame thicknesses (2-30 mm) "
-            "α_u/S_L, from a weakly strained flame (nozzle velocity 4 S_L) up by factors of 1.6 in nozzle velocity "
+            "α_u/S_L, from a weakly strained flame (nozzle velocity 2 S_L) up by factors of 1.6 in nozzle velocity "
             "until the flame goes out, then the last step halved (in log) until it is below 2 %. Strain rate: the "
             "largest axial velocity gradient ahead of the flame (Law's reference strain rate); other definitions "
             "(global 2U/L, at the flame) give other numbers. Consumption speed: heat released by one flame over "
             "the fresh mixture's heat of combustion (equals S_L unstrained). Markstein number (strain): -dS_c/dK "
-            "α_u/S_L² over the steps below Karlovitz 0.1. In the hydrodynamic theory a consumption speed answers "
-            "stretch through the thermodiffusive term alone, so its Markstein number has the sign of Le_eff - 1; "
-            "the theoretical Ma_u ([flame_response]) refers to the unburned gas and adds a hydrodynamic term: "
-            "compare signs and trends, not values. Extinction strain rates of a burner's stabilization zone "
+            "α_u/S_L² fitted through S_L and the steps below Karlovitz 0.05. In the weak-stretch limit a consumption "
+            "speed answers stretch through the thermodiffusive term alone, so its Markstein number has the sign of "
+            "Le_eff - 1; lean hydrogen flames are not linear down to the weakest step (15 % above S_L at Karlovitz "
+            "0.01), so the fit is a secant, and near Le_eff 0.7-0.8 its sign is not reliable. The theoretical Ma_u "
+            "([flame_response]) refers to the unburned gas and adds an expansion term: compare signs and trends, "
+            "not values. Extinction strain rates of a burner's stabilization zone "
             "are not these numbers: read them as a ranking of mixtures. With a [burner], K_ext is set against the "
             "strain the burner imposes where its flame is held (the wall velocity gradient at the rim, or approach "
             "velocity over bluff-body size): a blowoff indicator beside the Karlovitz and Damköhler ones; a "

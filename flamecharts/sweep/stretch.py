@@ -1,7 +1,7 @@
 """Strained-flame ladders of the [stretch] request: which, their keys, solving and storing them.
 
 stretch_points   the swept points a [stretch] table selects
-stretch_key      a ladder's store key: the free flame's key and the ladder's settings
+stretch_key      a ladder's store key: the point's inputs (not its [flame_response]) and the ladder's settings
 solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each
 stretch_rows     one row per ladder (STRETCH_COLUMNS), from the store
 
@@ -58,20 +58,26 @@ def stretch_points(study, pts: list[Point]) -> list[Point]:
             and p.pressure_bar in st.pressures_bar and p.T_u in st.unburned_temperatures_K]
 
 
-def stretch_key(point_key: str) -> str:
-    """Store key of the ladder of the free flame ``point_key`` (which already hashes the
-    mechanism, transport, compositions, phi, p, T_u)."""
-    text = json.dumps({"stretch": LADDER_SETTINGS, "point": point_key}, sort_keys=True)
+#: Point inputs that do not change a ladder (the Zeldovich flames are extra flames of the point).
+NOT_FOR_LADDERS = ("zeldovich_inert_step",)
+
+
+def stretch_key(p: Point) -> str:
+    """Store key of the ladder of point ``p``: its inputs (mechanism hash, Cantera version,
+    transport, numerics, compositions, phi, p, T_u) but not the [flame_response] request,
+    and the ladder's settings."""
+    inputs = {k: v for k, v in p.inputs.items() if k not in NOT_FOR_LADDERS}
+    text = json.dumps({"stretch": LADDER_SETTINGS, "inputs": inputs}, sort_keys=True)
     return hashlib.sha256(text.encode()).hexdigest()[:32]
 
 
 def _ladder(p: Point) -> Ladder:
-    return Ladder(key=stretch_key(p.key), family=f"stretch:{p.family}", phi=p.phi, pressure_bar=p.pressure_bar,
+    return Ladder(key=stretch_key(p), family=f"stretch:{p.family}", phi=p.phi, pressure_bar=p.pressure_bar,
                   T_u=p.T_u, inputs={"stretch_of": p.key})
 
 
 def _task(study, p: Point, row: dict) -> dict:
-    return {"key": stretch_key(p.key), "mechanism_path": study.mechanism_path,
+    return {"key": stretch_key(p), "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport, "T_u": p.T_u, "P": p.P,
             "X": p.X_unburned, "S_L": row["laminar_flame_speed_m_s"], "T_ad": row["adiabatic_flame_temperature_K"],
             "time_limit_s": LADDER_TIME_LIMITS * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
@@ -83,7 +89,7 @@ def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, 
     store lacks; commit each as it finishes. Returns (ladders solved, their summed seconds)."""
     stored = store.keys()
     todo = [p for p in stretch_points(study, pts)
-            if rows_by_key.get(p.key, {}).get("status") == "ok" and stretch_key(p.key) not in stored]
+            if rows_by_key.get(p.key, {}).get("status") == "ok" and stretch_key(p) not in stored]
     if not todo:
         return 0, 0.0
     executor = backend.executor(study)
@@ -124,11 +130,11 @@ def stretch_rows(study, pts: list[Point], rows_by_key: dict[str, dict], store: S
     """One row per selected ladder (STRETCH_COLUMNS), in study order; ladders not solved yet
     (or whose free flame does not burn) have status 'pending' or the free flame's status."""
     selected = stretch_points(study, pts)
-    stored = store.rows([stretch_key(p.key) for p in selected])
+    stored = store.rows([stretch_key(p) for p in selected])
     out = []
     for p in selected:
         free = rows_by_key.get(p.key, {})
-        s = stored.get(stretch_key(p.key))
+        s = stored.get(stretch_key(p))
         m = (s or {}).get("metrics") or {}
         S_L = free.get("laminar_flame_speed_m_s")
         out.append({

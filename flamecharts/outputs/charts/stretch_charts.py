@@ -47,6 +47,12 @@ def stretch_chart(data, study):
         if r["extinction_strain_rate_1_s"] is not None:
             ax.plot(K[-1], S[-1] / r["laminar_flame_speed_m_s"], "x", color="crimson", ms=10, mew=2, zorder=6)
     ax.axhline(1.0, color="0.4", lw=1.0, linestyle=":")
+    burner_strain = sorted({r["characteristic_strain_1_s"] for r in ladders if r.get("characteristic_strain_1_s")})
+    for c in burner_strain[:3]:
+        ax.axvline(c, color="#b35900", lw=1.3, linestyle="-.")
+    if burner_strain:
+        handles["strain the burner imposes (dash-dot: wall\nvelocity gradient, or U/D of the bluff body)"] = Line2D(
+            [], [], color="#b35900", lw=1.3, linestyle="-.")
     ax.set_xscale("log")
     ax.set_xlabel("Strain rate K [1/s]")
     ax.set_ylabel("Consumption speed / unstretched S_L [-]")
@@ -56,15 +62,15 @@ def stretch_chart(data, study):
     for r in ladders:
         if r["extinction_strain_rate_1_s"] is not None:
             curves.setdefault((gas_label(r), r["oxidizer"], _where(r)), []).append(r)
-    kc = colour_scale(len(curves))
+    kc = ["#1b6f9a", "#b2182b", "#4d9221", "#7b2d8e", "#b35900", "#555555"]
     for i, (key, rs) in enumerate(curves.items()):
         rs = sorted(rs, key=lambda r: r["equivalence_ratio"])
-        axk.plot([r["equivalence_ratio"] for r in rs], [r["extinction_strain_rate_1_s"] for r in rs], color=kc[i],
+        axk.plot([r["equivalence_ratio"] for r in rs], [r["extinction_strain_rate_1_s"] for r in rs], color=kc[i % len(kc)],
                  marker=MARKERS[i % len(MARKERS)], lw=1.5, label=f"{key[0]} in {key[1]}, {key[2]}")
-    axk.set_yscale("log")
-    axk.set_xlabel("Equivalence ratio φ [-]")
+    axk.set_ylim(bottom=0)
+    axk.set_xlabel("Equivalence ratio φ [-] (the ladders' values only)")
     axk.set_ylabel("Extinction strain rate K_ext [1/s]")
-    axk.grid(True, which="both", color="0.9", lw=0.6)
+    axk.grid(True, color="0.9", lw=0.6)
     if curves:
         axk.legend(fontsize=7.5, frameon=False)
     note = "" if len(shown) == len(ladders) else f"\nShown: {len(shown)} of {len(ladders)} ladders; all in stretch.csv"
