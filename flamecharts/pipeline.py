@@ -22,6 +22,7 @@ from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
+from .sweep.zeldovich import solve_zeldovich, with_zeldovich
 
 
 @dataclass
@@ -51,6 +52,11 @@ class RunSummary:
         return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
+def _labelled(progress, what: str):
+    """``progress(what, done, total)`` as the (done, total) callback an extras loop calls."""
+    return None if progress is None else (lambda done, total: progress(what, done, total))
+
+
 def default_out_dir(study: Study) -> Path:
     """output/<config name>/ in the current folder."""
     return Path("output") / study.name
@@ -69,7 +75,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                 progress: Callable[[Progress], None] | None = None, cluster: str | None = None,
                 stop_after: int | None = None,
                 limits_progress: Callable[[LimitsProgress], None] | None = None,
-                stretch_progress: Callable[[int, int], None] | None = None) -> RunSummary:
+                extras_progress: Callable[[str, int, int], None] | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
 
     Then, when the study has a [limits] table, run its limit searches: each asks for
@@ -91,7 +97,11 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
             save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
             done = solve_points(study, store, pts, backend, progress, stop_after, t0)
             stored = store.rows([p.key for p in pts])
-            rows = point_rows(study, pts, stored)
+            extra_seconds = 0.0
+            if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
+                _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _labelled(extras_progress,
+                                                                                                "Zeldovich pairs"))
+            rows = point_rows(study, pts, with_zeldovich(study, pts, stored, store))
             limits, limit_solved = [], [0]
             if study.limits is not None and stop_after is None:
                 def solve(new_points) -> int:
@@ -102,7 +112,8 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
             stretch, ladders, ladder_seconds = [], 0, 0.0
             if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
                 by_key = {r["point_key"]: r for r in rows}
-                ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend, stretch_progress)
+                ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
+                                                        _labelled(extras_progress, "strained-flame ladders"))
                 stretch = stretch_rows(study, pts, by_key, store)
         workers = max(1, backend.workers())
     return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
@@ -110,7 +121,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
                       wall_seconds=time.perf_counter() - t0,
                       failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
-                      solve_seconds=done.solve_seconds + ladder_seconds, workers=workers, limits=limits,
+                      solve_seconds=done.solve_seconds + ladder_seconds + extra_seconds, workers=workers, limits=limits,
                       limit_flames=limit_solved[0], stretch=stretch, stretch_ladders=ladders)
 
 
@@ -128,7 +139,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
         cluster: str | None = None, progress: Callable[[Progress], None] | None = None,
         charts: bool = True, report: bool = True,
         limits_progress: Callable[[LimitsProgress], None] | None = None,
-        stretch_progress: Callable[[int, int], None] | None = None) -> Results:
+        extras_progress: Callable[[str, int, int], None] | None = None) -> Results:
     """Solve every point of a study the store lacks, store each flame, write every output file.
 
     Parameters
@@ -142,7 +153,8 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     progress : called after each finished flame with a :class:`~flamecharts.sweep.run.Progress`
     charts, report : draw the charts, write report.html (the report needs the charts)
     limits_progress : called after each round of limit flames (studies with [limits])
-    stretch_progress : called with (ladders done, ladders to solve) after each strained-flame ladder
+    extras_progress : called with (what, done, to solve) after each extra of a point: a Zeldovich
+        pair ([flame_response]) or a strained-flame ladder ([stretch])
 
     Returns
     -------
@@ -151,7 +163,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     """
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
     summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress,
-                          stretch_progress=stretch_progress)
+                          extras_progress=extras_progress)
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
     from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
 

@@ -36,6 +36,7 @@ from .outcome import Reason, Status
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
 from .sweep.points import Point, points
+from .sweep.zeldovich import with_zeldovich
 
 
 def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
@@ -96,7 +97,7 @@ def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     study = load_config_copy(out_dir)
     pts = points(study)
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        stored = store.rows([p.key for p in pts])
+        stored = with_zeldovich(study, pts, store.rows([p.key for p in pts]), store)
         n_stored = len(store.keys())
     if n_stored and not stored:
         raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches the study any more: the "

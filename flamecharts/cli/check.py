@@ -15,6 +15,7 @@ from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
 from ..sweep.schedule import estimate_run_seconds, flame_seconds
 from ..sweep.warm_tree import warm_tree
+from ..sweep.zeldovich import with_zeldovich
 from .tables import print_burner, print_gases, print_points
 
 #: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
@@ -35,7 +36,7 @@ def cmd_check(args) -> int:
             tree = warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique})
             timings = st.timings({p.family for p in pts})
             done = [p for p in pts if p.key in keys]  # only stored points are printed
-            rows = point_rows(study, done, st.rows([p.key for p in done]))
+            rows = point_rows(study, done, with_zeldovich(study, done, st.rows([p.key for p in done]), st))
     else:
         tree = warm_tree(unique)
     n = NUMERICS[study.resolution]
@@ -73,9 +74,9 @@ def cmd_check(args) -> int:
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
         print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-              f"point ({2 * len(todo)} flames, the inert moved {fr.inert_step:g} either way, each warm-started "
-              "from the point's own flame: measured +55-100 % of the run time, more than the estimate above "
-              "says until the store holds timings of such points)")
+              f"burning point (up to {2 * len(unique)} flames, the inert moved {fr.inert_step:g} either way, "
+              "warm-started from the point's stored flame after the sweep: measured +55-100 % of the sweep's "
+              "time, not in the estimate above); pairs already stored are not solved again")
     return 0
 
 

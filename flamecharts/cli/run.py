@@ -26,7 +26,7 @@ def cmd_run(args) -> int:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
                       charts=not args.no_charts, report=not args.no_report,
                       limits_progress=None if args.quiet else _limits_line,
-                      stretch_progress=None if args.quiet else _stretch_line)
+                      extras_progress=None if args.quiet else _extras_line)
         summary = results.summary
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
@@ -97,9 +97,9 @@ def _print_limits(study, summary) -> None:
         print("  " + limit_sentence(r, study))
 
 
-def _stretch_line(done: int, total: int) -> None:
-    """One plain line per finished strained-flame ladder (stderr, like the progress bar)."""
-    print(f"strained flames: {done} of {plural(total, 'ladder')} done", file=sys.stderr)
+def _extras_line(what: str, done: int, total: int) -> None:
+    """One plain line per finished extra of a point: a Zeldovich pair, a ladder (stderr, like the progress bar)."""
+    print(f"{what}: {done} of {total} done", file=sys.stderr)
 
 
 def _print_stretch(summary) -> None:

@@ -60,9 +60,9 @@ class Point:
 
 
 def settings_of(study: Study) -> dict:
-    """Everything study-wide that changes a flame's answer (the Zeldovich flames only when
-    asked for, so the keys of studies without them stay as they were)."""
-    out = {
+    """Everything study-wide that changes a flame's answer (extra flames of a point, such as
+    the Zeldovich pair, are stored under keys of their own: sweep.extras)."""
+    return {
         "mechanism_sha256": study.mechanism_sha256,
         "cantera": cantera_version(),
         "transport": study.transport,
@@ -70,9 +70,6 @@ def settings_of(study: Study) -> dict:
         "numerics": NUMERICS[study.resolution].as_dict(),
         "measure_version": MEASURE_VERSION,
     }
-    if zeldovich_step(study) is not None:
-        out["zeldovich_inert_step"] = _num(zeldovich_step(study))
-    return out
 
 
 def zeldovich_step(study: Study) -> float | None:

@@ -1,7 +1,7 @@
 """Strained-flame ladders of the [stretch] request: which, their keys, solving and storing them.
 
 stretch_points   the swept points a [stretch] table selects
-stretch_key      a ladder's store key: the point's inputs (not its [flame_response]) and the ladder's settings
+stretch_key      a ladder's store key: the point's inputs and the ladder's settings (sweep.extras)
 solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each
 stretch_rows     one row per ladder (STRETCH_COLUMNS), from the store
 
@@ -11,14 +11,9 @@ under its own key (family 'stretch:...', no profile: never a warm-start source).
 """
 from __future__ import annotations
 
-import hashlib
-import json
-import uuid
-from concurrent.futures import FIRST_COMPLETED, wait
-from dataclasses import dataclass
-
 from ..chemistry import strained
 from ..store import Store
+from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point
 from .schedule import flame_time_limit
 from .worker import stretch_task
@@ -36,18 +31,6 @@ LADDER_SETTINGS = {
 LADDER_TIME_LIMITS = 4.0
 
 
-@dataclass(frozen=True)
-class Ladder:
-    """What the store's commit needs of a ladder (a point's key fields)."""
-
-    key: str
-    family: str
-    phi: float
-    pressure_bar: float
-    T_u: float
-    inputs: dict
-
-
 def stretch_points(study, pts: list[Point]) -> list[Point]:
     """The points of ``pts`` that the study's [stretch] table selects (none without one)."""
     st = study.stretch
@@ -58,22 +41,9 @@ def stretch_points(study, pts: list[Point]) -> list[Point]:
             and p.pressure_bar in st.pressures_bar and p.T_u in st.unburned_temperatures_K]
 
 
-#: Point inputs that do not change a ladder (the Zeldovich flames are extra flames of the point).
-NOT_FOR_LADDERS = ("zeldovich_inert_step",)
-
-
 def stretch_key(p: Point) -> str:
-    """Store key of the ladder of point ``p``: its inputs (mechanism hash, Cantera version,
-    transport, numerics, compositions, phi, p, T_u) but not the [flame_response] request,
-    and the ladder's settings."""
-    inputs = {k: v for k, v in p.inputs.items() if k not in NOT_FOR_LADDERS}
-    text = json.dumps({"stretch": LADDER_SETTINGS, "inputs": inputs}, sort_keys=True)
-    return hashlib.sha256(text.encode()).hexdigest()[:32]
-
-
-def _ladder(p: Point) -> Ladder:
-    return Ladder(key=stretch_key(p), family=f"stretch:{p.family}", phi=p.phi, pressure_bar=p.pressure_bar,
-                  T_u=p.T_u, inputs={"stretch_of": p.key})
+    """Store key of the ladder of point ``p``: its inputs and the ladder's settings."""
+    return derived_key("stretch", p, LADDER_SETTINGS)
 
 
 def _task(study, p: Point, row: dict) -> dict:
@@ -86,32 +56,13 @@ def _task(study, p: Point, row: dict) -> dict:
 def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend,
                   progress=None) -> tuple[int, float]:
     """Solve the ladder of every selected point whose free flame burns and whose ladder the
-    store lacks; commit each as it finishes. Returns (ladders solved, their summed seconds)."""
-    stored = store.keys()
-    todo = [p for p in stretch_points(study, pts)
-            if rows_by_key.get(p.key, {}).get("status") == "ok" and stretch_key(p) not in stored]
-    if not todo:
-        return 0, 0.0
-    executor = backend.executor(study)
-    run_id = uuid.uuid4().hex[:12]
-    in_flight = {executor.submit(stretch_task, _task(study, p, rows_by_key[p.key])): p for p in todo}
-    done_n, seconds = 0, 0.0
-    while in_flight:
-        done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
-        for fut in done:
-            p = in_flight.pop(fut)
-            try:
-                result = fut.result()
-            except Exception as exc:  # noqa: BLE001 - the worker died: record it, the next run tries again
-                result = {"status": "failed", "reason": "worker error", "start": "fresh", "metrics": None,
-                          "message": f"worker error: {type(exc).__name__}", "solve_seconds": 0.0, "profile_blob": None}
-            ladder = _ladder(p)
-            store.commit_point(ladder, {**result, "inputs": ladder.inputs}, run_id)
-            done_n += 1
-            seconds += float(result.get("solve_seconds") or 0.0)
-            if progress is not None:
-                progress(done_n, len(todo))
-    return done_n, seconds
+    store lacks (or lost to a dead worker); commit each as it finishes. Returns (ladders
+    solved, their summed seconds)."""
+    chosen = [p for p in stretch_points(study, pts) if rows_by_key.get(p.key, {}).get("status") == "ok"]
+    done = done_keys(store, [stretch_key(p) for p in chosen])
+    todo = [(record("stretch", stretch_key(p), p), _task(study, p, rows_by_key[p.key]))
+            for p in chosen if stretch_key(p) not in done]
+    return solve_extras(study, store, todo, stretch_task, backend, progress)
 
 
 def characteristic_strain(study, row: dict) -> float | None:

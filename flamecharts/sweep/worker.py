@@ -22,7 +22,6 @@ from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
 from .lifeline import exit_with
-from .points import zeldovich_step
 from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
@@ -70,23 +69,33 @@ def make_task(study, point, warm: dict | None) -> dict:
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
             "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm,
             "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms)),
-            "zeldovich_step": zeldovich_step(study),
             "premixer_horizon_s": None if study.premixer is None else premixer_horizon(
                 study.premixer.residence_time_s, study.premixer.min_autoignition_margin)}
 
 
-def _flame_response(gas, task: dict, base: dict) -> dict:
-    """Lewis numbers of the fresh mixture and, when the study asks, the Zeldovich flames."""
+def _flame_response(task: dict) -> dict:
+    """Lewis numbers of the fresh mixture (mixture-averaged transport, whatever the study's)."""
     mixed = solution(task["mechanism_path"], "mixture-averaged", task["mechanism_sha256"])
     le_fuel, le_o2 = lewis_numbers(mixed, task["X"], task["T_u"], task["P"])
-    out = {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2}
-    if task.get("zeldovich_step"):
-        def solve(X, warm):
-            return solve_flame(gas, task["T_u"], task["P"], X, task["transport"], task["thermal_diffusion"],
-                               NUMERICS[task["resolution"]], warm, task.get("time_limit_s"))
-        out.update(zeldovich_flames(solve, task["X"], list(gas.species_names), task["T_u"], base,
-                                    task["zeldovich_step"]))
-    return out
+    return {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2}
+
+
+def zeldovich_task(task: dict) -> dict:
+    """The Zeldovich pair of a stored flame (chemistry.response.zeldovich_flames), warm-started
+    from its profile; a plain result dict in the store's form (runs in a worker)."""
+    t0 = time.perf_counter()
+    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
+
+    def solve(X, warm):
+        return solve_flame(gas, task["T_u"], task["P"], X, task["transport"], task["thermal_diffusion"],
+                           NUMERICS[task["resolution"]], warm, task.get("time_limit_s"))
+
+    base = {"metrics": task["base_metrics"], "profile": task["warm"]}
+    m = zeldovich_flames(solve, task["X"], list(gas.species_names), task["T_u"], base, task["zeldovich_step"])
+    ok = m["zeldovich_number"] is not None
+    return {"key": task["key"], "status": "ok" if ok else "failed", "reason": "" if ok else "not converged",
+            "message": m.get("zeldovich_message", ""), "start": "warm", "metrics": m, "profile_blob": None,
+            "solve_seconds": time.perf_counter() - t0}
 
 
 def stretch_task(task: dict) -> dict:
@@ -126,7 +135,7 @@ def solve_task(task: dict) -> dict:
         m["autoignition_screen_delay_s"] = autoignition_screen(
             task["mechanism_path"], task["X"], task["T_u"], task["P"], m.get("laminar_flame_speed_m_s"),
             m.get("thermal_thickness_m"), m.get("adiabatic_flame_temperature_K"))
-        m.update(_flame_response(gas, task, result))
+        m.update(_flame_response(task))
         if task.get("premixer_horizon_s"):  # [premixer]: the fresh mixture's ignition delay, stored for read-outs
             X = tuple(sorted((k, float(v)) for k, v in task["X"].items() if v > 0))
             try:
@@ -135,7 +144,6 @@ def solve_task(task: dict) -> dict:
                 m["premixer_horizon_s"] = task["premixer_horizon_s"]
             except Exception:  # noqa: BLE001 - the read-out tries again and says why in its column
                 pass
-        result["solve_seconds"] += m.get("zeldovich_seconds", 0.0)  # the point's cost, for run-time estimates
     # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
     # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
     result["profile_blob"] = pack_profile(result.pop("profile", None))

@@ -1,0 +1,83 @@
+"""Extra flames of finished points, solved after the sweep: the Zeldovich pair, the strained ladder.
+
+Record         what the store's commit needs of an extra (key, family, phi, p, T_u, inputs)
+derived_key    an extra's store key: the point's inputs, minus what does not change it, and its settings
+solve_extras   one task per extra the store lacks, on the run's backend; each committed as it finishes
+
+Extras are stored in the points table under their own keys (family '<kind>:<point family>',
+no profile, so never a warm-start source). A point's own key does not depend on them, so
+asking for an extra, or changing its settings, never solves the sweep again.
+"""
+from __future__ import annotations
+
+import hashlib
+import json
+import uuid
+from concurrent.futures import FIRST_COMPLETED, wait
+from dataclasses import dataclass
+from typing import Callable
+
+from ..store import Store
+from .points import Point
+
+
+@dataclass(frozen=True)
+class Record:
+    """What the store's commit needs of an extra (a point's key fields)."""
+
+    key: str
+    family: str
+    phi: float
+    pressure_bar: float
+    T_u: float
+    inputs: dict
+
+
+def derived_key(kind: str, p: Point, settings: dict, ignore: tuple[str, ...] = ()) -> str:
+    """Store key of the ``kind`` extra of point ``p``: its inputs (mechanism hash, Cantera
+    version, transport, numerics, compositions, phi, p, T_u) without ``ignore``, and ``settings``."""
+    inputs = {k: v for k, v in p.inputs.items() if k not in ignore}
+    text = json.dumps({kind: settings, "inputs": inputs}, sort_keys=True)
+    return hashlib.sha256(text.encode()).hexdigest()[:32]
+
+
+def record(kind: str, key: str, p: Point) -> Record:
+    return Record(key=key, family=f"{kind}:{p.family}", phi=p.phi, pressure_bar=p.pressure_bar, T_u=p.T_u,
+                  inputs={f"{kind}_of": p.key})
+
+
+#: Stored failures that the next run solves again (the failure may not recur), as for points.
+RETRIED = ("worker error", "time limit")
+
+
+def done_keys(store: Store, keys: list[str]) -> set[str]:
+    """Those of ``keys`` the store holds with an answer to keep (not a retried failure)."""
+    return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED}
+
+
+def solve_extras(study, store: Store, todo: list[tuple[Record, dict]], fn: Callable[[dict], dict], backend,
+                 progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+    """Solve ``fn(task)`` for every (record, task) on the backend, commit each result under its
+    record as it finishes (a worker that dies leaves a failed row: the next run tries again).
+    Returns (extras solved, their summed seconds)."""
+    if not todo:
+        return 0, 0.0
+    executor = backend.executor(study)
+    run_id = uuid.uuid4().hex[:12]
+    in_flight = {executor.submit(fn, task): rec for rec, task in todo}
+    done_n, seconds = 0, 0.0
+    while in_flight:
+        done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
+        for fut in done:
+            rec = in_flight.pop(fut)
+            try:
+                result = fut.result()
+            except Exception as exc:  # noqa: BLE001 - the worker died: record it, the next run tries again
+                result = {"status": "failed", "reason": "worker error", "start": "fresh", "metrics": None,
+                          "message": f"worker error: {type(exc).__name__}", "solve_seconds": 0.0, "profile_blob": None}
+            store.commit_point(rec, {**result, "inputs": rec.inputs}, run_id)
+            done_n += 1
+            seconds += float(result.get("solve_seconds") or 0.0)
+            if progress is not None:
+                progress(done_n, len(todo))
+    return done_n, seconds

@@ -1,0 +1,63 @@
+"""The Zeldovich pair of [flame_response]: two more flames per burning point, after the sweep.
+
+zeldovich_key     the pair's store key: the point's inputs and the inert step
+solve_zeldovich   one task per burning point whose pair the store lacks, warm-started from the
+                  point's stored profile, on the run's backend
+with_zeldovich    the stored rows of the points with their pair's metrics merged in
+
+Stored apart from the point (sweep.extras), so asking for the pair, or another inert step,
+never solves the sweep again.
+"""
+from __future__ import annotations
+
+from ..store import Store
+from .extras import derived_key, done_keys, record, solve_extras
+from .points import Point, zeldovich_step
+from .schedule import flame_time_limit
+from .worker import zeldovich_task
+
+#: Changes of the method that change the stored answer (part of the key).
+ZELDOVICH_VERSION = 1
+
+
+def zeldovich_key(p: Point, step: float) -> str:
+    return derived_key("zeldovich", p, {"version": ZELDOVICH_VERSION, "inert_step": step})
+
+
+def _task(study, p: Point, stored: dict, warm: dict | None, step: float) -> dict:
+    return {"key": zeldovich_key(p, step), "mechanism_path": study.mechanism_path,
+            "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
+            "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution, "T_u": p.T_u,
+            "P": p.P, "X": p.X_unburned, "base_metrics": stored["metrics"], "warm": warm, "zeldovich_step": step,
+            "time_limit_s": 2 * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
+
+
+def solve_zeldovich(study, store: Store, pts: list[Point], stored: dict[str, dict], backend,
+                    progress=None) -> tuple[int, float]:
+    """Solve the pair of every burning point of ``pts`` (``stored``: the store's rows by key)
+    that the store lacks. Returns (pairs solved, their summed seconds)."""
+    step = zeldovich_step(study)
+    if step is None:
+        return 0, 0.0
+    burning = list({p.key: p for p in pts if (stored.get(p.key) or {}).get("status") == "ok"}.values())
+    done = done_keys(store, [zeldovich_key(p, step) for p in burning])
+    todo = [(record("zeldovich", zeldovich_key(p, step), p),
+             _task(study, p, stored[p.key], store.profile(p.key), step))
+            for p in burning if zeldovich_key(p, step) not in done]
+    return solve_extras(study, store, todo, zeldovich_task, backend, progress)
+
+
+def with_zeldovich(study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
+    """``stored`` with each point's Zeldovich metrics merged into its metrics (when asked for
+    and solved); a new dict, the store's rows untouched."""
+    step = zeldovich_step(study)
+    if step is None:
+        return stored
+    pairs = store.rows([zeldovich_key(p, step) for p in pts])
+    out = dict(stored)
+    for p in pts:
+        pair = pairs.get(zeldovich_key(p, step))
+        row = stored.get(p.key)
+        if pair and row and pair.get("metrics") and row.get("metrics"):
+            out[p.key] = {**row, "metrics": {**row["metrics"], **pair["metrics"]}}
+    return out
