@@ -530,6 +530,10 @@ def _stretch(t: Any, axes: dict[str, tuple]) -> Stretch:
         elif key in ("fuel", "oxidizer"):
             chosen[key] = _string_list(t[key], f"stretch.{key}", allowed)
         else:
+            if t[key] == []:
+                raise ConfigError(f"'stretch.{key}' is empty; give at least one of the swept values "
+                                  f"({', '.join(f'{a:g}' for a in allowed)})"
+                                  + ("" if key == "equivalence_ratio" else " or leave the key out (all of them)"))
             values = _axis(t[key], f"stretch.{key}")
             for v in values:
                 if not any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12) for a in allowed):
