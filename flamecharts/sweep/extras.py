@@ -19,6 +19,7 @@ from typing import Callable
 
 from ..store import Store
 from .points import Point
+from .run import RETRIED_REASONS, worker_error
 
 
 @dataclass(frozen=True)
@@ -33,11 +34,10 @@ class Record:
     inputs: dict
 
 
-def derived_key(kind: str, p: Point, settings: dict, ignore: tuple[str, ...] = ()) -> str:
+def derived_key(kind: str, p: Point, settings: dict) -> str:
     """Store key of the ``kind`` extra of point ``p``: its inputs (mechanism hash, Cantera
-    version, transport, numerics, compositions, phi, p, T_u) without ``ignore``, and ``settings``."""
-    inputs = {k: v for k, v in p.inputs.items() if k not in ignore}
-    text = json.dumps({kind: settings, "inputs": inputs}, sort_keys=True)
+    version, transport, numerics, compositions, phi, p, T_u) and ``settings``."""
+    text = json.dumps({kind: settings, "inputs": p.inputs}, sort_keys=True)
     return hashlib.sha256(text.encode()).hexdigest()[:32]
 
 
@@ -46,13 +46,10 @@ def record(kind: str, key: str, p: Point) -> Record:
                   inputs={f"{kind}_of": p.key})
 
 
-#: Stored failures that the next run solves again (the failure may not recur), as for points.
-RETRIED = ("worker error", "time limit")
-
-
 def done_keys(store: Store, keys: list[str]) -> set[str]:
-    """Those of ``keys`` the store holds with an answer to keep (not a retried failure)."""
-    return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED}
+    """Those of ``keys`` the store holds with an answer to keep (not a failure the next run
+    solves again, as for points: sweep.run.RETRIED_REASONS)."""
+    return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED_REASONS}
 
 
 def solve_extras(study, store: Store, todo: list[tuple[Record, dict]], fn: Callable[[dict], dict], backend,
@@ -73,8 +70,7 @@ def solve_extras(study, store: Store, todo: list[tuple[Record, dict]], fn: Calla
             try:
                 result = fut.result()
             except Exception as exc:  # noqa: BLE001 - the worker died: record it, the next run tries again
-                result = {"status": "failed", "reason": "worker error", "start": "fresh", "metrics": None,
-                          "message": f"worker error: {type(exc).__name__}", "solve_seconds": 0.0, "profile_blob": None}
+                result = worker_error(exc)
             store.commit_point(rec, {**result, "inputs": rec.inputs}, run_id)
             done_n += 1
             seconds += float(result.get("solve_seconds") or 0.0)

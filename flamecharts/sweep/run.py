@@ -139,7 +139,8 @@ class _CtrlC:
             signal.signal(signal.SIGINT, self._old if self._old is not None else signal.SIG_DFL)
 
 
-def _worker_error(exc: BaseException) -> dict:
+def worker_error(exc: BaseException) -> dict:
+    """The failed result of a task whose worker died or raised (the next run solves it again)."""
     return {"status": Status.FAILED, "reason": Reason.WORKER_ERROR, "start": "fresh", "metrics": None, "profile": None,
             "message": f"{Reason.WORKER_ERROR}: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}
 
@@ -199,7 +200,7 @@ class _Loop:
                 self.sched.push(p.index)
                 self.executor = self.backend.renew(self.study)
                 return None
-            return _worker_error(exc)
+            return worker_error(exc)
 
 
 def solve_points(study, store: Store, pts: list[Point], backend, progress=None,

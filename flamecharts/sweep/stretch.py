@@ -109,8 +109,3 @@ def stretch_rows(study, pts: list[Point], rows_by_key: dict[str, dict], store: S
         K, c = r["extinction_strain_rate_1_s"], r["characteristic_strain_1_s"]
         r["extinction_strain_margin"] = K / c if K and c else None
     return out
-
-
-def stretch_flames(study) -> int:
-    """Upper bound of the strained flames a study's [stretch] request solves (for check)."""
-    return 0 if study.stretch is None else study.stretch.n_ladders * strained.MAX_SOLVES

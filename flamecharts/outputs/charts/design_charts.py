@@ -10,8 +10,6 @@ Drawn from flat rows only (see design.annotate), like every chart; each register
 """
 from __future__ import annotations
 
-import textwrap
-
 import numpy as np
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
@@ -20,8 +18,8 @@ from scipy.interpolate import RegularGridInterpolator
 from ...admissible.driver import kept
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
-from .registry import (MAX_PANELS, NOTE_WIDTH, burning_blends, chart, conditions_note, has_margins, has_window,
-                       several_blends, spread, varies_p_or_T)
+from .registry import (MAX_PANELS, burning_blends, chart, conditions_note, has_margins, has_window, several_blends,
+                       spread, thinned_note, varies_p_or_T)
 from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, ok_rows, phi_near_one, plain_log_ticks
 
 
@@ -155,12 +153,9 @@ def blend_chart(data, study):
         ax.grid(True, color="0.9", lw=0.6)
     handles["S_L at a fixed T_ad (grey, dashed;\nT_ad of the unblended gas on its lean side)"] = Line2D(
         [], [], color="0.3", marker="s", linestyle="--")
-    note = ("" if len(conditions) == len(shown) else
-            f"\nShown: {len(shown)} of {len(conditions)} fuel/condition blocks (evenly spread, first and last)")
-    if len(phis) < len(all_phis):
-        note += (f"{';' if note else chr(10) + 'Shown:'} {len(phis)} of {len(all_phis)} equivalence ratios "
-                 f"({', '.join(f'{v:g}' for v in phis)})")
-    note = "\n" + textwrap.fill(note.strip() + "; every point is in results.csv and results.nc", NOTE_WIDTH) if note else ""
+    blocks = ("" if len(conditions) == len(shown) else
+              f"{len(shown)} of {len(conditions)} fuel/condition blocks (evenly spread, first and last)")
+    note = thinned_note({"equivalence_ratio": phis}, {"equivalence_ratio": all_phis}, (blocks,))
     return finish(fig, study, (f"Blend comparison: {study.blend_with} blended in",
                                 "What does blending change? At fixed φ, and S_L at equal adiabatic flame "
                                 f"temperature{note}"),

@@ -51,9 +51,10 @@ def spread(values, k: int) -> list:
     return [values[i] for i in sorted({int(j * (len(values) - 1) / (k - 1) + 0.5) for j in range(k)})]
 
 
-def thinned_note(shown: dict[str, list], every: dict[str, list]) -> str:
-    """One line naming the levels a chart leaves out ('' when it draws them all)."""
-    parts = []
+def thinned_note(shown: dict[str, list], every: dict[str, list], also: tuple[str, ...] = ()) -> str:
+    """One line naming the levels a chart leaves out ('' when it draws them all); ``also``:
+    phrases of its own for what else it leaves out (e.g. '2 of 4 fuel/condition blocks')."""
+    parts = [a for a in also if a]
     for axis, values in shown.items():
         if len(values) < len(every[axis]):
             name, unit = _AXIS_WORDS[axis]
@@ -69,9 +70,8 @@ def conditions_note(drawn: list[tuple[float, float]], n_every: int) -> str:
     """One line naming the (pressure, preheat) conditions a chart draws when it leaves some out."""
     if len(drawn) >= n_every:
         return ""
-    return "\n" + textwrap.fill(f"Shown: {len(drawn)} of {n_every} conditions (p, T_u): "
-                                + ", ".join(f"{P:g} bar {T:g} K" for P, T in drawn)
-                                + "; every point is in results.csv and results.nc", NOTE_WIDTH)
+    return thinned_note({}, {}, (f"{len(drawn)} of {n_every} conditions (p, T_u): "
+                                 + ", ".join(f"{P:g} bar {T:g} K" for P, T in drawn),))
 
 
 @dataclass(frozen=True)
