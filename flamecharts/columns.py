@@ -37,6 +37,10 @@ UNITS: dict[str, tuple[str, str]] = {
     "unburned_density_kg_m3": ("kg/m3", "unburned density"),
     "unburned_thermal_diffusivity_m2_s": ("m2/s", "unburned thermal diffusivity"),
     "grid_points": ("1", "grid points of the final flame"),
+    "flame_speed_numerical_error_percent": ("%", "grid error band of the flame speed: Roache's grid convergence "
+                                                 "index from the flame on its grid, every 2nd and every 4th point"),
+    "thermal_thickness_numerical_error_percent": ("%", "grid error band of the thermal thickness (same method)"),
+    "grid_convergence": ("", "how the three grids converged: monotone, oscillating or two grids"),
     "solve_seconds": ("s", "wall time of the flame's solve"),
     "mechanism": ("", "reaction mechanism"),
     "transport": ("", "transport model"),
@@ -90,6 +94,14 @@ UNITS: dict[str, tuple[str, str]] = {
     "ignition_delay_ms": ("ms", "constant-pressure ignition delay of the fresh mixture (time of max dT/dt)"),
     "autoignition_margin": ("1", "ignition delay over premixer residence time"),
     "autoignition_verdict": ("", "ok or autoignition risk (margin below the premixer's minimum)"),
+    "flame_speed_kinetic_uncertainty_percent": ("%", "1-sigma kinetic uncertainty of the flame speed, first order "
+                                                     "from adjoint sensitivities and rate-constant uncertainty "
+                                                     "factors ([uncertainty])"),
+    "most_sensitive_reaction": ("", "reaction whose rate constant the flame speed is most sensitive to"),
+    "most_sensitive_reaction_sensitivity": ("1", "its normalized sensitivity d ln S_L / d ln k"),
+    "reactions_default_factor": ("1", "reactions with |sensitivity| >= 0.005 that took the default uncertainty "
+                                      "factor"),
+    "default_factor_variance_percent": ("%", "share of the kinetic band's variance from those reactions"),
     "lewis_number_fuel": ("1", "Lewis number of the fuel in the fresh mixture (blends: heat-release weighted, "
                                "Law et al. 2005)"),
     "lewis_number_oxygen": ("1", "Lewis number of O2 in the fresh mixture"),
@@ -113,6 +125,12 @@ UNITS: dict[str, tuple[str, str]] = {
     "ladder_seconds": ("s", "wall time of the ladder in its worker"),
     "strain_rates_1_s": ("1/s", "strain rates of the burning ladder steps, space-separated"),
     "consumption_speeds_m_s": ("m/s", "consumption speeds of those steps, space-separated"),
+    "rank": ("1", "rank of the reaction by |sensitivity| at this point"),
+    "reaction": ("", "reaction equation as the mechanism writes it (duplicates and third-body variants summed)"),
+    "sensitivity": ("1", "normalized sensitivity of the flame speed d ln S_L / d ln k (adjoint)"),
+    "uncertainty_factor": ("1", "rate-constant uncertainty factor f used for the band"),
+    "factor_source": ("", "where f comes from: the study, the packaged table's source, or default"),
+    "variance_share_percent": ("%", "share of the kinetic band's variance from this reaction"),
     "limit": ("", "which limit: max_blend_fraction, lean_edge_equivalence_ratio, rich_edge_equivalence_ratio"),
     "limit_value": ("1", "the limit: admissible end of the final bracket (blend fraction or equivalence ratio)"),
     "outcome": ("", "found, whole range, beyond swept range, none admissible or stopped"),
@@ -148,6 +166,18 @@ BURNER_COLUMNS = (
 
 #: Premixer autoignition columns (empty unless the study has a [premixer] table).
 PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+#: Numerical error of every flame (physics.grid_error), right after its grid points.
+#: (Richardson's extrapolated S_L is stored with each flame but not a column: on the benchmark's
+#: grid-converged flames it was further off than the flame's own value, docs/benchmarks.md.)
+NUMERICAL_COLUMNS = ("flame_speed_numerical_error_percent", "thermal_thickness_numerical_error_percent",
+                     "grid_convergence")
+#: Kinetic uncertainty of the flame speed (empty unless the study has an [uncertainty] table).
+KINETIC_COLUMNS = ("flame_speed_kinetic_uncertainty_percent", "most_sensitive_reaction",
+                   "most_sensitive_reaction_sensitivity", "reactions_default_factor", "default_factor_variance_percent")
+#: sensitivities.csv: the largest sensitivities of each point, one row per reaction.
+SENSITIVITY_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+                       "unburned_temperature_K", "rank", "reaction", "sensitivity", "uncertainty_factor",
+                       "factor_source", "variance_share_percent")
 #: How the flame responds to stretch (physics.flame_response); Ze and what needs it with [flame_response].
 RESPONSE_COLUMNS = ("lewis_number_fuel", "lewis_number_oxygen", "zeldovich_number", "effective_lewis_number",
                     "markstein_number_unburned", "markstein_length_mm", "instability")
@@ -166,9 +196,9 @@ COLUMNS = (
     "unburned_temperature_K", "status", "laminar_flame_speed_m_s", "thermal_thickness_mm",
     "diffusive_thickness_mm", "reaction_zone_thickness_mm", "adiabatic_flame_temperature_K",
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
-    "unburned_thermal_diffusivity_m2_s", "grid_points", "solve_seconds", "mechanism", "transport",
+    "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
+) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
 
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (
@@ -199,6 +229,8 @@ FROM_METRICS = {
     "unburned_density_kg_m3": ("unburned_density_kg_m3", 1.0),
     "unburned_thermal_diffusivity_m2_s": ("unburned_thermal_diffusivity_m2_s", 1.0),
     "grid_points": ("grid_points", 1),
+    "flame_speed_numerical_error": ("flame_speed_numerical_error_percent", 100.0),
+    "thermal_thickness_numerical_error": ("thermal_thickness_numerical_error_percent", 100.0),
     "lewis_number_fuel": ("lewis_number_fuel", 1.0),
     "lewis_number_oxygen": ("lewis_number_oxygen", 1.0),
     "zeldovich_number": ("zeldovich_number", 1.0),

@@ -51,7 +51,7 @@ RESOLUTIONS = ("standard", "fine", "coarse")
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response", "stretch")
+            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
@@ -73,12 +73,16 @@ DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
+UNCERTAINTY_KEYS = ("kinetics", "factors", "default_factor", "factor_sigmas", "error_bars")
 #: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
 STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
 #: Most strained-flame ladders one study may ask for (each is 10-40 flames).
 MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
 from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
+from .chemistry.mechanism import reaction_equations  # noqa: E402
+from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
+from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
 #: Default required autoignition margin (ignition delay over premixer residence time;
 #: common practice without source: set your own).
 DEFAULT_MIN_AUTOIGNITION_MARGIN = 3.0
@@ -174,6 +178,23 @@ class FlameResponse:
 
 
 @dataclass(frozen=True)
+class Uncertainty:
+    """The [uncertainty] request: flame-speed sensitivities to every rate constant of each
+    burning point (``kinetics``, one adjoint solve each after the sweep), combined with
+    rate-constant uncertainty factors into a kinetic band (physics.kinetic_uncertainty).
+    ``factors`` are the user's (reaction_key -> f), over the packaged table
+    (chemistry.rate_factors); ``default_factor`` is f of reactions neither names.
+    ``factor_sigmas``: how many standard deviations of ln k a factor's bound stands for.
+    ``error_bars`` draws each flame's numerical error band on the flame-speed chart."""
+
+    kinetics: bool = True
+    factors: tuple[tuple[str, float], ...] = ()
+    default_factor: float = DEFAULT_RATE_FACTOR
+    factor_sigmas: float = SIGMAS_PER_FACTOR
+    error_bars: bool = False
+
+
+@dataclass(frozen=True)
 class Stretch:
     """The [stretch] request: the swept mixtures (a subset of each sweep axis) that get a
     twin counterflow flame ladder from low strain to extinction (chemistry.strained)."""
@@ -243,6 +264,7 @@ class Study:
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
     flame_response: "FlameResponse | None" = None
     stretch: "Stretch | None" = None
+    uncertainty: "Uncertainty | None" = None
 
     @property
     def n_points(self) -> int:
@@ -513,6 +535,48 @@ def _flame_response(t: Any) -> FlameResponse:
     return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
 
 
+def _uncertainty(t: Any, mech_path) -> Uncertainty:
+    """The [uncertainty] table; each reaction named in ``factors`` must be one of the mechanism's."""
+    if not isinstance(t, dict):
+        raise ConfigError("'uncertainty' must be a table")
+    _check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
+    flags = {}
+    for key, default in (("kinetics", True), ("error_bars", False)):
+        flags[key] = t.get(key, default)
+        if not isinstance(flags[key], bool):
+            raise ConfigError(f"'uncertainty.{key}' must be true or false, got {show(flags[key])}")
+    default = _positive(t, "default_factor", "uncertainty")
+    if default is not None and not 1.0 <= default <= MAX_RATE_FACTOR:
+        raise ConfigError(f"'uncertainty.default_factor' is {default:g}; allowed: 1 to {MAX_RATE_FACTOR:g} (a "
+                          "factor f: the rate constant lies between k/f and k*f)")
+    sigmas = _positive(t, "factor_sigmas", "uncertainty")
+    if sigmas is not None and not 1.0 <= sigmas <= 4.0:
+        raise ConfigError(f"'uncertainty.factor_sigmas' is {sigmas:g}; allowed: 1 to 4 (standard deviations a "
+                          "factor's bound stands for: 2 or 3 in the literature)")
+    given = t.get("factors", {})
+    if not isinstance(given, dict):
+        raise ConfigError("'uncertainty.factors' must be a table of \"reaction equation\" = factor, e.g. "
+                          "factors = { \"H + O2 <=> O + OH\" = 1.3 }")
+    equations = reaction_equations(str(mech_path))
+    by_key = {reaction_key(e): e for e in equations}
+    factors = []
+    for eq, f in given.items():
+        try:
+            key = reaction_key(eq)
+        except ValueError:
+            key = None
+        if key not in by_key:
+            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {Path(mech_path).name} does not "
+                              f"have{_suggest(eq, list(equations))[:200]}")
+        if isinstance(f, bool) or not isinstance(f, (int, float)) or not 1.0 <= f <= MAX_RATE_FACTOR:
+            raise ConfigError(f"'uncertainty.factors' gives {eq!r} the factor {show(f)}; allowed: a number from 1 to "
+                              f"{MAX_RATE_FACTOR:g}")
+        factors.append((key, float(f)))
+    return Uncertainty(kinetics=flags["kinetics"], error_bars=flags["error_bars"], factors=tuple(factors),
+                       **({} if default is None else {"default_factor": default}),
+                       **({} if sigmas is None else {"factor_sigmas": sigmas}))
+
+
 def _stretch(t: Any, axes: dict[str, tuple]) -> Stretch:
     """The [stretch] table: each key a subset of its sweep axis (default: the whole axis,
     except equivalence_ratio, which must be given)."""
@@ -771,7 +835,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
-        keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with))
+        keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
+        uncertainty=_uncertainty(data["uncertainty"], mech_path) if "uncertainty" in data else None)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -9,15 +9,18 @@ point_warnings            inputs outside the range the method or the mechanism c
 """
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 from .chemistry.ignition import autoignition_warning, ignition_delay_peak, premixer_horizon
-from .chemistry.mechanism import fallback_data, molar_masses, solution
-from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, PREMIXER_COLUMNS
+from .chemistry.mechanism import fallback_data, molar_masses, reaction_equations, solution
+from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
 from .physics import flame_response as fr
 from .physics import indicators as ind
+from .physics import kinetic_uncertainty as ku
+from .physics.rate_factors import RATE_FACTORS
 from .physics import mixtures
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
 from .physics.limits import flammability_warning, heavy_hydrocarbon_warning, pressure_warning
@@ -188,6 +191,8 @@ def annotate(study, rows: list[dict]) -> list[dict]:
         if r["status"] == "ok":
             r.update(_indicators(r, s))
         r.update(response_columns(r))
+        if study.uncertainty is not None:
+            r.update(kinetic_columns(study, r))
     index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
               r["unburned_temperature_K"]): r for r in rows}
     has_zero = 0.0 in study.blend_fractions
@@ -223,6 +228,67 @@ def response_columns(row: dict) -> dict:
     out.update(effective_lewis_number=le_eff, markstein_number_unburned=ma, markstein_length_mm=ma * delta_mm,
                instability=fr.thermodiffusive_regime(ze, le_eff))
     return out
+
+
+#: Reactions kept per point for sensitivities.csv, the report and the sensitivity chart.
+TOP_REACTIONS = 10
+#: Reactions (grouped) whose |sensitivity| is below this are not counted as lacking a factor.
+COUNTED_SENSITIVITY = 0.005
+
+
+def rate_factor(study, key: str) -> tuple[float, str]:
+    """Uncertainty factor of reaction ``key`` (physics.kinetic_uncertainty.reaction_key) and
+    where it comes from: the study's [uncertainty] factors, the packaged table, or the default."""
+    mine = dict(study.uncertainty.factors)
+    if key in mine:
+        return mine[key], "study"
+    if key in RATE_FACTORS:
+        return RATE_FACTORS[key][0], RATE_FACTORS[key][1]
+    return study.uncertainty.default_factor, "default"
+
+
+def kinetic_columns(study, row: dict) -> dict:
+    """Kinetic uncertainty band of a point's flame speed from its stored sensitivities
+    (physics.kinetic_uncertainty, first order), the most sensitive reaction, and how much of
+    the band rests on the default factor; ``top_reactions`` (not a column) lists the
+    :data:`TOP_REACTIONS` largest with factor and share of the variance. The sensitivity
+    vector is dropped from the row once used (a GRI-Mech 3.0 vector is 325 numbers)."""
+    out = dict.fromkeys(KINETIC_COLUMNS)
+    out["top_reactions"] = []
+    sens = row.pop("reaction_sensitivities", None)
+    if row["status"] != "ok" or not sens:
+        return out
+    equations = reaction_equations(study.mechanism_path)
+    first = {}
+    for eq in equations:
+        first.setdefault(ku.reaction_key(eq), eq)
+    groups = ku.grouped(equations, sens)
+    factors = {k: rate_factor(study, k) for k in groups}
+    parts = {k: (s * math.log(factors[k][0]) / study.uncertainty.factor_sigmas) ** 2 for k, s in groups.items()}
+    variance = sum(parts.values())
+    sigma = ku.flame_speed_band(list(groups.values()), [factors[k][0] for k in groups],
+                                study.uncertainty.factor_sigmas)
+    defaulted = [k for k, s in groups.items() if factors[k][1] == "default" and abs(s) >= COUNTED_SENSITIVITY]
+    top = next(iter(groups))
+    out.update(flame_speed_kinetic_uncertainty_percent=100.0 * sigma, most_sensitive_reaction=first[top],
+               most_sensitive_reaction_sensitivity=groups[top], reactions_default_factor=len(defaulted),
+               default_factor_variance_percent=100.0 * sum(parts[k] for k in defaulted) / variance if variance else 0.0)
+    out["top_reactions"] = [{"reaction": first[k], "sensitivity": s, "uncertainty_factor": factors[k][0],
+                             "factor_source": factors[k][1],
+                             "variance_share_percent": 100.0 * parts[k] / variance if variance else 0.0}
+                            for k, s in list(groups.items())[:TOP_REACTIONS]]
+    return out
+
+
+def error_bar_sentence(r: dict) -> str:
+    """How sure a burning point's S_L is, in one line: 'S_L at φ 1 = 37.8 cm/s ± 0.89 % numerics,
+    ± 6 % kinetics (1σ), most sensitive to H + O2 <=> O + OH' (kinetics with [uncertainty] only)."""
+    text = (f"S_L at φ {r['equivalence_ratio']:g} = {100 * r['laminar_flame_speed_m_s']:.3g} cm/s "
+            f"± {r['flame_speed_numerical_error_percent']:.2g} % numerics")
+    if r.get("flame_speed_kinetic_uncertainty_percent") is not None:
+        text += (f", ± {r['flame_speed_kinetic_uncertainty_percent']:.2g} % kinetics (1σ), most sensitive to "
+                 f"{r['most_sensitive_reaction']}")
+    return text
 
 
 def instability_warning(row: dict) -> str:

@@ -16,13 +16,14 @@ from typing import Callable
 from .admissible import LimitsProgress, find_limits
 from .config import Study, load_study, save_config_copy
 from .errors import FlamechartsError
-from .results import Results, point_rows, rows_from_dir, to_dataset
+from .results import Results, point_rows, rows_from_dir, stored_with_extras, to_dataset
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
-from .sweep.zeldovich import solve_zeldovich, with_zeldovich
+from .sweep.kinetics import solve_sensitivities
+from .sweep.zeldovich import solve_zeldovich
 
 
 @dataclass
@@ -101,7 +102,10 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
             if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
                 _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _labelled(extras_progress,
                                                                                                 "Zeldovich pairs"))
-            rows = point_rows(study, pts, with_zeldovich(study, pts, stored, store))
+                # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
+                extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
+                                                     _labelled(extras_progress, "flame-speed sensitivities"))[1]
+            rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
             limits, limit_solved = [], [0]
             if study.limits is not None and stop_after is None:
                 def solve(new_points) -> int:

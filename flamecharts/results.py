@@ -36,6 +36,7 @@ from .outcome import Reason, Status
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
 from .sweep.points import Point, points
+from .sweep.kinetics import with_sensitivities
 from .sweep.zeldovich import with_zeldovich
 
 
@@ -59,7 +60,9 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     for name, (col, scale) in FROM_METRICS.items():
         v = metrics.get(name)
         row[col] = None if v is None else v * scale
-    for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "premixer_horizon_s"):
+    row["grid_convergence"] = metrics.get("grid_convergence", "")
+    for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "premixer_horizon_s",
+                 "reaction_sensitivities"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -92,12 +95,30 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
     return rows
 
 
+def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
+    """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
+    merged into its metrics: the Zeldovich pair, the flame-speed sensitivities."""
+    stored = store.rows([p.key for p in pts]) if stored is None else stored
+    return with_sensitivities(study, pts, with_zeldovich(study, pts, stored, store), store)
+
+
+def sensitivity_rows(rows: list[dict]) -> list[dict]:
+    """sensitivities.csv: the largest sensitivities of each burning point (design.kinetic_columns),
+    one row per reaction (columns.SENSITIVITY_COLUMNS)."""
+    out = []
+    for r in rows:
+        for rank, t in enumerate(r.get("top_reactions") or (), start=1):
+            out.append({**{a: r[a] for a in ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio",
+                                             "pressure_bar", "unburned_temperature_K")}, "rank": rank, **t})
+    return out
+
+
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     """The study of a finished run folder and its rows, read from the store alone."""
     study = load_config_copy(out_dir)
     pts = points(study)
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        stored = with_zeldovich(study, pts, store.rows([p.key for p in pts]), store)
+        stored = stored_with_extras(study, pts, store)
         n_stored = len(store.keys())
     if n_stored and not stored:
         raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches the study any more: the "

@@ -53,6 +53,13 @@ def solution(path: str, transport: str | None = None, sha256: str = "") -> ct.So
     return ct.Solution(str(path), transport_model=cantera_model(transport))
 
 
+@lru_cache(maxsize=8)
+def reaction_equations(path: str) -> tuple[str, ...]:
+    """Reaction equations of the mechanism at ``path``, in its order (the order of Cantera's
+    reaction sensitivities, chemistry.sensitivity)."""
+    return tuple(solution(path).reaction_equations())
+
+
 def molar_masses(path: str, species) -> dict[str, float]:
     """Molar mass [kg/kmol] of each species of the mechanism."""
     gas = solution(path)

@@ -9,6 +9,7 @@ from pathlib import Path
 from ..columns import gas_label
 from ..admissible.driver import kept, limit_sentence
 from ..config import check_cluster_spec, load_study, lumping_note
+from ..design import error_bar_sentence
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..sweep.run import RunInterrupted
@@ -68,9 +69,11 @@ def cmd_run(args) -> int:
     print_premixer(study, summary.rows)
     _print_limits(study, summary)
     _print_stretch(summary)
+    _print_error_bars(study, summary.rows)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
-          + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "") + ")")
+          + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "")
+          + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
         if not args.no_report:
@@ -119,6 +122,24 @@ def _print_stretch(summary) -> None:
         ma, margin = r["markstein_number_strain"], r["extinction_strain_margin"]
         print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else "")
               + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
+
+
+def _print_error_bars(study, rows) -> None:
+    """How sure the flame speeds are: per gas and condition, the point nearest phi 1 (with
+    [uncertainty]; every flame's numerical band is in results.csv either way)."""
+    if study.uncertainty is None:
+        return
+    ok = [r for r in rows if r["status"] == "ok" and r.get("flame_speed_numerical_error_percent") is not None]
+    groups: dict[tuple, list] = {}
+    for r in ok:
+        groups.setdefault((gas_label(r), r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
+    print("Error bars of S_L (numerics: grid convergence index; kinetics: 1 sigma, first order, rate-constant "
+          "factors; sensitivities.csv):")
+    for (gas, _ox, P, T), rs in list(groups.items())[:20]:
+        near = min(rs, key=lambda r: (abs(r["equivalence_ratio"] - 1.0), r["equivalence_ratio"]))
+        print(f"  {gas}, {P:g} bar, {T:g} K: " + error_bar_sentence(near).replace("φ", "phi").replace("σ", " sigma"))
+    if len(groups) > 20:
+        print(f"  ... and {len(groups) - 20} more (report.html, results.csv)")
 
 
 def _utilisation(summary) -> str:

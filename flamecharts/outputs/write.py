@@ -3,9 +3,9 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ..columns import GAS_TABLE_COLUMNS, LIMIT_COLUMNS, STRETCH_COLUMNS
+from ..columns import GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENSITIVITY_COLUMNS, STRETCH_COLUMNS
 from ..design import fuel_gas_table
-from ..results import exponent_table, to_dataset
+from ..results import exponent_table, sensitivity_rows, to_dataset
 from .charts import draw_all
 from .netcdf import write_netcdf
 from .report import write_report
@@ -17,7 +17,8 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
-    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]), ``stretch`` those of stretch.csv ([stretch]). Returns the files written, results.csv first."""
+    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]), ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv
+    with [uncertainty]. Returns the files written, results.csv first."""
     out = Path(out)
     gases = fuel_gas_table(study)
     ds = to_dataset(study, rows) if dataset is None else dataset
@@ -30,6 +31,9 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
         files.append(write_csv(limits, out / "limits.csv", LIMIT_COLUMNS))
     if stretch:
         files.append(write_csv(stretch, out / "stretch.csv", STRETCH_COLUMNS))
+    sensitivities = sensitivity_rows(rows)
+    if sensitivities:
+        files.append(write_csv(sensitivities, out / "sensitivities.csv", SENSITIVITY_COLUMNS))
     if charts:
         files += draw_all(rows, gases, study, out, ds, limits or [], stretch or [])
     if charts and report:

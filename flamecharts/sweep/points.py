@@ -21,7 +21,7 @@ from ..config import Study, flame_stream, fuel_stream
 from ..physics import mixtures
 
 #: Bump when the measurements taken from a converged flame change meaning.
-MEASURE_VERSION = 1
+MEASURE_VERSION = 2  # 2: the grid error estimate of every flame (chemistry.flame.grid_error)
 
 
 def _num(x: float) -> str:

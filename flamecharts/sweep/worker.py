@@ -18,6 +18,7 @@ from pathlib import Path
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, ignition_delay_peak, premixer_horizon
 from ..chemistry.response import lewis_numbers, zeldovich_flames
+from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
@@ -26,7 +27,7 @@ from .schedule import flame_time_limit
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
-               "chemistry/strained.py",
+               "chemistry/strained.py", "chemistry/sensitivity.py",
                "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
 
 
@@ -96,6 +97,23 @@ def zeldovich_task(task: dict) -> dict:
     return {"key": task["key"], "status": "ok" if ok else "failed", "reason": "" if ok else "not converged",
             "message": m.get("zeldovich_message", ""), "start": "warm", "metrics": m, "profile_blob": None,
             "solve_seconds": time.perf_counter() - t0}
+
+
+def sensitivity_task(task: dict) -> dict:
+    """Flame-speed sensitivities to every rate constant of a stored flame (chemistry.sensitivity,
+    adjoint); a plain result dict in the store's form (runs in a worker)."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
+    try:
+        m = flame_speed_sensitivities(gas, task["T_u"], task["P"], task["X"], task["transport"],
+                                      task["thermal_diffusion"], task["warm"], NUMERICS[task["resolution"]])
+        status, reason, message = "ok", "", ""
+    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the next run tries again
+        m, status, reason = None, "failed", "not converged"
+        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
+            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
+            "cpu_seconds": time.process_time() - cpu0}
 
 
 def stretch_task(task: dict) -> dict:

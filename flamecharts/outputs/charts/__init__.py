@@ -4,6 +4,8 @@ registry.py      the one list of charts: name, caption, when it applies
 style.py         what every chart shares: colours, markers, frame, footer with the cautions
 phi_charts.py    flame speed, thickness and adiabatic flame temperature against equivalence ratio
 design_charts.py pressure/preheat dependence, blends, flashback, operating window, gas interchangeability
+stretch_charts.py strained flames: consumption speed against strain, extinction
+uncertainty_charts.py flame-speed sensitivity to rate constants ([uncertainty])
 """
 from __future__ import annotations
 
@@ -17,6 +19,7 @@ from ...results import to_dataset
 from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
 from . import design_charts  # noqa: F401,I001
 from . import stretch_charts  # noqa: F401,I001
+from . import uncertainty_charts  # noqa: F401,I001
 from .registry import CHARTS, ChartData
 
 #: chart file name -> one-line caption of how to read it (the report prints it)

@@ -20,8 +20,55 @@ from .registry import any_flame, chart
 from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys
 
 
+def _error_bands(ax, good: list[dict], column: str, scale: float, colour, band: str | None,
+                 error_bars: str | None) -> set[str]:
+    """Draw a curve's kinetic band (shaded, column ``band`` in percent) and numerical band
+    (error bars, column ``error_bars``); returns which of 'band', 'bars' were drawn."""
+    drawn = set()
+    banded = [r for r in good if band and r.get(band) is not None]
+    if banded:
+        y = np.array([r[column] * scale for r in banded])
+        w = np.array([r[band] / 100.0 for r in banded])
+        ax.fill_between([r["equivalence_ratio"] for r in banded], y * (1 - w), y * (1 + w), color=colour, alpha=0.18,
+                        lw=0)
+        drawn.add("band")
+    bars = [r for r in good if error_bars and r.get(error_bars) is not None]
+    if bars:
+        ax.errorbar([r["equivalence_ratio"] for r in bars], [r[column] * scale for r in bars],
+                    yerr=[r[column] * scale * r[error_bars] / 100.0 for r in bars], fmt="none", ecolor=colour,
+                    elinewidth=1.0, capsize=2.5)
+        drawn.add("bars")
+    return drawn
+
+
+def _legend_extras(handles: dict, shown: set[str], companion) -> None:
+    """Legend entries for what a phi chart drew beyond its curves (axis markers, rings, bands, companion)."""
+    for status, marker in NOT_BURNING:
+        if status in shown:
+            text = ("no flame (on the axis, colour of its curve)" if status == "no_flame"
+                    else "solver failed or not solved yet (on the axis)")
+            handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
+                                   linestyle="none", markersize=7)
+    if "warned" in shown:
+        handles["outside the range the method or mechanism\ncovers (red ring; see warnings in results.csv)"] = Line2D(
+            [], [], marker="o", markersize=9, markerfacecolor="none", markeredgecolor="#b2182b", linestyle="none")
+    if "band" in shown:
+        handles["shaded: kinetic uncertainty, 1 sigma\n(first order, rate-constant factors)"] = plt.Rectangle(
+            (0, 0), 1, 1, color="0.35", alpha=0.25, lw=0)
+    if "bars" in shown:
+        handles["bars: numerical (grid) error band"] = Line2D([], [], color="0.35", marker="|", markersize=9,
+                                                              linestyle="none")
+    if companion is not None:
+        handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
+                                       markersize=4)
+
+
 def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
-               companion: tuple[str, str] | None = None, floor_at_preheat: bool = False):
+               companion: tuple[str, str] | None = None, floor_at_preheat: bool = False,
+               band: str | None = None, error_bars: str | None = None):
+    """One panel per (pressure, preheat), one curve per gas. ``band``: a column of percent
+    drawn as a shaded band around each curve (the kinetic 1-sigma band); ``error_bars``: a
+    column of percent drawn as error bars (the numerical band)."""
     rows = data.shown_rows  # big studies: the chart rule of registry.py picks the levels drawn
     panels = panel_keys(rows)
     curves = curve_keys(rows)
@@ -47,6 +94,7 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
             h, = ax.plot([r["equivalence_ratio"] for r in good], [r[column] * scale for r in good],
                          label=label, **style)
             handles.setdefault(label, h)  # a curve with no flame at all still has its legend entry
+            shown |= _error_bands(ax, good, column, scale, colours[ci], band, error_bars)
             warned = [r for r in good if r.get("warnings")]
             if warned:
                 ax.scatter([r["equivalence_ratio"] for r in warned], [r[column] * scale for r in warned],
@@ -74,18 +122,7 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
         axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
-    for status, marker in NOT_BURNING:
-        if status in shown:
-            text = ("no flame (on the axis, colour of its curve)" if status == "no_flame"
-                    else "solver failed or not solved yet (on the axis)")
-            handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
-                                   linestyle="none", markersize=7)
-    if "warned" in shown:
-        handles["outside the range the method or mechanism\ncovers (red ring; see warnings in results.csv)"] = Line2D(
-            [], [], marker="o", markersize=9, markerfacecolor="none", markeredgecolor="#b2182b", linestyle="none")
-    if companion is not None:
-        handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
-                                       markersize=4)
+    _legend_extras(handles, shown, companion)
     fig.suptitle(f"{title[0]}\n{title[1]}{data.note()}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
@@ -98,10 +135,14 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
        "Laminar flame speed of each fuel and blend against equivalence ratio, a panel per pressure and "
        "preheat. Higher curves flash back more easily at the same port velocity.")
 def flame_speed_chart(data, study):
-    """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at."""
+    """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at; with
+    [uncertainty], the kinetic band shaded and (error_bars = true) the numerical band as bars."""
+    u = study.uncertainty
     return _phi_chart(data, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
                       ("Laminar flame speed vs equivalence ratio",
-                       "How fast does each mixture's flame run? (flashback: compare with port velocity)"))
+                       "How fast does each mixture's flame run? (flashback: compare with port velocity)"),
+                      band="flame_speed_kinetic_uncertainty_percent" if u is not None else None,
+                      error_bars="flame_speed_numerical_error_percent" if u is not None and u.error_bars else None)
 
 
 @chart("thermal_thickness_vs_equivalence_ratio",

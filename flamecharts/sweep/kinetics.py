@@ -1,0 +1,72 @@
+"""Flame-speed sensitivities of [uncertainty]: one adjoint solve per burning point, after the sweep.
+
+sensitivity_key     the store key of a point's sensitivities: the point's inputs and the method
+solve_sensitivities one task per burning point the store lacks, from the point's stored profile,
+                    on the run's backend
+with_sensitivities  the stored rows of the points with their sensitivity vectors merged in
+
+Stored apart from the point (sweep.extras), so asking for them never solves the sweep again;
+the uncertainty factors are applied at read-out (design.kinetic_columns), so changing them
+solves nothing.
+"""
+from __future__ import annotations
+
+from ..store import Store
+from .extras import derived_key, done_keys, record, solve_extras
+from .points import Point
+from .schedule import flame_time_limit
+from .worker import sensitivity_task
+
+#: Changes of the method that change the stored answer (part of the key).
+SENSITIVITY_VERSION = 1
+
+
+def wants_sensitivities(study) -> bool:
+    u = getattr(study, "uncertainty", None)
+    return u is not None and u.kinetics
+
+
+def sensitivity_key(p: Point) -> str:
+    return derived_key("sensitivity", p, {"version": SENSITIVITY_VERSION})
+
+
+def _task(study, p: Point, warm: dict | None) -> dict:
+    return {"key": sensitivity_key(p), "mechanism_path": study.mechanism_path,
+            "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
+            "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution, "T_u": p.T_u,
+            "P": p.P, "X": p.X_unburned, "warm": warm,
+            "time_limit_s": 2 * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
+
+
+def solve_sensitivities(study, store: Store, pts: list[Point], stored: dict[str, dict], backend,
+                        progress=None) -> tuple[int, float]:
+    """Solve the sensitivities of every burning point of ``pts`` (``stored``: the store's rows by
+    key) that the store lacks and whose profile it keeps. Returns (solved, their summed seconds)."""
+    if not wants_sensitivities(study):
+        return 0, 0.0
+    burning = list({p.key: p for p in pts if (stored.get(p.key) or {}).get("status") == "ok"}.values())
+    done = done_keys(store, [sensitivity_key(p) for p in burning])
+    todo = []
+    for p in burning:
+        if sensitivity_key(p) in done:
+            continue
+        profile = store.profile(p.key)
+        if profile is not None:  # keep_profiles = false: nothing to start from (the read-out says so)
+            todo.append((record("sensitivity", sensitivity_key(p), p), _task(study, p, profile)))
+    return solve_extras(study, store, todo, sensitivity_task, backend, progress)
+
+
+def with_sensitivities(study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
+    """``stored`` with each point's sensitivity vector merged into its metrics under
+    'reaction_sensitivities' (when asked for and solved); a new dict, the store's rows untouched."""
+    if not wants_sensitivities(study):
+        return stored
+    found = store.rows([sensitivity_key(p) for p in pts])
+    out = dict(stored)
+    for p in pts:
+        sens = found.get(sensitivity_key(p))
+        row = stored.get(p.key)
+        if sens and row and sens.get("metrics") and row.get("metrics"):
+            out[p.key] = {**row, "metrics": {**row["metrics"],
+                                             "reaction_sensitivities": sens["metrics"]["sensitivities"]}}
+    return out
