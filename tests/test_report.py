@@ -43,6 +43,8 @@ def test_report_is_self_contained_with_every_chart(report):
     assert not re.search(r"""(src|href)\s*=\s*["']https?:""", text)
     assert "<script" not in text and "<link" not in text and "@import" not in text
     assert "not certification" in text and "sha256" in text and "Cantera" in text
+    # what the mechanism was built for, from the packaged table (Cantera's h2o2.yaml description)
+    assert "mechanism built for" in text and "hydrogen-oxygen reactions of GRI-Mech 3.0" in text
     assert "Points without a flame" in text and "no_flame" in text  # phi 0.08 is recorded, with its reason
     appendix = text.split("<h2 id='points'>Appendix: every point</h2>")[1]
     assert appendix.count("<tr>") == 1 + 12  # header and every point (2 blends x 3 phi x 2 p)

@@ -18,6 +18,7 @@ from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import error_bar_sentence, fuel_gas_table
+from ..physics.limits import mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .tables import write_atomic
@@ -254,13 +255,17 @@ def _uncertainty_section(study, rows: list[dict]) -> list[str]:
     return ["<h2 id='error-bars'>How sure: error bars of the flame speed</h2>",
             "<p><b>Numerics.</b> Every flame is solved again on every second and every fourth point of its final "
             "grid; the three flame speeds give Roache's grid convergence index (factor of safety 1.25 with the "
-            "observed order bounded to 0.5-2, else 3; never below 0.1 %). On grid-converged reference flames the "
-            "true error lay inside it in the measured cases (docs/benchmarks.md).</p>"
+            "observed order bounded to 0.5-2, else 3; never below 0.1 %). Measured on 12 grid-converged reference "
+            "flames (methane, methane-hydrogen and hydrogen, 1-10 bar): the standard setting's true error lay inside "
+            "it in 24 of 24 flames, solved from scratch and warm-started, the band a median 2 times the true error "
+            "(docs/benchmarks.md).</p>"
             + ("<p><b>Kinetics.</b> Sensitivities of S_L to every rate constant by Cantera's adjoint solve, "
                "combined with rate-constant uncertainty factors (packaged table with sources; the study's own "
-               f"factors; {u.default_factor:g} for reactions neither names; up to {defaulted} reactions of a point "
-               "took the default) into a first-order 1σ band, sqrt(Σ (s_i ln f_i / "
-               f"{u.factor_sigmas:g})², a factor's bound read as {u.factor_sigmas:g}σ). It leaves out transport and thermochemistry, correlations and "
+               f"factors; {u.default_factor:g} for reactions neither names: "
+               + (f"at most {defaulted} reaction(s) of a point with |s| of 0.005 or more took it" if defaulted else
+                  "no reaction with |s| of 0.005 or more took it") + ") into a first-order 1σ band, sqrt(Σ (s_i ln f_i / "
+               f"{u.factor_sigmas:g})², a factor's bound read as {u.factor_sigmas:g}σ). "
+               "It leaves out transport and thermochemistry, correlations and "
                "second-order terms: a lower estimate of the model's uncertainty. The mechanism's own spread "
                "against measurements is the better check.</p>"
                if kinetics else
@@ -424,6 +429,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts.append("<h2>Provenance</h2>")
     parts.append(_table(["", ""], [
         ["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
+        ["mechanism built for", mechanism_scope(study.mechanism_path)],
         ["mechanism sha256", study.mechanism_sha256],
         ["transport", study.transport + (", thermal diffusion on" if study.thermal_diffusion else "")],
         ["numerical setting", f"{resolution_label(study)}; refinement stages (ratio, slope, curve) {list(n.stages)}"],

@@ -6,7 +6,8 @@ without solving a flame again. Each warning is one short sentence; a row's
 ``warnings`` column joins them with "; ".
 
 - pressure outside the range a known mechanism states it was optimised for
-  (MECHANISM_RANGES, by file name; nothing for unknown mechanisms).
+  (MECHANISM_RANGES, by file name; nothing for unknown mechanisms); what a mechanism was
+  built for (MECHANISM_SCOPE, mechanism_scope).
 - equivalence ratio outside the flammability range in air of every combustible in the
   fuel (FLAMMABILITY_PHI; 1 atm, room temperature).
 """
@@ -22,6 +23,34 @@ MECHANISM_RANGES = {
                    "GRI-Mech 3.0 is optimised for about 10 Torr to 10 atm (Smith et al., GRI-Mech 3.0 "
                    "web documentation, 1999)"),
 }
+
+#: What a mechanism that ships with Cantera was built and validated for, by file name (the report
+#: states it; a mechanism not listed is described as such). Sources: each file's own description
+#: (read from Cantera 3.2's data folder) and the papers it names; ranges marked from memory.
+MECHANISM_SCOPE = {
+    "gri30.yaml": "GRI-Mech 3.0 (Smith et al. 1999): natural gas (methane with some ethane and propane) flames "
+                  "and ignition, with NO formation; optimised for about 1000-2500 K, 10 Torr-10 atm and "
+                  "equivalence ratios 0.1-5 in premixed systems (GRI-Mech 3.0 web documentation; from memory)",
+    "h2o2.yaml": "the hydrogen-oxygen reactions of GRI-Mech 3.0 with N2 added (Cantera's h2o2.yaml): hydrogen "
+                 "flames, inheriting GRI-Mech 3.0's ranges; not optimised for hydrogen flames on their own",
+    "ammonia-CO-H2-Alzueta-2023.yaml": "Alzueta, Salas, Hashemi & Glarborg 2023 (Combust. Flame 257, 112438), "
+                                       "ammonia, CO and hydrogen oxidation, six pressure-dependent reactions on "
+                                       "the reduced-pressure linear mixture rule (Singal et al. 2024); built "
+                                       "from flow-reactor work near 1 bar, 700-1500 K (from memory)",
+}
+
+
+def mechanism_scope(mechanism: str) -> str:
+    """What the mechanism was built and validated for, or a line saying it is not in the table.
+
+    >>> mechanism_scope("h2o2.yaml")[:40]
+    'the hydrogen-oxygen reactions of GRI-Mec'
+    >>> print(mechanism_scope("/data/my_mech.yaml"))
+    not in flamecharts' table of mechanisms: check what its authors validated it for
+    """
+    return MECHANISM_SCOPE.get(_file_name(mechanism),
+                               "not in flamecharts' table of mechanisms: check what its authors validated it for")
+
 
 #: Flammability limits in air at 1 atm and room temperature as equivalence ratios
 #: (Coward & Jones, US Bureau of Mines Bulletin 503, 1952: methane 5-15 %, hydrogen
