@@ -43,6 +43,12 @@ UNITS: dict[str, tuple[str, str]] = {
     "grid_convergence": ("", "how the three grids converged: monotone, oscillating or two grids"),
     "solve_seconds": ("s", "wall time of the flame's solve"),
     "mechanism": ("", "reaction mechanism"),
+    "reference_mechanism": ("", "the mechanism a comparison is made against (the first of the study's list)"),
+    "reference_laminar_flame_speed_m_s": ("m/s", "laminar flame speed under the reference mechanism"),
+    "reference_thermal_thickness_mm": ("mm", "thermal thickness under the reference mechanism"),
+    "flame_speed_difference_percent": ("%", "flame speed under this mechanism over the reference's, minus 1"),
+    "thermal_thickness_difference_percent": ("%", "thermal thickness under this mechanism over the reference's, "
+                                                  "minus 1"),
     "transport": ("", "transport model"),
     "thermal_diffusion": ("", "thermal diffusion (Soret effect) on"),
     "resolution": ("", "numerical resolution setting"),
@@ -177,7 +183,7 @@ KINETIC_COLUMNS = ("flame_speed_kinetic_uncertainty_percent", "most_sensitive_re
 #: sensitivities.csv: the largest sensitivities of each point, one row per reaction.
 SENSITIVITY_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
                        "unburned_temperature_K", "rank", "reaction", "sensitivity", "uncertainty_factor",
-                       "factor_source", "variance_share_percent")
+                       "factor_source", "variance_share_percent", "mechanism")
 #: How the flame responds to stretch (physics.flame_response); Ze and what needs it with [flame_response].
 RESPONSE_COLUMNS = ("lewis_number_fuel", "lewis_number_oxygen", "zeldovich_number", "effective_lewis_number",
                     "markstein_number_unburned", "markstein_length_mm", "instability")
@@ -188,7 +194,7 @@ STRETCH_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivale
                    "extinguished_above_1_s", "markstein_number_strain", "effective_lewis_number",
                    "markstein_number_unburned", "characteristic_strain_1_s", "extinction_strain_margin",
                    "half_separation_mm", "strained_flames", "ladder_seconds", "strain_rates_1_s",
-                   "consumption_speeds_m_s", "message")
+                   "consumption_speeds_m_s", "message", "mechanism")
 
 #: results.csv, one row per point, in this order.
 COLUMNS = (
@@ -200,12 +206,20 @@ COLUMNS = (
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
 ) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
 
+#: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference
+#: mechanism and another, one row per other mechanism (design.mechanism_differences).
+COMPARISON_COLUMNS = ("mechanism", "reference_mechanism", "fuel", "oxidizer", "blend_with", "blend_fraction",
+                      "equivalence_ratio", "pressure_bar", "unburned_temperature_K", "laminar_flame_speed_m_s",
+                      "reference_laminar_flame_speed_m_s", "flame_speed_difference_percent",
+                      "thermal_thickness_mm", "reference_thermal_thickness_mm", "thermal_thickness_difference_percent",
+                      "flame_speed_kinetic_uncertainty_percent")
+
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (
     "limit", "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
     "unburned_temperature_K", "limit_value", "outcome", "binding", "margin_at_limit", "flashback_margin_at_limit",
     "blowoff_margin_at_limit", "stabilizer_margin_at_limit", "wobbe_limit_blend_fraction", "bracket_admissible",
-    "bracket_failing", "tolerance_reached", "flames_evaluated", "evaluated_at", "note",
+    "bracket_failing", "tolerance_reached", "flames_evaluated", "evaluated_at", "note", "mechanism",
 )
 
 #: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).

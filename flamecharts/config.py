@@ -9,6 +9,9 @@ Config keys (units in the names where the value has one)
 title                     str, shown on every chart and report
 mechanism                 any file Cantera can load; default "gri30.yaml" (ships with Cantera).
                           A relative path is looked up beside the config, then in Cantera's data folders.
+                          A list of 2 to MAX_MECHANISMS files solves the whole study under each (the
+                          first is the reference the design charts and margins use; every table gets
+                          the mechanism column and a comparison chart shows their difference).
 transport                 "mixture-averaged" (default), "multicomponent" or "unity-Lewis-number"
 thermal_diffusion         bool, Soret effect; default false
 resolution                "standard" (default, meets the accuracy in docs/benchmarks.md), "fine", or
@@ -36,7 +39,7 @@ import os
 import stat
 import tomllib
 from collections import Counter
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
@@ -48,6 +51,8 @@ from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
+#: Mechanisms one study may compare (each solves the whole sweep).
+MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
@@ -224,6 +229,18 @@ class GasQuality:
 
 
 @dataclass(frozen=True)
+class MechanismChoice:
+    """One mechanism of a study that compares several: the name as written, its file, its content
+    hash, its species' element counts and those of the gas-analysis species it lacks."""
+
+    name: str
+    path: str
+    sha256: str
+    atoms: dict[str, dict[str, float]] = field(repr=False)
+    analysis_atoms: dict[str, dict[str, float]] = field(repr=False)
+
+
+@dataclass(frozen=True)
 class Study:
     """A validated study: the cartesian product of its sweep axes.
 
@@ -265,11 +282,30 @@ class Study:
     flame_response: "FlameResponse | None" = None
     stretch: "Stretch | None" = None
     uncertainty: "Uncertainty | None" = None
+    #: Several mechanisms to compare (the first is the one above); () when the study has one.
+    mechanisms: tuple[MechanismChoice, ...] = ()
 
     @property
     def n_points(self) -> int:
+        """Points of the sweep, times the mechanisms it compares: the flames of the whole study."""
         return (len(self.sweep_fuels) * len(self.sweep_oxidizers) * len(self.blend_fractions)
-                * len(self.equivalence_ratios) * len(self.pressures_bar) * len(self.unburned_temperatures_K))
+                * len(self.equivalence_ratios) * len(self.pressures_bar) * len(self.unburned_temperatures_K)
+                * max(1, len(self.mechanisms)))
+
+
+def by_mechanism(study: Study) -> list[Study]:
+    """The study once per mechanism it compares, the reference (first) mechanism first; each
+    is an ordinary one-mechanism study (points, warm starts, extras, read-out run on it
+    unchanged). A one-mechanism study gives itself."""
+    if len(study.mechanisms) <= 1:
+        return [study]
+    return [replace(study, mechanism=m.name, mechanism_path=m.path, mechanism_sha256=m.sha256, atoms=m.atoms,
+                    analysis_atoms=m.analysis_atoms, mechanisms=()) for m in study.mechanisms]
+
+
+def mechanism_names(study: Study) -> list[str]:
+    """The mechanisms of a study as written in its config, the reference first."""
+    return [m.name for m in study.mechanisms] or [study.mechanism]
 
 
 def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
@@ -535,8 +571,9 @@ def _flame_response(t: Any) -> FlameResponse:
     return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
 
 
-def _uncertainty(t: Any, mech_path) -> Uncertainty:
-    """The [uncertainty] table; each reaction named in ``factors`` must be one of the mechanism's."""
+def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
+    """The [uncertainty] table; each reaction named in ``factors`` must be in one of the study's mechanisms
+    (a factor applies in every mechanism that has the reaction)."""
     if not isinstance(t, dict):
         raise ConfigError("'uncertainty' must be a table")
     _check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
@@ -557,8 +594,9 @@ def _uncertainty(t: Any, mech_path) -> Uncertainty:
     if not isinstance(given, dict):
         raise ConfigError("'uncertainty.factors' must be a table of \"reaction equation\" = factor, e.g. "
                           "factors = { \"H + O2 <=> O + OH\" = 1.3 }")
-    equations = reaction_equations(str(mech_path))
+    equations = [e for path in mech_paths for e in reaction_equations(str(path))]
     by_key = {reaction_key(e): e for e in equations}
+    names = " nor ".join(Path(path).name for path in mech_paths)
     factors = []
     for eq, f in given.items():
         try:
@@ -566,8 +604,8 @@ def _uncertainty(t: Any, mech_path) -> Uncertainty:
         except ValueError:
             key = None
         if key not in by_key:
-            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {Path(mech_path).name} does not "
-                              f"have{_suggest(eq, list(equations))[:200]}")
+            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {names} does not "
+                              f"have{_suggest(eq, list(dict.fromkeys(equations)))[:200]}")
         if isinstance(f, bool) or not isinstance(f, (int, float)) or not 1.0 <= f <= MAX_RATE_FACTOR:
             raise ConfigError(f"'uncertainty.factors' gives {eq!r} the factor {show(f)}; allowed: a number from 1 to "
                               f"{MAX_RATE_FACTOR:g}")
@@ -669,15 +707,23 @@ def _check_species(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, b
                         analysis_atoms[sp] = dict(lumping.formula_atoms(sp))
                         continue
                     except ValueError as exc:
-                        raise MechanismError(f"species '{sp}' in 'fuels.{n}' is not in mechanism {mech_path.name}"
-                                             f"{_suggest_species(sp, list(atoms))}; nor can it be lumped onto "
-                                             f"the mechanism's species ({exc})") from None
-                raise MechanismError(
-                    f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
-                    f"{_suggest_species(sp, list(atoms))}"
-                    + ("; gas-analysis components (ISO 6976 names such as n-C4H10, He) are lumped onto the "
-                       "mechanism's species" if kind == "fuels" else ""))
+                        raise _missing(sp, f"{kind}.{n}", f"species '{sp}' in 'fuels.{n}' is not in mechanism "
+                                       f"{mech_path.name}{_suggest_species(sp, list(atoms))}; nor can it be lumped "
+                                       f"onto the mechanism's species ({exc})") from None
+                raise _missing(sp, f"{kind}.{n}",
+                               f"species '{sp}' in '{kind}.{n}' is not in mechanism {mech_path.name}"
+                               f"{_suggest_species(sp, list(atoms))}"
+                               + ("; gas-analysis components (ISO 6976 names such as n-C4H10, He) are lumped onto "
+                                  "the mechanism's species" if kind == "fuels" else ""))
     return analysis_atoms
+
+
+def _missing(species: str, where: str, message: str) -> MechanismError:
+    """The error of a species a mechanism lacks, with the species and its config table attached
+    (a study comparing mechanisms names the others that have it)."""
+    exc = MechanismError(message)
+    exc.species, exc.where = species, where
+    return exc
 
 
 def _check_mixtures(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
@@ -766,6 +812,53 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
     }
 
 
+def _mechanism_names(value: Any) -> tuple[str, ...]:
+    """'mechanism': one file name, or a list of 2 to MAX_MECHANISMS different ones."""
+    if isinstance(value, str):
+        return (value,)
+    if not isinstance(value, list) or not value:
+        raise ConfigError(f"'mechanism' must be a file name or a list of them, got {show(value)}; e.g. "
+                          "mechanism = \"gri30.yaml\" or mechanism = [\"h2o2.yaml\", "
+                          "\"example_data/ammonia-CO-H2-Alzueta-2023.yaml\"]")
+    names = tuple(_string(v, f"mechanism[{i}]") for i, v in enumerate(value))
+    if len(names) > MAX_MECHANISMS:
+        raise ConfigError(f"'mechanism' lists {len(names)} mechanisms; allowed: at most {MAX_MECHANISMS} (each "
+                          "solves the whole sweep)")
+    twice = [n for n, c in Counter(names).items() if c > 1]
+    if twice:
+        raise ConfigError(f"'mechanism' lists {twice[0]!r} twice; list each mechanism once")
+    return names
+
+
+def _mechanisms(names: tuple[str, ...], base_dir: Path | None, transport: str, check_species) -> list[MechanismChoice]:
+    """Each listed mechanism found, loaded and checked: ``check_species(atoms, path)`` returns the
+    gas-analysis species it lacks (raising MechanismError for a species it cannot burn; with
+    several mechanisms the error also names those that have the species)."""
+    out: list[MechanismChoice] = []
+    for name in names:
+        path = find_mechanism(name, base_dir)
+        atoms = load_mechanism_atoms(path, transport)
+        try:
+            analysis = check_species(atoms, path)
+        except MechanismError as exc:
+            if len(names) == 1 or not hasattr(exc, "species"):
+                raise
+            others = [n for n in names if n != name]
+            have = [n for n in others if exc.species in load_mechanism_atoms(find_mechanism(n, base_dir), transport)]
+            raise MechanismError(
+                f"species '{exc.species}' in '{exc.where}' is not in mechanism {Path(path).name}, which 'mechanism' "
+                f"lists beside {', '.join(others)}" + (f" ({', '.join(have)} {'has' if len(have) == 1 else 'have'} it)"
+                                                       if have else "")
+                + ": every mechanism a study compares must have every species the study burns; drop the "
+                "mechanism or the fuel") from None
+        sha = file_sha256(path)
+        if any(m.sha256 == sha for m in out):
+            raise ConfigError(f"'mechanism' lists {name!r}, the same file as "
+                              f"{next(m.name for m in out if m.sha256 == sha)!r}; list each mechanism once")
+        out.append(MechanismChoice(name=name, path=str(path), sha256=sha, atoms=atoms, analysis_atoms=analysis))
+    return out
+
+
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
                     config_path: str | None = None) -> Study:
     """Validate a parsed config table and build the :class:`Study`."""
@@ -773,7 +866,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         raise ConfigError("config must be a TOML table")
     _check_keys(data, TOP_KEYS, "")
     title = _string(data.get("title", name), "title")
-    mechanism = _string(data.get("mechanism", "gri30.yaml"), "mechanism")
+    mechanism_list = _mechanism_names(data.get("mechanism", "gri30.yaml"))
     transport = _string(data.get("transport", "mixture-averaged"), "transport")
     if transport not in TRANSPORT_MODELS:
         raise ConfigError(f"'transport' is {transport!r}{_suggest(transport, TRANSPORT_MODELS)}")
@@ -814,29 +907,33 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     pressures = _limited_axis(sweep.get("pressure_bar", [1.01325]), "pressure_bar")
     temperatures = _limited_axis(sweep.get("unburned_temperature_K", [298.15]), "unburned_temperature_K")
     n_points = (len(sweep_fuels) * len(sweep_oxidizers) * len(fractions) * len(phis) * len(pressures)
-                * len(temperatures))
+                * len(temperatures) * len(mechanism_list))
     if n_points > max_points:  # before the mechanism is loaded: a runaway sweep is refused at once
         raise ConfigError(f"the sweep has {n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
 
-    mech_path = find_mechanism(mechanism, base_dir)
-    atoms = load_mechanism_atoms(mech_path, transport)
-    analysis_atoms = _check_species(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, atoms, mech_path)
-    _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
-                    {**analysis_atoms, **atoms})
+    choices = _mechanisms(mechanism_list, base_dir, transport,
+                          lambda atoms, path: _check_species(fuels, oxidizers, sweep_fuels, sweep_oxidizers,
+                                                             blend_with, atoms, path))
+    first = choices[0]
+    mechanism, mech_path, atoms, analysis_atoms = first.name, Path(first.path), first.atoms, first.analysis_atoms
+    for m in choices:
+        _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
+                        {**m.analysis_atoms, **m.atoms})
 
     axes = {"fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
             "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures}
     study = Study(
         title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
-        mechanism_sha256=file_sha256(mech_path), transport=transport,
+        mechanism_sha256=first.sha256, transport=transport,
         thermal_diffusion=thermal_diffusion, resolution=resolution, fuels=fuels,
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
         pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
         keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
-        uncertainty=_uncertainty(data["uncertainty"], mech_path) if "uncertainty" in data else None)
+        uncertainty=_uncertainty(data["uncertainty"], [Path(m.path) for m in choices])
+        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else ())
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -6,6 +6,7 @@ indicator setting or the burner never needs a flame to be solved again.
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
 point_warnings            inputs outside the range the method or the mechanism covers
+mechanism_differences     flame speed and thickness of each mechanism a study compares against the reference's
 """
 from __future__ import annotations
 
@@ -339,3 +340,43 @@ def premixer_columns(study, point, row: dict | None = None) -> dict:
     out.update(ignition_delay_ms=tau * 1e3, autoignition_margin=margin,
                autoignition_verdict="ok" if margin >= pm.min_autoignition_margin else "autoignition risk")
     return out
+
+
+#: The columns that name a point of the sweep (without the mechanism).
+POINT_AXES = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
+
+
+def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
+    """Each point burning under the reference mechanism (``names[0]``) and under another: the
+    relative difference of its flame speed and thermal thickness, in % of the reference's
+    (columns.COMPARISON_COLUMNS), with the reference's 1-sigma kinetic band beside them when
+    the study asks for one. One row per point and other mechanism, in the study's order."""
+    ref = {tuple(r[a] for a in POINT_AXES): r for r in rows
+           if r.get("mechanism") == names[0] and r["status"] == "ok"}
+    out = []
+    for r in rows:
+        base = ref.get(tuple(r[a] for a in POINT_AXES))
+        if r.get("mechanism") == names[0] or r["status"] != "ok" or base is None:
+            continue
+        S, S0 = r["laminar_flame_speed_m_s"], base["laminar_flame_speed_m_s"]
+        d, d0 = r["thermal_thickness_mm"], base["thermal_thickness_mm"]
+        out.append({"mechanism": r["mechanism"], "reference_mechanism": names[0],
+                    **{a: r[a] for a in ("blend_with",) + POINT_AXES},
+                    "laminar_flame_speed_m_s": S, "reference_laminar_flame_speed_m_s": S0,
+                    "flame_speed_difference_percent": 100.0 * (S / S0 - 1.0),
+                    "thermal_thickness_mm": d, "reference_thermal_thickness_mm": d0,
+                    "thermal_thickness_difference_percent": 100.0 * (d / d0 - 1.0) if d and d0 else None,
+                    "flame_speed_kinetic_uncertainty_percent": base.get("flame_speed_kinetic_uncertainty_percent")})
+    return out
+
+
+def largest_differences(differences: list[dict]) -> list[dict]:
+    """Per other mechanism, gas and condition (pressure, preheat): the point of
+    :func:`mechanism_differences` with the largest flame-speed difference, and how many
+    points were compared (key 'points'), in the order they first occur."""
+    groups: dict[tuple, list[dict]] = {}
+    for d in differences:
+        groups.setdefault((d["mechanism"], d["fuel"], d["oxidizer"], d["blend_fraction"], d["pressure_bar"],
+                           d["unburned_temperature_K"]), []).append(d)
+    return [{**max(ds, key=lambda d: abs(d["flame_speed_difference_percent"])), "points": len(ds)}
+            for ds in groups.values()]

@@ -9,14 +9,14 @@ from __future__ import annotations
 
 import os
 import time
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Callable
 
 from .admissible import LimitsProgress, find_limits
-from .config import Study, load_study, save_config_copy
+from .config import Study, by_mechanism, load_study, save_config_copy
 from .errors import FlamechartsError
-from .results import Results, point_rows, rows_from_dir, stored_with_extras, to_dataset
+from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_extras, to_dataset, with_mechanism
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.points import points
@@ -83,6 +83,11 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
     flames between the swept ones, solved on the same backend and stored like any point
     (``limits_progress`` is called after each round of them).
 
+    A study that compares mechanisms is solved once per mechanism, the reference first,
+    into the same store (config.by_mechanism): rows, limits and ladders of all of them
+    follow one another, each with its mechanism; progress reports carry the mechanism
+    as their ``stage``.
+
     ``cluster`` (a Dask scheduler address or 'local:N', default the study's own) solves
     on Dask workers instead of ``jobs`` local processes. ``stop_after`` hands out at most
     that many new points (tests simulate an interruption with it). Raises
@@ -91,42 +96,70 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
     """
     t0 = time.perf_counter()
     cluster = study.cluster if cluster is None else cluster
-    pts = points(study)
+    subs = by_mechanism(study)
     with open_backend(jobs, cluster) as backend:  # an unreachable cluster leaves no folder behind
         out = _out_folder(study, out_dir)
         with RunLock(out), Store(out / DB_NAME) as store:
             save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
-            done = solve_points(study, store, pts, backend, progress, stop_after, t0)
-            stored = store.rows([p.key for p in pts])
-            extra_seconds = 0.0
-            if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
-                _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _labelled(extras_progress,
-                                                                                                "Zeldovich pairs"))
-                # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
-                extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
-                                                     _labelled(extras_progress, "flame-speed sensitivities"))[1]
-            rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
-            limits, limit_solved = [], [0]
-            if study.limits is not None and stop_after is None:
-                def solve(new_points) -> int:
-                    n = solve_points(study, store, new_points, backend).solved
-                    limit_solved[0] += n
-                    return n
-                limits = find_limits(study, rows, store, solve, limits_progress)
-            stretch, ladders, ladder_seconds = [], 0, 0.0
-            if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
-                by_key = {r["point_key"]: r for r in rows}
-                ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
-                                                        _labelled(extras_progress, "strained-flame ladders"))
-                stretch = stretch_rows(study, pts, by_key, store)
+            parts = []
+            for i, sub in enumerate(subs):
+                stage = f"{sub.mechanism} ({i + 1} of {len(subs)})" if len(subs) > 1 else ""
+                parts.append(_solve_one(sub, store, backend, _staged(progress, stage), stop_after,
+                                        t0 if i == 0 else None, limits_progress, extras_progress))
+                if stop_after is not None:
+                    stop_after = max(0, stop_after - parts[-1]["solved"])
         workers = max(1, backend.workers())
-    return RunSummary(out_dir=out, rows=rows, solved=done.solved, reused=done.reused,
+    rows = [r for part in parts for r in part["rows"]]
+    return RunSummary(out_dir=out, rows=rows, solved=sum(p["solved"] for p in parts),
+                      reused=sum(p["reused"] for p in parts),
                       failed=sum(1 for r in rows if r["status"] == "failed"),
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
                       wall_seconds=time.perf_counter() - t0,
                       failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
-                      solve_seconds=done.solve_seconds + ladder_seconds + extra_seconds, workers=workers, limits=limits,
-                      limit_flames=limit_solved[0], stretch=stretch, stretch_ladders=ladders)
+                      solve_seconds=sum(p["solve_seconds"] for p in parts), workers=workers,
+                      limits=[r for p in parts for r in p["limits"]],
+                      limit_flames=sum(p["limit_flames"] for p in parts),
+                      stretch=[r for p in parts for r in p["stretch"]],
+                      stretch_ladders=sum(p["ladders"] for p in parts))
+
+
+def _staged(progress, stage: str):
+    """``progress`` with each report labelled by ``stage`` (the mechanism being solved)."""
+    if progress is None or not stage:
+        return progress
+    return lambda pr: progress(replace(pr, stage=stage))
+
+
+def _solve_one(study: Study, store: Store, backend, progress, stop_after, t0, limits_progress,
+               extras_progress) -> dict:
+    """Solve one mechanism's study: the sweep, then the extras, limits and ladders it asks for."""
+    pts = points(study)
+    done = solve_points(study, store, pts, backend, progress, stop_after, t0)
+    stored = store.rows([p.key for p in pts])
+    extra_seconds = 0.0
+    if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
+        _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _labelled(extras_progress,
+                                                                                        "Zeldovich pairs"))
+        # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
+        extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
+                                             _labelled(extras_progress, "flame-speed sensitivities"))[1]
+    rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
+    limits, limit_solved = [], [0]
+    if study.limits is not None and stop_after is None:
+        def solve(new_points) -> int:
+            n = solve_points(study, store, new_points, backend).solved
+            limit_solved[0] += n
+            return n
+        limits = with_mechanism(study, find_limits(study, rows, store, solve, limits_progress))
+    stretch, ladders, ladder_seconds = [], 0, 0.0
+    if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
+        by_key = {r["point_key"]: r for r in rows}
+        ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
+                                                _labelled(extras_progress, "strained-flame ladders"))
+        stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
+    return {"rows": rows, "solved": done.solved, "reused": done.reused, "limits": limits,
+            "limit_flames": limit_solved[0], "stretch": stretch, "ladders": ladders,
+            "solve_seconds": done.solve_seconds + ladder_seconds + extra_seconds}
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
@@ -179,11 +212,13 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
 
 def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
     """The study's limits from the flames stored in ``out_dir`` alone (nothing is solved; a
-    search whose flame is missing says so in its row). [] when the study asks for none."""
+    search whose flame is missing says so in its row), each mechanism's in turn. [] when the
+    study asks for none."""
     if study.limits is None:
         return []
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        return find_limits(study, rows, store, solve=None)
+        return [r for sub in by_mechanism(study)
+                for r in with_mechanism(sub, find_limits(sub, rows_of(sub, rows), store, solve=None))]
 
 
 def read_stretch(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
@@ -192,7 +227,8 @@ def read_stretch(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> 
     if study.stretch is None:
         return []
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        return stretch_rows(study, points(study), {r["point_key"]: r for r in rows}, store)
+        return [r for sub in by_mechanism(study)
+                for r in with_mechanism(sub, stretch_rows(sub, points(sub), {r["point_key"]: r for r in rows}, store))]
 
 
 def open_results(out_dir: str | os.PathLike) -> Results:

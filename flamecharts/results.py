@@ -29,7 +29,7 @@ from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
-from .config import Study, load_config_copy, lumping_note, resolution_label
+from .config import Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
@@ -109,22 +109,59 @@ def sensitivity_rows(rows: list[dict]) -> list[dict]:
     for r in rows:
         for rank, t in enumerate(r.get("top_reactions") or (), start=1):
             out.append({**{a: r[a] for a in ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio",
-                                             "pressure_bar", "unburned_temperature_K")}, "rank": rank, **t})
+                                             "pressure_bar", "unburned_temperature_K")}, "rank": rank, **t,
+                        "mechanism": r["mechanism"]})
     return out
 
 
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
-    """The study of a finished run folder and its rows, read from the store alone."""
+    """The study of a finished run folder and its rows (every mechanism's), read from the store alone."""
     study = load_config_copy(out_dir)
-    pts = points(study)
+    rows, matched = [], 0
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        stored = stored_with_extras(study, pts, store)
         n_stored = len(store.keys())
-    if n_stored and not stored:
+        for sub in by_mechanism(study):
+            pts = points(sub)
+            stored = stored_with_extras(sub, pts, store)
+            matched += len(stored)
+            rows += point_rows(sub, pts, stored)
+    if n_stored and not matched:
         raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches the study any more: the "
                          "mechanism file or the Cantera version changed since the run; rerun the study "
                          "(flamecharts run CONFIG --out DIR) to solve it with what is installed now")
-    return study, point_rows(study, pts, stored)
+    return study, rows
+
+
+def rows_of(study: Study, rows: list[dict]) -> list[dict]:
+    """The rows of ``study``'s mechanism among the rows of a study comparing several (all of
+    them for a one-mechanism study)."""
+    return [r for r in rows if r.get("mechanism", study.mechanism) == study.mechanism]
+
+
+def with_mechanism(study: Study, rows: list[dict]) -> list[dict]:
+    """``rows`` (of limits, ladders...) each with the study's mechanism in column 'mechanism'."""
+    return [{**r, "mechanism": study.mechanism} for r in rows]
+
+
+@dataclass(frozen=True)
+class Comparison:
+    """What outputs of a study comparing mechanisms read beside the reference mechanism's:
+    one study per mechanism (config.by_mechanism, reference first) and every row, limit and
+    ladder of all of them (column 'mechanism')."""
+
+    studies: tuple[Study, ...]
+    rows: list[dict]
+    limits: list[dict] = field(default_factory=list)
+
+    @property
+    def names(self) -> list[str]:
+        return [s.mechanism for s in self.studies]
+
+
+def comparison_of(study: Study, rows: list[dict], limits: list[dict] = ()) -> Comparison | None:
+    """The :class:`Comparison` of a study comparing mechanisms; None for a one-mechanism study."""
+    subs = by_mechanism(study)
+    return Comparison(tuple(subs), list(rows), list(limits)) if len(subs) > 1 else None
 
 
 #: Variables of the dataset beyond results.csv's columns.
@@ -158,8 +195,34 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
 
     Numbers are float64 with NaN where a point has no value; text and flags are strings
     ("" where empty, "true"/"false" for flags, as in results.csv). Columns with one value
-    for the whole study (STUDY_WIDE) are global attributes.
+    for the whole study (STUDY_WIDE) are global attributes. A study comparing mechanisms
+    gets a leading ``mechanism`` dimension (its names as written, the reference first);
+    :func:`mechanism_dataset` takes one of them out.
     """
+    subs = by_mechanism(study)
+    if len(subs) == 1:
+        return _one_dataset(study, rows)
+    parts = [_one_dataset(sub, rows_of(sub, rows)) for sub in subs]
+    ds = xr.concat(parts, dim=pd.Index([s.mechanism for s in subs], name="mechanism"), combine_attrs="drop")
+    ds.attrs.update({k: v for k, v in parts[0].attrs.items() if k != "mechanism"})
+    ds.attrs["mechanisms"] = ", ".join(s.mechanism for s in subs)
+    ds["mechanism"].attrs["long_name"] = UNITS["mechanism"][1] + " (the first is the reference)"
+    return ds
+
+
+def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Dataset:
+    """One mechanism's table out of a dataset comparing several (the reference when
+    ``mechanism`` is None), with the one-mechanism layout; a one-mechanism dataset as it is."""
+    if "mechanism" not in ds.dims:
+        return ds
+    name = str(ds["mechanism"].values[0]) if mechanism is None else mechanism
+    one = ds.sel(mechanism=name, drop=True)
+    one.attrs = {**{k: v for k, v in ds.attrs.items() if k != "mechanisms"}, "mechanism": name}
+    return one
+
+
+def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
+    """:func:`to_dataset` of a one-mechanism study."""
     coords = _axis_values(study)
     shape = tuple(len(coords[a]) for a in AXES)
     n = int(np.prod(shape))
@@ -201,7 +264,10 @@ def exponent_table(ds: xr.Dataset) -> list[dict]:
     flame speed, S_L ~ p^beta and S_L ~ T_u^alpha (Metghalchi & Keck, Combust. Flame 48
     (1982) 191, fitted one variable at a time by :func:`~flamecharts.physics.fits.fit_power_law`),
     per fuel, oxidizer, blend fraction and equivalence ratio, wherever at least two values
-    of the axis burn. One row per fit, in the order of the table's axes."""
+    of the axis burn. One row per fit, in the order of the table's axes (each mechanism's in
+    turn, column 'mechanism')."""
+    if "mechanism" in ds.dims:
+        return [r for m in ds["mechanism"].values for r in exponent_table(mechanism_dataset(ds, str(m)))]
     S = ds["laminar_flame_speed_m_s"]
     out = []
     for along, fixed, name in EXPONENTS:
@@ -217,7 +283,7 @@ def exponent_table(ds: xr.Dataset) -> list[dict]:
                         "blend_fraction": float(key[2]), "equivalence_ratio": float(key[4]), "exponent": name,
                         "value": b, "held_fixed": fixed, "held_value": float(key[3]),
                         "range_low": float(x[burning].min()), "range_high": float(x[burning].max()),
-                        "points": int(burning.sum())})
+                        "points": int(burning.sum()), "mechanism": ds.attrs.get("mechanism", "")})
     return out
 
 
@@ -233,6 +299,8 @@ def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
     bluff body holds the flame)."""
     if burner is None:
         return []
+    if "mechanism" in ds.dims:
+        return [r for m in ds["mechanism"].values for r in margin_summary(mechanism_dataset(ds, str(m)), burner)]
     bo_col = burner.blowoff[0]
     phis = ds.equivalence_ratio.values
 
@@ -250,7 +318,8 @@ def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
                     "pressure_bar": float(key[3]), "unburned_temperature_K": float(key[4]),
                     "min_flashback_margin": float(fb[i]), "at_phi_flashback": float(phis[i]),
                     "min_blowoff_margin": float(bo[j]), "at_phi_blowoff": float(phis[j]),
-                    "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum())})
+                    "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum()),
+                    "mechanism": ds.attrs.get("mechanism", "")})
     return out
 
 

@@ -47,7 +47,8 @@ def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
     assert any(r["status"] == "no_flame" for r in rows)  # phi 0.08 is below any flammable limit
     files = draw_all(rows, fuel_gas_table(study), study, folder / "o", limits=read_limits(study, rows, folder / "o"))
     names = {f.stem for f in files}
-    assert names == set(ALL) == set(CAPTIONS) - {"consumption_speed_vs_strain", "flame_speed_sensitivity"}
+    assert names == set(ALL) == set(CAPTIONS) - {"consumption_speed_vs_strain", "flame_speed_sensitivity",
+                                                 "mechanism_comparison", "limits_by_mechanism"}
     # [stretch]: tests/test_stretch.py; [uncertainty]: tests/test_uncertainty.py
     for name in ALL:
         png, svg = folder / "o" / "charts" / f"{name}.png", folder / "o" / "charts" / f"{name}.svg"

@@ -6,7 +6,7 @@ from pathlib import Path
 from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import kept, planned_searches
-from ..config import load_study, lumping_note
+from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
@@ -23,9 +23,37 @@ GRI_LADDER_NOTE = "30-60 s a strained flame, stoichiometric methane-air 15 flame
 
 def cmd_check(args) -> int:
     study = load_study(args.config)
-    pts = points(study)
     out = Path(args.out) if args.out else default_out_dir(study)
     keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
+    n = NUMERICS[study.resolution]
+    print(f"Study: {study.title}")
+    print(f"Transport: {study.transport}, thermal diffusion {'on' if study.thermal_diffusion else 'off'}; "
+          f"resolution {study.resolution} (final grid ratio/slope/curve {n.stages[-1]})")
+    print(f"Fuels: {', '.join(study.sweep_fuels)}"
+          + (f"; blended with {study.blend_with} at {', '.join(f'{f:g}' for f in study.blend_fractions)}"
+             if study.blend_with else ""))
+    print(f"Oxidizers: {', '.join(study.sweep_oxidizers)}")
+    print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
+    print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
+    print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
+    print_gases(study)
+    print_burner(study)
+    subs = by_mechanism(study)
+    if len(subs) > 1:
+        print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
+              f"the first, {subs[0].mechanism}, is the reference of the design charts")
+    seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
+    if len(subs) > 1 and sum(seconds):
+        t = sum(seconds)
+        print(f"Estimated run time of the sweeps under all {len(subs)} mechanisms: about "
+              + (f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"))
+    return 0
+
+
+def _plan(study, out: Path, keys: set, jobs) -> float:
+    """Print one mechanism's plan (its stored points, what is left, the extras asked for); return
+    the estimated seconds of its sweep (0 when nothing is left)."""
+    pts = points(study)
     stored = sum(p.key in keys for p in pts)
     unique = unique_points(pts)
     todo = {p.index for p in unique if p.key not in keys}
@@ -38,32 +66,27 @@ def cmd_check(args) -> int:
             rows = point_rows(study, done, stored_with_extras(study, done, st))
     else:
         tree = warm_tree(unique)
-    n = NUMERICS[study.resolution]
-    print(f"Study: {study.title}")
     print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
-    print(f"Transport: {study.transport}, thermal diffusion {'on' if study.thermal_diffusion else 'off'}; "
-          f"resolution {study.resolution} (final grid ratio/slope/curve {n.stages[-1]})")
-    print(f"Fuels: {', '.join(study.sweep_fuels)}"
-          + (f"; blended with {study.blend_with} at {', '.join(f'{f:g}' for f in study.blend_fractions)}"
-             if study.blend_with else ""))
-    print(f"Oxidizers: {', '.join(study.sweep_oxidizers)}")
-    print(f"Equivalence ratio: {', '.join(f'{v:g}' for v in study.equivalence_ratios)}")
-    print(f"Pressure [bar]: {', '.join(f'{v:g}' for v in study.pressures_bar)}")
-    print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
     note = lumping_note(study)
     if note:
         print(note)
-    print_gases(study)
-    print_burner(study)
     if stored:
         print_points(study, [r for r in rows if r["status"] != "pending"])
     print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
           f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
           f"(longest warm-start path {tree.depth})")
+    seconds = 0.0
     if todo:
-        print(_estimate_line(study, tree, timings, args.jobs))
+        line, seconds = _estimate_line(study, tree, timings, jobs)
+        print(line)
+    _extras_lines(study, timings, jobs, len(unique))
+    return seconds
+
+
+def _extras_lines(study, timings: dict, jobs, n_unique: int) -> None:
+    """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add."""
     if study.limits is not None:
-        print(_limits_line(study, timings, args.jobs))
+        print(_limits_line(study, timings, jobs))
     if study.stretch is not None:
         st = study.stretch
         print(f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
@@ -73,16 +96,15 @@ def cmd_check(args) -> int:
     u = study.uncertainty
     if u is not None and u.kinetics:
         print(f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
-              f"{len(unique)} adjoint solves after the sweep, each the stored flame solved again on its grid; "
+              f"{n_unique} adjoint solves after the sweep, each the stored flame solved again on its grid; "
               "measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0; not in the estimate "
               "above); stored ones are not solved again, and changing a factor solves nothing")
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
         print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-              f"burning point (up to {2 * len(unique)} flames, the inert moved {fr.inert_step:g} either way, "
+              f"burning point (up to {2 * n_unique} flames, the inert moved {fr.inert_step:g} either way, "
               "warm-started from the point's stored flame after the sweep: measured +55-100 % of the sweep's "
               "time, not in the estimate above); pairs already stored are not solved again")
-    return 0
 
 
 def _limits_line(study, timings: dict, jobs) -> str:
@@ -105,13 +127,14 @@ def _limits_line(study, timings: dict, jobs) -> str:
             f"(warm-started, about {t:.0f} s; stored flames are not solved again)")
 
 
-def _estimate_line(study, tree, timings: dict, jobs) -> str:
-    """'Estimated run time ...' from stored timings of the same settings, else from the mechanism size."""
+def _estimate_line(study, tree, timings: dict, jobs) -> tuple[str, float]:
+    """'Estimated run time ...' from stored timings of the same settings, else from the mechanism
+    size, and the estimate [s]."""
     jobs = resolve_jobs(jobs)
     secs, basis = flame_seconds(len(study.atoms), timings)
     t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
     when = f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"
     return (f"Estimated run time: about {when} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
-            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)")
+            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)"), t
 
 

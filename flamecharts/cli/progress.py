@@ -47,6 +47,7 @@ class ProgressDisplay:
         self.told_stop = False
         self._last_line_t = None
         self._last_line_done = -1
+        self._stage = ""
 
     def __call__(self, pr) -> None:
         if pr.stopping and not self.told_stop:
@@ -55,6 +56,9 @@ class ProgressDisplay:
                   "(Ctrl-C again to stop at once).", file=self.stream)
         if self.quiet or pr.total == 0:
             return
+        if pr.stage != self._stage:  # the next mechanism of a comparison: a bar (or line count) of its own
+            self.close()
+            self._stage, self._last_line_t, self._last_line_done = pr.stage, None, -1
         left = pr.remaining_s
         left_text = "" if left is None else f"about {duration(left)} left"
         if self.terminal:
@@ -65,7 +69,7 @@ class ProgressDisplay:
     def _bar(self, pr, left_text: str) -> None:
         if self.bar is None:
             self.bar = tqdm(total=pr.total, unit="flame", file=self.stream, dynamic_ncols=True,
-                            desc=f"flames ({pr.reused} from the store)",
+                            desc=f"{pr.stage + ': ' if pr.stage else ''}flames ({pr.reused} from the store)",
                             bar_format="{desc}: {percentage:3.0f}%|{bar}| {n_fmt}/{total_fmt} [{elapsed}{postfix}]")
         self.bar.set_postfix_str(f"{pr.no_flame} no flame, {pr.failed} failed" + (f", {left_text}" if left_text else ""),
                                  refresh=False)
@@ -75,7 +79,8 @@ class ProgressDisplay:
         now = time.monotonic()
         if self._last_line_t is None:
             self._last_line_t, self._last_line_done = now, pr.done
-            print(f"flamecharts: {pr.total} flames to solve, {pr.reused} from the store"
+            print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.total} flames to solve, "
+                  f"{pr.reused} from the store"
                   + (f"; estimated {duration(pr.estimate_s)}" if pr.estimate_s is not None else ""),
                   file=self.stream, flush=True)
             return

@@ -8,10 +8,11 @@ from pathlib import Path
 
 from ..columns import gas_label
 from ..admissible.driver import kept, limit_sentence
-from ..config import check_cluster_spec, load_study, lumping_note
-from ..design import error_bar_sentence
+from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
+from ..design import error_bar_sentence, largest_differences, mechanism_differences
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
+from ..results import comparison_of, mechanism_dataset, rows_of
 from ..sweep.run import RunInterrupted
 from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points, print_premixer
@@ -63,17 +64,24 @@ def cmd_run(args) -> int:
     note = lumping_note(study)
     if note:
         print(note)
-    if not args.quiet:
-        print_points(study, summary.rows)
-    print_margins(study, results.dataset)
-    print_premixer(study, summary.rows)
+    subs = by_mechanism(study)
+    for i, sub in enumerate(subs):  # a study comparing mechanisms: each one's read-out in turn
+        rows = rows_of(sub, summary.rows)
+        if len(subs) > 1:
+            print(f"Under {sub.mechanism}{' (reference)' if i == 0 else ''}:")
+        if not args.quiet:
+            print_points(sub, rows)
+        print_margins(sub, mechanism_dataset(results.dataset, sub.mechanism))
+        print_premixer(sub, rows)
+        _print_error_bars(sub, rows)
     _print_limits(study, summary)
-    _print_stretch(summary)
-    _print_error_bars(study, summary.rows)
+    _print_stretch(summary, len(subs) > 1)
+    _print_mechanisms(study, summary.rows)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
           + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "")
-          + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "") + ")")
+          + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "")
+          + (f"; mechanisms compared: {out / 'mechanism_comparison.csv'}" if study.mechanisms else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
         if not args.no_report:
@@ -97,7 +105,7 @@ def _print_limits(study, summary) -> None:
           + f"; {sum(r['flames_evaluated'] for r in summary.limits)} flames beyond the sweep, "
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:
-        print("  " + limit_sentence(r, study))
+        print("  " + (f"{r['mechanism']}: " if study.mechanisms else "") + limit_sentence(r, study))
 
 
 def _extras_line(what: str, done: int, total: int) -> None:
@@ -105,15 +113,15 @@ def _extras_line(what: str, done: int, total: int) -> None:
     print(f"{what}: {done} of {total} done", file=sys.stderr)
 
 
-def _print_stretch(summary) -> None:
-    """The [stretch] ladders, one line each."""
+def _print_stretch(summary, by_mechanism: bool = False) -> None:
+    """The [stretch] ladders, one line each (each with its mechanism when the study compares several)."""
     if not summary.stretch:
         return
     print(f"Strained flames ({plural(len(summary.stretch), 'ladder')}, {summary.stretch_ladders} solved in this run; "
           "strain = largest |du/dz| ahead of the flame):")
     for r in summary.stretch:
-        where = (f"{gas_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
-                 f"{r['unburned_temperature_K']:g} K")
+        where = ((f"{r['mechanism']}: " if by_mechanism else "") + f"{gas_label(r)}, phi {r['equivalence_ratio']:g}, "
+                 f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K")
         if r["status"] != "ok":
             print(f"  {where}: {r['status']} {r['message']}".rstrip())
             continue
@@ -140,6 +148,28 @@ def _print_error_bars(study, rows) -> None:
         print(f"  {gas}, {P:g} bar, {T:g} K: " + error_bar_sentence(near).replace("φ", "phi").replace("σ", " sigma"))
     if len(groups) > 20:
         print(f"  ... and {len(groups) - 20} more (report.html, results.csv)")
+
+
+def _print_mechanisms(study, rows) -> None:
+    """A study comparing mechanisms: per other mechanism, gas and condition, the largest flame-speed
+    difference from the reference's and whether it lies inside the reference's kinetic band."""
+    comparison = comparison_of(study, rows)
+    if comparison is None:
+        return
+    ref = comparison.names[0]
+    print(f"Mechanisms compared (difference from {ref}, the reference; mechanism_comparison.csv, chart "
+          "mechanism_comparison):")
+    lines = largest_differences(mechanism_differences(rows, comparison.names))
+    for d in lines[:20]:
+        band, dth = d["flame_speed_kinetic_uncertainty_percent"], d["thermal_thickness_difference_percent"]
+        print(f"  {d['mechanism']}: {gas_label(d)}, {d['pressure_bar']:g} bar, {d['unburned_temperature_K']:g} K: S_L "
+              f"differs by up to {d['flame_speed_difference_percent']:+.1f} % (phi {d['equivalence_ratio']:g}: "
+              f"{100 * d['laminar_flame_speed_m_s']:.3g} vs {100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)"
+              + ("" if dth is None else f", thickness {dth:+.1f} %")
+              + ("" if band is None else f"; {'inside' if abs(d['flame_speed_difference_percent']) <= band else 'OUTSIDE'}"
+                                         f" the reference's kinetic band ({band:.2g} %, 1 sigma)"))
+    if len(lines) > 20:
+        print(f"  ... and {len(lines) - 20} more (report.html, mechanism_comparison.csv)")
 
 
 def _utilisation(summary) -> str:

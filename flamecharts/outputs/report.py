@@ -17,11 +17,11 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import error_bar_sentence, fuel_gas_table
+from ..design import error_bar_sentence, fuel_gas_table, largest_differences, mechanism_differences
 from ..physics.limits import mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
-from .tables import write_atomic
+from .tables import uncertainty_settings, write_atomic
 
 CSS = """
 body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif; color: #1d1d1d;
@@ -233,6 +233,55 @@ def by_gas_and_condition(rows: list[dict]) -> dict[tuple, list[dict]]:
     return groups
 
 
+def _mechanisms_section(study, comparison) -> list[str]:
+    """A study comparing mechanisms: what each was built for, and per gas and condition the largest
+    difference of its flame speed from the reference's, beside the reference's kinetic band."""
+    if comparison is None:
+        return []
+    names = comparison.names
+    diffs = mechanism_differences(comparison.rows, names)
+    table = []
+    for d in largest_differences(diffs):
+        band = d["flame_speed_kinetic_uncertainty_percent"]
+        dth = d["thermal_thickness_difference_percent"]
+        table.append([d["mechanism"], f"{gas_label(d)} in {d['oxidizer']}", f"{d['pressure_bar']:g}",
+                      f"{d['unburned_temperature_K']:g}", f"{d['flame_speed_difference_percent']:+.1f} (φ "
+                      f"{d['equivalence_ratio']:g}: {100 * d['laminar_flame_speed_m_s']:.3g} vs "
+                      f"{100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)",
+                      "" if dth is None else f"{dth:+.1f}",
+                      "" if band is None else f"{band:.2g}"
+                      + (" (outside)" if abs(d["flame_speed_difference_percent"]) > band else " (inside)"),
+                      str(d["points"])])
+    table, more = _first(table, "mechanism_comparison.csv")
+    parts = ["<h2 id='mechanisms'>Mechanisms compared</h2>",
+             "<p>The whole sweep was solved under each mechanism, the same flames with the same numerics; "
+             f"differences are in % of the reference, {_e(names[0])}. Where the difference is larger than the "
+             "reference's kinetic band, the mechanisms disagree by more than their rate constants' stated "
+             "uncertainty: trust neither without measurements for that mixture. Every point is in "
+             "mechanism_comparison.csv and, with its mechanism, in results.csv.</p>",
+             _table(["mechanism", "gas", "p [bar]", "T_u [K]", "largest S_L difference [%]",
+                     "thickness difference there [%]", "reference's kinetic band, 1σ [%]", "points compared"],
+                    table, {2, 3, 5, 7}) + more,
+             "<div class='keep'><h3>What each mechanism was built for</h3>"
+             + _table(["mechanism", "built and validated for"],
+                      [[s.mechanism, mechanism_scope(s.mechanism_path)] for s in comparison.studies]) + "</div>"]
+    searches: dict[tuple, dict[str, str]] = {}
+    for r in comparison.limits:
+        key = (r["limit"], gas_label(r), r["equivalence_ratio"], r["pressure_bar"], r["unburned_temperature_K"])
+        v = r["limit_value"]
+        searches.setdefault(key, {})[r["mechanism"]] = ("" if v is None else
+                                                       f"{100 * v:.3g} %" if r["limit"] == "max_blend_fraction"
+                                                       else f"φ {v:.3g}") + f" ({r['outcome']})"
+    if searches:
+        rows_l, more_l = _first([[k[0].replace("_", " "), k[1], f"{k[2]:g}" if k[0] == "max_blend_fraction" else "",
+                                  f"{k[3]:g}", f"{k[4]:g}", *(v.get(m, "") for m in names)]
+                                 for k, v in searches.items()], "limits.csv")
+        parts.append("<div class='keep'><h3>Limits under each mechanism</h3>"
+                     + _table(["limit", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4}) + more_l
+                     + "</div>")
+    return parts
+
+
 def _uncertainty_section(study, rows: list[dict]) -> list[str]:
     """How sure the flame speeds are: per gas and condition the point nearest φ 1 with its
     numerical band and, with [uncertainty], its kinetic band and most sensitive reaction."""
@@ -368,9 +417,30 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
     return out
 
 
+def _provenance(study, comparison) -> list[str]:
+    """Where the numbers come from: mechanism(s), transport, numerics, software, config."""
+    n = NUMERICS[study.resolution]
+    return ["<h2>Provenance</h2>", _table(["", ""], [
+        *([["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
+           ["mechanism built for", mechanism_scope(study.mechanism_path)],
+           ["mechanism sha256", study.mechanism_sha256]] if comparison is None else
+          [[f"mechanism {i + 1}" + (" (reference)" if i == 0 else ""),
+            f"{s.mechanism} ({s.mechanism_path}, sha256 {s.mechanism_sha256})"] for i, s in enumerate(comparison.studies)]),
+        ["transport", study.transport + (", thermal diffusion on" if study.thermal_diffusion else "")],
+        ["numerical setting", f"{resolution_label(study)}; refinement stages (ratio, slope, curve) {list(n.stages)}"],
+        ["indicator settings", ", ".join(f"{k} = {v:g}" for k, v in study.indicator_settings.items())],
+        *([["uncertainty settings", uncertainty_settings(study.uncertainty)]] if study.uncertainty else []),
+        ["software", f"flamecharts {__version__}, Cantera {cantera_version()}"],
+        ["written", time.strftime("%Y-%m-%d %H:%M:%S %Z")],
+        ["config", study.config_path or "(from Python)"],
+    ])]
+
+
 def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None,
-                 limits: list[dict] = (), stretch: list[dict] = ()) -> Path:
-    """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts."""
+                 limits: list[dict] = (), stretch: list[dict] = (), comparison=None) -> Path:
+    """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts.
+    ``comparison`` (results.Comparison) adds the mechanism comparison; ``study`` and ``rows``
+    are then the reference mechanism's."""
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
              f"<style>{CSS}</style></head><body>",
@@ -381,6 +451,10 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
              "(freely propagating 1D laminar flames).</p>",
              f"<div class='caution'><b>Caution.</b> {_e(CAUTION)}</div>"]
 
+    if comparison is not None:
+        parts.append(f"<p><b>{len(comparison.names)} mechanisms compared</b> ({_e(', '.join(comparison.names))}): "
+                     f"the design sections below read the reference, {_e(comparison.names[0])}; "
+                     "<a href='#mechanisms'>Mechanisms compared</a> shows how far the others differ.</p>")
     parts += _study_section(study, rows, gases)
 
     parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
@@ -398,6 +472,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
 
     parts += _uncertainty_section(study, rows)
+    parts += _mechanisms_section(study, comparison)
     parts += _response_section(study, rows)
     parts += _stretch_section(study, stretch)
     parts += _limits_section(study, limits)
@@ -425,19 +500,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                             [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
 
-    n = NUMERICS[study.resolution]
-    parts.append("<h2>Provenance</h2>")
-    parts.append(_table(["", ""], [
-        ["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
-        ["mechanism built for", mechanism_scope(study.mechanism_path)],
-        ["mechanism sha256", study.mechanism_sha256],
-        ["transport", study.transport + (", thermal diffusion on" if study.thermal_diffusion else "")],
-        ["numerical setting", f"{resolution_label(study)}; refinement stages (ratio, slope, curve) {list(n.stages)}"],
-        ["indicator settings", ", ".join(f"{k} = {v:g}" for k, v in study.indicator_settings.items())],
-        ["software", f"flamecharts {__version__}, Cantera {cantera_version()}"],
-        ["written", time.strftime("%Y-%m-%d %H:%M:%S %Z")],
-        ["config", study.config_path or "(from Python)"],
-    ]))
+    parts += _provenance(study, comparison)
     parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "
                  "indicators rest on correlations whose constants are known to a factor of about 1.5-2; they rank "
                  "mixtures and show trends, they do not replace certification tests.</div>")

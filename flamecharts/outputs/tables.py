@@ -56,14 +56,26 @@ def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
     return Path(path)
 
 
+def uncertainty_settings(u) -> str:
+    """The [uncertainty] table as the run used it, in one line (the study's own factors named)."""
+    own = "; ".join(f"{eq} f = {f:g}" for eq, f in u.factors)
+    return (f"kinetic band {'on' if u.kinetics else 'off'}; a factor's bound read as {u.factor_sigmas:g} sigma; "
+            f"factor {u.default_factor:g} for reactions without one; numerical error bars drawn "
+            f"{'yes' if u.error_bars else 'no'}; the study's own factors: {own or 'none'}")
+
+
 def write_about(study: Study, path: Path) -> Path:
     """about.txt beside the CSV: what produced it, with the cautions."""
     n = NUMERICS[study.resolution]
     lines = [
         f"Study: {study.title}",
         f"Config: {study.config_path or '(from Python)'}",
-        f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256})",
+        *([f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256})"]
+          if not study.mechanisms else
+          [f"Mechanisms compared ({len(study.mechanisms)}; the first is the reference of the design charts):"]
+          + [f"  {m.name} ({m.path}, sha256 {m.sha256})" for m in study.mechanisms]),
         f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
+        *([f"Uncertainty: {uncertainty_settings(study.uncertainty)}"] if study.uncertainty else []),
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
         f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",

@@ -3,9 +3,10 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from ..columns import GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENSITIVITY_COLUMNS, STRETCH_COLUMNS
-from ..design import fuel_gas_table
-from ..results import exponent_table, sensitivity_rows, to_dataset
+from ..columns import COMPARISON_COLUMNS, GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENSITIVITY_COLUMNS, STRETCH_COLUMNS
+from ..design import fuel_gas_table, mechanism_differences
+from ..config import by_mechanism
+from ..results import comparison_of, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
 from .charts import draw_all
 from .netcdf import write_netcdf
 from .report import write_report
@@ -17,11 +18,16 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
-    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]), ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv
-    with [uncertainty]. Returns the files written, results.csv first."""
+    rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]),
+    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty].
+
+    A study comparing mechanisms writes every mechanism's rows to the tables; the design
+    charts and the report's design sections read the reference (first) mechanism, and the
+    comparison chart and section all of them. Returns the files written, results.csv first."""
     out = Path(out)
     gases = fuel_gas_table(study)
     ds = to_dataset(study, rows) if dataset is None else dataset
+    limits, stretch = limits or [], stretch or []
     files = [write_csv(rows, out / "results.csv"), write_netcdf(ds, out / "results.nc"),
              write_about(study, out / "about.txt"), write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
     exponents = exponent_table(ds)
@@ -34,8 +40,14 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     sensitivities = sensitivity_rows(rows)
     if sensitivities:
         files.append(write_csv(sensitivities, out / "sensitivities.csv", SENSITIVITY_COLUMNS))
+    if comparison := comparison_of(study, rows, limits):
+        files.append(write_csv(mechanism_differences(rows, comparison.names), out / "mechanism_comparison.csv",
+                               COMPARISON_COLUMNS))
+    ref = by_mechanism(study)[0]
+    ref_rows, ref_ds = rows_of(ref, rows), mechanism_dataset(ds)
+    ref_limits, ref_stretch = rows_of(ref, limits), rows_of(ref, stretch)
     if charts:
-        files += draw_all(rows, gases, study, out, ds, limits or [], stretch or [])
+        files += draw_all(ref_rows, gases, ref, out, ref_ds, ref_limits, ref_stretch, comparison)
     if charts and report:
-        files.append(write_report(study, rows, out, gases, ds, limits or [], stretch or []))
+        files.append(write_report(ref, ref_rows, out, gases, ref_ds, ref_limits, ref_stretch, comparison))
     return files

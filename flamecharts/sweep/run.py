@@ -59,6 +59,7 @@ class Progress:
     stopping: bool = False  # a first Ctrl-C arrived: no new work, running flames finish
     estimate_s: float | None = None  # the plan's estimate of this run's wall time (as check prints it)
     done_share: float = 0.0          # share of the plan's estimated flame cost finished so far
+    stage: str = ""                  # which part of the study, when it has several (one per mechanism)
 
     @property
     def remaining_s(self) -> float | None:

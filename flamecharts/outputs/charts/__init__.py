@@ -6,6 +6,7 @@ phi_charts.py    flame speed, thickness and adiabatic flame temperature against 
 design_charts.py pressure/preheat dependence, blends, flashback, operating window, gas interchangeability
 stretch_charts.py strained flames: consumption speed against strain, extinction
 uncertainty_charts.py flame-speed sensitivity to rate constants ([uncertainty])
+mechanism_charts.py the same flames and limits under each mechanism a study compares
 """
 from __future__ import annotations
 
@@ -20,6 +21,7 @@ from . import phi_charts  # noqa: F401 - importing registers its charts, first i
 from . import design_charts  # noqa: F401,I001
 from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
+from . import mechanism_charts  # noqa: F401,I001
 from .registry import CHARTS, ChartData
 
 #: chart file name -> one-line caption of how to read it (the report prints it)
@@ -27,11 +29,12 @@ CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
 def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None,
-             limits: list[dict] = (), stretch: list[dict] = ()) -> list[Path]:
+             limits: list[dict] = (), stretch: list[dict] = (), comparison=None) -> list[Path]:
     """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
-    ``dataset`` is results.to_dataset of the rows (made here when not given)."""
+    ``dataset`` is results.to_dataset of the rows (made here when not given); ``comparison``
+    the results.Comparison of a study comparing mechanisms (``rows`` then are the reference's)."""
     data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset,
-                     limits=list(limits), stretch=list(stretch))
+                     limits=list(limits), stretch=list(stretch), comparison=comparison)
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
     written = []

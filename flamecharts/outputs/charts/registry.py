@@ -88,6 +88,7 @@ class ChartData:
     dataset: xr.Dataset
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
     stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (STRETCH_COLUMNS)
+    comparison: object | None = None  # results.Comparison of a study comparing mechanisms (rows: the reference's)
 
     @cached_property
     def every(self) -> dict[str, list]:
