@@ -582,11 +582,11 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
         flags[key] = t.get(key, default)
         if not isinstance(flags[key], bool):
             raise ConfigError(f"'uncertainty.{key}' must be true or false, got {show(flags[key])}")
-    default = _positive(t, "default_factor", "uncertainty")
+    default = _number(t["default_factor"], "uncertainty.default_factor") if "default_factor" in t else None
     if default is not None and not 1.0 <= default <= MAX_RATE_FACTOR:
         raise ConfigError(f"'uncertainty.default_factor' is {default:g}; allowed: 1 to {MAX_RATE_FACTOR:g} (a "
                           "factor f: the rate constant lies between k/f and k*f)")
-    sigmas = _positive(t, "factor_sigmas", "uncertainty")
+    sigmas = _number(t["factor_sigmas"], "uncertainty.factor_sigmas") if "factor_sigmas" in t else None
     if sigmas is not None and not 1.0 <= sigmas <= 4.0:
         raise ConfigError(f"'uncertainty.factor_sigmas' is {sigmas:g}; allowed: 1 to 4 (standard deviations a "
                           "factor's bound stands for: 2 or 3 in the literature)")
@@ -597,15 +597,22 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
     equations = [e for path in mech_paths for e in reaction_equations(str(path))]
     by_key = {reaction_key(e): e for e in equations}
     names = " nor ".join(Path(path).name for path in mech_paths)
-    factors = []
+    factors, named = [], {}
     for eq, f in given.items():
         try:
             key = reaction_key(eq)
         except ValueError:
             key = None
         if key not in by_key:
-            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {names} does not "
-                              f"have{_suggest(eq, list(dict.fromkeys(equations)))[:200]}")
+            close = difflib.get_close_matches(eq, list(dict.fromkeys(equations)), n=3, cutoff=0.6)
+            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {names} does not have"
+                              + (f" (did you mean {' or '.join(repr(c) for c in close)}?)" if close else "")
+                              + "; write the equation as the mechanism does, species and '<=>' separated by "
+                              "spaces, e.g. \"H + O2 <=> O + OH\"")
+        if key in named:
+            raise ConfigError(f"'uncertainty.factors' names the same reaction twice: {named[key]!r} and {eq!r}; "
+                              "give it one factor")
+        named[key] = eq
         if isinstance(f, bool) or not isinstance(f, (int, float)) or not 1.0 <= f <= MAX_RATE_FACTOR:
             raise ConfigError(f"'uncertainty.factors' gives {eq!r} the factor {show(f)}; allowed: a number from 1 to "
                               f"{MAX_RATE_FACTOR:g}")

@@ -190,6 +190,12 @@ def test_study_with_uncertainty_writes_bands_sensitivities_and_chart(tmp_path):
         [x["flame_speed_kinetic_uncertainty_percent"] for x in rows]
     res2 = run(cfg, out=tmp_path / "out", jobs=1, charts=False)
     assert res2.summary.solved == 0 and res2.summary.solve_seconds == 0.0
+    # the study no longer asks for the band: its table, chart and report section go with it
+    cfg.write_text(cfg.read_text().replace(UNCERTAINTY.strip(), ""))
+    run(cfg, out=tmp_path / "out", jobs=1)
+    assert not (tmp_path / "out" / "sensitivities.csv").exists()
+    assert not (tmp_path / "out" / "charts" / "flame_speed_sensitivity.png").exists()
+    assert "flame_speed_sensitivity" not in (tmp_path / "out" / "report.html").read_text()
 
 
 def test_changing_a_factor_solves_nothing_and_moves_the_band(tmp_path):
@@ -207,6 +213,8 @@ def test_changing_a_factor_solves_nothing_and_moves_the_band(tmp_path):
     ('[uncertainty]\nfactors = { "H + O2 <=> O + OH" = 0.5 }', "allowed: a number from 1"),
     ('[uncertainty]\ndefault_factor = 500', "uncertainty.default_factor"),
     ('[uncertainty]\nkinetic = true', "uncertainty.kinetic"),
+    ('[uncertainty]\nfactors = { "H + O2 <=> O + OH" = 1.3, "O + OH <=> H + O2" = 2.0 }', "same reaction twice"),
+    ('[uncertainty]\ndefault_factor = 0', "allowed: 1 to 100"),
 ])
 def test_bad_uncertainty_tables_are_refused_in_one_line(tmp_path, table, message):
     cfg = write_h2_study(tmp_path, extra=table)

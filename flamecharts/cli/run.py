@@ -141,8 +141,9 @@ def _print_error_bars(study, rows) -> None:
     groups: dict[tuple, list] = {}
     for r in ok:
         groups.setdefault((gas_label(r), r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
-    print("Error bars of S_L (numerics: grid convergence index; kinetics: 1 sigma, first order, rate-constant "
-          "factors; sensitivities.csv):")
+    print("Error bars of S_L (numerics: grid convergence index" + ("; kinetics: 1 sigma, first order, rate-constant "
+                                                                   "factors; sensitivities.csv):"
+                                                                   if study.uncertainty.kinetics else "):"))
     for (gas, _ox, P, T), rs in list(groups.items())[:20]:
         near = min(rs, key=lambda r: (abs(r["equivalence_ratio"] - 1.0), r["equivalence_ratio"]))
         print(f"  {gas}, {P:g} bar, {T:g} K: " + error_bar_sentence(near).replace("φ", "phi").replace("σ", " sigma"))

@@ -7,7 +7,7 @@ from ..columns import COMPARISON_COLUMNS, GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENS
 from ..design import fuel_gas_table, mechanism_differences
 from ..config import by_mechanism
 from ..results import comparison_of, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
-from .charts import draw_all
+from .charts import CAPTIONS, draw_all
 from .netcdf import write_netcdf
 from .report import write_report
 from .tables import write_about, write_csv
@@ -48,6 +48,29 @@ def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, repor
     ref_limits, ref_stretch = rows_of(ref, limits), rows_of(ref, stretch)
     if charts:
         files += draw_all(ref_rows, gases, ref, out, ref_ds, ref_limits, ref_stretch, comparison)
+    remove_stale(out, files, charts)  # before the report, which embeds every chart it finds
     if charts and report:
         files.append(write_report(ref, ref_rows, out, gases, ref_ds, ref_limits, ref_stretch, comparison))
     return files
+
+
+#: Tables a run writes only when the study asks for them.
+OPTIONAL_TABLES = ("power_law_exponents.csv", "limits.csv", "stretch.csv", "sensitivities.csv",
+                   "mechanism_comparison.csv")
+
+
+def remove_stale(out: Path, written: list[Path], charts: bool) -> list[Path]:
+    """Remove the optional tables and (when charts were drawn) the charts an earlier run of the
+    folder wrote and this one did not: a study that no longer asks for them must not show
+    them, nor its report embed them. Files flamecharts does not write are left alone.
+    Returns the files removed."""
+    keep = {Path(f).resolve() for f in written}
+    candidates = [out / name for name in OPTIONAL_TABLES]
+    if charts:
+        candidates += [out / "charts" / f"{name}.{ext}" for name in CAPTIONS for ext in ("png", "svg")]
+    removed = []
+    for path in candidates:
+        if path.is_file() and path.resolve() not in keep:
+            path.unlink()
+            removed.append(path)
+    return removed

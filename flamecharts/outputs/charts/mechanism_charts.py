@@ -140,7 +140,9 @@ def limits_by_mechanism_chart(data, study):
     parts = [(kind, [r for r in found if (r["limit"] == "max_blend_fraction") == (kind == "blend")])
              for kind in ("blend", "window")]
     parts = [p for p in parts if p[1]]
-    fig, axes = figure(len(parts), width=5.5, height=max(3.0, 0.3 * MAX_SEARCHES))
+    n_rows = max(len({(r["limit"], gas_label(r), r["equivalence_ratio"], r["blend_fraction"], r["pressure_bar"],
+                        r["unburned_temperature_K"]) for r in rows}) for _, rows in parts)
+    fig, axes = figure(len(parts), width=5.5, height=max(1.6, 0.35 * min(n_rows, MAX_SEARCHES) + 0.8))
     colours = colour_scale(len(names))
     for ax, (kind, rows) in zip(axes[0], parts):
         searches: dict[tuple, dict[str, float]] = {}
@@ -157,7 +159,7 @@ def limits_by_mechanism_chart(data, study):
                 if m in vals:
                     ax.plot(vals[m], y, style[m][1], color=colours[i], ms=7, mec="k", zorder=2)
         ax.set_yticks(range(len(keys)), [_search_label(k, kind) for k in keys], fontsize=7.5)
-        ax.invert_yaxis()
+        ax.set_ylim(len(keys) - 0.5, -0.5)  # first search on top
         ax.set_xlabel(f"largest admissible {study.blend_with} fraction [%]" if kind == "blend"
                       else "admissible equivalence ratio φ (window edge)")
         ax.grid(alpha=0.3, axis="x")

@@ -41,8 +41,10 @@ def _error_bands(ax, good: list[dict], column: str, scale: float, colour, band: 
     return drawn
 
 
-def _legend_extras(handles: dict, shown: set[str], companion) -> None:
-    """Legend entries for what a phi chart drew beyond its curves (axis markers, rings, bands, companion)."""
+def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float | None = None) -> None:
+    """Legend entries for what a phi chart drew beyond its curves (axis markers, rings, bands, companion);
+    ``largest_bar``: the largest numerical band drawn [%], named since bars under about 1 % hide
+    under the markers."""
     for status, marker in NOT_BURNING:
         if status in shown:
             text = ("no flame (on the axis, colour of its curve)" if status == "no_flame"
@@ -56,7 +58,8 @@ def _legend_extras(handles: dict, shown: set[str], companion) -> None:
         handles["shaded: kinetic uncertainty, 1 sigma\n(first order, rate-constant factors)"] = plt.Rectangle(
             (0, 0), 1, 1, color="0.35", alpha=0.25, lw=0)
     if "bars" in shown:
-        handles["bars: numerical (grid) error band"] = Line2D([], [], color="0.35", marker="|", markersize=9,
+        handles["bars: numerical (grid) error band" + (f"\n(largest ±{largest_bar:.2g} %: smaller than a marker "
+                                                        "below about 1 %)" if largest_bar is not None else "")] = Line2D([], [], color="0.35", marker="|", markersize=9,
                                                               linestyle="none")
     if companion is not None:
         handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
@@ -122,7 +125,8 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
         axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale)
     for ax in list(axes.flat)[n:]:
         ax.set_visible(False)
-    _legend_extras(handles, shown, companion)
+    bars = [r[error_bars] for r in rows if error_bars and r["status"] == "ok" and r.get(error_bars) is not None]
+    _legend_extras(handles, shown, companion, max(bars) if bars else None)
     fig.suptitle(f"{title[0]}\n{title[1]}{data.note()}", fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)

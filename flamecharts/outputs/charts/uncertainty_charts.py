@@ -56,7 +56,9 @@ def sensitivity_chart(data, study):
         top = r["top_reactions"][:BARS][::-1]
         s = [t["sensitivity"] for t in top]
         ax.barh(range(len(top)), s, color=["#2166ac" if v > 0 else "#b2182b" for v in s], height=0.65)
-        ax.set_yticks(range(len(top)), [f"{t['reaction']}  (f {t['uncertainty_factor']:.3g})" for t in top],
+        ax.set_yticks(range(len(top)), [f"{t['reaction']}  (f {t['uncertainty_factor']:.3g}"
+                                        + (", the study's" if t.get("factor_source") == "study" else "") + ")"
+                                        for t in top],
                       fontsize=7.5)
         ax.axvline(0.0, color="0.3", lw=0.8)
         ax.set_xlabel("d ln S_L / d ln k [-]")
