@@ -49,6 +49,10 @@ UNITS: dict[str, tuple[str, str]] = {
     "flame_speed_difference_percent": ("%", "flame speed under this mechanism over the reference's, minus 1"),
     "thermal_thickness_difference_percent": ("%", "thermal thickness under this mechanism over the reference's, "
                                                   "minus 1"),
+    "flame_speed_difference_numerical_error_percent": ("%", "numerical error of the flame-speed difference: both "
+                                                            "flames' grid bands combined in quadrature"),
+    "reference_kinetic_uncertainty_percent": ("%", "the reference mechanism's kinetic band of the flame speed "
+                                                   "(1 sigma) at the point"),
     "transport": ("", "transport model"),
     "thermal_diffusion": ("", "thermal diffusion (Soret effect) on"),
     "resolution": ("", "numerical resolution setting"),
@@ -211,8 +215,9 @@ COLUMNS = (
 COMPARISON_COLUMNS = ("mechanism", "reference_mechanism", "fuel", "oxidizer", "blend_with", "blend_fraction",
                       "equivalence_ratio", "pressure_bar", "unburned_temperature_K", "laminar_flame_speed_m_s",
                       "reference_laminar_flame_speed_m_s", "flame_speed_difference_percent",
-                      "thermal_thickness_mm", "reference_thermal_thickness_mm", "thermal_thickness_difference_percent",
-                      "flame_speed_kinetic_uncertainty_percent")
+                      "flame_speed_difference_numerical_error_percent", "thermal_thickness_mm",
+                      "reference_thermal_thickness_mm", "thermal_thickness_difference_percent",
+                      "reference_kinetic_uncertainty_percent")
 
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (

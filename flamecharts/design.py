@@ -349,8 +349,9 @@ POINT_AXES = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressu
 def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
     """Each point burning under the reference mechanism (``names[0]``) and under another: the
     relative difference of its flame speed and thermal thickness, in % of the reference's
-    (columns.COMPARISON_COLUMNS), with the reference's 1-sigma kinetic band beside them when
-    the study asks for one. One row per point and other mechanism, in the study's order."""
+    (columns.COMPARISON_COLUMNS), the numerical error of the flame-speed difference (both
+    flames' grid bands in quadrature, scaled to the ratio: d(S/S0)/(S/S0) = sqrt(e^2 + e0^2)
+    for independent errors) and the reference's 1-sigma kinetic band when the study asks for one. One row per point and other mechanism, in the study's order."""
     ref = {tuple(r[a] for a in POINT_AXES): r for r in rows
            if r.get("mechanism") == names[0] and r["status"] == "ok"}
     out = []
@@ -360,13 +361,16 @@ def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
             continue
         S, S0 = r["laminar_flame_speed_m_s"], base["laminar_flame_speed_m_s"]
         d, d0 = r["thermal_thickness_mm"], base["thermal_thickness_mm"]
+        e, e0 = r.get("flame_speed_numerical_error_percent"), base.get("flame_speed_numerical_error_percent")
         out.append({"mechanism": r["mechanism"], "reference_mechanism": names[0],
                     **{a: r[a] for a in ("blend_with",) + POINT_AXES},
                     "laminar_flame_speed_m_s": S, "reference_laminar_flame_speed_m_s": S0,
                     "flame_speed_difference_percent": 100.0 * (S / S0 - 1.0),
+                    "flame_speed_difference_numerical_error_percent":
+                        None if e is None or e0 is None else math.hypot(e, e0) * S / S0,
                     "thermal_thickness_mm": d, "reference_thermal_thickness_mm": d0,
                     "thermal_thickness_difference_percent": 100.0 * (d / d0 - 1.0) if d and d0 else None,
-                    "flame_speed_kinetic_uncertainty_percent": base.get("flame_speed_kinetic_uncertainty_percent")})
+                    "reference_kinetic_uncertainty_percent": base.get("flame_speed_kinetic_uncertainty_percent")})
     return out
 
 

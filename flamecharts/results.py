@@ -203,8 +203,8 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     if len(subs) == 1:
         return _one_dataset(study, rows)
     parts = [_one_dataset(sub, rows_of(sub, rows)) for sub in subs]
-    ds = xr.concat(parts, dim=pd.Index([s.mechanism for s in subs], name="mechanism"), combine_attrs="drop")
-    ds.attrs.update({k: v for k, v in parts[0].attrs.items() if k != "mechanism"})
+    ds = xr.concat(parts, dim=pd.Index([s.mechanism for s in subs], name="mechanism"), combine_attrs="override")
+    ds.attrs = {k: v for k, v in parts[0].attrs.items() if k != "mechanism"}  # units stay on every variable
     ds.attrs["mechanisms"] = ", ".join(s.mechanism for s in subs)
     ds["mechanism"].attrs["long_name"] = UNITS["mechanism"][1] + " (the first is the reference)"
     return ds
@@ -385,6 +385,15 @@ class Results:
     def to_dataframe(self):
         """A pandas DataFrame with results.csv's columns, one row per point, in study order."""
         return pd.DataFrame([[r.get(c) for c in COLUMNS] for r in self.rows], columns=list(COLUMNS))
+
+    def mechanism_comparison(self):
+        """A pandas DataFrame of mechanism_comparison.csv (design.mechanism_differences: each point
+        under each other mechanism against the reference); empty for a one-mechanism study."""
+        from .columns import COMPARISON_COLUMNS
+        from .design import mechanism_differences
+        comparison = comparison_of(self.study, self.rows)
+        rows = mechanism_differences(self.rows, comparison.names) if comparison else []
+        return pd.DataFrame([[r.get(c) for c in COMPARISON_COLUMNS] for r in rows], columns=list(COMPARISON_COLUMNS))
 
     def counts(self) -> dict[str, int]:
         """Points by status: ok, no_flame, failed, pending."""

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import csv
 import json
+from pathlib import Path
 
 import pytest
 import xarray as xr
@@ -103,6 +104,7 @@ def test_two_mechanism_study_gives_both_in_every_output(tmp_path):
     ds = xr.open_dataset(out / "results.nc")
     assert ds["laminar_flame_speed_m_s"].dims[0] == "mechanism"
     assert list(ds["mechanism"].values) == ["h2o2.yaml", ALZUETA]
+    assert ds["laminar_flame_speed_m_s"].attrs["units"] == "m/s" and "caution" in ds.attrs
     for r in rows:
         v = ds["laminar_flame_speed_m_s"].sel(mechanism=r["mechanism"], equivalence_ratio=r["equivalence_ratio"])
         assert float(v.squeeze()) == pytest.approx(r["laminar_flame_speed_m_s"], rel=1e-12)
@@ -121,7 +123,8 @@ def test_two_mechanism_study_gives_both_in_every_output(tmp_path):
         phi = float(c["equivalence_ratio"])
         assert float(c["flame_speed_difference_percent"]) == pytest.approx(
             100 * (by[(ALZUETA, phi)] / by[("h2o2.yaml", phi)] - 1), rel=1e-5)  # CSV keeps 6 digits
-        assert float(c["flame_speed_kinetic_uncertainty_percent"]) > 0  # the reference's band beside it
+        assert float(c["reference_kinetic_uncertainty_percent"]) > 0  # the reference's band beside it
+        assert 0 < float(c["flame_speed_difference_numerical_error_percent"]) < 2  # both grid bands combined
     # sensitivities.csv: both mechanisms' reactions
     with open(out / "sensitivities.csv") as f:
         assert {r["mechanism"] for r in csv.DictReader(f)} == {"h2o2.yaml", ALZUETA}
@@ -172,3 +175,49 @@ def test_load_study_reads_a_list_from_toml(tmp_path):
     cfg.write_text(STUDY)
     study = load_study(cfg)
     assert study.mechanism == "h2o2.yaml" and len(study.mechanisms) == 2
+
+
+BURNER_LIMITS = """
+[burner]
+name = "test plate"
+port = "round"
+port_diameter_mm = 1.2
+port_velocity_m_s = 0.8
+min_flashback_margin = 1.5
+min_blowoff_margin = 1.5
+
+[limits]
+find = ["equivalence_ratio"]
+"""
+
+
+def test_a_faster_branching_rate_moves_the_flame_speed_as_its_sensitivity_says(tmp_path):
+    """Two fast mechanisms: h2o2.yaml and a copy with the rate constant of H + O2 <=> O + OH times
+    1.2. To first order S_L moves by 1.2 ** s, s = d ln S_L / d ln k from the adjoint of the
+    reference (a check against the adjoint, itself checked against finite differences in
+    test_uncertainty.py). Also: limits and both limit charts under each mechanism."""
+    import cantera as ct
+    source = next(p for p in (Path(d) / "h2o2.yaml" for d in ct.get_data_directories()) if p.is_file())
+    text = source.read_text()
+    assert "{A: 2.65e+16, b: -0.6707" in text
+    (tmp_path / "h2o2_fast_branching.yaml").write_text(text.replace("{A: 2.65e+16, b: -0.6707",
+                                                                    "{A: 3.18e+16, b: -0.6707"))
+    cfg = tmp_path / "pair.toml"
+    cfg.write_text(STUDY.replace(f'"{ALZUETA}"', '"h2o2_fast_branching.yaml"').replace("[0.6, 1.0]", "[0.6, 0.7, 0.8]")
+                   .replace("[uncertainty]\n", BURNER_LIMITS + "\n[uncertainty]\n"))
+    out = tmp_path / "out"
+    res = flamecharts.run(cfg, out=out, jobs=2)
+    ref = {r["equivalence_ratio"]: r for r in res.rows if r["mechanism"] == "h2o2.yaml"}
+    for d in res.mechanism_comparison().to_dict("records"):
+        s = next(t["sensitivity"] for t in ref[d["equivalence_ratio"]]["top_reactions"]
+                 if t["reaction"] == "H + O2 <=> O + OH")
+        predicted = 100 * (1.2 ** s - 1)
+        assert d["flame_speed_difference_percent"] == pytest.approx(predicted, rel=0.15), (d, s)
+        assert d["flame_speed_difference_percent"] > 2
+    with open(out / "limits.csv") as f:
+        limits = list(csv.DictReader(f))
+    assert {r["mechanism"] for r in limits} == {"h2o2.yaml", "h2o2_fast_branching.yaml"}
+    assert len(limits) == 4  # lean and rich edge under each
+    for name in ("admissible_limits", "limits_by_mechanism", "mechanism_comparison"):
+        assert (out / "charts" / f"{name}.png").stat().st_size > 15_000, name
+    assert "None fraction" not in (out / "charts" / "admissible_limits.svg").read_text()

@@ -162,9 +162,11 @@ def _print_mechanisms(study, rows) -> None:
           "mechanism_comparison):")
     lines = largest_differences(mechanism_differences(rows, comparison.names))
     for d in lines[:20]:
-        band, dth = d["flame_speed_kinetic_uncertainty_percent"], d["thermal_thickness_difference_percent"]
+        band, dth = d["reference_kinetic_uncertainty_percent"], d["thermal_thickness_difference_percent"]
+        num = d["flame_speed_difference_numerical_error_percent"]
         print(f"  {d['mechanism']}: {gas_label(d)}, {d['pressure_bar']:g} bar, {d['unburned_temperature_K']:g} K: S_L "
-              f"differs by up to {d['flame_speed_difference_percent']:+.1f} % (phi {d['equivalence_ratio']:g}: "
+              f"differs by up to {d['flame_speed_difference_percent']:+.1f}"
+              + ("" if num is None else f" ± {num:.2g}") + f" % (phi {d['equivalence_ratio']:g}: "
               f"{100 * d['laminar_flame_speed_m_s']:.3g} vs {100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)"
               + ("" if dth is None else f", thickness {dth:+.1f} %")
               + ("" if band is None else f"; {'inside' if abs(d['flame_speed_difference_percent']) <= band else 'OUTSIDE'}"

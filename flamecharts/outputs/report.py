@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import html
 import time
+from statistics import median
 from pathlib import Path
 
 from .._version import __version__
@@ -108,7 +109,7 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
             worst = max(est, key=lambda r: r["flame_speed_numerical_error_percent"])
             out.append(["Largest numerical (grid) error band of S_L", f"±{worst['flame_speed_numerical_error_percent']:.2g} %",
                         f"{gas_label(worst)}, φ {worst['equivalence_ratio']:g}, {worst['pressure_bar']:g} bar; "
-                        f"median of all flames ±{sorted(r['flame_speed_numerical_error_percent'] for r in est)[len(est) // 2]:.2g} %"])
+                        f"median of all flames ±{median(r['flame_speed_numerical_error_percent'] for r in est):.2g} %"])
     fb = [r for r in ok if r.get("flashback_margin") is not None]
     if fb:
         w = min(fb, key=lambda r: r["flashback_margin"])
@@ -131,7 +132,7 @@ def _num(v, fmt: str) -> str:
     return "" if v is None else format(v, fmt)
 
 
-def _points_appendix(study, rows: list[dict]) -> str:
+def _points_appendix(study, rows: list[dict], comparison=None) -> str:
     """Appendix at the end of the report: one line per point (the first MAX_POINT_ROWS), printed on pages of its own."""
     burner = study.burner is not None
     head = ["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "δ_T [mm]", "T_ad [K]", "g_F [1/s]",
@@ -150,7 +151,9 @@ def _points_appendix(study, rows: list[dict]) -> str:
     more = (f" The first {MAX_POINT_ROWS} of {len(rows)} points are listed; all are in results.csv."
             if len(rows) > MAX_POINT_ROWS else " Every column of every point is in results.csv.")
     numeric = set(range(1, 4)) | set(range(5, 10)) | ({10, 11, 12} if burner else set())
-    return ("<section class='appendix'><h2 id='points'>Appendix: every point</h2>"
+    return ("<section class='appendix'><h2 id='points'>Appendix: every point"
+            + (f" under {_e(study.mechanism)}, the reference (every mechanism's in results.csv)"
+               if comparison is not None else "") + "</h2>"
             f"<p class='muted'>{len(rows)} points.{_e(more)}</p>"
             f"{_table(head, lines, numeric, 'points')}"
             "</section>")
@@ -242,10 +245,12 @@ def _mechanisms_section(study, comparison) -> list[str]:
     diffs = mechanism_differences(comparison.rows, names)
     table = []
     for d in largest_differences(diffs):
-        band = d["flame_speed_kinetic_uncertainty_percent"]
+        band = d["reference_kinetic_uncertainty_percent"]
         dth = d["thermal_thickness_difference_percent"]
+        num = d["flame_speed_difference_numerical_error_percent"]
         table.append([d["mechanism"], f"{gas_label(d)} in {d['oxidizer']}", f"{d['pressure_bar']:g}",
-                      f"{d['unburned_temperature_K']:g}", f"{d['flame_speed_difference_percent']:+.1f} (φ "
+                      f"{d['unburned_temperature_K']:g}", f"{d['flame_speed_difference_percent']:+.1f}"
+                      + ("" if num is None else f" ± {num:.2g}") + " (φ "
                       f"{d['equivalence_ratio']:g}: {100 * d['laminar_flame_speed_m_s']:.3g} vs "
                       f"{100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)",
                       "" if dth is None else f"{dth:+.1f}",
@@ -255,11 +260,14 @@ def _mechanisms_section(study, comparison) -> list[str]:
     table, more = _first(table, "mechanism_comparison.csv")
     parts = ["<h2 id='mechanisms'>Mechanisms compared</h2>",
              "<p>The whole sweep was solved under each mechanism, the same flames with the same numerics; "
-             f"differences are in % of the reference, {_e(names[0])}. Where the difference is larger than the "
-             "reference's kinetic band, the mechanisms disagree by more than their rate constants' stated "
-             "uncertainty: trust neither without measurements for that mixture. Every point is in "
-             "mechanism_comparison.csv and, with its mechanism, in results.csv.</p>",
-             _table(["mechanism", "gas", "p [bar]", "T_u [K]", "largest S_L difference [%]",
+             f"differences are in % of the reference, {_e(names[0])}, with the numerical error of the difference "
+             "(both flames' grid bands combined): a smaller difference is not resolved. "
+             + ("Where the difference is larger than the reference's kinetic band, the mechanisms disagree by more "
+                "than their rate constants' stated uncertainty: trust neither without measurements for that mixture. "
+                if any(d["reference_kinetic_uncertainty_percent"] is not None for d in diffs) else
+                "Add an [uncertainty] table to compare each difference with the reference's kinetic band. ")
+             + "Every point is in mechanism_comparison.csv and, with its mechanism, in results.csv.</p>",
+             _table(["mechanism", "gas", "p [bar]", "T_u [K]", "largest S_L difference ± numerics [%]",
                      "thickness difference there [%]", "reference's kinetic band, 1σ [%]", "points compared"],
                     table, {2, 3, 5, 7}) + more,
              "<div class='keep'><h3>What each mechanism was built for</h3>"
@@ -282,7 +290,7 @@ def _mechanisms_section(study, comparison) -> list[str]:
     return parts
 
 
-def _uncertainty_section(study, rows: list[dict]) -> list[str]:
+def _uncertainty_section(study, rows: list[dict], comparison=None) -> list[str]:
     """How sure the flame speeds are: per gas and condition the point nearest φ 1 with its
     numerical band and, with [uncertainty], its kinetic band and most sensitive reaction."""
     ok = [r for r in rows if r["status"] == "ok" and r.get("flame_speed_numerical_error_percent") is not None]
@@ -301,7 +309,8 @@ def _uncertainty_section(study, rows: list[dict]) -> list[str]:
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
     defaulted = max((r.get("reactions_default_factor") or 0 for r in ok), default=0)
-    return ["<h2 id='error-bars'>How sure: error bars of the flame speed</h2>",
+    return ["<h2 id='error-bars'>How sure: error bars of the flame speed"
+            + (f" ({_e(study.mechanism)}, the reference)" if comparison is not None else "") + "</h2>",
             "<p><b>Numerics.</b> Every flame is solved again on every second and every fourth point of its final "
             "grid; the three flame speeds give Roache's grid convergence index (factor of safety 1.25 with the "
             "observed order bounded to 0.5-2, else 3; never below 0.1 %). Measured on 12 grid-converged reference "
@@ -471,7 +480,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                               f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
 
-    parts += _uncertainty_section(study, rows)
+    parts += _uncertainty_section(study, rows, comparison)
     parts += _mechanisms_section(study, comparison)
     parts += _response_section(study, rows)
     parts += _stretch_section(study, stretch)
@@ -504,7 +513,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "
                  "indicators rest on correlations whose constants are known to a factor of about 1.5-2; they rank "
                  "mixtures and show trends, they do not replace certification tests.</div>")
-    parts.append(_points_appendix(study, rows))
+    parts.append(_points_appendix(study, rows, comparison))
     parts.append("</body></html>")
     path = out_dir / "report.html"
     write_atomic(path, "\n".join(parts))

@@ -402,7 +402,35 @@ def _draw_blend_limits(ax, rows, study, colours, handles):
     ax.grid(alpha=0.3)
 
 
+def _draw_window_spans(ax, rows, colours, handles):
+    """A study without a blend: each condition's admissible phi window as a span from its lean to its
+    rich edge (one row per fuel, pressure and preheat), the binding criterion at each end."""
+    conds = list(dict.fromkeys((r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
+                               for r in rows))
+    for y, key in enumerate(conds):
+        col = colours[y % len(colours)]
+        ends = [r for r in rows if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) == key
+                and r["limit_value"] is not None]
+        if len(ends) == 2:
+            ax.plot(sorted(r["limit_value"] for r in ends), [y, y], color=col, lw=6, alpha=0.45, solid_capstyle="butt")
+        for r in ends:
+            found = r["outcome"] == "found"
+            mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"])) if found else (">", "")
+            ax.plot(r["limit_value"], y, mk, color=col, ms=8, mec="k", mfc=col if found else "white")
+            if found:
+                handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
+    ax.set_yticks(range(len(conds)), [f"{f}, {P:g} bar, {T:g} K" for f, _, P, T in conds], fontsize=8)
+    ax.set_ylim(len(conds) - 0.5, -0.5)
+    handles.setdefault("bar: the admissible φ window", Line2D([], [], color="0.5", lw=6, alpha=0.45))
+    handles.setdefault("hollow: edge beyond the swept φ range", Line2D([], [], ls="", marker=">", mfc="white", color="0.4"))
+    ax.set_xlabel("equivalence ratio φ")
+    ax.grid(alpha=0.3, axis="x")
+
+
 def _draw_window_edges(ax, rows, study, colours, handles):
+    if not study.blend_with:  # nothing to plot the edges against: the window itself per condition
+        _draw_window_spans(ax, rows, colours, handles)
+        return
     curves: dict[tuple, dict[str, list]] = {}
     for r in rows:
         key = (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])

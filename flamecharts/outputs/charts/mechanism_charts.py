@@ -45,10 +45,11 @@ def _style(names: list[str]) -> dict[str, tuple[str, str]]:
 
 @chart("mechanism_comparison",
        "The same flames under each mechanism the study compares (line style per mechanism, colour per gas): "
-       "flame speed and thermal thickness against equivalence ratio, and their difference from the reference "
-       "(first) mechanism's in % (solid: flame speed, dotted: thickness); shaded: the reference's kinetic band "
-       "(1σ) where the study asks for one. A difference outside the band says the mechanisms disagree by "
-       "more than their rate constants' stated uncertainty.",
+       "flame speed and thermal thickness against equivalence ratio; right, their difference from the reference "
+       "(first) mechanism's in % (solid: flame speed with the numerical error of the difference as bars, dotted: "
+       "thickness); shaded: the reference's kinetic band of the flame speed (1σ) where the study asks for one. "
+       "A flame-speed difference outside the band says the mechanisms disagree by more than their rate "
+       "constants' stated uncertainty.",
        compares_flames)
 def mechanism_comparison_chart(data, study):
     names = _names(data)
@@ -93,9 +94,10 @@ def mechanism_comparison_chart(data, study):
     for i, m in enumerate(names):
         ls, mk = style[m]
         handles[_short(m) + (" (reference)" if i == 0 else "")] = Line2D([], [], ls=ls, marker=mk, color="0.2")
-    handles["flame speed (solid), thickness (dotted)\nin the difference panel"] = Line2D([], [], color="0.5")
-    if any(d["flame_speed_kinetic_uncertainty_percent"] is not None for d in diffs):
-        handles["reference's kinetic band (1σ)"] = Patch(color="0.5", alpha=0.2)
+    handles["difference panel: S_L (solid, bars: both\nflames' grid error), thickness (dotted)"] = Line2D(
+        [], [], color="0.5", marker="|", markersize=8)
+    if any(d["reference_kinetic_uncertainty_percent"] is not None for d in diffs):
+        handles["reference's kinetic band of S_L (1σ)"] = Patch(color="0.5", alpha=0.2)
     note = thinned_note({}, {}, (f"{len(conds)} of {len(every)} conditions (p, T_u)" if len(conds) < len(every)
                                  else "", f"{len(gases)} of {len(curves(ok))} gases"
                                  if len(gases) < len(curves(ok)) else ""))
@@ -116,22 +118,25 @@ def _difference_panel(ax, diffs, gas, cond, names, style, col) -> None:
             continue
         phi = [d["equivalence_ratio"] for d in sel]
         ls, mk = style[m]
-        ax.plot(phi, [d["flame_speed_difference_percent"] for d in sel], ls="-", marker=mk, ms=4, color=col, lw=1.4)
+        ax.errorbar(phi, [d["flame_speed_difference_percent"] for d in sel], ls="-", marker=mk, ms=4, color=col,
+                    lw=1.4, capsize=3, elinewidth=1.0,
+                    yerr=[d["flame_speed_difference_numerical_error_percent"] or 0.0 for d in sel])
         th = [(d["equivalence_ratio"], d["thermal_thickness_difference_percent"]) for d in sel
               if d["thermal_thickness_difference_percent"] is not None]
         if th:
             ax.plot(*zip(*th), ls=":", marker=mk, ms=3, mfc="white", color=col, lw=1.2)
-    band = sorted({(d["equivalence_ratio"], d["flame_speed_kinetic_uncertainty_percent"]) for d in mine
-                   if d["flame_speed_kinetic_uncertainty_percent"] is not None})
+    band = sorted({(d["equivalence_ratio"], d["reference_kinetic_uncertainty_percent"]) for d in mine
+                   if d["reference_kinetic_uncertainty_percent"] is not None})
     if band:
         phi, b = zip(*band)
         ax.fill_between(phi, [-v for v in b], b, color=col, alpha=0.15, lw=0)
 
 
 @chart("limits_by_mechanism",
-       "Each limit search of the study answered under each mechanism (marker per mechanism, joined per search): "
-       "left, the largest admissible blend fraction; right, the edges of the admissible equivalence-ratio "
-       "window. Far-apart markers: the limit depends on the chemistry; read it with the wider margin.",
+       "Each limit search of the study answered under each mechanism (marker per mechanism, joined per search; "
+       "thin bar: the search's final bracket, its tolerance): the largest admissible blend fraction and/or the "
+       "edges of the admissible equivalence-ratio window. Markers further apart than their brackets: the limit "
+       "depends on the chemistry; keep the more cautious one.",
        compares_limits)
 def limits_by_mechanism_chart(data, study):
     names = _names(data)
@@ -149,15 +154,22 @@ def limits_by_mechanism_chart(data, study):
         for r in rows:
             key = (r["limit"], gas_label(r), r["equivalence_ratio"] if kind == "blend" else r["blend_fraction"],
                    r["pressure_bar"], r["unburned_temperature_K"])
-            searches.setdefault(key, {})[r["mechanism"]] = r["limit_value"] * (100 if kind == "blend" else 1)
+            scale = 100 if kind == "blend" else 1
+            searches.setdefault(key, {})[r["mechanism"]] = (
+                r["limit_value"] * scale, [v * scale for v in (r["bracket_admissible"], r["bracket_failing"])
+                                           if v is not None])
         keys = list(searches)[:MAX_SEARCHES]
         for y, key in enumerate(keys):
             vals = searches[key]
-            xs = [vals[m] for m in names if m in vals]
+            xs = [vals[m][0] for m in names if m in vals]
             ax.plot([min(xs), max(xs)], [y, y], color="0.6", lw=1.2, zorder=1)
             for i, m in enumerate(names):
                 if m in vals:
-                    ax.plot(vals[m], y, style[m][1], color=colours[i], ms=7, mec="k", zorder=2)
+                    offset = 0.12 * (i - (len(names) - 1) / 2)  # brackets side by side, not on top of each other
+                    if len(vals[m][1]) == 2:
+                        ax.plot(vals[m][1], [y + offset] * 2, color=colours[i], lw=3, alpha=0.6, zorder=1.5,
+                                solid_capstyle="butt")
+                    ax.plot(vals[m][0], y, style[m][1], color=colours[i], ms=7, mec="k", zorder=2)
         ax.set_yticks(range(len(keys)), [_search_label(k, kind) for k in keys], fontsize=7.5)
         ax.set_ylim(len(keys) - 0.5, -0.5)  # first search on top
         ax.set_xlabel(f"largest admissible {study.blend_with} fraction [%]" if kind == "blend"
@@ -167,6 +179,7 @@ def limits_by_mechanism_chart(data, study):
             ax.set_title(f"first {len(keys)} of {len(searches)} searches (every one in limits.csv)", fontsize=8.5)
     handles = {_short(m) + (" (reference)" if i == 0 else ""): Line2D([], [], ls="", marker=style[m][1], color=colours[i],
                                                             mec="k") for i, m in enumerate(names)}
+    handles["thin bar: the search's final bracket"] = Line2D([], [], color="0.5", lw=3, alpha=0.6)
     return finish(fig, replace(study, mechanism=" vs ".join(names)), ("Admissible limits under each mechanism",
                                f"{study.burner.name}: the same searches, the same burner, different chemistry"),
                   handles, "mechanism")

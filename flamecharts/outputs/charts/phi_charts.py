@@ -17,7 +17,7 @@ from matplotlib.lines import Line2D
 
 from ...columns import gas_label
 from .registry import any_flame, chart
-from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys
+from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys, title_text
 
 
 def _error_bands(ax, good: list[dict], column: str, scale: float, colour, band: str | None,
@@ -58,8 +58,8 @@ def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float
         handles["shaded: kinetic uncertainty, 1 sigma\n(first order, rate-constant factors)"] = plt.Rectangle(
             (0, 0), 1, 1, color="0.35", alpha=0.25, lw=0)
     if "bars" in shown:
-        handles["bars: numerical (grid) error band" + (f"\n(largest ±{largest_bar:.2g} %: smaller than a marker "
-                                                        "below about 1 %)" if largest_bar is not None else "")] = Line2D([], [], color="0.35", marker="|", markersize=9,
+        handles["bars: numerical (grid) error band" + (f"\n(largest ±{largest_bar:.2g} %)" if largest_bar is not None
+                                                       else "")] = Line2D([], [], color="0.35", marker="|", markersize=9,
                                                               linestyle="none")
     if companion is not None:
         handles[companion[1]] = Line2D([], [], color="0.35", linestyle=":", marker="o", markerfacecolor="none",
@@ -127,7 +127,7 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
         ax.set_visible(False)
     bars = [r[error_bars] for r in rows if error_bars and r["status"] == "ok" and r.get(error_bars) is not None]
     _legend_extras(handles, shown, companion, max(bars) if bars else None)
-    fig.suptitle(f"{title[0]}\n{title[1]}{data.note()}", fontsize=11.5, x=0.02, ha="left")
+    fig.suptitle(title_text(fig, (title[0], title[1])) + data.note(), fontsize=11.5, x=0.02, ha="left")
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
     footer(fig, study)

@@ -1,6 +1,8 @@
 """What every chart shares: colours, markers, figure frame, footer with the cautions, selections of rows."""
 from __future__ import annotations
 
+import textwrap
+
 import matplotlib
 
 matplotlib.use("Agg")
@@ -46,8 +48,20 @@ def figure(ncols: int, nrows: int = 1, width: float = 5.0, height: float = 4.0):
                         layout="constrained")
 
 
+#: Width [in] the figure legend takes on the right, and characters of an 11.5 pt title per inch.
+LEGEND_WIDTH_IN, TITLE_CHARS_PER_IN = 4.2, 10.5
+
+
+def title_text(fig, title: tuple[str, str]) -> str:
+    """A chart's two-line title, each line wrapped to the width left of the legend (a long
+    subtitle over a one-panel figure would otherwise run under the legend)."""
+    width = max(40, int((fig.get_figwidth() - LEGEND_WIDTH_IN) * TITLE_CHARS_PER_IN))
+    return "\n".join(textwrap.fill(line, width) if len(line) > width else line
+                     for part in title for line in part.split("\n"))
+
+
 def finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str):
-    fig.suptitle(f"{title[0]}\n{title[1]}", fontsize=11.5, x=0.02, ha="left")
+    fig.suptitle(title_text(fig, title), fontsize=11.5, x=0.02, ha="left")
     if handles:
         fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                    frameon=False, title=legend_title, title_fontsize=8.5)
