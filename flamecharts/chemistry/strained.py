@@ -78,7 +78,9 @@ def consumption_speed(z, heat_release_W_m3, rho_u: float, q_J_kg: float) -> floa
 
 
 def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
-                      time_limit_s: float | None = None) -> dict:
+                      time_limit_s: float | None = None, refine: dict | None = None,
+                      first_velocity_factor: float = FIRST_VELOCITY_FACTOR, ladder_factor: float = LADDER_FACTOR,
+                      resolution: float = EXTINCTION_RESOLUTION) -> dict:
     """Consumption speed against strain rate of the twin premixed flame, to extinction.
 
     Parameters
@@ -88,6 +90,10 @@ def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
     S_L, T_ad : the unstretched flame's speed [m/s] and adiabatic temperature [K] (first
         velocity and the burning test)
     time_limit_s : stop refining after this long [s] (the bracket found so far is kept)
+    refine, first_velocity_factor, ladder_factor, resolution : the ladder's grid criteria
+        (default REFINE), first nozzle velocity over S_L, step factor and extinction bracket
+        ratio; the defaults are what a [stretch] request runs. A screening search (coarser grid,
+        a start nearer extinction, a 20 % bracket) costs a third: tests/test_stretch.py.
 
     Returns
     -------
@@ -105,9 +111,9 @@ def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
     lo, hi = HALF_SEPARATION_BOUNDS_M
     width = min(max(HALF_SEPARATION_THICKNESSES * alpha_u / S_L, lo), hi)
     flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
-    flame.set_refine_criteria(**REFINE)
-    U = FIRST_VELOCITY_FACTOR * S_L
-    factor = LADDER_FACTOR
+    flame.set_refine_criteria(**(REFINE if refine is None else refine))
+    U = first_velocity_factor * S_L
+    factor = ladder_factor
     out = {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
            "extinction_strain_rate_1_s": None, "extinguished_above_1_s": None, "solves": 0, "message": "",
            "half_separation_m": width, "unburned_thermal_diffusivity_m2_s": alpha_u}
@@ -134,7 +140,7 @@ def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
             out["message"] = "no burning twin flame at the first strain rate"
             break
         out["extinguished_above_1_s"] = out["strain_rates_1_s"][-1] * factor
-        if factor < EXTINCTION_RESOLUTION:
+        if factor < resolution:
             out["extinction_strain_rate_1_s"] = out["strain_rates_1_s"][-1]
             break
         U /= factor
