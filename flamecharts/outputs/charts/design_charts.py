@@ -20,7 +20,7 @@ from ...columns import gas_label
 from ...physics.fits import fit_power_law
 from .registry import (MAX_PANELS, burning_blends, chart, conditions_note, has_margins, has_window, several_blends,
                        spread, thinned_note, varies_p_or_T)
-from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, ok_rows, phi_near_one, plain_log_ticks
+from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, ok_rows, phi_near_one, plain_log_ticks, sparse_log_yticks
 
 
 @chart("pressure_and_preheat_dependence",
@@ -162,6 +162,10 @@ def blend_chart(data, study):
                    handles, "Equivalence ratio / flame temperature")
 
 
+#: Flashback margins spanning more than this factor are drawn on a log axis.
+LOG_MARGIN_SPAN = 20.0
+
+
 @chart("flashback_chart",
        "Flashback margin g_wall/g_F of each blend against equivalence ratio, one panel per pressure and preheat: "
        "a curve in the red zone under the minimum-margin line is a flashback risk. Right: quenching size "
@@ -184,9 +188,12 @@ def flashback_chart(data, study):
     fig, axes = figure(2, nrows=len(panels))
     handles = {}
     top = max(r["flashback_margin"] for r in ok)
+    low = min(min(r["flashback_margin"] for r in ok), b.min_flashback_margin)
+    log = top / low > LOG_MARGIN_SPAN  # lean hydrogen: margins from below 1 to over 100 on one chart
+    floor = low / 1.5 if log else 0.0
     for pi, (P, T) in enumerate(panels):
         ax, axq = axes[pi, 0], axes[pi, 1]
-        ax.axhspan(0, b.min_flashback_margin, color="#f4cccc", lw=0, zorder=0)
+        ax.axhspan(floor, b.min_flashback_margin, color="#f4cccc", lw=0, zorder=0)
         ax.axhline(b.min_flashback_margin, color="#b2182b", lw=1.4, zorder=1)
         for ci, key in enumerate(keys):
             rs = [r for r in data.series.get(key + (P, T), []) if r["status"] == "ok" and r["flashback_margin"] is not None]
@@ -201,9 +208,14 @@ def flashback_chart(data, study):
             handles[label] = h
             q = "tube_quenching_diameter_mm" if b.port == "round" else "quenching_distance_mm"
             axq.plot(phi, [r[q] for r in rs], color=colours[ci], marker=MARKERS[ci % len(MARKERS)], lw=1.4)
-        ax.set_ylim(0, 1.08 * max(top, 1.2 * b.min_flashback_margin))
+        if log:
+            ax.set_yscale("log")
+            ax.set_ylim(floor, 1.5 * top)
+            sparse_log_yticks(ax)
+        else:
+            ax.set_ylim(0, 1.08 * max(top, 1.2 * b.min_flashback_margin))
         ax.set_xlabel("Equivalence ratio φ [-]")
-        ax.set_ylabel("Flashback margin g_wall / g_F [-]")
+        ax.set_ylabel("Flashback margin g_wall / g_F [-]" + (" (log scale)" if log else ""))
         ax.set_title(f"Flashback margin, p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.grid(True, color="0.9", lw=0.6)
         axq.axhline(b.port_size_m * 1e3, color="0.2", lw=1.4, linestyle="-.")

@@ -82,6 +82,17 @@ def plain_log_ticks(ax):
         axis.set_minor_formatter(fmt)
 
 
+def sparse_log_yticks(ax):
+    """A log y axis labelled at 1, 2, 5, 10, 20, 50... (every minor tick labelled crowds a tall range)."""
+    def label(v, _):
+        if v <= 0:
+            return ""
+        lead = round(v / 10 ** np.floor(np.log10(v)), 6)
+        return f"{v:g}" if lead in (1.0, 2.0, 5.0) else ""
+    ax.yaxis.set_major_formatter(FuncFormatter(label))
+    ax.yaxis.set_minor_formatter(FuncFormatter(label))
+
+
 def phi_near_one(rows):
     phis = sorted({r["equivalence_ratio"] for r in rows})
     return min(phis, key=lambda p: (abs(p - 1.0), p))
