@@ -596,7 +596,8 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
                           "factors = { \"H + O2 <=> O + OH\" = 1.3 }")
     equations = [e for path in mech_paths for e in reaction_equations(str(path))]
     by_key = {reaction_key(e): e for e in equations}
-    names = " nor ".join(Path(path).name for path in mech_paths)
+    names = (f"{Path(mech_paths[0]).name} does not have" if len(mech_paths) == 1 else
+             "neither " + " nor ".join(Path(path).name for path in mech_paths) + " has")
     factors, named = [], {}
     for eq, f in given.items():
         try:
@@ -605,7 +606,7 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
             key = None
         if key not in by_key:
             close = difflib.get_close_matches(eq, list(dict.fromkeys(equations)), n=3, cutoff=0.6)
-            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {names} does not have"
+            raise ConfigError(f"'uncertainty.factors' names reaction {eq!r}, which {names}"
                               + (f" (did you mean {' or '.join(repr(c) for c in close)}?)" if close else "")
                               + "; write the equation as the mechanism does, species and '<=>' separated by "
                               "spaces, e.g. \"H + O2 <=> O + OH\"")

@@ -20,7 +20,7 @@ from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_ex
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.points import points
-from .sweep.run import Progress, solve_points
+from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
 from .sweep.kinetics import solve_sensitivities
 from .sweep.zeldovich import solve_zeldovich
@@ -104,8 +104,13 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
             parts = []
             for i, sub in enumerate(subs):
                 stage = f"{sub.mechanism} ({i + 1} of {len(subs)})" if len(subs) > 1 else ""
-                parts.append(_solve_one(sub, store, backend, _staged(progress, stage), stop_after,
-                                        t0 if i == 0 else None, limits_progress, extras_progress))
+                try:
+                    parts.append(_solve_one(sub, store, backend, _staged(progress, stage), stop_after,
+                                            t0 if i == 0 else None, limits_progress, extras_progress))
+                except RunInterrupted as exc:  # counted over the whole study, not the mechanism it stopped in
+                    exc.solved += sum(p["solved"] for p in parts)
+                    exc.remaining += sum(s.n_points for s in subs[i + 1:])
+                    raise
                 if stop_after is not None:
                     stop_after = max(0, stop_after - parts[-1]["solved"])
         workers = max(1, backend.workers())

@@ -117,16 +117,19 @@ def sensitivity_rows(rows: list[dict]) -> list[dict]:
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     """The study of a finished run folder and its rows (every mechanism's), read from the store alone."""
     study = load_config_copy(out_dir)
-    rows, matched = [], 0
+    rows, unmatched = [], []
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
         n_stored = len(store.keys())
         for sub in by_mechanism(study):
             pts = points(sub)
             stored = stored_with_extras(sub, pts, store)
-            matched += len(stored)
+            if not stored:
+                unmatched.append(sub.mechanism)
             rows += point_rows(sub, pts, stored)
-    if n_stored and not matched:
-        raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches the study any more: the "
+    if n_stored and unmatched:
+        which = ("the study any more" if len(unmatched) == len(by_mechanism(study))
+                 else f"mechanism {', '.join(unmatched)} of the study (the run may also have stopped before it)")
+        raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches {which}: the "
                          "mechanism file or the Cantera version changed since the run; rerun the study "
                          "(flamecharts run CONFIG --out DIR) to solve it with what is installed now")
     return study, rows
@@ -348,6 +351,7 @@ def first_flashback_fraction(ds: xr.Dataset, study: Study) -> dict[tuple, float 
     per (fuel, oxidizer, p, T); None where it never does in the study."""
     if study.burner is None or not study.blend_with:
         return {}
+    ds = mechanism_dataset(ds)  # a study comparing mechanisms: the reference's
     out: dict[tuple, float | None] = {}
     for s in sorted(margin_summary(ds, study.burner), key=lambda s: s["blend_fraction"]):
         key = (s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"])

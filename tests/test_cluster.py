@@ -174,3 +174,24 @@ def test_limit_searches_run_on_the_cluster_with_the_same_answers(tmp_path, dask_
         assert (a["limit_value"] is None) == (b["limit_value"] is None)
         if a["limit_value"] is not None:
             assert b["limit_value"] == pytest.approx(a["limit_value"], abs=1e-9)
+
+
+def test_each_mechanism_of_a_comparison_is_sent_to_the_cluster(tmp_path, dask_cluster):
+    """A study comparing mechanisms solves each under its own file on the cluster as locally:
+    a copy of h2o2.yaml with H + O2 <=> O + OH 400 times slower burns far slower, on both."""
+    import cantera as ct
+    source = next(p for p in (Path(d) / "h2o2.yaml" for d in ct.get_data_directories()) if p.is_file())
+    (tmp_path / "h2o2_slow_branching.yaml").write_text(
+        source.read_text().replace("{A: 2.65e+16, b: -0.6707", "{A: 6.6e+13, b: -0.6707"))
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
+    config.write_text(config.read_text().replace('mechanism = "h2o2.yaml"',
+                                                 'mechanism = ["h2o2.yaml", "h2o2_slow_branching.yaml"]'))
+    study = load_study(config)
+    local = solve_study(study, out_dir=tmp_path / "local", jobs=1)
+    remote = solve_study(study, out_dir=tmp_path / "dask", cluster=dask_cluster.scheduler_address)
+    speeds = {(r["mechanism"], "local"): r["laminar_flame_speed_m_s"] for r in local.rows}
+    speeds.update({(r["mechanism"], "dask"): r["laminar_flame_speed_m_s"] for r in remote.rows})
+    slow, ref = "h2o2_slow_branching.yaml", "h2o2.yaml"
+    assert speeds[(slow, "local")] < 0.5 * speeds[(ref, "local")]
+    for m in (ref, slow):
+        assert speeds[(m, "dask")] == pytest.approx(speeds[(m, "local")], rel=1e-6)

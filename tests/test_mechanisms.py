@@ -16,7 +16,7 @@ import xarray as xr
 import flamecharts
 from flamecharts.config import by_mechanism, load_study, mechanism_names, study_from_dict
 from flamecharts.design import largest_differences, mechanism_differences
-from flamecharts.errors import MechanismError
+from flamecharts.errors import MechanismError, StoreError
 from flamecharts.sweep.points import points
 
 from conftest import run_cli
@@ -221,3 +221,8 @@ def test_a_faster_branching_rate_moves_the_flame_speed_as_its_sensitivity_says(t
     for name in ("admissible_limits", "limits_by_mechanism", "mechanism_comparison"):
         assert (out / "charts" / f"{name}.png").stat().st_size > 15_000, name
     assert "None fraction" not in (out / "charts" / "admissible_limits.svg").read_text()
+    # the second mechanism's file changed since the run: a redraw says so instead of drawing it pending
+    fast = tmp_path / "h2o2_fast_branching.yaml"
+    fast.write_text(fast.read_text() + "\n# edited\n")
+    with pytest.raises(StoreError, match="mechanism h2o2_fast_branching.yaml of the study"):
+        flamecharts.open_results(out)

@@ -67,7 +67,7 @@ def cmd_run(args) -> int:
     subs = by_mechanism(study)
     for i, sub in enumerate(subs):  # a study comparing mechanisms: each one's read-out in turn
         rows = rows_of(sub, summary.rows)
-        if len(subs) > 1:
+        if len(subs) > 1 and (not args.quiet or study.burner or study.premixer or study.uncertainty):
             print(f"Under {sub.mechanism}{' (reference)' if i == 0 else ''}:")
         if not args.quiet:
             print_points(sub, rows)
@@ -164,7 +164,7 @@ def _print_mechanisms(study, rows) -> None:
     for d in lines[:20]:
         band, dth = d["reference_kinetic_uncertainty_percent"], d["thermal_thickness_difference_percent"]
         num = d["flame_speed_difference_numerical_error_percent"]
-        print(f"  {d['mechanism']}: {gas_label(d)}, {d['pressure_bar']:g} bar, {d['unburned_temperature_K']:g} K: S_L "
+        print(f"  {d['mechanism']}: {gas_label(d)} in {d['oxidizer']}, {d['pressure_bar']:g} bar, {d['unburned_temperature_K']:g} K: S_L "
               f"differs by up to {d['flame_speed_difference_percent']:+.1f}"
               + ("" if num is None else f" ± {num:.2g}") + f" % (phi {d['equivalence_ratio']:g}: "
               f"{100 * d['laminar_flame_speed_m_s']:.3g} vs {100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)"

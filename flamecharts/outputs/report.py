@@ -275,7 +275,8 @@ def _mechanisms_section(study, comparison) -> list[str]:
                       [[s.mechanism, mechanism_scope(s.mechanism_path)] for s in comparison.studies]) + "</div>"]
     searches: dict[tuple, dict[str, str]] = {}
     for r in comparison.limits:
-        key = (r["limit"], gas_label(r), r["equivalence_ratio"], r["pressure_bar"], r["unburned_temperature_K"])
+        key = (r["limit"], f"{gas_label(r)} in {r['oxidizer']}", r["equivalence_ratio"], r["pressure_bar"],
+               r["unburned_temperature_K"])
         v = r["limit_value"]
         searches.setdefault(key, {})[r["mechanism"]] = ("" if v is None else
                                                        f"{100 * v:.3g} %" if r["limit"] == "max_blend_fraction"

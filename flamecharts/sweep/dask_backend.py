@@ -138,6 +138,7 @@ class ClusterSession:
         self.client = None
         self.parent = None  # this process's pid once it has started the cluster itself (local:N)
         self._executor = None
+        self._executor_key = None
 
     # -- connection
     def open(self) -> "ClusterSession":
@@ -188,9 +189,11 @@ class ClusterSession:
         return sum(w.get("nthreads", 1) for w in workers.values())
 
     def executor(self, study) -> _Executor:
-        """The executor of this run (one per session)."""
-        if self._executor is None:
-            self._executor = _Executor(self, study)
+        """The executor of ``study``'s mechanism: made once per mechanism, since it carries the
+        mechanism file to the workers (a study comparing mechanisms asks for each in turn)."""
+        key = (study.mechanism_sha256, study.transport)
+        if self._executor is None or self._executor_key != key:
+            self._executor, self._executor_key = _Executor(self, study), key
         return self._executor
 
     def renew(self, study) -> _Executor:

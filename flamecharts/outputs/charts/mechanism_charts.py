@@ -142,17 +142,19 @@ def limits_by_mechanism_chart(data, study):
     names = _names(data)
     style = _style(names)
     found = [r for r in data.comparison.limits if r["limit_value"] is not None]
+    several_ox = len({r["oxidizer"] for r in found}) > 1
     parts = [(kind, [r for r in found if (r["limit"] == "max_blend_fraction") == (kind == "blend")])
              for kind in ("blend", "window")]
     parts = [p for p in parts if p[1]]
-    n_rows = max(len({(r["limit"], gas_label(r), r["equivalence_ratio"], r["blend_fraction"], r["pressure_bar"],
-                        r["unburned_temperature_K"]) for r in rows}) for _, rows in parts)
+    n_rows = max(len({(r["limit"], gas_label(r), r["oxidizer"], r["equivalence_ratio"], r["blend_fraction"],
+                        r["pressure_bar"], r["unburned_temperature_K"]) for r in rows}) for _, rows in parts)
     fig, axes = figure(len(parts), width=5.5, height=max(1.6, 0.35 * min(n_rows, MAX_SEARCHES) + 0.8))
     colours = colour_scale(len(names))
     for ax, (kind, rows) in zip(axes[0], parts):
         searches: dict[tuple, dict[str, float]] = {}
         for r in rows:
-            key = (r["limit"], gas_label(r), r["equivalence_ratio"] if kind == "blend" else r["blend_fraction"],
+            key = (r["limit"], gas_label(r) + (f" / {r['oxidizer']}" if several_ox else ""),
+                   r["equivalence_ratio"] if kind == "blend" else r["blend_fraction"],
                    r["pressure_bar"], r["unburned_temperature_K"])
             scale = 100 if kind == "blend" else 1
             searches.setdefault(key, {})[r["mechanism"]] = (
