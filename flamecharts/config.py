@@ -303,11 +303,6 @@ def by_mechanism(study: Study) -> list[Study]:
                     analysis_atoms=m.analysis_atoms, mechanisms=()) for m in study.mechanisms]
 
 
-def mechanism_names(study: Study) -> list[str]:
-    """The mechanisms of a study as written in its config, the reference first."""
-    return [m.name for m in study.mechanisms] or [study.mechanism]
-
-
 def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
     close = difflib.get_close_matches(key, list(allowed), n=1, cutoff=0.6)
     hint = f" (did you mean '{close[0]}'?)" if close else ""

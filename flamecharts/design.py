@@ -374,6 +374,13 @@ def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
     return out
 
 
+def inside_kinetic_band(difference: dict) -> bool | None:
+    """Whether a :func:`mechanism_differences` row's flame-speed difference lies inside the
+    reference's kinetic band (None when the study asks for no band)."""
+    band = difference["reference_kinetic_uncertainty_percent"]
+    return None if band is None else abs(difference["flame_speed_difference_percent"]) <= band
+
+
 def largest_differences(differences: list[dict]) -> list[dict]:
     """Per other mechanism, gas and condition (pressure, preheat): the point of
     :func:`mechanism_differences` with the largest flame-speed difference, and how many

@@ -231,9 +231,10 @@ def read_stretch(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> 
     solved; a ladder not solved yet is 'pending'). [] when the study asks for none."""
     if study.stretch is None:
         return []
+    by_key = {r["point_key"]: r for r in rows}
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
         return [r for sub in by_mechanism(study)
-                for r in with_mechanism(sub, stretch_rows(sub, points(sub), {r["point_key"]: r for r in rows}, store))]
+                for r in with_mechanism(sub, stretch_rows(sub, points(sub), by_key, store))]
 
 
 def open_results(out_dir: str | os.PathLike) -> Results:

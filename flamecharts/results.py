@@ -26,11 +26,11 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .columns import AXES, CAUTION, COLUMNS, FROM_METRICS, UNITS
+from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
 from .config import Study, by_mechanism, load_config_copy, lumping_note, resolution_label
-from .design import annotate, point_warnings, premixer_columns
+from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.fits import fit_power_law
@@ -117,17 +117,18 @@ def sensitivity_rows(rows: list[dict]) -> list[dict]:
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     """The study of a finished run folder and its rows (every mechanism's), read from the store alone."""
     study = load_config_copy(out_dir)
+    subs = by_mechanism(study)
     rows, unmatched = [], []
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
         n_stored = len(store.keys())
-        for sub in by_mechanism(study):
+        for sub in subs:
             pts = points(sub)
             stored = stored_with_extras(sub, pts, store)
             if not stored:
                 unmatched.append(sub.mechanism)
             rows += point_rows(sub, pts, stored)
     if n_stored and unmatched:
-        which = ("the study any more" if len(unmatched) == len(by_mechanism(study))
+        which = ("the study any more" if len(unmatched) == len(subs)
                  else f"mechanism {', '.join(unmatched)} of the study (the run may also have stopped before it)")
         raise StoreError(f"none of the {n_stored} flames stored in {out_dir} matches {which}: the "
                          "mechanism file or the Cantera version changed since the run; rerun the study "
@@ -393,8 +394,6 @@ class Results:
     def mechanism_comparison(self):
         """A pandas DataFrame of mechanism_comparison.csv (design.mechanism_differences: each point
         under each other mechanism against the reference); empty for a one-mechanism study."""
-        from .columns import COMPARISON_COLUMNS
-        from .design import mechanism_differences
         comparison = comparison_of(self.study, self.rows)
         rows = mechanism_differences(self.rows, comparison.names) if comparison else []
         return pd.DataFrame([[r.get(c) for c in COMPARISON_COLUMNS] for r in rows], columns=list(COMPARISON_COLUMNS))

@@ -14,7 +14,7 @@ import pytest
 import xarray as xr
 
 import flamecharts
-from flamecharts.config import by_mechanism, load_study, mechanism_names, study_from_dict
+from flamecharts.config import by_mechanism, load_study, study_from_dict
 from flamecharts.design import largest_differences, mechanism_differences
 from flamecharts.errors import MechanismError, StoreError
 from flamecharts.sweep.points import points
@@ -62,7 +62,7 @@ def _data(**over) -> dict:
 def test_a_list_of_mechanisms_is_one_study_per_mechanism():
     study = study_from_dict(_data())
     subs = by_mechanism(study)
-    assert mechanism_names(study) == ["h2o2.yaml", ALZUETA] == [s.mechanism for s in subs]
+    assert [m.name for m in study.mechanisms] == ["h2o2.yaml", ALZUETA] == [s.mechanism for s in subs]
     assert study.n_points == 4 and [s.n_points for s in subs] == [2, 2]
     assert subs[0].mechanism_sha256 != subs[1].mechanism_sha256 and len(subs[1].atoms) == 42
     keys = [{p.key for p in points(s)} for s in subs]

@@ -9,7 +9,7 @@ from pathlib import Path
 from ..columns import gas_label
 from ..admissible.driver import kept, limit_sentence
 from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
-from ..design import error_bar_sentence, largest_differences, mechanism_differences
+from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..results import comparison_of, mechanism_dataset, rows_of
@@ -169,7 +169,7 @@ def _print_mechanisms(study, rows) -> None:
               + ("" if num is None else f" ± {num:.2g}") + f" % (phi {d['equivalence_ratio']:g}: "
               f"{100 * d['laminar_flame_speed_m_s']:.3g} vs {100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)"
               + ("" if dth is None else f", thickness {dth:+.1f} %")
-              + ("" if band is None else f"; {'inside' if abs(d['flame_speed_difference_percent']) <= band else 'OUTSIDE'}"
+              + ("" if band is None else f"; {'inside' if inside_kinetic_band(d) else 'OUTSIDE'}"
                                          f" the reference's kinetic band ({band:.2g} %, 1 sigma)"))
     if len(lines) > 20:
         print(f"  ... and {len(lines) - 20} more (report.html, mechanism_comparison.csv)")

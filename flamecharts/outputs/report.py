@@ -18,7 +18,8 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import error_bar_sentence, fuel_gas_table, largest_differences, mechanism_differences
+from ..design import (error_bar_sentence, fuel_gas_table, inside_kinetic_band, largest_differences,
+                      mechanism_differences)
 from ..physics.limits import mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
@@ -254,8 +255,7 @@ def _mechanisms_section(study, comparison) -> list[str]:
                       f"{d['equivalence_ratio']:g}: {100 * d['laminar_flame_speed_m_s']:.3g} vs "
                       f"{100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)",
                       "" if dth is None else f"{dth:+.1f}",
-                      "" if band is None else f"{band:.2g}"
-                      + (" (outside)" if abs(d["flame_speed_difference_percent"]) > band else " (inside)"),
+                      "" if band is None else f"{band:.2g} ({'inside' if inside_kinetic_band(d) else 'outside'})",
                       str(d["points"])])
     table, more = _first(table, "mechanism_comparison.csv")
     parts = ["<h2 id='mechanisms'>Mechanisms compared</h2>",
