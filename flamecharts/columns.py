@@ -141,22 +141,39 @@ UNITS: dict[str, tuple[str, str]] = {
     "uncertainty_factor": ("1", "rate-constant uncertainty factor f used for the band"),
     "factor_source": ("", "where f comes from: the study, the packaged table's source, or default"),
     "variance_share_percent": ("%", "share of the kinetic band's variance from this reaction"),
-    "limit": ("", "which limit: max_blend_fraction, lean_edge_equivalence_ratio, rich_edge_equivalence_ratio"),
-    "limit_value": ("1", "the limit: admissible end of the final bracket (blend fraction or equivalence ratio)"),
-    "outcome": ("", "found, whole range, beyond swept range, none admissible or stopped"),
-    "binding": ("", "criterion that fails just past the limit (flashback, blowoff, stabilizer, Wobbe band, "
-                    "none in range)"),
-    "margin_at_limit": ("1", "the binding criterion's margin at the limit"),
-    "flashback_margin_at_limit": ("1", "flashback margin at the limit"),
-    "blowoff_margin_at_limit": ("1", "blowoff margin at the limit"),
-    "stabilizer_margin_at_limit": ("1", "stabilizer margin at the limit"),
-    "wobbe_limit_blend_fraction": ("1", "largest blend fraction inside the Wobbe band"),
-    "bracket_admissible": ("1", "admissible end of the final bracket"),
-    "bracket_failing": ("1", "failing end of the final bracket"),
-    "tolerance_reached": ("1", "width of the final bracket"),
+    "axis": ("", "the axis the search moves along: blend_fraction or equivalence_ratio"),
+    "window": ("1", "number of the admissible window along the axis (1, 2, ...; 0: none found)"),
+    "outcome": ("", "window, none admissible or stopped"),
+    "lower_edge": ("1", "low end of the admissible window (blend fraction or equivalence ratio; its admissible "
+                        "side)"),
+    "lower_kind": ("", "how the low end was settled: found, Wobbe band, swept end, range end or stopped"),
+    "lower_binding": ("", "criterion failing just below the low end (flashback, blowoff, stabilizer, Wobbe band)"),
+    "lower_margin": ("1", "that criterion's margin at the low end"),
+    "lower_bracket_failing": ("1", "failing end of the low edge's final bracket"),
+    "upper_edge": ("1", "high end of the admissible window (its admissible side)"),
+    "upper_kind": ("", "how the high end was settled: found, Wobbe band, swept end, range end or stopped"),
+    "upper_binding": ("", "criterion failing just above the high end"),
+    "upper_margin": ("1", "that criterion's margin at the high end"),
+    "upper_bracket_failing": ("1", "failing end of the high edge's final bracket"),
+    "flame_lower_edge": ("1", "low end of the window the flame criteria alone allow (blend searches with the "
+                              "Wobbe band)"),
+    "flame_lower_kind": ("", "how that end was settled"),
+    "flame_lower_binding": ("", "flame criterion failing below it"),
+    "flame_upper_edge": ("1", "high end of the window the flame criteria alone allow"),
+    "flame_upper_kind": ("", "how that end was settled"),
+    "flame_upper_binding": ("", "flame criterion failing above it"),
+    "wobbe_band_from": ("1", "lowest blend fraction of the Wobbe band interval holding the window"),
+    "wobbe_band_to": ("1", "highest blend fraction of that interval"),
+    "closest_miss_at": ("1", "where no window exists: the axis value closest to admissible"),
+    "closest_miss_binding": ("", "the criterion failing most there"),
+    "closest_miss_margin": ("1", "its margin there"),
+    "closest_miss_margins": ("", "every criterion's margin there"),
+    "swept_failures": ("", "which criterion fails at each swept point that fails"),
+    "tolerance": ("1", "width of the final bracket the edges were refined to"),
     "flames_evaluated": ("1", "flames the search asked for beyond the sweep (stored ones count)"),
     "evaluated_at": ("", "where the search asked for flames, in order"),
-    "note": ("", "how the search ended"),
+    "note": ("", "how the search ended: edges not settled, failing intervals searched without a window, "
+                 "the Wobbe band"),
 }
 
 INDICATOR_COLUMNS = (
@@ -221,10 +238,13 @@ COMPARISON_COLUMNS = ("mechanism", "reference_mechanism", "fuel", "oxidizer", "b
 
 #: limits.csv, one row per limit search.
 LIMIT_COLUMNS = (
-    "limit", "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
-    "unburned_temperature_K", "limit_value", "outcome", "binding", "margin_at_limit", "flashback_margin_at_limit",
-    "blowoff_margin_at_limit", "stabilizer_margin_at_limit", "wobbe_limit_blend_fraction", "bracket_admissible",
-    "bracket_failing", "tolerance_reached", "flames_evaluated", "evaluated_at", "note", "mechanism",
+    "axis", "window", "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+    "unburned_temperature_K", "outcome", "lower_edge", "lower_kind", "lower_binding", "lower_margin",
+    "lower_bracket_failing", "upper_edge", "upper_kind", "upper_binding", "upper_margin", "upper_bracket_failing",
+    "flame_lower_edge", "flame_lower_kind", "flame_lower_binding", "flame_upper_edge", "flame_upper_kind",
+    "flame_upper_binding", "wobbe_band_from", "wobbe_band_to", "closest_miss_at", "closest_miss_binding",
+    "closest_miss_margin", "closest_miss_margins", "swept_failures", "tolerance", "flames_evaluated", "evaluated_at",
+    "note", "mechanism",
 )
 
 #: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).

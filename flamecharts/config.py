@@ -17,7 +17,8 @@ thermal_diffusion         bool, Soret effect; default false
 resolution                "standard" (default, meets the accuracy in docs/benchmarks.md), "fine", or
                           "coarse" (faster, less accurate; labelled in every output)
 max_points                guard against runaway sweeps; default 10000
-flame_time_limit_s        give up a flame after this long [s] (recorded as failed, reason "time limit",
+flame_time_limit_s        give up a flame after this much of its own CPU time [s] (its thread's, so a
+                          loaded machine does not fail it; recorded as failed, reason "time limit",
                           solved again by the next run); default 20 times the estimated cost of a
                           flame from scratch, at least 60 s (sweep.schedule.flame_time_limit)
 cluster                   "tcp://HOST:PORT" of a running Dask scheduler, or "local:N" (N local Dask
@@ -69,8 +70,9 @@ LIMITS_KEYS = ("find", "criteria", "blend_fraction_tolerance", "equivalence_rati
 #: What a [limits] table may ask for: the largest admissible blend fraction at every other
 #: sweep setting, and the lean and rich edges of the equivalence-ratio window at every blend.
 LIMIT_KINDS = ("blend_fraction", "equivalence_ratio")
-#: Burner margins a limit may keep (the stabilizer one only where the burner has a stabilizer).
-LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer")
+#: What a limit may keep: burner margins (the stabilizer one only where the burner has a
+#: stabilizer) and, along the blend axis, the Wobbe band of [gas_quality].
+LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "wobbe")
 #: Default tolerances of a limit search: the width of the final bracket (0.5 percentage
 #: points of blend fraction; 0.005 in equivalence ratio).
 DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
@@ -506,7 +508,7 @@ def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str,
     return tuple(dict.fromkeys(items))
 
 
-def _limits(t: Any, burner: "Burner | None", blend_with: str | None) -> Limits:
+def _limits(t: Any, burner: "Burner | None", blend_with: str | None, gas_quality: "GasQuality") -> Limits:
     """The [limits] table: checked against the burner and the sweep it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")
@@ -518,10 +520,20 @@ def _limits(t: Any, burner: "Burner | None", blend_with: str | None) -> Limits:
     if "blend_fraction" in find and not blend_with:
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
                           "sweep.blend = { with = ..., fraction = [...] }")
-    default = ["flashback", burner.blowoff[2]]
+    has_band = gas_quality.band_MJ_m3 is not None or gas_quality.tolerance_percent is not None
+    default = ["flashback", burner.blowoff[2]] + (["wobbe"] if has_band and "blend_fraction" in find else [])
     criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
     if "stabilizer" in criteria and burner.stabilizer_size_m is None:
         raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
+    if "wobbe" in criteria and not has_band:
+        raise ConfigError("'limits.criteria' names 'wobbe', but [gas_quality] sets no band: add "
+                          "'wobbe_tolerance_percent' or 'wobbe_band_MJ_m3'")
+    if "wobbe" in criteria and "blend_fraction" not in find:
+        raise ConfigError("'limits.criteria' names 'wobbe', which only a blend search keeps: add 'blend_fraction' "
+                          "to 'limits.find' or leave 'wobbe' out")
+    if criteria == ("wobbe",):
+        raise ConfigError("'limits.criteria' needs at least one burner margin besides 'wobbe': flashback, blowoff "
+                          "or stabilizer")
     tol = dict(DEFAULT_LIMIT_TOLERANCE)
     for kind, top in (("blend_fraction", 0.1), ("equivalence_ratio", 0.1)):
         key = f"{kind}_tolerance"
@@ -803,12 +815,13 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
             raise ConfigError(f"'reference_fuel' {reference_fuel!r} must be one of sweep.fuel "
                               f"({', '.join(axes['fuel'])}) so that its flames are solved")
     burner = _burner(data["burner"]) if "burner" in data else None
+    gas_quality = _gas_quality(data.get("gas_quality", {}))
     return {
         "reference_fuel": reference_fuel, "burner": burner,
-        "gas_quality": _gas_quality(data.get("gas_quality", {})),
+        "gas_quality": gas_quality,
         "indicator_settings": _indicator_settings(data.get("indicators", {})),
         "cluster": check_cluster_spec(data["cluster"]) if "cluster" in data else None,
-        "limits": _limits(data["limits"], burner, blend_with) if "limits" in data else None,
+        "limits": _limits(data["limits"], burner, blend_with, gas_quality) if "limits" in data else None,
         "premixer": _premixer(data["premixer"]) if "premixer" in data else None,
         "flame_response": _flame_response(data["flame_response"]) if "flame_response" in data else None,
         "stretch": _stretch(data["stretch"], axes) if "stretch" in data else None,

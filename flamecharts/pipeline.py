@@ -151,8 +151,10 @@ def _solve_one(study: Study, store: Store, backend, progress, stop_after, t0, li
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
     if study.limits is not None and stop_after is None:
-        def solve(new_points) -> int:
-            n = solve_points(study, store, new_points, backend).solved
+        swept = {p.key for p in pts}
+
+        def solve(new_points) -> int:  # warm-started from the sweep's flames only: resumed runs agree
+            n = solve_points(study, store, new_points, backend, sources=swept).solved
             limit_solved[0] += n
             return n
         limits = with_mechanism(study, find_limits(study, rows, store, solve, limits_progress))

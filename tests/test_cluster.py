@@ -169,11 +169,14 @@ def test_limit_searches_run_on_the_cluster_with_the_same_answers(tmp_path, dask_
     local = solve_study(study, out_dir=tmp_path / "local", jobs=1)
     remote = solve_study(study, out_dir=tmp_path / "dask", cluster=dask_cluster.scheduler_address)
     assert local.limit_flames > 0 and remote.limit_flames == local.limit_flames
+    assert len(local.limits) == len(remote.limits)
     for a, b in zip(local.limits, remote.limits):
-        assert (a["limit"], a["outcome"], a["binding"]) == (b["limit"], b["outcome"], b["binding"])
-        assert (a["limit_value"] is None) == (b["limit_value"] is None)
-        if a["limit_value"] is not None:
-            assert b["limit_value"] == pytest.approx(a["limit_value"], abs=1e-9)
+        for side in ("lower", "upper"):
+            assert (a["axis"], a["outcome"], a[f"{side}_kind"], a[f"{side}_binding"]) == (
+                b["axis"], b["outcome"], b[f"{side}_kind"], b[f"{side}_binding"])
+            assert (a[f"{side}_edge"] is None) == (b[f"{side}_edge"] is None)
+            if a[f"{side}_edge"] is not None:
+                assert b[f"{side}_edge"] == pytest.approx(a[f"{side}_edge"], abs=1e-9)
 
 
 def test_each_mechanism_of_a_comparison_is_sent_to_the_cluster(tmp_path, dask_cluster):

@@ -15,7 +15,6 @@ from scipy.optimize import brentq
 
 import flamecharts
 from flamecharts.admissible.brent import brent_steps, drive
-from flamecharts.admissible.search import blend_search, crossing, window_searches
 from flamecharts.errors import ConfigError
 from tests.conftest import write_h2_study
 
@@ -52,86 +51,143 @@ def test_brent_refuses_a_bracket_without_a_sign_change():
         next(brent_steps(0.0, 1.0, 1.0, 2.0, 0.01))
 
 
-# ---- searches on synthetic margins: margin(x) = 3 exp(-4 x), flashback minimum 1.5 -> limit ln 2 / 4
-def _row(m):
-    return {"status": "ok", "flashback_margin": m}
+def test_maximum_finder_matches_scipy_fminbound():
+    """Brent's minimiser (Brent 1973, ch. 5) as a generator against scipy.optimize.fminbound, the
+    same algorithm: the same abscissae to rounding."""
+    from scipy.optimize import fminbound
+
+    from flamecharts.admissible.brent import maximum_steps
+    for f in (lambda x: -(x - 0.3) ** 2, lambda x: math.sin(3 * x), lambda x: -abs(x - 0.71),
+              lambda x: min(3 * x, 2 - 2 * x)):
+        gen = maximum_steps(0.0, 1.0, 1e-3)
+        x = next(gen)
+        try:
+            while True:
+                x = gen.send(f(x))
+        except StopIteration as stop:
+            peak = stop.value
+        x_ref = fminbound(lambda t: -f(t), 0.0, 1.0, xtol=1e-3)
+        assert peak.converged and peak.x == pytest.approx(x_ref, abs=1e-9)
 
 
-def _value(row):
-    if row["status"] != "ok":
-        return None, f"{row['status']}: no flame"
-    return math.log(row["flashback_margin"] / 1.5), "flashback"
+# ---- searches on synthetic margins with closed-form edges
+from types import SimpleNamespace as NS  # noqa: E402
+
+from flamecharts.admissible.search import limit_parts, window_search, within_band  # noqa: E402
+
+RIG = NS(min_flashback_margin=1.5, min_blowoff_margin=1.5)
+PARTS = (lambda r: limit_parts(r, RIG, ("flashback", "blowoff")))
 
 
-def _run(gen, rowf):
+def _margins(fb, bo):
+    """Row factory from two log-margin functions g_c(x) = ln(margin / 1.5)."""
+    return lambda x: {"status": "ok", "flashback_margin": 1.5 * math.exp(fb(x)), "blowoff_margin": 1.5 * math.exp(bo(x))}
+
+
+def _search(gen, rowf):
     asked = []
     try:
-        x = next(gen)
+        xs = next(gen)
         while True:
-            asked.append(x)
-            x = gen.send(rowf(x))
+            asked += xs
+            xs = gen.send([rowf(x) for x in xs])
     except StopIteration as stop:
         return stop.value, asked
 
 
-MARGIN = (lambda x: _row(3.0 * math.exp(-4.0 * x)))
-LIMIT = math.log(2.0) / 4.0  # 0.17329
+def _edges(answer):
+    return [(w.lower.value, w.lower.kind, w.lower.binding, w.upper.value, w.upper.kind, w.upper.binding)
+            for w in answer.windows]
 
 
-def test_blend_limit_within_tolerance_in_few_flames():
-    swept = [(x, MARGIN(x)) for x in (0.0, 0.1, 0.2, 0.3)]
-    found, asked = _run(blend_search(swept, 1.0, "", 0.005, 12, _value), MARGIN)
-    assert found.outcome == "found" and found.binding == "flashback"
-    assert found.value <= LIMIT <= found.bracket[1] and found.bracket[1] - found.value <= 0.005
-    assert 0.1 <= min(asked) and max(asked) <= 0.2 and len(asked) <= 4  # bracketed on the sweep
+def test_window_between_two_swept_points_failing_by_different_criteria():
+    # blowoff holds from x = 0.15 up, flashback up to 0.18 (closed form); swept 0, 0.3, 0.6 all fail
+    rowf = _margins(lambda x: 8 * (0.18 - x), lambda x: 9 * (x - 0.15))
+    answer, asked = _search(window_search([(x, rowf(x)) for x in (0.0, 0.3, 0.6)], PARTS, 0.005, 12, (0.0, 1.0)),
+                            rowf)
+    ((lo, lk, lb, hi, hk, hb),) = _edges(answer)
+    assert (lk, lb, hk, hb) == ("found", "blowoff", "found", "flashback")
+    assert 0.15 - 1e-9 <= lo <= 0.155 and 0.175 <= hi <= 0.18 + 1e-9   # admissible ends, within the tolerance
+    assert answer.failures == [(0.0, "blowoff"), (0.3, "flashback"), (0.6, "flashback"), (1.0, "flashback")]
+    assert asked[0] == 1.0 and all(0.0 < x < 0.3 for x in asked[1:])  # nothing searched where no window can be
 
 
-def test_wobbe_bound_narrows_the_search_and_binds_when_lower():
-    swept = [(x, MARGIN(x)) for x in (0.0, 0.1)]
-    found, asked = _run(blend_search(swept, 0.12, "low", 0.005, 12, _value), MARGIN)
-    assert (found.outcome, found.binding, asked) == ("found", "Wobbe band", [0.12])
-    assert found.value == 0.12
+def test_no_window_between_them_reports_the_closest_miss_where_the_margins_cross():
+    # blowoff needs x >= 0.18, flashback allows x <= 0.15: the best point is where both margins are equal
+    rowf = _margins(lambda x: 8 * (0.15 - x), lambda x: 9 * (x - 0.18))
+    answer, _ = _search(window_search([(x, rowf(x)) for x in (0.0, 0.3, 0.6)], PARTS, 0.005, 12, (0.0, 1.0)), rowf)
+    assert answer.windows == []
+    x_cross = (8 * 0.15 + 9 * 0.18) / 17
+    m = answer.miss
+    assert m.at == pytest.approx(x_cross, abs=0.005)
+    assert m.row["flashback_margin"] == pytest.approx(m.row["blowoff_margin"], rel=0.05)
+    assert m.g == pytest.approx(-8 * 9 * 0.03 / 17, abs=0.01)
 
 
-def test_limit_outside_the_range_says_so():
-    safe = (lambda x: _row(10.0))
-    found, asked = _run(blend_search([(0.0, safe(0)), (0.3, safe(0.3))], 1.0, "", 0.005, 12, _value), safe)
-    assert (found.outcome, found.binding, found.value, asked) == ("whole range", "none in range", 1.0, [1.0])
-    bad = (lambda x: _row(1.0))
-    found, asked = _run(blend_search([(0.0, bad(0)), (0.3, bad(0.3))], 1.0, "", 0.005, 12, _value), bad)
-    assert found.outcome == "none admissible" and found.value is None and asked == []
-
-
-def test_a_flame_that_fails_inside_the_bracket_stops_the_search_with_the_known_bracket():
-    def rowf(x):
-        return {"status": "failed"} if 0.12 < x < 0.2 else MARGIN(x)
-    swept = [(x, MARGIN(x)) for x in (0.0, 0.1, 0.2)]
-    found, asked = _run(blend_search(swept, 1.0, "", 0.005, 12, _value), rowf)
-    assert found.outcome == "stopped" and "no burning flame" in found.note
-    assert found.value <= LIMIT  # the admissible end: never a number past the limit
-    assert found.bracket[0] <= LIMIT <= found.bracket[1]
-
-
-def test_window_edges_on_both_sides():
-    # admissible between phi 0.75 and 1.12: blowoff fails lean, flashback rich
-    def rowf(phi):
-        return {"status": "ok", "flashback_margin": 1.5 * math.exp(3 * (1.12 - phi)),
-                "blowoff_margin": 1.5 * math.exp(2 * (phi - 0.75))}
-
-    def value(r):
-        g = {c: math.log(r[c + "_margin"] / 1.5) for c in ("flashback", "blowoff")}
-        c = min(g, key=g.get)
-        return g[c], c
+def test_one_criterion_failing_everywhere_but_near_its_peak_is_maximised_only_there():
+    # along phi: a blowoff margin with one maximum at phi 1.07, admissible only from 1.036 to 1.105
+    peak = (lambda p: 0.05 - 40 * (p - 1.07) ** 2)
+    rowf = _margins(lambda p: 2.0, peak)
     swept = [(p, rowf(p)) for p in (0.6, 0.8, 1.0, 1.2, 1.4)]
-    pairs, ends, kinds = window_searches(swept, value)
-    assert ends == [] and [k for k, *_ in pairs] == ["lean edge", "rich edge"]
-    got = {}
-    for kind, xg, rg, xb, rb in pairs:
-        found, _ = _run(crossing(xg, rg, xb, rb, 0.005, 12, value), rowf)
-        got[kind] = found
-    assert abs(got["lean edge"].value - 0.75) <= 0.005 and got["lean edge"].binding == "blowoff"
-    assert abs(got["rich edge"].value - 1.12) <= 0.005 and got["rich edge"].binding == "flashback"
-    assert got["lean edge"].value >= 0.75 - 1e-9 and got["rich edge"].value <= 1.12 + 1e-9  # admissible ends
+    answer, asked = _search(window_search(swept, PARTS, 0.005, 12), rowf)
+    ((lo, lk, lb, hi, hk, hb),) = _edges(answer)
+    edge = math.sqrt(0.05 / 40)
+    assert lo == pytest.approx(1.07 - edge, abs=0.005) and hi == pytest.approx(1.07 + edge, abs=0.005)
+    assert lb == hb == "blowoff"
+    assert all(0.8 < x < 1.2 for x in asked)  # the intervals away from the swept maximum cost no flame
+
+
+def test_two_windows_where_a_flashback_margin_dips_near_stoichiometric():
+    # flashback margin lowest near phi 1.05 (S_L peaks there), blowoff margin highest: admissible lean
+    # (0.8-0.95) and rich (1.15-1.3), not in between
+    rowf = _margins(lambda p: 10 * abs(p - 1.05) - 1.0, lambda p: 0.25 - 11.111 * (p - 1.05) ** 2)
+    swept = [(p, rowf(p)) for p in (0.6, 0.7, 0.8, 0.9, 1.0, 1.1, 1.2, 1.3, 1.4, 1.5)]
+    answer, _ = _search(window_search(swept, PARTS, 0.005, 12), rowf)
+    got = _edges(answer)
+    assert len(got) == 2
+    (l1, _, b1, h1, _, c1), (l2, _, b2, h2, _, c2) = got
+    assert (b1, c1, b2, c2) == ("blowoff", "flashback", "flashback", "blowoff")
+    assert l1 == pytest.approx(0.9, abs=0.006) and h1 == pytest.approx(0.95, abs=0.006)
+    assert l2 == pytest.approx(1.15, abs=0.006) and h2 == pytest.approx(1.2, abs=0.006)
+
+
+def test_edges_at_the_ends_of_the_axis_and_of_the_sweep():
+    safe = _margins(lambda x: 1.0, lambda x: 1.0)
+    answer, asked = _search(window_search([(0.0, safe(0)), (0.3, safe(0.3))], PARTS, 0.005, 12, (0.0, 1.0)), safe)
+    assert _edges(answer) == [(0.0, "range end", "", 1.0, "range end", "")] and asked == [1.0]
+    answer, asked = _search(window_search([(0.7, safe(0.7)), (1.0, safe(1.0))], PARTS, 0.005, 12), safe)
+    assert _edges(answer) == [(0.7, "swept end", "", 1.0, "swept end", "")] and asked == []
+
+
+def test_a_flame_that_does_not_burn_inside_the_bracket_stops_that_edge_with_the_known_bracket():
+    base = _margins(lambda x: 4 * (0.17 - x), lambda x: 1.0)
+
+    def rowf(x):
+        return {"status": "failed"} if 0.12 < x < 0.2 else base(x)
+    swept = [(x, base(x)) for x in (0.0, 0.1, 0.2)]
+    answer, _ = _search(window_search(swept, PARTS, 0.005, 12, (0.0, 1.0)), rowf)
+    (w,) = answer.windows
+    assert w.upper.kind == "stopped" and "no burning flame" in w.upper.note
+    assert w.upper.value <= 0.17 <= w.upper.failing  # the admissible end: never a number past the edge
+
+
+def test_the_wobbe_band_cuts_a_window_and_keeps_what_the_flames_alone_allow():
+    from flamecharts.admissible.search import Edge, Window
+    flame = Window(Edge(0.0, "range end"), Edge(0.6, "found", "flashback"))
+    (w,) = within_band([flame], [(0.0, 0.404)])
+    assert (w.lower.value, w.upper.value, w.upper.kind, w.upper.binding) == (0.0, 0.404, "Wobbe band", "Wobbe band")
+    assert w.flame is flame
+    assert within_band([flame], []) == []  # the band holds no blend: no window, whatever the flames allow
+    (w,) = within_band([flame], [(0.0, 0.9)])
+    assert w.upper is flame.upper  # the band wider than the flame window: the flame criterion binds
+
+
+def test_band_intervals_of_a_wobbe_index_rising_then_falling():
+    from flamecharts.admissible.driver import band_intervals
+    assert band_intervals(lambda x: 0.404 - x) == [(0.0, pytest.approx(0.404, abs=1e-6))]
+    assert band_intervals(lambda x: -1.0) == []
+    (a, b), (c, d) = band_intervals(lambda x: (x - 0.5) ** 2 - 0.01)   # leaves the band in the middle
+    assert (a, b, c, d) == (0.0, pytest.approx(0.4, abs=1e-6), pytest.approx(0.6, abs=1e-6), 1.0)
 
 
 # ---- config
@@ -141,6 +197,10 @@ def test_window_edges_on_both_sides():
     (BURNER + "[limits]\ncriteria = ['flashbak']\n", "did you mean 'flashback'"),
     (BURNER + "[limits]\ncriteria = ['stabilizer']\n", "no 'stabilizer_size_mm'"),
     (BURNER + "[limits]\nfind = 'window'\n", "limits.find"),
+    (BURNER + "[limits]\ncriteria = ['flashback', 'wobbe']\n", "sets no band"),
+    (BURNER + "[gas_quality]\nwobbe_tolerance_percent = 5\n[limits]\nfind = ['equivalence_ratio']\n"
+              "criteria = ['flashback', 'wobbe']\n", "only a blend search keeps"),
+    (BURNER + "[gas_quality]\nwobbe_tolerance_percent = 5\n[limits]\ncriteria = ['wobbe']\n", "at least one burner"),
 ])
 def test_limits_table_errors_name_the_key(tmp_path, extra, message):
     cfg = write_h2_study(tmp_path, extra=extra)
@@ -171,8 +231,10 @@ def test_limit_matches_a_fine_sweep_and_reruns_cost_nothing(tmp_path):
     cfg = write_h2_study(tmp_path, phis="[1.0]", fractions="[0.0, 0.3]", extra=limits)
     res = flamecharts.run(cfg, out=tmp_path / "out", jobs=1, charts=False)
     (lim,) = res.limits
-    assert lim["outcome"] == "found" and lim["binding"] == "flashback"
-    assert lim["tolerance_reached"] <= 0.005 and 1 <= lim["flames_evaluated"] <= 6
+    assert (lim["outcome"], lim["lower_kind"], lim["upper_kind"], lim["upper_binding"]) == (
+        "window", "range end", "found", "flashback")
+    assert lim["lower_edge"] == 0.0 and abs(lim["upper_bracket_failing"] - lim["upper_edge"]) <= 0.005
+    assert 2 <= lim["flames_evaluated"] <= 7   # the pure blend gas, then the edge
     assert res.summary.limit_flames == lim["flames_evaluated"]
     assert (tmp_path / "out" / "limits.csv").is_file()
 
@@ -180,16 +242,128 @@ def test_limit_matches_a_fine_sweep_and_reruns_cost_nothing(tmp_path):
                           fractions="[" + ", ".join(f"{x:.2f}" for x in np.arange(0.0, 0.161, 0.02)) + "]",
                           extra=BURNER)
     fine_rows = flamecharts.run(fine, out=tmp_path / "fine", jobs=1, charts=False).rows
-    assert abs(lim["limit_value"] - _crossing_of_sweep(fine_rows)) <= 0.005
+    assert abs(lim["upper_edge"] - _crossing_of_sweep(fine_rows)) <= 0.005
 
     again = flamecharts.run(cfg, out=tmp_path / "out", jobs=1, charts=False)
     assert again.summary.solved == 0 and again.summary.limit_flames == 0
-    assert again.limits[0]["limit_value"] == lim["limit_value"]
-    assert flamecharts.open_results(tmp_path / "out").limits[0]["limit_value"] == lim["limit_value"]
+    assert again.limits[0]["upper_edge"] == lim["upper_edge"]
+    assert flamecharts.open_results(tmp_path / "out").limits[0]["upper_edge"] == lim["upper_edge"]
 
     # a stricter minimum margin: only the flames its new search asks for
     cfg.write_text(cfg.read_text().replace('port_velocity_m_s = 2.5', 'port_velocity_m_s = 2.5\nmin_flashback_margin = 1.3'))
     stricter = flamecharts.run(cfg, out=tmp_path / "out", jobs=1, charts=False)
     (lim2,) = stricter.limits
     assert stricter.summary.solved == 0 and 0 < stricter.summary.limit_flames <= lim2["flames_evaluated"]
-    assert lim2["limit_value"] > lim["limit_value"]
+    assert lim2["upper_edge"] > lim["upper_edge"]
+
+
+# ---- a window between two swept blends (h2o2 flames): a gas of 30 % hydrogen in nitrogen on a 4 mm
+# round port at 0.6 m/s blended with hydrogen; at phi 0.8 the swept fractions 0, 0.3 and 0.6 all fail
+# (blowoff at 0, flashback above), the window lies between 0 and 0.3 (invented burner).
+WINDOW_STUDY = """
+title = "Window between swept blends: diluted hydrogen on a 4 mm port"
+mechanism = "h2o2.yaml"
+
+[fuels]
+lean_h2 = {{ H2 = 0.3, N2 = 0.7 }}
+hydrogen = {{ H2 = 1.0 }}
+
+[oxidizers]
+air = {{ O2 = 1.0, N2 = 3.76 }}
+
+[sweep]
+fuel = ["lean_h2"]
+oxidizer = ["air"]
+blend = {{ with = "hydrogen", fraction = {fractions} }}
+equivalence_ratio = [0.8]
+pressure_bar = [1.0]
+unburned_temperature_K = [300.0]
+
+[burner]
+name = "4 mm round port"
+port = "round"
+port_diameter_mm = {diameter}
+port_velocity_m_s = {velocity}
+min_flashback_margin = {min_fb}
+min_blowoff_margin = {min_bo}
+{limits}
+"""
+
+
+def _window_study(folder, name, fractions, diameter=4.0, velocity=0.6, min_fb=1.5, min_bo=1.5, limits=True):
+    path = folder / f"{name}.toml"
+    path.write_text(WINDOW_STUDY.format(fractions=fractions, diameter=diameter, velocity=velocity, min_fb=min_fb,
+                                        min_bo=min_bo, limits="[limits]\nfind = ['blend_fraction']" if limits else ""))
+    return path
+
+
+FINE = "[" + ", ".join(f"{x:.2f}" for x in np.arange(0.0, 0.605, 0.01)) + "]"
+
+
+@pytest.fixture(scope="module")
+def fine_store(tmp_path_factory):
+    """One store holding a 0.01-step blend sweep (0 to 0.6) at phi 0.8: every burner below is judged
+    on these flames without solving them again (a changed burner re-solves nothing)."""
+    folder = tmp_path_factory.mktemp("window")
+    flamecharts.run(_window_study(folder, "fine", FINE, limits=False), out=folder / "out", jobs=2, charts=False,
+                    report=False)
+    return folder
+
+
+def _fine_truth(folder, **burner):
+    """Admissible flags of the fine sweep under ``burner`` (no flame solved: all stored)."""
+    res = flamecharts.run(_window_study(folder, "fine", FINE, limits=False, **burner), out=folder / "out", jobs=1,
+                          charts=False, report=False)
+    assert res.summary.solved == 0
+    need = (burner.get("min_fb", 1.5), burner.get("min_bo", 1.5))
+    return sorted((r["blend_fraction"], r["flashback_margin"] >= need[0] and r["blowoff_margin"] >= need[1])
+                  for r in res.rows)
+
+
+def _check_windows_against_fine_sweep(limits, truth, tol=0.005, step=0.01):
+    """Every admissible fine point lies in a reported window; every found edge lies within the tolerance
+    plus the fine step of where the fine sweep changes (a window narrower than the fine step, which the
+    fine sweep cannot see, must fit between two of its points)."""
+    wins = [r for r in limits if r["outcome"] == "window"]
+    for x, ok in truth:
+        inside = any(r["lower_edge"] - tol - 1e-9 <= x <= r["upper_edge"] + tol + 1e-9 for r in wins)
+        if ok:
+            assert inside, f"fine point {x:g} keeps every margin but lies in no window {[(r['lower_edge'], r['upper_edge']) for r in wins]}"
+    changes = [0.5 * (a[0] + b[0]) for a, b in zip(truth, truth[1:]) if a[1] != b[1]]
+    for r in wins:
+        if not any(r["lower_edge"] <= x <= r["upper_edge"] for x, _ in truth):
+            # narrower than the fine step: the fine sweep cannot see it; it must fit between two fine points
+            assert r["upper_edge"] - r["lower_edge"] <= step + 2 * tol
+            continue
+        for side in ("lower", "upper"):
+            if r[f"{side}_kind"] == "found" and r[f"{side}_edge"] <= truth[-1][0]:
+                v = r[f"{side}_edge"]
+                assert changes and min(abs(v - c) for c in changes) <= tol + step, (side, v, changes)
+
+
+def test_the_window_between_swept_blends_matches_a_fine_sweep(fine_store):
+    coarse = _window_study(fine_store, "coarse", "[0.0, 0.3, 0.6]")
+    res = flamecharts.run(coarse, out=fine_store / "out", jobs=2, charts=False, report=False)
+    truth = _fine_truth(fine_store)
+    (lim,) = res.limits
+    assert lim["outcome"] == "window" and (lim["lower_binding"], lim["upper_binding"]) == ("blowoff", "flashback")
+    assert 0.0 < lim["lower_edge"] < lim["upper_edge"] < 0.3   # strictly between two swept fractions
+    _check_windows_against_fine_sweep(res.limits, truth)
+    assert "blowoff at 0; flashback at 0.3, 0.6, 1" == lim["swept_failures"]
+
+
+from hypothesis import HealthCheck, example, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+
+@settings(max_examples=4, deadline=None, derandomize=True, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(diameter=st.floats(2.5, 8.0), velocity=st.floats(0.3, 2.5), min_fb=st.floats(1.1, 2.5),
+       min_bo=st.floats(1.1, 2.5))
+@example(diameter=4.0, velocity=0.6, min_fb=1.5, min_bo=1.5)
+def test_property_every_admissible_fine_point_lies_in_a_reported_window(fine_store, diameter, velocity, min_fb,
+                                                                        min_bo):
+    burner = dict(diameter=round(diameter, 3), velocity=round(velocity, 3), min_fb=round(min_fb, 3),
+                  min_bo=round(min_bo, 3))
+    coarse = _window_study(fine_store, "coarse", "[0.0, 0.3, 0.6]", **burner)
+    res = flamecharts.run(coarse, out=fine_store / "out", jobs=2, charts=False, report=False)
+    _check_windows_against_fine_sweep(res.limits, _fine_truth(fine_store, **burner))

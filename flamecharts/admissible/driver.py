@@ -1,7 +1,7 @@
 """Run the limit searches of a study: bracket on the stored sweep, refine with flames.
 
-Every search (search.py) is a generator that asks for one flame at a time. The driver
-collects one request from every open search, solves them together on the run's backend
+Every search (search.py) is a generator that asks for the flames of its open intervals.
+The driver collects the requests of every open search, solves them together on the run's backend
 through the same run loop as the sweep (sweep.run.solve_points: stored like any point,
 warm-started from the nearest stored flame, resumable), sends each search its flame
 and goes round again until every search has its answer. A rerun finds every flame in
@@ -19,11 +19,11 @@ from typing import Callable, Generator
 
 from scipy.optimize import brentq
 
-from ..columns import gas_label
+from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .search import CRITERIA, Found, blend_search, crossing, limit_value, window_searches
+from .search import CRITERIA, Answer, limit_parts, window_search, within_band
 
 #: Fractions at which the Wobbe index is scanned before its band edge is refined (it
 #: needs no flame; the scan only finds the first interval that leaves the band).
@@ -43,13 +43,13 @@ class LimitsProgress:
 
 @dataclass
 class _Search:
-    limit: str             # max_blend_fraction | lean_edge_equivalence_ratio | rich_edge_equivalence_ratio
+    axis: str              # blend_fraction | equivalence_ratio: the column the search moves along
     cond: dict             # fuel, oxidizer, blend_fraction, equivalence_ratio, pressure_bar, unburned_temperature_K
-    axis: str              # the column the search moves along
-    gen: Generator | None  # None: answered without flames
-    x_wobbe: float | None = None
-    found: Found | None = None
-    request: float | None = None
+    gen: Generator | None
+    band: list[tuple[float, float]] | None = None   # Wobbe band intervals of the blend axis (None: not a criterion)
+    answer: Answer | None = None
+    request: list[float] | None = None
+    missing: str = ""      # a flame the search needs is not in the store (read-only)
 
 
 def point_at(study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[object, Point]:
@@ -62,35 +62,61 @@ def point_at(study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[ob
     return sub, dataclasses.replace(points(sub)[0], index=index)
 
 
-def wobbe_bound(study, fuel: str, ox: str, refs: dict) -> tuple[float, str]:
-    """(largest blend fraction up to which the Wobbe index stays in the band, the side it
-    leaves by): 1.0 when it never leaves, -1.0 when the unblended gas is outside already.
-    Closed form per fraction (ISO 6976 via design.fuel_gas); the edge by Brent's method
-    (scipy.optimize.brentq) to 1e-6."""
-    def margin(x: float) -> tuple[float, str]:
-        row = fuel_gas(study, fuel, x, ox, refs).row
-        lo, hi = row["wobbe_band_low_MJ_m3"], row["wobbe_band_high_MJ_m3"]
-        W = row["higher_wobbe_index_MJ_m3" if study.gas_quality.wobbe == "higher" else "lower_wobbe_index_MJ_m3"]
-        return (W - lo, "low") if W - lo < hi - W else (hi - W, "high")
-
+def wobbe_margin(study, fuel: str, ox: str, refs: dict) -> Callable[[float], float] | None:
+    """Distance [MJ/m^3] of the blend's Wobbe index inside the band at blend fraction x
+    (negative outside), closed form by ISO 6976 (design.fuel_gas); None without a band."""
     if fuel_gas(study, fuel, 0.0, ox, refs).row["wobbe_band_low_MJ_m3"] is None:
-        return 1.0, ""
-    m0, side = margin(0.0)
-    if m0 < 0:
-        return -1.0, side
-    prev = 0.0
-    for i in range(1, WOBBE_SCAN + 1):
-        x = i / WOBBE_SCAN
-        m, side = margin(x)
-        if m < 0:
-            return brentq(lambda t: margin(t)[0], prev, x, xtol=1e-6), side
-        prev = x
-    return 1.0, ""
+        return None
+    col = "higher_wobbe_index_MJ_m3" if study.gas_quality.wobbe == "higher" else "lower_wobbe_index_MJ_m3"
+
+    def margin(x: float) -> float:
+        row = fuel_gas(study, fuel, x, ox, refs).row
+        W = row[col]
+        return min(W - row["wobbe_band_low_MJ_m3"], row["wobbe_band_high_MJ_m3"] - W)
+    return margin
+
+
+def band_intervals(margin: Callable[[float], float], scan: int = WOBBE_SCAN) -> list[tuple[float, float]]:
+    """The blend-fraction intervals of [0, 1] inside the Wobbe band: ``margin`` scanned at
+    ``scan`` + 1 fractions, each change of sign refined by Brent's method
+    (scipy.optimize.brentq) to 1e-6.
+
+    >>> band_intervals(lambda x: 0.404 - x)
+    [(0.0, 0.404)]
+    >>> [(round(a, 6), round(b, 6)) for a, b in band_intervals(lambda x: 0.01 - (x - 0.5) ** 2)]
+    [(0.4, 0.6)]
+    """
+    xs = [i / scan for i in range(scan + 1)]
+    ms = [margin(x) for x in xs]
+    out, start = [], (0.0 if ms[0] >= 0 else None)
+    for (x0, m0), (x1, m1) in zip(zip(xs, ms), zip(xs[1:], ms[1:])):
+        if (m0 >= 0) == (m1 >= 0):
+            continue
+        edge = brentq(margin, x0, x1, xtol=1e-6)
+        if m0 >= 0:
+            out.append((start, edge))
+            start = None
+        else:
+            start = edge
+    if start is not None:
+        out.append((start, 1.0))
+    return out
+
+
+def uses_wobbe(study) -> bool:
+    """Whether the Wobbe band is one of the study's limit criteria (blend searches only)."""
+    return "wobbe" in study.limits.criteria
+
+
+def flame_criteria(study) -> tuple[str, ...]:
+    """The study's limit criteria that a flame decides (all but the Wobbe band)."""
+    return tuple(c for c in study.limits.criteria if c in CRITERIA)
 
 
 def _searches(study, rows: list[dict]) -> list[_Search]:
     lim, b = study.limits, study.burner
-    value = (lambda r: limit_value(r, b, lim.criteria))
+    crit = flame_criteria(study)
+    parts = (lambda r: limit_parts(r, b, crit))
     out: list[_Search] = []
     if "blend_fraction" in lim.find:
         groups = defaultdict(list)
@@ -98,13 +124,16 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
             groups[(r["fuel"], r["oxidizer"], r["equivalence_ratio"], r["pressure_bar"],
                     r["unburned_temperature_K"])].append((r["blend_fraction"], r))
         refs: dict = {}
-        bounds = {(f, o): wobbe_bound(study, f, o, refs) for f in study.sweep_fuels for o in study.sweep_oxidizers}
+        bands = {}
+        for f in study.sweep_fuels:
+            for o in study.sweep_oxidizers:
+                m = wobbe_margin(study, f, o, refs) if uses_wobbe(study) else None
+                bands[(f, o)] = None if m is None else band_intervals(m)
         for (fuel, ox, phi, P, T), swept in groups.items():
-            xw, side = bounds[(fuel, ox)]
             cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=None, equivalence_ratio=phi, pressure_bar=P,
                         unburned_temperature_K=T)
-            gen = blend_search(swept, xw, side, lim.tolerance["blend_fraction"], lim.max_flames_per_search, value)
-            out.append(_Search("max_blend_fraction", cond, "blend_fraction", gen, x_wobbe=xw))
+            gen = window_search(swept, parts, lim.tolerance["blend_fraction"], lim.max_flames_per_search, (0.0, 1.0))
+            out.append(_Search("blend_fraction", cond, gen, band=bands[(fuel, ox)]))
     if "equivalence_ratio" in lim.find:
         groups = defaultdict(list)
         for r in rows:
@@ -113,31 +142,27 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
         for (fuel, ox, frac, P, T), swept in groups.items():
             cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=frac, equivalence_ratio=None, pressure_bar=P,
                         unburned_temperature_K=T)
-            pairs, ends, kinds = window_searches(swept, value)
-            edges = []  # (phi where the edge lies, search), to list a window's edges lean to rich
-            for (kind, xg, rg, xb, rb) in pairs:
-                gen = crossing(xg, rg, xb, rb, lim.tolerance["equivalence_ratio"], lim.max_flames_per_search, value)
-                edges.append((0.5 * (xg + xb), _Search(kind.replace(" ", "_") + "_equivalence_ratio", cond,
-                                                   "equivalence_ratio", gen)))
-            for kind, found in zip(kinds, ends):
-                at = found.value if found.value is not None else -1.0
-                edges.append((at, _Search(kind.replace(" ", "_") + "_equivalence_ratio", cond, "equivalence_ratio",
-                                          None, found=found)))
-            out += [s for _, s in sorted(edges, key=lambda e: e[0])]
+            gen = window_search(swept, parts, lim.tolerance["equivalence_ratio"], lim.max_flames_per_search)
+            out.append(_Search("equivalence_ratio", cond, gen))
     return out
 
 
-def _advance(s: _Search, row: dict | None) -> None:
-    """Send the search its flame (None: start it); keep its next request or its answer."""
+def _advance(s: _Search, rows: list[dict] | None) -> None:
+    """Send the search its flames (None: start it); keep its next requests or its answer."""
     try:
-        s.request = next(s.gen) if row is None else s.gen.send(row)
+        s.request = next(s.gen) if rows is None else s.gen.send(rows)
     except StopIteration as stop:
-        s.found, s.request = stop.value, None
+        s.answer, s.request = stop.value, None
+        if s.band is not None:
+            s.answer.flame_windows = s.answer.windows
+            s.answer.band = s.band
+            s.answer.windows = within_band(s.answer.windows, s.band)
 
 
 def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], int] | None,
                 on_round: Callable[[LimitsProgress], None] | None = None) -> list[dict]:
-    """The limits the study's [limits] table asks for, one limits.csv row per search.
+    """The limits the study's [limits] table asks for: limits.csv rows, one per admissible
+    window of each search (one row for a search without a window).
 
     ``rows``: the annotated rows of the sweep (results.point_rows); ``store``: where the
     flames are read; ``solve(points) -> flames solved``: solves and stores the points the
@@ -146,121 +171,115 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
     t0 = time.perf_counter()
     searches = _searches(study, rows)
     for s in searches:
-        if s.gen is not None:
-            _advance(s, None)
+        _advance(s, None)
     solved, rnd = 0, 0
     while True:
         open_ = [s for s in searches if s.request is not None]
         if not open_:
             break
         rnd += 1
-        asked = [point_at(study, s.cond, s.axis, s.request, i) for i, s in enumerate(open_)]
+        asked = [(s, point_at(study, s.cond, s.axis, x)) for s in open_ for x in s.request]
+        asked = [(s, (sub, dataclasses.replace(p, index=i))) for i, (s, (sub, p)) in enumerate(asked)]
         if solve is not None:
-            solved += solve([p for _, p in asked])
-        stored = store.rows([p.key for _, p in asked])
-        for s, (sub, p) in zip(open_, asked):
-            if p.key in stored:
-                _advance(s, point_rows(sub, [p], stored)[0])
-            else:
+            solved += solve([p for _, (_, p) in asked])
+        stored = store.rows([p.key for _, (_, p) in asked])
+        for s in open_:
+            mine = [(sub, p) for t, (sub, p) in asked if t is s]
+            lacking = [p for _, p in mine if p.key not in stored]
+            if lacking:
                 s.gen.close()
-                s.found = Found("stopped", None, "", None, note=f"the flame at {s.axis.replace('_', ' ')} "
-                                f"{s.request:.4g} is not in the store: run the study again to finish this limit")
+                x = s.request[[p.key for _, p in mine].index(lacking[0].key)]
+                s.missing = (f"the flame at {s.axis.replace('_', ' ')} {x:.4g} is not in the store: run the study "
+                             "again to finish this search")
                 s.request = None
+                continue
+            _advance(s, [point_rows(sub, [p], stored)[0] for sub, p in mine])
         if on_round is not None:
             on_round(LimitsProgress(rnd, sum(s.request is not None for s in searches), len(searches), solved,
                                     time.perf_counter() - t0))
-    return [limit_row(study, s) for s in searches]
+    return [{c: r.get(c) for c in LIMIT_COLUMNS if c != "mechanism"} for s in searches for r in limit_rows(study, s)]
 
 
-def limit_row(study, s: _Search) -> dict:
-    """One limits.csv row (columns.LIMIT_COLUMNS) from a finished search."""
-    f = s.found
-    r = f.row or {}
-    margins = {c: r.get(CRITERIA[c][0]) for c in CRITERIA}
-    binding = f.binding
-    margin_at = margins.get(binding) if binding in CRITERIA else None
-    return {
-        "limit": s.limit, "fuel": s.cond["fuel"], "oxidizer": s.cond["oxidizer"],
-        "blend_with": study.blend_with or "", "blend_fraction": s.cond["blend_fraction"],
-        "equivalence_ratio": s.cond["equivalence_ratio"], "pressure_bar": s.cond["pressure_bar"],
-        "unburned_temperature_K": s.cond["unburned_temperature_K"],
-        "limit_value": f.value, "outcome": f.outcome, "binding": binding, "margin_at_limit": margin_at,
-        "flashback_margin_at_limit": margins["flashback"], "blowoff_margin_at_limit": margins["blowoff"],
-        "stabilizer_margin_at_limit": margins["stabilizer"],
-        "wobbe_limit_blend_fraction": None if s.x_wobbe is None else max(s.x_wobbe, 0.0),
-        "bracket_admissible": f.bracket[0] if f.bracket else None,
-        "bracket_failing": f.bracket[1] if f.bracket else None,
-        "tolerance_reached": abs(f.bracket[1] - f.bracket[0]) if f.bracket else None,
-        "flames_evaluated": f.evaluations,
-        "evaluated_at": " ".join(f"{x:.6g}" for x, _ in f.evaluated),
-        "note": f.note,
-    }
+def limit_rows(study, s: _Search) -> list[dict]:
+    """The limits.csv rows (columns.LIMIT_COLUMNS) of one finished search."""
+    base = {"axis": s.axis, "fuel": s.cond["fuel"], "oxidizer": s.cond["oxidizer"],
+            "blend_with": study.blend_with or "", "blend_fraction": s.cond["blend_fraction"],
+            "equivalence_ratio": s.cond["equivalence_ratio"], "pressure_bar": s.cond["pressure_bar"],
+            "unburned_temperature_K": s.cond["unburned_temperature_K"],
+            "tolerance": study.limits.tolerance[s.axis]}
+    a = s.answer
+    if a is None:
+        return [{**base, "window": 0, "outcome": "stopped", "flames_evaluated": 0, "evaluated_at": "",
+                 "note": s.missing}]
+    common = {**base, "flames_evaluated": len(a.evaluated),
+              "evaluated_at": " ".join(f"{x:.6g}" for x, _ in a.evaluated),
+              "swept_failures": _failures(a.failures)}
+    crit = flame_criteria(study)
+    if not a.windows:
+        m = a.miss
+        outcome = "stopped" if a.stopped and m is None else "none admissible"
+        row = {**common, "window": 0, "outcome": outcome, "note": "; ".join(a.stopped + _band_words(a, s.band))}
+        if m is not None:
+            row.update(closest_miss_at=m.at, closest_miss_binding=m.binding,
+                       closest_miss_margin=_margin(m.row, m.binding),
+                       closest_miss_margins=", ".join(f"{c} {_margin(m.row, c):.3g}" for c in crit
+                                                      if _margin(m.row, c) is not None))
+        return [row]
+    out = []
+    for n, w in enumerate(a.windows, 1):
+        row = {**common, "window": n, "outcome": "window", "note": "; ".join(
+            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a, w))}
+        for side, e in (("lower", w.lower), ("upper", w.upper)):
+            row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
+                        f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
+        if w.flame is not None:
+            f = w.flame
+            row.update(flame_lower_edge=f.lower.value, flame_lower_kind=f.lower.kind,
+                       flame_upper_edge=f.upper.value, flame_upper_kind=f.upper.kind,
+                       flame_upper_binding=f.upper.binding, flame_lower_binding=f.lower.binding)
+            inside = [(b0, b1) for b0, b1 in s.band if b0 <= w.upper.value + 1e-9 and b1 >= w.lower.value - 1e-9]
+            if inside:
+                row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
+        out.append(row)
+    return out
 
 
-def kept(study) -> str:
-    """What the study's limits keep, in words: 'flashback >= 1.5, blowoff >= 1.5 and the Wobbe band'."""
-    b, lim, gq = study.burner, study.limits, study.gas_quality
-    words = [f"{c} >= {getattr(b, CRITERIA[c][1]):g}" for c in lim.criteria]
-    if "blend_fraction" in lim.find and (gq.band_MJ_m3 is not None or gq.tolerance_percent is not None):
-        words.append("the Wobbe band")
-    return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
+def _margin(row: dict | None, criterion: str) -> float | None:
+    return None if row is None or criterion not in CRITERIA else row.get(CRITERIA[criterion][0])
 
 
-def _where(r: dict) -> str:
-    return f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K"
+def _failures(failures: list[tuple[float, str]]) -> str:
+    """'blowoff at 0; flashback at 0.3, 0.6' from (swept value, criterion or reason) pairs."""
+    by: dict[str, list[str]] = {}
+    for x, why in failures:
+        by.setdefault(why if why in CRITERIA else "no flame", []).append(f"{x:g}")
+    return "; ".join(f"{why} at {', '.join(xs)}" for why, xs in by.items())
 
 
-def limit_sentence(r: dict, study) -> str:
-    """The answer of one limits.csv row in one sentence (CLI and report).
+def _misses(a: Answer, w) -> list[str]:
+    return [f"no admissible mixture between {lo:.4g} and {hi:.4g} (at best {m.at:.4g}, {m.binding} margin "
+            f"{_margin(m.row, m.binding):.3g})" for lo, hi, m in a.misses if _margin(m.row, m.binding) is not None]
 
-    >>> r = dict(limit="max_blend_fraction", fuel="town gas", oxidizer="air", blend_with="hydrogen",
-    ...          blend_fraction=None, equivalence_ratio=1.1, pressure_bar=1.0, unburned_temperature_K=300.0,
-    ...          limit_value=0.2345, outcome="found", binding="flashback", margin_at_limit=1.503,
-    ...          wobbe_limit_blend_fraction=0.41, tolerance_reached=0.004, note="")
-    >>> from types import SimpleNamespace as NS
-    >>> limit_sentence(r, NS(burner=NS(name="rig", min_flashback_margin=1.5), blend_with="hydrogen"))
-    'town gas at phi 1.1, 1 bar, 300 K: rig takes at most 23.4 % hydrogen (flashback binds: margin 1.50 there, minimum 1.5); the Wobbe band allows 41.0 %'
-    """
-    b, blend = study.burner, study.blend_with or "blend gas"
-    v, why = r["limit_value"], r["binding"]
-    req = getattr(b, CRITERIA[why][1], None) if why in CRITERIA else None
-    margin = (f"margin {r['margin_at_limit']:.2f} there, minimum {req:g}"
-              if r.get("margin_at_limit") is not None and req is not None else "")
-    if r["limit"] == "max_blend_fraction":
-        head = f"{r['fuel']} at phi {r['equivalence_ratio']:g}, {_where(r)}: {b.name}"
-        wob = r.get("wobbe_limit_blend_fraction")
-        wob_txt = f"; the Wobbe band allows {100 * wob:.1f} %" if wob is not None and wob < 1.0 and why != "Wobbe band" else ""
-        note = r["note"] or ""
-        low = note[:note.index("); ") + 1] + " and" if note.startswith("needs more than") and "); " in note else ""
-        low = low.replace("needs more than", f"needs more than {blend} fraction", 1)
-        if r["outcome"] == "found" and why == "Wobbe band":
-            return f"{head} {low + ' ' if low else ''}takes {100 * v:.1f} % {blend}, where the Wobbe index leaves the band (binding)"
-        if r["outcome"] == "found":
-            return f"{head} {low + ' ' if low else ''}takes at most {100 * v:.1f} % {blend} ({why} binds: {margin}){wob_txt}"
-        if r["outcome"] == "whole range":
-            return f"{head} {low + ' ' if low else ''}keeps every margin up to 100 % {blend}"
-        if r["outcome"] == "none admissible":
-            return f"{head}: not admissible ({r['note']})"
-        return f"{head}: search stopped ({r['note']})"
-    head = f"{gas_label(r)}, {_where(r)}: {b.name}"
-    side = "leanest" if r["limit"].startswith("lean") else "richest"
-    past = "leaner" if side == "leanest" else "richer"
-    if r["outcome"] == "found":
-        return f"{head}: {side} admissible phi {v:.3f} ({why} binds {past}: {margin})"
-    if r["outcome"] == "beyond swept range":
-        return f"{head}: admissible at the {side} swept phi {v:g}; the window may reach further"
-    if r["outcome"] == "none admissible":
-        return f"{head}: no swept phi keeps every margin ({why} misses most narrowly)"
-    return f"{head}: {side} edge not found ({r['note']})"
+
+def _band_words(a: Answer, band) -> list[str]:
+    if band is None:
+        return []
+    if not band:
+        return ["every blend fraction from 0 to 1 lies outside the Wobbe band"]
+    if a.flame_windows:
+        spans = ", ".join(f"{w.lower.value:.4g}-{w.upper.value:.4g}" for w in a.flame_windows)
+        inside = ", ".join(f"{b0:.4g}-{b1:.4g}" for b0, b1 in band)
+        return [f"the flame margins alone allow {spans}, outside the Wobbe band ({inside})"]
+    return []
 
 
 def planned_searches(study) -> dict[str, int]:
-    """How many limit searches the study's [limits] table starts, by kind, and the flames
-    they may need (for `check`): a blend search per (fuel, oxidizer, phi, p, T_u), up to
-    two window edges per (fuel, oxidizer, blend, p, T_u); each refines a bracket of one
-    sweep step to the tolerance, which takes about log2(step / tolerance) flames by
-    bisection and usually fewer by Brent's method (one more where the Wobbe bound or the
-    pure blend gas is tried)."""
+    """How many limit searches the study's [limits] table starts, by axis, and about how
+    many flames they need (for `check`): a blend search per (fuel, oxidizer, phi, p, T_u),
+    a phi search per (fuel, oxidizer, blend, p, T_u); each refines about two edges from a
+    bracket of one sweep step to the tolerance, about log2(step / tolerance) flames each by
+    bisection and usually fewer by Brent's method (a blend search tries the pure blend gas
+    once more). Interior windows between failing swept points cost more and are not in it."""
     lim = study.limits
     if lim is None:
         return {}
@@ -277,6 +296,7 @@ def planned_searches(study) -> dict[str, int]:
         out["blend_fraction"] = others * len(study.equivalence_ratios)
         out["flames"] += out["blend_fraction"] * (flames(study.blend_fractions, lim.tolerance["blend_fraction"]) + 1)
     if "equivalence_ratio" in lim.find:
-        out["equivalence_ratio"] = 2 * others * len(study.blend_fractions)
-        out["flames"] += out["equivalence_ratio"] * flames(study.equivalence_ratios, lim.tolerance["equivalence_ratio"])
+        out["equivalence_ratio"] = others * len(study.blend_fractions)
+        out["flames"] += 2 * out["equivalence_ratio"] * flames(study.equivalence_ratios,
+                                                               lim.tolerance["equivalence_ratio"])
     return out

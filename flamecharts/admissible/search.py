@@ -1,18 +1,35 @@
-"""Limit searches along one sweep axis: the largest admissible blend fraction, and the lean
-and rich edges of the admissible equivalence-ratio window.
+"""Admissible windows along one sweep axis (blend fraction or equivalence ratio), both edges.
 
-A point is admissible when every margin the [limits] table names is at or above the
-burner's minimum (and, along the blend axis, the Wobbe index lies inside the band).
-The searches work on the *limit function* of a flame row,
+A point is admissible when every margin the [limits] criteria name is at or above the
+burner's minimum. The searches work on the *limit function* of a flame row,
 
-    g = min over criteria of ln(margin / required margin)      (>= 0: admissible),
+    g = min over criteria c of g_c,   g_c = ln(margin_c / required margin_c)   (>= 0: admissible),
 
-whose sign change is the limit; the logarithm makes the power-law-like margins nearly
-linear in the swept quantity, which suits the interpolation steps of Brent's method.
-Each search brackets the sign change on the stored points of the sweep, then refines it
-with :func:`brent.brent_steps`; it is a generator that yields the value (blend fraction
-or equivalence ratio) it needs a flame at and is sent that flame's annotated row, so the
-driver can solve the flames of many searches together on the run's backend.
+whose sign changes are the edges of the admissible windows; the logarithm makes the
+power-law-like margins nearly linear in the swept quantity, which suits Brent's method.
+
+One search covers one condition (every other axis fixed). It classifies the stored swept
+points, then works on every interval between neighbours at once:
+
+- admissible on one side only: an edge, refined by Brent's root finding on g
+  (:func:`crossing`);
+- failing on both sides by *different* criteria (blowoff below, flashback above): g may
+  have a positive maximum inside, where the two limiting margins cross. The crossing is a
+  root of g_a - g_b (Brent again); a flame there that keeps every margin opens a window
+  whose two edges are then refined; otherwise the interval reports its closest miss;
+- failing on both sides by the *same* criterion: that criterion's log-margin could only
+  rise above both ends inside the interval if its maximum along the axis lies there. The
+  burner margins are monotone functions of S_L^2/alpha_u (critical velocity gradients,
+  Lewis & von Elbe 1987), which is monotone in hydrogen fraction and has a single maximum
+  in phi, so each g_c is quasi-concave or quasi-convex along either axis: a maximum
+  inside an interval can only sit next to the swept point where g_c is largest. Those
+  intervals get a bounded maximisation (Brent's minimiser on -g, :func:`brent.maximum_steps`);
+  the others cannot hold a window and cost no flame;
+- admissible on both sides: admissible throughout under the same property.
+
+Every search is a generator that yields the list of axis values it needs flames at and
+is sent their annotated rows in the same order, so the driver can solve the flames of
+all searches (and of all intervals of one search) together on the run's backend.
 """
 from __future__ import annotations
 
@@ -20,7 +37,7 @@ import math
 from dataclasses import dataclass, field
 from typing import Callable, Generator
 
-from .brent import Bracket, brent_steps
+from .brent import Bracket, brent_steps, maximum_steps
 
 #: criterion -> (margin column of the annotated row, the burner's minimum attribute).
 CRITERIA = {
@@ -28,14 +45,53 @@ CRITERIA = {
     "blowoff": ("blowoff_margin", "min_blowoff_margin"),
     "stabilizer": ("stabilizer_margin", "min_stabilizer_margin"),
 }
-#: Binding words when no burner margin binds.
+#: The closed-form criterion of the blend axis: the fuel gas's Wobbe index inside the band.
 WOBBE = "Wobbe band"
-NONE_IN_RANGE = "none in range"
+
+# How an edge of a window was settled.
+FOUND = "found"            # refined by root finding to the tolerance (a flame criterion binds past it)
+WOBBE_EDGE = "Wobbe band"  # where the Wobbe index leaves the band (closed form, to 1e-6)
+SWEPT_END = "swept end"    # admissible at the first or last swept value: the window may reach further
+RANGE_END = "range end"    # admissible at the end of the axis itself (blend fraction 0 or 1)
+STOPPED = "stopped"        # no burning flame inside the bracket, or the flame budget ran out
+
+#: Per-criterion log-margins of a row: ({criterion: g_c}, '') or (None, why it has none).
+Parts = Callable[[dict], tuple["dict[str, float] | None", str]]
+
+
+def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
+    """g_c = ln(margin_c / required_c) of every criterion of one annotated row; (None, why)
+    when the row has no burning flame or lacks a margin.
+
+    >>> from types import SimpleNamespace as NS
+    >>> b = NS(min_flashback_margin=1.5, min_blowoff_margin=1.5)
+    >>> parts, _ = limit_parts({"status": "ok", "flashback_margin": 3.0, "blowoff_margin": 1.2}, b,
+    ...                        ("flashback", "blowoff"))
+    >>> {c: round(g, 4) for c, g in parts.items()}
+    {'flashback': 0.6931, 'blowoff': -0.2231}
+    """
+    if row.get("status") != "ok":
+        return None, f"{row.get('status')}: {row.get('message', '')}"
+    out = {}
+    for c in criteria:
+        col, attr = CRITERIA[c]
+        m = row.get(col)
+        if m is None or not m > 0:
+            return None, f"no {col.replace('_', ' ')}"
+        out[c] = math.log(m / getattr(burner, attr))
+    return out, ""
+
+
+def lowest(parts: dict[str, float] | None, why: str = "") -> tuple[float | None, str]:
+    """(g, the criterion giving it) from per-criterion log-margins; (None, why) without them."""
+    if parts is None:
+        return None, why
+    c = min(parts, key=parts.get)
+    return parts[c], c
 
 
 def limit_value(row: dict, burner, criteria: tuple[str, ...]) -> tuple[float | None, str]:
-    """(g, criterion giving it) of one annotated row: g = min ln(margin / required) over
-    ``criteria`` (>= 0: admissible); (None, why) when the row has no burning flame.
+    """(g, criterion giving it) of one annotated row (>= 0: admissible); (None, why) without a flame.
 
     >>> from types import SimpleNamespace as NS
     >>> b = NS(min_flashback_margin=1.5, min_blowoff_margin=1.5)
@@ -44,46 +100,67 @@ def limit_value(row: dict, burner, criteria: tuple[str, ...]) -> tuple[float | N
     >>> round(g, 4), which
     (-0.2231, 'blowoff')
     """
-    if row.get("status") != "ok":
-        return None, f"{row.get('status')}: {row.get('message', '')}"
-    best, which = math.inf, ""
-    for c in criteria:
-        col, attr = CRITERIA[c]
-        m = row.get(col)
-        if m is None or not m > 0:
-            return None, f"no {col.replace('_', ' ')}"
-        g = math.log(m / getattr(burner, attr))
-        if g < best:
-            best, which = g, c
-    return best, which
+    return lowest(*limit_parts(row, burner, criteria))
 
 
 @dataclass
-class Found:
-    """What one search ends with (the driver turns it into a limits.csv row)."""
+class Edge:
+    """One edge of an admissible window."""
 
-    outcome: str                 # found | whole range | beyond swept range | none admissible | stopped
-    value: float | None          # the limit: the admissible end of the final bracket
-    binding: str                 # the criterion that fails just past the limit, WOBBE or NONE_IN_RANGE
-    row: dict | None             # the flame row at ``value`` (None where the Wobbe band alone decides)
-    bracket: tuple[float, float] | None = None   # (admissible end, failing end)
-    evaluations: int = 0         # flames asked for by the search (stored ones count)
-    converged: bool = True
+    value: float | None          # the admissible end of the final bracket
+    kind: str                    # FOUND, WOBBE_EDGE, SWEPT_END, RANGE_END or STOPPED
+    binding: str = ""            # the criterion failing just past the edge ('' at a swept or range end)
+    row: dict | None = None      # the flame row at ``value`` (None at a Wobbe edge)
+    failing: float | None = None  # the failing end of the final bracket
     note: str = ""
-    evaluated: list = field(default_factory=list)   # [(x, g or None)] of the flames the search asked for
+    evaluated: list = field(default_factory=list)   # [(x, g or None)] of the flames asked for
 
 
+@dataclass
+class Miss:
+    """The best point of an interval (or a whole search) that keeps no window: where g is largest."""
+
+    at: float
+    g: float
+    binding: str
+    row: dict
+
+
+@dataclass
+class Window:
+    lower: Edge
+    upper: Edge
+    flame: "Window | None" = None   # the window of the flame criteria alone that holds it (blend axis)
+
+
+@dataclass
+class Answer:
+    """What one search ends with: its windows (lean/low to rich/high), or the closest miss."""
+
+    windows: list[Window]
+    miss: Miss | None                        # the best point searched, where no window was found
+    misses: list[tuple[float, float, Miss]]  # (a, b, best) of failing intervals searched without a window
+    failures: list[tuple[float, str]]        # (swept value, criterion or reason) of every swept point that fails
+    evaluated: list = field(default_factory=list)
+    stopped: list[str] = field(default_factory=list)  # notes of intervals that could not be settled
+    flame_windows: list[Window] = field(default_factory=list)  # before the Wobbe band (blend axis)
+    band: list[tuple[float, float]] | None = None               # Wobbe band intervals (blend axis)
+
+
+# ---- one interval ---------------------------------------------------------------------------------------
 def crossing(x_good: float, row_good: dict, x_bad: float, row_bad: dict, tol: float, max_flames: int,
-             value: Callable[[dict], tuple[float | None, str]]) -> Generator[float, dict, Found]:
-    """Refine a sign change of the limit function between an admissible ``x_good`` and a
-    failing ``x_bad`` (either order) to a bracket at most ``tol`` wide. Yields x, is sent
-    the flame row at x. A flame that does not burn or fails stops the search: the row
-    keeps the bracket known so far and says why (never an interpolated number)."""
+             parts: Parts) -> Generator[float, dict, Edge]:
+    """Refine a sign change of g between an admissible ``x_good`` and a failing ``x_bad``
+    (either order) to a bracket at most ``tol`` wide. Yields x, is sent the flame row at x.
+    A flame that does not burn stops the search: the edge keeps the bracket known so far and
+    says why (never an interpolated number)."""
+    value = (lambda r: lowest(*parts(r)))
     g_good, _ = value(row_good)
     g_bad, why_bad = value(row_bad)
     rows = {x_good: row_good, x_bad: row_bad}
     seen: list = []
-    gen = brent_steps(x_good, g_good, x_bad, g_bad, tol, max_flames)
+    # g exactly 0 at the good end (on the other edge of a narrow window) must not end the search there
+    gen = brent_steps(x_good, max(g_good, 1e-300), x_bad, g_bad, tol, max_flames)
     good, bad = x_good, x_bad
     try:
         x = next(gen)
@@ -92,129 +169,237 @@ def crossing(x_good: float, row_good: dict, x_bad: float, row_bad: dict, tol: fl
             g, why = value(row)
             seen.append((x, g))
             if g is None:
-                return Found("stopped", good, why_bad, rows[good], (good, bad), len(seen), False,
-                             f"no burning flame at {x:.4g} ({why}): the limit lies between {good:.4g} and {bad:.4g}",
-                             seen)
+                return Edge(good, STOPPED, why_bad, rows[good], bad,
+                            f"no burning flame at {x:.4g} ({why}): the edge lies between {good:.4g} and {bad:.4g}", seen)
             rows[x] = row
             if g >= 0:
                 good = x
             else:
-                bad, why_bad = x, value(row)[1]
+                bad, why_bad = x, why
             x = gen.send(g)
     except StopIteration as stop:
         br: Bracket = stop.value
     binding = value(rows[br.bad])[1]
-    note = "" if br.converged else (f"stopped after {max_flames} flames with the bracket "
-                                    f"{br.width:.3g} wide (limits.max_flames_per_search)")
-    return Found("found" if br.converged else "stopped", br.good, binding, rows[br.good],
-                 (br.good, br.good if br.width == 0 else br.bad),
-                 br.evaluations, br.converged, note, seen)
+    if not br.converged:
+        return Edge(br.good, STOPPED, binding, rows[br.good], br.bad,
+                    f"stopped after {max_flames} flames with the bracket {br.width:.3g} wide "
+                    "(limits.max_flames_per_search)", seen)
+    return Edge(br.good, FOUND, binding, rows[br.good], br.good if br.width == 0 else br.bad, "", seen)
 
 
-def blend_search(swept: list[tuple[float, dict]], x_wobbe: float, wobbe_side: str, tol: float, max_flames: int,
-                 value: Callable[[dict], tuple[float | None, str]]) -> Generator[float, dict, Found]:
-    """The largest admissible blend fraction of one condition.
+@dataclass
+class _Interval:
+    """What the search of one interval between two failing swept points found."""
 
-    ``swept``: (blend fraction, annotated row) of the stored sweep at this condition;
-    ``x_wobbe``: the largest fraction whose Wobbe index stays inside the band (1.0 when
-    it never leaves it; the band needs no flame, so it bounds the bracket first);
-    ``wobbe_side``: 'low' or 'high', the band edge it leaves by. Walks up from the lowest
-    swept fraction to the first one that fails, then :func:`crossing` refines; when every
-    swept fraction holds, the Wobbe bound (or 1.0) is tried with one flame.
+    window: Window | None = None
+    miss: Miss | None = None
+    note: str = ""
+    evaluated: list = field(default_factory=list)
+
+
+def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Parts,
+           to_send: Callable[[dict[str, float], float], float]) -> Generator[float, dict, tuple]:
+    """Walk an x-proposing generator (root or maximum finder) between two failing points
+    until a flame keeps every margin. Returns (x_ok, row_ok, best Miss, evaluated, note)."""
+    ga, ca = lowest(*parts(ra))
+    gb, cb = lowest(*parts(rb))
+    best = Miss(xa, ga, ca, ra) if ga >= gb else Miss(xb, gb, cb, rb)
+    seen: list = []
+    try:
+        x = next(gen)
+        while True:
+            row = yield x
+            P, why = parts(row)
+            g, c = lowest(P, why)
+            seen.append((x, g))
+            if g is None:
+                gen.close()
+                return None, None, best, seen, f"no burning flame at {x:.4g} ({why}) between {xa:.4g} and {xb:.4g}"
+            if g > best.g:
+                best = Miss(x, g, c, row)
+            if g >= 0:
+                gen.close()
+                return x, row, best, seen, ""
+            x = gen.send(to_send(P, g))
+    except StopIteration:
+        return None, None, best, seen, ""
+
+
+def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: int,
+             parts: Parts) -> Generator[float, dict, _Interval]:
+    """Look for a window strictly between two swept points that both fail.
+
+    Different criteria fail at the two ends: the crossing of their log-margins (a root of
+    g_a - g_b, where min(g_a, g_b) peaks); the same criterion: a bounded maximisation of g.
+    If a flame there keeps every margin, both edges are refined by :func:`crossing`."""
+    Pa, Pb = parts(ra)[0], parts(rb)[0]
+    ca, cb = lowest(Pa)[1], lowest(Pb)[1]
+    seen: list = []
+    x_ok = None
+    if ca != cb:
+        ha, hb = Pa[ca] - Pa[cb], Pb[ca] - Pb[cb]
+        if (ha >= 0) != (hb >= 0):
+            gen = brent_steps(xa, ha, xb, hb, tol, max_flames)
+            x_ok, row_ok, best, seen, note = yield from _probe(gen, xa, ra, xb, rb, parts,
+                                                               lambda P, g: P[ca] - P[cb])
+            if note:
+                return _Interval(miss=best, note=note, evaluated=seen)
+            if x_ok is None and best.binding in (ca, cb):
+                return _Interval(miss=best, evaluated=seen)
+            # a third criterion binds at the crossing: the maximum of g may lie elsewhere
+    if x_ok is None:
+        gen = maximum_steps(xa, xb, tol, max_flames)
+        x_ok, row_ok, best, more, note = yield from _probe(gen, xa, ra, xb, rb, parts, lambda P, g: g)
+        seen += more
+        if x_ok is None:
+            return _Interval(miss=best, note=note, evaluated=seen)
+    lower = yield from crossing(x_ok, row_ok, xa, ra, tol, max_flames, parts)
+    upper = yield from crossing(x_ok, row_ok, xb, rb, tol, max_flames, parts)
+    return _Interval(window=Window(lower, upper), evaluated=seen + lower.evaluated + upper.evaluated)
+
+
+def may_peak_inside(i: int, gs: list[dict[str, float] | None], criterion: str) -> bool:
+    """Whether ``criterion``'s log-margin can rise above both ends of the interval (i, i+1):
+    only next to the swept point where it is largest, given that each margin is quasi-concave
+    or quasi-convex along the axis (see the module docstring).
+
+    >>> gs = [{"blowoff": -1.0}, {"blowoff": -0.5}, {"blowoff": -0.2}, {"blowoff": -0.4}]
+    >>> [may_peak_inside(i, gs, "blowoff") for i in range(3)]
+    [False, True, True]
     """
-    cands = sorted((x, r) for x, r in swept if x <= x_wobbe + 1e-12)
-    if not cands:
-        return Found("none admissible", None, WOBBE, None,
-                     note=f"every swept fraction lies outside the Wobbe band (it leaves it on the {wobbe_side} "
-                          f"side at {x_wobbe:.4g})")
-    # a blend that fails at the lowest fractions and holds higher up (hydrogen raising a lean
-    # flame's blowoff margin) has a lower edge too: it is named in the note, from the sweep
-    start = next((i for i, (x, r) in enumerate(cands) if (value(r)[0] or -1.0) >= 0), None)
-    if start is None:
-        g0, why0 = value(cands[0][1])
-        return Found("none admissible", None, why0, cands[0][1],
-                     note=f"{why0} margin below its minimum at every swept fraction up to {cands[-1][0]:.4g}"
-                     if g0 is not None else f"no burning flame at {cands[0][0]:.4g} ({why0})")
-    lower = ("" if start == 0 else f"needs more than {cands[start - 1][0]:.4g} ({value(cands[start - 1][1])[1]} "
-             f"margin below its minimum there; admissible from {cands[start][0]:.4g} of the swept fractions); ")
-    last_good = None
-    for x, row in cands[start:]:
-        g, why = value(row)
-        if g is None:
-            return Found("stopped", last_good[0], why, last_good[1], (last_good[0], x), 0, False,
-                         lower + f"no burning flame at {x:.4g} ({why}): the limit lies between {last_good[0]:.4g} "
-                         f"and {x:.4g}")
-        if g < 0:
-            found = yield from crossing(last_good[0], last_good[1], x, row, tol, max_flames, value)
-            found.note = lower + found.note
-            return found
-        last_good = (x, row)
-    x0, row0 = last_good
-    top = min(x_wobbe, 1.0)
-    binding = WOBBE if x_wobbe < 1.0 else NONE_IN_RANGE
-    if top <= x0 + 1e-12:
-        return Found("found" if binding == WOBBE else "whole range", x0, binding, row0, None, 0, True,
-                     lower + _wobbe_note(x_wobbe, wobbe_side))
-    row_top = yield top
-    g, why = value(row_top)
-    if g is None:
-        return Found("stopped", x0, why, row0, (x0, top), 1, False,
-                     lower + f"no burning flame at {top:.4g} ({why}): the limit lies between {x0:.4g} and {top:.4g}", [(top, None)])
-    if g >= 0:
-        return Found("found" if binding == WOBBE else "whole range", top, binding, row_top, None, 1, True,
-                     lower + _wobbe_note(x_wobbe, wobbe_side), [(top, g)])
-    found = yield from crossing(x0, row0, top, row_top, tol, max_flames - 1, value)
-    found.note = lower + found.note
-    found.evaluations += 1
-    found.evaluated.insert(0, (top, g))
-    return found
+    vals = [(j, P[criterion]) for j, P in enumerate(gs) if P is not None and criterion in P]
+    if not vals:
+        return False
+    k = max(vals, key=lambda t: t[1])[0]
+    return k in (i, i + 1)
 
 
-def _wobbe_note(x_wobbe: float, side: str) -> str:
-    if x_wobbe >= 1.0:
-        return "every margin holds up to the pure blend gas"
-    return f"the Wobbe index leaves the band on the {side} side at {x_wobbe:.4g}"
+# ---- one search -----------------------------------------------------------------------------------------
+def lockstep(gens: list[Generator]) -> Generator[list[float], list[dict], list]:
+    """Run several one-flame-at-a-time generators side by side: yield the list of their
+    open requests, be sent the rows in the same order; return their results in order."""
+    results: list = [None] * len(gens)
+    asks: dict[int, float] = {}
+    for i, g in enumerate(gens):
+        try:
+            asks[i] = next(g)
+        except StopIteration as stop:
+            results[i] = stop.value
+    while asks:
+        order = list(asks)
+        rows = yield [asks[i] for i in order]
+        for i, row in zip(order, rows):
+            try:
+                asks[i] = gens[i].send(row)
+            except StopIteration as stop:
+                results[i] = stop.value
+                del asks[i]
+    return results
 
 
-def window_searches(swept: list[tuple[float, dict]], value: Callable[[dict], tuple[float | None, str]]
-                    ) -> tuple[list[tuple[str, float, dict, float, dict]], list[Found], list[str]]:
-    """Where the admissible equivalence-ratio window of one blend has its edges.
+def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max_flames: int,
+                  axis_range: tuple[float, float] | None = None) -> Generator[list[float], list[dict], Answer]:
+    """Every admissible window of one condition along one axis, both edges refined.
 
-    Returns (pairs, ends, kinds): ``pairs`` are (edge kind, phi admissible, its row,
-    phi failing, its row) for each neighbouring pair of swept points whose admissibility
-    differs (lean edge: the leaner one fails; rich edge: the richer one fails), each to
-    be refined by :func:`crossing`; ``ends`` are the edges that lie beyond the swept range
-    (the leanest or richest swept point is admissible) or the finding that no swept point
-    is admissible; ``kinds`` names each of ``ends``.
+    ``swept``: (axis value, annotated row) of the stored sweep at this condition;
+    ``axis_range``: the ends of the axis itself (blend fraction (0, 1)), or None (phi: the
+    window may reach beyond the swept range). An end of the axis that was not swept (the
+    pure blend gas) is asked for first, one flame, and searched like the swept points.
     """
     pts = sorted(swept, key=lambda t: t[0])
-    gs = [(x, r, *value(r)) for x, r in pts]
-    ok = [g is not None and g >= 0 for _, _, g, _ in gs]
-    pairs, ends, kinds = [], [], []
-    if not any(ok):
-        nearest = max((t for t in gs if t[2] is not None), key=lambda t: t[2], default=None)  # closest to holding
-        ends.append(Found("none admissible", None, nearest[3] if nearest else "no burning flame",
-                          nearest[1] if nearest else None, note="no swept equivalence ratio keeps every margin"))
-        kinds.append("lean edge")
-        return pairs, ends, kinds
-    if ok[0]:
-        ends.append(Found("beyond swept range", gs[0][0], NONE_IN_RANGE, gs[0][1],
-                          note=f"admissible at the leanest swept equivalence ratio {gs[0][0]:g}"))
-        kinds.append("lean edge")
-    for (xa, ra, ga, wa), (xb, rb, gb, wb), oka, okb in zip(gs, gs[1:], ok, ok[1:]):
-        if oka == okb:
+    ends = [] if axis_range is None else [x for x in axis_range if all(abs(x - p) > 1e-12 for p, _ in pts)]
+    if ends:  # the axis goes beyond the swept values: its ends are part of the answer
+        rows = yield ends
+        pts = sorted(pts + list(zip(ends, rows)), key=lambda t: t[0])
+    Ps = [parts(r) for _, r in pts]
+    extra = [(x, lowest(*parts(r))[0]) for x, r in zip(ends, rows)] if ends else []
+    gs = [lowest(*P) for P in Ps]
+    state = ["none" if g is None else "ok" if g >= 0 else "fail" for g, _ in gs]
+    tasks: dict[int, Generator] = {}
+    for i in range(len(pts) - 1):
+        (xa, ra), (xb, rb) = pts[i], pts[i + 1]
+        pair = (state[i], state[i + 1])
+        if pair == ("ok", "fail"):
+            tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, parts)
+        elif pair == ("fail", "ok"):
+            tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
+        elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
+                                           or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):
+            tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts)
+    done = yield from lockstep(list(tasks.values()))
+    return assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
+
+
+def _end(x: float, row: dict, axis_range: tuple[float, float] | None) -> Edge:
+    at_end = axis_range is not None and min(abs(x - axis_range[0]), abs(x - axis_range[1])) < 1e-12
+    return Edge(x, RANGE_END if at_end else SWEPT_END, "", row)
+
+
+def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], state: list[str],
+             done: dict[int, object], axis_range, extra: list) -> Answer:
+    """The windows of one search from its classified points and the results of its intervals."""
+    windows: list[Window] = []
+    misses, stopped, evaluated = [], [], list(extra)
+    lower: Edge | None = _end(*pts[0], axis_range) if state[0] == "ok" else None
+    for i in range(len(pts) - 1):
+        (xa, ra), (xb, rb) = pts[i], pts[i + 1]
+        res = done.get(i)
+        if res is not None:
+            evaluated += res.evaluated
+        pair = (state[i], state[i + 1])
+        if pair == ("ok", "fail"):
+            windows.append(Window(lower, res))
+            lower = None
+        elif pair == ("fail", "ok"):
+            lower = res
+        elif pair == ("ok", "none"):
+            windows.append(Window(lower, Edge(xa, STOPPED, gs[i + 1][1], ra, xb,
+                                              f"no burning flame at {xb:.4g} ({gs[i + 1][1]}): the edge lies "
+                                              f"between {xa:.4g} and {xb:.4g}")))
+            lower = None
+        elif pair == ("none", "ok"):
+            lower = Edge(xb, STOPPED, gs[i][1], rb, xa, f"no burning flame at {xa:.4g} ({gs[i][1]}): the edge "
+                                                        f"lies between {xa:.4g} and {xb:.4g}")
+        elif res is not None:  # an interior search between two failing points
+            if res.window is not None:
+                windows.append(res.window)
+            elif res.miss is not None:
+                misses.append((xa, xb, res.miss))
+            if res.note:
+                stopped.append(res.note)
+    if lower is not None:
+        windows.append(Window(lower, _end(*pts[-1], axis_range)))
+    for w in windows:
+        stopped += [e.note for e in (w.lower, w.upper) if e.kind == STOPPED and e.note]
+    burning = [(x, g, c, r) for (x, r), (g, c) in zip(pts, gs) if g is not None]
+    miss = None
+    if not windows:
+        cands = [m for _, _, m in misses] + [Miss(x, g, c, r) for x, g, c, r in burning]
+        miss = max(cands, key=lambda m: m.g, default=None)
+    failures = [(x, c) for (x, _), (g, c) in zip(pts, gs) if g is None or g < 0]
+    return Answer(windows, miss, misses, failures, evaluated, stopped)
+
+
+# ---- the Wobbe band as a criterion of the blend axis -----------------------------------------------------
+def within_band(windows: list[Window], band: list[tuple[float, float]]) -> list[Window]:
+    """The parts of flame windows that also lie inside the Wobbe band intervals; an edge the
+    band sets is a WOBBE_EDGE. Each result keeps the flame window it came from.
+
+    >>> e = lambda x, k=FOUND: Edge(x, k, "flashback")
+    >>> [(w.lower.value, w.upper.value, w.upper.kind) for w in within_band([Window(e(0.0, RANGE_END), e(0.6))],
+    ...                                                                    [(0.0, 0.404)])]
+    [(0.0, 0.404, 'Wobbe band')]
+    """
+    out = []
+    for w in windows:
+        lo, hi = w.lower.value, w.upper.value
+        if lo is None or hi is None:
             continue
-        kind = "rich edge" if oka else "lean edge"
-        good, bad = ((xa, ra), (xb, rb)) if oka else ((xb, rb), (xa, ra))
-        if (gb if oka else ga) is None:  # the failing side has no flame: no root to refine
-            why = wb if oka else wa
-            ends.append(Found("stopped", good[0], why, good[1], (good[0], bad[0]), 0, False,
-                              f"no burning flame at {bad[0]:g} ({why}): the edge lies between {good[0]:g} and {bad[0]:g}"))
-            kinds.append(kind)
-        else:
-            pairs.append((kind, good[0], good[1], bad[0], bad[1]))
-    if ok[-1]:
-        ends.append(Found("beyond swept range", gs[-1][0], NONE_IN_RANGE, gs[-1][1],
-                          note=f"admissible at the richest swept equivalence ratio {gs[-1][0]:g}"))
-        kinds.append("rich edge")
-    return pairs, ends, kinds
+        for b0, b1 in band:
+            a, b = max(lo, b0), min(hi, b1)
+            if a > b:
+                continue
+            lower = w.lower if lo >= b0 else Edge(b0, WOBBE_EDGE, WOBBE)
+            upper = w.upper if hi <= b1 else Edge(b1, WOBBE_EDGE, WOBBE)
+            out.append(Window(lower, upper, flame=w))
+    return out

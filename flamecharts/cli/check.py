@@ -5,7 +5,8 @@ from pathlib import Path
 
 from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
-from ..admissible.driver import kept, planned_searches
+from ..admissible.driver import planned_searches
+from ..admissible.words import kept
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
@@ -113,10 +114,10 @@ def _limits_line(study, timings: dict, jobs) -> str:
     lim = study.limits
     asks = []
     if plan["blend_fraction"]:
-        asks.append(f"the largest {study.blend_with} fraction at {plan['blend_fraction']} settings "
-                    f"(to {lim.tolerance['blend_fraction']:g})")
+        asks.append(f"the admissible {study.blend_with} fractions (both edges of every window) at "
+                    f"{plan['blend_fraction']} settings (to {lim.tolerance['blend_fraction']:g})")
     if plan["equivalence_ratio"]:
-        asks.append(f"up to {plan['equivalence_ratio']} equivalence-ratio window edges "
+        asks.append(f"the admissible equivalence-ratio windows at {plan['equivalence_ratio']} settings "
                     f"(to {lim.tolerance['equivalence_ratio']:g})")
     secs, _ = flame_seconds(len(study.atoms), timings)
     t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)

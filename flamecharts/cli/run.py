@@ -7,7 +7,7 @@ from collections import Counter
 from pathlib import Path
 
 from ..columns import gas_label
-from ..admissible.driver import kept, limit_sentence
+from ..admissible.words import kept, limit_sentence, search_flames
 from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
 from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences
 from ..outcome import Status
@@ -102,7 +102,7 @@ def _print_limits(study, summary) -> None:
     if not summary.limits:
         return
     print(f"Limits ({study.burner.name}; keeping {kept(study)}"
-          + f"; {sum(r['flames_evaluated'] for r in summary.limits)} flames beyond the sweep, "
+          + f"; {search_flames(summary.limits)} flames beyond the sweep, "
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:
         print("  " + (f"{r['mechanism']}: " if study.mechanisms else "") + limit_sentence(r, study))

@@ -13,7 +13,7 @@ from statistics import median
 from pathlib import Path
 
 from .._version import __version__
-from ..admissible.driver import limit_sentence
+from ..admissible.words import limit_sentence, search_flames
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
@@ -126,6 +126,53 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
                 + (" ..." if len(bad) > 6 else "")])
+    return out
+
+
+#: Conditions listed in the key numbers' admissible ranges (the rest: limits.csv).
+MAX_KEY_LIMITS = 8
+
+
+def _span(r: dict) -> str:
+    """'15.2-18.4 %' or 'φ 0.689-0.731' of one window row (edges left open marked with ≥ / ≤)."""
+    lo = ("≤ " if r["lower_kind"] == "swept end" else "") + _axis_value(r, r["lower_edge"])
+    hi = ("≥ " if r["upper_kind"] == "swept end" else "") + _axis_value(r, r["upper_edge"])
+    return f"{lo} to {hi}"
+
+
+def _axis_value(r: dict, v: float) -> str:
+    return f"{100 * v:.1f} %" if r["axis"] == "blend_fraction" else f"φ {v:.3f}"
+
+
+def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
+    """The admissible range of every searched condition, first of the key numbers: the
+    blend fractions the burner takes (else the phi windows), with what binds at each edge."""
+    axis = "blend_fraction" if any(r["axis"] == "blend_fraction" for r in limits) else "equivalence_ratio"
+    mine = [r for r in limits if r["axis"] == axis]
+    groups: dict[tuple, list[dict]] = {}
+    for r in mine:
+        groups.setdefault((r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
+                           r["unburned_temperature_K"]), []).append(r)
+    what = (f"Admissible {study.blend_with} fraction" if axis == "blend_fraction" else "Admissible φ window")
+    out = []
+    for key, rs in list(groups.items())[:MAX_KEY_LIMITS]:
+        r0 = rs[0]
+        where = (f"{r0['fuel']}, φ {r0['equivalence_ratio']:g}" if axis == "blend_fraction" else gas_label(r0)) + \
+            f", {r0['pressure_bar']:g} bar, {r0['unburned_temperature_K']:g} K"
+        wins = [r for r in rs if r["outcome"] == "window"]
+        if wins:
+            value = "; ".join(_span(r) for r in wins)
+            binds = sorted({r[f"{s}_binding"] for r in wins for s in ("lower", "upper") if r[f"{s}_binding"]})
+            where += f" ({', '.join(binds)} bind{'s' if len(binds) == 1 else ''})" if binds else " (nothing binds)"
+        elif r0["outcome"] == "none admissible":
+            value = "none"
+            if r0.get("closest_miss_at") is not None:
+                where += f" (closest at {_axis_value(r0, r0['closest_miss_at'])}: {r0['closest_miss_margins']})"
+        else:
+            value = "not settled"
+        out.append([what, value, where])
+    if len(groups) > MAX_KEY_LIMITS:
+        out.append([what, "...", f"{len(groups) - MAX_KEY_LIMITS} more conditions in limits.csv and under Limits"])
     return out
 
 
@@ -275,18 +322,17 @@ def _mechanisms_section(study, comparison) -> list[str]:
                       [[s.mechanism, mechanism_scope(s.mechanism_path)] for s in comparison.studies]) + "</div>"]
     searches: dict[tuple, dict[str, str]] = {}
     for r in comparison.limits:
-        key = (r["limit"], f"{gas_label(r)} in {r['oxidizer']}", r["equivalence_ratio"], r["pressure_bar"],
+        key = (r["axis"], f"{gas_label(r)} in {r['oxidizer']}", r["equivalence_ratio"], r["pressure_bar"],
                r["unburned_temperature_K"])
-        v = r["limit_value"]
-        searches.setdefault(key, {})[r["mechanism"]] = ("" if v is None else
-                                                       f"{100 * v:.3g} %" if r["limit"] == "max_blend_fraction"
-                                                       else f"φ {v:.3g}") + f" ({r['outcome']})"
+        text = _span(r) if r["outcome"] == "window" else r["outcome"]
+        got = searches.setdefault(key, {})
+        got[r["mechanism"]] = f"{got[r['mechanism']]}; {text}" if r["mechanism"] in got else text
     if searches:
-        rows_l, more_l = _first([[k[0].replace("_", " "), k[1], f"{k[2]:g}" if k[0] == "max_blend_fraction" else "",
+        rows_l, more_l = _first([[k[0].replace("_", " "), k[1], f"{k[2]:g}" if k[0] == "blend_fraction" else "",
                                   f"{k[3]:g}", f"{k[4]:g}", *(v.get(m, "") for m in names)]
                                  for k, v in searches.items()], "limits.csv")
         parts.append("<div class='keep'><h3>Limits under each mechanism</h3>"
-                     + _table(["limit", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4}) + more_l
+                     + _table(["admissible window along", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4}) + more_l
                      + "</div>")
     return parts
 
@@ -416,14 +462,20 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
     out = ["<h2 id='limits'>Limits</h2>", "<ul>"]
     out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in listed]
     out.append("</ul>" + more)
-    flames = sum(r["flames_evaluated"] for r in limits)
-    out.append(f"<p>Found by Brent's method between the swept points (the Wobbe band, which needs no flame, "
-               f"bounds the blend search first); each step is a flame warm-started from the nearest stored one "
-               f"and stored like any point ({flames} flames beyond the sweep). Each limit is the admissible end "
+    flames = search_flames(limits)
+    out.append(f"<p>Each search runs along one axis with every other setting fixed. Between neighbouring swept "
+               f"points whose admissibility differs, the edge is refined by Brent's method; between two points that "
+               f"both fail by different criteria (blowoff below, flashback above), the crossing of the two margins is "
+               f"looked for first, since a narrow window may hide there; where one criterion fails at both ends, "
+               f"only the intervals next to that criterion's best swept point are searched (each margin rises and "
+               f"falls at most once along an axis). Each step is a flame warm-started from the sweep's nearest "
+               f"flame and stored like any point ({flames} flames beyond the sweep). Each edge is the admissible end "
                f"of a bracket at most {lim.tolerance['blend_fraction']:g} wide in blend fraction and "
-               f"{lim.tolerance['equivalence_ratio']:g} in equivalence ratio (limits.csv gives both ends and how "
-               "each search ended). A limit inherits every uncertainty of the margins it keeps: it is a screening "
-               "estimate; confirm it by test on the burner.</p>")
+               f"{lim.tolerance['equivalence_ratio']:g} in equivalence ratio (limits.csv gives both ends of every "
+               "window, what binds past each and how each search ended). The Wobbe band, where it is a criterion, "
+               "needs no flame: a window it cuts says what the flame margins alone would allow. A limit inherits "
+               "every uncertainty of the margins it keeps: it is a screening estimate; confirm it by test on the "
+               "burner.</p>")
     return out
 
 
@@ -467,7 +519,8 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
                      "<a href='#mechanisms'>Mechanisms compared</a> shows how far the others differ.</p>")
     parts += _study_section(study, rows, gases)
 
-    parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], key_numbers(study, rows), {1}))
+    parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], limit_key_numbers(study, limits)
+                                                 + key_numbers(study, rows), {1}))
     summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
         b = study.burner

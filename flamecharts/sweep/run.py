@@ -101,16 +101,19 @@ def unique_points(pts: list[Point]) -> list[Point]:
     return list({p.key: p for p in pts}.values())
 
 
-def warm_plan(store: Store, unique: list[Point]) -> WarmPlan:
+def warm_plan(store: Store, unique: list[Point], only: set[str] | None = None) -> WarmPlan:
     """The warm-start tree of a study's distinct points against its store.
 
     The tree spans ALL points of the study, stored ones included, and takes as extra
     sources only stored flames of other studies: a resumed run then starts every point
     from the same neighbour's profile as an uninterrupted run would (read from the store
-    when that neighbour is stored), so it gives the same answers.
+    when that neighbour is stored), so it gives the same answers. ``only`` restricts those
+    extra sources to the given keys (the limit searches take the sweep's flames only, so
+    that their answers do not depend on which other limit flames a store holds).
     """
     own = {p.key for p in unique}
-    sources = [StoredFlame(**s) for s in store.warm_sources({p.family for p in unique}) if s["key"] not in own]
+    sources = [StoredFlame(**s) for s in store.warm_sources({p.family for p in unique})
+               if s["key"] not in own and (only is None or s["key"] in only)]
     return warm_tree(unique, sources)
 
 
@@ -149,9 +152,10 @@ def worker_error(exc: BaseException) -> dict:
 class _Loop:
     """State of one pass: the scheduler, the flames finished in it, the executor."""
 
-    def __init__(self, study, store: Store, unique: list[Point], todo: list[Point], backend, run_id: str):
+    def __init__(self, study, store: Store, unique: list[Point], todo: list[Point], backend, run_id: str,
+                 sources: set[str] | None = None):
         self.study, self.store, self.backend, self.run_id = study, store, backend, run_id
-        self.tree = warm_plan(store, unique)
+        self.tree = warm_plan(store, unique, sources)
         self.by_index = {p.index: p for p in unique}
         self.sched = Scheduler(self.tree, [p.index for p in todo])
         self.recent: OrderedDict[int, dict | None] = OrderedDict()  # profiles of the last finished flames
@@ -205,11 +209,13 @@ class _Loop:
 
 
 def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
-                 stop_after: int | None = None, t0: float | None = None) -> SolveOutcome:
+                 stop_after: int | None = None, t0: float | None = None,
+                 sources: set[str] | None = None) -> SolveOutcome:
     """Solve the points of ``pts`` that ``store`` lacks on ``backend``; commit each as it finishes.
 
     ``stop_after`` hands out at most that many new points (tests simulate an
-    interruption with it). Raises :class:`RunInterrupted` after Ctrl-C, once the
+    interruption with it); ``sources`` restricts the stored flames that may warm-start
+    them (:func:`warm_plan`). Raises :class:`RunInterrupted` after Ctrl-C, once the
     finished flames are stored.
     """
     t0 = time.perf_counter() if t0 is None else t0
@@ -218,7 +224,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
     unique = unique_points(pts)
     todo = [p for p in unique if p.key not in done_keys]
     out = SolveOutcome(reused=len(pts) - sum(1 for p in pts if p.key not in done_keys))
-    loop = _Loop(study, store, unique, todo, backend, uuid.uuid4().hex[:12])
+    loop = _Loop(study, store, unique, todo, backend, uuid.uuid4().hex[:12], sources)
     secs, _ = flame_seconds(len(study.atoms), store.timings({p.family for p in unique}))
     cost = {p.index: flame_cost(loop.tree, p.index, secs) for p in todo}
     total_cost, cost_done = sum(cost.values()) or 1.0, 0.0

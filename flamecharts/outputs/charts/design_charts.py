@@ -15,7 +15,7 @@ from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from scipy.interpolate import RegularGridInterpolator
 
-from ...admissible.driver import kept
+from ...admissible.words import kept
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
 from .registry import (MAX_PANELS, burning_blends, chart, conditions_note, has_margins, has_window, several_blends,
@@ -362,135 +362,176 @@ def gas_quality_chart(data, study):
                                 f"metering {gq.metering_T_C} °C, 101.325 kPa"), handles, "Fuel gas")
 
 
-#: How the limits chart marks the criterion that binds at each limit.
+#: How the limits chart marks the criterion that binds past each edge of a window.
 BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blowoff binds"),
-                   "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds"),
-                   "none in range": ("o", "every margin holds (whole range)")}
+                   "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds")}
+#: Edges that leave the window open (drawn hollow): admissible at the last swept value, or not settled.
+OPEN_KINDS = ("swept end", "stopped")
 
 
 def has_limits(data, study) -> bool:
-    return any(r["limit_value"] is not None or r["outcome"] == "none admissible" for r in data.limits)
+    return any(r["outcome"] in ("window", "none admissible") for r in data.limits)
 
 
-def _limit_curves(rows: list[dict], along: str) -> dict[tuple, list[dict]]:
-    """Limit rows grouped into one curve per (fuel, oxidizer, p, T_u[, blend]), sorted along ``along``."""
+def _limit_groups(rows: list[dict], along: str) -> dict[tuple, list[dict]]:
+    """Limit rows grouped into one series per (fuel, oxidizer, p, T_u[, blend]), sorted along ``along``."""
     out: dict[tuple, list[dict]] = {}
     for r in rows:
         key = (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) + (
             (r["blend_fraction"],) if along == "blend_fraction" else ())
         out.setdefault(key, []).append(r)
-    return {k: sorted(v, key=lambda r: r[along]) for k, v in out.items()}
+    return {k: sorted(v, key=lambda r: (r[along], r["window"] or 0)) for k, v in out.items()}
 
 
-def _draw_blend_limits(ax, rows, study, colours, handles):
-    for ci, (key, rs) in enumerate(_limit_curves(rows, "equivalence_ratio").items()):
-        col = colours[ci]
-        label = f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"
-        xs = [r["equivalence_ratio"] for r in rs]
-        ys = [100 * r["limit_value"] if r["limit_value"] is not None else np.nan for r in rs]
-        h, = ax.plot(xs, ys, "-", color=col, lw=1.6)
-        handles[label] = h
-        for r, x, y in zip(rs, xs, ys):
+def _edge_marker(ax, x, y, r, side, col, handles, scale=1.0):
+    """The marker of one window edge: the criterion binding past it, hollow where the window stays open."""
+    kind, binding = r[f"{side}_kind"], r[f"{side}_binding"]
+    if kind == "range end":
+        return
+    if kind in OPEN_KINDS:
+        ax.plot(x, y, "o", color=col, ms=6, mec="k", mfc="white", zorder=4)
+        handles.setdefault("hollow: window open (swept end or edge not settled)",
+                           Line2D([], [], ls="", marker="o", mfc="white", mec="k"))
+        return
+    mk, text = BINDING_MARKERS.get(binding, ("o", binding))
+    ax.plot(x, y, mk, color=col, ms=8, mec="k", zorder=4)
+    handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
+
+
+def _miss_marker(ax, x, y, handles):
+    ax.plot(x, y, "x", color="crimson", ms=9, mew=2, zorder=4)
+    handles.setdefault("no window: closest miss", Line2D([], [], ls="", marker="x", color="crimson"))
+
+
+def _bar(ax, x, lo, hi, col, width, vertical=True):
+    """One admissible window as a thick translucent bar from its low to its high edge."""
+    if vertical:
+        ax.plot([x, x], [lo, hi], color=col, lw=width, alpha=0.45, solid_capstyle="butt", zorder=2)
+    else:
+        ax.plot([lo, hi], [x, x], color=col, lw=width, alpha=0.45, solid_capstyle="butt", zorder=2)
+
+
+def _offsets(n: int, span: float) -> list[float]:
+    """Side-by-side offsets of n series so that equal answers stay apart."""
+    return [0.0] if n == 1 else [span * (i / (n - 1) - 0.5) for i in range(n)]
+
+
+def _draw_blend_windows(ax, rows, study, colours, handles):
+    """Blend axis against phi: each window a vertical bar from its low to its high blend fraction."""
+    groups = _limit_groups(rows, "equivalence_ratio")
+    phis = sorted({r["equivalence_ratio"] for r in rows})
+    step = min((b - a for a, b in zip(phis, phis[1:])), default=0.1)
+    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
+        handles[f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"] = Line2D([], [], color=col, lw=6, alpha=0.45)
+        tops = [(r["equivalence_ratio"] + dx, 100 * r["upper_edge"]) for r in rs if r["outcome"] == "window"
+                and r["window"] == max(q["window"] for q in rs if q["equivalence_ratio"] == r["equivalence_ratio"])]
+        if len(tops) > 1:
+            ax.plot(*zip(*tops), "-", color=col, lw=1.0, alpha=0.8)
+        for r in rs:
+            x = r["equivalence_ratio"] + dx
             if r["outcome"] == "none admissible":
-                ax.plot(x, 0, "x", color="crimson", ms=9, mew=2)
-                handles.setdefault("not admissible at any swept fraction", Line2D([], [], ls="", marker="x",
-                                                                                 color="crimson"))
+                if r["closest_miss_at"] is not None:
+                    _miss_marker(ax, x, 100 * r["closest_miss_at"], handles)
                 continue
-            mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"]))
-            ax.plot(x, y, mk, color=col, ms=8, mec="k")
-            handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
-            if r["bracket_failing"] is not None:  # the bracket: the limit lies between
-                ax.plot([x, x], [100 * r["bracket_admissible"], 100 * r["bracket_failing"]], color=col, lw=3, alpha=0.5)
+            if r["outcome"] != "window":
+                continue
+            _bar(ax, x, 100 * r["lower_edge"], 100 * r["upper_edge"], col, 7)
+            _edge_marker(ax, x, 100 * r["lower_edge"], r, "lower", col, handles)
+            _edge_marker(ax, x, 100 * r["upper_edge"], r, "upper", col, handles)
+            fu = r.get("flame_upper_edge")
+            if fu is not None and r["upper_kind"] == "Wobbe band" and r["flame_upper_kind"] != "range end":
+                ax.plot([x, x], [100 * r["upper_edge"], 100 * fu], ":", color=col, lw=1.2)
+                ax.plot(x, 100 * fu, "_", color=col, ms=12, mew=2)
+                handles.setdefault("dotted to bar: what the flame margins alone would allow",
+                                   Line2D([], [], ls=":", marker="_", color="0.4"))
             asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
-            ax.plot([x] * len(asked), [100 * v for v in asked], ".", color="0.35", ms=4)
-        wob = [r["wobbe_limit_blend_fraction"] for r in rs if r["wobbe_limit_blend_fraction"] is not None]
-        if wob and min(wob) < 1.0:
-            h, = ax.plot(xs, [100 * min(wob)] * len(xs), ":", color=col, lw=1.2)
-            handles["Wobbe band edge (dotted)"] = h
+            ax.plot([x] * len(asked), [100 * v for v in asked], ".", color="0.35", ms=3, zorder=3)
     handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
+    if len(phis) == 1:
+        ax.set_xlim(phis[0] - 0.1, phis[0] + 0.1)
     ax.set_xlabel("equivalence ratio φ")
-    ax.set_ylabel(f"largest admissible {study.blend_with} fraction [%]")
-    ax.set_ylim(bottom=-3)
+    ax.set_ylabel(f"admissible {study.blend_with} fraction [%]")
+    ax.set_ylim(-4, 104)
     ax.grid(alpha=0.3)
 
 
 def _draw_window_spans(ax, rows, colours, handles):
-    """A study without a blend: each condition's admissible phi window as a span from its lean to its
-    rich edge (one row per fuel, pressure and preheat), the binding criterion at each end."""
+    """A study without a blend: each condition's admissible phi windows as horizontal spans (one line
+    per fuel, pressure and preheat), the binding criterion at each end."""
     conds = list(dict.fromkeys((r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
                                for r in rows))
     for y, key in enumerate(conds):
         col = colours[y % len(colours)]
-        ends = [r for r in rows if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) == key
-                and r["limit_value"] is not None]
-        if len(ends) == 2:
-            ax.plot(sorted(r["limit_value"] for r in ends), [y, y], color=col, lw=6, alpha=0.45, solid_capstyle="butt")
-        for r in ends:
-            found = r["outcome"] == "found"
-            mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"])) if found else (">", "")
-            ax.plot(r["limit_value"], y, mk, color=col, ms=8, mec="k", mfc=col if found else "white")
-            if found:
-                handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
+        for r in rows:
+            if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) != key:
+                continue
+            if r["outcome"] == "none admissible" and r["closest_miss_at"] is not None:
+                _miss_marker(ax, r["closest_miss_at"], y, handles)
+            if r["outcome"] != "window":
+                continue
+            _bar(ax, y, r["lower_edge"], r["upper_edge"], col, 7, vertical=False)
+            _edge_marker(ax, r["lower_edge"], y, r, "lower", col, handles)
+            _edge_marker(ax, r["upper_edge"], y, r, "upper", col, handles)
     ax.set_yticks(range(len(conds)), [f"{f}, {P:g} bar, {T:g} K" for f, _, P, T in conds], fontsize=8)
     ax.set_ylim(len(conds) - 0.5, -0.5)
-    handles.setdefault("bar: the admissible φ window", Line2D([], [], color="0.5", lw=6, alpha=0.45))
-    handles.setdefault("hollow: edge beyond the swept φ range", Line2D([], [], ls="", marker=">", mfc="white", color="0.4"))
+    handles.setdefault("bar: an admissible φ window", Line2D([], [], color="0.5", lw=6, alpha=0.45))
     ax.set_xlabel("equivalence ratio φ")
     ax.grid(alpha=0.3, axis="x")
 
 
-def _draw_window_edges(ax, rows, study, colours, handles):
-    if not study.blend_with:  # nothing to plot the edges against: the window itself per condition
+def _draw_phi_windows(ax, rows, study, colours, handles):
+    """Phi axis against blend fraction: each window a vertical bar from its lean to its rich edge."""
+    if not study.blend_with:  # nothing to plot the windows against: the window itself per condition
         _draw_window_spans(ax, rows, colours, handles)
         return
-    curves: dict[tuple, dict[str, list]] = {}
+    groups: dict[tuple, list[dict]] = {}
     for r in rows:
-        key = (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"])
-        side = "lean" if r["limit"].startswith("lean") else "rich"
-        curves.setdefault(key, {"lean": [], "rich": []})[side].append(r)
-    for ci, (key, sides) in enumerate(curves.items()):
-        col = colours[ci]
-        for side, ls in (("lean", "-"), ("rich", "--")):
-            rs = sorted((r for r in sides[side] if r["limit_value"] is not None), key=lambda r: r["blend_fraction"])
-            if not rs:
+        groups.setdefault((r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
+    fracs = sorted({100 * r["blend_fraction"] for r in rows})
+    step = min((b - a for a, b in zip(fracs, fracs[1:])), default=10.0)
+    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
+        handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col, lw=6, alpha=0.45))
+        for r in rs:
+            x = 100 * r["blend_fraction"] + dx
+            if r["outcome"] == "none admissible":
+                if r["closest_miss_at"] is not None:
+                    _miss_marker(ax, x, r["closest_miss_at"], handles)
                 continue
-            ax.plot([100 * r["blend_fraction"] for r in rs], [r["limit_value"] for r in rs], ls, color=col, lw=1.4)
-            for r in rs:
-                found = r["outcome"] == "found"
-                mk, text = BINDING_MARKERS.get(r["binding"], ("o", r["binding"])) if found else (">", "")
-                ax.plot(100 * r["blend_fraction"], r["limit_value"], mk, color=col, ms=7, mec="k",
-                        mfc=col if found else "white")
-                if found:
-                    handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
-        handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col))
-    handles.setdefault("lean edge (solid), rich edge (dashed)", Line2D([], [], color="0.4"))
-    handles.setdefault("hollow: edge beyond the swept φ range", Line2D([], [], ls="", marker=">", mfc="white", color="0.4"))
+            if r["outcome"] != "window":
+                continue
+            _bar(ax, x, r["lower_edge"], r["upper_edge"], col, 7)
+            _edge_marker(ax, x, r["lower_edge"], r, "lower", col, handles)
+            _edge_marker(ax, x, r["upper_edge"], r, "upper", col, handles)
+    if len(fracs) == 1:
+        ax.set_xlim(fracs[0] - 10, fracs[0] + 10)
     ax.set_xlabel(f"{study.blend_with} fraction [%]")
     ax.set_ylabel("admissible equivalence ratio φ")
     ax.grid(alpha=0.3)
 
 
 @chart("admissible_limits",
-       "The burner's limits found by root finding between the solved points: left, the largest admissible "
-       "blend fraction against equivalence ratio (marker: the criterion that binds; bar: the final bracket; "
-       "grey dots: flames the search solved); right, the lean and rich edges of the admissible "
-       "equivalence-ratio window at each swept blend.",
+       "The burner's admissible windows, both edges found by root finding between the solved points (and, "
+       "between two failing points, by a search for a window inside): left, the admissible blend fractions at "
+       "each equivalence ratio; right, the admissible equivalence ratios at each swept blend. Bar: a window; "
+       "marker: the criterion that fails past that edge (hollow: the window stays open at the last swept value "
+       "or the edge was not settled); red cross: no window, drawn where the margins came closest; grey dots: "
+       "flames the searches solved; dotted: what the flame margins alone would allow where the Wobbe band binds.",
        has_limits)
 def limits_chart(data, study):
-    """Admissible blend fraction vs phi and the phi-window edges vs blend fraction (limits.csv)."""
+    """Admissible blend-fraction windows vs phi and phi windows vs blend fraction (limits.csv)."""
     P_shown, T_shown = set(data.shown["pressure_bar"]), set(data.shown["unburned_temperature_K"])
     drawn = [r for r in data.limits if r["pressure_bar"] in P_shown and r["unburned_temperature_K"] in T_shown]
-    blend = [r for r in drawn if r["limit"] == "max_blend_fraction"]
-    window = [r for r in drawn if r["limit"] != "max_blend_fraction"]
+    blend = [r for r in drawn if r["axis"] == "blend_fraction"]
+    window = [r for r in drawn if r["axis"] == "equivalence_ratio"]
     parts = [p for p in (("blend", blend), ("window", window)) if p[1]]
     fig, axes = figure(len(parts))
     handles: dict = {}
-    n = max(len(_limit_curves(blend, "equivalence_ratio")), len({(r["fuel"], r["pressure_bar"],
+    n = max(len(_limit_groups(blend, "equivalence_ratio")), len({(r["fuel"], r["pressure_bar"],
                                                                    r["unburned_temperature_K"]) for r in window}))
     colours = colour_scale(n)
     for ax, (kind, rows) in zip(axes[0], parts):
-        (_draw_blend_limits if kind == "blend" else _draw_window_edges)(ax, rows, study, colours, handles)
-    return finish(fig, study, (f"Admissible limits: {study.burner.name}",
+        (_draw_blend_windows if kind == "blend" else _draw_phi_windows)(ax, rows, study, colours, handles)
+    return finish(fig, study, (f"Admissible windows: {study.burner.name}",
                                f"keeping {kept(study).replace('>=', '≥')};\ntolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
                                f"{study.limits.tolerance['equivalence_ratio']:g} in φ"
                                + data.note("pressure_bar", "unburned_temperature_K").replace("results.nc", "limits.csv")),

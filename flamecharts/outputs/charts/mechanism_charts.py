@@ -30,7 +30,8 @@ def compares_flames(data, study) -> bool:
 
 
 def compares_limits(data, study) -> bool:
-    return data.comparison is not None and any(r["limit_value"] is not None for r in data.comparison.limits)
+    return data.comparison is not None and any(r["outcome"] in ("window", "none admissible")
+                                                for r in data.comparison.limits)
 
 
 def _short(name: str) -> str:
@@ -133,61 +134,62 @@ def _difference_panel(ax, diffs, gas, cond, names, style, col) -> None:
 
 
 @chart("limits_by_mechanism",
-       "Each limit search of the study answered under each mechanism (marker per mechanism, joined per search; "
-       "thin bar: the search's final bracket, its tolerance): the largest admissible blend fraction and/or the "
-       "edges of the admissible equivalence-ratio window. Markers further apart than their brackets: the limit "
-       "depends on the chemistry; keep the more cautious one.",
+       "Each limit search of the study answered under each mechanism (one thin bar per mechanism and window, "
+       "from its low to its high edge; cross: no window, where the margins came closest). Bars that do not "
+       "overlap by more than the tolerance: the limit depends on the chemistry; keep the more cautious one.",
        compares_limits)
 def limits_by_mechanism_chart(data, study):
     names = _names(data)
     style = _style(names)
-    found = [r for r in data.comparison.limits if r["limit_value"] is not None]
+    found = [r for r in data.comparison.limits if r["outcome"] in ("window", "none admissible")]
     several_ox = len({r["oxidizer"] for r in found}) > 1
-    parts = [(kind, [r for r in found if (r["limit"] == "max_blend_fraction") == (kind == "blend")])
+    parts = [(kind, [r for r in found if (r["axis"] == "blend_fraction") == (kind == "blend")])
              for kind in ("blend", "window")]
     parts = [p for p in parts if p[1]]
-    n_rows = max(len({(r["limit"], gas_label(r), r["oxidizer"], r["equivalence_ratio"], r["blend_fraction"],
-                        r["pressure_bar"], r["unburned_temperature_K"]) for r in rows}) for _, rows in parts)
+    n_rows = max(len({(r["axis"], gas_label(r), r["oxidizer"], r["equivalence_ratio"], r["blend_fraction"],
+                       r["pressure_bar"], r["unburned_temperature_K"]) for r in rows}) for _, rows in parts)
     fig, axes = figure(len(parts), width=5.5, height=max(1.6, 0.35 * min(n_rows, MAX_SEARCHES) + 0.8))
     colours = colour_scale(len(names))
     for ax, (kind, rows) in zip(axes[0], parts):
-        searches: dict[tuple, dict[str, float]] = {}
+        scale = 100 if kind == "blend" else 1
+        searches: dict[tuple, dict[str, list[dict]]] = {}
         for r in rows:
-            key = (r["limit"], gas_label(r) + (f" / {r['oxidizer']}" if several_ox else ""),
+            key = (r["axis"], gas_label(r) + (f" / {r['oxidizer']}" if several_ox else ""),
                    r["equivalence_ratio"] if kind == "blend" else r["blend_fraction"],
                    r["pressure_bar"], r["unburned_temperature_K"])
-            scale = 100 if kind == "blend" else 1
-            searches.setdefault(key, {})[r["mechanism"]] = (
-                r["limit_value"] * scale, [v * scale for v in (r["bracket_admissible"], r["bracket_failing"])
-                                           if v is not None])
+            searches.setdefault(key, {}).setdefault(r["mechanism"], []).append(r)
         keys = list(searches)[:MAX_SEARCHES]
         for y, key in enumerate(keys):
-            vals = searches[key]
-            xs = [vals[m][0] for m in names if m in vals]
-            ax.plot([min(xs), max(xs)], [y, y], color="0.6", lw=1.2, zorder=1)
             for i, m in enumerate(names):
-                if m in vals:
-                    offset = 0.12 * (i - (len(names) - 1) / 2)  # brackets side by side, not on top of each other
-                    if len(vals[m][1]) == 2:
-                        ax.plot(vals[m][1], [y + offset] * 2, color=colours[i], lw=3, alpha=0.6, zorder=1.5,
-                                solid_capstyle="butt")
-                    ax.plot(vals[m][0], y, style[m][1], color=colours[i], ms=7, mec="k", zorder=2)
+                offset = 0.14 * (i - (len(names) - 1) / 2)  # mechanisms side by side, not on top of each other
+                for r in searches[key].get(m, []):
+                    if r["outcome"] == "none admissible":
+                        if r["closest_miss_at"] is not None:
+                            ax.plot(r["closest_miss_at"] * scale, y + offset, "x", color=colours[i], ms=7, mew=2)
+                        continue
+                    lo, hi = r["lower_edge"] * scale, r["upper_edge"] * scale
+                    ax.plot([lo, hi], [y + offset] * 2, color=colours[i], lw=3, alpha=0.7, solid_capstyle="butt")
+                    for v, side in ((lo, "lower"), (hi, "upper")):
+                        if r[f"{side}_kind"] != "range end":
+                            ax.plot(v, y + offset, style[m][1], color=colours[i], ms=6, mec="k", zorder=2,
+                                    mfc=colours[i] if r[f"{side}_kind"] not in ("swept end", "stopped") else "white")
         ax.set_yticks(range(len(keys)), [_search_label(k, kind) for k in keys], fontsize=7.5)
         ax.set_ylim(len(keys) - 0.5, -0.5)  # first search on top
-        ax.set_xlabel(f"largest admissible {study.blend_with} fraction [%]" if kind == "blend"
-                      else "admissible equivalence ratio φ (window edge)")
+        ax.set_xlabel(f"admissible {study.blend_with} fraction [%]" if kind == "blend"
+                      else "admissible equivalence ratio φ")
         ax.grid(alpha=0.3, axis="x")
         if len(searches) > len(keys):
             ax.set_title(f"first {len(keys)} of {len(searches)} searches (every one in limits.csv)", fontsize=8.5)
-    handles = {_short(m) + (" (reference)" if i == 0 else ""): Line2D([], [], ls="", marker=style[m][1], color=colours[i],
-                                                            mec="k") for i, m in enumerate(names)}
-    handles["thin bar: the search's final bracket"] = Line2D([], [], color="0.5", lw=3, alpha=0.6)
-    return finish(fig, replace(study, mechanism=" vs ".join(names)), ("Admissible limits under each mechanism",
+    handles = {_short(m) + (" (reference)" if i == 0 else ""): Line2D([], [], marker=style[m][1], color=colours[i],
+                                                                      mec="k", lw=3) for i, m in enumerate(names)}
+    handles["hollow: edge at the last swept value or not settled"] = Line2D([], [], ls="", marker="o", mfc="white",
+                                                                            mec="k")
+    return finish(fig, replace(study, mechanism=" vs ".join(names)), ("Admissible windows under each mechanism",
                                f"{study.burner.name}: the same searches, the same burner, different chemistry"),
                   handles, "mechanism")
 
 
 def _search_label(key: tuple, kind: str) -> str:
-    limit, gas, at, P, T = key
-    where = f"φ {at:g}" if kind == "blend" else f"{limit.split('_')[0]} edge"
+    axis, gas, at, P, T = key
+    where = f"φ {at:g}" if kind == "blend" else "φ window"
     return f"{gas}, {where}, {P:g} bar, {T:g} K"

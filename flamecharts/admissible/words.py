@@ -1,0 +1,133 @@
+"""The answers of limits.csv in plain sentences (CLI and report), and what the limits keep.
+
+Every sentence says what it rests on: the criterion that fails past each edge with its
+margin there, the Wobbe band where it binds (and what the flame margins alone would
+allow), and, where no window exists, the criterion that fails at each swept point and
+the closest miss.
+"""
+from __future__ import annotations
+
+from ..columns import gas_label
+from .search import CRITERIA, FOUND, RANGE_END, STOPPED, SWEPT_END, WOBBE_EDGE
+
+
+def band_words(study) -> str:
+    """'the ±10 % Wobbe band' or 'the Wobbe band 45.7-54.7 MJ/m³' of the study's [gas_quality]."""
+    gq = study.gas_quality
+    if gq.tolerance_percent is not None:
+        return f"the ±{gq.tolerance_percent:g} % Wobbe band"
+    if gq.band_MJ_m3 is not None:
+        return f"the Wobbe band {gq.band_MJ_m3[0]:g}-{gq.band_MJ_m3[1]:g} MJ/m³"
+    return "the Wobbe band"
+
+
+def kept(study) -> str:
+    """What the study's limits keep, in words: 'flashback >= 1.5, blowoff >= 1.5 and the ±10 % Wobbe band'."""
+    b, lim = study.burner, study.limits
+    words = [f"{c} >= {getattr(b, CRITERIA[c][1]):g}" for c in lim.criteria if c in CRITERIA]
+    if "wobbe" in lim.criteria:
+        words.append(band_words(study) + " (blend searches)")
+    return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
+
+
+def _where(r: dict) -> str:
+    return f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K"
+
+
+def _minimum(study, criterion: str) -> float | None:
+    return getattr(study.burner, CRITERIA[criterion][1], None) if criterion in CRITERIA else None
+
+
+def _binds(r: dict, side: str, study, past: str) -> str:
+    """'flashback binds richer: margin 1.50 there, minimum 1.5'."""
+    c, m = r.get(f"{side}_binding"), r.get(f"{side}_margin")
+    need = _minimum(study, c)
+    there = f": margin {m:.2f} there, minimum {need:g}" if m is not None and need is not None else ""
+    return f"{c} binds{past}{there}"
+
+
+def _blend_edge(r: dict, side: str, study, blend: str) -> str:
+    v, kind = r[f"{side}_edge"], r[f"{side}_kind"]
+    pct = f"{100 * v:.1f} %"
+    if kind == FOUND:
+        return f"{pct} ({_binds(r, side, study, ' below' if side == 'lower' else '')})"
+    if kind == WOBBE_EDGE:
+        verb = "enters" if side == "lower" else "leaves"
+        alone = ""
+        if side == "upper":
+            fk = r.get("flame_upper_kind")
+            if fk == FOUND:
+                alone = (f"; the flame margins alone would allow {100 * r['flame_upper_edge']:.1f} % "
+                         f"({r['flame_upper_binding']} binds)")
+            elif fk == RANGE_END:
+                alone = f"; no flame criterion binds up to 100 % {blend}"
+            elif fk is not None:
+                alone = f"; the flame margins alone hold up to at least {100 * r['flame_upper_edge']:.1f} %"
+        return f"{pct}, where the Wobbe index {verb} {band_words(study)}{alone}"
+    if kind == RANGE_END:
+        return "100 %, the pure blend gas (every margin holds)" if side == "upper" else "0 %"
+    if kind == SWEPT_END:
+        return f"{pct} (the lowest swept fraction; the window may reach lower)"
+    return f"{'at least' if side == 'upper' else 'about'} {pct} (edge not settled: {r.get('note', '')})"
+
+
+def _phi_edge(r: dict, side: str, study) -> str:
+    v, kind = r[f"{side}_edge"], r[f"{side}_kind"]
+    past = " leaner" if side == "lower" else " richer"
+    if kind == FOUND:
+        return f"phi {v:.3f} ({_binds(r, side, study, past)})"
+    if kind == SWEPT_END:
+        return f"phi {v:g} (the {'leanest' if side == 'lower' else 'richest'} swept; the window may reach{past})"
+    return f"phi {v:.3f} (edge not settled: {r.get('note', '')})"
+
+
+def _none(r: dict, study, what: str) -> str:
+    miss = ""
+    if r.get("closest_miss_at") is not None:
+        at = r["closest_miss_at"]
+        where = f"{100 * at:.1f} %" if r["axis"] == "blend_fraction" else f"phi {at:.3f}"
+        miss = f"; at best {where}, where the margins are {r.get('closest_miss_margins') or '-'}"
+        need = sorted({_minimum(study, c) for c in study.limits.criteria if c in CRITERIA})
+        miss += f" (minimum {', '.join(f'{n:g}' for n in need)})"
+    fails = f"; fails by {r['swept_failures']}" if r.get("swept_failures") else ""
+    note = f"; {r['note']}" if r.get("note") else ""
+    return f"not admissible: no {what} keeps every margin{fails}{miss}{note}"
+
+
+def limit_sentence(r: dict, study) -> str:
+    """The answer of one limits.csv row in one sentence.
+
+    >>> from types import SimpleNamespace as NS
+    >>> st = NS(burner=NS(name="rig", min_flashback_margin=1.5), blend_with="hydrogen",
+    ...         limits=NS(criteria=("flashback",)), gas_quality=NS(tolerance_percent=None, band_MJ_m3=None))
+    >>> r = dict(axis="blend_fraction", window=1, fuel="town gas", oxidizer="air", blend_with="hydrogen",
+    ...          blend_fraction=None, equivalence_ratio=1.1, pressure_bar=1.0, unburned_temperature_K=300.0,
+    ...          outcome="window", lower_edge=0.0, lower_kind="range end", upper_edge=0.2345, upper_kind="found",
+    ...          upper_binding="flashback", upper_margin=1.503, note="")
+    >>> limit_sentence(r, st)
+    'town gas at phi 1.1, 1 bar, 300 K: rig takes up to 23.4 % hydrogen (flashback binds: margin 1.50 there, minimum 1.5)'
+    """
+    b, blend = study.burner, study.blend_with or "blend gas"
+    nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
+    if r["axis"] == "blend_fraction":
+        head = f"{r['fuel']} at phi {r['equivalence_ratio']:g}, {_where(r)}: {b.name}"
+        if r["outcome"] == "none admissible":
+            return f"{head} {_none(r, study, blend + ' fraction from 0 to 100 %')}"
+        if r["outcome"] != "window":
+            return f"{head}: search stopped ({r.get('note', '')})"
+        upper = _blend_edge(r, "upper", study, blend)
+        if r["lower_kind"] == RANGE_END:
+            return f"{head} takes up to {upper.replace(' %', f' % {blend}', 1)}{nth}"
+        return (f"{head} keeps every margin from {_blend_edge(r, 'lower', study, blend)} to "
+                f"{upper.replace(' %', f' % {blend}', 1)}{nth}")
+    head = f"{gas_label(r)}, {_where(r)}: {b.name}"
+    if r["outcome"] == "none admissible":
+        return f"{head} {_none(r, study, 'swept phi')}"
+    if r["outcome"] != "window":
+        return f"{head}: search stopped ({r.get('note', '')})"
+    return f"{head}: admissible from {_phi_edge(r, 'lower', study)} to {_phi_edge(r, 'upper', study)}{nth}"
+
+
+def search_flames(limits: list[dict]) -> int:
+    """Flames the searches asked for beyond the sweep (each search counted once, not per window)."""
+    return sum(r["flames_evaluated"] or 0 for r in limits if (r.get("window") or 0) <= 1)
