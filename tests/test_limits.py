@@ -367,3 +367,26 @@ def test_property_every_admissible_fine_point_lies_in_a_reported_window(fine_sto
     coarse = _window_study(fine_store, "coarse", "[0.0, 0.3, 0.6]", **burner)
     res = flamecharts.run(coarse, out=fine_store / "out", jobs=2, charts=False, report=False)
     _check_windows_against_fine_sweep(res.limits, _fine_truth(fine_store, **burner))
+
+
+def test_a_resumed_run_gives_the_same_limits_to_the_last_digit(tmp_path):
+    """Limit flames warm-start from the sweep's flames only: a run that lost some of its limit flames
+    (killed mid-search, or a flame that ran out of time) and solves them again, now with later limit
+    flames in the store, gives the uninterrupted run's limits exactly."""
+    import shutil
+    import sqlite3
+
+    from flamecharts.sweep.points import points
+    limits = BURNER + "[limits]\n"
+    cfg = write_h2_study(tmp_path, phis="[0.6, 0.9, 1.2]", fractions="[0.0, 0.5]", extra=limits)
+    first = flamecharts.run(cfg, out=tmp_path / "a", jobs=2, charts=False, report=False)
+    assert first.summary.limit_flames >= 6
+    shutil.copytree(tmp_path / "a", tmp_path / "b")
+    swept = {p.key for p in points(first.study)}
+    with sqlite3.connect(tmp_path / "b" / "results.db") as db:
+        extra = [k for (k,) in db.execute("SELECT key FROM points ORDER BY rowid") if k not in swept]
+        lost = extra[:3]  # the earliest limit flames: later ones, stored, are nearer neighbours now
+        db.executemany("DELETE FROM points WHERE key = ?", [(k,) for k in lost])
+    again = flamecharts.run(cfg, out=tmp_path / "b", jobs=2, charts=False, report=False)
+    assert again.summary.limit_flames == len(lost)
+    assert again.limits == first.limits

@@ -222,6 +222,14 @@ CASES = {
     "limits_tolerance_in_percent": (["limits.equivalence_ratio_tolerance", "at most 0.1"],
                                     config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                                 '\n[limits]\nequivalence_ratio_tolerance = 1\n')),
+    "limits_wobbe_without_band": (["limits.criteria", "'wobbe'", "no band", "wobbe_tolerance_percent"],
+                                  config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                              '\n[limits]\ncriteria = ["flashback", "wobbe"]\n')),
+    "limits_only_wobbe": (["limits.criteria", "at least one burner margin"],
+                          config(sweep=sweep_with(blend='{ with = "diluted", fraction = [0.0, 0.5] }'),
+                                 tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                      '\n[gas_quality]\nwobbe_tolerance_percent = 5\n'
+                                      '\n[limits]\ncriteria = ["wobbe"]\n')),
     "keep_profiles_not_a_flag": (["'keep_profiles'", "true or false"], 'keep_profiles = "no"\n' + config()),
     "premixer_residence_in_seconds": (["premixer.residence_time_ms", "milliseconds"],
                                       config(tail='\n[premixer]\nresidence_time_ms = 40000\n')),
