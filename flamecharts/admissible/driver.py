@@ -218,7 +218,10 @@ def limit_rows(study, s: _Search) -> list[dict]:
     if not a.windows:
         m = a.miss
         outcome = "stopped" if a.stopped and m is None else "none admissible"
-        row = {**common, "window": 0, "outcome": outcome, "note": "; ".join(a.stopped + _band_words(a, s.band))}
+        ends = [] if m is None or s.axis != "equivalence_ratio" or m.at not in (a.first, a.last) else [
+            "the closest miss is at the end of the swept range: a window may lie beyond it"]
+        row = {**common, "window": 0, "outcome": outcome,
+               "note": "; ".join(a.stopped + _band_words(a, s.band) + ends)}
         if m is not None:
             row.update(closest_miss_at=m.at, closest_miss_binding=m.binding,
                        closest_miss_margin=_margin(m.row, m.binding),

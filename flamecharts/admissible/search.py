@@ -145,6 +145,8 @@ class Answer:
     stopped: list[str] = field(default_factory=list)  # notes of intervals that could not be settled
     flame_windows: list[Window] = field(default_factory=list)  # before the Wobbe band (blend axis)
     band: list[tuple[float, float]] | None = None               # Wobbe band intervals (blend axis)
+    first: float | None = None                                  # the ends of the values searched
+    last: float | None = None
 
 
 # ---- one interval ---------------------------------------------------------------------------------------
@@ -377,7 +379,7 @@ def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], 
         cands = [m for _, _, m in misses] + [Miss(x, g, c, r) for x, g, c, r in burning]
         miss = max(cands, key=lambda m: m.g, default=None)
     failures = [(x, c) for (x, _), (g, c) in zip(pts, gs) if g is None or g < 0]
-    return Answer(windows, miss, misses, failures, evaluated, stopped)
+    return Answer(windows, miss, misses, failures, evaluated, stopped, first=pts[0][0], last=pts[-1][0])
 
 
 # ---- the Wobbe band as a criterion of the blend axis -----------------------------------------------------
