@@ -390,3 +390,15 @@ def test_a_resumed_run_gives_the_same_limits_to_the_last_digit(tmp_path):
     again = flamecharts.run(cfg, out=tmp_path / "b", jobs=2, charts=False, report=False)
     assert again.summary.limit_flames == len(lost)
     assert again.limits == first.limits
+
+
+def test_a_swept_blend_outside_the_wobbe_band_is_named_as_failing_by_it():
+    from flamecharts.admissible.search import apply_band
+    # flames alone admissible from 0.26 to 0.368; the band ends at 0.202: no window, 0.3 fails by the band
+    rowf = _margins(lambda x: 3 * (0.37 - x), lambda x: 4 * (x - 0.26))
+    answer, _ = _search(window_search([(x, rowf(x)) for x in (0.0, 0.1, 0.2, 0.3)], PARTS, 0.005, 12, (0.0, 1.0)),
+                        rowf)
+    apply_band(answer, [(0.0, 0.202)])
+    assert answer.windows == [] and len(answer.flame_windows) == 1
+    assert answer.failures == [(0.0, "blowoff"), (0.1, "blowoff"), (0.2, "blowoff"), (0.3, "Wobbe band"),
+                               (1.0, "flashback")]

@@ -5,7 +5,6 @@ import io
 import sqlite3
 
 import numpy as np
-import pytest
 
 import flamecharts
 from flamecharts.store import DB_NAME, Store

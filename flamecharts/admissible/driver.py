@@ -23,7 +23,7 @@ from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .search import CRITERIA, Answer, limit_parts, window_search, within_band
+from .search import CRITERIA, WOBBE, Answer, apply_band, limit_parts, window_search
 
 #: Fractions at which the Wobbe index is scanned before its band edge is refined (it
 #: needs no flame; the scan only finds the first interval that leaves the band).
@@ -154,9 +154,7 @@ def _advance(s: _Search, rows: list[dict] | None) -> None:
     except StopIteration as stop:
         s.answer, s.request = stop.value, None
         if s.band is not None:
-            s.answer.flame_windows = s.answer.windows
-            s.answer.band = s.band
-            s.answer.windows = within_band(s.answer.windows, s.band)
+            apply_band(s.answer, s.band)
 
 
 def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], int] | None,
@@ -255,7 +253,7 @@ def _failures(failures: list[tuple[float, str]]) -> str:
     """'blowoff at 0; flashback at 0.3, 0.6' from (swept value, criterion or reason) pairs."""
     by: dict[str, list[str]] = {}
     for x, why in failures:
-        by.setdefault(why if why in CRITERIA else "no flame", []).append(f"{x:g}")
+        by.setdefault(why if why in CRITERIA or why == WOBBE else "no flame", []).append(f"{x:g}")
     return "; ".join(f"{why} at {', '.join(xs)}" for why, xs in by.items())
 
 
@@ -268,12 +266,16 @@ def _band_words(a: Answer, band) -> list[str]:
     if band is None:
         return []
     if not band:
-        return ["every blend fraction from 0 to 1 lies outside the Wobbe band"]
+        return ["every blend fraction from 0 to 100 % lies outside the Wobbe band"]
     if a.flame_windows:
-        spans = ", ".join(f"{w.lower.value:.4g}-{w.upper.value:.4g}" for w in a.flame_windows)
-        inside = ", ".join(f"{b0:.4g}-{b1:.4g}" for b0, b1 in band)
+        spans = ", ".join(f"{_pct(w.lower.value)}-{_pct(w.upper.value)} %" for w in a.flame_windows)
+        inside = ", ".join(f"{_pct(b0)}-{_pct(b1)} %" for b0, b1 in band)
         return [f"the flame margins alone allow {spans}, outside the Wobbe band ({inside})"]
     return []
+
+
+def _pct(x: float) -> str:
+    return f"{100 * x:.1f}"
 
 
 def planned_searches(study) -> dict[str, int]:

@@ -147,6 +147,7 @@ class Answer:
     band: list[tuple[float, float]] | None = None               # Wobbe band intervals (blend axis)
     first: float | None = None                                  # the ends of the values searched
     last: float | None = None
+    values: list[tuple[float, float | None, str]] = field(default_factory=list)  # (x, g, binding) swept and ends
 
 
 # ---- one interval ---------------------------------------------------------------------------------------
@@ -379,10 +380,22 @@ def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], 
         cands = [m for _, _, m in misses] + [Miss(x, g, c, r) for x, g, c, r in burning]
         miss = max(cands, key=lambda m: m.g, default=None)
     failures = [(x, c) for (x, _), (g, c) in zip(pts, gs) if g is None or g < 0]
-    return Answer(windows, miss, misses, failures, evaluated, stopped, first=pts[0][0], last=pts[-1][0])
+    return Answer(windows, miss, misses, failures, evaluated, stopped, first=pts[0][0], last=pts[-1][0],
+                  values=[(x, g, c) for (x, _), (g, c) in zip(pts, gs)])
 
 
 # ---- the Wobbe band as a criterion of the blend axis -----------------------------------------------------
+def apply_band(a: Answer, band: list[tuple[float, float]]) -> None:
+    """Make the Wobbe band a criterion of the answer of a blend search: its windows cut to the
+    band (the flame windows kept apart), and swept values that keep every flame margin but lie
+    outside the band counted as failing by it."""
+    a.flame_windows, a.band = a.windows, band
+    a.windows = within_band(a.windows, band)
+    outside = [(x, WOBBE) for x, g, _ in a.values
+               if g is not None and g >= 0 and not any(b0 - 1e-12 <= x <= b1 + 1e-12 for b0, b1 in band)]
+    a.failures = sorted(a.failures + outside)
+
+
 def within_band(windows: list[Window], band: list[tuple[float, float]]) -> list[Window]:
     """The parts of flame windows that also lie inside the Wobbe band intervals; an edge the
     band sets is a WOBBE_EDGE. Each result keeps the flame window it came from.

@@ -8,7 +8,7 @@ the closest miss.
 from __future__ import annotations
 
 from ..columns import gas_label
-from .search import CRITERIA, FOUND, RANGE_END, STOPPED, SWEPT_END, WOBBE_EDGE
+from .search import CRITERIA, FOUND, RANGE_END, SWEPT_END, WOBBE_EDGE
 
 
 def band_words(study) -> str:

@@ -42,7 +42,6 @@ import time
 from pathlib import Path
 
 import cantera as ct
-import numpy as np
 import psutil
 
 from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
