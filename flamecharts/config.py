@@ -521,16 +521,13 @@ def _limits(t: Any, burner: "Burner | None", blend_with: str | None, gas_quality
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
                           "sweep.blend = { with = ..., fraction = [...] }")
     has_band = gas_quality.band_MJ_m3 is not None or gas_quality.tolerance_percent is not None
-    default = ["flashback", burner.blowoff[2]] + (["wobbe"] if has_band and "blend_fraction" in find else [])
+    default = ["flashback", burner.blowoff[2]] + (["wobbe"] if has_band else [])
     criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
     if "stabilizer" in criteria and burner.stabilizer_size_m is None:
         raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
     if "wobbe" in criteria and not has_band:
         raise ConfigError("'limits.criteria' names 'wobbe', but [gas_quality] sets no band: add "
                           "'wobbe_tolerance_percent' or 'wobbe_band_MJ_m3'")
-    if "wobbe" in criteria and "blend_fraction" not in find:
-        raise ConfigError("'limits.criteria' names 'wobbe', which only a blend search keeps: add 'blend_fraction' "
-                          "to 'limits.find' or leave 'wobbe' out")
     if criteria == ("wobbe",):
         raise ConfigError("'limits.criteria' needs at least one burner margin besides 'wobbe': flashback, blowoff "
                           "or stabilizer")

@@ -23,7 +23,7 @@ from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .search import CRITERIA, WOBBE, Answer, apply_band, limit_parts, window_search
+from .search import CRITERIA, WOBBE, Answer, apply_band, band_at, limit_parts, window_search
 
 #: Fractions at which the Wobbe index is scanned before its band edge is refined (it
 #: needs no flame; the scan only finds the first interval that leaves the band).
@@ -118,17 +118,12 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
     crit = flame_criteria(study)
     parts = (lambda r: limit_parts(r, b, crit))
     out: list[_Search] = []
+    bands = _bands(study)
     if "blend_fraction" in lim.find:
         groups = defaultdict(list)
         for r in rows:
             groups[(r["fuel"], r["oxidizer"], r["equivalence_ratio"], r["pressure_bar"],
                     r["unburned_temperature_K"])].append((r["blend_fraction"], r))
-        refs: dict = {}
-        bands = {}
-        for f in study.sweep_fuels:
-            for o in study.sweep_oxidizers:
-                m = wobbe_margin(study, f, o, refs) if uses_wobbe(study) else None
-                bands[(f, o)] = None if m is None else band_intervals(m)
         for (fuel, ox, phi, P, T), swept in groups.items():
             cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=None, equivalence_ratio=phi, pressure_bar=P,
                         unburned_temperature_K=T)
@@ -143,7 +138,20 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
             cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=frac, equivalence_ratio=None, pressure_bar=P,
                         unburned_temperature_K=T)
             gen = window_search(swept, parts, lim.tolerance["equivalence_ratio"], lim.max_flames_per_search)
-            out.append(_Search("equivalence_ratio", cond, gen))
+            out.append(_Search("equivalence_ratio", cond, gen, band=bands[(fuel, ox)]))
+    return out
+
+
+def _bands(study) -> dict[tuple[str, str], list[tuple[float, float]] | None]:
+    """(fuel, oxidizer) -> the blend-fraction intervals inside the Wobbe band (None: the band
+    is not a criterion); without a blend, [(0, 0)] or [] as the fuel itself is in or out."""
+    refs: dict = {}
+    out = {}
+    for f in study.sweep_fuels:
+        for o in study.sweep_oxidizers:
+            m = wobbe_margin(study, f, o, refs) if uses_wobbe(study) else None
+            out[(f, o)] = (None if m is None else band_intervals(m) if study.blend_with
+                           else [(0.0, 0.0)] if m(0.0) >= 0 else [])
     return out
 
 
@@ -153,8 +161,10 @@ def _advance(s: _Search, rows: list[dict] | None) -> None:
         s.request = next(s.gen) if rows is None else s.gen.send(rows)
     except StopIteration as stop:
         s.answer, s.request = stop.value, None
-        if s.band is not None:
+        if s.band is not None and s.axis == "blend_fraction":
             apply_band(s.answer, s.band)
+        elif s.band is not None:
+            band_at(s.answer, s.band, s.cond["blend_fraction"] or 0.0)
 
 
 def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], int] | None,
@@ -216,6 +226,10 @@ def limit_rows(study, s: _Search) -> list[dict]:
     if not a.windows:
         m = a.miss
         outcome = "stopped" if a.stopped and m is None else "none admissible"
+        if a.flame_windows:
+            common.update(_flame_columns(a.flame_windows[0]))
+        if s.band:
+            common.update(wobbe_band_from=s.band[0][0], wobbe_band_to=s.band[0][1])
         ends = [] if m is None or s.axis != "equivalence_ratio" or m.at not in (a.first, a.last) else [
             "the closest miss is at the end of the swept range: a window may lie beyond it"]
         row = {**common, "window": 0, "outcome": outcome,
@@ -234,15 +248,18 @@ def limit_rows(study, s: _Search) -> list[dict]:
             row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
         if w.flame is not None:
-            f = w.flame
-            row.update(flame_lower_edge=f.lower.value, flame_lower_kind=f.lower.kind,
-                       flame_upper_edge=f.upper.value, flame_upper_kind=f.upper.kind,
-                       flame_upper_binding=f.upper.binding, flame_lower_binding=f.lower.binding)
+            row.update(_flame_columns(w.flame))
             inside = [(b0, b1) for b0, b1 in s.band if b0 <= w.upper.value + 1e-9 and b1 >= w.lower.value - 1e-9]
             if inside:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
+
+
+def _flame_columns(w) -> dict:
+    """The flame_* columns of a window the flame criteria alone allow."""
+    return {f"flame_{side}_{what}": getattr(getattr(w, side), attr) for side in ("lower", "upper")
+            for what, attr in (("edge", "value"), ("kind", "kind"), ("binding", "binding"))}
 
 
 def _margin(row: dict | None, criterion: str) -> float | None:
@@ -268,9 +285,8 @@ def _band_words(a: Answer, band) -> list[str]:
     if not band:
         return ["every blend fraction from 0 to 100 % lies outside the Wobbe band"]
     if a.flame_windows:
-        spans = ", ".join(f"{_pct(w.lower.value)}-{_pct(w.upper.value)} %" for w in a.flame_windows)
-        inside = ", ".join(f"{_pct(b0)}-{_pct(b1)} %" for b0, b1 in band)
-        return [f"the flame margins alone allow {spans}, outside the Wobbe band ({inside})"]
+        more = "; ".join(f"{_pct(w.lower.value)}-{_pct(w.upper.value)} %" for w in a.flame_windows[1:])
+        return [f"the flame margins also allow {more}"] if more else []
     return []
 
 
@@ -295,7 +311,7 @@ def planned_searches(study) -> dict[str, int]:
     def flames(values, tol) -> int:
         v = sorted(values)
         step = max((b - a for a, b in zip(v, v[1:])), default=0.0)
-        return max(1, math.ceil(math.log2(step / tol))) if step > tol else 1
+        return min(lim.max_flames_per_search, max(1, math.ceil(math.log2(step / tol))) if step > tol else 1)
 
     if "blend_fraction" in lim.find:
         out["blend_fraction"] = others * len(study.equivalence_ratios)

@@ -229,16 +229,37 @@ def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Part
 
 
 def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: int,
-             parts: Parts) -> Generator[float, dict, _Interval]:
+             parts: Parts, end: str = "") -> Generator[float, dict, _Interval]:
     """Look for a window strictly between two swept points that both fail.
 
     Different criteria fail at the two ends: the crossing of their log-margins (a root of
     g_a - g_b, where min(g_a, g_b) peaks); the same criterion: a bounded maximisation of g.
-    If a flame there keeps every margin, both edges are refined by :func:`crossing`."""
+    If a flame there keeps every margin, both edges are refined by :func:`crossing`.
+
+    ``end`` ('a' or 'b'): the same criterion is at its best of the whole search at that end
+    of the interval, the first or last value searched. One flame ``tol`` inside it settles
+    whether the criterion still rises inward: if it falls, a quasi-concave margin has no
+    maximum in the rest of the interval (it would hold at least the end's value on the way
+    back), so the interval holds no window wider than the tolerance."""
     Pa, Pb = parts(ra)[0], parts(rb)[0]
     ca, cb = lowest(Pa)[1], lowest(Pb)[1]
     seen: list = []
     x_ok = None
+    if end and ca == cb:
+        x_end, P_end, x_in = (xa, Pa, xa + tol) if end == "a" else (xb, Pb, xb - tol)
+        row = yield x_in
+        P, why = parts(row)
+        g, c = lowest(P, why)
+        seen.append((x_in, g))
+        if g is None:
+            return _Interval(note=f"no burning flame at {x_in:.4g} ({why}) between {xa:.4g} and {xb:.4g}",
+                             evaluated=seen)
+        if g >= 0:
+            x_ok, row_ok = x_in, row
+        elif P[ca] < P_end[ca]:
+            best = max([Miss(xa, Pa[ca], ca, ra), Miss(xb, Pb[cb], cb, rb), Miss(x_in, g, c, row)],
+                       key=lambda m: m.g)
+            return _Interval(miss=best, evaluated=seen)
     if ca != cb:
         ha, hb = Pa[ca] - Pa[cb], Pb[ca] - Pb[cb]
         if (ha >= 0) != (hb >= 0):
@@ -259,6 +280,16 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     lower = yield from crossing(x_ok, row_ok, xa, ra, tol, max_flames, parts)
     upper = yield from crossing(x_ok, row_ok, xb, rb, tol, max_flames, parts)
     return _Interval(window=Window(lower, upper), evaluated=seen + lower.evaluated + upper.evaluated)
+
+
+def _end_of_peak(i: int, Ps: list, criterion: str) -> str:
+    """'a' or 'b' when ``criterion`` is largest at the first or last value searched and that is
+    an end of the interval (i, i+1); '' otherwise (see :func:`interior`)."""
+    vals = [(j, P[criterion]) for j, (P, _) in enumerate(Ps) if P is not None and criterion in P]
+    if not vals:
+        return ""
+    k = max(vals, key=lambda t: t[1])[0]
+    return "a" if k == i == 0 else "b" if k == i + 1 == len(Ps) - 1 else ""
 
 
 def may_peak_inside(i: int, gs: list[dict[str, float] | None], criterion: str) -> bool:
@@ -328,7 +359,7 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
                                            or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):
-            tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts)
+            tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts, _end_of_peak(i, Ps, gs[i][1]))
     done = yield from lockstep(list(tasks.values()))
     return assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
 
@@ -391,9 +422,23 @@ def apply_band(a: Answer, band: list[tuple[float, float]]) -> None:
     outside the band counted as failing by it."""
     a.flame_windows, a.band = a.windows, band
     a.windows = within_band(a.windows, band)
-    outside = [(x, WOBBE) for x, g, _ in a.values
-               if g is not None and g >= 0 and not any(b0 - 1e-12 <= x <= b1 + 1e-12 for b0, b1 in band)]
+    outside = [(x, WOBBE) for x, g, _ in a.values if g is not None and g >= 0 and not inside(x, band)]
     a.failures = sorted(a.failures + outside)
+
+
+def band_at(a: Answer, band: list[tuple[float, float]], x: float) -> None:
+    """Make the Wobbe band a criterion of a phi search of the blend at fraction ``x``: a blend
+    outside the band has no admissible phi, whatever its flames allow (kept apart)."""
+    a.band = band
+    if inside(x, band):
+        return
+    a.flame_windows, a.windows = a.windows, []
+    a.failures = sorted(a.failures + [(v, WOBBE) for v, g, _ in a.values if g is not None and g >= 0])
+
+
+def inside(x: float, band: list[tuple[float, float]]) -> bool:
+    """Whether blend fraction ``x`` lies in one of the band's intervals."""
+    return any(b0 - 1e-12 <= x <= b1 + 1e-12 for b0, b1 in band)
 
 
 def within_band(windows: list[Window], band: list[tuple[float, float]]) -> list[Window]:

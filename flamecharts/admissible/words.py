@@ -26,7 +26,7 @@ def kept(study) -> str:
     b, lim = study.burner, study.limits
     words = [f"{c} >= {getattr(b, CRITERIA[c][1]):g}" for c in lim.criteria if c in CRITERIA]
     if "wobbe" in lim.criteria:
-        words.append(band_words(study) + " (blend searches)")
+        words.append(band_words(study))
     return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
 
 
@@ -81,7 +81,28 @@ def _phi_edge(r: dict, side: str, study) -> str:
     return f"phi {v:.3f} (edge not settled: {r.get('note', '')})"
 
 
+def _outside_band(r: dict, study) -> str | None:
+    """The sentence of a search whose flame margins allow a window that the Wobbe band excludes."""
+    if r.get("flame_lower_edge") is None:
+        return None
+    band = (f"{band_words(study)} ({100 * r['wobbe_band_from']:.1f}-{100 * r['wobbe_band_to']:.1f} %)"
+            if r.get("wobbe_band_from") is not None else band_words(study))
+    blend = study.blend_with or "blend gas"
+    if r["axis"] == "blend_fraction":
+        alone = f"{100 * r['flame_lower_edge']:.1f}-{100 * r['flame_upper_edge']:.1f} %"
+        head = f"no {blend} fraction inside {band} keeps every margin"
+    else:
+        alone = f"phi {r['flame_lower_edge']:.3f}-{r['flame_upper_edge']:.3f}"
+        head = (f"this blend ({100 * (r['blend_fraction'] or 0):.1f} % {blend}) lies outside {band}"
+                if study.blend_with else f"this fuel lies outside {band}")
+    note = f"; {r['note']}" if r.get("note") else ""
+    return f"not admissible: {head}; the flame margins alone would allow {alone}{note}"
+
+
 def _none(r: dict, study, what: str) -> str:
+    outside = _outside_band(r, study)
+    if outside is not None:
+        return outside
     miss = ""
     if r.get("closest_miss_at") is not None:
         at = r["closest_miss_at"]
@@ -125,6 +146,9 @@ def limit_sentence(r: dict, study) -> str:
         return f"{head} {_none(r, study, 'swept phi')}"
     if r["outcome"] != "window":
         return f"{head}: search stopped ({r.get('note', '')})"
+    if r["lower_kind"] == r["upper_kind"] == SWEPT_END and r["lower_edge"] == r["upper_edge"]:
+        return (f"{head}: admissible at the only swept phi {r['lower_edge']:g} (sweep more equivalence ratios to "
+                "find the window's edges)")
     return f"{head}: admissible from {_phi_edge(r, 'lower', study)} to {_phi_edge(r, 'upper', study)}{nth}"
 
 

@@ -7,6 +7,7 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import planned_searches
 from ..admissible.words import kept
+from .progress import plural
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
@@ -115,10 +116,13 @@ def _limits_line(study, timings: dict, jobs) -> str:
     asks = []
     if plan["blend_fraction"]:
         asks.append(f"the admissible {study.blend_with} fractions (both edges of every window) at "
-                    f"{plan['blend_fraction']} settings (to {lim.tolerance['blend_fraction']:g})")
+                    f"{plural(plan['blend_fraction'], 'setting')} (to {lim.tolerance['blend_fraction']:g})")
     if plan["equivalence_ratio"]:
-        asks.append(f"the admissible equivalence-ratio windows at {plan['equivalence_ratio']} settings "
-                    f"(to {lim.tolerance['equivalence_ratio']:g})")
+        asks.append(f"the admissible equivalence-ratio windows at {plural(plan['equivalence_ratio'], 'setting')} "
+                    f"(to {lim.tolerance['equivalence_ratio']:g})"
+                    + (f"; the sweep has one phi ({study.equivalence_ratios[0]:g}): that search can only say whether "
+                       "it is admissible, sweep more to find the window's edges"
+                       if len(study.equivalence_ratios) == 1 else ""))
     secs, _ = flame_seconds(len(study.atoms), timings)
     t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)
     keep = kept(study)

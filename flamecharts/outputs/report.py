@@ -147,8 +147,14 @@ def _axis_value(r: dict, v: float) -> str:
 def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
     """The admissible range of every searched condition, first of the key numbers: the
     blend fractions the burner takes (else the phi windows), with what binds at each edge."""
-    axis = "blend_fraction" if any(r["axis"] == "blend_fraction" for r in limits) else "equivalence_ratio"
-    mine = [r for r in limits if r["axis"] == axis]
+    out = []
+    for axis in ("blend_fraction", "equivalence_ratio"):
+        out += _key_limits(study, [r for r in limits if r["axis"] == axis], axis)
+    return out
+
+
+def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
+    """Key-number rows of one axis's searches: one per condition, at most MAX_KEY_LIMITS."""
     groups: dict[tuple, list[dict]] = {}
     for r in mine:
         groups.setdefault((r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
@@ -166,7 +172,10 @@ def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
             where += f" ({', '.join(binds)} bind{'s' if len(binds) == 1 else ''})" if binds else " (nothing binds)"
         elif r0["outcome"] == "none admissible":
             value = "none"
-            if r0.get("closest_miss_at") is not None:
+            if r0.get("flame_lower_edge") is not None:
+                where += (f" (outside the Wobbe band; the flames alone allow "
+                          f"{_axis_value(r0, r0['flame_lower_edge'])} to {_axis_value(r0, r0['flame_upper_edge'])})")
+            elif r0.get("closest_miss_at") is not None:
                 where += f" (closest at {_axis_value(r0, r0['closest_miss_at'])}: {r0['closest_miss_margins']})"
         else:
             value = "not settled"

@@ -241,16 +241,36 @@ WINDOW_GRID_POINTS = 241
 
 
 def _fine_field(values: np.ndarray, fracs: np.ndarray, phis: np.ndarray, xf: np.ndarray, yf: np.ndarray):
-    """A margin on the solved (blend fraction, phi) grid read bilinearly onto the fine grid
-    (xf, yf); NaN wherever a corner of its cell has no flame."""
-    return RegularGridInterpolator((fracs, phis), values, method="linear", bounds_error=False)(
-        np.stack(np.meshgrid(xf, yf, indexing="ij"), axis=-1))
+    """A margin on the solved (blend fraction, phi) grid read onto the fine grid (xf, yf),
+    bilinearly in its logarithm (margins are power laws of S_L^2/alpha_u: the product of the
+    flashback and blowoff margins, constant at the solved points, stays constant between
+    them); NaN wherever a corner of its cell has no flame."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        logs = np.where(values > 0, np.log(values), np.nan)
+    return np.exp(RegularGridInterpolator((fracs, phis), logs, method="linear", bounds_error=False)(
+        np.stack(np.meshgrid(xf, yf, indexing="ij"), axis=-1)))
+
+
+def _limit_overlay(ax, limits: list[dict]) -> None:
+    """The windows of the limit searches of one panel as black segments: blend windows at their
+    phi (horizontal), phi windows at their blend (vertical)."""
+    for r in limits:
+        if r["outcome"] != "window":
+            continue
+        if r["axis"] == "blend_fraction":
+            ax.plot([100 * r["lower_edge"], 100 * r["upper_edge"]], [r["equivalence_ratio"]] * 2, color="k", lw=2.5,
+                    solid_capstyle="butt", zorder=5)
+        else:
+            ax.plot([100 * (r["blend_fraction"] or 0)] * 2, [r["lower_edge"], r["upper_edge"]], color="k", lw=2.5,
+                    solid_capstyle="butt", zorder=5)
 
 
 @chart("operating_window",
-       "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read bilinearly "
-       "between the solved points (dots); the green region keeps both minimum margins and is bounded by "
-       "exactly the two lines drawn; hatched: no flame or failed.",
+       "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read between the "
+       "solved points (dots; bilinear in their logarithms); the green region keeps both minimum margins and is "
+       "bounded by exactly the two lines drawn; hatched: no flame or failed. With [limits], black segments are "
+       "the windows the limit searches found with flames: where they and the shading differ, the segments are "
+       "the answer.",
        has_window)
 def window_chart(data, study):
     """Operating window over (blend fraction, phi): one interpolated field per margin, the fill and
@@ -283,6 +303,8 @@ def window_chart(data, study):
                                            (bof, bo_min, "#1f6f6f", "--")):
             if np.nanmin(grid, initial=np.inf) < level < np.nanmax(grid, initial=-np.inf):
                 ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.8, linestyles=style)
+        _limit_overlay(ax, [r for r in data.limits if (r["fuel"], r["oxidizer"], r["pressure_bar"],
+                                                       r["unburned_temperature_K"]) == (fuel, ox, P, T)])
         Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
         warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
         ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, clip_on=False, zorder=6)
@@ -305,6 +327,9 @@ def window_chart(data, study):
         "no flame or failed (hatched)": Patch(facecolor="0.85", hatch="//"),
         "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
     }
+    if any(r["outcome"] == "window" for r in data.limits):
+        handles["admissible windows the limit searches found\nwith flames (limits.csv): the answer"] = Line2D(
+            [], [], color="k", lw=2.5)
     if any((ds.warnings.values != "").ravel()):
         handles["solved point with a range warning\n(see results.csv, warnings)"] = Line2D(
             [], [], color="#b2182b", marker="x", linestyle="none")
@@ -416,39 +441,56 @@ def _offsets(n: int, span: float) -> list[float]:
     return [0.0] if n == 1 else [span * (i / (n - 1) - 0.5) for i in range(n)]
 
 
+def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
+    """One limits.csv row drawn at ``x`` along a vertical axis of its search (blend fraction x ``scale``,
+    or phi): the window as a bar with its edge markers, or the closest miss, or the window the flames
+    alone allow outside the Wobbe band (dotted); the flames the search solved as dots."""
+    if (r["window"] or 0) <= 1:
+        asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
+        ax.plot([x] * len(asked), [scale * v for v in asked], ".", color="0.35", ms=3, zorder=3)
+        handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
+    if r["outcome"] == "window":
+        _bar(ax, x, scale * r["lower_edge"], scale * r["upper_edge"], col, 7)
+        _edge_marker(ax, x, scale * r["lower_edge"], r, "lower", col, handles)
+        _edge_marker(ax, x, scale * r["upper_edge"], r, "upper", col, handles)
+        fu = r.get("flame_upper_edge")
+        if fu is not None and r["upper_kind"] == "Wobbe band" and r["flame_upper_kind"] != "range end":
+            ax.plot([x, x], [scale * r["upper_edge"], scale * fu], ":", color=col, lw=1.4)
+            ax.plot(x, scale * fu, "_", color=col, ms=12, mew=2)
+            handles.setdefault("dotted: what the flame margins alone would allow\n(beyond the Wobbe band)",
+                               Line2D([], [], ls=":", marker="_", color="0.4"))
+    elif r["outcome"] == "none admissible" and r.get("flame_lower_edge") is not None:
+        ax.plot([x, x], [scale * r["flame_lower_edge"], scale * r["flame_upper_edge"]], ":", color=col, lw=2.2)
+        handles.setdefault("dotted: what the flame margins alone would allow\n(beyond the Wobbe band)",
+                           Line2D([], [], ls=":", marker="_", color="0.4"))
+    elif r["outcome"] == "none admissible" and r["closest_miss_at"] is not None:
+        _miss_marker(ax, x, scale * r["closest_miss_at"], handles)
+
+
+def _shade_outside_band(ax, rows, handles, span) -> None:
+    """Shade the blend fractions outside the Wobbe band (``span``: ax.axhspan or ax.axvspan), where
+    the rows name one band for every curve."""
+    bands = {(r["wobbe_band_from"], r["wobbe_band_to"]) for r in rows if r.get("wobbe_band_to") is not None}
+    if len(bands) != 1:
+        return
+    lo, hi = bands.pop()
+    for a, b in ((-100.0, 100 * lo), (100 * hi, 200.0)):
+        if (a < 0 and lo > 0) or (a > 0 and hi < 1):
+            span(a, b, color="0.88", zorder=0)
+    handles["grey: outside the Wobbe band"] = Patch(color="0.88")
+
+
 def _draw_blend_windows(ax, rows, study, colours, handles):
     """Blend axis against phi: each window a vertical bar from its low to its high blend fraction."""
     groups = _limit_groups(rows, "equivalence_ratio")
     phis = sorted({r["equivalence_ratio"] for r in rows})
     step = min((b - a for a, b in zip(phis, phis[1:])), default=0.1)
+    _shade_outside_band(ax, rows, handles, ax.axhspan)
     for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
         handles[f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"] = Line2D([], [], color=col, lw=6, alpha=0.45)
-        tops = [(r["equivalence_ratio"] + dx, 100 * r["upper_edge"]) for r in rs if r["outcome"] == "window"
-                and r["window"] == max(q["window"] for q in rs if q["equivalence_ratio"] == r["equivalence_ratio"])]
-        if len(tops) > 1:
-            ax.plot(*zip(*tops), "-", color=col, lw=1.0, alpha=0.8)
         for r in rs:
-            x = r["equivalence_ratio"] + dx
-            if r["outcome"] == "none admissible":
-                if r["closest_miss_at"] is not None:
-                    _miss_marker(ax, x, 100 * r["closest_miss_at"], handles)
-                continue
-            if r["outcome"] != "window":
-                continue
-            _bar(ax, x, 100 * r["lower_edge"], 100 * r["upper_edge"], col, 7)
-            _edge_marker(ax, x, 100 * r["lower_edge"], r, "lower", col, handles)
-            _edge_marker(ax, x, 100 * r["upper_edge"], r, "upper", col, handles)
-            fu = r.get("flame_upper_edge")
-            if fu is not None and r["upper_kind"] == "Wobbe band" and r["flame_upper_kind"] != "range end":
-                ax.plot([x, x], [100 * r["upper_edge"], 100 * fu], ":", color=col, lw=1.2)
-                ax.plot(x, 100 * fu, "_", color=col, ms=12, mew=2)
-                handles.setdefault("dotted to bar: what the flame margins alone would allow",
-                                   Line2D([], [], ls=":", marker="_", color="0.4"))
-            asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
-            ax.plot([x] * len(asked), [100 * v for v in asked], ".", color="0.35", ms=3, zorder=3)
-    handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
-    if len(phis) == 1:
-        ax.set_xlim(phis[0] - 0.1, phis[0] + 0.1)
+            _draw_search_row(ax, r["equivalence_ratio"] + dx, r, col, handles, 100.0)
+    ax.set_xlim(phis[0] - 0.6 * step, phis[-1] + 0.6 * step)
     ax.set_xlabel("equivalence ratio φ")
     ax.set_ylabel(f"admissible {study.blend_with} fraction [%]")
     ax.set_ylim(-4, 104)
@@ -465,7 +507,9 @@ def _draw_window_spans(ax, rows, colours, handles):
         for r in rows:
             if (r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) != key:
                 continue
-            if r["outcome"] == "none admissible" and r["closest_miss_at"] is not None:
+            if r["outcome"] == "none admissible" and r.get("flame_lower_edge") is not None:
+                ax.plot([r["flame_lower_edge"], r["flame_upper_edge"]], [y, y], ":", color=col, lw=2.2)
+            elif r["outcome"] == "none admissible" and r["closest_miss_at"] is not None:
                 _miss_marker(ax, r["closest_miss_at"], y, handles)
             if r["outcome"] != "window":
                 continue
@@ -489,21 +533,12 @@ def _draw_phi_windows(ax, rows, study, colours, handles):
         groups.setdefault((r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]), []).append(r)
     fracs = sorted({100 * r["blend_fraction"] for r in rows})
     step = min((b - a for a, b in zip(fracs, fracs[1:])), default=10.0)
+    _shade_outside_band(ax, rows, handles, ax.axvspan)
     for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
         handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col, lw=6, alpha=0.45))
         for r in rs:
-            x = 100 * r["blend_fraction"] + dx
-            if r["outcome"] == "none admissible":
-                if r["closest_miss_at"] is not None:
-                    _miss_marker(ax, x, r["closest_miss_at"], handles)
-                continue
-            if r["outcome"] != "window":
-                continue
-            _bar(ax, x, r["lower_edge"], r["upper_edge"], col, 7)
-            _edge_marker(ax, x, r["lower_edge"], r, "lower", col, handles)
-            _edge_marker(ax, x, r["upper_edge"], r, "upper", col, handles)
-    if len(fracs) == 1:
-        ax.set_xlim(fracs[0] - 10, fracs[0] + 10)
+            _draw_search_row(ax, 100 * r["blend_fraction"] + dx, r, col, handles, 1.0)
+    ax.set_xlim(fracs[0] - 0.6 * step, fracs[-1] + 0.6 * step)
     ax.set_xlabel(f"{study.blend_with} fraction [%]")
     ax.set_ylabel("admissible equivalence ratio φ")
     ax.grid(alpha=0.3)
