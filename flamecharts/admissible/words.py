@@ -92,7 +92,9 @@ def _outside_band(r: dict, study) -> str | None:
         alone = f"{100 * r['flame_lower_edge']:.1f}-{100 * r['flame_upper_edge']:.1f} %"
         head = f"no {blend} fraction inside {band} keeps every margin"
     else:
-        alone = f"phi {r['flame_lower_edge']:.3f}-{r['flame_upper_edge']:.3f}"
+        lean = " or leaner" if r.get("flame_lower_kind") == SWEPT_END else ""
+        rich = " or richer" if r.get("flame_upper_kind") == SWEPT_END else ""
+        alone = f"phi {r['flame_lower_edge']:.3f}{lean} to {r['flame_upper_edge']:.3f}{rich}"
         head = (f"this blend ({100 * (r['blend_fraction'] or 0):.1f} % {blend}) lies outside {band}"
                 if study.blend_with else f"this fuel lies outside {band}")
     note = f"; {r['note']}" if r.get("note") else ""

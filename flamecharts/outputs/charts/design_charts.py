@@ -437,7 +437,8 @@ def _bar(ax, x, lo, hi, col, width, vertical=True):
 
 
 def _offsets(n: int, span: float) -> list[float]:
-    """Side-by-side offsets of n series so that equal answers stay apart."""
+    """Side-by-side offsets of n series, ``span`` wide in all, so that equal answers stay apart (ticks
+    mark the swept values the bars stand for)."""
     return [0.0] if n == 1 else [span * (i / (n - 1) - 0.5) for i in range(n)]
 
 
@@ -486,11 +487,13 @@ def _draw_blend_windows(ax, rows, study, colours, handles):
     phis = sorted({r["equivalence_ratio"] for r in rows})
     step = min((b - a for a, b in zip(phis, phis[1:])), default=0.1)
     _shade_outside_band(ax, rows, handles, ax.axhspan)
-    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
+    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.25 * step)):
         handles[f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"] = Line2D([], [], color=col, lw=6, alpha=0.45)
         for r in rs:
             _draw_search_row(ax, r["equivalence_ratio"] + dx, r, col, handles, 100.0)
     ax.set_xlim(phis[0] - 0.6 * step, phis[-1] + 0.6 * step)
+    if len(phis) <= 12:
+        ax.set_xticks(phis, [f"{v:g}" for v in phis])
     ax.set_xlabel("equivalence ratio φ")
     ax.set_ylabel(f"admissible {study.blend_with} fraction [%]")
     ax.set_ylim(-4, 104)
@@ -534,11 +537,13 @@ def _draw_phi_windows(ax, rows, study, colours, handles):
     fracs = sorted({100 * r["blend_fraction"] for r in rows})
     step = min((b - a for a, b in zip(fracs, fracs[1:])), default=10.0)
     _shade_outside_band(ax, rows, handles, ax.axvspan)
-    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.5 * step)):
+    for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.25 * step)):
         handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col, lw=6, alpha=0.45))
         for r in rs:
             _draw_search_row(ax, 100 * r["blend_fraction"] + dx, r, col, handles, 1.0)
     ax.set_xlim(fracs[0] - 0.6 * step, fracs[-1] + 0.6 * step)
+    if len(fracs) <= 12:
+        ax.set_xticks(fracs, [f"{v:g}" for v in fracs])
     ax.set_xlabel(f"{study.blend_with} fraction [%]")
     ax.set_ylabel("admissible equivalence ratio φ")
     ax.grid(alpha=0.3)
