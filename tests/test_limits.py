@@ -416,3 +416,13 @@ def test_a_margin_best_at_the_end_of_the_axis_costs_one_flame_unless_it_peaks_ju
                         peaked)
     ((lo, _, _, hi, _, _),) = _edges(answer)
     assert lo == pytest.approx(0.9 - math.sqrt(0.1 / 40), abs=0.005) and hi == pytest.approx(0.9 + math.sqrt(0.1 / 40), abs=0.005)
+
+
+def test_no_window_is_looked_for_where_the_wobbe_band_rules_every_blend_out():
+    # the flame window of the first test (0.15-0.18) lies outside a band from 0.4 to 0.5: nothing is
+    # solved between the failing swept blends, and the answer says where it did not look
+    rowf = _margins(lambda x: 8 * (0.18 - x), lambda x: 9 * (x - 0.15))
+    swept = [(x, rowf(x)) for x in (0.0, 0.3, 0.6)]
+    answer, asked = _search(window_search(swept, PARTS, 0.005, 12, (0.0, 1.0), look_inside=[(0.4, 0.5)]), rowf)
+    assert answer.windows == [] and asked == [1.0]
+    assert answer.skipped == [(0.0, 0.3)]

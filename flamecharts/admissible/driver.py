@@ -127,7 +127,8 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
         for (fuel, ox, phi, P, T), swept in groups.items():
             cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=None, equivalence_ratio=phi, pressure_bar=P,
                         unburned_temperature_K=T)
-            gen = window_search(swept, parts, lim.tolerance["blend_fraction"], lim.max_flames_per_search, (0.0, 1.0))
+            gen = window_search(swept, parts, lim.tolerance["blend_fraction"], lim.max_flames_per_search, (0.0, 1.0),
+                                look_inside=bands[(fuel, ox)])
             out.append(_Search("blend_fraction", cond, gen, band=bands[(fuel, ox)]))
     if "equivalence_ratio" in lim.find:
         groups = defaultdict(list)
@@ -286,8 +287,11 @@ def _band_words(a: Answer, band) -> list[str]:
         return ["every blend fraction from 0 to 100 % lies outside the Wobbe band"]
     if a.flame_windows:
         more = "; ".join(f"{_pct(w.lower.value)}-{_pct(w.upper.value)} %" for w in a.flame_windows[1:])
-        return [f"the flame margins also allow {more}"] if more else []
-    return []
+        out = [f"the flame margins also allow {more}"] if more else []
+    else:
+        out = []
+    return out + [f"between {_pct(lo)} and {_pct(hi)} % (outside the Wobbe band) no window of the flame margins "
+                  "alone was looked for" for lo, hi in a.skipped]
 
 
 def _pct(x: float) -> str:

@@ -148,6 +148,7 @@ class Answer:
     first: float | None = None                                  # the ends of the values searched
     last: float | None = None
     values: list[tuple[float, float | None, str]] = field(default_factory=list)  # (x, g, binding) swept and ends
+    skipped: list[tuple[float, float]] = field(default_factory=list)  # failing intervals not searched (outside)
 
 
 # ---- one interval ---------------------------------------------------------------------------------------
@@ -332,13 +333,17 @@ def lockstep(gens: list[Generator]) -> Generator[list[float], list[dict], list]:
 
 
 def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max_flames: int,
-                  axis_range: tuple[float, float] | None = None) -> Generator[list[float], list[dict], Answer]:
+                  axis_range: tuple[float, float] | None = None,
+                  look_inside: list[tuple[float, float]] | None = None) -> Generator[list[float], list[dict], Answer]:
     """Every admissible window of one condition along one axis, both edges refined.
 
     ``swept``: (axis value, annotated row) of the stored sweep at this condition;
     ``axis_range``: the ends of the axis itself (blend fraction (0, 1)), or None (phi: the
     window may reach beyond the swept range). An end of the axis that was not swept (the
     pure blend gas) is asked for first, one flame, and searched like the swept points.
+    ``look_inside``: where a window can count (the Wobbe band's intervals): an interval
+    between two failing points that lies wholly outside them is not searched for a window
+    (it is named in the answer); edges are refined everywhere.
     """
     pts = sorted(swept, key=lambda t: t[0])
     ends = [] if axis_range is None else [x for x in axis_range if all(abs(x - p) > 1e-12 for p, _ in pts)]
@@ -350,6 +355,7 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
     gs = [lowest(*P) for P in Ps]
     state = ["none" if g is None else "ok" if g >= 0 else "fail" for g, _ in gs]
     tasks: dict[int, Generator] = {}
+    skipped: list[tuple[float, float]] = []
     for i in range(len(pts) - 1):
         (xa, ra), (xb, rb) = pts[i], pts[i + 1]
         pair = (state[i], state[i + 1])
@@ -359,9 +365,14 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
                                            or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):
+            if look_inside is not None and not any(xa <= b1 and xb >= b0 for b0, b1 in look_inside):
+                skipped.append((xa, xb))
+                continue
             tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts, _end_of_peak(i, Ps, gs[i][1]))
     done = yield from lockstep(list(tasks.values()))
-    return assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
+    answer = assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
+    answer.skipped = skipped
+    return answer
 
 
 def _end(x: float, row: dict, axis_range: tuple[float, float] | None) -> Edge:

@@ -55,6 +55,7 @@ def _hog(stop) -> None:
 
 def _solve(folder: Path, limit_s: float | None, jobs: int) -> list[dict]:
     import flamecharts
+    folder.mkdir(parents=True, exist_ok=True)
     cfg = folder / "study.toml"
     cfg.write_text(STUDY.format(limit="" if limit_s is None else f"flame_time_limit_s = {limit_s:.3f}"))
     return flamecharts.run(cfg, out=folder / "out", jobs=jobs, charts=False, report=False).rows
