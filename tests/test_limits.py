@@ -426,3 +426,42 @@ def test_no_window_is_looked_for_where_the_wobbe_band_rules_every_blend_out():
     answer, asked = _search(window_search(swept, PARTS, 0.005, 12, (0.0, 1.0), look_inside=[(0.4, 0.5)]), rowf)
     assert answer.windows == [] and asked == [1.0]
     assert answer.skipped == [(0.0, 0.3)]
+
+
+def test_a_flashback_dip_between_two_admissible_phis_splits_the_window():
+    # the flashback margin is lowest where the flame is fastest (phi 1.05) and falls below its minimum
+    # from 1.026 to 1.074, narrower than the sweep step: two windows, none across the dip
+    rowf = _margins(lambda p: 40 * (p - 1.05) ** 2 - 0.02, lambda p: 1.0)
+    swept = [(p, rowf(p)) for p in (0.8, 0.9, 1.0, 1.1, 1.2, 1.3)]
+    answer, asked = _search(window_search(swept, PARTS, 0.005, 12), rowf)
+    (l1, k1, _, h1, _, b1), (l2, _, b2, h2, k2, _) = _edges(answer)
+    edge = math.sqrt(0.02 / 40)
+    assert (k1, b1, b2, k2) == ("swept end", "flashback", "flashback", "swept end")
+    assert h1 == pytest.approx(1.05 - edge, abs=0.005) and l2 == pytest.approx(1.05 + edge, abs=0.005)
+    assert h1 <= 1.05 - edge + 1e-9 and l2 >= 1.05 + edge - 1e-9   # admissible ends
+    assert all(0.9 < x < 1.1 for x in asked)  # between the neighbours of the lowest swept margin
+    # with the margin 2.7 times its minimum at the lowest swept point the dip is not looked for
+    wide = _margins(lambda p: 40 * (p - 1.05) ** 2 + 1.0, lambda p: 1.0)
+    answer, asked = _search(window_search([(p, wide(p)) for p in (0.8, 0.9, 1.0, 1.1, 1.2, 1.3)], PARTS, 0.005, 12),
+                            wide)
+    assert asked == [] and _edges(answer) == [(0.8, "swept end", "", 1.3, "swept end", "")]
+
+
+def test_a_dip_inside_an_interval_that_fails_at_one_end_is_found_with_the_window_behind_it():
+    # admissible 0.9-0.95 and 1.15-1.2 (blowoff outside, flashback dip inside); swept 0.6, 0.9, 1.4
+    rowf = _margins(lambda p: 10 * abs(p - 1.05) - 1.0, lambda p: 0.25 - 11.111 * (p - 1.05) ** 2)
+    answer, _ = _search(window_search([(p, rowf(p)) for p in (0.6, 0.9, 1.4)], PARTS, 0.005, 12), rowf)
+    (l1, _, _, h1, _, _), (l2, _, _, h2, _, _) = _edges(answer)
+    assert l1 == pytest.approx(0.9, abs=0.006) and h1 == pytest.approx(0.95, abs=0.006)
+    assert l2 == pytest.approx(1.15, abs=0.006) and h2 == pytest.approx(1.2, abs=0.006)
+
+
+def test_an_edge_toward_a_mixture_that_does_not_burn_is_refined():
+    base = _margins(lambda p: 1.0, lambda p: 1.0)
+
+    def rowf(p):
+        return {"status": "no_flame"} if p < 0.43 else base(p)
+    answer, _ = _search(window_search([(p, rowf(p)) for p in (0.4, 0.5, 0.6)], PARTS, 0.005, 12), rowf)
+    (w,) = answer.windows
+    assert (w.lower.kind, w.lower.binding) == ("found", "no flame")
+    assert 0.43 <= w.lower.value <= 0.435 and w.lower.failing < 0.43

@@ -25,8 +25,8 @@ from ..results import point_rows
 from ..sweep.points import Point, points
 from .search import CRITERIA, WOBBE, Answer, apply_band, band_at, limit_parts, window_search
 
-#: Fractions at which the Wobbe index is scanned before its band edge is refined (it
-#: needs no flame; the scan only finds the first interval that leaves the band).
+#: Fractions at which the Wobbe index is scanned before each crossing of a band edge is
+#: refined (it needs no flame).
 WOBBE_SCAN = 100
 
 
@@ -226,11 +226,12 @@ def limit_rows(study, s: _Search) -> list[dict]:
     crit = flame_criteria(study)
     if not a.windows:
         m = a.miss
-        outcome = "stopped" if a.stopped and m is None else "none admissible"
+        outcome = "stopped" if a.stopped and m is None and not a.flame_windows else "none admissible"
         if a.flame_windows:
             common.update(_flame_columns(a.flame_windows[0]))
         if s.band:
-            common.update(wobbe_band_from=s.band[0][0], wobbe_band_to=s.band[0][1])
+            near = _nearest(s.band, a.flame_windows[0] if a.flame_windows else None, s.cond["blend_fraction"])
+            common.update(wobbe_band_from=near[0], wobbe_band_to=near[1])
         ends = [] if m is None or s.axis != "equivalence_ratio" or m.at not in (a.first, a.last) else [
             "the closest miss is at the end of the swept range: a window may lie beyond it"]
         row = {**common, "window": 0, "outcome": outcome,
@@ -244,7 +245,7 @@ def limit_rows(study, s: _Search) -> list[dict]:
     out = []
     for n, w in enumerate(a.windows, 1):
         row = {**common, "window": n, "outcome": "window", "note": "; ".join(
-            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a, w))}
+            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a, w) + _skipped(a))}
         for side, e in (("lower", w.lower), ("upper", w.upper)):
             row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
@@ -255,6 +256,17 @@ def limit_rows(study, s: _Search) -> list[dict]:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
+
+
+def _nearest(band: list[tuple[float, float]], w, x: float | None) -> tuple[float, float]:
+    """The band interval nearest a flame window (blend search) or a blend fraction (phi search)."""
+    lo, hi = (w.lower.value, w.upper.value) if w is not None else (x or 0.0, x or 0.0)
+    return min(band, key=lambda b: max(b[0] - hi, lo - b[1], 0.0))
+
+
+def _skipped(a: Answer) -> list[str]:
+    return [f"between {_pct(lo)} and {_pct(hi)} % (outside the Wobbe band) no window of the flame margins "
+            "alone was looked for" for lo, hi in a.skipped]
 
 
 def _flame_columns(w) -> dict:
@@ -290,8 +302,7 @@ def _band_words(a: Answer, band) -> list[str]:
         out = [f"the flame margins also allow {more}"] if more else []
     else:
         out = []
-    return out + [f"between {_pct(lo)} and {_pct(hi)} % (outside the Wobbe band) no window of the flame margins "
-                  "alone was looked for" for lo, hi in a.skipped]
+    return out + _skipped(a)
 
 
 def _pct(x: float) -> str:

@@ -25,7 +25,14 @@ points, then works on every interval between neighbours at once:
   inside an interval can only sit next to the swept point where g_c is largest. Those
   intervals get a bounded maximisation (Brent's minimiser on -g, :func:`brent.maximum_steps`);
   the others cannot hold a window and cost no flame;
-- admissible on both sides: admissible throughout under the same property.
+- a criterion that holds at both ends of an interval may still fail inside it if its margin
+  is quasi-convex (the flashback margin along phi is lowest where the flame is fastest), but
+  only next to the swept point where that margin is lowest. Before the intervals are worked
+  on, a bounded minimisation of that margin there looks for a flame that breaks it; such a
+  flame is added to the points, splitting its interval. The search is left out where the
+  parabola through the three swept values nearest the lowest keeps the margin DIP_HEADROOM
+  above its minimum (S_L is smooth, its peak in phi parabolic);
+- admissible on both sides otherwise: admissible throughout.
 
 Every search is a generator that yields the list of axis values it needs flames at and
 is sent their annotated rows in the same order, so the driver can solve the flames of
@@ -36,6 +43,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 from typing import Callable, Generator
+
+import numpy as np
 
 from .brent import Bracket, brent_steps, maximum_steps
 
@@ -57,6 +66,17 @@ STOPPED = "stopped"        # no burning flame inside the bracket, or the flame b
 
 #: Per-criterion log-margins of a row: ({criterion: g_c}, '') or (None, why it has none).
 Parts = Callable[[dict], tuple["dict[str, float] | None", str]]
+#: What binds past an edge beyond which the mixture does not burn, and the limit function
+#: given there to the root finder (any clearly failing value: the step is then bisection-like).
+NO_FLAME = "no flame"
+NO_FLAME_G = -5.0
+
+
+def burning_or_not(parts: Parts) -> Parts:
+    """``parts`` that counts a mixture without a flame (status no_flame: too lean, rich or
+    diluted to burn) as failing, so that an edge toward it can be refined like any other;
+    a flame that failed to solve still has no value."""
+    return lambda r: ({NO_FLAME: NO_FLAME_G}, "") if r.get("status") == "no_flame" else parts(r)
 
 
 def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
@@ -247,7 +267,8 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     seen: list = []
     x_ok = None
     if end and ca == cb:
-        x_end, P_end, x_in = (xa, Pa, xa + tol) if end == "a" else (xb, Pb, xb - tol)
+        step = min(tol, 0.5 * (xb - xa))
+        x_end, P_end, x_in = (xa, Pa, xa + step) if end == "a" else (xb, Pb, xb - step)
         row = yield x_in
         P, why = parts(row)
         g, c = lowest(P, why)
@@ -281,6 +302,74 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     lower = yield from crossing(x_ok, row_ok, xa, ra, tol, max_flames, parts)
     upper = yield from crossing(x_ok, row_ok, xb, rb, tol, max_flames, parts)
     return _Interval(window=Window(lower, upper), evaluated=seen + lower.evaluated + upper.evaluated)
+
+
+#: A margin whose parabola through the three swept values nearest its lowest keeps it at
+#: least this factor above its minimum is not searched for a dip between them (common
+#: practice without source: between swept points S_L^2/alpha_u departs from that parabola by
+#: a few per cent, far less than 25 %).
+DIP_HEADROOM = 1.25
+
+
+def parabola_low(xs: list[float], ys: list[float], lo: float, hi: float) -> float:
+    """The lowest value over [lo, hi] of the parabola through three points (x, y).
+
+    >>> round(parabola_low([0.9, 1.0, 1.1], [0.3, 0.1, 0.2], 0.9, 1.1), 4)
+    0.0958
+    """
+    a, b, c = (float(v) for v in np.polyfit(xs, ys, 2))
+    cands = [lo, hi] + ([-b / (2 * a)] if a > 0 and lo < -b / (2 * a) < hi else [])
+    return min(a * x * x + b * x + c for x in cands)
+
+
+def dip_spans(pts: list[tuple[float, dict]], Ps: list) -> list[tuple[str, float, float]]:
+    """(criterion, a, b): where a criterion that holds at every swept point next to its lowest
+    swept value may dip below its minimum in between (see the module docstring); left out
+    where the parabola through the three swept values nearest the lowest keeps DIP_HEADROOM.
+
+    >>> P = [{"flashback": 0.9}, {"flashback": 0.1}, {"flashback": 0.8}]
+    >>> dip_spans([(0.9, {}), (1.0, {}), (1.1, {})], [(p, "") for p in P])
+    [('flashback', 0.9, 1.1)]
+    """
+    out = []
+    for c in sorted({c for P, _ in Ps if P is not None for c in P}):
+        vals = [(j, P[c]) for j, (P, _) in enumerate(Ps) if P is not None]
+        k, g_k = min(vals, key=lambda t: t[1])
+        if g_k < 0:
+            continue  # it fails at a swept point: the intervals around it are searched anyway
+        span = [j for j in (k - 1, k, k + 1) if 0 <= j < len(pts) and Ps[j][0] is not None]
+        if len(span) < 2:
+            continue
+        low = min(Ps[j][0][c] for j in span)  # two burning points: the straight line between them
+        if len(vals) >= 3:
+            near = sorted(sorted(vals, key=lambda t: abs(t[0] - k))[:3])
+            low = parabola_low([pts[j][0] for j, _ in near], [g for _, g in near], pts[span[0]][0], pts[span[-1]][0])
+        if low < math.log(DIP_HEADROOM):
+            out.append((c, pts[span[0]][0], pts[span[-1]][0]))
+    return out
+
+
+def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int,
+               parts: Parts) -> Generator[float, dict, tuple]:
+    """Brent's bounded minimisation of ``criterion``'s log-margin over (a, b), stopped at the
+    first flame where it fails. Returns ((x, row) of that flame or None, evaluated, note)."""
+    gen = maximum_steps(a, b, tol, max_flames)   # the maximum of -g_c
+    seen: list = []
+    try:
+        x = next(gen)
+        while True:
+            row = yield x
+            P, why = parts(row)
+            seen.append((x, lowest(P, why)[0]))
+            if P is None:
+                gen.close()
+                return None, seen, f"no burning flame at {x:.4g} ({why}) between {a:.4g} and {b:.4g}"
+            if P[criterion] < 0:
+                gen.close()
+                return (x, row), seen, ""
+            x = gen.send(-P[criterion])
+    except StopIteration:
+        return None, seen, ""
 
 
 def _end_of_peak(i: int, Ps: list, criterion: str) -> str:
@@ -352,6 +441,14 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
         pts = sorted(pts + list(zip(ends, rows)), key=lambda t: t[0])
     Ps = [parts(r) for _, r in pts]
     extra = [(x, lowest(*parts(r))[0]) for x, r in zip(ends, rows)] if ends else []
+    dips = dip_spans(pts, Ps)
+    found = yield from lockstep([dip_search(a, b, c, tol, max_flames, parts) for c, a, b in dips])
+    extra += [e for _, seen, _ in found for e in seen]
+    dip_notes = [note for _, _, note in found if note]
+    inserted = sorted({hit[0]: hit for hit, _, _ in found if hit is not None}.values(), key=lambda t: t[0])
+    if inserted:  # failing flames between admissible points split their intervals
+        pts = sorted(pts + inserted, key=lambda t: t[0])
+        Ps = [parts(r) for _, r in pts]
     gs = [lowest(*P) for P in Ps]
     state = ["none" if g is None else "ok" if g >= 0 else "fail" for g, _ in gs]
     tasks: dict[int, Generator] = {}
@@ -363,6 +460,10 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, parts)
         elif pair == ("fail", "ok"):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
+        elif pair == ("ok", "none") and rb.get("status") == "no_flame":
+            tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, burning_or_not(parts))
+        elif pair == ("none", "ok") and ra.get("status") == "no_flame":
+            tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, burning_or_not(parts))
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
                                            or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):
             if look_inside is not None and not any(xa <= b1 and xb >= b0 for b0, b1 in look_inside):
@@ -372,6 +473,9 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
     done = yield from lockstep(list(tasks.values()))
     answer = assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
     answer.skipped = skipped
+    answer.stopped += dip_notes
+    inside = {x for x, _ in inserted}
+    answer.failures = [(x, c) for x, c in answer.failures if x not in inside]
     return answer
 
 
@@ -398,13 +502,14 @@ def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], 
         elif pair == ("fail", "ok"):
             lower = res
         elif pair == ("ok", "none"):
-            windows.append(Window(lower, Edge(xa, STOPPED, gs[i + 1][1], ra, xb,
-                                              f"no burning flame at {xb:.4g} ({gs[i + 1][1]}): the edge lies "
-                                              f"between {xa:.4g} and {xb:.4g}")))
+            windows.append(Window(lower, res if res is not None else Edge(
+                xa, STOPPED, gs[i + 1][1], ra, xb,
+                f"no burning flame at {xb:.4g} ({gs[i + 1][1]}): the edge lies between {xa:.4g} and {xb:.4g}")))
             lower = None
         elif pair == ("none", "ok"):
-            lower = Edge(xb, STOPPED, gs[i][1], rb, xa, f"no burning flame at {xa:.4g} ({gs[i][1]}): the edge "
-                                                        f"lies between {xa:.4g} and {xb:.4g}")
+            lower = res if res is not None else Edge(
+                xb, STOPPED, gs[i][1], rb, xa,
+                f"no burning flame at {xa:.4g} ({gs[i][1]}): the edge lies between {xa:.4g} and {xb:.4g}")
         elif res is not None:  # an interior search between two failing points
             if res.window is not None:
                 windows.append(res.window)

@@ -41,6 +41,8 @@ def _minimum(study, criterion: str) -> float | None:
 def _binds(r: dict, side: str, study, past: str) -> str:
     """'flashback binds richer: margin 1.50 there, minimum 1.5'."""
     c, m = r.get(f"{side}_binding"), r.get(f"{side}_margin")
+    if c == "no flame":
+        return f"the mixture does not burn{past}"
     need = _minimum(study, c)
     there = f": margin {m:.2f} there, minimum {need:g}" if m is not None and need is not None else ""
     return f"{c} binds{past}{there}"
