@@ -12,6 +12,7 @@ class Status(StrEnum):
     OK = "ok"                # a burning flame was solved and measured
     NO_FLAME = "no_flame"    # the mixture does not burn (too lean, too diluted, cold branch)
     FAILED = "failed"        # no solution: see the Reason
+    AUTOIGNITION = "autoignition"  # the fresh mixture ignites before a flame can cross it: no flame speed
     PENDING = "pending"      # not solved yet
 
 
@@ -22,3 +23,4 @@ class Reason(StrEnum):
     MECHANISM_ERROR = "mechanism error" # non-finite rates or thermodynamics, or Cantera failed outside the solver
     WORKER_ERROR = "worker error"       # the worker process died on the point: solved again by the next run
     TIME_LIMIT = "time limit"           # the flame took longer than the run's per-flame time limit
+    AUTOIGNITION = "autoignition"       # status autoignition (decided at read-out from the stored screen)

@@ -37,6 +37,7 @@ class RunSummary:
     failed: int
     no_flame: int
     wall_seconds: float
+    autoignition: int = 0  # points whose mixture ignites before a flame can cross it (no flame speed)
     failures: list[dict] = field(default_factory=list)
     solve_seconds: float = 0.0  # summed over the flames solved in this run, as measured by the workers
     workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
@@ -120,7 +121,8 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       failed=sum(1 for r in rows if r["status"] == "failed"),
                       no_flame=sum(1 for r in rows if r["status"] == "no_flame"),
                       wall_seconds=time.perf_counter() - t0,
-                      failures=[r for r in rows if r["status"] in ("failed", "no_flame")],
+                      autoignition=sum(1 for r in rows if r["status"] == "autoignition"),
+                      failures=[r for r in rows if r["status"] in ("failed", "no_flame", "autoignition")],
                       solve_seconds=sum(p["solve_seconds"] for p in parts), workers=workers,
                       limits=[r for p in parts for r in p["limits"]],
                       limit_flames=sum(p["limit_flames"] for p in parts),

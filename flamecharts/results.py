@@ -27,6 +27,7 @@ import xarray as xr
 
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
+from .chemistry.ignition import autoignition_warning
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
 from .config import Study, by_mechanism, load_config_copy, lumping_note, resolution_label
@@ -74,6 +75,20 @@ def unburned_viscosity(study: Study, p: Point) -> float:
     return viscosity(study.mechanism_path, X, float(p.T_u), float(p.P))
 
 
+#: Columns a solution that is autoignition, not a deflagration, does not have (the mixture's
+#: own properties, its equilibrium and Lewis numbers stay).
+FLAME_ONLY_COLUMNS = ("laminar_flame_speed_m_s", "thermal_thickness_mm", "diffusive_thickness_mm",
+                      "reaction_zone_thickness_mm", "expansion_ratio", "flame_speed_numerical_error_percent",
+                      "thermal_thickness_numerical_error_percent", "zeldovich_number")
+
+
+def not_a_flame(row: dict, why: str) -> None:
+    """Mark a stored solution as autoignition (status and reason autoignition, ``why`` as its
+    message) and blank every flame quantity, so no chart, fit, margin or limit reads it."""
+    row.update(status=Status.AUTOIGNITION, reason=Reason.AUTOIGNITION, message=why, grid_convergence="")
+    row.update(dict.fromkeys(FLAME_ONLY_COLUMNS))
+
+
 def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[dict]:
     """One flat row per point, in study order, from stored results (missing -> 'pending'),
     with the design indicators, fuel-gas properties and burner margins added, and the
@@ -84,6 +99,9 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
             X = tuple(sorted((k, float(v)) for k, v in p.X_unburned.items() if v > 0))
             r["lewis_number_fuel"], r["lewis_number_oxygen"] = lewis_numbers_of(study.mechanism_path, X, float(p.T_u),
                                                                                 float(p.P))
+    for p, r in zip(pts, flat):  # a mixture that ignites before a flame can cross it is not a flame
+        if r["status"] == "ok" and (why := autoignition_warning(study.mechanism_path, p.X_unburned, p.T_u, p.P, r)):
+            not_a_flame(r, why)
     if study.burner is not None:  # the port's Reynolds number decides laminar or turbulent wall gradient
         for p, r in zip(pts, flat):
             r["unburned_viscosity_Pa_s"] = unburned_viscosity(study, p)

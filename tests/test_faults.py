@@ -410,7 +410,7 @@ def test_equivalence_ratio_outside_the_flammable_range_warns():
 
 
 @pytest.mark.slow
-def test_autoignition_before_the_flame_is_a_warning_in_csv_and_report(tmp_path):
+def test_an_autoigniting_mixture_is_not_a_flame_in_csv_and_report(tmp_path):
     """Stoichiometric hydrogen-air preheated to 1000 K ignites on its own in about 0.3 ms at
     1 bar (constant-pressure reactor, h2o2.yaml), far less than 100 flame transit times:
     the computed 'flame' is autoignition in the domain. At 300 K nothing ignites."""
@@ -420,21 +420,30 @@ def test_autoignition_before_the_flame_is_a_warning_in_csv_and_report(tmp_path):
     study = load_study(config)
     s = run_study(study, out_dir=tmp_path / "out", jobs=1)
     rows = {r["unburned_temperature_K"]: r for r in s.rows}
-    assert rows[300.0]["warnings"] == ""
-    assert rows[1000.0]["warnings"].startswith("autoignition:")
+    assert rows[300.0]["warnings"] == "" and rows[300.0]["status"] == "ok"
+    # not a flame: its own status, no flame speed or thickness, no indicator (issue: it was stored as a
+    # 161,536 m/s "flame" 5 m thick)
+    hot = rows[1000.0]
+    assert (hot["status"], hot["reason"]) == ("autoignition", "autoignition")
+    assert hot["message"].startswith("autoignition: ignites in") and "(limit 100)" in hot["message"]
+    assert hot["laminar_flame_speed_m_s"] is None and hot["thermal_thickness_mm"] is None
+    assert hot["flashback_critical_gradient_1_s"] is None and hot["adiabatic_flame_temperature_K"] > 2000
     # the worker stored the delay with the flame (the read-out integrates no reactor); recomputing it
     # from the row, as for a store written before, gives the same warning
     assert 0 < rows[1000.0]["autoignition_screen_delay_s"] < 1e-3
     from flamecharts.chemistry.ignition import autoignition_warning
-    fresh = {k: v for k, v in rows[1000.0].items() if k != "autoignition_screen_delay_s"}
+    from flamecharts.results import flat_row
     p1000 = next(p for p in points(study) if p.T_u == 1000.0)
-    assert autoignition_warning(study.mechanism_path, p1000.X_unburned, 1000.0, p1000.P, fresh) == rows[1000.0]["warnings"]
+    with Store(tmp_path / "out" / "results.db", readonly=True) as store:
+        raw = flat_row(study, p1000, store.rows([p1000.key])[p1000.key])
+    fresh = {k: v for k, v in raw.items() if k != "autoignition_screen_delay_s"}
+    assert autoignition_warning(study.mechanism_path, p1000.X_unburned, 1000.0, p1000.P, fresh) == hot["message"]
     from flamecharts.outputs.tables import write_csv
     from flamecharts.outputs.report import write_report
 
     write_csv(s.rows, tmp_path / "out" / "results.csv")
     with open(tmp_path / "out" / "results.csv", newline="") as fh:
         csv_rows = list(csv.DictReader(fh))
-    assert "warnings" in csv_rows[0] and any(r["warnings"].startswith("autoignition") for r in csv_rows)
+    assert any(r["status"] == "autoignition" and r["laminar_flame_speed_m_s"] == "" for r in csv_rows)
     html = write_report(study, s.rows, tmp_path / "out").read_text()
-    assert "Points outside the range" in html and "autoignition" in html
+    assert "Points without a flame" in html and "autoignition: ignites in" in html

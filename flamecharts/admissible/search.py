@@ -72,11 +72,16 @@ NO_FLAME = "no flame"
 NO_FLAME_G = -5.0
 
 
+#: Statuses that make a mixture inadmissible whatever the margins: what binds there.
+NOT_FLAMES = {"no_flame": NO_FLAME, "autoignition": "autoignition"}
+
+
 def burning_or_not(parts: Parts) -> Parts:
     """``parts`` that counts a mixture without a flame (status no_flame: too lean, rich or
-    diluted to burn) as failing, so that an edge toward it can be refined like any other;
-    a flame that failed to solve still has no value."""
-    return lambda r: ({NO_FLAME: NO_FLAME_G}, "") if r.get("status") == "no_flame" else parts(r)
+    diluted to burn; or autoignition: it ignites before a flame can cross it) as failing, so
+    that an edge toward it can be refined like any other; a flame that failed to solve still
+    has no value."""
+    return lambda r: ({NOT_FLAMES[r["status"]]: NO_FLAME_G}, "") if r.get("status") in NOT_FLAMES else parts(r)
 
 
 def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
@@ -460,9 +465,9 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, parts)
         elif pair == ("fail", "ok"):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
-        elif pair == ("ok", "none") and rb.get("status") == "no_flame":
+        elif pair == ("ok", "none") and rb.get("status") in NOT_FLAMES:
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, burning_or_not(parts))
-        elif pair == ("none", "ok") and ra.get("status") == "no_flame":
+        elif pair == ("none", "ok") and ra.get("status") in NOT_FLAMES:
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, burning_or_not(parts))
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
                                            or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):

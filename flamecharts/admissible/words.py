@@ -43,6 +43,8 @@ def _binds(r: dict, side: str, study, past: str) -> str:
     c, m = r.get(f"{side}_binding"), r.get(f"{side}_margin")
     if c == "no flame":
         return f"the mixture does not burn{past}"
+    if c == "autoignition":
+        return f"the mixture autoignites{past}"
     need = _minimum(study, c)
     there = f": margin {m:.2f} there, minimum {need:g}" if m is not None and need is not None else ""
     return f"{c} binds{past}{there}"

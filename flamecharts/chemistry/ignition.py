@@ -1,7 +1,7 @@
 """Autoignition of the unburned mixture ahead of a flame (Cantera reactor).
 
-A warning is raised when the unburned mixture ignites on its own within
-AUTOIGNITION_FACTOR flame transit times delta_T/S_L (constant-pressure ignition delay
+A point is not a flame (status autoignition, results.point_rows) when the unburned
+mixture ignites on its own within AUTOIGNITION_FACTOR flame transit times delta_T/S_L (constant-pressure ignition delay
 at T_u, p, computed with Cantera's IdealGasConstPressureReactor over a bounded time).
 A freely propagating flame assumes the unburned gas stays chemically frozen while it
 crosses the flame, i.e. an ignition delay much longer than the flame transit time
@@ -17,8 +17,8 @@ import cantera as ct
 
 from .mechanism import solution
 
-#: Warn when the ignition delay is shorter than this many flame transit times (common
-#: practice: "much longer" taken as two orders of magnitude).
+#: Not a flame when the ignition delay is shorter than this many flame transit times
+#: (common practice: "much longer" taken as two orders of magnitude).
 AUTOIGNITION_FACTOR = 100.0
 #: The ignition delay is integrated for at most this long [s]; longer delays never warn.
 AUTOIGNITION_MAX_TIME_S = 1.0
@@ -73,8 +73,9 @@ def autoignition_screen(mechanism_path: str, X: dict, T_u: float, P: float, S_L:
 
 
 def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
-    """'' or a warning when the mixture autoignites within AUTOIGNITION_FACTOR flame
-    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K).
+    """'' or why the mixture is not a flame: it autoignites within AUTOIGNITION_FACTOR flame
+    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K);
+    results.point_rows then gives the point status autoignition and no flame quantities.
     Uses the delay the worker stored with the flame (row key ``autoignition_screen_delay_s``)
     when there is one, else computes it (stores written before it was stored)."""
     if row.get("status") != "ok":
@@ -89,9 +90,9 @@ def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row
         return ""
     transit = d_mm * 1e-3 / S_L
     if tau < min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S):
-        return (f"autoignition: ignition delay {tau:.2g} s at {T_u:g} K is within {tau / transit:.0f} flame "
-                f"transit times ({transit:.2g} s; needs >> 1): the mixture ignites before the flame arrives, "
-                "a freely propagating flame does not apply")
+        return (f"autoignition: ignites in {tau * 1e3:.2g} ms at {T_u:g} K, within {tau / transit:.0f} flame transit "
+                f"times (limit {AUTOIGNITION_FACTOR:g}): the mixture ignites before a flame can cross it, so it has "
+                "no flame speed or thickness")
     return ""
 
 

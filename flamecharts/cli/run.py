@@ -43,7 +43,8 @@ def cmd_run(args) -> int:
     progress.close()
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {plural(len(summary.rows), 'point')}, {plural(ok, 'flame')}, {summary.no_flame} no flame, "
-          f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
+          + (f"{summary.autoignition} autoigniting, " if summary.autoignition else "")
+          + f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
           f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
     if summary.failed:
         reasons = Counter(r["reason"] for r in summary.rows if r["status"] == Status.FAILED)

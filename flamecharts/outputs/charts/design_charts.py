@@ -390,7 +390,8 @@ def gas_quality_chart(data, study):
 #: How the limits chart marks the criterion that binds past each edge of a window.
 BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blowoff binds"),
                    "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds"),
-                   "no flame": ("P", "no flame beyond (does not burn)")}
+                   "no flame": ("P", "no flame beyond (does not burn)"),
+                   "autoignition": ("*", "autoignites beyond (no flame)")}
 #: Edges that leave the window open (drawn hollow): admissible at the last swept value, or not settled.
 OPEN_KINDS = ("swept end", "stopped")
 
