@@ -487,6 +487,10 @@ def _burner(b: Any) -> Burner:
                           "'input_follows_wobbe', which go with 'thermal_input_kW'")
     margins = {k: _positive(b, k, "burner") for k in ("min_flashback_margin", "min_blowoff_margin",
                                                       "min_stabilizer_margin")}
+    for k, v in margins.items():
+        if v is not None and v < 1.0:
+            raise ConfigError(f"'burner.{k}' is {v:g}; allowed: 1 or more (a margin is the burner's "
+                              "distance from the limit: below 1 the limit is already crossed)")
     stab = _positive(b, "stabilizer_size_mm", "burner", 1e-3)
     approach = _positive(b, "approach_velocity_m_s", "burner")
     if (stab is None) != (approach is None):

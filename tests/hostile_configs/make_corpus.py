@@ -222,6 +222,9 @@ CASES = {
     "limits_tolerance_in_percent": (["limits.equivalence_ratio_tolerance", "at most 0.1"],
                                     config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                                 '\n[limits]\nequivalence_ratio_tolerance = 1\n')),
+    "burner_margin_below_one": (["burner.min_flashback_margin", "0.5", "1 or more"],
+                                config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                            'min_flashback_margin = 0.5\n')),
     "limits_wobbe_without_band": (["limits.criteria", "'wobbe'", "no band", "wobbe_tolerance_percent"],
                                   config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                               '\n[limits]\ncriteria = ["flashback", "wobbe"]\n')),
