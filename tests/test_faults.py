@@ -401,11 +401,18 @@ def test_equivalence_ratio_outside_the_flammable_range_warns():
     assert flammability_warning({"CH4": 1.0}, air, 1.8) != ""
     assert flammability_warning({"CH4": 0.9, "N2": 0.1}, air, 1.0) == ""
     assert flammability_warning({"H2": 0.6, "N2": 0.4}, air, 0.05) != ""
-    # a blend warns only outside the range of every combustible in it
-    assert flammability_warning({"CH4": 0.7, "H2": 0.3}, air, 0.3) == ""
+    # a blend by Le Chatelier's rule (Le Chatelier 1891; Coward & Jones 1952): 70/30 methane/hydrogen
+    # has a lower limit of 1/(0.7/5 + 0.3/4) = 4.65 % by volume, phi 0.36 (not hydrogen's 0.1)
+    assert flammability_warning({"CH4": 0.7, "H2": 0.3}, air, 0.3) != ""
+    assert flammability_warning({"CH4": 0.7, "H2": 0.3}, air, 0.4) == ""
     assert flammability_warning({"CH4": 0.7, "H2": 0.3}, air, 0.05) != ""
+    # a pipeline gas with ethane and propane (it had no warning at all)
+    pipeline = {"CH4": 0.90, "C2H6": 0.05, "C3H8": 0.02, "N2": 0.02, "CO2": 0.01}
+    assert "0.3 outside" in flammability_warning(pipeline, air, 0.3) and flammability_warning(pipeline, air, 0.8) == ""
+    # propane alone: 2.1 % by volume is phi 0.51 (Coward & Jones 1952)
+    assert flammability_warning({"C3H8": 1.0}, air, 0.45) != "" and flammability_warning({"C3H8": 1.0}, air, 0.55) == ""
     # unknown combustibles or oxygen-enriched oxidizers: no table, no warning
-    assert flammability_warning({"C3H8": 1.0}, air, 0.2) == ""
+    assert flammability_warning({"NH3": 1.0}, air, 0.2) == ""
     assert flammability_warning({"CH4": 1.0}, {"O2": 1.0}, 0.3) == ""
 
 

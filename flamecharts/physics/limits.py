@@ -8,8 +8,8 @@ without solving a flame again. Each warning is one short sentence; a row's
 - pressure outside the range a known mechanism states it was optimised for
   (MECHANISM_RANGES, by file name; nothing for unknown mechanisms); what a mechanism was
   built for (MECHANISM_SCOPE, mechanism_scope).
-- equivalence ratio outside the flammability range in air of every combustible in the
-  fuel (FLAMMABILITY_PHI; 1 atm, room temperature).
+- equivalence ratio outside the flammability range in air of the fuel's combustibles by Le
+  Chatelier's rule (FLAMMABILITY_VOL; 1 atm, room temperature).
 """
 from __future__ import annotations
 
@@ -52,10 +52,40 @@ def mechanism_scope(mechanism: str) -> str:
                                "not in flamecharts' table of mechanisms: check what its authors validated it for")
 
 
-#: Flammability limits in air at 1 atm and room temperature as equivalence ratios
-#: (Coward & Jones, US Bureau of Mines Bulletin 503, 1952: methane 5-15 %, hydrogen
-#: 4-75 % by volume).
-FLAMMABILITY_PHI = {"CH4": (0.5, 1.67), "H2": (0.1, 7.1)}
+#: Flammability limits in air at 1 atm and room temperature, % of the mixture by volume
+#: (lower, upper), and the moles of O2 one mole burns to CO2 and H2O (Coward & Jones, US
+#: Bureau of Mines Bulletin 503, 1952; the values as usually tabulated from it, from memory).
+FLAMMABILITY_VOL = {"CH4": (5.0, 15.0, 2.0), "C2H6": (3.0, 12.4, 3.5), "C3H8": (2.1, 9.5, 5.0),
+                    "n-C4H10": (1.8, 8.4, 6.5), "i-C4H10": (1.8, 8.4, 6.5), "H2": (4.0, 75.0, 0.5),
+                    "CO": (12.5, 74.0, 0.5), "C2H4": (2.7, 36.0, 3.0)}
+
+
+def le_chatelier_phi(combustibles: dict[str, float]) -> tuple[float, float] | None:
+    """Flammability range in air of a mixture of combustibles, as equivalence ratios: each
+    limit by Le Chatelier's rule, 1/L = sum(y_i / L_i) over the combustibles' mole fractions
+    y_i (Le Chatelier 1891; Coward & Jones 1952, who find it fair for the lower limit of
+    these gases and rougher for the upper), converted to phi with the mixture's own oxygen
+    demand. None when a combustible is not in FLAMMABILITY_VOL.
+
+    >>> [round(v, 2) for v in le_chatelier_phi({"CH4": 1.0})]
+    [0.5, 1.68]
+    >>> [round(v, 2) for v in le_chatelier_phi({"CH4": 0.7, "H2": 0.3})]
+    [0.36, 1.82]
+    """
+    total = sum(combustibles.values())
+    if total <= 0 or any(k not in FLAMMABILITY_VOL for k in combustibles):
+        return None
+    y = {k: v / total for k, v in combustibles.items()}
+    lower = 1.0 / sum(y[k] / FLAMMABILITY_VOL[k][0] for k in y) / 100.0
+    upper = 1.0 / sum(y[k] / FLAMMABILITY_VOL[k][1] for k in y) / 100.0
+    o2 = sum(y[k] * FLAMMABILITY_VOL[k][2] for k in y)
+    stoich = 1.0 / (1.0 + o2 / 0.2095)  # fuel fraction of a stoichiometric fuel-air mixture
+
+    def phi(x: float) -> float:
+        return (x / (1.0 - x)) / (stoich / (1.0 - stoich))
+    return phi(lower), phi(upper)
+
+
 #: Species of a fuel stream that do not burn (they only narrow the flammable range).
 INERTS = {"N2", "CO2", "H2O", "AR", "Ar", "HE", "He"}
 #: Oxidizers with at most this O2 mole fraction count as air or leaner than air (air: 0.21).
@@ -86,26 +116,29 @@ def pressure_warning(mechanism: str, pressure_bar: float) -> str:
 
 
 def flammability_warning(X_fuel: dict, X_oxidizer: dict, phi: float) -> str:
-    """'' or a warning when phi lies outside the flammability range in air of every
-    combustible of the fuel stream (only for fuels whose combustibles are all in
-    FLAMMABILITY_PHI and for air or leaner oxidizers; inert diluents narrow the range,
-    so a phi outside the pure-fuel range is outside the diluted one too).
+    """'' or a warning when phi lies outside the flammability range in air of the fuel's
+    combustibles by Le Chatelier's rule (:func:`le_chatelier_phi`; only for fuels whose
+    combustibles are all in FLAMMABILITY_VOL and for air or leaner oxidizers; inert diluents
+    narrow the range, so a phi outside the undiluted range is outside the diluted one too).
 
     >>> flammability_warning({"CH4": 1.0}, {"O2": 1.0, "N2": 3.76}, 0.4)[:49]
     'equivalence ratio 0.4 outside the flammable range'
     >>> flammability_warning({"CH4": 1.0}, {"O2": 1.0, "N2": 3.76}, 0.8)
     ''
     """
-    burn = [k for k, v in X_fuel.items() if v > 0 and k not in INERTS]
+    burn = {k: v for k, v in X_fuel.items() if v > 0 and k not in INERTS}
     total_ox = sum(X_oxidizer.values()) or 1.0
-    if not burn or any(k not in FLAMMABILITY_PHI for k in burn) or X_oxidizer.get("O2", 0.0) / total_ox > AIR_O2_MAX:
+    if not burn or X_oxidizer.get("O2", 0.0) / total_ox > AIR_O2_MAX:
         return ""
-    lean = min(FLAMMABILITY_PHI[k][0] for k in burn)
-    rich = max(FLAMMABILITY_PHI[k][1] for k in burn)
+    limits = le_chatelier_phi(burn)
+    if limits is None:
+        return ""
+    lean, rich = limits
     if lean <= phi <= rich:
         return ""
-    return (f"equivalence ratio {phi:g} outside the flammable range {lean:g}-{rich:g} in air of "
-            f"{', '.join(sorted(burn))} (1 atm, room temperature; Coward & Jones 1952)")
+    return (f"equivalence ratio {phi:g} outside the flammable range {lean:.2f}-{rich:.2f} in air of "
+            f"{', '.join(sorted(burn))} (Le Chatelier's rule on the limits of Coward & Jones 1952; 1 atm, room "
+            "temperature)")
 
 
 #: Mechanisms built for natural gas, by file name: the share of C3+ hydrocarbons in the fuel's
