@@ -64,3 +64,23 @@ def test_report_renders_in_headless_chromium(report, tmp_path):
                    capture_output=True, timeout=120, check=True)
     import matplotlib.image as mpimg
     assert np.asarray(mpimg.imread(shot)).std() > 0.05
+
+
+def test_a_flame_on_a_bluff_body_shows_the_stabilizer_margin_that_decides_its_verdict(tmp_path, capsys):
+    """A bluff-body flameholder: the points table of the report and of `run` show the stabilizer
+    margin (SM) beside the verdict it decides, not the rim's blowoff margin, which does not apply."""
+    from flamecharts.cli.tables import print_points
+    from flamecharts.outputs.report import _points_appendix
+
+    burner = ('[burner]\nname = "holder"\nport = "round"\nport_diameter_mm = 20.0\nport_velocity_m_s = 20.0\n'
+              'stabilizer_size_mm = 8.0\napproach_velocity_m_s = 20.0\n')
+    cfg = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8]", extra=burner)
+    study = load_study(cfg)
+    rows = run_study(study, out_dir=tmp_path / "out", jobs=1).rows
+    (r,) = rows
+    assert r["stabilizer_margin"] is not None and r["stabilizer_margin"] != r["blowoff_margin"]
+    html = _points_appendix(study, rows)
+    assert "<th>SM</th>" in html and f"{r['stabilizer_margin']:.2f}" in html
+    print_points(study, rows)
+    out = capsys.readouterr().out
+    assert " SM " in out and f"{r['stabilizer_margin']:5.2f}" in out

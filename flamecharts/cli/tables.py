@@ -75,8 +75,10 @@ MAX_POINT_LINES = 60
 def print_points(study, rows) -> None:
     """One line per point with the flame, its indicators and, with a burner, its margins."""
     burner = study.burner is not None
+    # the blowoff margin that decides the verdict: the rim's, or the bluff body's (SM) where the flame sits on one
+    bo_col, bo_head = (study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO") if burner else ("", "")
     head = (f"  {'gas':30s} {'phi':>5s} {'p':>6s} {'T_u':>6s} {'S_L':>7s} {'d_T':>6s} {'g_F':>7s} {'d_q':>5s}"
-            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {'BO':>5s}  verdict" if burner else ""))
+            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {bo_head:>5s}  verdict" if burner else ""))
     unit = (f"  {'':30s} {'-':>5s} {'bar':>6s} {'K':>6s} {'cm/s':>7s} {'mm':>6s} {'1/s':>7s} {'mm':>5s}"
             + (f" {'m/s':>6s} {'1/s':>7s} {'-':>5s} {'-':>5s}" if burner else ""))
     print("Points (indicators per point; every column in results.csv):")
@@ -91,7 +93,7 @@ def print_points(study, rows) -> None:
                  f"{r['flashback_critical_gradient_1_s']:7.0f} {r['quenching_distance_mm']:5.2f}")
         if burner:
             line += (f" {r['port_velocity_m_s']:6.3f} {r['wall_velocity_gradient_1_s']:7.0f} "
-                     f"{r['flashback_margin']:5.2f} {r['blowoff_margin']:5.2f}  {r['verdict']}")
+                     f"{r['flashback_margin']:5.2f} {r[bo_col]:5.2f}  {r['verdict']}")
         print(line)
     if len(rows) > MAX_POINT_LINES:
         print(f"  ... and {len(rows) - MAX_POINT_LINES} more points in results.csv")

@@ -192,8 +192,10 @@ def _num(v, fmt: str) -> str:
 def _points_appendix(study, rows: list[dict], comparison=None) -> str:
     """Appendix at the end of the report: one line per point (the first MAX_POINT_ROWS), printed on pages of its own."""
     burner = study.burner is not None
+    # the blowoff margin that decides the verdict: the rim's, or the bluff body's (SM) where the flame sits on one
+    bo_col, bo_head = (study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO") if burner else ("", "")
     head = ["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "δ_T [mm]", "T_ad [K]", "g_F [1/s]",
-            "d_q [mm]"] + (["U [m/s]", "FB", "BO", "verdict"] if burner else []) + ["warning"]
+            "d_q [mm]"] + (["U [m/s]", "FB", bo_head, "verdict"] if burner else []) + ["warning"]
     lines = []
     for r in rows[:MAX_POINT_ROWS]:
         S = r["laminar_flame_speed_m_s"]
@@ -203,7 +205,7 @@ def _points_appendix(study, rows: list[dict], comparison=None) -> str:
                 _num(r["flashback_critical_gradient_1_s"], ".0f"), _num(r["quenching_distance_mm"], ".2f")]
         if burner:
             line += [_num(r["port_velocity_m_s"], ".3f"), _num(r["flashback_margin"], ".2f"),
-                     _num(r["blowoff_margin"], ".2f"), r["verdict"] or ""]
+                     _num(r[bo_col], ".2f"), r["verdict"] or ""]
         lines.append(line + ["yes" if r.get("warnings") else ""])
     more = (f" The first {MAX_POINT_ROWS} of {len(rows)} points are listed; all are in results.csv."
             if len(rows) > MAX_POINT_ROWS else " Every column of every point is in results.csv.")
