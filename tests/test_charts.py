@@ -118,37 +118,39 @@ def _data(study, rows):
     return ChartData(rows=rows, gases=fuel_gas_table(study), dataset=to_dataset(study, rows))
 
 
-def test_the_window_fill_and_its_edge_lines_come_from_one_field():
-    """A cell whose corners each break one margin, while both margins hold at its centre
-    (bilinear in the logarithms): the centre is green. Filling the corner-wise minimum, as the
-    chart once did, left the whole cell white between the two lines."""
-    import matplotlib.pyplot as plt
+def _green_of_window(fb, bo, need: float) -> list:
+    """The green (admissible) patches of the operating-window chart drawn for a 2 x 2 grid of
+    flashback and blowoff margins over (blend fraction 0, 0.2; phi 0.9, 1.1), minimum ``need``."""
     from types import SimpleNamespace
 
     from flamecharts.outputs.charts.design_charts import window_chart
     from flamecharts.outputs.charts.registry import ChartData
 
-    fb = 1.5 * np.array([[2.0, 0.6], [0.6, 2.0]])  # (blend fraction, phi); at the centre 1.5 sqrt(1.2)
-    bo = 1.5 * np.array([[0.6, 2.0], [2.0, 0.6]])
     dims = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K", "equivalence_ratio")
 
     def var(a):
         return (dims, a[None, None, :, None, None, :])
-    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo),
-                     "warnings": var(np.full((2, 2), ""))},
+    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo), "warnings": var(np.full((2, 2), ""))},
                     coords={"fuel": ["gas"], "oxidizer": ["air"], "blend_fraction": [0.0, 0.2], "pressure_bar": [1.0],
                             "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
-    burner = SimpleNamespace(min_flashback_margin=1.5, min_blowoff_margin=1.5, name="test burner", on_stabilizer=False,
-                             blowoff=("blowoff_margin", 1.5, "blowoff"))
+    burner = SimpleNamespace(min_flashback_margin=need, min_blowoff_margin=need, name="test burner",
+                             on_stabilizer=False, blowoff=("blowoff_margin", need, "blowoff"))
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
                             thermal_diffusion=False, resolution="standard", analysis_atoms={})
-    fig = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study)
-    ax = fig.axes[0]
-    green = [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
-             and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
+    ax = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study).axes[0]
+    return [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
+            and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
+
+
+def test_the_window_fill_and_its_edge_lines_come_from_one_field():
+    """A cell whose corners each break one margin, while both margins hold at its centre
+    (bilinear in the logarithms): the centre is green. Filling the corner-wise minimum, as the
+    chart once did, left the whole cell white between the two lines."""
+    fb = 1.5 * np.array([[2.0, 0.6], [0.6, 2.0]])  # (blend fraction, phi); at the centre 1.5 sqrt(1.2)
+    bo = 1.5 * np.array([[0.6, 2.0], [2.0, 0.6]])
+    green = _green_of_window(fb, bo, 1.5)
     assert green and any(p.contains_point((10.0, 1.0)) for c in green for p in c.get_paths())
     assert not any(p.contains_point((1.0, 0.91)) for c in green for p in c.get_paths())  # corner: FB fails
-    plt.close(fig)
 
 
 def test_panels_share_one_flame_speed_scale_and_warned_points_are_ringed(study_rows):
@@ -241,25 +243,5 @@ def test_the_window_keeps_the_margin_product_between_the_solved_points():
     against the wall gradient), minimum margins whose product is above it can be met nowhere: the
     window is empty between the points too (margins read in their logarithms; read linearly, a
     false green band appeared between them)."""
-    from types import SimpleNamespace
-
-    from flamecharts.outputs.charts.design_charts import window_chart
-    from flamecharts.outputs.charts.registry import ChartData
-
     fb = np.array([[4.0, 1.2], [1.0, 3.0]])   # (blend fraction, phi)
-    bo = 2.99 / fb
-    dims = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K", "equivalence_ratio")
-
-    def var(a):
-        return (dims, a[None, None, :, None, None, :])
-    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo), "warnings": var(np.full((2, 2), ""))},
-                    coords={"fuel": ["gas"], "oxidizer": ["air"], "blend_fraction": [0.0, 0.2], "pressure_bar": [1.0],
-                            "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
-    burner = SimpleNamespace(min_flashback_margin=2.0, min_blowoff_margin=2.0, name="test burner", on_stabilizer=False,
-                             blowoff=("blowoff_margin", 2.0, "blowoff"))
-    study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
-                            thermal_diffusion=False, resolution="standard", analysis_atoms={})
-    ax = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study).axes[0]
-    green = [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
-             and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
-    assert not green
+    assert not _green_of_window(fb, 2.99 / fb, 2.0)

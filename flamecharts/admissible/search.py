@@ -226,13 +226,11 @@ class _Interval:
     evaluated: list = field(default_factory=list)
 
 
-def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Parts,
-           to_send: Callable[[dict[str, float], float], float]) -> Generator[float, dict, tuple]:
-    """Walk an x-proposing generator (root or maximum finder) between two failing points
-    until a flame keeps every margin. Returns (x_ok, row_ok, best Miss, evaluated, note)."""
-    ga, ca = lowest(*parts(ra))
-    gb, cb = lowest(*parts(rb))
-    best = Miss(xa, ga, ca, ra) if ga >= gb else Miss(xb, gb, cb, rb)
+def _walk(gen: Generator, a: float, b: float, parts: Parts, found: Callable[[dict[str, float]], bool],
+          to_send: Callable[[dict[str, float]], float]) -> Generator[float, dict, tuple]:
+    """Walk an x-proposing generator (a root or extremum finder over (a, b)), one flame per
+    step, until a flame's log-margins satisfy ``found``. Returns ((x, row) of that flame or
+    None, [(x, g, binding, row)] of every flame asked for, note: why it stopped early)."""
     seen: list = []
     try:
         x = next(gen)
@@ -240,18 +238,27 @@ def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Part
             row = yield x
             P, why = parts(row)
             g, c = lowest(P, why)
-            seen.append((x, g))
-            if g is None:
+            seen.append((x, g, c, row))
+            if P is None:
                 gen.close()
-                return None, None, best, seen, f"no burning flame at {x:.4g} ({why}) between {xa:.4g} and {xb:.4g}"
-            if g > best.g:
-                best = Miss(x, g, c, row)
-            if g >= 0:
+                return None, seen, f"no burning flame at {x:.4g} ({why}) between {a:.4g} and {b:.4g}"
+            if found(P):
                 gen.close()
-                return x, row, best, seen, ""
-            x = gen.send(to_send(P, g))
+                return (x, row), seen, ""
+            x = gen.send(to_send(P))
     except StopIteration:
-        return None, None, best, seen, ""
+        return None, seen, ""
+
+
+def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Parts,
+           to_send: Callable[[dict[str, float]], float]) -> Generator[float, dict, tuple]:
+    """Walk a finder between two failing points until a flame keeps every margin. Returns
+    (x_ok, row_ok, best Miss, evaluated, note)."""
+    hit, seen, note = yield from _walk(gen, xa, xb, parts, lambda P: lowest(P)[0] >= 0, to_send)
+    ends = [Miss(x, *lowest(*parts(r)), r) for x, r in ((xa, ra), (xb, rb))]
+    best = max(ends + [Miss(x, g, c, r) for x, g, c, r in seen if g is not None], key=lambda m: m.g)
+    x_ok, row_ok = hit if hit is not None else (None, None)
+    return x_ok, row_ok, best, [(x, g) for x, g, _, _ in seen], note
 
 
 def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: int,
@@ -292,7 +299,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
         if (ha >= 0) != (hb >= 0):
             gen = brent_steps(xa, ha, xb, hb, tol, max_flames)
             x_ok, row_ok, best, seen, note = yield from _probe(gen, xa, ra, xb, rb, parts,
-                                                               lambda P, g: P[ca] - P[cb])
+                                                               lambda P: P[ca] - P[cb])
             if note:
                 return _Interval(miss=best, note=note, evaluated=seen)
             if x_ok is None and best.binding in (ca, cb):
@@ -300,7 +307,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
             # a third criterion binds at the crossing: the maximum of g may lie elsewhere
     if x_ok is None:
         gen = maximum_steps(xa, xb, tol, max_flames)
-        x_ok, row_ok, best, more, note = yield from _probe(gen, xa, ra, xb, rb, parts, lambda P, g: g)
+        x_ok, row_ok, best, more, note = yield from _probe(gen, xa, ra, xb, rb, parts, lambda P: lowest(P)[0])
         seen += more
         if x_ok is None:
             return _Interval(miss=best, note=note, evaluated=seen)
@@ -359,22 +366,8 @@ def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int,
     """Brent's bounded minimisation of ``criterion``'s log-margin over (a, b), stopped at the
     first flame where it fails. Returns ((x, row) of that flame or None, evaluated, note)."""
     gen = maximum_steps(a, b, tol, max_flames)   # the maximum of -g_c
-    seen: list = []
-    try:
-        x = next(gen)
-        while True:
-            row = yield x
-            P, why = parts(row)
-            seen.append((x, lowest(P, why)[0]))
-            if P is None:
-                gen.close()
-                return None, seen, f"no burning flame at {x:.4g} ({why}) between {a:.4g} and {b:.4g}"
-            if P[criterion] < 0:
-                gen.close()
-                return (x, row), seen, ""
-            x = gen.send(-P[criterion])
-    except StopIteration:
-        return None, seen, ""
+    hit, seen, note = yield from _walk(gen, a, b, parts, lambda P: P[criterion] < 0, lambda P: -P[criterion])
+    return hit, [(x, g) for x, g, _, _ in seen], note
 
 
 def _end_of_peak(i: int, Ps: list, criterion: str) -> str:
