@@ -134,10 +134,15 @@ MAX_KEY_LIMITS = 8
 
 
 def _span(r: dict) -> str:
-    """'15.2-18.4 %' or 'φ 0.689-0.731' of one window row (edges left open marked with ≥ / ≤)."""
-    lo = ("≤ " if r["lower_kind"] == "swept end" else "") + _axis_value(r, r["lower_edge"])
-    hi = ("≥ " if r["upper_kind"] == "swept end" else "") + _axis_value(r, r["upper_edge"])
-    return f"{lo} to {hi}"
+    """'15.2–18.4 %' or 'φ 0.689–0.731' of one window row (an edge left open at the last swept
+    value marked ≤ or ≥)."""
+    lo = ("≤" if r["lower_kind"] == "swept end" else "") + _number(r, r["lower_edge"])
+    hi = ("≥" if r["upper_kind"] == "swept end" else "") + _number(r, r["upper_edge"])
+    return f"{lo}–{hi} %" if r["axis"] == "blend_fraction" else f"φ {lo}–{hi}"
+
+
+def _number(r: dict, v: float) -> str:
+    return f"{100 * v:.1f}" if r["axis"] == "blend_fraction" else f"{v:.3f}"
 
 
 def _axis_value(r: dict, v: float) -> str:
