@@ -465,3 +465,13 @@ def test_an_edge_toward_a_mixture_that_does_not_burn_is_refined():
     (w,) = answer.windows
     assert (w.lower.kind, w.lower.binding) == ("found", "no flame")
     assert 0.43 <= w.lower.value <= 0.435 and w.lower.failing < 0.43
+
+
+def test_a_margin_lowest_at_the_first_swept_value_costs_one_flame_to_rule_a_dip_out():
+    # blowoff margin rising with hydrogen, 10 % above its minimum on the unblended gas: one flame a
+    # tolerance inside shows it rises there, so it cannot dip below its minimum further in
+    rowf = _margins(lambda x: 1.0, lambda x: 0.1 + 2 * x)
+    answer, asked = _search(window_search([(x, rowf(x)) for x in (0.0, 0.3, 0.6)], PARTS, 0.005, 12, (0.0, 1.0)),
+                            rowf)
+    assert asked == [1.0, pytest.approx(0.005)]
+    assert _edges(answer) == [(0.0, "range end", "", 1.0, "range end", "")]

@@ -334,14 +334,16 @@ def parabola_low(xs: list[float], ys: list[float], lo: float, hi: float) -> floa
     return min(a * x * x + b * x + c for x in cands)
 
 
-def dip_spans(pts: list[tuple[float, dict]], Ps: list) -> list[tuple[str, float, float]]:
-    """(criterion, a, b): where a criterion that holds at every swept point next to its lowest
-    swept value may dip below its minimum in between (see the module docstring); left out
-    where the parabola through the three swept values nearest the lowest keeps DIP_HEADROOM.
+def dip_spans(pts: list[tuple[float, dict]], Ps: list) -> list[tuple[str, float, float, tuple | None]]:
+    """(criterion, a, b, end): where a criterion that holds at every swept point next to its
+    lowest swept value may dip below its minimum in between (see the module docstring); left
+    out where the parabola through the three swept values nearest the lowest keeps
+    DIP_HEADROOM. ``end``: (x, log-margin) of the lowest value where it lies at the first or
+    last value searched (then :func:`dip_search` first asks one flame just inside it), else None.
 
     >>> P = [{"flashback": 0.9}, {"flashback": 0.1}, {"flashback": 0.8}]
     >>> dip_spans([(0.9, {}), (1.0, {}), (1.1, {})], [(p, "") for p in P])
-    [('flashback', 0.9, 1.1)]
+    [('flashback', 0.9, 1.1, None)]
     """
     out = []
     for c in sorted({c for P, _ in Ps if P is not None for c in P}):
@@ -357,17 +359,37 @@ def dip_spans(pts: list[tuple[float, dict]], Ps: list) -> list[tuple[str, float,
             near = sorted(sorted(vals, key=lambda t: abs(t[0] - k))[:3])
             low = parabola_low([pts[j][0] for j, _ in near], [g for _, g in near], pts[span[0]][0], pts[span[-1]][0])
         if low < math.log(DIP_HEADROOM):
-            out.append((c, pts[span[0]][0], pts[span[-1]][0]))
+            out.append((c, pts[span[0]][0], pts[span[-1]][0], (pts[k][0], g_k) if k in (0, len(pts) - 1) else None))
     return out
 
 
-def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int,
-               parts: Parts) -> Generator[float, dict, tuple]:
+def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int, parts: Parts,
+               end: tuple[float, float] | None = None) -> Generator[float, dict, tuple]:
     """Brent's bounded minimisation of ``criterion``'s log-margin over (a, b), stopped at the
-    first flame where it fails. Returns ((x, row) of that flame or None, evaluated, note)."""
+    first flame where it fails. Returns ((x, row) of that flame or None, evaluated, note).
+
+    ``end``: (a or b, the log-margin there), where the margin is lowest of all. One flame a
+    tolerance inside settles
+    most cases: if the margin is higher there, a quasi-convex margin cannot dip below its
+    value at the end further in (it would have to come back up through that flame's value),
+    so the interval holds no failing stretch wider than the tolerance."""
+    seen: list = []
+    if end is not None:
+        x_end, g_end = end
+        step = min(tol, 0.5 * (b - a))
+        x_in = x_end + step if x_end == a else x_end - step
+        row = yield x_in
+        P, why = parts(row)
+        seen.append((x_in, lowest(P, why)[0]))
+        if P is None:
+            return None, seen, f"no burning flame at {x_in:.4g} ({why}) between {a:.4g} and {b:.4g}"
+        if P[criterion] < 0:
+            return (x_in, row), seen, ""
+        if P[criterion] > g_end:
+            return None, seen, ""
     gen = maximum_steps(a, b, tol, max_flames)   # the maximum of -g_c
-    hit, seen, note = yield from _walk(gen, a, b, parts, lambda P: P[criterion] < 0, lambda P: -P[criterion])
-    return hit, [(x, g) for x, g, _, _ in seen], note
+    hit, walked, note = yield from _walk(gen, a, b, parts, lambda P: P[criterion] < 0, lambda P: -P[criterion])
+    return hit, seen + [(x, g) for x, g, _, _ in walked], note
 
 
 def _end_of_peak(i: int, Ps: list, criterion: str) -> str:
@@ -440,7 +462,7 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
     Ps = [parts(r) for _, r in pts]
     extra = [(x, lowest(*parts(r))[0]) for x, r in zip(ends, rows)] if ends else []
     dips = dip_spans(pts, Ps)
-    found = yield from lockstep([dip_search(a, b, c, tol, max_flames, parts) for c, a, b in dips])
+    found = yield from lockstep([dip_search(a, b, c, tol, max_flames, parts, end) for c, a, b, end in dips])
     extra += [e for _, seen, _ in found for e in seen]
     dip_notes = [note for _, _, note in found if note]
     inserted = sorted({hit[0]: hit for hit, _, _ in found if hit is not None}.values(), key=lambda t: t[0])
