@@ -9,6 +9,7 @@ factor 2 of each measurement.
 """
 from __future__ import annotations
 
+import html
 import math
 
 import pytest
@@ -86,6 +87,10 @@ def test_premixer_columns_and_verdict(tmp_path):
     assert hot["ignition_delay_ms"] < 5.0 and hot["autoignition_verdict"] == "autoignition risk"
     assert hot["autoignition_margin"] == pytest.approx(hot["ignition_delay_ms"] / 5.0)
     assert "autoignition_margin" in (tmp_path / "out" / "results.csv").read_text().splitlines()[0]
+    # the report's caveat is the one of the mechanism used (it printed GRI-Mech 3.0's whatever was used)
+    from flamecharts.outputs.report import _premixer_section
+    section = html.unescape("".join(_premixer_section(res.study, res.rows)))
+    assert "h2o2.yaml's hydrogen delays" in section and "GRI-Mech 3.0's delays" not in section
     # the worker stored the delay with each burning flame (a read-out of many points integrates no
     # reactor); computing it again at read-out gives the same number
     from flamecharts.design import premixer_columns

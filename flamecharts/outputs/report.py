@@ -20,7 +20,7 @@ from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import (error_bar_sentence, fuel_gas_table, inside_kinetic_band, largest_differences,
                       mechanism_differences)
-from ..physics.limits import mechanism_scope
+from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .tables import uncertainty_settings, write_atomic
@@ -281,9 +281,7 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
             f"<p>Ignition delay of the fresh mixture at the preheat and pressure of each point: the time of the "
             f"largest temperature rise rate in an adiabatic constant-pressure reactor (Cantera). Margin = delay / "
             f"residence time ({pm.residence_time_s * 1e3:g} ms); required at least {pm.min_autoignition_margin:g}. "
-            f"GRI-Mech 3.0's delays lie within a factor 2-2.5 of shock-tube measurements above about 1150 K "
-            f"(README), but below it they run 2 to 7 times longer than measured: at premixer temperatures the "
-            f"margin can be overstated several times. A mean residence time also hides the slowest fluid in "
+            f"{_e(ignition_check(study.mechanism))}. A mean residence time also hides the slowest fluid in "
             f"wakes and recirculation: keep a wide margin and confirm by test.</p>",
             _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "points ok"],
                    [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
