@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .chemistry.ignition import autoignition_warning, ignition_delay_peak, premixer_horizon
+from .chemistry.ignition import ignition_delay_peak, premixer_horizon
 from .chemistry.mechanism import fallback_data, molar_masses, reaction_equations, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
@@ -304,11 +304,11 @@ def instability_warning(row: dict) -> str:
 
 
 def point_warnings(study, point, row: dict) -> str:
-    """All warnings of one point, joined by '; ' ('' when it is inside every range)."""
+    """All warnings of one point, joined by '; ' ('' when it is inside every range). A mixture that
+    autoignites is not warned of here: it is a status of its own (results.not_a_flame)."""
     out = [pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
-           autoignition_warning(study.mechanism_path, point.X_unburned, point.T_u, point.P, row),
            instability_warning(row)]
     return "; ".join(w for w in out if w)
 

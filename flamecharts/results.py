@@ -27,7 +27,7 @@ import xarray as xr
 
 from ._version import __version__
 from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
-from .chemistry.ignition import autoignition_warning
+from .chemistry.ignition import autoignition_reason
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
 from .config import Study, by_mechanism, load_config_copy, lumping_note, resolution_label
@@ -100,7 +100,7 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
             r["lewis_number_fuel"], r["lewis_number_oxygen"] = lewis_numbers_of(study.mechanism_path, X, float(p.T_u),
                                                                                 float(p.P))
     for p, r in zip(pts, flat):  # a mixture that ignites before a flame can cross it is not a flame
-        if r["status"] == "ok" and (why := autoignition_warning(study.mechanism_path, p.X_unburned, p.T_u, p.P, r)):
+        if r["status"] == "ok" and (why := autoignition_reason(study.mechanism_path, p.X_unburned, p.T_u, p.P, r)):
             not_a_flame(r, why)
     if study.burner is not None:  # the port's Reynolds number decides laminar or turbulent wall gradient
         for p, r in zip(pts, flat):

@@ -104,7 +104,7 @@ def band_intervals(margin: Callable[[float], float], scan: int = WOBBE_SCAN) -> 
 
 
 def uses_wobbe(study) -> bool:
-    """Whether the Wobbe band is one of the study's limit criteria (blend searches only)."""
+    """Whether the Wobbe band is one of the study's limit criteria (blend and phi searches)."""
     return "wobbe" in study.limits.criteria
 
 
@@ -113,33 +113,32 @@ def flame_criteria(study) -> tuple[str, ...]:
     return tuple(c for c in study.limits.criteria if c in CRITERIA)
 
 
+#: The columns that fix a search's condition (the searched axis among them is left blank).
+CONDITION = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
+
+
 def _searches(study, rows: list[dict]) -> list[_Search]:
+    """One search per condition and axis the [limits] table asks for: blend searches first
+    (over the axis from 0 to 1, looking for windows only where the Wobbe band lets one count),
+    then phi searches (over the swept range)."""
     lim, b = study.limits, study.burner
     crit = flame_criteria(study)
     parts = (lambda r: limit_parts(r, b, crit))
-    out: list[_Search] = []
     bands = _bands(study)
-    if "blend_fraction" in lim.find:
+    out: list[_Search] = []
+    for axis in ("blend_fraction", "equivalence_ratio"):
+        if axis not in lim.find:
+            continue
         groups = defaultdict(list)
         for r in rows:
-            groups[(r["fuel"], r["oxidizer"], r["equivalence_ratio"], r["pressure_bar"],
-                    r["unburned_temperature_K"])].append((r["blend_fraction"], r))
-        for (fuel, ox, phi, P, T), swept in groups.items():
-            cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=None, equivalence_ratio=phi, pressure_bar=P,
-                        unburned_temperature_K=T)
-            gen = window_search(swept, parts, lim.tolerance["blend_fraction"], lim.max_flames_per_search, (0.0, 1.0),
-                                look_inside=bands[(fuel, ox)])
-            out.append(_Search("blend_fraction", cond, gen, band=bands[(fuel, ox)]))
-    if "equivalence_ratio" in lim.find:
-        groups = defaultdict(list)
-        for r in rows:
-            groups[(r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"],
-                    r["unburned_temperature_K"])].append((r["equivalence_ratio"], r))
-        for (fuel, ox, frac, P, T), swept in groups.items():
-            cond = dict(fuel=fuel, oxidizer=ox, blend_fraction=frac, equivalence_ratio=None, pressure_bar=P,
-                        unburned_temperature_K=T)
-            gen = window_search(swept, parts, lim.tolerance["equivalence_ratio"], lim.max_flames_per_search)
-            out.append(_Search("equivalence_ratio", cond, gen, band=bands[(fuel, ox)]))
+            groups[tuple(None if c == axis else r[c] for c in CONDITION)].append((r[axis], r))
+        for key, swept in groups.items():
+            cond = dict(zip(CONDITION, key))
+            band = bands[(cond["fuel"], cond["oxidizer"])]
+            blend = axis == "blend_fraction"
+            gen = window_search(swept, parts, lim.tolerance[axis], lim.max_flames_per_search,
+                                (0.0, 1.0) if blend else None, look_inside=band if blend else None)
+            out.append(_Search(axis, cond, gen, band=band))
     return out
 
 
@@ -245,7 +244,7 @@ def limit_rows(study, s: _Search) -> list[dict]:
     out = []
     for n, w in enumerate(a.windows, 1):
         row = {**common, "window": n, "outcome": "window", "note": "; ".join(
-            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a, w) + _skipped(a))}
+            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a) + _skipped(a))}
         for side, e in (("lower", w.lower), ("upper", w.upper)):
             row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
@@ -287,7 +286,7 @@ def _failures(failures: list[tuple[float, str]]) -> str:
     return "; ".join(f"{why} at {', '.join(xs)}" for why, xs in by.items())
 
 
-def _misses(a: Answer, w) -> list[str]:
+def _misses(a: Answer) -> list[str]:
     return [f"no admissible mixture between {lo:.4g} and {hi:.4g} (at best {m.at:.4g}, {m.binding} margin "
             f"{_margin(m.row, m.binding):.3g})" for lo, hi, m in a.misses if _margin(m.row, m.binding) is not None]
 

@@ -169,7 +169,6 @@ class Answer:
     evaluated: list = field(default_factory=list)
     stopped: list[str] = field(default_factory=list)  # notes of intervals that could not be settled
     flame_windows: list[Window] = field(default_factory=list)  # before the Wobbe band (blend axis)
-    band: list[tuple[float, float]] | None = None               # Wobbe band intervals (blend axis)
     first: float | None = None                                  # the ends of the values searched
     last: float | None = None
     values: list[tuple[float, float | None, str]] = field(default_factory=list)  # (x, g, binding) swept and ends
@@ -261,6 +260,17 @@ def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Part
     return x_ok, row_ok, best, [(x, g) for x, g, _, _ in seen], note
 
 
+def _just_inside(x_end: float, a: float, b: float, tol: float) -> float:
+    """The value a tolerance inside the end ``x_end`` (a or b) of the interval (a, b), and no
+    further than its middle: where one flame tells whether a margin still rises or falls inward.
+
+    >>> _just_inside(0.0, 0.0, 0.3, 0.005), _just_inside(0.3, 0.0, 0.3, 0.005)
+    (0.005, 0.295)
+    """
+    step = min(tol, 0.5 * (b - a))
+    return x_end + step if x_end == a else x_end - step
+
+
 def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: int,
              parts: Parts, end: str = "") -> Generator[float, dict, _Interval]:
     """Look for a window strictly between two swept points that both fail.
@@ -279,8 +289,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     seen: list = []
     x_ok = None
     if end and ca == cb:
-        step = min(tol, 0.5 * (xb - xa))
-        x_end, P_end, x_in = (xa, Pa, xa + step) if end == "a" else (xb, Pb, xb - step)
+        P_end, x_in = (Pa, _just_inside(xa, xa, xb, tol)) if end == "a" else (Pb, _just_inside(xb, xa, xb, tol))
         row = yield x_in
         P, why = parts(row)
         g, c = lowest(P, why)
@@ -369,15 +378,13 @@ def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int, 
     first flame where it fails. Returns ((x, row) of that flame or None, evaluated, note).
 
     ``end``: (a or b, the log-margin there), where the margin is lowest of all. One flame a
-    tolerance inside settles
-    most cases: if the margin is higher there, a quasi-convex margin cannot dip below its
-    value at the end further in (it would have to come back up through that flame's value),
-    so the interval holds no failing stretch wider than the tolerance."""
+    tolerance inside settles most cases: if the margin is higher there, a quasi-convex margin
+    cannot dip below its value at the end further in (it would have to come back up through
+    that flame's value), so the interval holds no failing stretch wider than the tolerance."""
     seen: list = []
     if end is not None:
         x_end, g_end = end
-        step = min(tol, 0.5 * (b - a))
-        x_in = x_end + step if x_end == a else x_end - step
+        x_in = _just_inside(x_end, a, b, tol)
         row = yield x_in
         P, why = parts(row)
         seen.append((x_in, lowest(P, why)[0]))
@@ -392,14 +399,17 @@ def dip_search(a: float, b: float, criterion: str, tol: float, max_flames: int, 
     return hit, seen + [(x, g) for x, g, _, _ in walked], note
 
 
-def _end_of_peak(i: int, Ps: list, criterion: str) -> str:
+def _best_at(gs: list[dict[str, float] | None], criterion: str) -> int | None:
+    """Index of the swept point where ``criterion``'s log-margin is largest (None: nowhere known)."""
+    vals = [(j, P[criterion]) for j, P in enumerate(gs) if P is not None and criterion in P]
+    return max(vals, key=lambda t: t[1])[0] if vals else None
+
+
+def _end_of_peak(i: int, gs: list[dict[str, float] | None], criterion: str) -> str:
     """'a' or 'b' when ``criterion`` is largest at the first or last value searched and that is
     an end of the interval (i, i+1); '' otherwise (see :func:`interior`)."""
-    vals = [(j, P[criterion]) for j, (P, _) in enumerate(Ps) if P is not None and criterion in P]
-    if not vals:
-        return ""
-    k = max(vals, key=lambda t: t[1])[0]
-    return "a" if k == i == 0 else "b" if k == i + 1 == len(Ps) - 1 else ""
+    k = _best_at(gs, criterion)
+    return "a" if k == i == 0 else "b" if k == i + 1 == len(gs) - 1 else ""
 
 
 def may_peak_inside(i: int, gs: list[dict[str, float] | None], criterion: str) -> bool:
@@ -411,11 +421,7 @@ def may_peak_inside(i: int, gs: list[dict[str, float] | None], criterion: str) -
     >>> [may_peak_inside(i, gs, "blowoff") for i in range(3)]
     [False, True, True]
     """
-    vals = [(j, P[criterion]) for j, P in enumerate(gs) if P is not None and criterion in P]
-    if not vals:
-        return False
-    k = max(vals, key=lambda t: t[1])[0]
-    return k in (i, i + 1)
+    return _best_at(gs, criterion) in (i, i + 1)
 
 
 # ---- one search -----------------------------------------------------------------------------------------
@@ -470,6 +476,7 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
         pts = sorted(pts + inserted, key=lambda t: t[0])
         Ps = [parts(r) for _, r in pts]
     gs = [lowest(*P) for P in Ps]
+    logs = [P for P, _ in Ps]
     state = ["none" if g is None else "ok" if g >= 0 else "fail" for g, _ in gs]
     tasks: dict[int, Generator] = {}
     skipped: list[tuple[float, float]] = []
@@ -484,12 +491,11 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, burning_or_not(parts))
         elif pair == ("none", "ok") and ra.get("status") in NOT_FLAMES:
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, burning_or_not(parts))
-        elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1]
-                                           or may_peak_inside(i, [P for P, _ in Ps], gs[i][1])):
+        elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1] or may_peak_inside(i, logs, gs[i][1])):
             if look_inside is not None and not any(xa <= b1 and xb >= b0 for b0, b1 in look_inside):
                 skipped.append((xa, xb))
                 continue
-            tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts, _end_of_peak(i, Ps, gs[i][1]))
+            tasks[i] = interior(xa, ra, xb, rb, tol, max_flames, parts, _end_of_peak(i, logs, gs[i][1]))
     done = yield from lockstep(list(tasks.values()))
     answer = assemble(pts, gs, state, dict(zip(tasks, done)), axis_range, extra)
     answer.skipped = skipped
@@ -556,7 +562,7 @@ def apply_band(a: Answer, band: list[tuple[float, float]]) -> None:
     """Make the Wobbe band a criterion of the answer of a blend search: its windows cut to the
     band (the flame windows kept apart), and swept values that keep every flame margin but lie
     outside the band counted as failing by it."""
-    a.flame_windows, a.band = a.windows, band
+    a.flame_windows = a.windows
     a.windows = within_band(a.windows, band)
     outside = [(x, WOBBE) for x, g, _ in a.values if g is not None and g >= 0 and not inside(x, band)]
     a.failures = sorted(a.failures + outside)
@@ -565,7 +571,6 @@ def apply_band(a: Answer, band: list[tuple[float, float]]) -> None:
 def band_at(a: Answer, band: list[tuple[float, float]], x: float) -> None:
     """Make the Wobbe band a criterion of a phi search of the blend at fraction ``x``: a blend
     outside the band has no admissible phi, whatever its flames allow (kept apart)."""
-    a.band = band
     if inside(x, band):
         return
     a.flame_windows, a.windows = a.windows, []

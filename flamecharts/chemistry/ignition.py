@@ -72,7 +72,7 @@ def autoignition_screen(mechanism_path: str, X: dict, T_u: float, P: float, S_L:
         return None
 
 
-def autoignition_warning(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
+def autoignition_reason(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
     """'' or why the mixture is not a flame: it autoignites within AUTOIGNITION_FACTOR flame
     transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K);
     results.point_rows then gives the point status autoignition and no flame quantities.

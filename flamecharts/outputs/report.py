@@ -146,7 +146,7 @@ def _number(r: dict, v: float) -> str:
 
 
 def _axis_value(r: dict, v: float) -> str:
-    return f"{100 * v:.1f} %" if r["axis"] == "blend_fraction" else f"φ {v:.3f}"
+    return f"{_number(r, v)} %" if r["axis"] == "blend_fraction" else f"φ {_number(r, v)}"
 
 
 def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
