@@ -29,7 +29,7 @@ def test_iso6976_2016_annex_d_example_3():
     # ISO 6976:2016, Annex D, example 3 (11 components, with the C4-C6 alkanes), 15 degC
     # combustion, 15 degC / 101.325 kPa metering, as printed: superior 39.73351, inferior
     # 35.86811 MJ/m3, relative density 0.62391, superior Wobbe 50.30318, inferior Wobbe
-    # 45.40954 MJ/m3 (shared/REFERENCE-DATA.md). Tolerances at the last printed digit.
+    # 45.40954 MJ/m3 (ISO 6976:2016, Annex D). Tolerances at the last printed digit.
     p = fuel_gas_properties(EXAMPLE_3, 15, 15)
     assert p.higher_heating_value_MJ_m3 == pytest.approx(39.73351, abs=1e-5)
     assert p.lower_heating_value_MJ_m3 == pytest.approx(35.86811, abs=1e-5)
@@ -44,7 +44,7 @@ def test_iso6976_2016_annex_d_example_3_at_25_0():
     # metering: superior 41.89360, inferior 37.85228 MJ/m3, relative density 0.62411,
     # superior Wobbe 53.02930, inferior Wobbe 47.91376 MJ/m3, as printed in the standard
     # and copied into the test suite of the open R package ISO6976.2016 (R. Forster,
-    # 2026, tests/testthat/test_iso6976.R); not in shared/REFERENCE-DATA.md. Checks the
+    # 2026, tests/testthat/test_iso6976.R). Checks the
     # 25 degC superior values and 0 degC summation factors of the added alkanes.
     p = fuel_gas_properties(EXAMPLE_3, 25, 0)
     assert p.higher_heating_value_MJ_m3 == pytest.approx(41.89360, abs=1e-5)

@@ -1,8 +1,8 @@
 """Ignition delay of the premixer check against shock-tube measurements, and the premixer columns.
 
 Shock-tube ignition delays scatter by about +/-20-30 % within one facility and differ by
-more between facilities and ignition definitions (../shared/REFERENCE-DATA.md gives
-factor-2 bands); GRI-Mech 3.0 was not built for hydrogen near the second explosion limit
+more between facilities and ignition definitions (factor-2 bands are common practice
+without source); GRI-Mech 3.0 was not built for hydrogen near the second explosion limit
 (about 1050-1100 K at these pressures), where delays rise steeply. The checks hold the
 computed delay (time of max dT/dt, constant volume as behind a reflected shock) within a
 factor 2 of each measurement.

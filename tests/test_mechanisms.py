@@ -44,11 +44,11 @@ unburned_temperature_K = [298.0]
 """
 
 #: Stoichiometric hydrogen-air at 1 atm and 298 K: 211 +/- 11 cm/s (2 sigma), Hu, Huang, He,
-#: Jin & Zheng, Int. J. Hydrogen Energy 34 (2009) 8741, spherical bomb (shared/REFERENCE-DATA.md).
+#: Jin & Zheng, Int. J. Hydrogen Energy 34 (2009) 8741, spherical bomb.
 HU_2009_PHI1_CM_S = 211.0
 #: Floor of a flame-speed measurement's uncertainty, 5 % (2 sigma): Konnov et al., Prog. Energy
 #: Combust. Sci. 68 (2018) 197. A mechanism is taken as reading the measurement if within
-#: 3 times it (15 %): GRI-Mech 3.0's hydrogen reads about 10 % high (shared/REFERENCE-DATA.md).
+#: 3 times it (15 %): GRI-Mech 3.0's hydrogen reads about 10 % high (from memory).
 WITHIN = 0.15
 
 

@@ -35,8 +35,8 @@ L_WATER = {25: 44.013, 15: 44.431, 0: 45.064}
 
 #: species -> (M g/mol, hydrogen atoms, {T_comb degC: superior kJ/mol}, {T_meter degC: summation factor})
 #:
-#: Sources. CH4 to CO2 (the first seven rows): ISO 6976:2016 values as collected in
-#: shared/REFERENCE-DATA.md (read from open implementations of the standard).
+#: Sources. CH4 to CO2 (the first seven rows): ISO 6976:2016, Tables 1-3, as read from open
+#: implementations of the standard (the worked examples of Annex D check them: tests/test_gasprops.py).
 #: All other rows: ISO 6976:2016 Table 1 (M), Table 2 (s at 15 and 0 degC) and Table 3
 #: (superior value at 25, 15 and 0 degC), as copied into the open R package
 #: ISO6976.2016, R. Forster, version 0.1-0, 2026 (GPL-3; src/iso6976.cpp, arrays TAB_M,
