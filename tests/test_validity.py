@@ -1,0 +1,119 @@
+"""Criteria that know where they hold (physics.validity, design.not_assessed): a point inside
+and a point outside each criterion's range, the reason columns, the wall gradient without a
+step, and a limit that no criterion in range can bind.
+
+The ranges are those of the data each constant was fitted on: Lewis & von Elbe 1987 (laminar
+cold-wall critical gradients near 1 atm, room temperature), Reed 1967 and Edmondson & Heap
+1971 (lean to stoichiometric hydrocarbon port flames); the pressure and preheat allowances
+and the Lewis-number cut are common practice without source (physics.validity).
+"""
+from types import SimpleNamespace as NS
+
+import pytest
+
+import flamecharts
+from flamecharts.admissible.words import limit_sentence
+from flamecharts.design import not_assessed, wall_gradient
+from flamecharts.physics import indicators as ind
+from flamecharts.physics import validity as val
+
+from conftest import write_h2_study
+
+INSIDE = dict(reynolds=900.0, pressure_bar=1.0, unburned_temperature_K=300.0, equivalence_ratio=0.9,
+              deficient_lewis=0.96)
+
+
+@pytest.mark.parametrize("criterion", ["flashback", "blowoff"])
+@pytest.mark.parametrize("change, words", [
+    (dict(reynolds=3000.0), "transitional port flow (Re 3e+03 > 2300)"),
+    (dict(reynolds=3.7e5), "turbulent port flow (Re 3.7e+05 > 2300)"),
+    (dict(pressure_bar=10.0), "10 bar outside 0.5-2 bar"),
+    (dict(pressure_bar=0.3), "0.3 bar outside 0.5-2 bar"),
+    (dict(unburned_temperature_K=650.0), "650 K preheat outside 250-400 K"),
+])
+def test_port_criteria_hold_for_laminar_flow_near_room_conditions(criterion, change, words):
+    assert val.domain_reasons(val.DOMAINS[criterion], **INSIDE) == []
+    assert val.domain_reasons(val.DOMAINS[criterion], **{**INSIDE, **change}) == [words]
+
+
+def test_reed_constant_only_for_lean_to_stoichiometric_hydrocarbon_like_flames():
+    d = val.DOMAINS["blowoff"]
+    assert val.domain_reasons(d, **{**INSIDE, "equivalence_ratio": 1.0}) == []
+    assert val.domain_reasons(d, **{**INSIDE, "equivalence_ratio": 1.3}) == ["rich (phi 1.3 > 1)"]
+    assert val.domain_reasons(d, **{**INSIDE, "deficient_lewis": 0.35}) == ["Lewis number 0.35 < 0.8 (hydrogen-rich)"]
+    # the flashback constant is derived from methane and hydrogen data: any phi, any Lewis number
+    f = val.DOMAINS["flashback"]
+    assert val.domain_reasons(f, **{**INSIDE, "equivalence_ratio": 1.3, "deficient_lewis": 0.35}) == []
+
+
+def test_reed_constant_is_for_single_port_flames_not_a_deck():
+    """A perforated deck of 1 mm holes was judged by the single-port blowoff correlation, and every
+    point was a blowoff risk: on a deck the merged flames hold each other, so no blowoff margin."""
+    d = val.DOMAINS["blowoff"]
+    assert val.domain_reasons(d, **INSIDE, layout="separate") == []
+    assert val.domain_reasons(d, **INSIDE, layout="deck") == ["a deck of merged port flames (the data are single "
+                                                             "port flames)"]
+    assert val.domain_reasons(val.DOMAINS["flashback"], **INSIDE, layout="deck") == []
+
+
+def test_wall_gradient_has_no_step_between_laminar_and_turbulent_port_flow():
+    """The laminar 8U/D at Re 2300 and Blasius's gradient at Re 4000 are joined linearly: the
+    gradient is continuous (the old switch at 2300 jumped by a factor 1.64: Blasius at Re 2300 is
+    0.3164 x 2300^0.75 / 64 = 1.64 times 8U/D)."""
+    b = NS(port="round", port_size_m=0.004)
+    nu = 1.6e-5
+    grad = []
+    for Re in (2299.0, 2300.0, 2301.0, 3999.0, 4000.0, 4001.0):
+        U = Re * nu / b.port_size_m
+        grad.append(wall_gradient(b, U, Re, nu) / U)  # per unit velocity: smooth in Re
+    assert grad[1] == pytest.approx(8.0 / 0.004) and grad[0] == pytest.approx(grad[1], rel=1e-3)
+    assert grad[2] == pytest.approx(grad[1], rel=2e-3)
+    assert grad[3] == pytest.approx(grad[4], rel=1e-3) and grad[5] == pytest.approx(grad[4], rel=1e-3)
+    U = 4000.0 * nu / 0.004
+    assert grad[4] == pytest.approx(ind.wall_velocity_gradient_turbulent(U, 0.004, nu) / U)
+    assert 0.3164 * 2300 ** 0.75 / 64 == pytest.approx(1.64, abs=0.005)
+
+
+def test_stabilizer_needs_a_calibrated_constant():
+    row = {"equivalence_ratio": 0.6, "pressure_bar": 1.0, "unburned_temperature_K": 300.0,
+           "lewis_number_fuel": 0.97, "lewis_number_oxygen": 1.0}
+    burner = NS(on_stabilizer=True)
+    raw = not_assessed(NS(burner=burner, indicator_settings={"bluff_body_constant": None}), row, 800.0)
+    assert raw["stabilizer"].startswith("C_BO not calibrated")
+    assert "flashback" not in raw and "blowoff" not in raw
+    done = not_assessed(NS(burner=burner, indicator_settings={"bluff_body_constant": 0.8}), row, 800.0)
+    assert done == {}
+
+
+PREMIXER = """
+[burner]                 # invented: a hydrogen premixer tube, turbulent at 10 bar
+port = "round"
+port_diameter_mm = 30.0
+port_velocity_m_s = 45.0
+min_flashback_margin = 1.5
+
+[limits]
+find = ["equivalence_ratio"]
+criteria = ["flashback"]
+"""
+
+
+def test_a_turbulent_high_pressure_premixer_gets_no_laminar_verdict_nor_limit(tmp_path):
+    """The case of the criteria-range issue: a turbulent premixer tube at 10 bar judged by the
+    laminar critical gradient kept 'every margin'. Now the margin is blank, the verdict and the
+    limit say not assessed, and no limit flame is solved."""
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.5, 0.6]", pressures="[10.0]")
+    config.write_text(config.read_text() + PREMIXER)
+    res = flamecharts.run(config, out=tmp_path / "o", jobs=2, charts=False)
+    for r in res.rows:
+        assert r["status"] == "ok" and r["port_reynolds_number"] > 1e5
+        assert r["flashback_margin"] is None and r["wall_velocity_gradient_1_s"] > 0
+        assert r["verdict"] == "flashback and blowoff not assessed"
+        assert "flashback: turbulent port flow" in r["criteria_not_assessed"]
+        assert "10 bar outside 0.5-2 bar" in r["criteria_not_assessed"]
+    (limit,) = res.limits
+    assert limit["outcome"] == "not assessed" and limit["flames_evaluated"] == 0
+    assert limit["criteria_not_assessed"].startswith("flashback at 2 of 2 swept flames (at phi 0.5: turbulent")
+    assert "not assessed" in (tmp_path / "o" / "limits.csv").read_text()
+    sentence = limit_sentence(limit, res.study)
+    assert "no limit, no criterion of the search is assessed" in sentence and "keeps every margin" not in sentence
