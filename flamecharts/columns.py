@@ -98,11 +98,16 @@ UNITS: dict[str, tuple[str, str]] = {
     "blowoff_margin": ("1", "critical blowoff gradient over wall gradient"),
     "quench_ratio": ("1", "quenching size over port size"),
     "bluff_body_blowoff_velocity_m_s": ("m/s", "blowoff velocity of the bluff-body stabilizer"),
-    "stabilizer_margin": ("1", "stabilizer blowoff velocity over approach velocity"),
-    "verdict": ("", "burner verdict: ok or the risks found"),
+    "stabilizer_margin": ("1", "stabilizer blowoff velocity over the velocity past the body's edge"),
+    "verdict": ("", "burner verdict: ok or the risks found, and the criteria not assessed"),
+    "criteria_not_assessed": ("", "criteria outside the range of their data at this point, and why (blank margin)"),
     "warnings": ("", "inputs outside the range the method or mechanism covers"),
     "ignition_delay_ms": ("ms", "constant-pressure ignition delay of the fresh mixture (time of max dT/dt)"),
     "autoignition_margin": ("1", "ignition delay over premixer residence time"),
+    "injection_ignition_delay_ms": ("ms", "shortest ignition delay of the fuel-oxidizer mixtures near the fuel "
+                                          "injection (phi 0.25-4 at the premixer's temperature and pressure)"),
+    "injection_equivalence_ratio": ("1", "equivalence ratio of the most reactive mixture near the fuel injection"),
+    "injection_autoignition_margin": ("1", "shortest ignition delay near the fuel injection over residence time"),
     "autoignition_verdict": ("", "ok or autoignition risk (margin below the premixer's minimum)"),
     "flame_speed_kinetic_uncertainty_percent": ("%", "1-sigma kinetic uncertainty of the flame speed, first order "
                                                      "from adjoint sensitivities and rate-constant uncertainty "
@@ -189,10 +194,12 @@ GAS_COLUMNS = (
 BURNER_COLUMNS = (
     "port_velocity_m_s", "thermal_input_kW", "port_reynolds_number", "wall_velocity_gradient_1_s", "flashback_margin",
     "blowoff_margin", "quench_ratio", "bluff_body_blowoff_velocity_m_s", "stabilizer_margin", "verdict",
+    "criteria_not_assessed",
 )
 
 #: Premixer autoignition columns (empty unless the study has a [premixer] table).
-PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "autoignition_verdict")
+PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignition_delay_ms",
+                    "injection_equivalence_ratio", "injection_autoignition_margin", "autoignition_verdict")
 #: Numerical error of every flame (physics.grid_error), right after its grid points.
 #: (Richardson's extrapolated S_L is stored with each flame but not a column: on the benchmark's
 #: grid-converged flames it was further off than the flame's own value, docs/benchmarks.md.)
@@ -243,8 +250,8 @@ LIMIT_COLUMNS = (
     "lower_bracket_failing", "upper_edge", "upper_kind", "upper_binding", "upper_margin", "upper_bracket_failing",
     "flame_lower_edge", "flame_lower_kind", "flame_lower_binding", "flame_upper_edge", "flame_upper_kind",
     "flame_upper_binding", "wobbe_band_from", "wobbe_band_to", "closest_miss_at", "closest_miss_binding",
-    "closest_miss_margin", "closest_miss_margins", "swept_failures", "tolerance", "flames_evaluated", "evaluated_at",
-    "note", "mechanism",
+    "closest_miss_margin", "closest_miss_margins", "swept_failures", "criteria_not_assessed", "tolerance",
+    "flames_evaluated", "evaluated_at", "note", "mechanism",
 )
 
 #: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).

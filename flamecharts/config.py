@@ -60,7 +60,10 @@ TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution"
             "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
-               "stabilizer_size_mm", "approach_velocity_m_s", "min_stabilizer_margin")
+               "stabilizer_size_mm", "approach_velocity_m_s", "stabilizer_blockage", "min_stabilizer_margin", "layout")
+#: How the ports sit: apart (each flame on its own, as in the port stability data) or as a
+#: deck (a perforated plate or mesh of closely spaced ports whose flames merge).
+PORT_LAYOUTS = ("separate", "deck")
 GAS_QUALITY_KEYS = ("combustion_temperature_C", "metering_temperature_C", "wobbe", "wobbe_band_MJ_m3",
                     "wobbe_tolerance_percent")
 #: Default minimum margins of the burner verdict (common practice without source: set your own).
@@ -132,6 +135,8 @@ class Burner:
     min_blowoff_margin: float = DEFAULT_MIN_MARGIN
     stabilizer_size_m: float | None = None
     approach_velocity_m_s: float | None = None
+    stabilizer_blockage: float = 0.0   # area fraction of the duct the bluff body blocks
+    layout: str = "separate"           # PORT_LAYOUTS
     min_stabilizer_margin: float = DEFAULT_MIN_MARGIN
 
     @property
@@ -464,6 +469,9 @@ def _burner(b: Any) -> Burner:
     port = _string(b.get("port", "round"), "burner.port")
     if port not in ("round", "slot"):
         raise ConfigError(f"'burner.port' is {port!r}{_suggest(port, ('round', 'slot'))}")
+    layout = _string(b.get("layout", "separate"), "burner.layout")
+    if layout not in PORT_LAYOUTS:
+        raise ConfigError(f"'burner.layout' is {layout!r}{_suggest(layout, PORT_LAYOUTS)}")
     size_key = "port_diameter_mm" if port == "round" else "port_gap_mm"
     other = "port_gap_mm" if port == "round" else "port_diameter_mm"
     if other in b:
@@ -496,9 +504,14 @@ def _burner(b: Any) -> Burner:
     if (stab is None) != (approach is None):
         raise ConfigError("a bluff-body stabilizer needs both 'burner.stabilizer_size_mm' and "
                           "'burner.approach_velocity_m_s'")
+    blockage = _number(b["stabilizer_blockage"], "burner.stabilizer_blockage") if "stabilizer_blockage" in b else None
+    if blockage is not None and (stab is None or not 0.0 <= blockage < 0.9):
+        raise ConfigError(f"'burner.stabilizer_blockage' is {blockage:g}; allowed: 0 to 0.9 (the area fraction of "
+                          "the duct the bluff body blocks), with 'stabilizer_size_mm'")
     return Burner(name=_string(b.get("name", "burner"), "burner.name"), port=port, port_size_m=size,
                   port_velocity_m_s=velocity, thermal_input_W=q, port_area_m2=area, input_follows_wobbe=follows,
-                  stabilizer_size_m=stab, approach_velocity_m_s=approach,
+                  stabilizer_size_m=stab, approach_velocity_m_s=approach, stabilizer_blockage=blockage or 0.0,
+                  layout=layout,
                   **{k: v for k, v in margins.items() if v is not None})
 
 

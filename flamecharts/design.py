@@ -11,6 +11,7 @@ mechanism_differences     flame speed and thickness of each mechanism a study co
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 
 from .chemistry.ignition import ignition_delay_peak, premixer_horizon
@@ -23,8 +24,9 @@ from .physics import indicators as ind
 from .physics import kinetic_uncertainty as ku
 from .physics.rate_factors import RATE_FACTORS
 from .physics import mixtures
+from .physics import validity as val
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
-from .physics.limits import flammability_warning, heavy_hydrocarbon_warning, pressure_warning
+from .physics.limits import autoignition_verdict, flammability_warning, heavy_hydrocarbon_warning, pressure_warning
 
 
 def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
@@ -142,44 +144,107 @@ RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
           ("chemical_time_ratio", "chemical_time_s"))
 
 
+def _port_velocity(b, r: dict, gas: FuelGas) -> tuple[float, float | None]:
+    """(bulk port velocity [m/s], thermal input [W] or None) of a burning point."""
+    if b.port_velocity_m_s is not None:
+        return b.port_velocity_m_s, None
+    Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
+    return ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
+                                              r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
+
+
+def wall_gradient(b, U: float, Re: float | None, nu: float | None) -> float:
+    """Wall velocity gradient of the port flow [1/s]: laminar fully developed (8U/D, 6U/h) up
+    to Re 2300, Blasius's turbulent gradient from Re 4000, linear in Re between the two
+    (physics.validity.transition_gradient): no step for a limit search to land on."""
+    def laminar(u: float) -> float:
+        return (ind.wall_velocity_gradient_round(u, b.port_size_m) if b.port == "round"
+                else ind.wall_velocity_gradient_slot(u, b.port_size_m))
+    if Re is None or Re <= val.LAMINAR_REYNOLDS:
+        return laminar(U)
+    D_h = b.port_size_m if b.port == "round" else 2.0 * b.port_size_m  # hydraulic diameter
+    if Re >= val.TURBULENT_REYNOLDS:
+        return ind.wall_velocity_gradient_turbulent(U, D_h, nu)
+    return val.transition_gradient(Re, laminar(U * val.LAMINAR_REYNOLDS / Re),
+                                   ind.wall_velocity_gradient_turbulent(U * val.TURBULENT_REYNOLDS / Re, D_h, nu))
+
+
+def not_assessed(study, r: dict, Re: float | None) -> dict[str, str]:
+    """Criterion -> why its constant does not hold at this burning point (physics.validity),
+    for the criteria the burner has: flashback, blowoff, and the stabilizer with a bluff body
+    (not assessed until the study sets [indicators] bluff_body_constant)."""
+    b, phi = study.burner, r["equivalence_ratio"]
+    le = r.get("lewis_number_fuel") if phi <= 1.0 else r.get("lewis_number_oxygen")
+    where = dict(reynolds=Re, pressure_bar=r["pressure_bar"], unburned_temperature_K=r["unburned_temperature_K"],
+                 equivalence_ratio=phi, deficient_lewis=le, layout=getattr(b, "layout", "separate"))
+    out = {}
+    for c in ("flashback", "blowoff") + (("stabilizer",) if b.on_stabilizer else ()):
+        why = val.domain_reasons(val.DOMAINS[c], **where)
+        if c == "stabilizer" and study.indicator_settings.get("bluff_body_constant") is None:
+            why.insert(0, "C_BO not calibrated (set [indicators] bluff_body_constant from a test of this stabilizer)")
+        if why:
+            out[c] = ", ".join(why)
+    return out
+
+
+def not_assessed_summary(rows: list[dict]) -> list[dict]:
+    """The criteria not assessed over a study's burning points, gathered once per criterion and
+    kind of reason (the reason with its numbers left out): criterion, example (the reason at the
+    first such point), points (how many), of (burning points), in the order first met."""
+    burning = [r for r in rows if r.get("status") == "ok" and r.get("not_assessed") is not None]
+    out: dict[tuple[str, str], dict] = {}
+    for r in burning:
+        for c, why in r["not_assessed"].items():
+            for part in why.split(", "):
+                k = (c, re.sub(r"\d[\d.e+\-]*", "#", part))
+                out.setdefault(k, {"criterion": c, "example": part, "points": 0, "of": len(burning)})["points"] += 1
+    return list(out.values())
+
+
+def _verdict(b, margins: dict[str, float | None], unassessed: dict[str, str], cellular: bool) -> str:
+    """'ok', the risks, and what is not assessed: from the criteria that decide this burner's
+    verdict (flashback, and the rim's blowoff or the stabilizer's)."""
+    decide = ("flashback", b.blowoff[2])
+    need = {"flashback": b.min_flashback_margin, "blowoff": b.min_blowoff_margin,
+            "stabilizer": b.min_stabilizer_margin}
+    risks = [f"{'stabilizer blowoff' if c == 'stabilizer' else c} risk" for c in decide
+             if c not in unassessed and margins[c] < need[c]]
+    if cellular and "flashback" not in unassessed:  # [flame_response]: the thermal criterion is optimistic here
+        risks.append("flashback risk underestimated (thermodiffusively unstable)")
+    missing = [c for c in decide if c in unassessed]
+    if not missing:
+        return " and ".join(risks) if risks else "ok"
+    gap = f"{' and '.join(missing)} not assessed"
+    if len(missing) == len(decide):
+        return gap
+    return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {decide[0] if decide[1] in missing else decide[1]} only; {gap}"
+
+
 def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     b = study.burner
     out = dict.fromkeys(BURNER_COLUMNS)
+    out["not_assessed"] = {}
     if b is None or r["status"] != "ok":
         return out
-    if b.port_velocity_m_s is not None:
-        U, Q = b.port_velocity_m_s, None
-    else:
-        Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
-        U = ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
-                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2)
+    U, Q = _port_velocity(b, r, gas)
     D_h = b.port_size_m if b.port == "round" else 2.0 * b.port_size_m  # hydraulic diameter
-    mu = r.get("unburned_viscosity_Pa_s")
-    Re = U * D_h * r["unburned_density_kg_m3"] / mu if mu else None
-    if Re is not None and Re > ind.TURBULENT_REYNOLDS:
-        g = ind.wall_velocity_gradient_turbulent(U, D_h, mu / r["unburned_density_kg_m3"])
-    else:
-        g = (ind.wall_velocity_gradient_round(U, b.port_size_m) if b.port == "round"
-             else ind.wall_velocity_gradient_slot(U, b.port_size_m))
-    fb = g / r["flashback_critical_gradient_1_s"]
-    bo = r["blowoff_critical_gradient_1_s"] / g
+    mu, rho = r.get("unburned_viscosity_Pa_s"), r["unburned_density_kg_m3"]
+    Re = U * D_h * rho / mu if mu else None
+    g = wall_gradient(b, U, Re, mu / rho if mu else None)
+    unassessed = not_assessed(study, r, Re)
+    margins = {"flashback": g / r["flashback_critical_gradient_1_s"], "blowoff": r["blowoff_critical_gradient_1_s"] / g,
+               "stabilizer": None}
     quench = (r["tube_quenching_diameter_mm"] if b.port == "round" else r["quenching_distance_mm"]) / (1e3 * b.port_size_m)
-    risks = []
-    if fb < b.min_flashback_margin:
-        risks.append("flashback risk")
-    if bo < b.min_blowoff_margin and not b.on_stabilizer:  # a bluff body holds the flame: its margin applies
-        risks.append("blowoff risk")
-    out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
-               port_reynolds_number=Re,
-               flashback_margin=fb, blowoff_margin=bo, quench_ratio=quench)
-    if b.stabilizer_size_m is not None:
+    if b.stabilizer_size_m is not None and s.get("bluff_body_constant") is not None:
         U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])
-        out.update(bluff_body_blowoff_velocity_m_s=U_bo, stabilizer_margin=U_bo / b.approach_velocity_m_s)
-        if U_bo / b.approach_velocity_m_s < b.min_stabilizer_margin:
-            risks.append("stabilizer blowoff risk")
-    if r.get("instability") == "cellular":  # [flame_response]: the thermal criterion is optimistic here
-        risks.append("flashback risk underestimated (thermodiffusively unstable)")
-    out["verdict"] = " and ".join(risks) if risks else "ok"
+        out["bluff_body_blowoff_velocity_m_s"] = U_bo
+        margins["stabilizer"] = U_bo / ind.edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage)
+    shown = {c: None if c in unassessed else m for c, m in margins.items()}
+    out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
+               port_reynolds_number=Re, flashback_margin=shown["flashback"], blowoff_margin=shown["blowoff"],
+               stabilizer_margin=shown["stabilizer"], quench_ratio=quench, not_assessed=unassessed,
+               criteria_not_assessed="; ".join(f"{c}: {why}" for c, why in unassessed.items()),
+               verdict=_verdict(b, margins, unassessed, r.get("instability") == "cellular"))
     return out
 
 
@@ -313,9 +378,33 @@ def point_warnings(study, point, row: dict) -> str:
     return "; ".join(w for w in out if w)
 
 
+#: Equivalence ratios scanned for the most reactive mixture near the fuel injection, where the
+#: fuel meets the oxidizer before it is mixed to the premixed phi (common practice without
+#: source: a geometric spread around stoichiometric).
+INJECTION_PHIS = (0.25, 0.5, 1.0, 2.0, 4.0)
+
+
+def injection_delay(study, point, horizon: float) -> tuple[float, float]:
+    """(shortest ignition delay [s], its phi) of the fuel-oxidizer mixtures near the fuel
+    injection: chemistry.ignition.ignition_delay_peak at every INJECTION_PHIS, at the point's
+    preheat and pressure. The fuel is taken as hot as the oxidizer, which makes the rich mixtures
+    more reactive than a cooler fuel jet would (conservative). Cached per mixture."""
+    o2 = mixtures.stoich_o2_per_fuel(study.atoms, point.X_flame)
+    best = (math.inf, INJECTION_PHIS[-1])
+    for phi in INJECTION_PHIS:
+        X = mixtures.unburned_mixture(point.X_flame, point.X_oxidizer, phi, o2)
+        tau = ignition_delay_peak(study.mechanism_path, tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)),
+                                  float(point.T_u), float(point.P), float(horizon))
+        if tau < best[0]:
+            best = (tau, phi)
+    return best
+
+
 def premixer_columns(study, point, row: dict | None = None) -> dict:
     """Ignition delay of the fresh mixture at the point's preheat and pressure, the
-    autoignition margin (delay / residence time) and its verdict (columns.PREMIXER_COLUMNS).
+    autoignition margin (delay / residence time), the same for the most reactive mixture near
+    the fuel injection (:func:`injection_delay`), and the verdict on both
+    (columns.PREMIXER_COLUMNS; physics.limits.autoignition_verdict).
 
     Delay: time of the largest dT/dt in an adiabatic constant-pressure reactor
     (chemistry.ignition.ignition_delay_peak), the premixer's gas held at the burner's
@@ -328,17 +417,23 @@ def premixer_columns(study, point, row: dict | None = None) -> dict:
         return out
     horizon = premixer_horizon(pm.residence_time_s, pm.min_autoignition_margin)
     X = tuple(sorted((k, float(v)) for k, v in point.X_unburned.items() if v > 0))
-    if row is not None and row.get("premixer_horizon_s") == horizon:  # the worker's, stored with the flame
-        tau = row["premixer_ignition_delay_s"]
-    else:
-        try:
+    try:
+        if row is not None and row.get("premixer_horizon_s") == horizon:  # the worker's, stored with the flame
+            tau = row["premixer_ignition_delay_s"]
+        else:
             tau = ignition_delay_peak(study.mechanism_path, X, float(point.T_u), float(point.P), float(horizon))
-        except Exception as exc:  # noqa: BLE001 - the column says why instead of stopping the read-out
-            out["autoignition_verdict"] = f"not computed: {type(exc).__name__}"
-            return out
-    margin = tau / pm.residence_time_s
-    out.update(ignition_delay_ms=tau * 1e3, autoignition_margin=margin,
-               autoignition_verdict="ok" if margin >= pm.min_autoignition_margin else "autoignition risk")
+        tau_inj, phi_inj = injection_delay(study, point, horizon)
+    except Exception as exc:  # noqa: BLE001 - the column says why instead of stopping the read-out
+        out["autoignition_verdict"] = f"not computed: {type(exc).__name__}"
+        return out
+    margin, margin_inj = tau / pm.residence_time_s, tau_inj / pm.residence_time_s
+    verdict = autoignition_verdict(study.mechanism_path, float(point.T_u), min(margin, margin_inj),
+                                   pm.min_autoignition_margin)
+    if margin_inj < margin and margin_inj < pm.min_autoignition_margin <= margin:
+        verdict += f" near the fuel injection (phi {phi_inj:g})"
+    out.update(ignition_delay_ms=tau * 1e3, autoignition_margin=margin, injection_ignition_delay_ms=tau_inj * 1e3,
+               injection_equivalence_ratio=phi_inj, injection_autoignition_margin=margin_inj,
+               autoignition_verdict=verdict)
     return out
 
 

@@ -316,9 +316,9 @@ CONDITION_AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburne
 def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
     """Per fuel, oxidizer, blend fraction, pressure and preheat with a burning flame: the smallest
     flashback and blowoff margins along equivalence ratio and the phi where each occurs (the
-    first in the study's order on a tie), and how many burning points keep both margins. The
-    blowoff margin is the one that applies (config.Burner.blowoff: the stabilizer's when a
-    bluff body holds the flame)."""
+    first in the study's order on a tie; None where the margin is not assessed at any phi), and
+    how many burning points have the verdict ok. The blowoff margin is the one that applies
+    (config.Burner.blowoff: the stabilizer's when a bluff body holds the flame)."""
     if burner is None:
         return []
     if "mechanism" in ds.dims:
@@ -332,22 +332,30 @@ def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
     keys = itertools.product(*(ds[d].values for d in CONDITION_AXES))
     for key, fb, bo, verdict in zip(keys, along_phi("flashback_margin"), along_phi(bo_col),
                                     along_phi("verdict")):
-        burning = np.isfinite(fb)
+        burning = verdict != ""
         if not burning.any():
             continue
-        i, j = int(np.nanargmin(fb)), int(np.nanargmin(bo))
         out.append({"fuel": str(key[0]), "oxidizer": str(key[1]), "blend_fraction": float(key[2]),
                     "pressure_bar": float(key[3]), "unburned_temperature_K": float(key[4]),
-                    "min_flashback_margin": float(fb[i]), "at_phi_flashback": float(phis[i]),
-                    "min_blowoff_margin": float(bo[j]), "at_phi_blowoff": float(phis[j]),
+                    **_lowest(fb, phis, "flashback"), **_lowest(bo, phis, "blowoff"),
                     "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum()),
                     "mechanism": ds.attrs.get("mechanism", "")})
     return out
 
 
+def _lowest(margins: np.ndarray, phis: np.ndarray, name: str) -> dict:
+    """min_<name>_margin and at_phi_<name> of margins along phi (None where no margin is assessed)."""
+    if not np.isfinite(margins).any():
+        return {f"min_{name}_margin": None, f"at_phi_{name}": None}
+    i = int(np.nanargmin(margins))
+    return {f"min_{name}_margin": float(margins[i]), f"at_phi_{name}": float(phis[i])}
+
+
 def premixer_summary(study: Study, rows: list[dict]) -> list[dict]:
     """Per gas and condition: the shortest ignition delay of the fresh mixture over phi, its
-    autoignition margin and verdict (studies with a [premixer] table; [] otherwise)."""
+    autoignition margin, the shortest delay near the fuel injection (the same for every phi),
+    the verdicts met, and how many points are not plainly ok (studies with a [premixer] table;
+    [] otherwise)."""
     if study.premixer is None:
         return []
     groups: dict[tuple, list[dict]] = {}
@@ -361,6 +369,9 @@ def premixer_summary(study: Study, rows: list[dict]) -> list[dict]:
         out.append({"fuel": fuel, "oxidizer": ox, "blend_with": study.blend_with or "", "blend_fraction": frac,
                     "pressure_bar": p, "unburned_temperature_K": T, "ignition_delay_ms": worst["ignition_delay_ms"],
                     "autoignition_margin": worst["autoignition_margin"], "at_phi": worst["equivalence_ratio"],
+                    "injection_ignition_delay_ms": rs[0].get("injection_ignition_delay_ms"),
+                    "injection_equivalence_ratio": rs[0].get("injection_equivalence_ratio"),
+                    "verdicts": sorted({r["autoignition_verdict"] for r in rs}),
                     "risky_points": sum(r["autoignition_verdict"] != "ok" for r in rs), "points": len(rs)})
     return out
 
@@ -375,7 +386,8 @@ def first_flashback_fraction(ds: xr.Dataset, study: Study) -> dict[tuple, float 
     for s in sorted(margin_summary(ds, study.burner), key=lambda s: s["blend_fraction"]):
         key = (s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"])
         out.setdefault(key, None)
-        if out[key] is None and s["min_flashback_margin"] < study.burner.min_flashback_margin:
+        m = s["min_flashback_margin"]
+        if out[key] is None and m is not None and m < study.burner.min_flashback_margin:
             out[key] = s["blend_fraction"]
     return out
 

@@ -99,6 +99,14 @@ def test_premixer_columns_and_verdict(tmp_path):
     assert hot["premixer_horizon_s"] == 1.5  # max(1 s, 100 x 3 x 5 ms)
     p_hot = next(p for p in points(res.study) if p.T_u == 1000.0)
     assert premixer_columns(res.study, p_hot)["ignition_delay_ms"] == pytest.approx(hot["ignition_delay_ms"], rel=1e-12)
+    # near the fuel injection: the shortest delay of phi 0.25-4 at the same T and p, never longer than
+    # the premixed mixture's (phi 1 is among those scanned), and inf where nothing ignites
+    from flamecharts.design import INJECTION_PHIS
+
+    assert hot["injection_ignition_delay_ms"] <= hot["ignition_delay_ms"]
+    assert hot["injection_equivalence_ratio"] in INJECTION_PHIS
+    assert hot["injection_autoignition_margin"] == pytest.approx(hot["injection_ignition_delay_ms"] / 5.0)
+    assert math.isinf(cold["injection_ignition_delay_ms"])
 
 
 @pytest.mark.parametrize("extra, message", [

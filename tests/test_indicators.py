@@ -49,4 +49,4 @@ def test_port_velocity_hand_calculation():
 
 def test_bluff_body_velocity_scales_with_size_over_chemical_time():
     tau = ind.chemical_time(2.2e-5, 0.37)
-    assert ind.bluff_body_blowoff_velocity(0.04, tau) == pytest.approx(2 * ind.bluff_body_blowoff_velocity(0.02, tau))
+    assert ind.bluff_body_blowoff_velocity(0.04, tau, 1.0) == pytest.approx(2 * ind.bluff_body_blowoff_velocity(0.02, tau, 1.0))

@@ -73,7 +73,8 @@ def test_a_flame_on_a_bluff_body_shows_the_stabilizer_margin_that_decides_its_ve
     from flamecharts.outputs.report import _points_appendix
 
     burner = ('[burner]\nname = "holder"\nport = "round"\nport_diameter_mm = 20.0\nport_velocity_m_s = 20.0\n'
-              'stabilizer_size_mm = 8.0\napproach_velocity_m_s = 20.0\n')
+              'stabilizer_size_mm = 8.0\napproach_velocity_m_s = 20.0\n'
+              '\n[indicators]\nbluff_body_constant = 1.0\n')  # invented: stands for a rig calibration
     cfg = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8]", extra=burner)
     study = load_study(cfg)
     rows = run_study(study, out_dir=tmp_path / "out", jobs=1).rows

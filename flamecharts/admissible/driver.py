@@ -23,7 +23,8 @@ from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .search import CRITERIA, WOBBE, Answer, apply_band, band_at, limit_parts, window_search
+from .words import fixed_ratio_note
+from .search import CRITERIA, NOT_ASSESSED, WOBBE, Answer, apply_band, band_at, limit_parts, window_search
 
 #: Fractions at which the Wobbe index is scanned before each crossing of a band edge is
 #: refined (it needs no flame).
@@ -50,6 +51,9 @@ class _Search:
     answer: Answer | None = None
     request: list[float] | None = None
     missing: str = ""      # a flame the search needs is not in the store (read-only)
+    unassessed: str = ""   # the criteria not assessed at swept points, and why (limits.csv criteria_not_assessed)
+    nothing: bool = False  # no criterion of the search is assessed at any swept flame: no search
+    cellular: tuple[float, ...] = ()  # swept values whose flames are thermodiffusively unstable ([flame_response])
 
 
 def point_at(study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[object, Point]:
@@ -136,10 +140,29 @@ def _searches(study, rows: list[dict]) -> list[_Search]:
             cond = dict(zip(CONDITION, key))
             band = bands[(cond["fuel"], cond["oxidizer"])]
             blend = axis == "blend_fraction"
-            gen = window_search(swept, parts, lim.tolerance[axis], lim.max_flames_per_search,
-                                (0.0, 1.0) if blend else None, look_inside=band if blend else None)
-            out.append(_Search(axis, cond, gen, band=band))
+            burning = [r for _, r in swept if r.get("status") == "ok"]
+            nothing = bool(burning) and all(parts(r)[1].startswith(NOT_ASSESSED) for r in burning)
+            gen = None if nothing else window_search(swept, parts, lim.tolerance[axis], lim.max_flames_per_search,
+                                                     (0.0, 1.0) if blend else None,
+                                                     look_inside=band if blend else None)
+            out.append(_Search(axis, cond, gen, band=band, nothing=nothing,
+                               unassessed=unassessed_words(sorted(swept, key=lambda t: t[0]), crit, axis),
+                               cellular=tuple(sorted(x for x, r in swept if r.get("instability") == "cellular"))))
     return out
+
+
+def unassessed_words(swept: list[tuple[float, dict]], criteria: tuple[str, ...], axis: str) -> str:
+    """'flashback at 3 of 3 swept flames (at phi 0.5: turbulent port flow (Re 3.7e+05 > 2300))':
+    for each criterion of a search, how many swept burning flames it is not assessed at, and
+    why at the first of them ('' when every criterion is assessed everywhere)."""
+    burning = [(x, r) for x, r in swept if r.get("status") == "ok"]
+    out = []
+    for c in criteria:
+        off = [(x, r["not_assessed"][c]) for x, r in burning if c in (r.get("not_assessed") or {})]
+        if off:
+            at = f"{100 * off[0][0]:g} %" if axis == "blend_fraction" else f"phi {off[0][0]:g}"
+            out.append(f"{c} at {len(off)} of {len(burning)} swept flames (at {at}: {off[0][1]})")
+    return "; ".join(out)
 
 
 def _bands(study) -> dict[tuple[str, str], list[tuple[float, float]] | None]:
@@ -179,7 +202,8 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
     t0 = time.perf_counter()
     searches = _searches(study, rows)
     for s in searches:
-        _advance(s, None)
+        if s.gen is not None:
+            _advance(s, None)
     solved, rnd = 0, 0
     while True:
         open_ = [s for s in searches if s.request is not None]
@@ -215,7 +239,15 @@ def limit_rows(study, s: _Search) -> list[dict]:
             "equivalence_ratio": s.cond["equivalence_ratio"], "pressure_bar": s.cond["pressure_bar"],
             "unburned_temperature_K": s.cond["unburned_temperature_K"],
             "tolerance": study.limits.tolerance[s.axis]}
+    base["criteria_not_assessed"] = s.unassessed
     a = s.answer
+    if s.nothing:
+        row = {**base, "window": 0, "outcome": NOT_ASSESSED, "flames_evaluated": 0, "evaluated_at": "",
+               "note": "no criterion of this search holds at these flames, so no limit is given"}
+        if s.band:
+            near = _nearest(s.band, None, s.cond["blend_fraction"])
+            row.update(wobbe_band_from=near[0], wobbe_band_to=near[1])
+        return [row]
     if a is None:
         return [{**base, "window": 0, "outcome": "stopped", "flames_evaluated": 0, "evaluated_at": "",
                  "note": s.missing}]
@@ -242,9 +274,12 @@ def limit_rows(study, s: _Search) -> list[dict]:
                                                       if _margin(m.row, c) is not None))
         return [row]
     out = []
+    ratio = fixed_ratio_note(study)
     for n, w in enumerate(a.windows, 1):
+        rests = [ratio] if ratio and {w.lower.binding, w.upper.binding} & {"flashback", "blowoff"} else []
+        rests += _cellular_words(s, w)
         row = {**common, "window": n, "outcome": "window", "note": "; ".join(
-            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a) + _skipped(a))}
+            [e.note for e in (w.lower, w.upper) if e.note] + _misses(a) + _skipped(a) + rests)}
         for side, e in (("lower", w.lower), ("upper", w.upper)):
             row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
@@ -255,6 +290,17 @@ def limit_rows(study, s: _Search) -> list[dict]:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
+
+
+def _cellular_words(s: _Search, w) -> list[str]:
+    """The note of a window holding swept flames that are thermodiffusively unstable: the
+    thermal flashback criterion counts them admissible, and understates their risk."""
+    inside = [x for x in s.cellular if w.lower.value - 1e-12 <= x <= w.upper.value + 1e-12]
+    if not inside:
+        return []
+    return [f"{len(inside)} swept flame{'s' if len(inside) > 1 else ''} inside this window "
+            f"({', '.join(f'{x:g}' for x in inside)}) {'are' if len(inside) > 1 else 'is'} thermodiffusively unstable "
+            "(cellular): admissible on the thermal flashback criterion alone, which understates their risk"]
 
 
 def _nearest(band: list[tuple[float, float]], w, x: float | None) -> tuple[float, float]:

@@ -76,17 +76,39 @@ NO_FLAME_G = -5.0
 NOT_FLAMES = {"no_flame": NO_FLAME, "autoignition": "autoignition"}
 
 
+#: What binds past an edge beyond which no criterion of the search is assessed (physics.validity).
+NOT_ASSESSED = "not assessed"
+#: The log-margin a criterion that is not assessed at a point stands at in the searches: holds by
+#: far (e^10 times its minimum), so that only the criteria assessed there bind, and an edge
+#: where a failing criterion leaves its range is found like any other (root finding steps to
+#: the end of the range; limits.csv names the criteria not assessed).
+UNASSESSED_G = 10.0
+
+
 def burning_or_not(parts: Parts) -> Parts:
     """``parts`` that counts a mixture without a flame (status no_flame: too lean, rich or
-    diluted to burn; or autoignition: it ignites before a flame can cross it) as failing, so
-    that an edge toward it can be refined like any other; a flame that failed to solve still
-    has no value."""
-    return lambda r: ({NOT_FLAMES[r["status"]]: NO_FLAME_G}, "") if r.get("status") in NOT_FLAMES else parts(r)
+    diluted to burn; or autoignition: it ignites before a flame can cross it), or a flame
+    that no criterion of the search is assessed for, as failing, so that an edge toward it
+    can be refined like any other; a flame that failed to solve still has no value."""
+    def counted(r: dict):
+        if r.get("status") in NOT_FLAMES:
+            return {NOT_FLAMES[r["status"]]: NO_FLAME_G}, ""
+        P, why = parts(r)
+        return ({NOT_ASSESSED: NO_FLAME_G}, "") if P is None and why.startswith(NOT_ASSESSED) else (P, why)
+    return counted
+
+
+def refinable(parts: Parts, row: dict) -> bool:
+    """Whether an edge toward ``row``, which has no value, can be refined: it does not burn,
+    autoignites, or burns but no criterion of the search is assessed there."""
+    return row.get("status") in NOT_FLAMES or parts(row)[1].startswith(NOT_ASSESSED)
 
 
 def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
-    """g_c = ln(margin_c / required_c) of every criterion of one annotated row; (None, why)
-    when the row has no burning flame or lacks a margin.
+    """g_c = ln(margin_c / required_c) of every criterion of one annotated row; UNASSESSED_G for
+    a criterion not assessed there (row key ``not_assessed``, design.not_assessed); (None, why)
+    when the row has no burning flame, lacks a margin, or has no criterion assessed (why
+    starts NOT_ASSESSED).
 
     >>> from types import SimpleNamespace as NS
     >>> b = NS(min_flashback_margin=1.5, min_blowoff_margin=1.5)
@@ -94,16 +116,28 @@ def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str,
     ...                        ("flashback", "blowoff"))
     >>> {c: round(g, 4) for c, g in parts.items()}
     {'flashback': 0.6931, 'blowoff': -0.2231}
+    >>> limit_parts({"status": "ok", "flashback_margin": 3.0, "blowoff_margin": None,
+    ...              "not_assessed": {"blowoff": "rich (phi 1.2 > 1)"}}, b, ("flashback", "blowoff"))[0]
+    {'flashback': 0.6931471805599453, 'blowoff': 10.0}
+    >>> limit_parts({"status": "ok", "blowoff_margin": None, "not_assessed": {"blowoff": "rich (phi 1.2 > 1)"}},
+    ...             b, ("blowoff",))
+    (None, 'not assessed: blowoff (rich (phi 1.2 > 1))')
     """
     if row.get("status") != "ok":
         return None, f"{row.get('status')}: {row.get('message', '')}"
     out = {}
+    skipped = row.get("not_assessed") or {}
     for c in criteria:
+        if c in skipped:
+            out[c] = UNASSESSED_G
+            continue
         col, attr = CRITERIA[c]
         m = row.get(col)
         if m is None or not m > 0:
             return None, f"no {col.replace('_', ' ')}"
         out[c] = math.log(m / getattr(burner, attr))
+    if all(c in skipped for c in criteria):
+        return None, f"{NOT_ASSESSED}: " + "; ".join(f"{c} ({skipped[c]})" for c in criteria)
     return out, ""
 
 
@@ -487,9 +521,9 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, parts)
         elif pair == ("fail", "ok"):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
-        elif pair == ("ok", "none") and rb.get("status") in NOT_FLAMES:
+        elif pair == ("ok", "none") and refinable(parts, rb):
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, burning_or_not(parts))
-        elif pair == ("none", "ok") and ra.get("status") in NOT_FLAMES:
+        elif pair == ("none", "ok") and refinable(parts, ra):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, burning_or_not(parts))
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1] or may_peak_inside(i, logs, gs[i][1])):
             if look_inside is not None and not any(xa <= b1 and xb >= b0 for b0, b1 in look_inside):

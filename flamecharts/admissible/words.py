@@ -8,7 +8,8 @@ the closest miss.
 from __future__ import annotations
 
 from ..columns import gas_label
-from .search import CRITERIA, FOUND, RANGE_END, SWEPT_END, WOBBE_EDGE
+from ..physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
+from .search import CRITERIA, FOUND, NOT_ASSESSED, RANGE_END, SWEPT_END, WOBBE_EDGE
 
 
 def band_words(study) -> str:
@@ -30,6 +31,27 @@ def kept(study) -> str:
     return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
 
 
+def fixed_ratio_note(study) -> str:
+    """'' or the warning that a port's flashback and blowoff margins multiply to a constant:
+    both critical gradients are S_L^2/alpha_u times a constant (physics.indicators), so where
+    both are criteria the band they allow is the same whatever the mixture. Not checked
+    against published stability data (flashback and blowoff velocities of the same ports
+    across phi): said wherever an answer rests on it."""
+    crit = [c for c in study.limits.criteria if c in CRITERIA]
+    if "flashback" not in crit or "blowoff" not in crit:
+        return ""
+    s, b = study.indicator_settings, study.burner
+    product = s["flashback_peclet"] * s["blowoff_karlovitz"]
+    top = product / b.min_blowoff_margin
+    band = (f"flashback margins {b.min_flashback_margin:g}-{top:.2f}" if top >= b.min_flashback_margin
+            else "no flashback margin at all")
+    default = (s["flashback_peclet"], s["blowoff_karlovitz"]) == (INDICATOR_DEFAULTS["flashback_peclet"],
+                                                                  INDICATOR_DEFAULTS["blowoff_karlovitz"])
+    return (f"rests on two fixed constants: flashback x blowoff margin = Pe_F Ka_B = {product:.3g} at every point, so "
+            f"the two allow {band} whatever the mixture" + (" (flamecharts' defaults, not checked against "
+                                                             "published port stability data)" if default else ""))
+
+
 def _where(r: dict) -> str:
     return f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K"
 
@@ -45,6 +67,8 @@ def _binds(r: dict, side: str, study, past: str) -> str:
         return f"the mixture does not burn{past}"
     if c == "autoignition":
         return f"the mixture autoignites{past}"
+    if c == NOT_ASSESSED:
+        return f"no criterion is assessed{past}"
     need = _minimum(study, c)
     there = f": margin {m:.2f} there, minimum {need:g}" if m is not None and need is not None else ""
     return f"{c} binds{past}{there}"
@@ -64,12 +88,13 @@ def _blend_edge(r: dict, side: str, study, blend: str) -> str:
                 alone = (f"; the flame margins alone would allow {100 * r['flame_upper_edge']:.1f} % "
                          f"({r['flame_upper_binding']} binds)")
             elif fk == RANGE_END:
-                alone = f"; no flame criterion binds up to 100 % {blend}"
+                alone = f"; no {'assessed ' if r.get('criteria_not_assessed') else ''}flame criterion binds up to 100 % {blend}"
             elif fk is not None:
                 alone = f"; the flame margins alone hold up to at least {100 * r['flame_upper_edge']:.1f} %"
         return f"{pct}, where the Wobbe index {verb} {band_words(study)}{alone}"
     if kind == RANGE_END:
-        return "100 %, the pure blend gas (every margin holds)" if side == "upper" else "0 %"
+        holds = "every assessed margin holds" if r.get("criteria_not_assessed") else "every margin holds"
+        return f"100 %, the pure blend gas ({holds})" if side == "upper" else "0 %"
     if kind == SWEPT_END:
         return f"{pct} (the lowest swept fraction; the window may reach lower)"
     return f"{'at least' if side == 'upper' else 'about'} {pct} (edge not settled: {r.get('note', '')})"
@@ -136,6 +161,24 @@ def limit_sentence(r: dict, study) -> str:
     """
     b, blend = study.burner, study.blend_with or "blend gas"
     nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
+    gaps = [part.split(" (at ")[0] for part in (r.get("criteria_not_assessed") or "").split("; ") if part]
+    gap = f"; not assessed: {', '.join(gaps)} (why: limits.csv, criteria_not_assessed)" if gaps else ""
+    return _sentence(r, study, b, blend, nth) + gap
+
+
+def _sentence(r: dict, study, b, blend: str, nth: str) -> str:
+    if r["outcome"] == NOT_ASSESSED:
+        where = (f"{r['fuel']} at phi {r['equivalence_ratio']:g}" if r["axis"] == "blend_fraction"
+                 else gas_label(r))
+        band = ""
+        lo, hi = r.get("wobbe_band_from"), r.get("wobbe_band_to")
+        if lo is not None and r["axis"] == "blend_fraction":
+            band = f"; {band_words(study)} alone allows {100 * lo:.1f}-{100 * hi:.1f} % {blend}"
+        elif lo is not None:
+            x = r.get("blend_fraction") or 0.0
+            band = (f"; the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} {band_words(study)} "
+                    f"({100 * lo:.1f}-{100 * hi:.1f} % {blend})")
+        return f"{where}, {_where(r)}: {b.name}: no limit, no criterion of the search is assessed at these flames{band}"
     if r["axis"] == "blend_fraction":
         head = f"{r['fuel']} at phi {r['equivalence_ratio']:g}, {_where(r)}: {b.name}"
         if r["outcome"] == "none admissible":

@@ -9,7 +9,8 @@ from pathlib import Path
 from ..columns import gas_label
 from ..admissible.words import kept, limit_sentence, search_flames
 from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
-from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences
+from ..design import (error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences,
+                      not_assessed_summary)
 from ..outcome import Status
 from ..pipeline import default_out_dir, run
 from ..results import comparison_of, mechanism_dataset, rows_of
@@ -62,6 +63,12 @@ def cmd_run(args) -> int:
                   f"{r['unburned_temperature_K']:g} K: {r['warnings']}")
         if len(warned) > 20:
             print(f"  ... and {len(warned) - 20} more (see results.csv)")
+    gaps = not_assessed_summary(summary.rows)
+    if gaps:
+        print("Criteria not assessed (outside the range of their data: no margin, and no verdict or limit rests on "
+              "them; column 'criteria_not_assessed'):")
+        for g in gaps:
+            print(f"  {g['criterion']} at {g['points']} of {g['of']} flames, e.g. {g['example']}")
     note = lumping_note(study)
     if note:
         print(note)

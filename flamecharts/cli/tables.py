@@ -44,13 +44,28 @@ def print_margins(study, ds) -> None:
     print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}):")
     for s in summary:
         print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
-              f"{s['unburned_temperature_K']:g} K: flashback margin >= {s['min_flashback_margin']:.2f} "
-              f"(phi {s['at_phi_flashback']:g}), {bo_name} margin >= {s['min_blowoff_margin']:.2f} "
-              f"(phi {s['at_phi_blowoff']:g}); {s['points_ok']} of {s['points']} points ok")
+              f"{s['unburned_temperature_K']:g} K: {_lowest_words(s, 'flashback', 'flashback')}, "
+              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points ok")
+    judged = {(s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"]) for s in summary
+              if s["min_flashback_margin"] is not None}
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
+        if (fuel, ox, p, T) not in judged:
+            continue
         what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
                 else f"at no {study.blend_with} fraction of the study")
         print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+
+
+def _lowest_words(s: dict, key: str, name: str) -> str:
+    """'flashback margin >= 1.62 (phi 1)' or 'flashback not assessed' from a margin_summary row."""
+    if s[f"min_{key}_margin"] is None:
+        return f"{name} not assessed"
+    return f"{name} margin >= {s[f'min_{key}_margin']:.2f} (phi {s[f'at_phi_{key}']:g})"
+
+
+def _m(v) -> str:
+    """A margin in 5 characters, '  n/a' where it is not assessed."""
+    return "  n/a" if v is None else f"{v:5.2f}"
 
 
 def print_premixer(study, rows) -> None:
@@ -65,8 +80,11 @@ def print_premixer(study, rows) -> None:
         delay = ("no ignition within the horizon" if s["ignition_delay_ms"] == float("inf")
                  else f"shortest ignition delay {s['ignition_delay_ms']:.3g} ms (phi {s['at_phi']:g}), "
                       f"margin {s['autoignition_margin']:.3g}")
-        print(f"  {gas_label(s)}, {s['pressure_bar']:g} bar, {s['unburned_temperature_K']:g} K: {delay}; "
-              f"{s['points'] - s['risky_points']} of {s['points']} points ok")
+        tau = s.get("injection_ignition_delay_ms")
+        near = ("" if tau is None else "; near the fuel injection no ignition" if tau == float("inf")
+                else f"; near the fuel injection {tau:.3g} ms (phi {s['injection_equivalence_ratio']:g})")
+        print(f"  {gas_label(s)}, {s['pressure_bar']:g} bar, {s['unburned_temperature_K']:g} K: {delay}{near}; "
+              f"{s['points'] - s['risky_points']} of {s['points']} points plainly ok ({'; '.join(s['verdicts'])})")
 
 
 MAX_POINT_LINES = 60
@@ -93,7 +111,7 @@ def print_points(study, rows) -> None:
                  f"{r['flashback_critical_gradient_1_s']:7.0f} {r['quenching_distance_mm']:5.2f}")
         if burner:
             line += (f" {r['port_velocity_m_s']:6.3f} {r['wall_velocity_gradient_1_s']:7.0f} "
-                     f"{r['flashback_margin']:5.2f} {r[bo_col]:5.2f}  {r['verdict']}")
+                     f"{_m(r['flashback_margin'])} {_m(r[bo_col])}  {r['verdict']}")
         print(line)
     if len(rows) > MAX_POINT_LINES:
         print(f"  ... and {len(rows) - MAX_POINT_LINES} more points in results.csv")

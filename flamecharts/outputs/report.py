@@ -8,17 +8,18 @@ from disk with no network access and prints to PDF from a browser with its chart
 from __future__ import annotations
 
 import html
+import math
 import time
 from statistics import median
 from pathlib import Path
 
 from .._version import __version__
-from ..admissible.words import limit_sentence, search_flames
+from ..admissible.words import fixed_ratio_note, limit_sentence, search_flames
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import (error_bar_sentence, fuel_gas_table, inside_kinetic_band, largest_differences,
+from ..design import (error_bar_sentence, not_assessed_summary, fuel_gas_table, inside_kinetic_band, largest_differences,
                       mechanism_differences)
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
@@ -111,17 +112,22 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
             out.append(["Largest numerical (grid) error band of S_L", f"±{worst['flame_speed_numerical_error_percent']:.2g} %",
                         f"{gas_label(worst)}, φ {worst['equivalence_ratio']:g}, {worst['pressure_bar']:g} bar; "
                         f"median of all flames ±{median(r['flame_speed_numerical_error_percent'] for r in est):.2g} %"])
-    fb = [r for r in ok if r.get("flashback_margin") is not None]
-    if fb:
-        w = min(fb, key=lambda r: r["flashback_margin"])
-        out.append(["Smallest flashback margin g_wall/g_F", f"{w['flashback_margin']:.2f}",
-                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {study.burner.min_flashback_margin:g})"])
+    if study.burner is not None and ok:
         col, need, name = study.burner.blowoff
-        w = min(fb, key=lambda r: r[col])
-        out.append([f"Smallest {name} margin " + ("U_BO/U" if name == "stabilizer" else "g_B/g_wall"), f"{w[col]:.2f}",
-                    f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {need:g})"])
-        n_ok = sum(r["verdict"] == "ok" for r in fb)
-        out.append(["Points meeting both margins", f"{n_ok} of {len(fb)}", study.burner.name])
+        for c, head, minimum in (("flashback_margin", "flashback margin g_wall/g_F", study.burner.min_flashback_margin),
+                                 (col, f"{name} margin " + ("U_BO/U_edge" if name == "stabilizer" else "g_B/g_wall"),
+                                  need)):
+            have = [r for r in ok if r.get(c) is not None]
+            if have:
+                w = min(have, key=lambda r: r[c])
+                out.append([f"Smallest {head}", f"{w[c]:.2f}",
+                            f"{gas_label(w)}, φ {w['equivalence_ratio']:g} (minimum set: {minimum:g})"
+                            + (f"; not assessed at {len(ok) - len(have)} of {len(ok)} flames" if len(have) < len(ok)
+                               else "")])
+            else:
+                out.append([f"Smallest {head}", "not assessed", f"at none of the {len(ok)} flames (see below)"])
+        n_ok = sum(r["verdict"] == "ok" for r in ok)
+        out.append(["Points meeting every margin, each assessed", f"{n_ok} of {len(ok)}", study.burner.name])
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
@@ -175,6 +181,10 @@ def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
             value = "; ".join(_span(r) for r in wins)
             binds = sorted({r[f"{s}_binding"] for r in wins for s in ("lower", "upper") if r[f"{s}_binding"]})
             where += f" ({', '.join(binds)} bind{'s' if len(binds) == 1 else ''})" if binds else " (nothing binds)"
+            gaps = sorted({part.split(" at ")[0] for r in wins for part in (r.get("criteria_not_assessed") or "").split("; ")
+                           if part})
+            if gaps:
+                where += f"; {' and '.join(gaps)} not assessed"
         elif r0["outcome"] == "none admissible":
             value = "none"
             if r0.get("flame_lower_edge") is not None:
@@ -182,12 +192,28 @@ def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
                           f"{_axis_value(r0, r0['flame_lower_edge'])} to {_axis_value(r0, r0['flame_upper_edge'])})")
             elif r0.get("closest_miss_at") is not None:
                 where += f" (closest at {_axis_value(r0, r0['closest_miss_at'])}: {r0['closest_miss_margins']})"
+        elif r0["outcome"] == "not assessed":
+            value = "not assessed"
+            where += " (no criterion in its range: see Criteria not assessed"
+            lo, hi = r0.get("wobbe_band_from"), r0.get("wobbe_band_to")
+            if lo is not None and axis == "blend_fraction":
+                where += f"; the Wobbe band alone allows {100 * lo:.1f}–{100 * hi:.1f} %"
+            elif lo is not None:
+                x = r0.get("blend_fraction") or 0.0
+                where += f"; the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} the Wobbe band"
+            where += ")"
         else:
             value = "not settled"
         out.append([what, value, where])
     if len(groups) > MAX_KEY_LIMITS:
         out.append([what, "...", f"{len(groups) - MAX_KEY_LIMITS} more conditions in limits.csv and under Limits"])
     return out
+
+
+def _lowest_cell(s: dict, name: str) -> str:
+    """'1.62 (1)': a margin_summary row's smallest margin and its phi, or 'not assessed'."""
+    v = s[f"min_{name}_margin"]
+    return "not assessed" if v is None else f"{v:.2f} ({s[f'at_phi_{name}']:g})"
 
 
 def _num(v, fmt: str) -> str:
@@ -281,13 +307,25 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
             f"<p>Ignition delay of the fresh mixture at the preheat and pressure of each point: the time of the "
             f"largest temperature rise rate in an adiabatic constant-pressure reactor (Cantera). Margin = delay / "
             f"residence time ({pm.residence_time_s * 1e3:g} ms); required at least {pm.min_autoignition_margin:g}. "
-            f"{_e(ignition_check(study.mechanism))}. A mean residence time also hides the slowest fluid in "
+            f"{_e(ignition_check(study.mechanism))}. Near the fuel injection the fuel meets the oxidizer before it is "
+            f"mixed: the shortest delay over φ 0.25-4 at the same temperature and pressure (fuel as hot as the "
+            f"oxidizer: conservative) is given beside. A mean residence time also hides the slowest fluid in "
             f"wakes and recirculation: keep a wide margin and confirm by test.</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "points ok"],
+            _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "near injection [ms] (φ)",
+                    "points plainly ok", "verdicts"],
                    [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
-                     f"{s['points'] - s['risky_points']} of {s['points']}"] for s in summary], {1, 2, 4}) + more]
+                     _injection_cell(s), f"{s['points'] - s['risky_points']} of {s['points']}",
+                     "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more]
+
+
+def _injection_cell(s: dict) -> str:
+    """'0.41 (4)' or 'no ignition': the shortest delay near the fuel injection and its phi."""
+    tau = s.get("injection_ignition_delay_ms")
+    if tau is None:
+        return ""
+    return "no ignition" if tau == float("inf") else f"{tau:.3g} ({s['injection_equivalence_ratio']:g})"
 
 
 def by_gas_and_condition(rows: list[dict]) -> dict[tuple, list[dict]]:
@@ -467,6 +505,22 @@ def _stretch_section(study, stretch: list[dict]) -> list[str]:
                    {1, 2, 3, 5, 6, 7, 8, 9, 10, 11, 12}) + more]
 
 
+def _unassessed_section(rows: list[dict]) -> list[str]:
+    """The criteria not assessed, once per criterion and kind of reason, right under the
+    admissible ranges they do not take part in."""
+    gaps = not_assessed_summary(rows)
+    if not gaps:
+        return []
+    return ["<h3 id='not-assessed'>Criteria not assessed</h3>",
+            "<p>Each burner criterion rests on a constant fitted to data of a limited range (laminar port flow, "
+            "cold walls, about 1 atm and room temperature; Reed's blowoff constant on lean to stoichiometric "
+            "hydrocarbon flames; the bluff-body constant on the user's own stabilizer). Outside it the margin is "
+            "left blank: no verdict and no limit above rests on it, and an answer that no criterion in range "
+            "binds says so. Judge these by other means (test, or the methods of the literature for the regime).</p>",
+            _table(["criterion", "outside its range (first such point)", "flames"],
+                   [[g["criterion"], g["example"], f"{g['points']} of {g['of']}"] for g in gaps], {2})]
+
+
 def _limits_section(study, limits: list[dict]) -> list[str]:
     """The [limits] answers: one sentence per search, then how they were found."""
     if not limits:
@@ -492,6 +546,13 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
                "needs no flame: a window it cuts says what the flame margins alone would allow. A limit inherits "
                "every uncertainty of the margins it keeps: it is a screening estimate; confirm it by test on the "
                "burner.</p>")
+    ratio = fixed_ratio_note(study)
+    if ratio and any(ratio in (r.get("note") or "") for r in limits):
+        out.append(f"<p><b>Flashback and blowoff together.</b> The window between the port's flashback and blowoff "
+                   f"margins {_e(ratio)}: both critical gradients are S_L²/α_u times a constant. Classic port "
+                   "stability data show a wider band on the rich side, where secondary air holds the flame base "
+                   "(Edmondson &amp; Heap 1971), and laminar hydrogen port flames hardly lift. The windows marked "
+                   "so in limits.csv (column note) rest on it.</p>")
     return out
 
 
@@ -506,7 +567,8 @@ def _provenance(study, comparison) -> list[str]:
             f"{s.mechanism} ({s.mechanism_path}, sha256 {s.mechanism_sha256})"] for i, s in enumerate(comparison.studies)]),
         ["transport", study.transport + (", thermal diffusion on" if study.thermal_diffusion else "")],
         ["numerical setting", f"{resolution_label(study)}; refinement stages (ratio, slope, curve) {list(n.stages)}"],
-        ["indicator settings", ", ".join(f"{k} = {v:g}" for k, v in study.indicator_settings.items())],
+        ["indicator settings", ", ".join(f"{k} = {'not set' if v is None else format(v, 'g')}"
+                                         for k, v in study.indicator_settings.items())],
         *([["uncertainty settings", uncertainty_settings(study.uncertainty)]] if study.uncertainty else []),
         ["software", f"flamecharts {__version__}, Cantera {cantera_version()}"],
         ["written", time.strftime("%Y-%m-%d %H:%M:%S %Z")],
@@ -541,14 +603,15 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     if summary:
         b = study.burner
         summary, more = _first(summary, "results.csv", order=lambda s: min(
-            s["min_flashback_margin"] / b.min_flashback_margin, s["min_blowoff_margin"] / b.blowoff[1]))
+            (s["min_flashback_margin"] or math.inf) / b.min_flashback_margin,
+            (s["min_blowoff_margin"] or math.inf) / b.blowoff[1]))
         parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {study.burner.blowoff[2]} margin (φ)",
                              "points ok"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
                               f"{s['unburned_temperature_K']:g}",
-                              f"{s['min_flashback_margin']:.2f} ({s['at_phi_flashback']:g})",
-                              f"{s['min_blowoff_margin']:.2f} ({s['at_phi_blowoff']:g})",
+                              _lowest_cell(s, "flashback"), _lowest_cell(s, "blowoff"),
                               f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
+    parts += _unassessed_section(rows)
 
     parts += _uncertainty_section(study, rows, comparison)
     parts += _mechanisms_section(study, comparison)

@@ -6,13 +6,16 @@ flashback_critical_gradient     g_F = S_L^2 / (Pe_F alpha_u)
 blowoff_critical_gradient       g_B = Ka_B S_L^2 / alpha_u
 quenching_distance              d_q = Pe_q alpha_u / S_L (parallel plates)
 tube_quenching_diameter         d_T = k_T d_q
-bluff_body_blowoff_velocity     U_BO = C_BO D / tau_c
+bluff_body_blowoff_velocity     U_BO = C_BO D / tau_c (past the body's edge)
+edge_velocity                   U / (1 - blockage)
 wall_velocity_gradient_round    g = 8 U / D (fully developed laminar round port)
 wall_velocity_gradient_slot     g = 6 U / h (fully developed laminar slot of gap h)
+wall_velocity_gradient_turbulent  Blasius's wall shear over mu (turbulent smooth duct)
 port_velocity_at_thermal_input  bulk port velocity for a thermal input
 
 All inputs and outputs in SI units. Constants that are not universal are parameters
-with documented defaults (DEFAULTS); the study config may override each of them.
+with documented defaults (DEFAULTS); the study config may override each of them. Where
+each constant holds (the data it was fitted on) is physics.validity's.
 """
 from __future__ import annotations
 
@@ -33,11 +36,11 @@ DEFAULTS = {
     # Tube quenching diameter / plate quenching distance: about 1.3-1.5 (Lewis & von Elbe;
     # from memory). 1.4 is the middle of that range.
     "tube_quench_factor": 1.4,
-    # Bluff-body blowoff constant C_BO in U_BO = C_BO D / tau_c. There is no universal value:
-    # it depends on stabilizer shape, blockage, confinement and turbulence (Shanbhogue,
-    # Husain & Lieuwen 2009). 1.0 is a placeholder of the right order: calibrate it on
-    # your own rig before reading absolute blowoff velocities.
-    "bluff_body_constant": 1.0,
+    # Bluff-body blowoff constant C_BO in U_BO = C_BO D / tau_c, U_BO the velocity past the body's
+    # edge. There is no universal value: it depends on stabilizer shape, blockage, confinement and
+    # turbulence (Shanbhogue, Husain & Lieuwen 2009). None: not set, and then no stabilizer
+    # margin is assessed (physics.validity); set it from a blowoff test of your own stabilizer.
+    "bluff_body_constant": None,
 }
 
 
@@ -154,11 +157,11 @@ def tube_quenching_diameter(d_q, factor=DEFAULTS["tube_quench_factor"]):
     return factor * d_q
 
 
-def bluff_body_blowoff_velocity(D, tau_c, C_BO=DEFAULTS["bluff_body_constant"]):
-    """Bluff-body blowoff velocity from Damkoehler scaling, U_BO = C_BO D / tau_c [m/s].
+def bluff_body_blowoff_velocity(D, tau_c, C_BO):
+    """Bluff-body blowoff velocity past the body's edge from Damkoehler scaling, U_BO = C_BO D / tau_c [m/s].
 
-    Blowoff when the residence time in the recirculation zone (about D/U) falls to a
-    fixed multiple of the chemical time (Zukoski & Marble, Proc. Gas Dynamics Symp.,
+    Blowoff when the residence time in the recirculation zone (about D/U, U the velocity
+    past the body's edge) falls to a fixed multiple of the chemical time (Zukoski & Marble, Proc. Gas Dynamics Symp.,
     1956; review: Shanbhogue, Husain & Lieuwen, Prog. Energy Combust. Sci. 35 (2009) 98).
     C_BO has no universal value; calibrate it for your stabilizer.
 
@@ -170,10 +173,21 @@ def bluff_body_blowoff_velocity(D, tau_c, C_BO=DEFAULTS["bluff_body_constant"]):
 
     Examples
     --------
-    >>> round(bluff_body_blowoff_velocity(0.02, 1.6e-4), 1)
+    >>> round(bluff_body_blowoff_velocity(0.02, 1.6e-4, 1.0), 1)
     125.0
     """
     return C_BO * D / tau_c
+
+
+def edge_velocity(U_approach, blockage):
+    """Velocity past the edge of a bluff body [m/s]: the approach velocity over the open
+    area fraction, U / (1 - B), B the area fraction of the duct the body blocks (continuity;
+    the velocity of Zukoski-Marble blowoff correlations, Shanbhogue, Husain & Lieuwen 2009).
+
+    >>> round(edge_velocity(45.0, 0.36), 2)
+    70.31
+    """
+    return U_approach / (1.0 - blockage)
 
 
 def wall_velocity_gradient_round(U, D):
@@ -189,11 +203,6 @@ def wall_velocity_gradient_round(U, D):
     return 8.0 * U / D
 
 
-#: Port Reynolds number U D_h / nu above which the port flow is taken as turbulent (common
-#: practice for pipe flow: laminar below about 2300).
-TURBULENT_REYNOLDS = 2300.0
-
-
 def wall_velocity_gradient_turbulent(U, D_h, nu):
     """Wall velocity gradient of fully developed turbulent flow in a smooth duct [1/s].
 
@@ -201,9 +210,8 @@ def wall_velocity_gradient_turbulent(U, D_h, nu):
     lambda = 0.3164 Re^-0.25, Re = U D_h / nu (Blasius 1913, Mitt. Forschungsarb.
     Ing.-Wes. 131; smooth pipes, within a few per cent of the Prandtl-Karman law for
     4e3 < Re < 1e5, about 10 % low at 1e6). U [m/s], hydraulic diameter D_h [m] (the
-    diameter of a round port, twice the gap of a slot), nu [m^2/s]. Boundary-layer
-    flashback in turbulent premixer flow is judged by this gradient (as in the
-    critical-gradient literature for turbulent flashback), not by the laminar one.
+    diameter of a round port, twice the gap of a slot), nu [m^2/s]. Reported for turbulent
+    ports; the laminar critical gradients are not assessed against it (physics.validity).
 
     Examples
     --------

@@ -225,6 +225,13 @@ CASES = {
     "burner_margin_below_one": (["burner.min_flashback_margin", "0.5", "1 or more"],
                                 config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                             'min_flashback_margin = 0.5\n')),
+    "burner_unknown_layout": (["burner.layout", "'plate'", "allowed: separate, deck"],
+                              config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
+                                          'layout = "plate"\n')),
+    "burner_blockage_too_large": (["burner.stabilizer_blockage", "1.2", "0 to 0.9"],
+                                  config(tail='\n[burner]\nport_diameter_mm = 20.0\nport_velocity_m_s = 20.0\n'
+                                              'stabilizer_size_mm = 8.0\napproach_velocity_m_s = 20.0\n'
+                                              'stabilizer_blockage = 1.2\n')),
     "limits_wobbe_without_band": (["limits.criteria", "'wobbe'", "no band", "wobbe_tolerance_percent"],
                                   config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                               '\n[limits]\ncriteria = ["flashback", "wobbe"]\n')),

@@ -268,7 +268,7 @@ def _limit_overlay(ax, limits: list[dict]) -> None:
 @chart("operating_window",
        "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read between the "
        "solved points (dots; bilinear in their logarithms); the green region keeps both minimum margins and is "
-       "bounded by exactly the two lines drawn; hatched: no flame or failed. With [limits], black segments are "
+       "bounded by exactly the two lines drawn; hatched: no flame, failed, or no margin assessed (outside the range of the criteria: see the report). With [limits], black segments are "
        "the windows the limit searches found with flames: where they and the shading differ, the segments are "
        "the answer.",
        has_window)
@@ -317,14 +317,14 @@ def window_chart(data, study):
     for ax in list(axes.flat)[len(panels):]:
         ax.set_visible(False)
     handles = {
-        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g})":
+        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g}),\nor the one assessed":
             Patch(color="#bfe3bf"),
         f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, lowers it)":
             Line2D([], [], color="#7b2d8e", lw=1.8),
         (f"stabilizer margin U_BO/U = {bo_min:g}" if b.on_stabilizer else f"blowoff margin g_B/g_wall = {bo_min:g}")
         + "\n(a slower flame lowers it)":
             Line2D([], [], color="#1f6f6f", lw=1.8, linestyle="--"),
-        "no flame or failed (hatched)": Patch(facecolor="0.85", hatch="//"),
+        "no flame, failed, or no margin assessed (hatched)": Patch(facecolor="0.85", hatch="//"),
         "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
     }
     if any(r["outcome"] == "window" for r in data.limits):
@@ -391,7 +391,8 @@ def gas_quality_chart(data, study):
 BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blowoff binds"),
                    "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds"),
                    "no flame": ("P", "no flame beyond (does not burn)"),
-                   "autoignition": ("*", "autoignites beyond (no flame)")}
+                   "autoignition": ("*", "autoignites beyond (no flame)"),
+                   "not assessed": ("h", "no criterion in its range beyond (not assessed)")}
 #: Edges that leave the window open (drawn hollow): admissible at the last swept value, or not settled.
 OPEN_KINDS = ("swept end", "stopped")
 
@@ -454,6 +455,7 @@ def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
         handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
     if r["outcome"] == "window":
         _bar(ax, x, scale * r["lower_edge"], scale * r["upper_edge"], col, 7)
+        _unassessed_stripes(ax, x, scale * r["lower_edge"], scale * r["upper_edge"], r, handles)
         _edge_marker(ax, x, scale * r["lower_edge"], r, "lower", col, handles)
         _edge_marker(ax, x, scale * r["upper_edge"], r, "upper", col, handles)
         fu = r.get("flame_upper_edge")
@@ -468,6 +470,17 @@ def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
                            Line2D([], [], ls=":", marker="_", color="0.4"))
     elif r["outcome"] == "none admissible" and r["closest_miss_at"] is not None:
         _miss_marker(ax, x, scale * r["closest_miss_at"], handles)
+
+
+def _unassessed_stripes(ax, at: float, lo: float, hi: float, r: dict, handles, vertical: bool = True) -> None:
+    """White stripes down a window's bar where a criterion of its search is not assessed at some
+    swept flames (physics.validity): the window rests on the other criteria only."""
+    if not r.get("criteria_not_assessed"):
+        return
+    xs, ys = ([at, at], [lo, hi]) if vertical else ([lo, hi], [at, at])
+    ax.plot(xs, ys, color="white", lw=2.0, ls=(0, (2, 2)), zorder=3.5)
+    handles.setdefault("striped bar: a criterion not assessed there\n(outside its range; see the report)",
+                       Line2D([], [], color="0.55", lw=4, ls=(0, (2, 2))))
 
 
 def _shade_outside_band(ax, rows, handles, span) -> None:
@@ -519,6 +532,7 @@ def _draw_window_spans(ax, rows, colours, handles):
             if r["outcome"] != "window":
                 continue
             _bar(ax, y, r["lower_edge"], r["upper_edge"], col, 7, vertical=False)
+            _unassessed_stripes(ax, y, r["lower_edge"], r["upper_edge"], r, handles, vertical=False)
             _edge_marker(ax, r["lower_edge"], y, r, "lower", col, handles)
             _edge_marker(ax, r["upper_edge"], y, r, "upper", col, handles)
     ax.set_yticks(range(len(conds)), [f"{f}, {P:g} bar, {T:g} K" for f, _, P, T in conds], fontsize=8)
