@@ -117,3 +117,24 @@ def test_a_turbulent_high_pressure_premixer_gets_no_laminar_verdict_nor_limit(tm
     assert "not assessed" in (tmp_path / "o" / "limits.csv").read_text()
     sentence = limit_sentence(limit, res.study)
     assert "no limit, no criterion of the search is assessed" in sentence and "keeps every margin" not in sentence
+
+
+def test_a_window_says_which_of_its_flames_are_cellular_and_that_two_constants_fix_the_port_band():
+    from flamecharts.admissible.driver import _cellular_words, _Search
+    from flamecharts.admissible.search import Edge, Window
+    from flamecharts.admissible.words import fixed_ratio_note
+    from flamecharts.physics.indicators import DEFAULTS
+
+    s = _Search("equivalence_ratio", {}, None, cellular=(0.5, 0.6, 0.9))
+    w = Window(Edge(0.45, "found", "blowoff"), Edge(0.7, "found", "flashback"))
+    (note,) = _cellular_words(s, w)
+    assert note.startswith("2 swept flames inside this window (0.5, 0.6) are thermodiffusively unstable")
+    assert _cellular_words(_Search("equivalence_ratio", {}, None), w) == []
+    # Pe_F Ka_B = 13 x 0.23 = 2.99: with both minima 1.5 the band is flashback margins 1.5 to 2.99/1.5
+    study = NS(limits=NS(criteria=("flashback", "blowoff")), burner=NS(min_flashback_margin=1.5, min_blowoff_margin=1.5),
+               indicator_settings=dict(DEFAULTS))
+    assert "= 2.99 at every point" in fixed_ratio_note(study)
+    assert "flashback margins 1.5-1.99 whatever the mixture" in fixed_ratio_note(study)
+    assert "not checked against published port stability data" in fixed_ratio_note(study)
+    study.limits.criteria = ("flashback", "stabilizer")
+    assert fixed_ratio_note(study) == ""
