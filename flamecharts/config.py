@@ -505,9 +505,13 @@ def _burner(b: Any) -> Burner:
         raise ConfigError("a bluff-body stabilizer needs both 'burner.stabilizer_size_mm' and "
                           "'burner.approach_velocity_m_s'")
     blockage = _number(b["stabilizer_blockage"], "burner.stabilizer_blockage") if "stabilizer_blockage" in b else None
-    if blockage is not None and (stab is None or not 0.0 <= blockage < 0.9):
+    for key in ("stabilizer_blockage", "min_stabilizer_margin"):
+        if key in b and stab is None:
+            raise ConfigError(f"'burner.{key}' needs a bluff body: add 'stabilizer_size_mm' and "
+                              "'approach_velocity_m_s', or drop it")
+    if blockage is not None and not 0.0 <= blockage <= 0.9:
         raise ConfigError(f"'burner.stabilizer_blockage' is {blockage:g}; allowed: 0 to 0.9 (the area fraction of "
-                          "the duct the bluff body blocks), with 'stabilizer_size_mm'")
+                          "the duct the bluff body blocks)")
     return Burner(name=_string(b.get("name", "burner"), "burner.name"), port=port, port_size_m=size,
                   port_velocity_m_s=velocity, thermal_input_W=q, port_area_m2=area, input_follows_wobbe=follows,
                   stabilizer_size_m=stab, approach_velocity_m_s=approach, stabilizer_blockage=blockage or 0.0,
@@ -575,6 +579,9 @@ def _premixer(t: Any) -> Premixer:
         raise ConfigError(f"'premixer.residence_time_ms' is {tau * 1e3:g} ms, more than 10 s: the key is in "
                           "milliseconds (a 2 ms premixer is 2)")
     m = _positive(t, "min_autoignition_margin", "premixer")
+    if m is not None and m < 1.0:
+        raise ConfigError(f"'premixer.min_autoignition_margin' is {m:g}; allowed: 1 or more (ignition delay over "
+                          "residence time: below 1 the mixture ignites inside the premixer)")
     return Premixer(residence_time_s=tau, **({} if m is None else {"min_autoignition_margin": m}))
 
 

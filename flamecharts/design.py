@@ -368,13 +368,34 @@ def instability_warning(row: dict) -> str:
             "by the S_L-based indicators")
 
 
+#: Lewis number of the deficient reactant below which a lean flame is taken as prone to
+#: thermodiffusive (cellular) instability when [flame_response] has not checked it: hydrogen's
+#: is about 0.3-0.4, lean methane's about 0.96 (the cut of physics.validity's blowoff range;
+#: common practice without source).
+PREFERENTIAL_DIFFUSION_LEWIS = 0.8
+
+
+def lewis_warning(row: dict) -> str:
+    """'' or a warning where a lean burning point has a deficient-reactant Lewis number below
+    PREFERENTIAL_DIFFUSION_LEWIS and [flame_response] has not judged its stability: such flames
+    tend to wrinkle into cells and run faster than S_L, so the S_L-based flashback margin may be
+    optimistic (Sivashinsky 1977; Matalon 2007, for the mechanism)."""
+    le = row.get("lewis_number_fuel")
+    if (row["status"] != "ok" or row.get("instability") is not None or row["equivalence_ratio"] >= 1.0
+            or le is None or le >= PREFERENTIAL_DIFFUSION_LEWIS):
+        return ""
+    return (f"Lewis number of the fuel {le:.2g} < {PREFERENTIAL_DIFFUSION_LEWIS:g} on the lean side: the flame may be "
+            "thermodiffusively unstable (cellular) and run faster than S_L, so the flashback margin may be optimistic; "
+            "add a [flame_response] table to check")
+
+
 def point_warnings(study, point, row: dict) -> str:
     """All warnings of one point, joined by '; ' ('' when it is inside every range). A mixture that
     autoignites is not warned of here: it is a status of its own (results.not_a_flame)."""
     out = [pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
-           instability_warning(row)]
+           instability_warning(row), lewis_warning(row)]
     return "; ".join(w for w in out if w)
 
 
@@ -382,6 +403,16 @@ def point_warnings(study, point, row: dict) -> str:
 #: fuel meets the oxidizer before it is mixed to the premixed phi (common practice without
 #: source: a geometric spread around stoichiometric).
 INJECTION_PHIS = (0.25, 0.5, 1.0, 2.0, 4.0)
+
+
+def injection_end(phi: float) -> str:
+    """', the end of the range scanned' where the most reactive mixture near the injection lies at an
+    end of INJECTION_PHIS (mixtures beyond may ignite sooner), else ''.
+
+    >>> injection_end(4.0), injection_end(1.0)
+    (', the end of the range scanned', '')
+    """
+    return ", the end of the range scanned" if phi in (INJECTION_PHIS[0], INJECTION_PHIS[-1]) else ""
 
 
 def injection_delay(study, point, horizon: float) -> tuple[float, float]:
@@ -430,7 +461,7 @@ def premixer_columns(study, point, row: dict | None = None) -> dict:
     verdict = autoignition_verdict(study.mechanism_path, float(point.T_u), min(margin, margin_inj),
                                    pm.min_autoignition_margin)
     if margin_inj < margin and margin_inj < pm.min_autoignition_margin <= margin:
-        verdict += f" near the fuel injection (phi {phi_inj:g})"
+        verdict += f" near the fuel injection (phi {phi_inj:g}{injection_end(phi_inj)})"
     out.update(ignition_delay_ms=tau * 1e3, autoignition_margin=margin, injection_ignition_delay_ms=tau_inj * 1e3,
                injection_equivalence_ratio=phi_inj, injection_autoignition_margin=margin_inj,
                autoignition_verdict=verdict)

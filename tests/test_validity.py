@@ -138,3 +138,27 @@ def test_a_window_says_which_of_its_flames_are_cellular_and_that_two_constants_f
     assert "not checked against published port stability data" in fixed_ratio_note(study)
     study.limits.criteria = ("flashback", "stabilizer")
     assert fixed_ratio_note(study) == ""
+
+
+def test_answers_that_rest_on_fewer_criteria_say_so_before_their_numbers():
+    from flamecharts.admissible.driver import _failures
+    from flamecharts.design import lewis_warning
+
+    st = NS(burner=NS(name="rig", min_flashback_margin=1.5), blend_with="hydrogen",
+            limits=NS(criteria=("flashback", "blowoff")), gas_quality=NS(tolerance_percent=None, band_MJ_m3=None))
+    r = dict(axis="blend_fraction", window=1, fuel="town gas", oxidizer="air", blend_with="hydrogen",
+             blend_fraction=None, equivalence_ratio=1.2, pressure_bar=1.0, unburned_temperature_K=300.0,
+             outcome="window", lower_edge=0.0, lower_kind="range end", upper_edge=0.16, upper_kind="found",
+             upper_binding="flashback", upper_margin=1.5, note="",
+             criteria_not_assessed="blowoff at 4 of 4 swept flames (at 0 %: rich (phi 1.2 > 1))")
+    text = limit_sentence(r, st)
+    assert "rig takes, on the assessed criteria, up to 16.0 % hydrogen (flashback binds" in text
+    assert text.endswith("not assessed: blowoff at 4 of 4 swept flames (why: limits.csv, criteria_not_assessed)")
+    # a swept flame where nothing is in range fails as 'not assessed', not as 'no flame'
+    assert _failures([(0.5, "not assessed: flashback (turbulent)"), (0.8, "no_flame: x"), (1.2, "flashback")]) == \
+        "not assessed at 0.5; no flame at 0.8; flashback at 1.2"
+    # lean hydrogen without [flame_response]: the flashback margin may be optimistic, and the warning says so
+    lean_h2 = {"status": "ok", "equivalence_ratio": 0.5, "lewis_number_fuel": 0.39, "instability": None}
+    assert lewis_warning(lean_h2).startswith("Lewis number of the fuel 0.39 < 0.8 on the lean side")
+    assert lewis_warning({**lean_h2, "instability": "stable"}) == ""  # [flame_response] judged it
+    assert lewis_warning({**lean_h2, "lewis_number_fuel": 0.96}) == ""  # lean methane

@@ -243,7 +243,7 @@ def limit_rows(study, s: _Search) -> list[dict]:
     a = s.answer
     if s.nothing:
         row = {**base, "window": 0, "outcome": NOT_ASSESSED, "flames_evaluated": 0, "evaluated_at": "",
-               "note": "no criterion of this search holds at these flames, so no limit is given"}
+               "note": "no criterion of this search is in its range at these flames, so no limit is given"}
         if s.band:
             near = _nearest(s.band, None, s.cond["blend_fraction"])
             row.update(wobbe_band_from=near[0], wobbe_band_to=near[1])
@@ -328,7 +328,9 @@ def _failures(failures: list[tuple[float, str]]) -> str:
     """'blowoff at 0; flashback at 0.3, 0.6' from (swept value, criterion or reason) pairs."""
     by: dict[str, list[str]] = {}
     for x, why in failures:
-        by.setdefault(why if why in CRITERIA or why == WOBBE else "no flame", []).append(f"{x:g}")
+        kind = (why if why in CRITERIA or why == WOBBE else NOT_ASSESSED if why.startswith(NOT_ASSESSED)
+                else "no flame")
+        by.setdefault(kind, []).append(f"{x:g}")
     return "; ".join(f"{why} at {', '.join(xs)}" for why, xs in by.items())
 
 

@@ -163,7 +163,12 @@ def limit_sentence(r: dict, study) -> str:
     nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
     gaps = [part.split(" (at ")[0] for part in (r.get("criteria_not_assessed") or "").split("; ") if part]
     gap = f"; not assessed: {', '.join(gaps)} (why: limits.csv, criteria_not_assessed)" if gaps else ""
-    return _sentence(r, study, b, blend, nth) + gap
+    text = _sentence(r, study, b, blend, nth)
+    if gaps:  # what the window rests on comes before its numbers
+        text = text.replace(" keeps every margin from ", " keeps every assessed margin from ", 1).replace(
+            " takes up to ", " takes, on the assessed criteria, up to ", 1).replace(
+            ": admissible from ", ": admissible on the assessed criteria from ", 1)
+    return text + gap
 
 
 def _sentence(r: dict, study, b, blend: str, nth: str) -> str:

@@ -2,7 +2,7 @@
 from __future__ import annotations
 
 from ..columns import gas_label
-from ..design import fuel_gas_table
+from ..design import fuel_gas_table, injection_end
 from ..results import first_flashback_fraction, margin_summary, premixer_summary
 
 
@@ -29,9 +29,11 @@ def print_burner(study) -> None:
            f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
            + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
     _, bo_min, bo_name = b.blowoff
-    print(f"Burner: {b.name}: {b.port} ports, {size}; {how}; minimum margins flashback "
-          f"{b.min_flashback_margin:g}, {bo_name} {bo_min:g}"
-          + (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body)" if b.on_stabilizer else ""))
+    print(f"Burner: {b.name}: {b.port} ports{' (a deck: merged port flames)' if b.layout == 'deck' else ''}, "
+          f"{size}; {how}; minimum margins flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}"
+          + (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body blocking "
+             f"{100 * b.stabilizer_blockage:g} % of the duct: {b.approach_velocity_m_s / (1 - b.stabilizer_blockage):.3g}"
+             " m/s past its edge)" if b.on_stabilizer else ""))
 
 
 def print_margins(study, ds) -> None:
@@ -45,7 +47,7 @@ def print_margins(study, ds) -> None:
     for s in summary:
         print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
               f"{s['unburned_temperature_K']:g} K: {_lowest_words(s, 'flashback', 'flashback')}, "
-              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points ok")
+              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points with the verdict ok")
     judged = {(s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"]) for s in summary
               if s["min_flashback_margin"] is not None}
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
@@ -82,9 +84,10 @@ def print_premixer(study, rows) -> None:
                       f"margin {s['autoignition_margin']:.3g}")
         tau = s.get("injection_ignition_delay_ms")
         near = ("" if tau is None else "; near the fuel injection no ignition" if tau == float("inf")
-                else f"; near the fuel injection {tau:.3g} ms (phi {s['injection_equivalence_ratio']:g})")
+                else f"; near the fuel injection {tau:.3g} ms (phi {s['injection_equivalence_ratio']:g}"
+                     f"{injection_end(s['injection_equivalence_ratio'])})")
         print(f"  {gas_label(s)}, {s['pressure_bar']:g} bar, {s['unburned_temperature_K']:g} K: {delay}{near}; "
-              f"{s['points'] - s['risky_points']} of {s['points']} points plainly ok ({'; '.join(s['verdicts'])})")
+              f"{s['points'] - s['risky_points']} of {s['points']} points ok ({'; '.join(s['verdicts'])})")
 
 
 MAX_POINT_LINES = 60

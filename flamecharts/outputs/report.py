@@ -19,8 +19,8 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import (error_bar_sentence, not_assessed_summary, fuel_gas_table, inside_kinetic_band, largest_differences,
-                      mechanism_differences)
+from ..design import (error_bar_sentence, fuel_gas_table, injection_end, inside_kinetic_band, largest_differences,
+                      mechanism_differences, not_assessed_summary)
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
@@ -125,9 +125,11 @@ def key_numbers(study, rows: list[dict]) -> list[list[str]]:
                             + (f"; not assessed at {len(ok) - len(have)} of {len(ok)} flames" if len(have) < len(ok)
                                else "")])
             else:
-                out.append([f"Smallest {head}", "not assessed", f"at none of the {len(ok)} flames (see below)"])
+                out.append([f"Smallest {head}", "not assessed", f"assessed at none of the {len(ok)} flames (see Criteria "
+                                                                "not assessed)"])
         n_ok = sum(r["verdict"] == "ok" for r in ok)
-        out.append(["Points meeting every margin, each assessed", f"{n_ok} of {len(ok)}", study.burner.name])
+        out.append(["Points with the verdict ok (every criterion assessed and met)", f"{n_ok} of {len(ok)}",
+                    study.burner.name])
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
@@ -275,11 +277,16 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
                f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
                + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
         brows = [["name", b.name], ["port", f"{b.port}, {'diameter' if b.port == 'round' else 'gap'} "
-                                            f"{b.port_size_m * 1e3:g} mm"], ["port velocity set by", how],
+                                            f"{b.port_size_m * 1e3:g} mm"
+                                            + ("; a deck of merged port flames" if b.layout == "deck" else "")],
+                 ["port velocity set by", how],
                  ["minimum margins", f"flashback {b.min_flashback_margin:g}, {b.blowoff[2]} {b.blowoff[1]:g}"]]
         if b.stabilizer_size_m is not None:
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
-                                                   f"{b.approach_velocity_m_s:g} m/s approach"])
+                                                   f"{b.approach_velocity_m_s:g} m/s approach, blocking "
+                                                   f"{100 * b.stabilizer_blockage:g} % of the duct: "
+                                                   f"{b.approach_velocity_m_s / (1 - b.stabilizer_blockage):.3g} m/s "
+                                                   "past its edge"])
         parts.append("<div class='keep'><h3>Burner</h3>" + _table(["", ""], brows) + "</div>")
     gases = fuel_gas_table(study) if gases is None else gases
     parts.append(f"<div class='keep'><h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; "
@@ -309,10 +316,11 @@ def _premixer_section(study, rows: list[dict]) -> list[str]:
             f"residence time ({pm.residence_time_s * 1e3:g} ms); required at least {pm.min_autoignition_margin:g}. "
             f"{_e(ignition_check(study.mechanism))}. Near the fuel injection the fuel meets the oxidizer before it is "
             f"mixed: the shortest delay over φ 0.25-4 at the same temperature and pressure (fuel as hot as the "
-            f"oxidizer: conservative) is given beside. A mean residence time also hides the slowest fluid in "
+            f"oxidizer: conservative) is given beside; where it falls at an end of that range, mixtures beyond it "
+            f"may ignite sooner still. A mean residence time also hides the slowest fluid in "
             f"wakes and recirculation: keep a wide margin and confirm by test.</p>",
             _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "near injection [ms] (φ)",
-                    "points plainly ok", "verdicts"],
+                    "points ok", "verdicts"],
                    [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
@@ -325,7 +333,8 @@ def _injection_cell(s: dict) -> str:
     tau = s.get("injection_ignition_delay_ms")
     if tau is None:
         return ""
-    return "no ignition" if tau == float("inf") else f"{tau:.3g} ({s['injection_equivalence_ratio']:g})"
+    phi = s["injection_equivalence_ratio"]
+    return "no ignition" if tau == float("inf") else f"{tau:.3g} ({phi:g}{injection_end(phi)})"
 
 
 def by_gas_and_condition(rows: list[dict]) -> dict[tuple, list[dict]]:

@@ -99,7 +99,7 @@ def domain_reasons(domain: Domain, *, reynolds: float | None, pressure_bar: floa
         out.append("a deck of merged port flames (the data are single port flames)")
     if domain.laminar_only and reynolds is not None and reynolds > LAMINAR_REYNOLDS:
         out.append(f"{'turbulent' if reynolds >= TURBULENT_REYNOLDS else 'transitional'} port flow "
-                   f"(Re {reynolds:.2g} > {LAMINAR_REYNOLDS:g})")
+                   f"(Re {reynolds:.3g} > {LAMINAR_REYNOLDS:g})")
     lo, hi = domain.pressure_bar
     if not lo <= pressure_bar <= hi:
         out.append(f"{pressure_bar:g} bar outside {lo:g}-{hi:g} bar")
