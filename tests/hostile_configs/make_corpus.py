@@ -225,6 +225,11 @@ CASES = {
     "burner_margin_below_one": (["burner.min_flashback_margin", "0.5", "1 or more"],
                                 config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                             'min_flashback_margin = 0.5\n')),
+    "burner_stabilizer_margin_without_body": (["burner.min_stabilizer_margin", "needs a bluff body"],
+                                              config(tail='\n[burner]\nport_diameter_mm = 2.0\n'
+                                                          'port_velocity_m_s = 1.0\nmin_stabilizer_margin = 2\n')),
+    "premixer_margin_below_one": (["premixer.min_autoignition_margin", "0.5", "1 or more"],
+                                  config(tail='\n[premixer]\nresidence_time_ms = 4\nmin_autoignition_margin = 0.5\n')),
     "burner_unknown_layout": (["burner.layout", "'plate'", "allowed: separate, deck"],
                               config(tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                           'layout = "plate"\n')),
