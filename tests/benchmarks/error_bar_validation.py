@@ -1,0 +1,214 @@
+"""Do the per-flame numerical error bars hold on flames they were not tuned on?
+
+Run:  python tests/benchmarks/error_bar_validation.py [--out FILE] [--only SUBSTRING] [--jobs N]
+
+The grid error estimate of every flame (chemistry.flame.grid_error: Roache's grid
+convergence index from the flame solved again on every second and fourth point of its
+final grid) was chosen on the 12 cases of tests/benchmarks/grid_convergence.py. This
+script checks it on VALIDATION, a set built apart from those: 22 flames over methane,
+hydrogen, methane-hydrogen blends and a heavier natural gas, lean to rich, 1-20 bar,
+300-700 K, under GRI-Mech 3.0, h2o2.yaml and the Alzueta et al. 2023 hydrogen mechanism
+that ships with Cantera. Half of it (``held_out``) was fixed, in this file, before any
+change to the estimator: coverage is reported on each half apart, and the held-out half
+is the one that says whether a change generalises.
+
+For each flame:
+- every resolution setting (coarse, standard, fine) solved from scratch, and the standard
+  setting warm-started from its neighbour at phi + 0.1, each with its own estimate;
+- a reference on a domain twice the tool's width: the fine flame refined on through
+  REFERENCE_STAGES (ratio 2, slope 0.1, curve 0.004 -> 0.002 -> 0.001), three
+  systematically refined grids whose flame speeds are extrapolated to zero spacing with
+  their observed order (Richardson 1911; Roache 1998, ch. 5). Its own uncertainty is
+  Roache's GCI of those three grids: factor of safety 1.25 where they converge
+  monotonically with an order between 0.5 and 4, else 3 x their largest spread and no
+  extrapolation (Roache's advice outside the asymptotic range);
+- the domain: the fine setting solved on the tool's domain, on twice and on four times its
+  width. The change from 2x to 4x must stay inside the reference's uncertainty for the
+  reference to stand; the change from 1x to 2x is part of the tool's true error.
+
+True error = S_L of the setting / extrapolated reference - 1 (whatever its source). A flame
+is covered when |true error| <= its estimate. Results are appended to a JSON-lines file
+case by case (a rerun skips the cases already there), and the summary prints the coverage
+per setting, per half, and the median of estimate over true error.
+"""
+from __future__ import annotations
+
+import argparse
+import dataclasses
+import json
+import statistics
+import sys
+import time
+from pathlib import Path
+
+import cantera as ct
+from joblib import Parallel, delayed
+
+from flamecharts.chemistry import flame
+from flamecharts.chemistry.mechanism import find_mechanism
+from flamecharts.physics import mixtures
+
+sys.path.insert(0, str(Path(__file__).parent))
+from grid_convergence import REFERENCE_STAGES, WARM_STEP, _entry, extrapolate  # noqa: E402
+
+AIR = {"O2": 1.0, "N2": 3.76}
+GRI, H2O2, ALZUETA = "gri30.yaml", "h2o2.yaml", "example_data/ammonia-CO-H2-Alzueta-2023.yaml"
+#: An invented heavier natural gas (C2+ 12 %).
+HEAVY_NG = {"CH4": 0.85, "C2H6": 0.08, "C3H8": 0.04, "N2": 0.02, "CO2": 0.01}
+
+#: (label, mechanism, fuel, phi, pressure_bar, T_u, held_out). Frozen on 2026-12-05 before any
+#: change to the estimator; do not move a case between the halves.
+VALIDATION = [
+    ("CH4 phi 0.6, 1 bar, 300 K", GRI, {"CH4": 1}, 0.6, 1.0, 300.0, False),
+    ("CH4 phi 1.2, 3 bar, 500 K", GRI, {"CH4": 1}, 1.2, 3.0, 500.0, True),
+    ("CH4 phi 0.8, 20 bar, 700 K", GRI, {"CH4": 1}, 0.8, 20.0, 700.0, False),
+    ("CH4 phi 1.4, 1 bar, 400 K", GRI, {"CH4": 1}, 1.4, 1.0, 400.0, True),
+    ("CH4/H2 60/40 phi 0.75, 3 bar, 420 K", GRI, {"CH4": 0.6, "H2": 0.4}, 0.75, 3.0, 420.0, False),
+    ("CH4/H2 80/20 phi 0.9, 10 bar, 600 K", GRI, {"CH4": 0.8, "H2": 0.2}, 0.9, 10.0, 600.0, True),
+    ("CH4/H2 50/50 phi 0.6, 5 bar, 650 K", GRI, {"CH4": 0.5, "H2": 0.5}, 0.6, 5.0, 650.0, False),
+    ("CH4/H2 30/70 phi 0.5, 1 bar, 300 K", GRI, {"CH4": 0.3, "H2": 0.7}, 0.5, 1.0, 300.0, True),
+    ("heavy NG phi 1.0, 1 bar, 300 K", GRI, HEAVY_NG, 1.0, 1.0, 300.0, False),
+    ("heavy NG phi 0.7, 15 bar, 650 K", GRI, HEAVY_NG, 0.7, 15.0, 650.0, True),
+    ("heavy NG phi 1.3, 2 bar, 350 K", GRI, HEAVY_NG, 1.3, 2.0, 350.0, False),
+    ("H2 phi 0.5, 1 bar, 300 K (GRI)", GRI, {"H2": 1}, 0.5, 1.0, 300.0, True),
+    ("H2 phi 0.35, 1 bar, 300 K (h2o2)", H2O2, {"H2": 1}, 0.35, 1.0, 300.0, False),
+    ("H2 phi 0.6, 10 bar, 500 K (h2o2)", H2O2, {"H2": 1}, 0.6, 10.0, 500.0, True),
+    ("H2 phi 1.5, 1 bar, 400 K (h2o2)", H2O2, {"H2": 1}, 1.5, 1.0, 400.0, False),
+    ("H2 phi 3.0, 2 bar, 300 K (h2o2)", H2O2, {"H2": 1}, 3.0, 2.0, 300.0, True),
+    ("H2 phi 0.8, 20 bar, 700 K (h2o2)", H2O2, {"H2": 1}, 0.8, 20.0, 700.0, False),
+    ("H2 phi 0.45, 1 bar, 300 K (Alzueta)", ALZUETA, {"H2": 1}, 0.45, 1.0, 300.0, True),
+    ("H2 phi 1.0, 5 bar, 450 K (Alzueta)", ALZUETA, {"H2": 1}, 1.0, 5.0, 450.0, False),
+    ("H2 phi 2.5, 1 bar, 300 K (Alzueta)", ALZUETA, {"H2": 1}, 2.5, 1.0, 300.0, True),
+    ("H2 phi 0.7, 15 bar, 600 K (Alzueta)", ALZUETA, {"H2": 1}, 0.7, 15.0, 600.0, False),
+    ("CH4/H2 60/40 phi 1.1, 1 bar, 300 K", GRI, {"CH4": 0.6, "H2": 0.4}, 1.1, 1.0, 300.0, True),
+]
+#: The settings checked: every resolution from scratch, and the standard one warm-started.
+SETTINGS = (*flame.NUMERICS, "standard warm")
+#: Roache's factor of safety for a three-grid study (Roache 1998, ch. 5): the reference's own uncertainty.
+REFERENCE_SAFETY = 1.25
+#: ... and outside the asymptotic range (oscillating or erratic orders), on the largest spread.
+REFERENCE_SAFETY_OUTSIDE = 3.0
+TRANSPORT = "mixture-averaged"
+
+
+def _mixture(gas, fuel: dict, phi: float) -> dict:
+    atoms = {s.name: s.composition for s in gas.species()}
+    return mixtures.unburned_mixture(fuel, AIR, phi, mixtures.stoich_o2_per_fuel(atoms, fuel))
+
+
+def reference(gas, T_u: float, P: float, X: dict, width_factor: float = 2.0) -> dict:
+    """The fine flame on ``width_factor`` times the tool's domain, refined on through
+    REFERENCE_STAGES and extrapolated with its observed order; its uncertainty is Roache's
+    GCI (see the module docstring)."""
+    num = dataclasses.replace(flame.NUMERICS["fine"], width_m=flame.NUMERICS["fine"].width_m * width_factor,
+                              max_grid_points=20000)
+    gas.TPX = T_u, P, X
+    f = flame._solve_fresh(ct, gas, T_u, P, X, TRANSPORT, False, num)
+    seq = []
+    for stage in REFERENCE_STAGES:
+        flame._set_criteria(f, stage, 0.0)
+        f.set_max_grid_points(f.flame, 20000)
+        f.solve(loglevel=0, refine_grid=True, auto=False)
+        seq.append((len(f.grid), float(f.velocity[0])))
+    S = [s for _, s in seq]
+    s_inf, order = extrapolate([n for n, _ in seq], S)
+    monotone = (S[0] - S[1]) * (S[1] - S[2]) > 0 and 0.5 <= order <= 4.0
+    if monotone:
+        uncertainty = REFERENCE_SAFETY * abs(s_inf - S[-1]) / s_inf
+    else:
+        s_inf = S[-1]
+        uncertainty = REFERENCE_SAFETY_OUTSIDE * max(abs(v - S[-1]) for v in S) / S[-1]
+    return {"N": [n for n, _ in seq], "S_L_grids": S, "S_L_extrapolated": s_inf, "observed_order": order,
+            "asymptotic": monotone, "uncertainty": uncertainty, "domain_width_m": float(f.grid[-1] - f.grid[0])}
+
+
+def run_case(case) -> dict:
+    label, mech, fuel, phi, p_bar, T_u, held_out = case
+    path = str(find_mechanism(mech, None))
+    gas = ct.Solution(path)
+    X, P = _mixture(gas, fuel, phi), p_bar * 1e5
+    t0 = time.perf_counter()
+    out = {"case": label, "mechanism": mech, "held_out": held_out}
+    widths = {}
+    for name, num in flame.NUMERICS.items():
+        res = flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, num)
+        out[name], widths[name] = _entry(res), res["metrics"]["domain_width_m"]
+    num = flame.NUMERICS["standard"]
+    neighbour = flame.solve_flame(gas, T_u, P, _mixture(gas, fuel, phi + WARM_STEP), TRANSPORT, False, num)
+    out["standard warm"] = _entry(flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, num, warm=neighbour["profile"]))
+    ref = reference(gas, T_u, P, X)
+    fine = flame.NUMERICS["fine"]
+    wide = {k: flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, dataclasses.replace(fine, width_m=k * fine.width_m))
+            for k in (2, 4)}
+    S2, S4 = (wide[k]["metrics"]["laminar_flame_speed_m_s"] for k in (2, 4))
+    ref["fine_domain_1x_to_2x"] = S2 / out["fine"]["S_L"] - 1.0
+    ref["fine_domain_2x_to_4x"] = S4 / S2 - 1.0
+    ref["domain_long_enough"] = abs(ref["fine_domain_2x_to_4x"]) <= ref["uncertainty"]
+    ref["fine_domain_widths_m"] = [widths["fine"], *(wide[k]["metrics"]["domain_width_m"] for k in (2, 4))]
+    out["reference"] = ref
+    for name in SETTINGS:
+        out[name]["S_L_rel_err"] = out[name]["S_L"] / ref["S_L_extrapolated"] - 1.0
+    out["seconds"] = round(time.perf_counter() - t0, 1)
+    return out
+
+
+def coverage(results: list[dict], setting: str) -> dict:
+    """Flames whose |true error| lies inside the estimate, and the median estimate / |true error|."""
+    pairs = [(abs(r[setting]["S_L_rel_err"]), r[setting]["estimate"]) for r in results]
+    inside = sum(1 for true, est in pairs if est is not None and true <= est)
+    ratios = sorted(est / max(true, 1e-12) for true, est in pairs if est is not None)
+    return {"flames": len(pairs), "inside": inside,
+            "median_estimate_over_true": statistics.median(ratios) if ratios else None}
+
+
+def summary(results: list[dict]) -> dict:
+    out = {}
+    for half, rs in (("tuning half", [r for r in results if not r["held_out"]]),
+                     ("held-out half", [r for r in results if r["held_out"]]), ("all", results)):
+        out[half] = {s: coverage(rs, s) for s in SETTINGS} if rs else {}
+    return out
+
+
+def _print_case(r: dict) -> None:
+    ref = r["reference"]
+    print(f"{r['case']} [{'held out' if r['held_out'] else 'tuning'}] {r['seconds']:.0f} s", file=sys.stderr)
+    print(f"  reference N={ref['N']} S_L {[round(100 * v, 4) for v in ref['S_L_grids']]} cm/s -> "
+          f"{100 * ref['S_L_extrapolated']:.4f} cm/s, observed order {ref['observed_order']:.2f}, "
+          f"{'' if ref['asymptotic'] else '(not asymptotic) '}uncertainty +/-{100 * ref['uncertainty']:.3f} %; fine "
+          f"1x->2x domain {100 * ref['fine_domain_1x_to_2x']:+.3f} %, 2x->4x {100 * ref['fine_domain_2x_to_4x']:+.3f} % "
+          f"({'long enough' if ref['domain_long_enough'] else 'NOT long enough'})", file=sys.stderr)
+    for name in SETTINGS:
+        e = r[name]
+        est = "none" if e["estimate"] is None else f"+/-{100 * e['estimate']:.3f} %"
+        ok = e["estimate"] is not None and abs(e["S_L_rel_err"]) <= e["estimate"]
+        print(f"  {name:13s} N={e['N']:5d} true {100 * e['S_L_rel_err']:+.3f} %, estimate {est} "
+              f"{'inside' if ok else 'OUTSIDE'} ({e['convergence']})", file=sys.stderr)
+
+
+def main() -> int:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--out", default="error_bar_validation.jsonl", help="JSON-lines file, appended case by case")
+    ap.add_argument("--only", default="", help="only the cases whose label contains this")
+    ap.add_argument("--jobs", type=int, default=2)
+    args = ap.parse_args()
+    out = Path(args.out)
+    done = [json.loads(line) for line in out.read_text().splitlines()] if out.exists() else []
+    seen = {r["case"] for r in done}
+    todo = [c for c in VALIDATION if c[0] not in seen and args.only in c[0]]
+    for r in Parallel(n_jobs=args.jobs, return_as="generator_unordered")(delayed(run_case)(c) for c in todo):
+        with out.open("a") as fh:
+            fh.write(json.dumps(r) + "\n")
+        done.append(r)
+        _print_case(r)
+    s = summary(done)
+    for half, table in s.items():
+        for name, c in table.items():
+            med = c["median_estimate_over_true"]
+            print(f"{half:14s} {name:13s} inside {c['inside']:2d} of {c['flames']:2d}; median estimate/true "
+                  f"{'-' if med is None else f'{med:.2f}'}", file=sys.stderr)
+    print(json.dumps(s))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
