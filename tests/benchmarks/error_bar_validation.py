@@ -195,6 +195,7 @@ def main() -> int:
     done = [json.loads(line) for line in out.read_text().splitlines()] if out.exists() else []
     seen = {r["case"] for r in done}
     todo = [c for c in VALIDATION if c[0] not in seen and args.only in c[0]]
+    todo.sort(key=lambda c: (c[1] == GRI, c[4]))  # the cheap mechanisms and low pressures first
     for r in Parallel(n_jobs=args.jobs, return_as="generator_unordered")(delayed(run_case)(c) for c in todo):
         with out.open("a") as fh:
             fh.write(json.dumps(r) + "\n")
