@@ -381,7 +381,7 @@ def lewis_warning(row: dict) -> str:
     tend to wrinkle into cells and run faster than S_L, so the S_L-based flashback margin may be
     optimistic (Sivashinsky 1977; Matalon 2007, for the mechanism)."""
     le = row.get("lewis_number_fuel")
-    if (row["status"] != "ok" or row.get("instability") is not None or row["equivalence_ratio"] >= 1.0
+    if (row.get("status") != "ok" or row.get("instability") is not None or row.get("equivalence_ratio", 1.0) >= 1.0
             or le is None or le >= PREFERENTIAL_DIFFUSION_LEWIS):
         return ""
     return (f"Lewis number of the fuel {le:.2g} < {PREFERENTIAL_DIFFUSION_LEWIS:g} on the lean side: the flame may be "

@@ -79,7 +79,8 @@ def _entry(result) -> dict:
     return {"S_L": m["laminar_flame_speed_m_s"], "delta_T": m["thermal_thickness_m"], "N": m["grid_points"],
             "seconds": round(result["solve_seconds"], 2), "estimate": m["flame_speed_numerical_error"],
             "delta_T_estimate": m["thermal_thickness_numerical_error"],
-            "S_L_extrapolated": m["laminar_flame_speed_extrapolated_m_s"], "convergence": m["grid_convergence"]}
+            "S_L_extrapolated": m["laminar_flame_speed_extrapolated_m_s"], "convergence": m["grid_convergence"],
+            "order": m.get("grid_convergence_order")}
 
 
 def run_case(case):
