@@ -47,6 +47,7 @@ from joblib import Parallel, delayed
 from flamecharts.chemistry import flame
 from flamecharts.chemistry.mechanism import find_mechanism
 from flamecharts.physics import mixtures
+from flamecharts.physics.grid_error import MIN_INDEX, SAFETY_THREE_GRIDS
 
 sys.path.insert(0, str(Path(__file__).parent))
 from grid_convergence import REFERENCE_STAGES, WARM_STEP, _entry, extrapolate  # noqa: E402
@@ -169,6 +170,41 @@ def summary(results: list[dict]) -> dict:
     return out
 
 
+#: Estimator variants evaluated on the stored flames without solving again: (name, largest
+#: observed order trusted, factor of safety of a monotone three-grid estimate).
+VARIANTS = (("present: order bounded to 0.5-2, safety 1.25", 2.0, 1.25),
+            ("order bounded to 0.5-1 (the scheme's formal order), safety 1.25", 1.0, 1.25))
+
+
+def with_variant(entry: dict, max_order: float, safety: float) -> float | None:
+    """The estimate a monotone flame would get with another order bound and factor of safety,
+    from its stored estimate and (bounded) observed order p: the present estimate is
+    1.25 |d| / (2^p - 1), d the change from the half grid (physics.grid_error); the others
+    are left as they are."""
+    est, p = entry["estimate"], entry.get("order")
+    if est is None or entry["convergence"] != "monotone" or p is None:
+        return est
+    d = est / SAFETY_THREE_GRIDS * (2.0 ** p - 1.0)
+    return max(MIN_INDEX, safety * d / (2.0 ** min(p, max_order) - 1.0))
+
+
+def variant_table(results: list[dict]) -> list[str]:
+    """Coverage of each VARIANTS estimator, per half and setting (flames that stored their order)."""
+    lines = []
+    for name, max_order, safety in VARIANTS:
+        for half, rs in (("tuning", [r for r in results if not r["held_out"]]),
+                         ("held out", [r for r in results if r["held_out"]])):
+            for setting in SETTINGS:
+                pairs = [(abs(r[setting]["S_L_rel_err"]), with_variant(r[setting], max_order, safety)) for r in rs
+                         if r[setting]["convergence"] != "monotone" or r[setting].get("order") is not None]
+                inside = sum(1 for t, e in pairs if e is not None and t <= e)
+                ratios = [e / max(t, 1e-12) for t, e in pairs if e is not None]
+                med = f"{statistics.median(ratios):.2f}" if ratios else "-"
+                lines.append(f"{name[:40]:40s} {half:8s} {setting:13s} inside {inside:2d} of {len(pairs):2d}; "
+                             f"median estimate/true {med}")
+    return lines
+
+
 def _print_case(r: dict) -> None:
     ref = r["reference"]
     print(f"{r['case']} [{'held out' if r['held_out'] else 'tuning'}] {r['seconds']:.0f} s", file=sys.stderr)
@@ -190,9 +226,14 @@ def main() -> int:
     ap.add_argument("--out", default="error_bar_validation.jsonl", help="JSON-lines file, appended case by case")
     ap.add_argument("--only", default="", help="only the cases whose label contains this")
     ap.add_argument("--jobs", type=int, default=2)
+    ap.add_argument("--merge", nargs="*", default=[], help="more JSON-lines files for the summary (a case found "
+                                                            "again replaces the earlier one)")
     args = ap.parse_args()
     out = Path(args.out)
     done = [json.loads(line) for line in out.read_text().splitlines()] if out.exists() else []
+    for extra in args.merge:
+        done += [json.loads(line) for line in Path(extra).read_text().splitlines()]
+    done = list({r["case"]: r for r in done}.values())
     seen = {r["case"] for r in done}
     todo = [c for c in VALIDATION if c[0] not in seen and args.only in c[0]]
     todo.sort(key=lambda c: (c[1] == GRI, c[4]))  # the cheap mechanisms and low pressures first
@@ -202,6 +243,8 @@ def main() -> int:
         done.append(r)
         _print_case(r)
     s = summary(done)
+    for line in variant_table(done):
+        print(line, file=sys.stderr)
     for half, table in s.items():
         for name, c in table.items():
             med = c["median_estimate_over_true"]
