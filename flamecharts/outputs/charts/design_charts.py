@@ -588,7 +588,8 @@ def limits_chart(data, study):
     for ax, (kind, rows) in zip(axes[0], parts):
         (_draw_blend_windows if kind == "blend" else _draw_phi_windows)(ax, rows, study, colours, handles)
     return finish(fig, study, (f"Admissible windows: {study.burner.name}",
-                               f"keeping {kept(study).replace('>=', '≥')};\ntolerance {study.limits.tolerance['blend_fraction']:g} in blend fraction, "
-                               f"{study.limits.tolerance['equivalence_ratio']:g} in φ"
+                               f"keeping {kept(study).replace('>=', '≥')};\ntolerance "
+                               + ", ".join(f"{study.limits.tolerance[a]:g} in {'blend fraction' if a == 'blend_fraction' else 'φ'}"
+                                           for a in study.limits.find)
                                + data.note("pressure_bar", "unburned_temperature_K").replace("results.nc", "limits.csv")),
                    handles, "")
