@@ -153,6 +153,11 @@ def _port_velocity(b, r: dict, gas: FuelGas) -> tuple[float, float | None]:
                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
 
 
+def hydraulic_diameter(b) -> float:
+    """Hydraulic diameter of a port [m]: its diameter (round), twice its gap (slot)."""
+    return b.port_size_m if b.port == "round" else 2.0 * b.port_size_m
+
+
 def wall_gradient(b, U: float, Re: float | None, nu: float | None) -> float:
     """Wall velocity gradient of the port flow [1/s]: laminar fully developed (8U/D, 6U/h) up
     to Re 2300, Blasius's turbulent gradient from Re 4000, linear in Re between the two
@@ -162,7 +167,7 @@ def wall_gradient(b, U: float, Re: float | None, nu: float | None) -> float:
                 else ind.wall_velocity_gradient_slot(u, b.port_size_m))
     if Re is None or Re <= val.LAMINAR_REYNOLDS:
         return laminar(U)
-    D_h = b.port_size_m if b.port == "round" else 2.0 * b.port_size_m  # hydraulic diameter
+    D_h = hydraulic_diameter(b)
     if Re >= val.TURBULENT_REYNOLDS:
         return ind.wall_velocity_gradient_turbulent(U, D_h, nu)
     return val.transition_gradient(Re, laminar(U * val.LAMINAR_REYNOLDS / Re),
@@ -176,7 +181,7 @@ def not_assessed(study, r: dict, Re: float | None) -> dict[str, str]:
     b, phi = study.burner, r["equivalence_ratio"]
     le = r.get("lewis_number_fuel") if phi <= 1.0 else r.get("lewis_number_oxygen")
     where = dict(reynolds=Re, pressure_bar=r["pressure_bar"], unburned_temperature_K=r["unburned_temperature_K"],
-                 equivalence_ratio=phi, deficient_lewis=le, layout=getattr(b, "layout", "separate"))
+                 equivalence_ratio=phi, deficient_lewis=le, layout=b.layout)
     out = {}
     for c in ("flashback", "blowoff") + (("stabilizer",) if b.on_stabilizer else ()):
         why = val.domain_reasons(val.DOMAINS[c], **where)
@@ -217,7 +222,8 @@ def _verdict(b, margins: dict[str, float | None], unassessed: dict[str, str], ce
     gap = f"{' and '.join(missing)} not assessed"
     if len(missing) == len(decide):
         return gap
-    return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {decide[0] if decide[1] in missing else decide[1]} only; {gap}"
+    (assessed,) = (c for c in decide if c not in missing)
+    return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {assessed} only; {gap}"
 
 
 def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
@@ -227,9 +233,8 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     if b is None or r["status"] != "ok":
         return out
     U, Q = _port_velocity(b, r, gas)
-    D_h = b.port_size_m if b.port == "round" else 2.0 * b.port_size_m  # hydraulic diameter
     mu, rho = r.get("unburned_viscosity_Pa_s"), r["unburned_density_kg_m3"]
-    Re = U * D_h * rho / mu if mu else None
+    Re = U * hydraulic_diameter(b) * rho / mu if mu else None
     g = wall_gradient(b, U, Re, mu / rho if mu else None)
     unassessed = not_assessed(study, r, Re)
     margins = {"flashback": g / r["flashback_critical_gradient_1_s"], "blowoff": r["blowoff_critical_gradient_1_s"] / g,

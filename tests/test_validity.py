@@ -77,7 +77,7 @@ def test_wall_gradient_has_no_step_between_laminar_and_turbulent_port_flow():
 def test_stabilizer_needs_a_calibrated_constant():
     row = {"equivalence_ratio": 0.6, "pressure_bar": 1.0, "unburned_temperature_K": 300.0,
            "lewis_number_fuel": 0.97, "lewis_number_oxygen": 1.0}
-    burner = NS(on_stabilizer=True)
+    burner = NS(on_stabilizer=True, layout="separate")
     raw = not_assessed(NS(burner=burner, indicator_settings={"bluff_body_constant": None}), row, 800.0)
     assert raw["stabilizer"].startswith("C_BO not calibrated")
     assert "flashback" not in raw and "blowoff" not in raw

@@ -98,10 +98,11 @@ def burning_or_not(parts: Parts) -> Parts:
     return counted
 
 
-def refinable(parts: Parts, row: dict) -> bool:
-    """Whether an edge toward ``row``, which has no value, can be refined: it does not burn,
-    autoignites, or burns but no criterion of the search is assessed there."""
-    return row.get("status") in NOT_FLAMES or parts(row)[1].startswith(NOT_ASSESSED)
+def refinable(row: dict, why: str) -> bool:
+    """Whether an edge toward ``row``, which has no value (``why``: the reason :func:`limit_parts`
+    gave), can be refined: it does not burn, autoignites, or burns but no criterion of the
+    search is assessed there."""
+    return row.get("status") in NOT_FLAMES or why.startswith(NOT_ASSESSED)
 
 
 def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
@@ -521,9 +522,9 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, parts)
         elif pair == ("fail", "ok"):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, parts)
-        elif pair == ("ok", "none") and refinable(parts, rb):
+        elif pair == ("ok", "none") and refinable(rb, gs[i + 1][1]):
             tasks[i] = crossing(xa, ra, xb, rb, tol, max_flames, burning_or_not(parts))
-        elif pair == ("none", "ok") and refinable(parts, ra):
+        elif pair == ("none", "ok") and refinable(ra, gs[i][1]):
             tasks[i] = crossing(xb, rb, xa, ra, tol, max_flames, burning_or_not(parts))
         elif pair == ("fail", "fail") and (gs[i][1] != gs[i + 1][1] or may_peak_inside(i, logs, gs[i][1])):
             if look_inside is not None and not any(xa <= b1 and xb >= b0 for b0, b1 in look_inside):

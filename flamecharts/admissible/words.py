@@ -161,7 +161,7 @@ def limit_sentence(r: dict, study) -> str:
     """
     b, blend = study.burner, study.blend_with or "blend gas"
     nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
-    gaps = [part.split(" (at ")[0] for part in (r.get("criteria_not_assessed") or "").split("; ") if part]
+    gaps = [f"{c} at {n}" for c, n in unassessed(r)]
     gap = f"; not assessed: {', '.join(gaps)} (why: limits.csv, criteria_not_assessed)" if gaps else ""
     text = _sentence(r, study, b, blend, nth)
     if gaps:  # what the window rests on comes before its numbers
@@ -171,19 +171,38 @@ def limit_sentence(r: dict, study) -> str:
     return text + gap
 
 
+def unassessed(r: dict) -> list[tuple[str, str]]:
+    """(criterion, 'N of M swept flames') of a limits.csv row's ``criteria_not_assessed``
+    (driver.unassessed_words writes it), without the reasons.
+
+    >>> unassessed({"criteria_not_assessed": "blowoff at 4 of 4 swept flames (at 0 %: rich (phi 1.2 > 1))"})
+    [('blowoff', '4 of 4 swept flames')]
+    """
+    parts = (r.get("criteria_not_assessed") or "").split("; ")
+    return [tuple(p.split(" (at ")[0].split(" at ", 1)) for p in parts if p]
+
+
+def band_alone(r: dict, study) -> str:
+    """What the Wobbe band says where no flame criterion of a search is assessed: the blend
+    fractions it allows (blend search) or whether the blend lies inside it (phi search); ''
+    without a band."""
+    lo, hi = r.get("wobbe_band_from"), r.get("wobbe_band_to")
+    if lo is None:
+        return ""
+    span = f"{100 * lo:.1f}-{100 * hi:.1f} % {study.blend_with or 'blend gas'}"
+    if r["axis"] == "blend_fraction":
+        return f"{band_words(study)} alone allows {span}"
+    x = r.get("blend_fraction") or 0.0
+    return f"the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} {band_words(study)} ({span})"
+
+
 def _sentence(r: dict, study, b, blend: str, nth: str) -> str:
     if r["outcome"] == NOT_ASSESSED:
         where = (f"{r['fuel']} at phi {r['equivalence_ratio']:g}" if r["axis"] == "blend_fraction"
                  else gas_label(r))
-        band = ""
-        lo, hi = r.get("wobbe_band_from"), r.get("wobbe_band_to")
-        if lo is not None and r["axis"] == "blend_fraction":
-            band = f"; {band_words(study)} alone allows {100 * lo:.1f}-{100 * hi:.1f} % {blend}"
-        elif lo is not None:
-            x = r.get("blend_fraction") or 0.0
-            band = (f"; the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} {band_words(study)} "
-                    f"({100 * lo:.1f}-{100 * hi:.1f} % {blend})")
-        return f"{where}, {_where(r)}: {b.name}: no limit, no criterion of the search is assessed at these flames{band}"
+        band = band_alone(r, study)
+        return (f"{where}, {_where(r)}: {b.name}: no limit, no criterion of the search is assessed at these flames"
+                + (f"; {band}" if band else ""))
     if r["axis"] == "blend_fraction":
         head = f"{r['fuel']} at phi {r['equivalence_ratio']:g}, {_where(r)}: {b.name}"
         if r["outcome"] == "none admissible":

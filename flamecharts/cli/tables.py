@@ -3,6 +3,7 @@ from __future__ import annotations
 
 from ..columns import gas_label
 from ..design import fuel_gas_table, injection_end
+from ..physics.indicators import edge_velocity
 from ..results import first_flashback_fraction, margin_summary, premixer_summary
 
 
@@ -32,7 +33,7 @@ def print_burner(study) -> None:
     print(f"Burner: {b.name}: {b.port} ports{' (a deck: merged port flames)' if b.layout == 'deck' else ''}, "
           f"{size}; {how}; minimum margins flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}"
           + (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body blocking "
-             f"{100 * b.stabilizer_blockage:g} % of the duct: {b.approach_velocity_m_s / (1 - b.stabilizer_blockage):.3g}"
+             f"{100 * b.stabilizer_blockage:g} % of the duct: {edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage):.3g}"
              " m/s past its edge)" if b.on_stabilizer else ""))
 
 

@@ -14,13 +14,14 @@ from statistics import median
 from pathlib import Path
 
 from .._version import __version__
-from ..admissible.words import fixed_ratio_note, limit_sentence, search_flames
+from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, search_flames, unassessed
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import (error_bar_sentence, fuel_gas_table, injection_end, inside_kinetic_band, largest_differences,
                       mechanism_differences, not_assessed_summary)
+from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
@@ -183,8 +184,7 @@ def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
             value = "; ".join(_span(r) for r in wins)
             binds = sorted({r[f"{s}_binding"] for r in wins for s in ("lower", "upper") if r[f"{s}_binding"]})
             where += f" ({', '.join(binds)} bind{'s' if len(binds) == 1 else ''})" if binds else " (nothing binds)"
-            gaps = sorted({part.split(" at ")[0] for r in wins for part in (r.get("criteria_not_assessed") or "").split("; ")
-                           if part})
+            gaps = sorted({c for r in wins for c, _ in unassessed(r)})
             if gaps:
                 where += f"; {' and '.join(gaps)} not assessed"
         elif r0["outcome"] == "none admissible":
@@ -196,14 +196,8 @@ def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
                 where += f" (closest at {_axis_value(r0, r0['closest_miss_at'])}: {r0['closest_miss_margins']})"
         elif r0["outcome"] == "not assessed":
             value = "not assessed"
-            where += " (no criterion in its range: see Criteria not assessed"
-            lo, hi = r0.get("wobbe_band_from"), r0.get("wobbe_band_to")
-            if lo is not None and axis == "blend_fraction":
-                where += f"; the Wobbe band alone allows {100 * lo:.1f}–{100 * hi:.1f} %"
-            elif lo is not None:
-                x = r0.get("blend_fraction") or 0.0
-                where += f"; the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} the Wobbe band"
-            where += ")"
+            band = band_alone(r0, study)
+            where += " (no criterion in its range: see Criteria not assessed" + (f"; {band})" if band else ")")
         else:
             value = "not settled"
         out.append([what, value, where])
@@ -285,7 +279,7 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
                                                    f"{b.approach_velocity_m_s:g} m/s approach, blocking "
                                                    f"{100 * b.stabilizer_blockage:g} % of the duct: "
-                                                   f"{b.approach_velocity_m_s / (1 - b.stabilizer_blockage):.3g} m/s "
+                                                   f"{edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage):.3g} m/s "
                                                    "past its edge"])
         parts.append("<div class='keep'><h3>Burner</h3>" + _table(["", ""], brows) + "</div>")
     gases = fuel_gas_table(study) if gases is None else gases
