@@ -19,7 +19,7 @@ from flamecharts.chemistry.sensitivity import flame_speed_sensitivities
 from flamecharts.errors import ConfigError
 from flamecharts.physics import kinetic_uncertainty as ku
 from flamecharts.physics import mixtures
-from flamecharts.physics.grid_error import MIN_INDEX, grid_convergence_index
+from flamecharts.physics.grid_error import MIN_INDEX, grid_convergence_index, placement_floor
 from flamecharts.physics.rate_factors import RATE_FACTORS, SIGMAS_PER_FACTOR
 
 from conftest import write_h2_study
@@ -50,11 +50,17 @@ def test_gci_oscillating_and_two_grids_give_no_extrapolation():
 
 
 def test_gci_bounds_the_order_and_never_claims_less_than_its_floor():
-    # a ratio of changes of 16 would be order 4: bounded to 2, so the band is wider, not narrower
+    # a ratio of changes of 16 would be order 4: bounded to the scheme's formal order 1
+    # (Roache 2011: do not credit an observed order above it), so the band is wider, not narrower
     g = grid_convergence_index(100.0, 100.01, 100.17)
-    assert g["order"] == 2.0 and g["index"] == pytest.approx(MIN_INDEX)
-    g = grid_convergence_index(50.0, 50.5, 52.0)
-    assert g["order"] == pytest.approx(math.log(3) / math.log(2))
+    assert g["order"] == 1.0 and g["index"] == pytest.approx(MIN_INDEX)
+    g = grid_convergence_index(50.0, 50.5, 52.0)  # observed order log2(3) = 1.58, credited as 1
+    assert g["order"] == 1.0 and g["index"] == pytest.approx(1.25 * 0.5 / 50.0)
+    g = grid_convergence_index(100.0, 100.2, 100.3)  # changes shrink by half the wrong way: order -1, bounded to 0.5
+    assert g["order"] == 0.5 and g["index"] == pytest.approx(1.25 * 0.2 / (2 ** 0.5 - 1) / 100.0)
+    # and never below the spread two valid grids of this size can have: 0.3 % at 942 points, as 1/N
+    g = grid_convergence_index(100.0, 100.01, 100.02, floor=placement_floor(471))
+    assert g["index"] == pytest.approx(0.006)
 
 
 # ---- the per-flame estimate against grid-converged flames

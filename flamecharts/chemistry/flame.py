@@ -30,7 +30,7 @@ import numpy as np
 from ..errors import first_line
 from ..outcome import Reason, Status
 from ..physics import flame_measures as profiles
-from ..physics.grid_error import grid_convergence_index
+from ..physics.grid_error import grid_convergence_index, placement_floor
 
 #: Flames whose burned-side temperature rise is below this share of the equilibrium
 #: rise, or whose speed is below MIN_FLAME_SPEED, did not burn (solver found the cold branch).
@@ -522,7 +522,8 @@ def grid_error(f) -> dict:
     """Error estimate of a converged flame's speed and thermal thickness: the flame solved
     again on every second and every fourth point of its final grid (a systematic
     coarsening, ratio 2), and the three values combined into Roache's grid convergence index
-    (physics.grid_error). Costs two Newton solves on a half and a quarter of the points,
+    (physics.grid_error), never below the spread two valid grids of this size can have
+    (physics.grid_error.placement_floor). Costs two Newton solves on a half and a quarter of the points,
     about 0.75 of one Jacobian on the final grid; f is left as it was.
 
     Returns the metrics ``flame_speed_numerical_error`` and
@@ -545,8 +546,9 @@ def grid_error(f) -> dict:
                 "laminar_flame_speed_extrapolated_m_s": None, "grid_convergence": "not estimated",
                 "grid_convergence_order": None}
     coarse = values[1] if len(values) > 1 else (None, None)
-    speed = grid_convergence_index(S, values[0][0], coarse[0])
-    thickness = grid_convergence_index(d, values[0][1], coarse[1])
+    floor = placement_floor(n)
+    speed = grid_convergence_index(S, values[0][0], coarse[0], floor=floor)
+    thickness = grid_convergence_index(d, values[0][1], coarse[1], floor=floor)
     return {"flame_speed_numerical_error": speed["index"], "thermal_thickness_numerical_error": thickness["index"],
             "laminar_flame_speed_extrapolated_m_s": speed["extrapolated"], "grid_convergence": speed["convergence"],
             "grid_convergence_order": speed["order"]}

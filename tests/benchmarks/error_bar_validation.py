@@ -29,13 +29,21 @@ For each flame:
 True error = S_L of the setting / extrapolated reference - 1 (whatever its source). A flame
 is covered when |true error| <= its estimate. Results are appended to a JSON-lines file
 case by case (a rerun skips the cases already there), and the summary prints the coverage
-per setting, per half, and the median of estimate over true error.
+per setting, per half, and the median of estimate over true error, for the estimates as
+solved and for each estimator of VARIANTS, evaluated on the three flame speeds stored with
+every flame (``--refresh-settings`` solves the settings of an older results file again to
+record them; the solves are deterministic, so the flame speeds come back unchanged).
+
+The estimator in physics.grid_error (order bounded to the formal order 1, floor 0.3 % at
+942 points scaled as 1/N) was chosen on the tuning half on 2026-12-05; docs/benchmarks.md
+gives the coverage of both halves before and after.
 """
 from __future__ import annotations
 
 import argparse
 import dataclasses
 import json
+import math
 import statistics
 import sys
 import time
@@ -47,7 +55,8 @@ from joblib import Parallel, delayed
 from flamecharts.chemistry import flame
 from flamecharts.chemistry.mechanism import find_mechanism
 from flamecharts.physics import mixtures
-from flamecharts.physics.grid_error import MIN_INDEX, SAFETY_THREE_GRIDS
+from flamecharts.physics.grid_error import (GRID_RATIO, MIN_INDEX, ORDER_BOUNDS, SAFETY_UNCONFIRMED,
+                                            grid_convergence_index, placement_floor)
 
 sys.path.insert(0, str(Path(__file__).parent))
 from grid_convergence import REFERENCE_STAGES, WARM_STEP, _entry, extrapolate  # noqa: E402
@@ -123,20 +132,53 @@ def reference(gas, T_u: float, P: float, X: dict, width_factor: float = 2.0) -> 
             "asymptotic": monotone, "uncertainty": uncertainty, "domain_width_m": float(f.grid[-1] - f.grid[0])}
 
 
+class _Recorder:
+    """The three flame speeds (final, every 2nd, every 4th point) each estimate was built
+    from, so estimator variants can be evaluated on them without solving again."""
+
+    def __init__(self):
+        self.calls, self._gci = [], flame.grid_convergence_index
+
+    def __call__(self, fine, medium, coarse, *args, **kwargs):
+        self.calls.append((fine, medium, coarse))
+        return self._gci(fine, medium, coarse, *args, **kwargs)
+
+    def solve(self, *args, **kwargs) -> dict:
+        """solve_flame with its speed triple stored under ``grids`` of the entry."""
+        self.calls.clear()
+        flame.grid_convergence_index = self
+        try:
+            res = flame.solve_flame(*args, **kwargs)
+        finally:
+            flame.grid_convergence_index = self._gci
+        entry = _entry(res)
+        entry["grids"] = list(self.calls[0]) if self.calls else None  # the speed's call comes first
+        return res, entry
+
+
+def solve_settings(case) -> tuple[dict, dict]:
+    """Every setting of one case (and the standard warm-started one), with their estimates."""
+    label, mech, fuel, phi, p_bar, T_u, held_out = case
+    gas = ct.Solution(str(find_mechanism(mech, None)))
+    X, P = _mixture(gas, fuel, phi), p_bar * 1e5
+    rec, out, widths = _Recorder(), {}, {}
+    for name, num in flame.NUMERICS.items():
+        res, out[name] = rec.solve(gas, T_u, P, X, TRANSPORT, False, num)
+        widths[name] = res["metrics"]["domain_width_m"]
+    num = flame.NUMERICS["standard"]
+    neighbour = flame.solve_flame(gas, T_u, P, _mixture(gas, fuel, phi + WARM_STEP), TRANSPORT, False, num)
+    out["standard warm"] = rec.solve(gas, T_u, P, X, TRANSPORT, False, num, warm=neighbour["profile"])[1]
+    return out, widths
+
+
 def run_case(case) -> dict:
     label, mech, fuel, phi, p_bar, T_u, held_out = case
-    path = str(find_mechanism(mech, None))
-    gas = ct.Solution(path)
+    gas = ct.Solution(str(find_mechanism(mech, None)))
     X, P = _mixture(gas, fuel, phi), p_bar * 1e5
     t0 = time.perf_counter()
     out = {"case": label, "mechanism": mech, "held_out": held_out}
-    widths = {}
-    for name, num in flame.NUMERICS.items():
-        res = flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, num)
-        out[name], widths[name] = _entry(res), res["metrics"]["domain_width_m"]
-    num = flame.NUMERICS["standard"]
-    neighbour = flame.solve_flame(gas, T_u, P, _mixture(gas, fuel, phi + WARM_STEP), TRANSPORT, False, num)
-    out["standard warm"] = _entry(flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, num, warm=neighbour["profile"]))
+    settings, widths = solve_settings(case)
+    out.update(settings)
     ref = reference(gas, T_u, P, X)
     fine = flame.NUMERICS["fine"]
     wide = {k: flame.solve_flame(gas, T_u, P, X, TRANSPORT, False, dataclasses.replace(fine, width_m=k * fine.width_m))
@@ -153,8 +195,23 @@ def run_case(case) -> dict:
     return out
 
 
+def refresh_settings(stored: dict) -> dict:
+    """A stored case with its settings solved again (the reference kept): adds the speed
+    triples to cases stored before they were recorded. The solves are deterministic, so the
+    flame speeds must come back as stored (``settings_reproduced``)."""
+    case = next(c for c in VALIDATION if c[0] == stored["case"])
+    settings, _ = solve_settings(case)
+    out = dict(stored)
+    drift = max(abs(settings[n]["S_L"] / stored[n]["S_L"] - 1.0) for n in SETTINGS)
+    for name in SETTINGS:
+        out[name] = dict(settings[name], S_L_rel_err=settings[name]["S_L"] / stored["reference"]["S_L_extrapolated"] - 1.0)
+    out["settings_reproduced"] = drift
+    return out
+
+
 def coverage(results: list[dict], setting: str) -> dict:
-    """Flames whose |true error| lies inside the estimate, and the median estimate / |true error|."""
+    """Flames whose |true error| lies inside the estimate they were solved with (the code of the
+    run that stored them), and the median estimate / |true error|; VARIANTS gives other estimators."""
     pairs = [(abs(r[setting]["S_L_rel_err"]), r[setting]["estimate"]) for r in results]
     inside = sum(1 for true, est in pairs if est is not None and true <= est)
     ratios = sorted(est / max(true, 1e-12) for true, est in pairs if est is not None)
@@ -170,37 +227,48 @@ def summary(results: list[dict]) -> dict:
     return out
 
 
-#: Estimator variants evaluated on the stored flames without solving again: (name, largest
-#: observed order trusted, factor of safety of a monotone three-grid estimate).
-VARIANTS = (("present: order bounded to 0.5-2, safety 1.25", 2.0, 1.25),
-            ("order bounded to 0.5-1 (the scheme's formal order), safety 1.25", 1.0, 1.25))
+#: Estimators evaluated on the stored flames without solving again, from the three flame
+#: speeds each estimate was built from: (name, keyword arguments of :func:`with_variant`).
+#: The last is the one in physics.grid_error since 2026-12-05, chosen on the tuning half.
+VARIANTS = (("before: order 0.5-2, floor 0.1 %", {"order_bounds": (0.5, 2.0), "floor": MIN_INDEX}),
+            ("order 0.5-1 (the formal order), floor 0.1 %", {"order_bounds": (0.5, 1.0), "floor": MIN_INDEX}),
+            ("order 0.5-1, safety 3 where p is off 1 by >10 %", {"order_bounds": (0.5, 1.0), "floor": MIN_INDEX,
+                                                               "roache": True}),
+            ("now: order 0.5-1, floor 0.3 % x 942/N", {}))
 
 
-def with_variant(entry: dict, max_order: float, safety: float) -> float | None:
-    """The estimate a monotone flame would get with another order bound and factor of safety,
-    from its stored estimate and (bounded) observed order p: the present estimate is
-    1.25 |d| / (2^p - 1), d the change from the half grid (physics.grid_error); the others
-    are left as they are."""
-    est, p = entry["estimate"], entry.get("order")
-    if est is None or entry["convergence"] != "monotone" or p is None:
-        return est
-    d = est / SAFETY_THREE_GRIDS * (2.0 ** p - 1.0)
-    return max(MIN_INDEX, safety * d / (2.0 ** min(p, max_order) - 1.0))
+def with_variant(entry: dict, order_bounds=ORDER_BOUNDS, roache: bool = False, floor: float | None = None) -> float | None:
+    """The estimate this flame gets from an estimator, from the three flame speeds its own
+    estimate was built from (``grids``: final, every 2nd, every 4th point); the defaults are
+    the estimator in the code (physics.grid_error, floor :func:`placement_floor` of the
+    flame's grid). ``roache``: factor of safety 3 instead of 1.25 where the observed order
+    is off the formal 1 by more than 10 % (Roache, J. Fluids Eng. 133 (2011) 115501:
+    "revert to using p_th and FS = 3")."""
+    grids = entry.get("grids")
+    if grids is None:
+        return entry["estimate"]
+    floor = placement_floor(entry["N"]) if floor is None else floor
+    g = grid_convergence_index(*grids, order_bounds=order_bounds, floor=floor)
+    if roache and g["convergence"] == "monotone":
+        fine, medium, coarse = grids
+        p = math.log((coarse - medium) / (medium - fine)) / math.log(GRID_RATIO)
+        if abs(p - 1.0) > 0.1:
+            g = grid_convergence_index(*grids, order_bounds=order_bounds, safety=SAFETY_UNCONFIRMED, floor=floor)
+    return g["index"]
 
 
 def variant_table(results: list[dict]) -> list[str]:
-    """Coverage of each VARIANTS estimator, per half and setting (flames that stored their order)."""
+    """Coverage of each VARIANTS estimator, per half and setting."""
     lines = []
-    for name, max_order, safety in VARIANTS:
+    for name, kw in VARIANTS:
         for half, rs in (("tuning", [r for r in results if not r["held_out"]]),
                          ("held out", [r for r in results if r["held_out"]])):
             for setting in SETTINGS:
-                pairs = [(abs(r[setting]["S_L_rel_err"]), with_variant(r[setting], max_order, safety)) for r in rs
-                         if r[setting]["convergence"] != "monotone" or r[setting].get("order") is not None]
+                pairs = [(abs(r[setting]["S_L_rel_err"]), with_variant(r[setting], **kw)) for r in rs]
                 inside = sum(1 for t, e in pairs if e is not None and t <= e)
                 ratios = [e / max(t, 1e-12) for t, e in pairs if e is not None]
                 med = f"{statistics.median(ratios):.2f}" if ratios else "-"
-                lines.append(f"{name[:40]:40s} {half:8s} {setting:13s} inside {inside:2d} of {len(pairs):2d}; "
+                lines.append(f"{name[:46]:46s} {half:8s} {setting:13s} inside {inside:2d} of {len(pairs):2d}; "
                              f"median estimate/true {med}")
     return lines
 
@@ -228,12 +296,22 @@ def main() -> int:
     ap.add_argument("--jobs", type=int, default=2)
     ap.add_argument("--merge", nargs="*", default=[], help="more JSON-lines files for the summary (a case found "
                                                             "again replaces the earlier one)")
+    ap.add_argument("--refresh-settings", action="store_true",
+                    help="solve the settings of stored cases without speed triples again, keeping their references")
     args = ap.parse_args()
     out = Path(args.out)
     done = [json.loads(line) for line in out.read_text().splitlines()] if out.exists() else []
     for extra in args.merge:
         done += [json.loads(line) for line in Path(extra).read_text().splitlines()]
     done = list({r["case"]: r for r in done}.values())
+    if args.refresh_settings:
+        old = [r for r in done if args.only in r["case"] and r["standard"].get("grids") is None]
+        fresh = {r["case"]: r for r in Parallel(n_jobs=args.jobs)(delayed(refresh_settings)(r) for r in old)}
+        done = [fresh.get(r["case"], r) for r in done]
+        out.write_text("".join(json.dumps(r) + "\n" for r in done))
+        for r in fresh.values():
+            print(f"{r['case']}: settings solved again, flame speeds reproduced to {r['settings_reproduced']:.1e}",
+                  file=sys.stderr)
     seen = {r["case"] for r in done}
     todo = [c for c in VALIDATION if c[0] not in seen and args.only in c[0]]
     todo.sort(key=lambda c: (c[1] == GRI, c[4]))  # the cheap mechanisms and low pressures first
