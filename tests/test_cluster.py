@@ -102,6 +102,17 @@ def test_no_scheduler_at_the_address_is_one_line_exit_2_and_the_flag_beats_the_c
     assert not out.exists()
 
 
+def test_cluster_without_dask_names_the_extra_to_install(tmp_path):
+    """Dask is an optional extra: without it, --cluster is one line naming the extra, exit 2."""
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]")
+    hide = ("import sys, runpy; sys.modules['distributed'] = None; "  # an import of it now fails
+            f"sys.argv = ['flamecharts', 'run', {str(config)!r}, '--out', {str(tmp_path / 'out')!r}, "
+            "'--cluster', 'local:1']; runpy.run_module('flamecharts', run_name='__main__')")
+    r = subprocess.run([sys.executable, "-c", hide], capture_output=True, text=True, timeout=300)
+    assert r.returncode == 2 and r.stderr.count("\n") == 1 and "Traceback" not in r.stderr, r.stderr
+    assert "pip install 'flamecharts[cluster]'" in r.stderr
+
+
 @pytest.mark.parametrize("value, words", [("tcp://nohost", "host and port"), ("local:zero", "local:N"),
                                           ("slurm", "allowed: tcp://HOST:PORT")])
 def test_a_bad_cluster_key_is_one_line_exit_2(tmp_path, value, words):

@@ -26,29 +26,45 @@ def _rows(tmp_path, burner, **kw):
     return study, run_study(study, out_dir=tmp_path / "o", jobs=2).rows
 
 
+def _rerun(tmp_path, old: str, new: str):
+    """The study of ``_rows`` read again with its burner changed (``old`` replaced by ``new``):
+    every flame comes from the store, only the design read-out is new."""
+    config = next(tmp_path.glob("*.toml"))
+    config.write_text(config.read_text().replace(old, new))
+    summary = run_study(load_study(config), out_dir=tmp_path / "o", jobs=1)
+    assert summary.solved == 0
+    return summary.rows
+
+
 @pytest.fixture(scope="module")
-def fixed_input(tmp_path_factory):
-    return _rows(tmp_path_factory.mktemp("fi"), BURNER_INPUT, phis="[0.8, 1.0]")
+def fixed_input_dir(tmp_path_factory):
+    path = tmp_path_factory.mktemp("fi")
+    return path, _rows(path, BURNER_INPUT, phis="[0.8, 1.0]")
+
+
+@pytest.fixture(scope="module")
+def fixed_input(fixed_input_dir):
+    return fixed_input_dir[1]
 
 
 def test_fixed_thermal_input_port_velocity_by_hand(fixed_input):
     study, rows = fixed_input
-    # Hand calculation (ISO 6976:2016 values): diluted fuel 0.6 H2 + 0.4 N2, phi 1.0, 15 degC.
-    r = next(r for r in rows if r["blend_fraction"] == 0.0 and r["equivalence_ratio"] == 1.0)
-    M_H2, M_N2 = ISO6976_2016["H2"][0], ISO6976_2016["N2"][0]
-    M_fuel = 0.6 * M_H2 + 0.4 * M_N2
-    lhv = 0.6 * (ISO6976_2016["H2"][2][15] - L_WATER[15]) / M_fuel * 1e6  # J/kg
-    n_air = 0.6 * 0.5 / (1 / 4.76)                                       # mol air / mol fuel
+    # Energy balance, independent of how the code gets the velocity: the hydrogen carried through
+    # the port at the stated velocity must release the stated 0.5 kW at its lower heating value,
+    # rho_u U A Y_H2 LHV_H2 = 500 W. Mixture by Cantera's set_equivalence_ratio; LHV of H2 at
+    # 15 degC from ISO 6976:2016 (superior value 286.15 kJ/mol, less the latent heat of
+    # the water it forms); the diluted fuel is 0.6 H2 + 0.4 N2 in air.
     import cantera as ct
-    M_air = ct.Solution("h2o2.yaml").molecular_weights
+
     g = ct.Solution("h2o2.yaml")
-    M_air = (g.molecular_weights[g.species_index("O2")] + 3.76 * g.molecular_weights[g.species_index("N2")]) / 4.76
-    M_fuel_mech = 0.6 * g.molecular_weights[g.species_index("H2")] + 0.4 * g.molecular_weights[g.species_index("N2")]
-    afr = n_air * M_air / M_fuel_mech
-    U = 500.0 / lhv * (1 + afr / 1.0) / r["unburned_density_kg_m3"] / 50e-6
-    assert r["port_velocity_m_s"] == pytest.approx(U, rel=1e-6)
-    assert r["wall_velocity_gradient_1_s"] == pytest.approx(8 * U / 1e-3, rel=1e-12)
-    assert r["thermal_input_kW"] == pytest.approx(0.5)
+    M_H2 = ISO6976_2016["H2"][0]
+    lhv_J_kg = (ISO6976_2016["H2"][2][15] - L_WATER[15]) / M_H2 * 1e6
+    for r in (r for r in rows if r["blend_fraction"] == 0.0):
+        g.TP = 300.0, 1e5  # the study sweeps 1.0 bar
+        g.set_equivalence_ratio(r["equivalence_ratio"], {"H2": 0.6, "N2": 0.4}, {"O2": 1.0, "N2": 3.76})
+        heat_W = g.density * r["port_velocity_m_s"] * 50e-6 * g["H2"].Y[0] * lhv_J_kg
+        assert heat_W == pytest.approx(500.0, rel=2e-3), r["equivalence_ratio"]
+        assert r["thermal_input_kW"] == pytest.approx(0.5)
 
 
 @pytest.mark.slow
@@ -73,28 +89,38 @@ equivalence_ratio = [1.0]
     rows = run_study(load_study(config), out_dir=tmp_path / "o", jobs=2).rows
     u0, u3 = (r["port_velocity_m_s"] for r in rows)
     assert u3 > u0
-    # hand check of the ratio: same input, LHV per mixture volume falls with hydrogen
+    # a faster flame at the same velocity: the critical flashback gradient rises with hydrogen
     assert rows[1]["flashback_gradient_ratio"] > 1.0
 
 
-def test_margins_verdict_and_reference_ratios(fixed_input):
-    study, rows = fixed_input
+def test_margins_verdict_and_reference_ratios(fixed_input_dir):
+    path, (study, rows) = fixed_input_dir
+    # the same flow through a port of twice the diameter (same area, so the same velocity):
+    # the wall gradient 8U/D halves (Poiseuille), so the flashback margin and the quench
+    # ratio (quenching diameter over port diameter) halve with it
+    wide = {(r["blend_fraction"], r["equivalence_ratio"]): r
+            for r in _rerun(path, "port_diameter_mm = 1.0", "port_diameter_mm = 2.0")}
+    _rerun(path, "port_diameter_mm = 2.0", "port_diameter_mm = 1.0")
     for r in rows:
-        assert r["flashback_margin"] == pytest.approx(r["wall_velocity_gradient_1_s"] / r["flashback_critical_gradient_1_s"])
+        w = wide[(r["blend_fraction"], r["equivalence_ratio"])]
+        assert w["port_velocity_m_s"] == pytest.approx(r["port_velocity_m_s"], rel=1e-12)
+        assert w["flashback_margin"] == pytest.approx(r["flashback_margin"] / 2, rel=1e-9)
+        assert w["quench_ratio"] == pytest.approx(r["quench_ratio"] / 2, rel=1e-9)
+        # the verdict turns on min_flashback_margin = 1.5 of the study, for either port
+        for row in (r, w):
+            assert ("flashback risk" in row["verdict"]) == (row["flashback_margin"] < 1.5), row["verdict"]
         # hydrogen-air (Le of the fuel about 0.3): Reed's constant is not assessed (physics.validity)
         assert r["lewis_number_fuel"] < 0.8 and r["blowoff_margin"] is None
         assert r["criteria_not_assessed"].startswith("blowoff: Lewis number 0.")
-        risks = [] if r["flashback_margin"] >= 1.5 else ["flashback risk"]
-        assert r["verdict"] == ("; ".join(risks + ["blowoff not assessed"]) if risks
-                                else "ok on flashback only; blowoff not assessed")
-        assert r["quench_ratio"] == pytest.approx(r["tube_quenching_diameter_mm"] / 1.0)
+        assert r["verdict"].endswith("blowoff not assessed")
         assert r["reference"] == "diluted"
-        if r["blend_fraction"] == 0.0:
-            assert r["flame_speed_ratio"] == 1.0
-        else:  # more hydrogen: faster flame, steeper flashback gradient, shorter quench distance
+        # each ratio is taken against the undiluted-blend row of the same phi, not any other row
+        ref = next(x for x in rows if x["blend_fraction"] == 0.0 and x["equivalence_ratio"] == r["equivalence_ratio"])
+        assert r["flame_speed_ratio"] == pytest.approx(r["laminar_flame_speed_m_s"] / ref["laminar_flame_speed_m_s"])
+        if r["blend_fraction"] > 0.0:  # more hydrogen: faster flame, steeper flashback gradient, shorter quench distance
             assert r["flame_speed_ratio"] > 1.0 and r["flashback_gradient_ratio"] > 1.0
             assert r["quenching_distance_ratio"] < 1.0
-        assert r["chemical_time_s"] == pytest.approx(r["unburned_thermal_diffusivity_m2_s"] / r["laminar_flame_speed_m_s"] ** 2)
+    assert {r["verdict"] for r in rows} | {w["verdict"] for w in wide.values()} >= {"ok on flashback only; blowoff not assessed"}
 
 
 def test_input_follows_wobbe_at_fixed_supply_pressure(tmp_path):
@@ -104,9 +130,32 @@ def test_input_follows_wobbe_at_fixed_supply_pressure(tmp_path):
     gases = {g["blend_fraction"]: g for g in fuel_gas_table(study)}
     for r in rows:
         g = gases[r["blend_fraction"]]
-        # orifice flow at a fixed supply pressure: thermal input proportional to the Wobbe index
-        assert r["thermal_input_kW"] / 0.5 == pytest.approx(g["higher_wobbe_index_MJ_m3"] / gases[0.0]["higher_wobbe_index_MJ_m3"])
+        # orifice flow at a fixed supply pressure: the input follows the Wobbe index (the ratio
+        # itself is checked against the standard's test gases below)
+        assert (r["thermal_input_kW"] == pytest.approx(0.5)) == (r["blend_fraction"] == 0.0)
         assert r["wobbe_in_band"] == (abs(g["wobbe_change_percent"]) <= 5.0)
+
+
+def test_input_through_a_fixed_nozzle_follows_the_lower_wobbe_index_of_the_test_gases():
+    """EN 437 test gases (15 degC, 1013.25 mbar; values from memory): G20 (methane) Wi 45.67,
+    Ws 50.72 MJ/m3; G222 (77 % methane, 23 % hydrogen) Wi 42.87, Ws 47.87 MJ/m3. A nozzle at a
+    fixed supply pressure passes a thermal input on the lower heating value proportional to
+    the lower Wobbe index: 42.87/45.67 = 0.9387 (the higher index's ratio would be 0.9438)."""
+    from flamecharts.config import study_from_dict
+    from flamecharts.design import fuel_gas
+
+    study = study_from_dict({
+        "mechanism": "gri30.yaml", "fuels": {"methane": {"CH4": 1.0}, "hydrogen": {"H2": 1.0}},
+        "oxidizers": {"air": {"O2": 1.0, "N2": 3.76}},
+        "sweep": {"fuel": ["methane"], "oxidizer": ["air"], "equivalence_ratio": [1.0],
+                  "blend": {"with": "hydrogen", "fraction": [0.0, 0.23]}},
+        "burner": {"port": "round", "port_diameter_mm": 1.0, "port_area_mm2": 50.0, "thermal_input_kW": 0.5,
+                   "input_follows_wobbe": True}})
+    g20, g222 = (fuel_gas(study, "methane", f, "air") for f in (0.0, 0.23))
+    for gas, wi, ws in ((g20, 45.67, 50.72), (g222, 42.87, 47.87)):
+        assert gas.row["lower_wobbe_index_MJ_m3"] == pytest.approx(wi, abs=0.02)
+        assert gas.row["higher_wobbe_index_MJ_m3"] == pytest.approx(ws, abs=0.02)
+    assert g222.input_ratio == pytest.approx(0.9387, abs=5e-4)
 
 
 def test_fixed_velocity_slot_and_stabilizer(tmp_path):
@@ -131,9 +180,13 @@ approach_velocity_m_s = 20.0
     study, rows = _rows(tmp_path / "cal", burner + "stabilizer_blockage = 0.36\n\n[indicators]\nbluff_body_constant = 0.8\n",
                         fractions="[0.0]", phis="[1.0]")
     r = rows[0]
-    assert r["bluff_body_blowoff_velocity_m_s"] == pytest.approx(0.8 * 0.01 / r["chemical_time_s"])
-    assert r["stabilizer_margin"] == pytest.approx(r["bluff_body_blowoff_velocity_m_s"] / (20.0 / 0.64))
     assert "stabilizer" not in (r["criteria_not_assessed"] or "")
+    # U_BO = C_BO D / tau_c is linear in the constant, and the blockage B speeds the flow past
+    # the body's edge to U/(1 - B): without it the margin is (1 - 0.36) = 0.64 times larger
+    rows2 = _rerun(tmp_path / "cal", "bluff_body_constant = 0.8", "bluff_body_constant = 1.6")
+    assert rows2[0]["stabilizer_margin"] == pytest.approx(2 * r["stabilizer_margin"], rel=1e-9)
+    rows3 = _rerun(tmp_path / "cal", "stabilizer_blockage = 0.36", "stabilizer_blockage = 0.0")
+    assert r["stabilizer_margin"] / rows3[0]["stabilizer_margin"] == pytest.approx(0.64 / 2, rel=1e-9)  # C 1.6 now
 
 
 def test_indicator_settings_override(tmp_path):

@@ -341,13 +341,6 @@ def test_a_flame_over_its_time_limit_fails_with_that_reason_and_the_run_goes_on(
     assert all(row["status"] == "ok" for row in csv.DictReader(open(out / "results.csv")))
 
 
-def test_failure_reasons_are_typed_not_parsed():
-    from flamecharts.outcome import Reason
-
-    assert {str(r) for r in Reason} >= {"not converged", "mechanism error", "worker error", "no flame"}
-    assert Reason("worker error") is Reason.WORKER_ERROR and Reason.WORKER_ERROR == "worker error"
-
-
 def _broken_mechanism(folder: Path) -> Path:
     """h2o2.yaml with one absurd rate (A = 1e300, b = 30): it loads, but its rates overflow."""
     src = next(Path(d) / "h2o2.yaml" for d in ct.get_data_directories() if (Path(d) / "h2o2.yaml").exists())

@@ -2,7 +2,7 @@
 import pytest
 
 from flamecharts.chemistry.mechanism import fallback_data
-from flamecharts.physics.gasprops import ISO6976_2016, L_WATER, compression_factor, fuel_gas_properties
+from flamecharts.physics.gasprops import ISO6976_2016, fuel_gas_properties
 
 EXAMPLE_1 = {"CH4": 0.933212, "C2H6": 0.025656, "C3H8": 0.015368, "N2": 0.010350, "CO2": 0.015414}
 
@@ -168,8 +168,3 @@ def test_ideal_gas_fallback_for_species_outside_the_table_is_flagged():
     assert fb["C2H4"][2] == pytest.approx(1411.0, rel=5e-3)
     # the same route reproduces methane's tabulated value, so the fallback is consistent
     assert fallback_data(gas, ["CH4"], 25)["CH4"][2] == pytest.approx(ISO6976_2016["CH4"][2][25], rel=2e-3)
-
-
-def test_water_vaporisation_enthalpy_and_compression_factor():
-    assert L_WATER[15] == 44.431
-    assert compression_factor({"N2": 1.0}, {"N2": 0.0170}) == pytest.approx(1 - 0.0170 ** 2)

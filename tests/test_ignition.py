@@ -85,7 +85,6 @@ def test_premixer_columns_and_verdict(tmp_path):
     # 1000 K, 1 bar diluted hydrogen-air ignites within a fraction of a millisecond: a 5 ms
     # premixer would hold an autoigniting mixture
     assert hot["ignition_delay_ms"] < 5.0 and hot["autoignition_verdict"] == "autoignition risk"
-    assert hot["autoignition_margin"] == pytest.approx(hot["ignition_delay_ms"] / 5.0)
     assert "autoignition_margin" in (tmp_path / "out" / "results.csv").read_text().splitlines()[0]
     # the report's caveat is the one of the mechanism used (it printed GRI-Mech 3.0's whatever was used)
     from flamecharts.outputs.report import _premixer_section
@@ -96,7 +95,11 @@ def test_premixer_columns_and_verdict(tmp_path):
     from flamecharts.design import premixer_columns
     from flamecharts.sweep.points import points
 
-    assert hot["premixer_horizon_s"] == 1.5  # max(1 s, 100 x 3 x 5 ms)
+    # the reactor is integrated well past what the verdict needs: min margin x residence time
+    assert hot["premixer_horizon_s"] >= 3.0 * 5e-3
+    for r in (cold, hot):  # a risk exactly where the nearer of the two delays falls inside 3 residence times
+        near = min(r["autoignition_margin"], r["injection_autoignition_margin"])
+        assert (r["autoignition_verdict"] == "autoignition risk") == (near < 3.0), r
     p_hot = next(p for p in points(res.study) if p.T_u == 1000.0)
     assert premixer_columns(res.study, p_hot)["ignition_delay_ms"] == pytest.approx(hot["ignition_delay_ms"], rel=1e-12)
     # near the fuel injection: the shortest delay of phi 0.25-4 at the same T and p, never longer than
@@ -105,7 +108,6 @@ def test_premixer_columns_and_verdict(tmp_path):
 
     assert hot["injection_ignition_delay_ms"] <= hot["ignition_delay_ms"]
     assert hot["injection_equivalence_ratio"] in INJECTION_PHIS
-    assert hot["injection_autoignition_margin"] == pytest.approx(hot["injection_ignition_delay_ms"] / 5.0)
     assert math.isinf(cold["injection_ignition_delay_ms"])
 
 

@@ -185,7 +185,7 @@ def test_study_with_uncertainty_writes_bands_sensitivities_and_chart(tmp_path):
     assert "kinetic uncertainty, 1 sigma" in (tmp_path / "out" / "charts" / "flame_speed_vs_equivalence_ratio.svg").read_text()
     report = (tmp_path / "out" / "report.html").read_text()
     assert "± " in report and "kinetics (1σ)" in report and "numerics" in report
-    # by hand: sqrt(sum (s ln f / k)^2) over the grouped sensitivities of one point
+    # the variance shares of one point (s ln f / k)^2 over their sum: the ten largest carry most
     r = rows[0]
     mine = [s for s in sens if float(s["equivalence_ratio"]) == r["equivalence_ratio"]]
     share = sum(float(s["variance_share_percent"]) for s in mine)

@@ -170,8 +170,9 @@ def test_ethane_air_near_its_peak(tmp_path_factory):
 
 
 def test_hydrogen_air_stoichiometric(tmp_path):
-    # Hu, Huang, He, Jin & Zheng, Int. J. Hydrogen Energy 34 (2009) 4876, spherical
-    # bomb, 1 atm, 303 K: 211 +/- 11 cm/s (2 sigma). Stretch-corrected data of other
+    # Hu, Huang, He & Zheng, Int. J. Hydrogen Energy 34 (2009) 8741-8755 (hydrogen-air at
+    # elevated pressures and temperatures; pages from memory, see tests/test_mechanisms.py),
+    # spherical bomb, 1 atm, 303 K: 211 +/- 11 cm/s (2 sigma). Stretch-corrected data of other
     # laboratories reach about 230-240 cm/s (Egolfopoulos & Law 1990; from memory), and
     # h2o2.yaml (the H/O subset of GRI-Mech 3.0) is known to read about 10 % high.
     # Band: Hu's lower 2-sigma edge to 240 cm/s.
@@ -213,7 +214,6 @@ def test_flashback_gradient_rises_with_hydrogen_fraction(methane_hydrogen):
     # every hydrogen-blending flashback study since).
     g = [r["flashback_critical_gradient_1_s"] for r in methane_hydrogen]
     assert g[0] < g[1] < g[2]
-    assert [r["flame_speed_ratio"] for r in methane_hydrogen][0] == 1.0
 
 
 @pytest.fixture(scope="module")

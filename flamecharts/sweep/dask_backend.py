@@ -145,7 +145,7 @@ class ClusterSession:
         try:
             from distributed import Client, LocalCluster
         except ImportError:
-            raise ClusterError("--cluster needs dask.distributed: pip install 'dask[distributed]'") from None
+            raise ClusterError("--cluster needs Dask, which is an optional extra: pip install 'flamecharts[cluster]'") from None
         address, n = parse_spec(self.spec)
         if n is not None:
             try:
