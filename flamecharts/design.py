@@ -26,7 +26,8 @@ from .physics.rate_factors import RATE_FACTORS
 from .physics import mixtures
 from .physics import validity as val
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
-from .physics.limits import autoignition_verdict, flammability_warning, heavy_hydrocarbon_warning, pressure_warning
+from .physics.limits import (autoignition_verdict, flammability_warning, heavy_hydrocarbon_warning, pressure_warning,
+                             unsolved_autoignition_warning)
 
 
 def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
@@ -395,9 +396,11 @@ def lewis_warning(row: dict) -> str:
 
 
 def point_warnings(study, point, row: dict) -> str:
-    """All warnings of one point, joined by '; ' ('' when it is inside every range). A mixture that
-    autoignites is not warned of here: it is a status of its own (results.not_a_flame)."""
-    out = [pressure_warning(study.mechanism, point.pressure_bar),
+    """All warnings of one point, joined by '; ' ('' when it is inside every range). A flame that
+    turns out to be autoignition is not warned of here: it is a status of its own
+    (results.not_a_flame); a point whose flame failed is, when its mixture ignites on its own."""
+    out = [unsolved_autoignition_warning(row["status"], row.get("autoignition_screen_delay_s"), point.T_u),
+           pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
            instability_warning(row), lewis_warning(row)]

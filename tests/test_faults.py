@@ -409,6 +409,27 @@ def test_equivalence_ratio_outside_the_flammable_range_warns():
     assert flammability_warning({"CH4": 1.0}, {"O2": 1.0}, 0.3) == ""
 
 
+def test_a_failed_flame_keeps_the_autoignition_warning_of_its_mixture(tmp_path):
+    """A safety warning must not vanish with the flame: when the flame of an autoigniting
+    mixture gives no answer (here every flame runs out of a 0.05 s CPU-time limit), the
+    worker still screens the fresh mixture's ignition. Stoichiometric hydrogen-air at
+    1000 K, 1 bar ignites in about 0.3 ms (h2o2.yaml, constant-pressure reactor); 300 K
+    is below the screen's range."""
+    config = write_h2_study(tmp_path, fractions="[1.0]", phis="[1.0]", extra="flame_time_limit_s = 0.05")
+    config.write_text(config.read_text().replace("unburned_temperature_K = [300.0]",
+                                                 "unburned_temperature_K = [300.0, 1000.0]"))
+    study = load_study(config)
+    rows = {r["unburned_temperature_K"]: r for r in run_study(study, out_dir=tmp_path / "out", jobs=1).rows}
+    hot, cold = rows[1000.0], rows[300.0]
+    assert (hot["status"], hot["reason"]) == ("failed", "time limit") and cold["status"] == "failed"
+    assert hot["warnings"].startswith("autoignition: the fresh mixture ignites on its own in 0.")
+    assert 1e-4 < hot["autoignition_screen_delay_s"] < 1e-3 and "autoignition" not in cold["warnings"]
+    from flamecharts.outputs.report import write_report
+
+    html = write_report(study, list(rows.values()), tmp_path / "out").read_text()
+    assert "ignites on its own in" in html
+
+
 @pytest.mark.slow
 def test_an_autoigniting_mixture_is_not_a_flame_in_csv_and_report(tmp_path):
     """Stoichiometric hydrogen-air preheated to 1000 K ignites on its own in about 0.3 ms at

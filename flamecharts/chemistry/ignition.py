@@ -72,6 +72,27 @@ def autoignition_screen(mechanism_path: str, X: dict, T_u: float, P: float, S_L:
         return None
 
 
+def autoignition_screen_without_flame(mechanism_path: str, X: dict, T_u: float, P: float) -> float | None:
+    """Ignition delay [s] of the unburned mixture of a point whose flame gave no answer (failed:
+    time limit, not converged; or no flame), over AUTOIGNITION_MAX_TIME_S: without a flame
+    there is no transit time to compare with, and a mixture that ignites on its own is a
+    safety finding whatever the flame solve did. The rise that counts as ignition is
+    min(IGNITION_RISE_K, half the rise to HP equilibrium). inf beyond the window; None below
+    AUTOIGNITION_MIN_T_K or when it cannot be made. Workers store it with such points (metric
+    ``autoignition_screen_delay_s``)."""
+    if T_u < AUTOIGNITION_MIN_T_K:
+        return None
+    try:
+        gas = solution(mechanism_path)
+        gas.TPX = T_u, P, dict(X)
+        gas.equilibrate("HP")
+        rise = min(IGNITION_RISE_K, 0.5 * max(gas.T - T_u, 1.0))
+        X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
+        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), AUTOIGNITION_MAX_TIME_S, float(rise))
+    except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
+        return None
+
+
 def autoignition_reason(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
     """'' or why the mixture is not a flame: it autoignites within AUTOIGNITION_FACTOR flame
     transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K);

@@ -13,6 +13,7 @@ without solving a flame again. Each warning is one short sentence; a row's
 """
 from __future__ import annotations
 
+import math
 from functools import lru_cache
 from pathlib import Path
 
@@ -164,6 +165,23 @@ AIR_O2_MAX = 0.22
 def _file_name(mechanism: str) -> str:
     """The file name of a mechanism path (asked once per point: kept)."""
     return Path(mechanism).name
+
+
+def unsolved_autoignition_warning(status: str, delay_s: float | None, T_u: float) -> str:
+    """'' or a warning for a point whose flame gave no answer (status failed or no_flame) while
+    its fresh mixture ignites on its own within the screen's window (the worker's
+    ``autoignition_screen_delay_s``, chemistry.ignition.autoignition_screen_without_flame): the
+    failure must not hide that the mixture autoignites.
+
+    >>> unsolved_autoignition_warning("failed", 3.1e-4, 1000.0)[:61]
+    'autoignition: the fresh mixture ignites on its own in 0.31 ms'
+    >>> unsolved_autoignition_warning("ok", 3.1e-4, 1000.0), unsolved_autoignition_warning("failed", None, 1000.0)
+    ('', '')
+    """
+    if str(status) not in ("failed", "no_flame") or delay_s is None or not math.isfinite(delay_s):
+        return ""
+    return (f"autoignition: the fresh mixture ignites on its own in {delay_s * 1e3:.2g} ms at {T_u:g} K "
+            "(constant-pressure reactor), whatever its flame solve did: treat it as autoigniting")
 
 
 def pressure_warning(mechanism: str, pressure_bar: float) -> str:

@@ -9,6 +9,7 @@ to the run loop, a chart or the CLI leaves cluster workers compatible.
 from __future__ import annotations
 
 import hashlib
+import math
 import os
 import signal
 import threading
@@ -16,7 +17,7 @@ import time
 from pathlib import Path
 
 from ..chemistry.flame import NUMERICS, solve_flame
-from ..chemistry.ignition import autoignition_screen, ignition_delay_peak, premixer_horizon
+from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak, premixer_horizon
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
@@ -162,6 +163,10 @@ def solve_task(task: dict) -> dict:
                 m["premixer_horizon_s"] = task["premixer_horizon_s"]
             except Exception:  # noqa: BLE001 - the read-out tries again and says why in its column
                 pass
+    elif result.get("status") != "ok":  # no flame to answer with: the mixture's own ignition is still a finding
+        tau = autoignition_screen_without_flame(task["mechanism_path"], task["X"], task["T_u"], task["P"])
+        if tau is not None and math.isfinite(tau):
+            result["metrics"] = {"autoignition_screen_delay_s": tau}
     # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
     # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
     result["profile_blob"] = pack_profile(result.pop("profile", None))
