@@ -67,6 +67,47 @@ def test_charts_render_when_every_flame_failed(tmp_path):
     assert "adiabatic_flame_temperature_vs_equivalence_ratio" not in {f.stem for f in files}  # needs a flame
 
 
+def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tmp_path):
+    """One equivalence ratio, three blends, two pressures, with a burner and a blend-fraction
+    search: every panel of every chart drawn shows data or says in its frame why it cannot
+    (checked on each chart's own figure, before draw_all's last guard notes leftover empty
+    panels); the charts that need two equivalence ratios are not drawn at all."""
+    from flamecharts.outputs.charts.registry import CHARTS, ChartData
+    from flamecharts.outputs.charts.style import has_empty_note, shows_data
+
+    config = write_h2_study(tmp_path, fractions="[0.0, 0.5, 1.0]", phis="[0.8]", pressures="[1.0, 2.0]")
+    config.write_text(config.read_text() + BURNER.replace("5.0", "40.0") + "\n[limits]\ncriteria = ['flashback']\n")
+    study = load_study(config)
+    rows = run_study(study, out_dir=tmp_path / "o", jobs=2).rows
+    limits = read_limits(study, rows, tmp_path / "o")
+    data = ChartData(rows=rows, gases=fuel_gas_table(study), dataset=to_dataset(study, rows), limits=limits)
+    drawn = set()
+    for c in CHARTS:
+        if not c.when(data, study):
+            continue
+        fig = c.draw(data, study)
+        drawn.add(c.name)
+        panels = [ax for ax in fig.axes if ax.get_visible() and ax.axison]
+        assert panels, c.name
+        for ax in panels:
+            assert shows_data(ax) or has_empty_note(ax), f"{c.name}: '{ax.get_title()}' is an empty frame"
+    assert {"blend_comparison", "admissible_limits", "flashback_chart", "flame_speed_vs_equivalence_ratio"} <= drawn
+    assert "operating_window" not in drawn  # a map over phi needs two of them
+    notes = [t.get_text() for t in plt_figure_texts(CHARTS, data, study, "blend_comparison")]
+    assert any("this study sweeps one equivalence ratio" in t for t in notes)
+    # the report says which charts it leaves out, and why
+    from flamecharts.outputs.report import write_report
+
+    draw_all(rows, fuel_gas_table(study), study, tmp_path / "o", limits=limits)
+    html = write_report(study, rows, tmp_path / "o").read_text()
+    assert "Not drawn for this study: " in html and "operating_window (it maps two axes" in html
+
+
+def plt_figure_texts(charts, data, study, name):
+    fig = next(c for c in charts if c.name == name).draw(data, study)
+    return [t for ax in fig.axes for t in ax.texts]
+
+
 def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(study_rows):
     import matplotlib.pyplot as plt
     from flamecharts.outputs.charts import CHARTS, ChartData

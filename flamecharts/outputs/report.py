@@ -25,6 +25,7 @@ from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
+from .charts.registry import not_drawn
 from .tables import uncertainty_settings, write_atomic
 
 CSS = """
@@ -627,10 +628,15 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts += _premixer_section(study, rows)
 
     parts.append("<h2>Charts</h2>")
+    drawn = set()
     for name, caption in CAPTIONS.items():
         svg = out_dir / "charts" / f"{name}.svg"
         if svg.is_file():
+            drawn.add(name)
             parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
+    if drawn and (skipped := not_drawn(drawn)):
+        parts.append("<p>Not drawn for this study: " + "; ".join(f"{_e(n)} ({_e(why)})" for n, why in skipped)
+                     + ".</p>")
 
     failed, more = _first([r for r in rows if r["status"] != "ok"], "results.csv (status, message)")
     if failed:

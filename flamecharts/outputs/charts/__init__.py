@@ -23,6 +23,7 @@ from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
 from . import mechanism_charts  # noqa: F401,I001
 from .registry import CHARTS, ChartData
+from .style import note_empty_panels
 
 #: chart file name -> one-line caption of how to read it (the report prints it)
 CAPTIONS = {c.name: c.caption for c in CHARTS}
@@ -42,6 +43,7 @@ def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset:
         if not c.when(data, study):
             continue
         fig = c.draw(data, study)
+        note_empty_panels(fig, "no point of the study gives a value for this panel (every point is in results.csv)")
         for ext in ("png", "svg"):
             path = charts_dir / f"{c.name}.{ext}"
             fig.savefig(path, dpi=130 if ext == "png" else None)

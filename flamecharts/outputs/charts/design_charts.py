@@ -20,7 +20,7 @@ from ...columns import gas_label
 from ...physics.fits import fit_power_law
 from .registry import (MAX_PANELS, burning_blends, chart, conditions_note, has_margins, has_window, several_blends,
                        spread, thinned_note, varies_p_or_T)
-from .style import MARKERS, colour_scale, curves as fuel_keys, figure, finish, ok_rows, phi_near_one, plain_log_ticks, sparse_log_yticks
+from .style import MARKERS, colour_scale, curves as fuel_keys, empty_note, figure, finish, ok_rows, phi_near_one, plain_log_ticks, sparse_log_yticks
 
 
 @chart("pressure_and_preheat_dependence",
@@ -114,6 +114,7 @@ def blend_chart(data, study):
     colours = colour_scale(len(phis))
     fig, axes = figure(2, nrows=2 * len(shown), width=5.0, height=3.3)
     handles = {}
+    at_equal_T = 0  # panels with an equal-temperature curve
     for k, (fuel, ox, P, T) in enumerate(shown):
         ok = by_condition[(fuel, ox, P, T)]
         fracs = sorted({r["blend_fraction"] for r in ok})
@@ -138,21 +139,30 @@ def blend_chart(data, study):
         peak = int(np.argmax([r["adiabatic_flame_temperature_K"] for r in base])) if base else 0
         targets = spread([r["adiabatic_flame_temperature_K"] for r in base[:peak + 1]], MAX_PHI_CURVES)
         greys = [str(g) for g in np.linspace(0.0, 0.6, max(len(targets), 1))]
+        drawn = 0
         for ti, t in enumerate(targets):
             S = np.array([_interp_at_fixed_tad([r for r in ok if r["blend_fraction"] == f], [t])[0] for f in fracs])
             if np.isfinite(S).sum() < 2:
                 continue  # one blend reaches this temperature on its lean side: no comparison to draw
             ax.plot([100 * f for f in fracs], 100 * S, color=greys[ti], marker="s", lw=1.4, markersize=4,
                     linestyle="--")
+            drawn += 1
             ax.annotate(f"{t:.0f} K", (100 * fracs[np.flatnonzero(np.isfinite(S))[-1]], 100 * S[np.isfinite(S)][-1]),
                         textcoords="offset points", xytext=(4, 0), fontsize=7, color=greys[ti], va="center")
+        ax.set_title(f"{where}: at equal flame temperature", fontsize=9)
+        if not drawn:
+            empty_note(ax, "S_L at equal flame temperature is read between the equivalence ratios of each blend, "
+                       "so it needs at least two blends reaching the same T_ad on their lean side"
+                       + (" (this study sweeps one equivalence ratio)" if len(all_phis) < 2 else ""))
+            continue
+        at_equal_T += 1
         ax.margins(x=0.14)  # room for the temperature labels at the right end
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel("S_L at fixed T_ad [cm/s]")
-        ax.set_title(f"{where}: at equal flame temperature", fontsize=9)
         ax.grid(True, color="0.9", lw=0.6)
-    handles["S_L at a fixed T_ad (grey, dashed;\nT_ad of the unblended gas on its lean side)"] = Line2D(
-        [], [], color="0.3", marker="s", linestyle="--")
+    if at_equal_T:
+        handles["S_L at a fixed T_ad (grey, dashed;\nT_ad of the unblended gas on its lean side)"] = Line2D(
+            [], [], color="0.3", marker="s", linestyle="--")
     blocks = ("" if len(conditions) == len(shown) else
               f"{len(shown)} of {len(conditions)} fuel/condition blocks (evenly spread, first and last)")
     note = thinned_note({"equivalence_ratio": phis}, {"equivalence_ratio": all_phis}, (blocks,))

@@ -175,6 +175,25 @@ def has_window(data, study) -> bool:
     return has_margins(data, study) and several_blends(data, study) and len(study.equivalence_ratios) > 1
 
 
+#: Why a chart whose condition depends on the sweep's shape was not drawn (the report lists
+#: them; charts of tables the study did not ask for, [stretch] say, are not listed).
+SHAPE_WHY = {
+    "any_flame": "no point of the study burns",
+    "varies_p_or_T": "it needs flames at two or more pressures or preheats",
+    "several_blends": "it needs a blend axis with two or more fractions",
+    "burning_blends": "it needs a blend axis with two or more fractions and a burning flame",
+    "has_margins": "it needs a [burner] and a point with a flashback margin",
+    "has_window": "it maps two axes, so it needs a [burner] with margins, two or more blend fractions and "
+                  "two or more equivalence ratios",
+}
+
+
+def not_drawn(drawn: set[str]) -> list[tuple[str, str]]:
+    """(chart name, why) of the charts missing from ``drawn`` because of the sweep's shape."""
+    return [(c.name, SHAPE_WHY[c.when.__name__]) for c in CHARTS
+            if c.name not in drawn and c.when.__name__ in SHAPE_WHY]
+
+
 def chart(name: str, caption: str, when: Callable = always):
     """Register the decorated ``draw(data, study)`` as chart ``name``."""
     def register(draw):

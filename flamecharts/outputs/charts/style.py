@@ -70,6 +70,49 @@ def finish(fig, study, title: tuple[str, str], handles: dict, legend_title: str)
     return fig
 
 
+#: How a panel with nothing to show starts its note (tests look for it).
+EMPTY_NOTE = "Nothing to show here"
+
+
+def empty_note(ax, reason: str) -> None:
+    """Say in the panel's own frame why it is empty (instead of an empty frame with a
+    meaningless axis): its ticks go, the reason is written across the middle."""
+    ax.set_xticks([])
+    ax.set_yticks([])
+    ax.text(0.5, 0.5, textwrap.fill(f"{EMPTY_NOTE}: {reason}", 48), transform=ax.transAxes, ha="center",
+            va="center", fontsize=9, color="0.35", wrap=True)
+
+
+def shows_data(ax) -> bool:
+    """Whether a panel draws any data: a line or marker with a finite point in data
+    coordinates, a filled or scattered collection, a bar, or an image. Reference lines across
+    the panel (axhline, axvline, spans) do not count: they mark the axes, not results."""
+    for line in ax.get_lines():
+        xy = np.asarray(line.get_xydata(), dtype=float)
+        if line.get_transform() == ax.transData and xy.size and np.isfinite(xy).all(axis=1).any():
+            return True
+    for c in ax.collections:
+        if c.get_transform() == ax.transData and (len(c.get_offsets()) or any(len(p.vertices) for p in c.get_paths())):
+            return True
+    return bool(ax.images) or any(p.get_data_transform() == ax.transData for p in ax.patches)
+
+
+def has_empty_note(ax) -> bool:
+    return any(t.get_text().startswith(EMPTY_NOTE) for t in ax.texts)
+
+
+def note_empty_panels(fig, reason: str) -> int:
+    """Give every visible panel of ``fig`` that shows no data and has no note yet a note with
+    ``reason`` (the last guard of draw_all: no chart leaves an empty frame unexplained);
+    returns how many it noted. Legend-only and hidden axes are left alone."""
+    n = 0
+    for ax in fig.axes:
+        if ax.get_visible() and ax.axison and not shows_data(ax) and not has_empty_note(ax):
+            empty_note(ax, reason)
+            n += 1
+    return n
+
+
 def colour_scale(n):
     return plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(n, 1)))
 
