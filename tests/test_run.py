@@ -152,8 +152,37 @@ def test_check_prints_the_plan_and_writes_nothing(tmp_path, cli):
     # blend fractions 0 and 0.5 lie 5 distance units apart: one flame from scratch for each
     assert "Plan: 6 points; 0 already stored" in r.stdout
     assert "6 to solve: 2 from scratch, 4 warm-started from a neighbour" in r.stdout
-    assert "Estimated run time: about" in r.stdout
+    assert "Estimated sweep: about" in r.stdout
+    assert "Estimated total: about" in r.stdout and "cores free for this run" in r.stdout
     assert not (tmp_path / "output").exists()
+
+
+def test_check_totals_a_big_study_and_says_it_is_a_job_for_a_cluster(tmp_path, cli):
+    """8,080 GRI-Mech 3.0 flames at the fine resolution: the estimate gives one total with what it
+    assumes, and says it is more than a workstation's day (a new user's study printed three
+    partial figures and no total)."""
+    config = tmp_path / "big.toml"
+    config.write_text("""
+mechanism = "gri30.yaml"
+resolution = "fine"
+[fuels]
+methane = { CH4 = 1.0 }
+[oxidizers]
+air = { O2 = 1.0, N2 = 3.76 }
+[sweep]
+fuel = ["methane"]
+oxidizer = ["air"]
+equivalence_ratio = { from = 0.5, to = 1.5, step = 0.01 }
+pressure_bar = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20]
+unburned_temperature_K = [300, 400, 500, 600]
+[uncertainty]
+""")
+    r = cli("check", config, "--jobs", "2", cwd=tmp_path)
+    assert r.returncode == 0, r.stderr
+    assert "Plan: 8080 points" in r.stdout
+    total = next(line for line in r.stdout.splitlines() if line.startswith("Estimated total: about"))
+    assert "assuming 2 cores free" in total and "run it on a cluster" in total, total
+    assert "h of work on this machine" in total or "days of work on this machine" in total
 
 
 def test_a_second_run_on_the_same_folder_is_refused(tmp_path):

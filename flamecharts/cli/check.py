@@ -15,7 +15,9 @@ from ..store import DB_NAME, Store, stored_keys
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
-from ..sweep.schedule import estimate_run_seconds, flame_seconds
+from ..chemistry.mechanism import reaction_equations
+from ..sweep.schedule import (CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds,
+                              sensitivity_seconds)
 from ..sweep.warm_tree import warm_tree
 from .tables import print_burner, print_gases, print_points
 
@@ -45,11 +47,34 @@ def cmd_check(args) -> int:
         print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
               f"the first, {subs[0].mechanism}, is the reference of the design charts")
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
-    if len(subs) > 1 and sum(seconds):
-        t = sum(seconds)
-        print(f"Estimated run time of the sweeps under all {len(subs)} mechanisms: about "
-              + (f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"))
+    print(_total_line(sum(seconds), resolve_jobs(args.jobs), len(subs)))
     return 0
+
+
+def duration(t: float) -> str:
+    """'45 s', '12 min', '3.5 h', '2.1 days'.
+
+    >>> duration(45), duration(720), duration(3.5 * 3600), duration(50 * 3600)
+    ('45 s', '12 min', '3.5 h', '2.1 days')
+    """
+    if t < 120:
+        return f"{t:.0f} s"
+    if t < 2 * 3600:
+        return f"{t / 60:.0f} min"
+    if t < 48 * 3600:
+        return f"{t / 3600:.1f} h"
+    return f"{t / 86400:.1f} days"
+
+
+def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
+    """The whole estimate in one line: what it assumes, and where a study is too big for this machine."""
+    every = f" under all {n_mechanisms} mechanisms" if n_mechanisms > 1 else ""
+    line = (f"Estimated total{every}: about {duration(t)} (the sweep, limits and extra solves above), assuming "
+            f"{jobs} core{'s' if jobs > 1 else ''} free for this run: a busy machine takes longer")
+    if t > CLUSTER_ADVICE_S:
+        line += (f". That is {duration(t)} of work on this machine: run it on a cluster (--cluster; README, "
+                 "'Running on a cluster'), or plan fewer points or a coarser resolution")
+    return line
 
 
 def _plan(study, out: Path, keys: set, jobs) -> float:
@@ -81,36 +106,52 @@ def _plan(study, out: Path, keys: set, jobs) -> float:
     if todo:
         line, seconds = _estimate_line(study, tree, timings, jobs)
         print(line)
-    _extras_lines(study, timings, jobs, len(unique))
-    return seconds
+    return seconds + _extras_lines(study, timings, jobs, len(todo))
 
 
-def _extras_lines(study, timings: dict, jobs, n_unique: int) -> None:
-    """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add."""
+def _extras_lines(study, timings: dict, jobs, n_todo: int) -> float:
+    """Print what the study's [limits], [stretch], [uncertainty] and [flame_response] tables add,
+    each with its estimate; return their seconds. Extras of points already stored are not
+    solved again, so only the points still to solve count (an upper bound: points that turn
+    out not to burn need none)."""
+    jobs = resolve_jobs(jobs)
+    n_sp = len(study.atoms)
+    secs, _ = flame_seconds(n_sp, timings, study.resolution)
+    total = 0.0
     if study.limits is not None:
-        print(_limits_line(study, timings, jobs))
+        line, t = _limits_line(study, timings, jobs)
+        print(line)
+        total += t
     if study.stretch is not None:
         st = study.stretch
+        t = st.n_ladders * ladder_seconds(n_sp) / min(jobs, st.n_ladders)
+        total += t
         print(f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
-              f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep "
-              f"(measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with GRI-Mech 3.0; "
-              "not in the estimate above); stored ladders are not solved again")
+              f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep: "
+              f"about {duration(t)} (measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with "
+              "GRI-Mech 3.0); stored ladders are not solved again")
     u = study.uncertainty
     if u is not None and u.kinetics:
+        t = n_todo * sensitivity_seconds(n_sp, len(reaction_equations(study.mechanism_path)), study.resolution) / jobs
+        total += t
         print(f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
-              f"{n_unique} adjoint solves after the sweep, each the stored flame solved again on its grid; "
-              "measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0; not in the estimate "
-              "above); stored ones are not solved again, and changing a factor solves nothing")
+              f"{n_todo} adjoint solves after the sweep, each the stored flame solved again on its grid): about "
+              f"{duration(t)} (measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0); stored "
+              "ones are not solved again, and changing a factor solves nothing")
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
+        t = 2 * n_todo * secs["warm"] / jobs
+        total += t
         print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-              f"burning point (up to {2 * n_unique} flames, the inert moved {fr.inert_step:g} either way, "
-              "warm-started from the point's stored flame after the sweep: measured +55-100 % of the sweep's "
-              "time, not in the estimate above); pairs already stored are not solved again")
+              f"burning point (up to {2 * n_todo} flames, the inert moved {fr.inert_step:g} either way, "
+              f"warm-started from the point's stored flame after the sweep): about {duration(t)}; pairs already "
+              "stored are not solved again")
+    return total
 
 
-def _limits_line(study, timings: dict, jobs) -> str:
-    """What the [limits] table asks for and about how many flames beyond the sweep it needs."""
+def _limits_line(study, timings: dict, jobs) -> tuple[str, float]:
+    """What the [limits] table asks for and about how many flames beyond the sweep it needs, and
+    their estimated seconds."""
     plan = planned_searches(study)
     lim = study.limits
     asks = []
@@ -123,23 +164,19 @@ def _limits_line(study, timings: dict, jobs) -> str:
                     + (f"; the sweep has one phi ({study.equivalence_ratios[0]:g}): that search can only say whether "
                        "it is admissible, sweep more to find the window's edges"
                        if len(study.equivalence_ratios) == 1 else ""))
-    secs, _ = flame_seconds(len(study.atoms), timings)
+    secs, _ = flame_seconds(len(study.atoms), timings, study.resolution)
     t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)
-    keep = kept(study)
-    return (f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "
-            f"(warm-started, about {t / 60:.0f} min; stored flames are not solved again)" if t >= 120 else
-            f"Limits: {' and '.join(asks)}, keeping {keep}: about {plan['flames']} flames beyond the sweep "
-            f"(warm-started, about {t:.0f} s; stored flames are not solved again)")
+    return (f"Limits: {' and '.join(asks)}, keeping {kept(study)}: about {plan['flames']} flames beyond the sweep "
+            f"(warm-started, about {duration(t)}; stored flames are not solved again)"), t
 
 
 def _estimate_line(study, tree, timings: dict, jobs) -> tuple[str, float]:
     """'Estimated run time ...' from stored timings of the same settings, else from the mechanism
     size, and the estimate [s]."""
     jobs = resolve_jobs(jobs)
-    secs, basis = flame_seconds(len(study.atoms), timings)
+    secs, basis = flame_seconds(len(study.atoms), timings, study.resolution)
     t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
-    when = f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"
-    return (f"Estimated run time: about {when} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
+    return (f"Estimated sweep: about {duration(t)} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
             f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)"), t
 
 

@@ -225,7 +225,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
     todo = [p for p in unique if p.key not in done_keys]
     out = SolveOutcome(reused=len(pts) - sum(1 for p in pts if p.key not in done_keys))
     loop = _Loop(study, store, unique, todo, backend, uuid.uuid4().hex[:12], sources)
-    secs, _ = flame_seconds(len(study.atoms), store.timings({p.family for p in unique}))
+    secs, _ = flame_seconds(len(study.atoms), store.timings({p.family for p in unique}), study.resolution)
     cost = {p.index: flame_cost(loop.tree, p.index, secs) for p in todo}
     total_cost, cost_done = sum(cost.values()) or 1.0, 0.0
     estimate = estimate_run_seconds(loop.tree.pending(set(cost), {p.index: p.key for p in unique}),

@@ -71,21 +71,30 @@ class Scheduler:
 #: that a faster machine sees an overestimate rather than a surprise (docs/benchmarks.md).
 SECONDS_PER_VARIABLE_SQUARED = {"fresh": 9.0e-3, "warm": 2.2e-3}
 
+#: Cost of a flame at each resolution relative to the standard one, where the store has no
+#: timings of the study's settings: medians of the 22 flames of
+#: tests/benchmarks/error_bar_validation.py solved at every setting from scratch (coarse 0.48,
+#: range 0.29-1.28; fine 1.40, range 1.09-2.96; 2026-12-05, docs/benchmarks.md).
+RESOLUTION_COST = {"coarse": 0.5, "standard": 1.0, "fine": 1.4}
 #: Worker start-up and mechanism parsing per run [s] (an allowance; docs/benchmarks.md).
 START_UP_SECONDS = 2.0
 
 
-def default_flame_seconds(n_species: int) -> dict[str, float]:
-    """Seconds per flame solved fresh and warm on one core, from the mechanism size.
+def default_flame_seconds(n_species: int, resolution: str = "standard") -> dict[str, float]:
+    """Seconds per flame solved fresh and warm on one core, from the mechanism size and the
+    resolution (:data:`RESOLUTION_COST`).
 
     >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
     {'fresh': 29.2, 'warm': 7.1}
+    >>> {k: round(v, 1) for k, v in default_flame_seconds(53, "coarse").items()}
+    {'fresh': 14.6, 'warm': 3.6}
     """
-    nv2 = (n_species + 4) ** 2
+    nv2 = (n_species + 4) ** 2 * RESOLUTION_COST.get(resolution, 1.0)
     return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
 
 
-def flame_seconds(n_species: int, timings: dict[str, list[float]]) -> tuple[dict[str, float], str]:
+def flame_seconds(n_species: int, timings: dict[str, list[float]],
+                  resolution: str = "standard") -> tuple[dict[str, float], str]:
     """Seconds per flame ('fresh', 'warm') on one core and where they come from: the median of
     the store's timings of the same settings where it holds at least 3 of a kind, else
     :func:`default_flame_seconds` of the mechanism size.
@@ -94,10 +103,10 @@ def flame_seconds(n_species: int, timings: dict[str, list[float]]) -> tuple[dict
     >>> secs["fresh"], basis
     (2.0, 'from 4 stored timings')
     """
-    secs = default_flame_seconds(n_species)
+    secs = default_flame_seconds(n_species, resolution)
     measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
     if not measured:
-        return secs, f"from the mechanism size, {n_species} species"
+        return secs, f"from the mechanism size, {n_species} species, and the {resolution} resolution"
     secs.update(measured)
     return secs, f"from {sum(len(v) for v in timings.values())} stored timings"
 
@@ -105,6 +114,42 @@ def flame_seconds(n_species: int, timings: dict[str, list[float]]) -> tuple[dict
 def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float]) -> float:
     """Estimated seconds of point ``i`` of ``plan``: from scratch for a root without a stored source."""
     return secs["fresh"] if (plan.parent[i] is None and i not in plan.stored) else secs["warm"]
+
+
+#: Cost of one sensitivity task (the stored flame solved again on its grid, then Cantera's
+#: adjoint, whose cost is the residual evaluated twice per reaction) per reaction and per
+#: variable of a grid point [s]: measured 0.37-0.48 s with h2o2.yaml (29 reactions, 10
+#: species), 17.6 s with GRI-Mech 3.0 (325, 53), 13.9-16.9 s with Alzueta et al. 2023 (281,
+#: 42) on 2 cores (docs/benchmarks.md, "Kinetic sensitivities").
+SENSITIVITY_SECONDS = 1.1e-3
+#: One strained flame of a [stretch] ladder [s] with h2o2.yaml (20 flames in 18 s), and the
+#: power of (species + 4) that reaches GRI-Mech 3.0's 44 s a flame (15 in 11 min) from it
+#: (docs/benchmarks.md, "Flame response and strained flames"); a ladder is about
+#: LADDER_FLAMES flames.
+STRAINED_FLAME_SECONDS, STRAINED_FLAME_POWER, LADDER_FLAMES = 0.9, 2.77, 20
+
+
+def sensitivity_seconds(n_species: int, n_reactions: int, resolution: str = "standard") -> float:
+    """Seconds of one point's flame-speed sensitivities (adjoint) on one core, on the grid of
+    the study's resolution (:data:`RESOLUTION_COST`).
+
+    >>> round(sensitivity_seconds(10, 29), 2), round(sensitivity_seconds(53, 325), 1)
+    (0.45, 20.4)
+    """
+    return SENSITIVITY_SECONDS * n_reactions * (n_species + 4) * RESOLUTION_COST.get(resolution, 1.0)
+
+
+def ladder_seconds(n_species: int) -> float:
+    """Seconds of one strained-flame ladder to extinction on one core.
+
+    >>> round(ladder_seconds(10)), round(ladder_seconds(53))
+    (18, 880)
+    """
+    return LADDER_FLAMES * STRAINED_FLAME_SECONDS * ((n_species + 4) / 14.0) ** STRAINED_FLAME_POWER
+
+
+#: Above this much estimated wall time, `check` says the study is a job for a cluster [s].
+CLUSTER_ADVICE_S = 8 * 3600.0
 
 
 #: A flame gets this many times its estimated cost from scratch before it is given up ...
