@@ -7,7 +7,7 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import planned_searches
 from ..admissible.words import kept
-from .progress import plural
+from .progress import duration, plural
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
@@ -49,21 +49,6 @@ def cmd_check(args) -> int:
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
     print(_total_line(sum(seconds), resolve_jobs(args.jobs), len(subs)))
     return 0
-
-
-def duration(t: float) -> str:
-    """'45 s', '12 min', '3.5 h', '2.1 days'.
-
-    >>> duration(45), duration(720), duration(3.5 * 3600), duration(50 * 3600)
-    ('45 s', '12 min', '3.5 h', '2.1 days')
-    """
-    if t < 120:
-        return f"{t:.0f} s"
-    if t < 2 * 3600:
-        return f"{t / 60:.0f} min"
-    if t < 48 * 3600:
-        return f"{t / 3600:.1f} h"
-    return f"{t / 86400:.1f} days"
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:

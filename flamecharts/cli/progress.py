@@ -22,16 +22,18 @@ def plural(n: int, word: str) -> str:
 
 
 def duration(seconds: float) -> str:
-    """'45 s', '3 min', '2 h 5 min'.
+    """'45 s', '3 min', '2 h 5 min', '2.1 days'.
 
-    >>> duration(45.2), duration(200), duration(4800), duration(7500)
-    ('45 s', '3 min', '80 min', '2 h 5 min')
+    >>> duration(45.2), duration(200), duration(4800), duration(7500), duration(50 * 3600)
+    ('45 s', '3 min', '80 min', '2 h 5 min', '2.1 days')
     """
     if seconds < 90:
         return f"{seconds:.0f} s"
     if seconds < 5400:
         return f"{seconds / 60:.0f} min"
-    return f"{seconds // 3600:.0f} h {seconds % 3600 / 60:.0f} min"
+    if seconds < 48 * 3600:
+        return f"{seconds // 3600:.0f} h {seconds % 3600 / 60:.0f} min"
+    return f"{seconds / 86400:.1f} days"
 
 
 class ProgressDisplay:
@@ -81,7 +83,7 @@ class ProgressDisplay:
             self._last_line_t, self._last_line_done = now, pr.done
             print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.total} flames to solve, "
                   f"{pr.reused} from the store"
-                  + (f"; estimated {duration(pr.estimate_s)}" if pr.estimate_s is not None else ""),
+                  + (f"; estimated {duration(pr.estimate_s)} with the cores free" if pr.estimate_s is not None else ""),
                   file=self.stream, flush=True)
             return
         step = max(1, round(LINE_EVERY_SHARE * pr.total))
