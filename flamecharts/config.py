@@ -606,10 +606,10 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
         raise ConfigError("'uncertainty' must be a table")
     _check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
     flags = {}
-    for key, default in (("kinetics", True), ("error_bars", False)):
-        flags[key] = t.get(key, default)
-        if not isinstance(flags[key], bool):
-            raise ConfigError(f"'uncertainty.{key}' must be true or false, got {show(flags[key])}")
+    for flag, unset in (("kinetics", True), ("error_bars", False)):
+        flags[flag] = t.get(flag, unset)
+        if not isinstance(flags[flag], bool):
+            raise ConfigError(f"'uncertainty.{flag}' must be true or false, got {show(flags[flag])}")
     default = _number(t["default_factor"], "uncertainty.default_factor") if "default_factor" in t else None
     if default is not None and not 1.0 <= default <= MAX_RATE_FACTOR:
         raise ConfigError(f"'uncertainty.default_factor' is {default:g}; allowed: 1 to {MAX_RATE_FACTOR:g} (a "
@@ -626,8 +626,10 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
     by_key = {reaction_key(e): e for e in equations}
     names = (f"{Path(mech_paths[0]).name} does not have" if len(mech_paths) == 1 else
              "neither " + " nor ".join(Path(path).name for path in mech_paths) + " has")
-    factors, named = [], {}
+    factors: list[tuple[str, float]] = []
+    named: dict[str, str] = {}
     for eq, f in given.items():
+        key: str | None
         try:
             key = reaction_key(eq)
         except ValueError:
