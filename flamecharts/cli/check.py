@@ -1,13 +1,14 @@
 """flamecharts check CONFIG: validate a config and print the plan and its estimated run time."""
 from __future__ import annotations
 
+import argparse
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from ..chemistry.flame import NUMERICS
-from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import planned_searches
 from ..admissible.words import kept
-from .progress import plural
+from ..chemistry.flame import NUMERICS
+from ..chemistry.strained import MAX_SOLVES
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
@@ -17,13 +18,18 @@ from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
 from ..sweep.schedule import estimate_run_seconds, flame_seconds
 from ..sweep.warm_tree import warm_tree
+from .progress import plural
 from .tables import print_burner, print_gases, print_points
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from ..sweep.warm_tree import WarmPlan
 
 #: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
 GRI_LADDER_NOTE = "30-60 s a strained flame, stoichiometric methane-air 15 flames in 11 min"
 
 
-def cmd_check(args) -> int:
+def cmd_check(args: argparse.Namespace) -> int:
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
     keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
@@ -45,14 +51,14 @@ def cmd_check(args) -> int:
         print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
               f"the first, {subs[0].mechanism}, is the reference of the design charts")
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
-    if len(subs) > 1 and sum(seconds):
-        t = sum(seconds)
+    t = sum(seconds)
+    if len(subs) > 1 and t:
         print(f"Estimated run time of the sweeps under all {len(subs)} mechanisms: about "
               + (f"{t / 60:.0f} min" if t >= 120 else f"{t:.0f} s"))
     return 0
 
 
-def _plan(study, out: Path, keys: set, jobs) -> float:
+def _plan(study: Study, out: Path, keys: set, jobs: int | None) -> float:
     """Print one mechanism's plan (its stored points, what is left, the extras asked for); return
     the estimated seconds of its sweep (0 when nothing is left)."""
     pts = points(study)
@@ -85,7 +91,7 @@ def _plan(study, out: Path, keys: set, jobs) -> float:
     return seconds
 
 
-def _extras_lines(study, timings: dict, jobs, n_unique: int) -> None:
+def _extras_lines(study: Study, timings: dict, jobs: int | None, n_unique: int) -> None:
     """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add."""
     if study.limits is not None:
         print(_limits_line(study, timings, jobs))
@@ -109,10 +115,11 @@ def _extras_lines(study, timings: dict, jobs, n_unique: int) -> None:
               "time, not in the estimate above); pairs already stored are not solved again")
 
 
-def _limits_line(study, timings: dict, jobs) -> str:
+def _limits_line(study: Study, timings: dict, jobs: int | None) -> str:
     """What the [limits] table asks for and about how many flames beyond the sweep it needs."""
     plan = planned_searches(study)
     lim = study.limits
+    assert lim is not None  # asked only of a study with [limits]
     asks = []
     if plan["blend_fraction"]:
         asks.append(f"the admissible {study.blend_with} fractions (both edges of every window) at "
@@ -132,7 +139,7 @@ def _limits_line(study, timings: dict, jobs) -> str:
             f"(warm-started, about {t:.0f} s; stored flames are not solved again)")
 
 
-def _estimate_line(study, tree, timings: dict, jobs) -> tuple[str, float]:
+def _estimate_line(study: Study, tree: WarmPlan, timings: dict, jobs: int | None) -> tuple[str, float]:
     """'Estimated run time ...' from stored timings of the same settings, else from the mechanism
     size, and the estimate [s]."""
     jobs = resolve_jobs(jobs)
