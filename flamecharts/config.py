@@ -89,10 +89,11 @@ STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pres
 #: Most strained-flame ladders one study may ask for (each is 10-40 flames).
 MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
-from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 from .chemistry.mechanism import reaction_equations  # noqa: E402
+from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
 from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
+
 #: Default required autoignition margin (ignition delay over premixer residence time;
 #: common practice without source: set your own).
 DEFAULT_MIN_AUTOIGNITION_MARGIN = 3.0
@@ -279,16 +280,16 @@ class Study:
     config_path: str | None = None
     raw: dict = field(default_factory=dict, repr=False, compare=False)
     reference_fuel: str | None = None
-    burner: "Burner | None" = None
-    gas_quality: "GasQuality" = None  # type: ignore[assignment]
+    burner: Burner | None = None
+    gas_quality: GasQuality = None  # type: ignore[assignment]  # study_from_dict always sets it (_design_tables)
     indicator_settings: dict = field(default_factory=dict)
     cluster: str | None = None   # Dask scheduler address or "local:N"; None: local processes
-    limits: "Limits | None" = None
-    premixer: "Premixer | None" = None
+    limits: Limits | None = None
+    premixer: Premixer | None = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
-    flame_response: "FlameResponse | None" = None
-    stretch: "Stretch | None" = None
-    uncertainty: "Uncertainty | None" = None
+    flame_response: FlameResponse | None = None
+    stretch: Stretch | None = None
+    uncertainty: Uncertainty | None = None
     #: Several mechanisms to compare (the first is the one above); () when the study has one.
     mechanisms: tuple[MechanismChoice, ...] = ()
 
@@ -529,7 +530,7 @@ def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str,
     return tuple(dict.fromkeys(items))
 
 
-def _limits(t: Any, burner: "Burner | None", blend_with: str | None, gas_quality: "GasQuality") -> Limits:
+def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: GasQuality) -> Limits:
     """The [limits] table: checked against the burner and the sweep it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")

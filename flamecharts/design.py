@@ -20,14 +20,10 @@ from .chemistry.mechanism import fallback_data, molar_masses, reaction_equations
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
-from .physics import flame_response as fr
-from .physics import indicators as ind
-from .physics import kinetic_uncertainty as ku
-from .physics.rate_factors import RATE_FACTORS
-from .physics import mixtures
-from .physics import validity as val
+from .physics import flame_response as fr, indicators as ind, kinetic_uncertainty as ku, mixtures, validity as val
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
 from .physics.limits import autoignition_verdict, flammability_warning, heavy_hydrocarbon_warning, pressure_warning
+from .physics.rate_factors import RATE_FACTORS
 
 if TYPE_CHECKING:
     from .config import Burner, Study
@@ -503,7 +499,8 @@ def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
     relative difference of its flame speed and thermal thickness, in % of the reference's
     (columns.COMPARISON_COLUMNS), the numerical error of the flame-speed difference (both
     flames' grid bands in quadrature, scaled to the ratio: d(S/S0)/(S/S0) = sqrt(e^2 + e0^2)
-    for independent errors) and the reference's 1-sigma kinetic band when the study asks for one. One row per point and other mechanism, in the study's order."""
+    for independent errors) and the reference's 1-sigma kinetic band when the study asks for one. One row
+    per point and other mechanism, in the study's order."""
     ref = {tuple(r[a] for a in POINT_AXES): r for r in rows
            if r.get("mechanism") == names[0] and r["status"] == "ok"}
     out = []

@@ -27,18 +27,18 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
 from .chemistry.ignition import autoignition_reason
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
+from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
-from .sweep.points import Point, points
 from .sweep.kinetics import with_sensitivities
+from .sweep.points import Point, points
 from .sweep.zeldovich import with_zeldovich
 
 

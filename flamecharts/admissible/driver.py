@@ -14,8 +14,8 @@ import dataclasses
 import math
 import time
 from collections import defaultdict
-from dataclasses import dataclass
 from collections.abc import Callable, Generator, Sequence
+from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from scipy.optimize import brentq
@@ -24,8 +24,8 @@ from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .words import burner_and_limits, fixed_ratio_note
 from .search import CRITERIA, NOT_ASSESSED, WOBBE, Answer, Window, apply_band, band_at, limit_parts, window_search
+from .words import burner_and_limits, fixed_ratio_note
 
 if TYPE_CHECKING:
     from ..config import Study

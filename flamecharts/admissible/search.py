@@ -41,8 +41,8 @@ all searches (and of all intervals of one search) together on the run's backend.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
 from collections.abc import Callable, Generator
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Any, overload
 
 import numpy as np
@@ -198,7 +198,7 @@ class Miss:
 class Window:
     lower: Edge
     upper: Edge
-    flame: "Window | None" = None   # the window of the flame criteria alone that holds it (blend axis)
+    flame: Window | None = None   # the window of the flame criteria alone that holds it (blend axis)
 
 
 @dataclass

@@ -22,7 +22,7 @@ import io
 import threading
 import time
 import warnings
-from dataclasses import dataclass, asdict
+from dataclasses import asdict, dataclass
 
 import cantera as ct
 import numpy as np

@@ -16,7 +16,6 @@ from __future__ import annotations
 from functools import lru_cache
 from pathlib import Path
 
-
 #: Pressure range [bar] a mechanism states it was optimised for, by file name.
 MECHANISM_RANGES = {
     "gri30.yaml": (10 * 101325 / 760 / 1e5, 10 * 1.01325,

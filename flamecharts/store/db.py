@@ -41,10 +41,9 @@ import sqlite3
 import stat
 import struct
 import time
-from pathlib import Path
 from collections.abc import Callable, Iterable
+from pathlib import Path
 from typing import Protocol
-
 
 from ..errors import StoreError
 from . import profiles

@@ -27,8 +27,8 @@ import os
 import sys
 import tempfile
 import uuid
-from concurrent.futures import Future
 from collections.abc import Callable
+from concurrent.futures import Future
 from pathlib import Path
 from typing import TYPE_CHECKING
 

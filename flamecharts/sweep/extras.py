@@ -13,9 +13,9 @@ from __future__ import annotations
 import hashlib
 import json
 import uuid
+from collections.abc import Callable
 from concurrent.futures import FIRST_COMPLETED, wait
 from dataclasses import dataclass
-from collections.abc import Callable
 from typing import TYPE_CHECKING
 
 from ..store import Store

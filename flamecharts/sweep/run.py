@@ -10,8 +10,9 @@ The tree spans every point of the study, stored ones included, so a resumed run 
 each point from the same neighbour as an uninterrupted one (its stored profile) and
 gives the same flames. A worker that dies costs its point up to MAX_RETRIES retries;
 then the point is recorded as failed (reason: worker error) and solved again by the
-next run, as is a flame that ran out of its time limit (reason: time limit). Ctrl-C: the first stops handing out work and lets running flames finish and
-be stored (then :class:`RunInterrupted`), a second stops at once.
+next run, as is a flame that ran out of its time limit (reason: time limit). Ctrl-C: the
+first stops handing out work and lets running flames finish and be stored (then
+:class:`RunInterrupted`), a second stops at once.
 """
 from __future__ import annotations
 

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import heapq
 import statistics
-from typing import Iterable
+from collections.abc import Iterable
 
 from .warm_tree import WarmPlan
 

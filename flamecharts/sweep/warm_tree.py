@@ -70,7 +70,7 @@ class WarmPlan:
         """Points on the longest warm-start path of the plan."""
         return max(self.height.values(), default=0)
 
-    def pending(self, todo: set[int], keys: dict[int, str]) -> "WarmPlan":
+    def pending(self, todo: set[int], keys: dict[int, str]) -> WarmPlan:
         """The part of this plan still to solve: the points in ``todo``, where a point whose
         source is already solved (outside ``todo``; ``keys`` gives its store key) starts
         from that stored flame.

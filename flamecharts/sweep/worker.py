@@ -18,10 +18,10 @@ from typing import TYPE_CHECKING
 
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, ignition_delay_peak, premixer_horizon
+from ..chemistry.mechanism import solution
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
-from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
