@@ -11,6 +11,7 @@ run_study(study, ...)   solve and store only, no output files (kept for one rele
 FlamechartsError        base class of every error a user can act on
 """
 from importlib import import_module
+from typing import Any
 
 from ._version import __version__
 from .errors import ConfigError, FlamechartsError, MechanismError, StoreError
@@ -22,7 +23,7 @@ _LAZY = {"Study": "config", "load_study": "config", "run": "pipeline", "open_res
          "run_study": "pipeline", "RunSummary": "pipeline", "Results": "results", "RunInterrupted": "sweep.run"}
 
 
-def __getattr__(name: str):
+def __getattr__(name: str) -> Any:
     if name in _LAZY:
         value = getattr(import_module(f".{_LAZY[name]}", __name__), name)
         globals()[name] = value

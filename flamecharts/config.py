@@ -89,10 +89,11 @@ STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pres
 #: Most strained-flame ladders one study may ask for (each is 10-40 flames).
 MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
-from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 from .chemistry.mechanism import reaction_equations  # noqa: E402
+from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
 from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
 from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
+
 #: Default required autoignition margin (ignition delay over premixer residence time;
 #: common practice without source: set your own).
 DEFAULT_MIN_AUTOIGNITION_MARGIN = 3.0
@@ -279,16 +280,16 @@ class Study:
     config_path: str | None = None
     raw: dict = field(default_factory=dict, repr=False, compare=False)
     reference_fuel: str | None = None
-    burner: "Burner | None" = None
-    gas_quality: "GasQuality" = None  # type: ignore[assignment]
+    burner: Burner | None = None
+    gas_quality: GasQuality = None  # type: ignore[assignment]  # study_from_dict always sets it (_design_tables)
     indicator_settings: dict = field(default_factory=dict)
     cluster: str | None = None   # Dask scheduler address or "local:N"; None: local processes
-    limits: "Limits | None" = None
-    premixer: "Premixer | None" = None
+    limits: Limits | None = None
+    premixer: Premixer | None = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
-    flame_response: "FlameResponse | None" = None
-    stretch: "Stretch | None" = None
-    uncertainty: "Uncertainty | None" = None
+    flame_response: FlameResponse | None = None
+    stretch: Stretch | None = None
+    uncertainty: Uncertainty | None = None
     #: Several mechanisms to compare (the first is the one above); () when the study has one.
     mechanisms: tuple[MechanismChoice, ...] = ()
 
@@ -529,7 +530,7 @@ def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str,
     return tuple(dict.fromkeys(items))
 
 
-def _limits(t: Any, burner: "Burner | None", blend_with: str | None, gas_quality: "GasQuality") -> Limits:
+def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: GasQuality) -> Limits:
     """The [limits] table: checked against the burner and the sweep it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")
@@ -606,10 +607,10 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
         raise ConfigError("'uncertainty' must be a table")
     _check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
     flags = {}
-    for key, default in (("kinetics", True), ("error_bars", False)):
-        flags[key] = t.get(key, default)
-        if not isinstance(flags[key], bool):
-            raise ConfigError(f"'uncertainty.{key}' must be true or false, got {show(flags[key])}")
+    for flag, unset in (("kinetics", True), ("error_bars", False)):
+        flags[flag] = t.get(flag, unset)
+        if not isinstance(flags[flag], bool):
+            raise ConfigError(f"'uncertainty.{flag}' must be true or false, got {show(flags[flag])}")
     default = _number(t["default_factor"], "uncertainty.default_factor") if "default_factor" in t else None
     if default is not None and not 1.0 <= default <= MAX_RATE_FACTOR:
         raise ConfigError(f"'uncertainty.default_factor' is {default:g}; allowed: 1 to {MAX_RATE_FACTOR:g} (a "
@@ -626,8 +627,10 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
     by_key = {reaction_key(e): e for e in equations}
     names = (f"{Path(mech_paths[0]).name} does not have" if len(mech_paths) == 1 else
              "neither " + " nor ".join(Path(path).name for path in mech_paths) + " has")
-    factors, named = [], {}
+    factors: list[tuple[str, float]] = []
+    named: dict[str, str] = {}
     for eq, f in given.items():
+        key: str | None
         try:
             key = reaction_key(eq)
         except ValueError:

@@ -13,24 +13,30 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
 
 from .chemistry.ignition import ignition_delay_peak, premixer_horizon
 from .chemistry.mechanism import fallback_data, molar_masses, reaction_equations, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
-from .physics import flame_response as fr
-from .physics import indicators as ind
-from .physics import kinetic_uncertainty as ku
-from .physics.rate_factors import RATE_FACTORS
-from .physics import mixtures
-from .physics import validity as val
+from .physics import flame_response as fr, indicators as ind, kinetic_uncertainty as ku, mixtures, validity as val
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
-from .physics.limits import (autoignition_verdict, flammability_warning, heavy_hydrocarbon_warning, pressure_warning,
-                             unsolved_autoignition_warning)
+from .physics.limits import (
+    autoignition_verdict,
+    flammability_warning,
+    heavy_hydrocarbon_warning,
+    pressure_warning,
+    unsolved_autoignition_warning,
+)
+from .physics.rate_factors import RATE_FACTORS
+
+if TYPE_CHECKING:
+    from .config import Burner, Study
+    from .sweep.points import Point
 
 
-def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
+def gas_record(study: Study, X_fuel: dict, oxidizer: str) -> dict:
     """ISO 6976 properties of a fuel gas plus its stoichiometric need of ``oxidizer``."""
     gq = study.gas_quality
     outside = [sp for sp in X_fuel if sp not in ISO6976_2016]
@@ -54,7 +60,7 @@ def gas_record(study, X_fuel: dict, oxidizer: str) -> dict:
             "stoich_fuel_mole_fraction": 1.0 / (1.0 + n_ox)}
 
 
-def _reference_fuel(study, fuel: str) -> str:
+def _reference_fuel(study: Study, fuel: str) -> str:
     return study.reference_fuel or fuel
 
 
@@ -70,7 +76,7 @@ class FuelGas:
     wobbe_MJ_m3: float        # the Wobbe index the study's band applies to (higher or lower) [MJ/m^3]
 
 
-def fuel_gas(study, fuel: str, frac: float, ox: str, refs: dict | None = None) -> FuelGas:
+def fuel_gas(study: Study, fuel: str, frac: float, ox: str, refs: dict | None = None) -> FuelGas:
     """:class:`FuelGas` of ``fuel`` with ``frac`` of the study's blend gas, burned in ``ox``
     (any fraction, swept or not: the limit searches ask between the swept ones). ``refs``
     caches the reference gases' records across calls."""
@@ -84,6 +90,8 @@ def fuel_gas(study, fuel: str, frac: float, ox: str, refs: dict | None = None) -
     p = rec["props"]
     W = p.higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else p.lower_wobbe_index_MJ_m3
     W_ref = ref["props"].higher_wobbe_index_MJ_m3 if gq.wobbe == "higher" else ref["props"].lower_wobbe_index_MJ_m3
+    lo: float | None
+    hi: float | None
     if gq.band_MJ_m3 is not None:
         lo, hi = gq.band_MJ_m3
     elif gq.tolerance_percent is not None:
@@ -112,14 +120,14 @@ def fuel_gas(study, fuel: str, frac: float, ox: str, refs: dict | None = None) -
                    p.lower_heating_value_MJ_kg * 1e6, W)
 
 
-def fuel_gases(study) -> dict[tuple[str, float, str], FuelGas]:
+def fuel_gases(study: Study) -> dict[tuple[str, float, str], FuelGas]:
     """(fuel, blend fraction, oxidizer) -> :class:`FuelGas`, in the study's order."""
     refs: dict = {}
     return {(fuel, frac, ox): fuel_gas(study, fuel, frac, ox, refs)
             for ox in study.sweep_oxidizers for fuel in study.sweep_fuels for frac in study.blend_fractions}
 
 
-def fuel_gas_table(study) -> list[dict]:
+def fuel_gas_table(study: Study) -> list[dict]:
     """One row per (fuel, blend fraction, oxidizer) with ISO 6976 properties, air need and Wobbe band."""
     return [g.row for g in fuel_gases(study).values()]
 
@@ -145,21 +153,22 @@ RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
           ("chemical_time_ratio", "chemical_time_s"))
 
 
-def _port_velocity(b, r: dict, gas: FuelGas) -> tuple[float, float | None]:
+def _port_velocity(b: Burner, r: dict, gas: FuelGas) -> tuple[float, float | None]:
     """(bulk port velocity [m/s], thermal input [W] or None) of a burning point."""
     if b.port_velocity_m_s is not None:
         return b.port_velocity_m_s, None
+    assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: a velocity, or an input and an area
     Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
     return ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
 
 
-def hydraulic_diameter(b) -> float:
+def hydraulic_diameter(b: Burner) -> float:
     """Hydraulic diameter of a port [m]: its diameter (round), twice its gap (slot)."""
     return b.port_size_m if b.port == "round" else 2.0 * b.port_size_m
 
 
-def wall_gradient(b, U: float, Re: float | None, nu: float | None) -> float:
+def wall_gradient(b: Burner, U: float, Re: float | None, nu: float | None) -> float:
     """Wall velocity gradient of the port flow [1/s]: laminar fully developed (8U/D, 6U/h) up
     to Re 2300, Blasius's turbulent gradient from Re 4000, linear in Re between the two
     (physics.validity.transition_gradient): no step for a limit search to land on."""
@@ -169,17 +178,19 @@ def wall_gradient(b, U: float, Re: float | None, nu: float | None) -> float:
     if Re is None or Re <= val.LAMINAR_REYNOLDS:
         return laminar(U)
     D_h = hydraulic_diameter(b)
+    assert nu is not None  # known whenever Re is
     if Re >= val.TURBULENT_REYNOLDS:
         return ind.wall_velocity_gradient_turbulent(U, D_h, nu)
     return val.transition_gradient(Re, laminar(U * val.LAMINAR_REYNOLDS / Re),
                                    ind.wall_velocity_gradient_turbulent(U * val.TURBULENT_REYNOLDS / Re, D_h, nu))
 
 
-def not_assessed(study, r: dict, Re: float | None) -> dict[str, str]:
+def not_assessed(study: Study, r: dict, Re: float | None) -> dict[str, str]:
     """Criterion -> why its constant does not hold at this burning point (physics.validity),
     for the criteria the burner has: flashback, blowoff, and the stabilizer with a bluff body
     (not assessed until the study sets [indicators] bluff_body_constant)."""
     b, phi = study.burner, r["equivalence_ratio"]
+    assert b is not None  # asked only of a study with a [burner]
     le = r.get("lewis_number_fuel") if phi <= 1.0 else r.get("lewis_number_oxygen")
     where = dict(reynolds=Re, pressure_bar=r["pressure_bar"], unburned_temperature_K=r["unburned_temperature_K"],
                  equivalence_ratio=phi, deficient_lewis=le, layout=b.layout)
@@ -207,14 +218,19 @@ def not_assessed_summary(rows: list[dict]) -> list[dict]:
     return list(out.values())
 
 
-def _verdict(b, margins: dict[str, float | None], unassessed: dict[str, str], cellular: bool) -> str:
+def _verdict(b: Burner, margins: dict[str, float | None], unassessed: dict[str, str], cellular: bool) -> str:
     """'ok', the risks, and what is not assessed: from the criteria that decide this burner's
     verdict (flashback, and the rim's blowoff or the stabilizer's)."""
     decide = ("flashback", b.blowoff[2])
     need = {"flashback": b.min_flashback_margin, "blowoff": b.min_blowoff_margin,
             "stabilizer": b.min_stabilizer_margin}
-    risks = [f"{'stabilizer blowoff' if c == 'stabilizer' else c} risk" for c in decide
-             if c not in unassessed and margins[c] < need[c]]
+    risks = []
+    for c in decide:
+        if c not in unassessed:
+            m = margins[c]
+            assert m is not None  # an assessed criterion has its margin
+            if m < need[c]:
+                risks.append(f"{'stabilizer blowoff' if c == 'stabilizer' else c} risk")
     if cellular and "flashback" not in unassessed:  # [flame_response]: the thermal criterion is optimistic here
         risks.append("flashback risk underestimated (thermodiffusively unstable)")
     missing = [c for c in decide if c in unassessed]
@@ -227,9 +243,9 @@ def _verdict(b, margins: dict[str, float | None], unassessed: dict[str, str], ce
     return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {assessed} only; {gap}"
 
 
-def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
+def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
     b = study.burner
-    out = dict.fromkeys(BURNER_COLUMNS)
+    out: dict[str, Any] = dict.fromkeys(BURNER_COLUMNS)
     out["not_assessed"] = {}
     if b is None or r["status"] != "ok":
         return out
@@ -244,6 +260,7 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     if b.stabilizer_size_m is not None and s.get("bluff_body_constant") is not None:
         U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])
         out["bluff_body_blowoff_velocity_m_s"] = U_bo
+        assert b.approach_velocity_m_s is not None  # config sets it with the stabilizer size
         margins["stabilizer"] = U_bo / ind.edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage)
     shown = {c: None if c in unassessed else m for c, m in margins.items()}
     out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
@@ -254,7 +271,7 @@ def _burner_margins(study, r: dict, gas: FuelGas, s: dict) -> dict:
     return out
 
 
-def annotate(study, rows: list[dict]) -> list[dict]:
+def annotate(study: Study, rows: list[dict]) -> list[dict]:
     """Add indicator, reference-ratio, fuel-gas and burner columns to flat rows (in place)."""
     s = study.indicator_settings
     gases = fuel_gases(study)
@@ -288,9 +305,10 @@ def response_columns(row: dict) -> dict:
     """Effective Lewis number, Markstein number and length, and the thermodiffusive regime of
     a burning point from its stored Lewis and Zeldovich numbers (physics.flame_response);
     None where one is missing (Ze is there only with [flame_response])."""
-    out = dict.fromkeys(("effective_lewis_number", "markstein_number_unburned", "markstein_length_mm", "instability"))
+    out: dict[str, Any] = dict.fromkeys(("effective_lewis_number", "markstein_number_unburned", "markstein_length_mm",
+                                         "instability"))
     ze, le_f, le_o = row.get("zeldovich_number"), row.get("lewis_number_fuel"), row.get("lewis_number_oxygen")
-    if row["status"] != "ok" or None in (ze, le_f, le_o) or not ze > 0:
+    if row["status"] != "ok" or ze is None or le_f is None or le_o is None or not ze > 0:
         return out
     phi = row["equivalence_ratio"]
     lean = phi <= 1.0  # the fuel is the deficient reactant
@@ -308,38 +326,42 @@ TOP_REACTIONS = 10
 COUNTED_SENSITIVITY = 0.005
 
 
-def rate_factor(study, key: str) -> tuple[float, str]:
+def rate_factor(study: Study, key: str) -> tuple[float, str]:
     """Uncertainty factor of reaction ``key`` (physics.kinetic_uncertainty.reaction_key) and
     where it comes from: the study's [uncertainty] factors, the packaged table, or the default."""
-    mine = dict(study.uncertainty.factors)
+    u = study.uncertainty
+    assert u is not None  # asked only of a study with [uncertainty]
+    mine = dict(u.factors)
     if key in mine:
         return mine[key], "study"
     if key in RATE_FACTORS:
         return RATE_FACTORS[key][0], RATE_FACTORS[key][1]
-    return study.uncertainty.default_factor, "default"
+    return u.default_factor, "default"
 
 
-def kinetic_columns(study, row: dict) -> dict:
+def kinetic_columns(study: Study, row: dict) -> dict:
     """Kinetic uncertainty band of a point's flame speed from its stored sensitivities
     (physics.kinetic_uncertainty, first order), the most sensitive reaction, and how much of
     the band rests on the default factor; ``top_reactions`` (not a column) lists the
     :data:`TOP_REACTIONS` largest with factor and share of the variance. The sensitivity
     vector is dropped from the row once used (a GRI-Mech 3.0 vector is 325 numbers)."""
-    out = dict.fromkeys(KINETIC_COLUMNS)
+    out: dict[str, Any] = dict.fromkeys(KINETIC_COLUMNS)
     out["top_reactions"] = []
     sens = row.pop("reaction_sensitivities", None)
     if row["status"] != "ok" or not sens:
         return out
+    u = study.uncertainty
+    assert u is not None  # annotate() asks only with [uncertainty]
     equations = reaction_equations(study.mechanism_path)
-    first = {}
+    first: dict[str, str] = {}
     for eq in equations:
         first.setdefault(ku.reaction_key(eq), eq)
     groups = ku.grouped(equations, sens)
     factors = {k: rate_factor(study, k) for k in groups}
-    parts = {k: (s * math.log(factors[k][0]) / study.uncertainty.factor_sigmas) ** 2 for k, s in groups.items()}
+    parts = {k: (s * math.log(factors[k][0]) / u.factor_sigmas) ** 2 for k, s in groups.items()}
     variance = sum(parts.values())
     sigma = ku.flame_speed_band(list(groups.values()), [factors[k][0] for k in groups],
-                                study.uncertainty.factor_sigmas)
+                                u.factor_sigmas)
     defaulted = [k for k, s in groups.items() if factors[k][1] == "default" and abs(s) >= COUNTED_SENSITIVITY]
     top = next(iter(groups))
     out.update(flame_speed_kinetic_uncertainty_percent=100.0 * sigma, most_sensitive_reaction=first[top],
@@ -395,7 +417,7 @@ def lewis_warning(row: dict) -> str:
             "add a [flame_response] table to check")
 
 
-def point_warnings(study, point, row: dict) -> str:
+def point_warnings(study: Study, point: Point, row: dict) -> str:
     """All warnings of one point, joined by '; ' ('' when it is inside every range). A flame that
     turns out to be autoignition is not warned of here: it is a status of its own
     (results.not_a_flame); a point whose flame failed is, when its mixture ignites on its own."""
@@ -423,7 +445,7 @@ def injection_end(phi: float) -> str:
     return ", the end of the range scanned" if phi in (INJECTION_PHIS[0], INJECTION_PHIS[-1]) else ""
 
 
-def injection_delay(study, point, horizon: float) -> tuple[float, float]:
+def injection_delay(study: Study, point: Point, horizon: float) -> tuple[float, float]:
     """(shortest ignition delay [s], its phi) of the fuel-oxidizer mixtures near the fuel
     injection: chemistry.ignition.ignition_delay_peak at every INJECTION_PHIS, at the point's
     preheat and pressure. The fuel is taken as hot as the oxidizer, which makes the rich mixtures
@@ -439,7 +461,7 @@ def injection_delay(study, point, horizon: float) -> tuple[float, float]:
     return best
 
 
-def premixer_columns(study, point, row: dict | None = None) -> dict:
+def premixer_columns(study: Study, point: Point, row: dict | None = None) -> dict:
     """Ignition delay of the fresh mixture at the point's preheat and pressure, the
     autoignition margin (delay / residence time), the same for the most reactive mixture near
     the fuel injection (:func:`injection_delay`), and the verdict on both
@@ -485,7 +507,8 @@ def mechanism_differences(rows: list[dict], names: list[str]) -> list[dict]:
     relative difference of its flame speed and thermal thickness, in % of the reference's
     (columns.COMPARISON_COLUMNS), the numerical error of the flame-speed difference (both
     flames' grid bands in quadrature, scaled to the ratio: d(S/S0)/(S/S0) = sqrt(e^2 + e0^2)
-    for independent errors) and the reference's 1-sigma kinetic band when the study asks for one. One row per point and other mechanism, in the study's order."""
+    for independent errors) and the reference's 1-sigma kinetic band when the study asks for one. One row
+    per point and other mechanism, in the study's order."""
     ref = {tuple(r[a] for a in POINT_AXES): r for r in rows
            if r.get("mechanism") == names[0] and r["status"] == "ok"}
     out = []

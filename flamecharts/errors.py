@@ -38,7 +38,7 @@ _SHOW.maxlist = _SHOW.maxtuple = _SHOW.maxdict = _SHOW.maxset = 6
 _SHOW.maxlong = 40
 
 
-def show(value) -> str:
+def show(value: object) -> str:
     """A short repr of a user-given value for an error message (depth and length bounded)."""
     try:
         return _SHOW.repr(value)
@@ -67,6 +67,10 @@ class MixtureError(ConfigError, ValueError):
 
 class MechanismError(FlamechartsError):
     """The reaction mechanism cannot be found or loaded, or lacks a species the study needs."""
+
+    #: Set (with ``where``) only on the error of a species a mechanism lacks (config._missing).
+    species: str
+    where: str
 
 
 class StoreError(FlamechartsError):

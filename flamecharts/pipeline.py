@@ -9,9 +9,10 @@ from __future__ import annotations
 
 import os
 import time
+from collections.abc import Callable
 from dataclasses import dataclass, field, replace
 from pathlib import Path
-from typing import Callable
+from typing import TYPE_CHECKING
 
 from .admissible import LimitsProgress, find_limits
 from .config import Study, by_mechanism, load_study, save_config_copy
@@ -19,11 +20,15 @@ from .errors import FlamechartsError
 from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_extras, to_dataset, with_mechanism
 from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
+from .sweep.kinetics import solve_sensitivities
 from .sweep.points import points
 from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
-from .sweep.kinetics import solve_sensitivities
 from .sweep.zeldovich import solve_zeldovich
+
+if TYPE_CHECKING:
+    from .sweep.backends import Backend
+    from .sweep.points import Point
 
 
 @dataclass
@@ -54,7 +59,7 @@ class RunSummary:
         return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
-def _labelled(progress, what: str):
+def _labelled(progress: Callable[[str, int, int], None] | None, what: str) -> Callable[[int, int], None] | None:
     """``progress(what, done, total)`` as the (done, total) callback an extras loop calls."""
     return None if progress is None else (lambda done, total: progress(what, done, total))
 
@@ -64,7 +69,7 @@ def default_out_dir(study: Study) -> Path:
     return Path("output") / study.name
 
 
-def _out_folder(study: Study, out_dir) -> Path:
+def _out_folder(study: Study, out_dir: str | os.PathLike | None) -> Path:
     out = Path(out_dir) if out_dir is not None else default_out_dir(study)
     try:
         out.mkdir(parents=True, exist_ok=True)
@@ -130,15 +135,16 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       stretch_ladders=sum(p["ladders"] for p in parts))
 
 
-def _staged(progress, stage: str):
+def _staged(progress: Callable[[Progress], None] | None, stage: str) -> Callable[[Progress], None] | None:
     """``progress`` with each report labelled by ``stage`` (the mechanism being solved)."""
     if progress is None or not stage:
         return progress
     return lambda pr: progress(replace(pr, stage=stage))
 
 
-def _solve_one(study: Study, store: Store, backend, progress, stop_after, t0, limits_progress,
-               extras_progress) -> dict:
+def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[[Progress], None] | None,
+               stop_after: int | None, t0: float | None, limits_progress: Callable[[LimitsProgress], None] | None,
+               extras_progress: Callable[[str, int, int], None] | None) -> dict:
     """Solve one mechanism's study: the sweep, then the extras, limits and ladders it asks for."""
     pts = points(study)
     done = solve_points(study, store, pts, backend, progress, stop_after, t0)
@@ -155,7 +161,7 @@ def _solve_one(study: Study, store: Store, backend, progress, stop_after, t0, li
     if study.limits is not None and stop_after is None:
         swept = {p.key for p in pts}
 
-        def solve(new_points) -> int:  # warm-started from the sweep's flames only: resumed runs agree
+        def solve(new_points: list[Point]) -> int:  # warm-started from the sweep's flames only: resumed runs agree
             n = solve_points(study, store, new_points, backend, sources=swept).solved
             limit_solved[0] += n
             return n

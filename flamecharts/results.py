@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import itertools
 import json
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -26,18 +27,18 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
 from .chemistry.ignition import autoignition_reason
 from .chemistry.mechanism import viscosity
 from .chemistry.response import lewis_numbers_of
-from .config import Study, by_mechanism, load_config_copy, lumping_note, resolution_label
+from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
+from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
-from .sweep.points import Point, points
 from .sweep.kinetics import with_sensitivities
+from .sweep.points import Point, points
 from .sweep.zeldovich import with_zeldovich
 
 
@@ -180,7 +181,7 @@ class Comparison:
         return [s.mechanism for s in self.studies]
 
 
-def comparison_of(study: Study, rows: list[dict], limits: list[dict] = ()) -> Comparison | None:
+def comparison_of(study: Study, rows: list[dict], limits: Sequence[dict] = ()) -> Comparison | None:
     """The :class:`Comparison` of a study comparing mechanisms; None for a one-mechanism study."""
     subs = by_mechanism(study)
     return Comparison(tuple(subs), list(rows), list(limits)) if len(subs) > 1 else None
@@ -313,7 +314,7 @@ def exponent_table(ds: xr.Dataset) -> list[dict]:
 CONDITION_AXES = ("fuel", "oxidizer", "blend_fraction", "pressure_bar", "unburned_temperature_K")
 
 
-def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
+def margin_summary(ds: xr.Dataset, burner: Burner | None) -> list[dict]:
     """Per fuel, oxidizer, blend fraction, pressure and preheat with a burning flame: the smallest
     flashback and blowoff margins along equivalence ratio and the phi where each occurs (the
     first in the study's order on a tie; None where the margin is not assessed at any phi), and
@@ -326,7 +327,7 @@ def margin_summary(ds: xr.Dataset, burner) -> list[dict]:
     bo_col = burner.blowoff[0]
     phis = ds.equivalence_ratio.values
 
-    def along_phi(name):
+    def along_phi(name: str) -> np.ndarray:
         return ds[name].transpose(*CONDITION_AXES, "equivalence_ratio").values.reshape(-1, len(phis))
     out = []
     keys = itertools.product(*(ds[d].values for d in CONDITION_AXES))
@@ -429,11 +430,11 @@ class Results:
             self.table = to_dataset(self.study, self.rows)
         return self.table
 
-    def to_dataframe(self):
+    def to_dataframe(self) -> pd.DataFrame:
         """A pandas DataFrame with results.csv's columns, one row per point, in study order."""
         return pd.DataFrame([[r.get(c) for c in COLUMNS] for r in self.rows], columns=list(COLUMNS))
 
-    def mechanism_comparison(self):
+    def mechanism_comparison(self) -> pd.DataFrame:
         """A pandas DataFrame of mechanism_comparison.csv (design.mechanism_differences: each point
         under each other mechanism against the reference); empty for a one-mechanism study."""
         comparison = comparison_of(self.study, self.rows)

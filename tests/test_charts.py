@@ -1,14 +1,14 @@
 """Every chart type renders from stored rows, for a full hydrogen study and one with failed points."""
 import numpy as np
 import pytest
+import xarray as xr
 
-from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
+from flamecharts.design import fuel_gas_table
 from flamecharts.outputs.charts import CAPTIONS, draw_all
+from flamecharts.physics.fits import fit_power_law
 from flamecharts.pipeline import read_limits
 from flamecharts.results import exponent_table, to_dataset
-import xarray as xr
-from flamecharts.physics.fits import fit_power_law
 
 from conftest import write_h2_study
 
@@ -110,6 +110,7 @@ def plt_figure_texts(charts, data, study, name):
 
 def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(study_rows):
     import matplotlib.pyplot as plt
+
     from flamecharts.outputs.charts import CHARTS, ChartData
 
     study, rows, _ = study_rows
@@ -247,7 +248,7 @@ def test_a_big_study_keeps_every_chart_readable(study_rows, tmp_path):
     the levels it leaves out. Rows: the solved flames of the small study copied to every point."""
     import matplotlib.pyplot as plt
 
-    from flamecharts.outputs.charts.registry import ChartData, MAX_CURVES, MAX_PANELS
+    from flamecharts.outputs.charts.registry import MAX_CURVES, MAX_PANELS, ChartData
     from flamecharts.results import point_rows
     from flamecharts.store import DB_NAME, Store
     from flamecharts.sweep.points import points

@@ -13,12 +13,12 @@ from distributed import Client, LocalCluster
 
 import flamecharts
 from flamecharts import load_study, run_study
-from flamecharts.pipeline import solve_study
 from flamecharts.chemistry.mechanism import mechanism_text
-from flamecharts.sweep.dask_backend import ClusterError, local_versions, run_on_worker
+from flamecharts.pipeline import solve_study
 from flamecharts.results import rows_from_dir
-from flamecharts.sweep.worker import solve_task
 from flamecharts.store import DB_NAME, Store
+from flamecharts.sweep.dask_backend import ClusterError, local_versions, run_on_worker
+from flamecharts.sweep.worker import solve_task
 
 from conftest import run_cli, write_h2_study
 

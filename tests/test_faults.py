@@ -26,12 +26,12 @@ import pytest
 
 from flamecharts import load_study, run_study
 from flamecharts.chemistry import flame
-from flamecharts.pipeline import solve_study
-from flamecharts.sweep.points import points
-from flamecharts.sweep.warm_tree import warm_tree
 from flamecharts.physics.limits import flammability_warning, pressure_warning
-from flamecharts.sweep.run import unique_points, warm_plan
+from flamecharts.pipeline import solve_study
 from flamecharts.store import DB_NAME, Store
+from flamecharts.sweep.points import points
+from flamecharts.sweep.run import unique_points, warm_plan
+from flamecharts.sweep.warm_tree import warm_tree
 
 from conftest import run_cli, run_workers as _workers, write_h2_study
 
@@ -137,12 +137,12 @@ def test_kill_9_of_the_parent_at_five_moments_then_resume_exactly(tmp_path, refe
         proc = _start(config, out, "--no-report")
         base = len(committed)
         if moment == "before the first commit":
-            reached = _wait_for(lambda: db.exists() and _workers(proc.pid), proc)
+            reached = _wait_for(lambda proc=proc: db.exists() and _workers(proc.pid), proc)
             assert _count(db) == 0
         elif moment == "while writing outputs":
             reached = _wait_for(lambda: _count(db) == N_POINTS, proc)
         else:
-            reached = _wait_for(lambda: _count(db) >= moment, proc)
+            reached = _wait_for(lambda moment=moment: _count(db) >= moment, proc)
         assert reached, f"the run ended before the kill moment {moment}: {proc.communicate()}"
         os.kill(proc.pid, signal.SIGKILL)
         proc.wait()
@@ -182,7 +182,7 @@ def test_kill_9_of_a_worker_at_five_moments_loses_nothing(tmp_path, reference):
     proc = _start(config, out, "--no-charts")
     kills = 0
     for moment in (0, 1, 3, 6, 9):
-        if not _wait_for(lambda: _count(db) >= moment and _workers(proc.pid), proc):
+        if not _wait_for(lambda moment=moment: _count(db) >= moment and _workers(proc.pid), proc):
             break
         snapshot = _rows_ro(db)
         victims = _workers(proc.pid)
@@ -191,7 +191,7 @@ def test_kill_9_of_a_worker_at_five_moments_loses_nothing(tmp_path, reference):
             kills += 1
         except psutil.NoSuchProcess:
             pass
-        _wait_for(lambda: _count(db) > len(snapshot) or not _workers(proc.pid), proc)
+        _wait_for(lambda snapshot=snapshot: _count(db) > len(snapshot) or not _workers(proc.pid), proc)
     stdout, stderr = proc.communicate(timeout=PATIENCE_S)
     assert proc.returncode == 0, stderr
     assert kills >= 3  # the run is long enough for most moments (each flame takes ~1 s)
@@ -459,8 +459,8 @@ def test_an_autoigniting_mixture_is_not_a_flame_in_csv_and_report(tmp_path):
         raw = flat_row(study, p1000, store.rows([p1000.key])[p1000.key])
     fresh = {k: v for k, v in raw.items() if k != "autoignition_screen_delay_s"}
     assert autoignition_reason(study.mechanism_path, p1000.X_unburned, 1000.0, p1000.P, fresh) == hot["message"]
-    from flamecharts.outputs.tables import write_csv
     from flamecharts.outputs.report import write_report
+    from flamecharts.outputs.tables import write_csv
 
     write_csv(s.rows, tmp_path / "out" / "results.csv")
     with open(tmp_path / "out" / "results.csv", newline="") as fh:

@@ -7,19 +7,19 @@ the same burner (h2o2.yaml, seconds per flame).
 """
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
 import pytest
 from scipy.optimize import brentq
 
-import dataclasses
-
 import flamecharts
 from flamecharts.admissible.brent import brent_steps, drive
-from flamecharts.physics import validity
 from flamecharts.errors import ConfigError
+from flamecharts.physics import validity
 from tests.conftest import write_h2_study
+
 
 @pytest.fixture(autouse=True, scope="module")
 def reed_on_hydrogen():
@@ -82,7 +82,7 @@ def test_maximum_finder_matches_scipy_fminbound():
                 x = gen.send(f(x))
         except StopIteration as stop:
             peak = stop.value
-        x_ref = fminbound(lambda t: -f(t), 0.0, 1.0, xtol=1e-3)
+        x_ref = fminbound(lambda t, f=f: -f(t), 0.0, 1.0, xtol=1e-3)
         assert peak.converged and peak.x == pytest.approx(x_ref, abs=1e-9)
 
 
@@ -92,7 +92,10 @@ from types import SimpleNamespace as NS  # noqa: E402
 from flamecharts.admissible.search import limit_parts, window_search, within_band  # noqa: E402
 
 RIG = NS(min_flashback_margin=1.5, min_blowoff_margin=1.5)
-PARTS = (lambda r: limit_parts(r, RIG, ("flashback", "blowoff")))
+
+
+def PARTS(r):
+    return limit_parts(r, RIG, ("flashback", "blowoff"))
 
 
 def _margins(fb, bo):
@@ -142,7 +145,9 @@ def test_no_window_between_them_reports_the_closest_miss_where_the_margins_cross
 
 def test_one_criterion_failing_everywhere_but_near_its_peak_is_maximised_only_there():
     # along phi: a blowoff margin with one maximum at phi 1.07, admissible only from 1.036 to 1.105
-    peak = (lambda p: 0.05 - 40 * (p - 1.07) ** 2)
+    def peak(p):
+        return 0.05 - 40 * (p - 1.07) ** 2
+
     rowf = _margins(lambda p: 2.0, peak)
     swept = [(p, rowf(p)) for p in (0.6, 0.8, 1.0, 1.2, 1.4)]
     answer, asked = _search(window_search(swept, PARTS, 0.005, 12), rowf)
@@ -342,7 +347,8 @@ def _check_windows_against_fine_sweep(limits, truth, tol=0.005, step=0.01):
     for x, ok in truth:
         inside = any(r["lower_edge"] - tol - 1e-9 <= x <= r["upper_edge"] + tol + 1e-9 for r in wins)
         if ok:
-            assert inside, f"fine point {x:g} keeps every margin but lies in no window {[(r['lower_edge'], r['upper_edge']) for r in wins]}"
+            assert inside, (f"fine point {x:g} keeps every margin but lies in no window "
+                            f"{[(r['lower_edge'], r['upper_edge']) for r in wins]}")
     changes = [0.5 * (a[0] + b[0]) for a, b in zip(truth, truth[1:]) if a[1] != b[1]]
     for r in wins:
         if not any(r["lower_edge"] <= x <= r["upper_edge"] for x, _ in truth):
@@ -366,8 +372,7 @@ def test_the_window_between_swept_blends_matches_a_fine_sweep(fine_store):
     assert "blowoff at 0; flashback at 0.3, 0.6, 1" == lim["swept_failures"]
 
 
-from hypothesis import HealthCheck, example, given, settings  # noqa: E402
-from hypothesis import strategies as st  # noqa: E402
+from hypothesis import HealthCheck, example, given, settings, strategies as st  # noqa: E402
 
 
 @settings(max_examples=4, deadline=None, derandomize=True, suppress_health_check=[HealthCheck.function_scoped_fixture])

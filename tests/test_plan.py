@@ -5,9 +5,10 @@ import math
 
 import pytest
 
-from conftest import write_h2_study
-from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
 from flamecharts.config import load_study
+from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
+
+from conftest import write_h2_study
 
 
 def _points(tmp_path, **kw):

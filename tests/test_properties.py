@@ -19,9 +19,9 @@ import math
 import pytest
 from hypothesis import HealthCheck, assume, event, given, settings, strategies as st
 
-from flamecharts.physics import mixtures
-from flamecharts.errors import FlamechartsError, MixtureError
 from flamecharts.config import Study, study_from_dict, study_from_toml
+from flamecharts.errors import FlamechartsError, MixtureError
+from flamecharts.physics import mixtures
 
 BOUNDED = settings(max_examples=200, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 

@@ -7,8 +7,8 @@ import tempfile
 import numpy as np
 import pytest
 
-from flamecharts.design import fuel_gas_table
 from flamecharts import load_study, run_study
+from flamecharts.design import fuel_gas_table
 from flamecharts.outputs.charts import draw_all
 from flamecharts.outputs.report import write_report
 

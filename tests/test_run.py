@@ -12,8 +12,8 @@ import numpy as np
 import pytest
 
 from flamecharts import load_study, run_study
-from flamecharts.pipeline import solve_study
 from flamecharts.columns import COLUMNS
+from flamecharts.pipeline import solve_study
 from flamecharts.store import DB_NAME, Store
 
 from conftest import write_h2_study
@@ -262,6 +262,7 @@ def test_unwritable_output_folder_is_one_line(tmp_path, cli):
 
 def test_charts_refuse_when_the_mechanism_changed_since_the_run(tmp_path, cli):
     import shutil
+
     import cantera as ct
 
     src = next(Path(d) / "h2o2.yaml" for d in ct.get_data_directories() if (Path(d) / "h2o2.yaml").exists())

@@ -10,9 +10,9 @@ refused naming the first (pid, host, start time); nothing is lost or corrupted.
 """
 from __future__ import annotations
 
+import json
 import os
 import random
-import json
 import shutil
 import socket
 import sqlite3
@@ -24,9 +24,8 @@ import pytest
 from hypothesis import HealthCheck, event, given, settings, strategies as st
 
 from flamecharts import cli, load_study, run_study
-from flamecharts.store import db as store_module
 from flamecharts.errors import StoreError
-from flamecharts.store import DB_NAME, LOCK_NAME, SCHEMA_VERSION, Store
+from flamecharts.store import DB_NAME, LOCK_NAME, SCHEMA_VERSION, Store, db as store_module
 
 from conftest import write_h2_study
 
@@ -407,7 +406,8 @@ def test_an_older_store_is_migrated_by_run_and_only_run(run_copy, capsys, monkey
     monkeypatch.setattr(store_module, "SCHEMA_VERSION", now + 1)
     monkeypatch.setitem(store_module.MIGRATIONS, now, lambda db: db.execute("CREATE INDEX points_status ON points (status)"))
     before = snapshot(out)
-    assert_refused(*call(capsys, "charts", out), [f"older schema version {now}", "'flamecharts run' migrates it", "flamecharts compact DIR"])
+    assert_refused(*call(capsys, "charts", out),
+                   [f"older schema version {now}", "'flamecharts run' migrates it", "flamecharts compact DIR"])
     assert snapshot(out) == before
     rc, stdout, err = call(capsys, "run", config, "--out", out, "--jobs", "1", "--no-charts", "--quiet")
     assert rc == 0, err

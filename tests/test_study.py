@@ -148,6 +148,7 @@ def test_mechanism_path_that_is_a_folder(tmp_path):
 
 def test_mechanism_beside_the_config_is_found(tmp_path):
     import shutil
+
     import cantera as ct
 
     src = next(Path(d) / "h2o2.yaml" for d in ct.get_data_directories() if (Path(d) / "h2o2.yaml").exists())

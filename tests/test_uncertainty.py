@@ -17,8 +17,7 @@ from flamecharts.chemistry import flame
 from flamecharts.chemistry.mechanism import reaction_equations, solution
 from flamecharts.chemistry.sensitivity import flame_speed_sensitivities
 from flamecharts.errors import ConfigError
-from flamecharts.physics import kinetic_uncertainty as ku
-from flamecharts.physics import mixtures
+from flamecharts.physics import kinetic_uncertainty as ku, mixtures
 from flamecharts.physics.grid_error import MIN_INDEX, grid_convergence_index, placement_floor
 from flamecharts.physics.rate_factors import RATE_FACTORS, SIGMAS_PER_FACTOR
 

@@ -14,8 +14,7 @@ import pytest
 import flamecharts
 from flamecharts.admissible.words import limit_sentence
 from flamecharts.design import not_assessed, wall_gradient
-from flamecharts.physics import indicators as ind
-from flamecharts.physics import validity as val
+from flamecharts.physics import indicators as ind, validity as val
 
 from conftest import write_h2_study
 

@@ -10,8 +10,8 @@ from __future__ import annotations
 
 import math
 import sys
+from collections.abc import Callable, Generator
 from dataclasses import dataclass
-from typing import Callable, Generator
 
 #: Machine epsilon of float64: the relative part of the convergence test.
 EPS = sys.float_info.epsilon

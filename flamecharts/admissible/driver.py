@@ -14,8 +14,9 @@ import dataclasses
 import math
 import time
 from collections import defaultdict
+from collections.abc import Callable, Generator, Sequence
 from dataclasses import dataclass
-from typing import Callable, Generator
+from typing import TYPE_CHECKING
 
 from scipy.optimize import brentq
 
@@ -23,8 +24,12 @@ from ..columns import LIMIT_COLUMNS
 from ..design import fuel_gas
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .words import fixed_ratio_note
-from .search import CRITERIA, NOT_ASSESSED, WOBBE, Answer, apply_band, band_at, limit_parts, window_search
+from .search import CRITERIA, NOT_ASSESSED, WOBBE, Answer, Window, apply_band, band_at, limit_parts, window_search
+from .words import burner_and_limits, fixed_ratio_note
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from ..store import Store
 
 #: Fractions at which the Wobbe index is scanned before each crossing of a band edge is
 #: refined (it needs no flame).
@@ -46,7 +51,7 @@ class LimitsProgress:
 class _Search:
     axis: str              # blend_fraction | equivalence_ratio: the column the search moves along
     cond: dict             # fuel, oxidizer, blend_fraction, equivalence_ratio, pressure_bar, unburned_temperature_K
-    gen: Generator | None
+    gen: Generator[list[float], list[dict], Answer] | None
     band: list[tuple[float, float]] | None = None   # Wobbe band intervals of the blend axis (None: not a criterion)
     answer: Answer | None = None
     request: list[float] | None = None
@@ -56,7 +61,7 @@ class _Search:
     cellular: tuple[float, ...] = ()  # swept values whose flames are thermodiffusively unstable ([flame_response])
 
 
-def point_at(study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[object, Point]:
+def point_at(study: Study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[Study, Point]:
     """The one-point study and its Point at ``cond`` with ``axis`` set to ``x`` (its key is
     the key a swept point of the same mixture would have)."""
     c = {**cond, axis: x}
@@ -66,7 +71,7 @@ def point_at(study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[ob
     return sub, dataclasses.replace(points(sub)[0], index=index)
 
 
-def wobbe_margin(study, fuel: str, ox: str, refs: dict) -> Callable[[float], float] | None:
+def wobbe_margin(study: Study, fuel: str, ox: str, refs: dict) -> Callable[[float], float] | None:
     """Distance [MJ/m^3] of the blend's Wobbe index inside the band at blend fraction x
     (negative outside), closed form by ISO 6976 (design.fuel_gas); None without a band."""
     if fuel_gas(study, fuel, 0.0, ox, refs).row["wobbe_band_low_MJ_m3"] is None:
@@ -92,12 +97,14 @@ def band_intervals(margin: Callable[[float], float], scan: int = WOBBE_SCAN) -> 
     """
     xs = [i / scan for i in range(scan + 1)]
     ms = [margin(x) for x in xs]
-    out, start = [], (0.0 if ms[0] >= 0 else None)
+    out: list[tuple[float, float]] = []
+    start = 0.0 if ms[0] >= 0 else None
     for (x0, m0), (x1, m1) in zip(zip(xs, ms), zip(xs[1:], ms[1:])):
         if (m0 >= 0) == (m1 >= 0):
             continue
         edge = brentq(margin, x0, x1, xtol=1e-6)
         if m0 >= 0:
+            assert start is not None  # inside the band since its last entry
             out.append((start, edge))
             start = None
         else:
@@ -107,33 +114,35 @@ def band_intervals(margin: Callable[[float], float], scan: int = WOBBE_SCAN) -> 
     return out
 
 
-def uses_wobbe(study) -> bool:
+def uses_wobbe(study: Study) -> bool:
     """Whether the Wobbe band is one of the study's limit criteria (blend and phi searches)."""
-    return "wobbe" in study.limits.criteria
+    return "wobbe" in burner_and_limits(study)[1].criteria
 
 
-def flame_criteria(study) -> tuple[str, ...]:
+def flame_criteria(study: Study) -> tuple[str, ...]:
     """The study's limit criteria that a flame decides (all but the Wobbe band)."""
-    return tuple(c for c in study.limits.criteria if c in CRITERIA)
+    return tuple(c for c in burner_and_limits(study)[1].criteria if c in CRITERIA)
 
 
 #: The columns that fix a search's condition (the searched axis among them is left blank).
 CONDITION = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
 
 
-def _searches(study, rows: list[dict]) -> list[_Search]:
+def _searches(study: Study, rows: list[dict]) -> list[_Search]:
     """One search per condition and axis the [limits] table asks for: blend searches first
     (over the axis from 0 to 1, looking for windows only where the Wobbe band lets one count),
     then phi searches (over the swept range)."""
-    lim, b = study.limits, study.burner
+    b, lim = burner_and_limits(study)
     crit = flame_criteria(study)
-    parts = (lambda r: limit_parts(r, b, crit))
+
+    def parts(r: dict) -> tuple[dict[str, float] | None, str]:
+        return limit_parts(r, b, crit)
     bands = _bands(study)
     out: list[_Search] = []
     for axis in ("blend_fraction", "equivalence_ratio"):
         if axis not in lim.find:
             continue
-        groups = defaultdict(list)
+        groups: defaultdict[tuple, list[tuple[float, dict]]] = defaultdict(list)
         for r in rows:
             groups[tuple(None if c == axis else r[c] for c in CONDITION)].append((r[axis], r))
         for key, swept in groups.items():
@@ -165,11 +174,11 @@ def unassessed_words(swept: list[tuple[float, dict]], criteria: tuple[str, ...],
     return "; ".join(out)
 
 
-def _bands(study) -> dict[tuple[str, str], list[tuple[float, float]] | None]:
+def _bands(study: Study) -> dict[tuple[str, str], list[tuple[float, float]] | None]:
     """(fuel, oxidizer) -> the blend-fraction intervals inside the Wobbe band (None: the band
     is not a criterion); without a blend, [(0, 0)] or [] as the fuel itself is in or out."""
     refs: dict = {}
-    out = {}
+    out: dict[tuple[str, str], list[tuple[float, float]] | None] = {}
     for f in study.sweep_fuels:
         for o in study.sweep_oxidizers:
             m = wobbe_margin(study, f, o, refs) if uses_wobbe(study) else None
@@ -180,8 +189,10 @@ def _bands(study) -> dict[tuple[str, str], list[tuple[float, float]] | None]:
 
 def _advance(s: _Search, rows: list[dict] | None) -> None:
     """Send the search its flames (None: start it); keep its next requests or its answer."""
+    gen = s.gen
+    assert gen is not None  # only a search with a generator runs
     try:
-        s.request = next(s.gen) if rows is None else s.gen.send(rows)
+        s.request = next(gen) if rows is None else gen.send(rows)
     except StopIteration as stop:
         s.answer, s.request = stop.value, None
         if s.band is not None and s.axis == "blend_fraction":
@@ -190,7 +201,7 @@ def _advance(s: _Search, rows: list[dict] | None) -> None:
             band_at(s.answer, s.band, s.cond["blend_fraction"] or 0.0)
 
 
-def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], int] | None,
+def find_limits(study: Study, rows: list[dict], store: Store, solve: Callable[[list[Point]], int] | None,
                 on_round: Callable[[LimitsProgress], None] | None = None) -> list[dict]:
     """The limits the study's [limits] table asks for: limits.csv rows, one per admissible
     window of each search (one row for a search without a window).
@@ -210,7 +221,7 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
         if not open_:
             break
         rnd += 1
-        asked = [(s, point_at(study, s.cond, s.axis, x)) for s in open_ for x in s.request]
+        asked = [(s, point_at(study, s.cond, s.axis, x)) for s in open_ for x in s.request or ()]
         asked = [(s, (sub, dataclasses.replace(p, index=i))) for i, (s, (sub, p)) in enumerate(asked)]
         if solve is not None:
             solved += solve([p for _, (_, p) in asked])
@@ -219,6 +230,7 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
             mine = [(sub, p) for t, (sub, p) in asked if t is s]
             lacking = [p for _, p in mine if p.key not in stored]
             if lacking:
+                assert s.gen is not None and s.request is not None  # an open search
                 s.gen.close()
                 x = s.request[[p.key for _, p in mine].index(lacking[0].key)]
                 s.missing = (f"the flame at {s.axis.replace('_', ' ')} {x:.4g} is not in the store: run the study "
@@ -232,13 +244,13 @@ def find_limits(study, rows: list[dict], store, solve: Callable[[list[Point]], i
     return [{c: r.get(c) for c in LIMIT_COLUMNS if c != "mechanism"} for s in searches for r in limit_rows(study, s)]
 
 
-def limit_rows(study, s: _Search) -> list[dict]:
+def limit_rows(study: Study, s: _Search) -> list[dict]:
     """The limits.csv rows (columns.LIMIT_COLUMNS) of one finished search."""
     base = {"axis": s.axis, "fuel": s.cond["fuel"], "oxidizer": s.cond["oxidizer"],
             "blend_with": study.blend_with or "", "blend_fraction": s.cond["blend_fraction"],
             "equivalence_ratio": s.cond["equivalence_ratio"], "pressure_bar": s.cond["pressure_bar"],
             "unburned_temperature_K": s.cond["unburned_temperature_K"],
-            "tolerance": study.limits.tolerance[s.axis]}
+            "tolerance": burner_and_limits(study)[1].tolerance[s.axis]}
     base["criteria_not_assessed"] = s.unassessed
     a = s.answer
     if s.nothing:
@@ -285,6 +297,7 @@ def limit_rows(study, s: _Search) -> list[dict]:
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
         if w.flame is not None:
             row.update(_flame_columns(w.flame))
+            assert s.band is not None  # a window keeps its flame window only under the Wobbe band
             inside = [(b0, b1) for b0, b1 in s.band if b0 <= w.upper.value + 1e-9 and b1 >= w.lower.value - 1e-9]
             if inside:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
@@ -292,7 +305,7 @@ def limit_rows(study, s: _Search) -> list[dict]:
     return out
 
 
-def _cellular_words(s: _Search, w) -> list[str]:
+def _cellular_words(s: _Search, w: Window) -> list[str]:
     """The note of a window holding swept flames that are thermodiffusively unstable: the
     thermal flashback criterion counts them admissible, and understates their risk."""
     inside = [x for x in s.cellular if w.lower.value - 1e-12 <= x <= w.upper.value + 1e-12]
@@ -303,7 +316,7 @@ def _cellular_words(s: _Search, w) -> list[str]:
             "(cellular): admissible on the thermal flashback criterion alone, which understates their risk"]
 
 
-def _nearest(band: list[tuple[float, float]], w, x: float | None) -> tuple[float, float]:
+def _nearest(band: list[tuple[float, float]], w: Window | None, x: float | None) -> tuple[float, float]:
     """The band interval nearest a flame window (blend search) or a blend fraction (phi search)."""
     lo, hi = (w.lower.value, w.upper.value) if w is not None else (x or 0.0, x or 0.0)
     return min(band, key=lambda b: max(b[0] - hi, lo - b[1], 0.0))
@@ -314,7 +327,7 @@ def _skipped(a: Answer) -> list[str]:
             "alone was looked for" for lo, hi in a.skipped]
 
 
-def _flame_columns(w) -> dict:
+def _flame_columns(w: Window) -> dict:
     """The flame_* columns of a window the flame criteria alone allow."""
     return {f"flame_{side}_{what}": getattr(getattr(w, side), attr) for side in ("lower", "upper")
             for what, attr in (("edge", "value"), ("kind", "kind"), ("binding", "binding"))}
@@ -339,7 +352,7 @@ def _misses(a: Answer) -> list[str]:
             f"{_margin(m.row, m.binding):.3g})" for lo, hi, m in a.misses if _margin(m.row, m.binding) is not None]
 
 
-def _band_words(a: Answer, band) -> list[str]:
+def _band_words(a: Answer, band: list[tuple[float, float]] | None) -> list[str]:
     if band is None:
         return []
     if not band:
@@ -356,7 +369,7 @@ def _pct(x: float) -> str:
     return f"{100 * x:.1f}"
 
 
-def planned_searches(study) -> dict[str, int]:
+def planned_searches(study: Study) -> dict[str, int]:
     """How many limit searches the study's [limits] table starts, by axis, and about how
     many flames they need (for `check`): a blend search per (fuel, oxidizer, phi, p, T_u),
     a phi search per (fuel, oxidizer, blend, p, T_u); each refines about two edges from a
@@ -370,7 +383,7 @@ def planned_searches(study) -> dict[str, int]:
         study.unburned_temperatures_K)
     out = {"blend_fraction": 0, "equivalence_ratio": 0, "flames": 0}
 
-    def flames(values, tol) -> int:
+    def flames(values: Sequence[float], tol: float) -> int:
         v = sorted(values)
         step = max((b - a for a, b in zip(v, v[1:])), default=0.0)
         return min(lim.max_flames_per_search, max(1, math.ceil(math.log2(step / tol))) if step > tol else 1)

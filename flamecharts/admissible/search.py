@@ -41,12 +41,16 @@ all searches (and of all intervals of one search) together on the run's backend.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable, Generator
 from dataclasses import dataclass, field
-from typing import Callable, Generator
+from typing import TYPE_CHECKING, Any, overload
 
 import numpy as np
 
 from .brent import Bracket, brent_steps, maximum_steps
+
+if TYPE_CHECKING:
+    from ..config import Burner
 
 #: criterion -> (margin column of the annotated row, the burner's minimum attribute).
 CRITERIA = {
@@ -90,7 +94,7 @@ def burning_or_not(parts: Parts) -> Parts:
     diluted to burn; or autoignition: it ignites before a flame can cross it), or a flame
     that no criterion of the search is assessed for, as failing, so that an edge toward it
     can be refined like any other; a flame that failed to solve still has no value."""
-    def counted(r: dict):
+    def counted(r: dict) -> tuple[dict[str, float] | None, str]:
         if r.get("status") in NOT_FLAMES:
             return {NOT_FLAMES[r["status"]]: NO_FLAME_G}, ""
         P, why = parts(r)
@@ -105,7 +109,7 @@ def refinable(row: dict, why: str) -> bool:
     return row.get("status") in NOT_FLAMES or why.startswith(NOT_ASSESSED)
 
 
-def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
+def limit_parts(row: dict, burner: Burner, criteria: tuple[str, ...]) -> tuple[dict[str, float] | None, str]:
     """g_c = ln(margin_c / required_c) of every criterion of one annotated row; UNASSESSED_G for
     a criterion not assessed there (row key ``not_assessed``, design.not_assessed); (None, why)
     when the row has no burning flame, lacks a margin, or has no criterion assessed (why
@@ -126,7 +130,7 @@ def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str,
     """
     if row.get("status") != "ok":
         return None, f"{row.get('status')}: {row.get('message', '')}"
-    out = {}
+    out: dict[str, float] = {}
     skipped = row.get("not_assessed") or {}
     for c in criteria:
         if c in skipped:
@@ -142,15 +146,19 @@ def limit_parts(row: dict, burner, criteria: tuple[str, ...]) -> tuple[dict[str,
     return out, ""
 
 
+@overload
+def lowest(parts: dict[str, float], why: str = "") -> tuple[float, str]: ...
+@overload
+def lowest(parts: dict[str, float] | None, why: str = "") -> tuple[float | None, str]: ...
 def lowest(parts: dict[str, float] | None, why: str = "") -> tuple[float | None, str]:
     """(g, the criterion giving it) from per-criterion log-margins; (None, why) without them."""
     if parts is None:
         return None, why
-    c = min(parts, key=parts.get)
+    c = min(parts, key=parts.__getitem__)
     return parts[c], c
 
 
-def limit_value(row: dict, burner, criteria: tuple[str, ...]) -> tuple[float | None, str]:
+def limit_value(row: dict, burner: Burner, criteria: tuple[str, ...]) -> tuple[float | None, str]:
     """(g, criterion giving it) of one annotated row (>= 0: admissible); (None, why) without a flame.
 
     >>> from types import SimpleNamespace as NS
@@ -167,13 +175,13 @@ def limit_value(row: dict, burner, criteria: tuple[str, ...]) -> tuple[float | N
 class Edge:
     """One edge of an admissible window."""
 
-    value: float | None          # the admissible end of the final bracket
+    value: float                 # the admissible end of the final bracket
     kind: str                    # FOUND, WOBBE_EDGE, SWEPT_END, RANGE_END or STOPPED
     binding: str = ""            # the criterion failing just past the edge ('' at a swept or range end)
     row: dict | None = None      # the flame row at ``value`` (None at a Wobbe edge)
     failing: float | None = None  # the failing end of the final bracket
     note: str = ""
-    evaluated: list = field(default_factory=list)   # [(x, g or None)] of the flames asked for
+    evaluated: list[tuple[float, float | None]] = field(default_factory=list)   # of the flames asked for: (x, g or None)
 
 
 @dataclass
@@ -190,7 +198,7 @@ class Miss:
 class Window:
     lower: Edge
     upper: Edge
-    flame: "Window | None" = None   # the window of the flame criteria alone that holds it (blend axis)
+    flame: Window | None = None   # the window of the flame criteria alone that holds it (blend axis)
 
 
 @dataclass
@@ -217,11 +225,13 @@ def crossing(x_good: float, row_good: dict, x_bad: float, row_bad: dict, tol: fl
     (either order) to a bracket at most ``tol`` wide. Yields x, is sent the flame row at x.
     A flame that does not burn stops the search: the edge keeps the bracket known so far and
     says why (never an interpolated number)."""
-    value = (lambda r: lowest(*parts(r)))
+    def value(r: dict) -> tuple[float | None, str]:
+        return lowest(*parts(r))
     g_good, _ = value(row_good)
     g_bad, why_bad = value(row_bad)
+    assert g_good is not None and g_bad is not None  # the caller classified both ends by their values
     rows = {x_good: row_good, x_bad: row_bad}
-    seen: list = []
+    seen: list[tuple[float, float | None]] = []
     # g exactly 0 at the good end (on the other edge of a narrow window) must not end the search there
     gen = brent_steps(x_good, max(g_good, 1e-300), x_bad, g_bad, tol, max_flames)
     good, bad = x_good, x_bad
@@ -260,7 +270,7 @@ class _Interval:
     evaluated: list = field(default_factory=list)
 
 
-def _walk(gen: Generator, a: float, b: float, parts: Parts, found: Callable[[dict[str, float]], bool],
+def _walk(gen: Generator[float, float, object], a: float, b: float, parts: Parts, found: Callable[[dict[str, float]], bool],
           to_send: Callable[[dict[str, float]], float]) -> Generator[float, dict, tuple]:
     """Walk an x-proposing generator (a root or extremum finder over (a, b)), one flame per
     step, until a flame's log-margins satisfy ``found``. Returns ((x, row) of that flame or
@@ -284,15 +294,22 @@ def _walk(gen: Generator, a: float, b: float, parts: Parts, found: Callable[[dic
         return None, seen, ""
 
 
-def _probe(gen: Generator, xa: float, ra: dict, xb: float, rb: dict, parts: Parts,
+def _probe(gen: Generator[float, float, object], xa: float, ra: dict, xb: float, rb: dict, parts: Parts,
            to_send: Callable[[dict[str, float]], float]) -> Generator[float, dict, tuple]:
     """Walk a finder between two failing points until a flame keeps every margin. Returns
     (x_ok, row_ok, best Miss, evaluated, note)."""
     hit, seen, note = yield from _walk(gen, xa, xb, parts, lambda P: lowest(P)[0] >= 0, to_send)
-    ends = [Miss(x, *lowest(*parts(r)), r) for x, r in ((xa, ra), (xb, rb))]
+    ends = [_miss(x, r, parts) for x, r in ((xa, ra), (xb, rb))]
     best = max(ends + [Miss(x, g, c, r) for x, g, c, r in seen if g is not None], key=lambda m: m.g)
     x_ok, row_ok = hit if hit is not None else (None, None)
     return x_ok, row_ok, best, [(x, g) for x, g, _, _ in seen], note
+
+
+def _miss(x: float, row: dict, parts: Parts) -> Miss:
+    """The :class:`Miss` of a failing flame (one with a value)."""
+    g, c = lowest(*parts(row))
+    assert g is not None  # a failing end of an interval has a value
+    return Miss(x, g, c, row)
 
 
 def _just_inside(x_end: float, a: float, b: float, tol: float) -> float:
@@ -320,6 +337,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     maximum in the rest of the interval (it would hold at least the end's value on the way
     back), so the interval holds no window wider than the tolerance."""
     Pa, Pb = parts(ra)[0], parts(rb)[0]
+    assert Pa is not None and Pb is not None  # both ends fail: they have margins
     ca, cb = lowest(Pa)[1], lowest(Pb)[1]
     seen: list = []
     x_ok = None
@@ -329,7 +347,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
         P, why = parts(row)
         g, c = lowest(P, why)
         seen.append((x_in, g))
-        if g is None:
+        if P is None or g is None:  # together: no burning flame
             return _Interval(note=f"no burning flame at {x_in:.4g} ({why}) between {xa:.4g} and {xb:.4g}",
                              evaluated=seen)
         if g >= 0:
@@ -341,7 +359,7 @@ def interior(xa: float, ra: dict, xb: float, rb: dict, tol: float, max_flames: i
     if ca != cb:
         ha, hb = Pa[ca] - Pa[cb], Pb[ca] - Pb[cb]
         if (ha >= 0) != (hb >= 0):
-            gen = brent_steps(xa, ha, xb, hb, tol, max_flames)
+            gen: Generator[float, float, object] = brent_steps(xa, ha, xb, hb, tol, max_flames)
             x_ok, row_ok, best, seen, note = yield from _probe(gen, xa, ra, xb, rb, parts,
                                                                lambda P: P[ca] - P[cb])
             if note:
@@ -460,7 +478,7 @@ def may_peak_inside(i: int, gs: list[dict[str, float] | None], criterion: str) -
 
 
 # ---- one search -----------------------------------------------------------------------------------------
-def lockstep(gens: list[Generator]) -> Generator[list[float], list[dict], list]:
+def lockstep(gens: list[Generator[float, dict, Any]]) -> Generator[list[float], list[dict], list]:
     """Run several one-flame-at-a-time generators side by side: yield the list of their
     open requests, be sent the rows in the same order; return their results in order."""
     results: list = [None] * len(gens)
@@ -513,7 +531,7 @@ def window_search(swept: list[tuple[float, dict]], parts: Parts, tol: float, max
     gs = [lowest(*P) for P in Ps]
     logs = [P for P, _ in Ps]
     state = ["none" if g is None else "ok" if g >= 0 else "fail" for g, _ in gs]
-    tasks: dict[int, Generator] = {}
+    tasks: dict[int, Generator[float, dict, Any]] = {}
     skipped: list[tuple[float, float]] = []
     for i in range(len(pts) - 1):
         (xa, ra), (xb, rb) = pts[i], pts[i + 1]
@@ -546,10 +564,12 @@ def _end(x: float, row: dict, axis_range: tuple[float, float] | None) -> Edge:
 
 
 def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], state: list[str],
-             done: dict[int, object], axis_range, extra: list) -> Answer:
+             done: dict[int, Edge | _Interval], axis_range: tuple[float, float] | None, extra: list) -> Answer:
     """The windows of one search from its classified points and the results of its intervals."""
     windows: list[Window] = []
-    misses, stopped, evaluated = [], [], list(extra)
+    misses: list[tuple[float, float, Miss]] = []
+    stopped: list[str] = []
+    evaluated = list(extra)
     lower: Edge | None = _end(*pts[0], axis_range) if state[0] == "ok" else None
     for i in range(len(pts) - 1):
         (xa, ra), (xb, rb) = pts[i], pts[i + 1]
@@ -558,20 +578,25 @@ def assemble(pts: list[tuple[float, dict]], gs: list[tuple[float | None, str]], 
             evaluated += res.evaluated
         pair = (state[i], state[i + 1])
         if pair == ("ok", "fail"):
+            assert lower is not None and isinstance(res, Edge)  # an admissible stretch ends at a crossing
             windows.append(Window(lower, res))
             lower = None
         elif pair == ("fail", "ok"):
+            assert isinstance(res, Edge)
             lower = res
         elif pair == ("ok", "none"):
+            assert lower is not None and (res is None or isinstance(res, Edge))
             windows.append(Window(lower, res if res is not None else Edge(
                 xa, STOPPED, gs[i + 1][1], ra, xb,
                 f"no burning flame at {xb:.4g} ({gs[i + 1][1]}): the edge lies between {xa:.4g} and {xb:.4g}")))
             lower = None
         elif pair == ("none", "ok"):
+            assert res is None or isinstance(res, Edge)
             lower = res if res is not None else Edge(
                 xb, STOPPED, gs[i][1], rb, xa,
                 f"no burning flame at {xa:.4g} ({gs[i][1]}): the edge lies between {xa:.4g} and {xb:.4g}")
         elif res is not None:  # an interior search between two failing points
+            assert isinstance(res, _Interval)
             if res.window is not None:
                 windows.append(res.window)
             elif res.miss is not None:

@@ -7,12 +7,24 @@ the closest miss.
 """
 from __future__ import annotations
 
+from collections.abc import Sequence
+from typing import TYPE_CHECKING
+
 from ..columns import gas_label
 from ..physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
 from .search import CRITERIA, FOUND, NOT_ASSESSED, RANGE_END, SWEPT_END, WOBBE_EDGE
 
+if TYPE_CHECKING:
+    from ..config import Burner, Limits, Study
 
-def band_words(study) -> str:
+
+def burner_and_limits(study: Study) -> tuple[Burner, Limits]:
+    """The burner and the [limits] of a study with limits (config: [limits] needs a [burner])."""
+    assert study.burner is not None and study.limits is not None
+    return study.burner, study.limits
+
+
+def band_words(study: Study) -> str:
     """'the ±10 % Wobbe band' or 'the Wobbe band 45.7-54.7 MJ/m³' of the study's [gas_quality]."""
     gq = study.gas_quality
     if gq.tolerance_percent is not None:
@@ -22,25 +34,26 @@ def band_words(study) -> str:
     return "the Wobbe band"
 
 
-def kept(study) -> str:
+def kept(study: Study) -> str:
     """What the study's limits keep, in words: 'flashback >= 1.5, blowoff >= 1.5 and the ±10 % Wobbe band'."""
-    b, lim = study.burner, study.limits
+    b, lim = burner_and_limits(study)
     words = [f"{c} >= {getattr(b, CRITERIA[c][1]):g}" for c in lim.criteria if c in CRITERIA]
     if "wobbe" in lim.criteria:
         words.append(band_words(study))
     return ", ".join(words[:-1]) + " and " + words[-1] if len(words) > 1 else words[0]
 
 
-def fixed_ratio_note(study) -> str:
+def fixed_ratio_note(study: Study) -> str:
     """'' or the warning that a port's flashback and blowoff margins multiply to a constant:
     both critical gradients are S_L^2/alpha_u times a constant (physics.indicators), so where
     both are criteria the band they allow is the same whatever the mixture. Not checked
     against published stability data (flashback and blowoff velocities of the same ports
     across phi): said wherever an answer rests on it."""
-    crit = [c for c in study.limits.criteria if c in CRITERIA]
+    b, lim = burner_and_limits(study)
+    crit = [c for c in lim.criteria if c in CRITERIA]
     if "flashback" not in crit or "blowoff" not in crit:
         return ""
-    s, b = study.indicator_settings, study.burner
+    s = study.indicator_settings
     product = s["flashback_peclet"] * s["blowoff_karlovitz"]
     top = product / b.min_blowoff_margin
     band = (f"flashback margins {b.min_flashback_margin:g}-{top:.2f}" if top >= b.min_flashback_margin
@@ -56,11 +69,11 @@ def _where(r: dict) -> str:
     return f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K"
 
 
-def _minimum(study, criterion: str) -> float | None:
+def _minimum(study: Study, criterion: str | None) -> float | None:
     return getattr(study.burner, CRITERIA[criterion][1], None) if criterion in CRITERIA else None
 
 
-def _binds(r: dict, side: str, study, past: str) -> str:
+def _binds(r: dict, side: str, study: Study, past: str) -> str:
     """'flashback binds richer: margin 1.50 there, minimum 1.5'."""
     c, m = r.get(f"{side}_binding"), r.get(f"{side}_margin")
     if c == "no flame":
@@ -74,7 +87,7 @@ def _binds(r: dict, side: str, study, past: str) -> str:
     return f"{c} binds{past}{there}"
 
 
-def _blend_edge(r: dict, side: str, study, blend: str) -> str:
+def _blend_edge(r: dict, side: str, study: Study, blend: str) -> str:
     v, kind = r[f"{side}_edge"], r[f"{side}_kind"]
     pct = f"{100 * v:.1f} %"
     if kind == FOUND:
@@ -100,7 +113,7 @@ def _blend_edge(r: dict, side: str, study, blend: str) -> str:
     return f"{'at least' if side == 'upper' else 'about'} {pct} (edge not settled: {r.get('note', '')})"
 
 
-def _phi_edge(r: dict, side: str, study) -> str:
+def _phi_edge(r: dict, side: str, study: Study) -> str:
     v, kind = r[f"{side}_edge"], r[f"{side}_kind"]
     past = " leaner" if side == "lower" else " richer"
     if kind == FOUND:
@@ -110,7 +123,7 @@ def _phi_edge(r: dict, side: str, study) -> str:
     return f"phi {v:.3f} (edge not settled: {r.get('note', '')})"
 
 
-def _outside_band(r: dict, study) -> str | None:
+def _outside_band(r: dict, study: Study) -> str | None:
     """The sentence of a search whose flame margins allow a window that the Wobbe band excludes."""
     if r.get("flame_lower_edge") is None:
         return None
@@ -130,7 +143,7 @@ def _outside_band(r: dict, study) -> str | None:
     return f"not admissible: {head}; the flame margins alone would allow {alone}{note}"
 
 
-def _none(r: dict, study, what: str) -> str:
+def _none(r: dict, study: Study, what: str) -> str:
     outside = _outside_band(r, study)
     if outside is not None:
         return outside
@@ -139,14 +152,15 @@ def _none(r: dict, study, what: str) -> str:
         at = r["closest_miss_at"]
         where = f"{100 * at:.1f} %" if r["axis"] == "blend_fraction" else f"phi {at:.3f}"
         miss = f"; at best {where}, where the margins are {r.get('closest_miss_margins') or '-'}"
-        need = sorted({_minimum(study, c) for c in study.limits.criteria if c in CRITERIA})
+        b, lim = burner_and_limits(study)
+        need = sorted({getattr(b, CRITERIA[c][1]) for c in lim.criteria if c in CRITERIA})
         miss += f" (minimum {', '.join(f'{n:g}' for n in need)})"
     fails = f"; fails by {r['swept_failures']}" if r.get("swept_failures") else ""
     note = f"; {r['note']}" if r.get("note") else ""
     return f"not admissible: no {what} keeps every margin{fails}{miss}{note}"
 
 
-def limit_sentence(r: dict, study) -> str:
+def limit_sentence(r: dict, study: Study) -> str:
     """The answer of one limits.csv row in one sentence.
 
     >>> from types import SimpleNamespace as NS
@@ -159,7 +173,7 @@ def limit_sentence(r: dict, study) -> str:
     >>> limit_sentence(r, st)
     'town gas at phi 1.1, 1 bar, 300 K: rig takes up to 23.4 % hydrogen (flashback binds: margin 1.50 there, minimum 1.5)'
     """
-    b, blend = study.burner, study.blend_with or "blend gas"
+    b, blend = burner_and_limits(study)[0], study.blend_with or "blend gas"
     nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
     gaps = [f"{c} at {n}" for c, n in unassessed(r)]
     gap = f"; not assessed: {', '.join(gaps)} (why: limits.csv, criteria_not_assessed)" if gaps else ""
@@ -182,13 +196,14 @@ def unassessed(r: dict) -> list[tuple[str, str]]:
     return [tuple(p.split(" (at ")[0].split(" at ", 1)) for p in parts if p]
 
 
-def band_alone(r: dict, study) -> str:
+def band_alone(r: dict, study: Study) -> str:
     """What the Wobbe band says where no flame criterion of a search is assessed: the blend
     fractions it allows (blend search) or whether the blend lies inside it (phi search); ''
     without a band."""
     lo, hi = r.get("wobbe_band_from"), r.get("wobbe_band_to")
     if lo is None:
         return ""
+    assert hi is not None  # written with wobbe_band_from
     span = f"{100 * lo:.1f}-{100 * hi:.1f} % {study.blend_with or 'blend gas'}"
     if r["axis"] == "blend_fraction":
         return f"{band_words(study)} alone allows {span}"
@@ -196,7 +211,7 @@ def band_alone(r: dict, study) -> str:
     return f"the blend lies {'inside' if lo - 1e-9 <= x <= hi + 1e-9 else 'outside'} {band_words(study)} ({span})"
 
 
-def _sentence(r: dict, study, b, blend: str, nth: str) -> str:
+def _sentence(r: dict, study: Study, b: Burner, blend: str, nth: str) -> str:
     if r["outcome"] == NOT_ASSESSED:
         where = (f"{r['fuel']} at phi {r['equivalence_ratio']:g}" if r["axis"] == "blend_fraction"
                  else gas_label(r))
@@ -225,6 +240,6 @@ def _sentence(r: dict, study, b, blend: str, nth: str) -> str:
     return f"{head}: admissible from {_phi_edge(r, 'lower', study)} to {_phi_edge(r, 'upper', study)}{nth}"
 
 
-def search_flames(limits: list[dict]) -> int:
+def search_flames(limits: Sequence[dict]) -> int:
     """Flames the searches asked for beyond the sweep (each search counted once, not per window)."""
     return sum(r["flames_evaluated"] or 0 for r in limits if (r.get("window") or 0) <= 1)

@@ -22,10 +22,11 @@ import io
 import threading
 import time
 import warnings
-from dataclasses import dataclass, asdict
+from dataclasses import asdict, dataclass
 
 import cantera as ct
 import numpy as np
+import numpy.typing as npt
 
 from ..errors import first_line
 from ..outcome import Reason, Status
@@ -125,7 +126,7 @@ def robust_numerics(numerics: Numerics) -> Numerics:
 ROBUST_RETRY = "robust retry (3x wider domain, coarser first grid)"
 
 
-def mechanism_fault(gas, T_u: float, P: float, X, T_eq: float) -> str:
+def mechanism_fault(gas: ct.Solution, T_u: float, P: float, X: dict[str, float], T_eq: float) -> str:
     """'' if the mechanism gives finite thermodynamics and reaction rates along the way
     from the unburned mixture (T_u) to the burned one (T_eq), else what is wrong.
 
@@ -136,7 +137,7 @@ def mechanism_fault(gas, T_u: float, P: float, X, T_eq: float) -> str:
     """
     gas.TP = T_eq, P
     Y_eq = gas.Y
-    states = [(T, X, "unburned mixture") for T in np.linspace(T_u, T_eq, 5)]
+    states: list[tuple[float, dict[str, float] | None, str]] = [(T, X, "unburned mixture") for T in np.linspace(T_u, T_eq, 5)]
     states.append((T_eq, None, "equilibrium products"))
     for T, comp, what in states:
         if comp is None:
@@ -184,7 +185,7 @@ def _set_criteria(f, stage, prune):
     f.set_refine_criteria(ratio=ratio, slope=slope, curve=curve, prune=min(prune, 0.5 * slope))
 
 
-def scaled_profile(grid_m, velocity_m_s, T_K, P_from: float, P_to: float,
+def scaled_profile(grid_m: npt.ArrayLike, velocity_m_s: npt.ArrayLike, T_K: npt.ArrayLike, P_from: float, P_to: float,
                    beta: float = GUESS_PRESSURE_EXPONENT) -> tuple[np.ndarray, np.ndarray]:
     """Grid and velocity of a converged flame stretched to another pressure.
 
@@ -222,7 +223,7 @@ def scaled_profile(grid_m, velocity_m_s, T_K, P_from: float, P_to: float,
     return x_new - x_new[0], u * (P_to / P_from) ** beta
 
 
-def preheated_profile(T_K, T_u_new: float) -> np.ndarray:
+def preheated_profile(T_K: npt.ArrayLike, T_u_new: float) -> np.ndarray:
     """A converged temperature profile moved to another unburned temperature.
 
     The inlet temperature is fixed by the new mixture, so a neighbour's profile that starts
@@ -322,7 +323,7 @@ def _solve_fresh(ct, gas, T_u, P, X, transport, soret, numerics):
     return f
 
 
-def monotone_cubic(x, table, x_new) -> np.ndarray:
+def monotone_cubic(x: npt.ArrayLike, table: npt.ArrayLike, x_new: npt.ArrayLike) -> np.ndarray:
     """Piecewise-cubic Hermite interpolation that keeps the data's monotonicity (PCHIP).
 
     Slopes are the weighted harmonic mean of the neighbouring secant slopes, zero at
@@ -479,7 +480,7 @@ def _solve_warm(ct, gas, T_u, P, X, transport, soret, numerics, warm):
     return f
 
 
-def measure(f, gas, T_u: float, P: float, X, T_eq: float) -> dict:
+def measure(f: ct.FreeFlame, gas: ct.Solution, T_u: float, P: float, X: dict[str, float], T_eq: float) -> dict:
     """Measured quantities of a converged flame (SI units, plain floats); T_eq is the HP
     equilibrium temperature of the unburned mixture [K]."""
     # the flame's array properties set the shared gas object point by point, so read
@@ -518,7 +519,7 @@ def _speed_and_thickness_on(f, final, keep) -> tuple[float, float]:
     return float(f.velocity[0]), profiles.thermal_thickness(f.grid, f.T)
 
 
-def grid_error(f) -> dict:
+def grid_error(f: ct.FreeFlame) -> dict:
     """Error estimate of a converged flame's speed and thermal thickness: the flame solved
     again on every second and every fourth point of its final grid (a systematic
     coarsening, ratio 2), and the three values combined into Roache's grid convergence index
@@ -554,7 +555,7 @@ def grid_error(f) -> dict:
             "grid_convergence_order": speed["order"]}
 
 
-def profile_of(f, P: float) -> dict:
+def profile_of(f: ct.FreeFlame, P: float) -> dict:
     """Plain-array profile of a converged flame, enough to warm-start a neighbour."""
     return {
         "grid": np.array(f.grid),
@@ -580,7 +581,7 @@ def classify(metrics: dict, T_u: float) -> tuple[Status, str]:
     return Status.OK, "; ".join(notes)
 
 
-def solve_flame(gas, T_u: float, P: float, X, transport: str, soret: bool, numerics: Numerics,
+def solve_flame(gas: ct.Solution, T_u: float, P: float, X: dict[str, float], transport: str, soret: bool, numerics: Numerics,
                 warm: dict | None = None, time_limit_s: float | None = None) -> dict:
     """Solve one freely propagating flame and measure it.
 

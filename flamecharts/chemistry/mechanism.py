@@ -17,6 +17,7 @@ from __future__ import annotations
 import hashlib
 import re
 import tempfile
+from collections.abc import Iterable
 from functools import lru_cache
 from pathlib import Path
 
@@ -60,7 +61,7 @@ def reaction_equations(path: str) -> tuple[str, ...]:
     return tuple(solution(path).reaction_equations())
 
 
-def molar_masses(path: str, species) -> dict[str, float]:
+def molar_masses(path: str, species: Iterable[str]) -> dict[str, float]:
     """Molar mass [kg/kmol] of each species of the mechanism."""
     gas = solution(path)
     return {sp: float(gas.molecular_weights[gas.species_index(sp)]) for sp in species}
@@ -146,7 +147,7 @@ def mechanism_text(path: str, transport: str) -> str:
 
 
 
-def fallback_data(gas, species, combustion_T_C: int = 15) -> dict:
+def fallback_data(gas: ct.Solution, species: Iterable[str], combustion_T_C: int = 15) -> dict:
     """Ideal-gas (M, n_H, superior kJ/mol) from a Cantera mechanism for species outside ISO 6976.
 
     The inferior value is the enthalpy of complete combustion to CO2, H2O (vapour), N2
@@ -155,10 +156,10 @@ def fallback_data(gas, species, combustion_T_C: int = 15) -> dict:
     Species whose products are not in the mechanism raise ValueError.
     """
     T = 273.15 + combustion_T_C
-    out = {}
+    out: dict[str, tuple[float, float, float]] = {}
     names = gas.species_names
 
-    def h(name):  # molar enthalpy [kJ/mol] at T
+    def h(name: str) -> float:  # molar enthalpy [kJ/mol] at T
         gas.TPX = T, P_ISO, {name: 1.0}
         return gas.enthalpy_mole / 1e6
 

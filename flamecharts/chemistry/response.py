@@ -10,10 +10,15 @@ feeds it from Cantera, in the worker, so the numbers are stored with each flame.
 """
 from __future__ import annotations
 
+from collections.abc import Callable, Mapping
 from functools import lru_cache
+from typing import TYPE_CHECKING, Any
 
 from ..physics import flame_response as fr
 from .mechanism import solution
+
+if TYPE_CHECKING:
+    import cantera as ct
 
 #: Inerts whose mole fraction is moved to change T_ad at fixed phi, in order of preference.
 INERTS = ("N2", "AR", "Ar", "HE", "He", "CO2")
@@ -26,7 +31,7 @@ DEFAULT_INERT_STEP = 0.005
 _PRODUCTS = {"C": "CO2", "H": "H2O", "N": "N2"}
 
 
-def is_combustible(atoms: dict[str, float]) -> bool:
+def is_combustible(atoms: Mapping[str, float]) -> bool:
     """Carries C or H with less O than full oxidation (so H2O and CO2 are not, CO is).
 
     >>> is_combustible({"C": 1, "H": 4}), is_combustible({"C": 1, "O": 2}), is_combustible({"C": 1, "O": 1})
@@ -36,7 +41,7 @@ def is_combustible(atoms: dict[str, float]) -> bool:
     return (c > 0 or h > 0) and o < 2 * c + h / 2
 
 
-def lower_heating_value(gas, species: str) -> float | None:
+def lower_heating_value(gas: ct.Solution, species: str) -> float | None:
     """Lower heating value [J/mol] of ``species`` burned to CO2, H2O (gas) and N2 at 298.15 K,
     from the mechanism's standard enthalpies; None when a product is missing from it."""
     n = {e: gas.n_atoms(species, e) for e in ("C", "H", "O", "N") if e in gas.element_names}
@@ -50,7 +55,7 @@ def lower_heating_value(gas, species: str) -> float | None:
     return h[species] + o2 * h["O2"] - sum(v * h[p] for p, v in need.items())
 
 
-def lewis_numbers(gas, X: dict, T: float, P: float) -> tuple[float | None, float | None]:
+def lewis_numbers(gas: ct.Solution, X: dict, T: float, P: float) -> tuple[float | None, float | None]:
     """(Le of the fuel, Le of O2) in the fresh mixture X at T [K], P [Pa], mixture-averaged
     diffusion coefficients; a fuel of several combustibles is weighted by heat release
     (physics.flame_response.blend_lewis_number_heat_release). None where absent."""
@@ -109,7 +114,8 @@ def inert_steps(X: dict, species: list[str], step: float) -> tuple[str, tuple[fl
     return present[0], (step, 2 * step)
 
 
-def zeldovich_flames(solve, X: dict, species: list[str], T_u: float, base: dict, step: float) -> dict:
+def zeldovich_flames(solve: Callable[[dict, dict | None], dict], X: dict, species: list[str], T_u: float, base: dict,
+                     step: float) -> dict:
     """Ze of a converged flame from two more flames at the same phi, p and T_u with the
     inert moved by ``step`` either way (Egolfopoulos & Law 1990), each warm-started from it.
 
@@ -119,7 +125,7 @@ def zeldovich_flames(solve, X: dict, species: list[str], T_u: float, base: dict,
     and the extra flames' solve seconds.
     """
     m0 = base["metrics"]
-    out = {"zeldovich_number": None, "zeldovich_seconds": 0.0}
+    out: dict[str, Any] = {"zeldovich_number": None, "zeldovich_seconds": 0.0}
     chosen = inert_steps(X, species, step)
     if chosen is None:
         out["zeldovich_message"] = "no inert (N2, Ar, He, CO2) in the mechanism"

@@ -15,13 +15,14 @@ import contextlib
 import io
 import warnings
 
+import cantera as ct
 import numpy as np
 
 from . import flame as flame_mod
 
 
-def flame_speed_sensitivities(gas, T_u: float, P: float, X: dict, transport: str, soret: bool,
-                              profile: dict, numerics) -> dict:
+def flame_speed_sensitivities(gas: ct.Solution, T_u: float, P: float, X: dict, transport: str, soret: bool,
+                              profile: dict, numerics: flame_mod.Numerics) -> dict:
     """Normalized sensitivities s_i = (k_i / S_L) dS_L/dk_i of a converged flame.
 
     The flame is set up from its stored ``profile`` on the stored grid and solved there (no
@@ -42,8 +43,6 @@ def flame_speed_sensitivities(gas, T_u: float, P: float, X: dict, transport: str
     ``laminar_flame_speed_m_s`` of the re-solved flame [m/s] (equal to the stored one within
     the solver's tolerance); ``grid_points``.
     """
-    import cantera as ct
-
     with warnings.catch_warnings(), contextlib.redirect_stdout(io.StringIO()):
         warnings.simplefilter("ignore")
         gas.TPX = T_u, P, X

@@ -16,9 +16,11 @@ from __future__ import annotations
 
 import math
 import time
+from typing import Any
 
 import cantera as ct
 import numpy as np
+import numpy.typing as npt
 
 #: Half the nozzle separation (nozzle to symmetry plane) in flame thicknesses alpha_u / S_L:
 #: the same geometry in flame units for every mixture (methane-air at phi 1: about 24 mm;
@@ -42,7 +44,7 @@ REFINE = dict(ratio=3.0, slope=0.1, curve=0.2, prune=0.03)
 MAX_SOLVES = 40
 
 
-def heat_of_combustion(gas, T_u: float, P: float, X) -> float:
+def heat_of_combustion(gas: ct.Solution, T_u: float, P: float, X: dict[str, float]) -> float:
     """Heat released per kg of fresh mixture [J/kg]: h of the fresh mixture minus h of its HP
     equilibrium products brought back to T_u at frozen composition."""
     gas.TPX = T_u, P, X
@@ -53,7 +55,7 @@ def heat_of_combustion(gas, T_u: float, P: float, X) -> float:
     return float(h_u - gas.enthalpy_mass)
 
 
-def strain_rate(z, u, T) -> float:
+def strain_rate(z: npt.ArrayLike, u: npt.ArrayLike, T: npt.ArrayLike) -> float:
     """Largest axial velocity gradient |du/dz| ahead of the flame [1/s]: between the nozzle
     and the axial-velocity minimum that the flame's dilatation makes just ahead of its
     preheat zone (Law's "reference strain rate"; the flow behind the flame, decelerating to
@@ -71,13 +73,13 @@ def strain_rate(z, u, T) -> float:
     return float(grad.max()) if grad.size else float("nan")
 
 
-def consumption_speed(z, heat_release_W_m3, rho_u: float, q_J_kg: float) -> float:
+def consumption_speed(z: np.ndarray, heat_release_W_m3: np.ndarray, rho_u: float, q_J_kg: float) -> float:
     """Consumption speed [m/s]: int q_dot dz / (rho_u q), heat released by one of the twin
     flames over the heat the fresh mixture carries. Equals S_L for an unstrained flame."""
     return float(np.trapezoid(heat_release_W_m3, z) / (rho_u * q_J_kg))
 
 
-def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
+def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float], S_L: float, T_ad: float,
                       time_limit_s: float | None = None, refine: dict | None = None,
                       first_velocity_factor: float = FIRST_VELOCITY_FACTOR, ladder_factor: float = LADDER_FACTOR,
                       resolution: float = EXTINCTION_RESOLUTION) -> dict:
@@ -114,7 +116,7 @@ def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
     flame.set_refine_criteria(**(REFINE if refine is None else refine))
     U = first_velocity_factor * S_L
     factor = ladder_factor
-    out = {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
+    out: dict[str, Any] = {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
            "extinction_strain_rate_1_s": None, "extinguished_above_1_s": None, "solves": 0, "message": "",
            "half_separation_m": width, "unburned_thermal_diffusivity_m2_s": alpha_u}
     saved = None
@@ -152,7 +154,8 @@ def twin_flame_ladder(gas, T_u: float, P: float, X, S_L: float, T_ad: float,
     return out
 
 
-def markstein_number_from_strain(strain_rates_1_s, consumption_speeds_m_s, S_L: float, alpha_u: float,
+def markstein_number_from_strain(strain_rates_1_s: npt.ArrayLike, consumption_speeds_m_s: npt.ArrayLike, S_L: float,
+                                 alpha_u: float,
                                  max_karlovitz: float = 0.05) -> float | None:
     """Markstein number of the consumption speed against strain, from the low-strain slope [-].
 

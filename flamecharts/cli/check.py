@@ -1,13 +1,15 @@
 """flamecharts check CONFIG: validate a config and print the plan and its estimated run time."""
 from __future__ import annotations
 
+import argparse
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from ..chemistry.flame import NUMERICS
-from ..chemistry.strained import MAX_SOLVES
 from ..admissible.driver import planned_searches
 from ..admissible.words import kept
-from .progress import duration, plural
+from ..chemistry.flame import NUMERICS
+from ..chemistry.mechanism import reaction_equations
+from ..chemistry.strained import MAX_SOLVES
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
@@ -15,17 +17,20 @@ from ..store import DB_NAME, Store, stored_keys
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
-from ..chemistry.mechanism import reaction_equations
-from ..sweep.schedule import (CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds,
-                              sensitivity_seconds)
+from ..sweep.schedule import CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds, sensitivity_seconds
 from ..sweep.warm_tree import warm_tree
+from .progress import duration, plural
 from .tables import print_burner, print_gases, print_points
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from ..sweep.warm_tree import WarmPlan
 
 #: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
 GRI_LADDER_NOTE = "30-60 s a strained flame, stoichiometric methane-air 15 flames in 11 min"
 
 
-def cmd_check(args) -> int:
+def cmd_check(args: argparse.Namespace) -> int:
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
     keys = stored_keys(out / DB_NAME)  # a damaged or foreign store is reported here, before a run meets it
@@ -62,7 +67,7 @@ def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
     return line
 
 
-def _plan(study, out: Path, keys: set, jobs) -> float:
+def _plan(study: Study, out: Path, keys: set, jobs: int | None) -> float:
     """Print one mechanism's plan (its stored points, what is left, the extras asked for); return
     the estimated seconds of its sweep (0 when nothing is left)."""
     pts = points(study)
@@ -94,7 +99,7 @@ def _plan(study, out: Path, keys: set, jobs) -> float:
     return seconds + _extras_lines(study, timings, jobs, len(todo))
 
 
-def _extras_lines(study, timings: dict, jobs, n_todo: int) -> float:
+def _extras_lines(study: Study, timings: dict, jobs: int | None, n_todo: int) -> float:
     """Print what the study's [limits], [stretch], [uncertainty] and [flame_response] tables add,
     each with its estimate; return their seconds. Extras of points already stored are not
     solved again, so only the points still to solve count (an upper bound: points that turn
@@ -134,11 +139,12 @@ def _extras_lines(study, timings: dict, jobs, n_todo: int) -> float:
     return total
 
 
-def _limits_line(study, timings: dict, jobs) -> tuple[str, float]:
+def _limits_line(study: Study, timings: dict, jobs: int | None) -> tuple[str, float]:
     """What the [limits] table asks for and about how many flames beyond the sweep it needs, and
     their estimated seconds."""
     plan = planned_searches(study)
     lim = study.limits
+    assert lim is not None  # asked only of a study with [limits]
     asks = []
     if plan["blend_fraction"]:
         asks.append(f"the admissible {study.blend_with} fractions (both edges of every window) at "
@@ -155,7 +161,7 @@ def _limits_line(study, timings: dict, jobs) -> tuple[str, float]:
             f"(warm-started, about {duration(t)}; stored flames are not solved again)"), t
 
 
-def _estimate_line(study, tree, timings: dict, jobs) -> tuple[str, float]:
+def _estimate_line(study: Study, tree: WarmPlan, timings: dict, jobs: int | None) -> tuple[str, float]:
     """'Estimated run time ...' from stored timings of the same settings, else from the mechanism
     size, and the estimate [s]."""
     jobs = resolve_jobs(jobs)

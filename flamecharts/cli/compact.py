@@ -1,13 +1,14 @@
 """flamecharts compact DIR: migrate a run folder's store and give its free space back."""
 from __future__ import annotations
 
+import argparse
 from pathlib import Path
 
 from ..errors import StoreError
 from ..store import DB_NAME, RunLock, Store
 
 
-def cmd_compact(args) -> int:
+def cmd_compact(args: argparse.Namespace) -> int:
     folder = Path(args.dir)
     path = folder / DB_NAME
     if not path.is_file():

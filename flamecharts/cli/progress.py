@@ -3,8 +3,12 @@ from __future__ import annotations
 
 import sys
 import time
+from typing import TYPE_CHECKING, TextIO
 
 from tqdm import tqdm
+
+if TYPE_CHECKING:
+    from ..sweep.run import Progress
 
 #: Without a terminal, a line every this many seconds ...
 LINE_EVERY_S = 60.0
@@ -41,17 +45,17 @@ class ProgressDisplay:
     plan's estimate refined by the measured cost (Progress.remaining_s), or, when stderr is
     not a terminal, a plain line every LINE_EVERY_S seconds or LINE_EVERY_SHARE of the flames."""
 
-    def __init__(self, quiet: bool = False, stream=None):
+    def __init__(self, quiet: bool = False, stream: TextIO | None = None) -> None:
         self.quiet = quiet
         self.stream = stream or sys.stderr
         self.terminal = hasattr(self.stream, "isatty") and self.stream.isatty()
-        self.bar = None
+        self.bar: tqdm | None = None
         self.told_stop = False
-        self._last_line_t = None
+        self._last_line_t: float | None = None
         self._last_line_done = -1
         self._stage = ""
 
-    def __call__(self, pr) -> None:
+    def __call__(self, pr: Progress) -> None:
         if pr.stopping and not self.told_stop:
             self.told_stop = True
             print("\nCtrl-C: no new flames are started; the running ones finish and are stored "
@@ -68,7 +72,7 @@ class ProgressDisplay:
         else:
             self._line(pr, left_text)
 
-    def _bar(self, pr, left_text: str) -> None:
+    def _bar(self, pr: Progress, left_text: str) -> None:
         if self.bar is None:
             self.bar = tqdm(total=pr.total, unit="flame", file=self.stream, dynamic_ncols=True,
                             desc=f"{pr.stage + ': ' if pr.stage else ''}flames ({pr.reused} from the store)",
@@ -77,7 +81,7 @@ class ProgressDisplay:
                                  refresh=False)
         self.bar.update(pr.done - self.bar.n)
 
-    def _line(self, pr, left_text: str) -> None:
+    def _line(self, pr: Progress, left_text: str) -> None:
         now = time.monotonic()
         if self._last_line_t is None:
             self._last_line_t, self._last_line_done = now, pr.done

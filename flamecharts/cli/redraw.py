@@ -1,6 +1,7 @@
 """flamecharts charts DIR / report DIR: redraw the outputs of a finished run from its store."""
 from __future__ import annotations
 
+import argparse
 from pathlib import Path
 
 from ..outputs import write_outputs
@@ -8,7 +9,7 @@ from ..pipeline import read_limits, read_stretch
 from ..results import rows_from_dir
 
 
-def cmd_charts(args, report: bool = False) -> int:
+def cmd_charts(args: argparse.Namespace, report: bool = False) -> int:
     study, rows = rows_from_dir(Path(args.dir))
     files = write_outputs(study, rows, Path(args.dir), charts=True, report=report,
                           limits=read_limits(study, rows, args.dir), stretch=read_stretch(study, rows, args.dir))
@@ -18,5 +19,5 @@ def cmd_charts(args, report: bool = False) -> int:
 
 
 
-def cmd_report(args) -> int:
+def cmd_report(args: argparse.Namespace) -> int:
     return cmd_charts(args, report=True)

@@ -1,25 +1,30 @@
 """flamecharts run CONFIG: solve, store, write every output, print the outcome."""
 from __future__ import annotations
 
+import argparse
 import signal
 import sys
 from collections import Counter
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from ..columns import gas_label
 from ..admissible.words import kept, limit_sentence, search_flames
+from ..columns import gas_label
 from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
-from ..design import (error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences,
-                      not_assessed_summary)
+from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences, not_assessed_summary
 from ..outcome import Status
-from ..pipeline import default_out_dir, run
+from ..pipeline import RunSummary, default_out_dir, run
 from ..results import comparison_of, mechanism_dataset, rows_of
 from ..sweep.run import RunInterrupted
 from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points, print_premixer
 
+if TYPE_CHECKING:
+    from ..admissible import LimitsProgress
+    from ..config import Study
 
-def cmd_run(args) -> int:
+
+def cmd_run(args: argparse.Namespace) -> int:
     cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
@@ -31,6 +36,7 @@ def cmd_run(args) -> int:
                       limits_progress=None if args.quiet else _limits_line,
                       extras_progress=None if args.quiet else _extras_line)
         summary = results.summary
+        assert isinstance(summary, RunSummary)  # run() gives the summary of the run
     except KeyboardInterrupt as exc:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a further Ctrl-C cannot cut the message short
         progress.close()
@@ -99,16 +105,17 @@ def cmd_run(args) -> int:
     return 0
 
 
-def _limits_line(p) -> None:
+def _limits_line(p: LimitsProgress) -> None:
     """One plain line per round of limit flames (stderr, like the progress bar)."""
     print(f"limits: round {p.round}, {p.searches - p.open_searches} of {p.searches} searches answered, "
           f"{plural(p.flames_solved, 'flame')} solved, {p.elapsed_s:.0f} s", file=sys.stderr)
 
 
-def _print_limits(study, summary) -> None:
+def _print_limits(study: Study, summary: RunSummary) -> None:
     """The [limits] answers, one sentence each."""
     if not summary.limits:
         return
+    assert study.burner is not None  # a study with limits has a burner
     print(f"Limits ({study.burner.name}; keeping {kept(study)}"
           + f"; {search_flames(summary.limits)} flames beyond the sweep, "
           f"{summary.limit_flames} solved in this run):")
@@ -121,7 +128,7 @@ def _extras_line(what: str, done: int, total: int) -> None:
     print(f"{what}: {done} of {total} done", file=sys.stderr)
 
 
-def _print_stretch(summary, by_mechanism: bool = False) -> None:
+def _print_stretch(summary: RunSummary, by_mechanism: bool = False) -> None:
     """The [stretch] ladders, one line each (each with its mechanism when the study compares several)."""
     if not summary.stretch:
         return
@@ -140,7 +147,7 @@ def _print_stretch(summary, by_mechanism: bool = False) -> None:
               + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
 
 
-def _print_error_bars(study, rows) -> None:
+def _print_error_bars(study: Study, rows: list[dict]) -> None:
     """How sure the flame speeds are: per gas and condition, the point nearest phi 1 (with
     [uncertainty]; every flame's numerical band is in results.csv either way)."""
     if study.uncertainty is None:
@@ -159,7 +166,7 @@ def _print_error_bars(study, rows) -> None:
         print(f"  ... and {len(groups) - 20} more (report.html, results.csv)")
 
 
-def _print_mechanisms(study, rows) -> None:
+def _print_mechanisms(study: Study, rows: list[dict]) -> None:
     """A study comparing mechanisms: per other mechanism, gas and condition, the largest flame-speed
     difference from the reference's and whether it lies inside the reference's kinetic band."""
     comparison = comparison_of(study, rows)
@@ -172,7 +179,8 @@ def _print_mechanisms(study, rows) -> None:
     for d in lines[:20]:
         band, dth = d["reference_kinetic_uncertainty_percent"], d["thermal_thickness_difference_percent"]
         num = d["flame_speed_difference_numerical_error_percent"]
-        print(f"  {d['mechanism']}: {gas_label(d)} in {d['oxidizer']}, {d['pressure_bar']:g} bar, {d['unburned_temperature_K']:g} K: S_L "
+        print(f"  {d['mechanism']}: {gas_label(d)} in {d['oxidizer']}, {d['pressure_bar']:g} bar, "
+              f"{d['unburned_temperature_K']:g} K: S_L "
               f"differs by up to {d['flame_speed_difference_percent']:+.1f}"
               + ("" if num is None else f" ± {num:.2g}") + f" % (phi {d['equivalence_ratio']:g}: "
               f"{100 * d['laminar_flame_speed_m_s']:.3g} vs {100 * d['reference_laminar_flame_speed_m_s']:.3g} cm/s)"
@@ -183,7 +191,7 @@ def _print_mechanisms(study, rows) -> None:
         print(f"  ... and {len(lines) - 20} more (report.html, mechanism_comparison.csv)")
 
 
-def _utilisation(summary) -> str:
+def _utilisation(summary: RunSummary) -> str:
     """', 2 workers 87 % busy' (empty when nothing was solved)."""
     u = summary.worker_utilisation
     if u is None:

@@ -1,13 +1,20 @@
 """Terminal tables the commands print: fuel gases, the burner, per-point lines, margins."""
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
+import xarray as xr
+
 from ..columns import gas_label
 from ..design import fuel_gas_table, injection_end
 from ..physics.indicators import edge_velocity
 from ..results import first_flashback_fraction, margin_summary, premixer_summary
 
+if TYPE_CHECKING:
+    from ..config import Study
 
-def print_gases(study) -> None:
+
+def print_gases(study: Study) -> None:
     table = fuel_gas_table(study)
     print(f"Fuel gases ({table[0]['conditions']}; {table[0]['method']}):")
     print(f"  {'gas':38s} {'HHV':>7s} {'LHV':>7s} {'d':>6s} {'W_s':>7s} {'W_i':>7s} {'dW':>7s}  band")
@@ -20,29 +27,36 @@ def print_gases(study) -> None:
               f"{g['wobbe_change_percent']:+7.2f}  {band}")
 
 
-def print_burner(study) -> None:
+def print_burner(study: Study) -> None:
     b = study.burner
     if b is None:
         print("Burner: none given (add a [burner] table for flashback and blowoff margins)")
         return
     size = f"{'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"
-    how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
-           f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
-           + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+    if b.mode == "velocity":
+        how = f"port velocity {b.port_velocity_m_s:g} m/s"
+    else:
+        assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: an input and an area
+        how = (f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
+               + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
     _, bo_min, bo_name = b.blowoff
+    held = ""
+    if b.on_stabilizer:
+        assert b.stabilizer_size_m is not None and b.approach_velocity_m_s is not None  # config sets both
+        held = (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body blocking "
+                f"{100 * b.stabilizer_blockage:g} % of the duct: "
+                f"{edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage):.3g} m/s past its edge)")
     print(f"Burner: {b.name}: {b.port} ports{' (a deck: merged port flames)' if b.layout == 'deck' else ''}, "
-          f"{size}; {how}; minimum margins flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}"
-          + (f" (flame held by a {b.stabilizer_size_m * 1e3:g} mm bluff body blocking "
-             f"{100 * b.stabilizer_blockage:g} % of the duct: {edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage):.3g}"
-             " m/s past its edge)" if b.on_stabilizer else ""))
+          f"{size}; {how}; minimum margins flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}" + held)
 
 
-def print_margins(study, ds) -> None:
+def print_margins(study: Study, ds: xr.Dataset) -> None:
     """Smallest margins per gas and condition, read from the results Dataset."""
     summary = margin_summary(ds, study.burner)
     if not summary:
         return
     b = study.burner
+    assert b is not None  # margin_summary is empty without a burner
     _, bo_min, bo_name = b.blowoff
     print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}):")
     for s in summary:
@@ -66,17 +80,18 @@ def _lowest_words(s: dict, key: str, name: str) -> str:
     return f"{name} margin >= {s[f'min_{key}_margin']:.2f} (phi {s[f'at_phi_{key}']:g})"
 
 
-def _m(v) -> str:
+def _m(v: float | None) -> str:
     """A margin in 5 characters, '  n/a' where it is not assessed."""
     return "  n/a" if v is None else f"{v:5.2f}"
 
 
-def print_premixer(study, rows) -> None:
+def print_premixer(study: Study, rows: list[dict]) -> None:
     """Shortest ignition delay and smallest autoignition margin per gas and condition."""
     summary = premixer_summary(study, rows)
     if not summary:
         return
     pm = study.premixer
+    assert pm is not None  # premixer_summary is empty without [premixer]
     print(f"Premixer autoignition (residence time {pm.residence_time_s * 1e3:g} ms, minimum margin "
           f"{pm.min_autoignition_margin:g}; delay = time of max dT/dt at constant pressure):")
     for s in summary:
@@ -94,11 +109,12 @@ def print_premixer(study, rows) -> None:
 MAX_POINT_LINES = 60
 
 
-def print_points(study, rows) -> None:
+def print_points(study: Study, rows: list[dict]) -> None:
     """One line per point with the flame, its indicators and, with a burner, its margins."""
     burner = study.burner is not None
     # the blowoff margin that decides the verdict: the rim's, or the bluff body's (SM) where the flame sits on one
-    bo_col, bo_head = (study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO") if burner else ("", "")
+    bo_col, bo_head = ((study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO")
+                       if study.burner is not None else ("", ""))
     head = (f"  {'gas':30s} {'phi':>5s} {'p':>6s} {'T_u':>6s} {'S_L':>7s} {'d_T':>6s} {'g_F':>7s} {'d_q':>5s}"
             + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {bo_head:>5s}  verdict" if burner else ""))
     unit = (f"  {'':30s} {'-':>5s} {'bar':>6s} {'K':>6s} {'cm/s':>7s} {'mm':>6s} {'1/s':>7s} {'mm':>5s}"

@@ -10,8 +10,12 @@ from __future__ import annotations
 import html
 import math
 import time
-from statistics import median
+from collections.abc import Callable, Sequence, Set
 from pathlib import Path
+from statistics import median
+from typing import TYPE_CHECKING, Any, TypeVar
+
+import xarray as xr
 
 from .._version import __version__
 from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, search_flames, unassessed
@@ -19,14 +23,27 @@ from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
-from ..design import (error_bar_sentence, fuel_gas_table, injection_end, inside_kinetic_band, largest_differences,
-                      mechanism_differences, not_assessed_summary)
+from ..design import (
+    error_bar_sentence,
+    fuel_gas_table,
+    injection_end,
+    inside_kinetic_band,
+    largest_differences,
+    mechanism_differences,
+    not_assessed_summary,
+)
 from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .charts.registry import not_drawn
 from .tables import uncertainty_settings, write_atomic
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from ..results import Comparison
+
+T = TypeVar("T")
 
 CSS = """
 body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif; color: #1d1d1d;
@@ -63,15 +80,15 @@ MAX_POINT_ROWS = 2000
 MAX_TABLE_ROWS = 60
 
 
-def _first(items: list, where: str, order=None) -> tuple[list, str]:
+def _first(items: Sequence[T], where: str, order: Callable[[T], Any] | None = None) -> tuple[list[T], str]:
     """At most MAX_TABLE_ROWS of ``items`` (those first by ``order`` when some are left out)
     and the note saying so ('' when all are listed)."""
     if len(items) <= MAX_TABLE_ROWS:
-        return items, ""
+        return list(items), ""
     which = "first"
     if order is not None:
         items, which = sorted(items, key=order), "most critical"
-    return items[:MAX_TABLE_ROWS], (f"<p class='muted'>The {which} {MAX_TABLE_ROWS} of {len(items)} are listed; "
+    return list(items[:MAX_TABLE_ROWS]), (f"<p class='muted'>The {which} {MAX_TABLE_ROWS} of {len(items)} are listed; "
                                     f"all are in {_e(where)}.</p>")
 
 
@@ -79,7 +96,7 @@ def _e(x) -> str:
     return html.escape(str(x))
 
 
-def _table(header: list[str], rows: list[list], num_cols: set[int] = frozenset(), cls: str = "") -> str:
+def _table(header: list[str], rows: list[list], num_cols: Set[int] = frozenset(), cls: str = "") -> str:
     head = "".join(f"<th>{_e(h)}</th>" for h in header) if any(header) else ""
     body = "".join("<tr>" + "".join(
         f"<td class='num'>{_e(c)}</td>" if i in num_cols else f"<td>{_e(c)}</td>" for i, c in enumerate(r))
@@ -96,7 +113,7 @@ def _inline_svg(path: Path) -> str:
     return re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)  # drop the RDF block matplotlib writes
 
 
-def key_numbers(study, rows: list[dict]) -> list[list[str]]:
+def key_numbers(study: Study, rows: list[dict]) -> list[list[str]]:
     """The few numbers a design review asks for first, as table rows."""
     ok = [r for r in rows if r["status"] == "ok"]
     out = []
@@ -159,7 +176,7 @@ def _axis_value(r: dict, v: float) -> str:
     return f"{_number(r, v)} %" if r["axis"] == "blend_fraction" else f"φ {_number(r, v)}"
 
 
-def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
+def limit_key_numbers(study: Study, limits: Sequence[dict]) -> list[list[str]]:
     """The admissible range of every searched condition, first of the key numbers: the
     blend fractions the burner takes (else the phi windows), with what binds at each edge."""
     out = []
@@ -168,7 +185,7 @@ def limit_key_numbers(study, limits: list[dict]) -> list[list[str]]:
     return out
 
 
-def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
+def _key_limits(study: Study, mine: list[dict], axis: str) -> list[list[str]]:
     """Key-number rows of one axis's searches: one per condition, at most MAX_KEY_LIMITS."""
     groups: dict[tuple, list[dict]] = {}
     for r in mine:
@@ -176,7 +193,7 @@ def _key_limits(study, mine: list[dict], axis: str) -> list[list[str]]:
                            r["unburned_temperature_K"]), []).append(r)
     what = (f"Admissible {study.blend_with} fraction" if axis == "blend_fraction" else "Admissible φ window")
     out = []
-    for key, rs in list(groups.items())[:MAX_KEY_LIMITS]:
+    for _key, rs in list(groups.items())[:MAX_KEY_LIMITS]:
         r0 = rs[0]
         where = (f"{r0['fuel']}, φ {r0['equivalence_ratio']:g}" if axis == "blend_fraction" else gas_label(r0)) + \
             f", {r0['pressure_bar']:g} bar, {r0['unburned_temperature_K']:g} K"
@@ -217,11 +234,12 @@ def _num(v, fmt: str) -> str:
     return "" if v is None else format(v, fmt)
 
 
-def _points_appendix(study, rows: list[dict], comparison=None) -> str:
+def _points_appendix(study: Study, rows: list[dict], comparison: Comparison | None = None) -> str:
     """Appendix at the end of the report: one line per point (the first MAX_POINT_ROWS), printed on pages of its own."""
     burner = study.burner is not None
     # the blowoff margin that decides the verdict: the rim's, or the bluff body's (SM) where the flame sits on one
-    bo_col, bo_head = (study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO") if burner else ("", "")
+    bo_col, bo_head = ((study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO")
+                       if study.burner is not None else ("", ""))
     head = ["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "δ_T [mm]", "T_ad [K]", "g_F [1/s]",
             "d_q [mm]"] + (["U [m/s]", "FB", bo_head, "verdict"] if burner else []) + ["warning"]
     lines = []
@@ -246,7 +264,7 @@ def _points_appendix(study, rows: list[dict], comparison=None) -> str:
             "</section>")
 
 
-def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[str]:
+def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> list[str]:
     """The study's definition: fuels, oxidizers, sweep axes, lumping, burner, fuel-gas table."""
     parts: list[str] = []
     parts.append("<h2>Study</h2>")
@@ -268,15 +286,19 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
         parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
     b = study.burner
     if b is not None:
-        how = (f"port velocity {b.port_velocity_m_s:g} m/s" if b.mode == "velocity" else
-               f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
-               + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
+        if b.mode == "velocity":
+            how = f"port velocity {b.port_velocity_m_s:g} m/s"
+        else:
+            assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: an input and an area
+            how = (f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
+                   + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
         brows = [["name", b.name], ["port", f"{b.port}, {'diameter' if b.port == 'round' else 'gap'} "
                                             f"{b.port_size_m * 1e3:g} mm"
                                             + ("; a deck of merged port flames" if b.layout == "deck" else "")],
                  ["port velocity set by", how],
                  ["minimum margins", f"flashback {b.min_flashback_margin:g}, {b.blowoff[2]} {b.blowoff[1]:g}"]]
         if b.stabilizer_size_m is not None:
+            assert b.approach_velocity_m_s is not None  # config sets it with the stabilizer size
             brows.append(["bluff-body stabilizer", f"{b.stabilizer_size_m * 1e3:g} mm at "
                                                    f"{b.approach_velocity_m_s:g} m/s approach, blocking "
                                                    f"{100 * b.stabilizer_blockage:g} % of the duct: "
@@ -297,13 +319,14 @@ def _study_section(study, rows: list[dict], gases: list[dict] | None) -> list[st
     return parts
 
 
-def _premixer_section(study, rows: list[dict]) -> list[str]:
+def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
     """Autoignition in the premixer: the shortest delay per gas and condition, its margin and verdict."""
     summary = premixer_summary(study, rows)
     if not summary:
         return []
     summary, more = _first(summary, "results.csv", order=lambda s: s["autoignition_margin"])
     pm = study.premixer
+    assert pm is not None  # premixer_summary is empty without [premixer]
     inf = float("inf")
     return ["<h2 id='premixer'>Premixer autoignition</h2>",
             f"<p>Ignition delay of the fresh mixture at the preheat and pressure of each point: the time of the "
@@ -340,7 +363,7 @@ def by_gas_and_condition(rows: list[dict]) -> dict[tuple, list[dict]]:
     return groups
 
 
-def _mechanisms_section(study, comparison) -> list[str]:
+def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str]:
     """A study comparing mechanisms: what each was built for, and per gas and condition the largest
     difference of its flame speed from the reference's, beside the reference's kinetic band."""
     if comparison is None:
@@ -388,12 +411,13 @@ def _mechanisms_section(study, comparison) -> list[str]:
                                   f"{k[3]:g}", f"{k[4]:g}", *(v.get(m, "") for m in names)]
                                  for k, v in searches.items()], "limits.csv")
         parts.append("<div class='keep'><h3>Limits under each mechanism</h3>"
-                     + _table(["admissible window along", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4}) + more_l
+                     + _table(["admissible window along", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4})
+                     + more_l
                      + "</div>")
     return parts
 
 
-def _uncertainty_section(study, rows: list[dict], comparison=None) -> list[str]:
+def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison | None = None) -> list[str]:
     """How sure the flame speeds are: per gas and condition the point nearest φ 1 with its
     numerical band and, with [uncertainty], its kinetic band and most sensitive reaction."""
     ok = [r for r in rows if r["status"] == "ok" and r.get("flame_speed_numerical_error_percent") is not None]
@@ -431,13 +455,13 @@ def _uncertainty_section(study, rows: list[dict], comparison=None) -> list[str]:
                "It leaves out transport and thermochemistry, correlations and "
                "second-order terms: a lower estimate of the model's uncertainty. The mechanism's own spread "
                "against measurements is the better check.</p>"
-               if kinetics else
+               if kinetics and u is not None else
                "<p>Add an [uncertainty] table to the study for the kinetic band (one adjoint solve per point).</p>"),
             _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
                     "kinetic band, 1σ [%]"], table, {1, 2, 4, 5}) + more]
 
 
-def _response_section(study, rows: list[dict]) -> list[str]:
+def _response_section(study: Study, rows: list[dict]) -> list[str]:
     """Flame response to stretch per gas and condition: Lewis numbers, and with [flame_response]
     the Zeldovich and Markstein numbers and where the flame is thermodiffusively unstable."""
     ok = [r for r in rows if r["status"] == "ok" and r.get("lewis_number_fuel") is not None]
@@ -470,14 +494,15 @@ def _response_section(study, rows: list[dict]) -> list[str]:
                "compare signs and trends with measurements, not values. A point can be cellular with Ma_u above 0: "
                "Ma_u adds the expansion term σ ln σ/(σ - 1) to the thermodiffusive one that sets the cellular "
                "instability."
-               if asked else ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
+               if asked and study.flame_response is not None else
+               ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
                              "and the instability flag (two extra flames per point).") + "</p>",
             _table(["gas", "p [bar]", "T_u [K]", "Le deficient reactant", "Ze", "lowest Ma_u (φ)", "cellular at φ"],
                    table, {1, 2})
             + more]
 
 
-def _stretch_section(study, stretch: list[dict]) -> list[str]:
+def _stretch_section(study: Study, stretch: Sequence[dict]) -> list[str]:
     """The [stretch] ladders: extinction strain rate and the measured Markstein number per mixture."""
     if not stretch:
         return []
@@ -527,11 +552,12 @@ def _unassessed_section(rows: list[dict]) -> list[str]:
                    [[g["criterion"], g["example"], f"{g['points']} of {g['of']}"] for g in gaps], {2})]
 
 
-def _limits_section(study, limits: list[dict]) -> list[str]:
+def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
     """The [limits] answers: one sentence per search, then how they were found."""
     if not limits:
         return []
     lim = study.limits
+    assert lim is not None  # limits.csv rows come from a [limits] table
     listed, more = _first(limits, "limits.csv")
     out = ["<h2 id='limits'>Limits</h2>", "<ul>"]
     out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in listed]
@@ -563,7 +589,7 @@ def _limits_section(study, limits: list[dict]) -> list[str]:
     return out
 
 
-def _provenance(study, comparison) -> list[str]:
+def _provenance(study: Study, comparison: Comparison | None) -> list[str]:
     """Where the numbers come from: mechanism(s), transport, numerics, software, config."""
     n = NUMERICS[study.resolution]
     return ["<h2>Provenance</h2>", _table(["", ""], [
@@ -583,8 +609,23 @@ def _provenance(study, comparison) -> list[str]:
     ])]
 
 
-def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None, dataset=None,
-                 limits: list[dict] = (), stretch: list[dict] = (), comparison=None) -> Path:
+def _charts_section(out_dir: Path) -> list[str]:
+    """Every chart drawn, with its caption, and the charts the sweep's shape left out, with why."""
+    parts, drawn = ["<h2>Charts</h2>"], set()
+    for name, caption in CAPTIONS.items():
+        svg = out_dir / "charts" / f"{name}.svg"
+        if svg.is_file():
+            drawn.add(name)
+            parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
+    if drawn and (skipped := not_drawn(drawn)):
+        parts.append("<p>Not drawn for this study: " + "; ".join(f"{_e(n)} ({_e(why)})" for n, why in skipped)
+                     + ".</p>")
+    return parts
+
+
+def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None,
+                 dataset: xr.Dataset | None = None, limits: Sequence[dict] = (), stretch: Sequence[dict] = (),
+                 comparison: Comparison | None = None) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts.
     ``comparison`` (results.Comparison) adds the mechanism comparison; ``study`` and ``rows``
     are then the reference mechanism's."""
@@ -609,10 +650,11 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
         b = study.burner
+        assert b is not None  # margin_summary is empty without a burner
         summary, more = _first(summary, "results.csv", order=lambda s: min(
             (s["min_flashback_margin"] or math.inf) / b.min_flashback_margin,
             (s["min_blowoff_margin"] or math.inf) / b.blowoff[1]))
-        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {study.burner.blowoff[2]} margin (φ)",
+        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {b.blowoff[2]} margin (φ)",
                              "points ok"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
                               f"{s['unburned_temperature_K']:g}",
@@ -627,16 +669,7 @@ def write_report(study, rows: list[dict], out_dir: Path, gases: list[dict] | Non
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
 
-    parts.append("<h2>Charts</h2>")
-    drawn = set()
-    for name, caption in CAPTIONS.items():
-        svg = out_dir / "charts" / f"{name}.svg"
-        if svg.is_file():
-            drawn.add(name)
-            parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
-    if drawn and (skipped := not_drawn(drawn)):
-        parts.append("<p>Not drawn for this study: " + "; ".join(f"{_e(n)} ({_e(why)})" for n, why in skipped)
-                     + ".</p>")
+    parts += _charts_section(out_dir)
 
     failed, more = _first([r for r in rows if r["status"] != "ok"], "results.csv (status, message)")
     if failed:

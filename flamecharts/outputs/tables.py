@@ -11,13 +11,15 @@ import io
 import os
 import tempfile
 import time
+from collections.abc import Sequence
 from pathlib import Path
 
 from .._version import __version__
 from ..chemistry.flame import NUMERICS
 from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, COLUMNS
-from ..config import Study, lumping_note, resolution_label
+from ..config import Study, Uncertainty, lumping_note, resolution_label
+
 
 def write_atomic(path: Path, text: str) -> None:
     """Write a text file so a reader never sees half of it."""
@@ -45,7 +47,7 @@ def _fmt(v) -> str:
     return str(v)
 
 
-def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
+def write_csv(rows: list[dict], path: Path, columns: Sequence[str] = COLUMNS) -> Path:
     """A CSV of ``rows`` with ``columns`` (results.csv by default: one row per point)."""
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
@@ -56,7 +58,7 @@ def write_csv(rows: list[dict], path: Path, columns=COLUMNS) -> Path:
     return Path(path)
 
 
-def uncertainty_settings(u) -> str:
+def uncertainty_settings(u: Uncertainty) -> str:
     """The [uncertainty] table as the run used it, in one line (the study's own factors named)."""
     own = "; ".join(f"{eq} f = {f:g}" for eq, f in u.factors)
     return (f"kinetic band {'on' if u.kinetics else 'off'}; a factor's bound read as {u.factor_sigmas:g} sigma; "

@@ -2,19 +2,26 @@
 from __future__ import annotations
 
 from pathlib import Path
+from typing import TYPE_CHECKING
+
+import xarray as xr
 
 from ..columns import COMPARISON_COLUMNS, GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENSITIVITY_COLUMNS, STRETCH_COLUMNS
-from ..design import fuel_gas_table, mechanism_differences
 from ..config import by_mechanism
+from ..design import fuel_gas_table, mechanism_differences
 from ..results import comparison_of, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
 from .charts import CAPTIONS, draw_all
 from .netcdf import write_netcdf
 from .report import write_report
 from .tables import write_about, write_csv
 
+if TYPE_CHECKING:
+    from ..config import Study
 
-def write_outputs(study, rows: list[dict], out: Path, charts: bool = True, report: bool = True,
-                  dataset=None, limits: list[dict] | None = None, stretch: list[dict] | None = None) -> list[Path]:
+
+def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True, report: bool = True,
+                  dataset: xr.Dataset | None = None, limits: list[dict] | None = None,
+                  stretch: list[dict] | None = None) -> list[Path]:
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the

@@ -5,9 +5,10 @@ fit_power_law   y = a x^b by least squares in log-log
 from __future__ import annotations
 
 import numpy as np
+import numpy.typing as npt
 
 
-def fit_power_law(x, y):
+def fit_power_law(x: npt.ArrayLike, y: npt.ArrayLike) -> tuple[float, float]:
     """Fit y = a x^b by linear least squares on (ln x, ln y).
 
     The form of Metghalchi & Keck, Combust. Flame 48 (1982) 191, for the pressure

@@ -9,9 +9,10 @@ thermal_diffusivity       lambda / (rho cp)
 from __future__ import annotations
 
 import numpy as np
+import numpy.typing as npt
 
 
-def thermal_thickness(x, T):
+def thermal_thickness(x: npt.ArrayLike, T: npt.ArrayLike) -> float:
     """Thermal flame thickness from the steepest temperature gradient.
 
     delta_T = (T_b - T_u) / max|dT/dx|, with T_u and T_b the first and last grid
@@ -41,7 +42,7 @@ def thermal_thickness(x, T):
     return float(abs(T[-1] - T[0]) / grad.max())
 
 
-def diffusive_thickness(lambda_u, rho_u, cp_u, S_L):
+def diffusive_thickness(lambda_u: float, rho_u: float, cp_u: float, S_L: float) -> float:
     """Diffusive flame thickness lambda_u / (rho_u cp_u S_L) = alpha_u / S_L.
 
     The thickness from the balance of heat diffusion and convection in the
@@ -67,7 +68,7 @@ def diffusive_thickness(lambda_u, rho_u, cp_u, S_L):
     return float(lambda_u / (rho_u * cp_u * S_L))
 
 
-def thermal_diffusivity(lambda_, rho, cp):
+def thermal_diffusivity(lambda_: float, rho: float, cp: float) -> float:
     """Thermal diffusivity alpha = lambda / (rho cp) [m^2/s].
 
     Parameters
@@ -87,7 +88,7 @@ def thermal_diffusivity(lambda_, rho, cp):
     return float(lambda_ / (rho * cp))
 
 
-def reaction_zone_thickness(x, q):
+def reaction_zone_thickness(x: npt.ArrayLike, q: npt.ArrayLike) -> float:
     """Reaction-zone thickness as the full width at half maximum of the heat release rate.
 
     The contiguous region around the peak where q >= max(q)/2, with its edges
@@ -127,7 +128,7 @@ def reaction_zone_thickness(x, q):
     return float(right - left)
 
 
-def expansion_ratio(rho_u, rho_b):
+def expansion_ratio(rho_u: float, rho_b: float) -> float:
     """Expansion (density) ratio rho_u / rho_b [-] across the flame.
 
     Examples

@@ -19,6 +19,7 @@ from __future__ import annotations
 import math
 
 import numpy as np
+import numpy.typing as npt
 
 #: Cellular (thermodiffusive) instability for Ze (Le_eff - 1) below this (Sivashinsky 1977).
 CELLULAR_THRESHOLD = -2.0
@@ -49,7 +50,7 @@ def lewis_number(thermal_diffusivity_m2_s: float, diffusion_coefficient_m2_s: fl
     return thermal_diffusivity_m2_s / diffusion_coefficient_m2_s
 
 
-def blend_lewis_number_heat_release(lewis_numbers, heat_release_weights) -> float:
+def blend_lewis_number_heat_release(lewis_numbers: npt.ArrayLike, heat_release_weights: npt.ArrayLike) -> float:
     """Fuel Lewis number of a fuel blend, weighted by each fuel's share of the heat release [-].
 
     Le_F = 1 + sum_i q_i (Le_i - 1) / sum_i q_i
@@ -123,7 +124,8 @@ def effective_lewis_number(lewis_excess: float, lewis_deficient: float, zeldovic
     return 1.0 + ((lewis_excess - 1.0) + (lewis_deficient - 1.0) * A) / (1.0 + A)
 
 
-def zeldovich_number(mass_burning_rates_kg_m2_s, flame_temperatures_K, unburned_temperature_K: float,
+def zeldovich_number(mass_burning_rates_kg_m2_s: npt.ArrayLike, flame_temperatures_K: npt.ArrayLike,
+                     unburned_temperature_K: float,
                      flame_temperature_K: float) -> float:
     """Zeldovich number from how the mass burning rate follows the flame temperature [-].
 

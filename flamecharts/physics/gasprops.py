@@ -22,6 +22,7 @@ Reference states: combustion at 0, 15 or 25 degC; metering at 0 or 15 degC; both
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 #: Molar gas constant of ISO 6976:2016 [J/(mol K)]
@@ -88,7 +89,7 @@ COMBUSTION_TEMPERATURES_C = (0, 15, 25)
 METERING_TEMPERATURES_C = (0, 15)
 
 
-def molar_mass(X, M):
+def molar_mass(X: Mapping[str, float], M: Mapping[str, float]) -> float:
     """Molar mass of a mixture, M = sum x_j M_j [g/mol] (ISO 6976:2016, eq. 1).
 
     Parameters
@@ -104,7 +105,7 @@ def molar_mass(X, M):
     return sum(x * M[k] for k, x in X.items())
 
 
-def compression_factor(X, s):
+def compression_factor(X: Mapping[str, float], s: Mapping[str, float]) -> float:
     """Compression factor of a gas mixture, Z = 1 - (sum x_j s_j)^2 [-] (ISO 6976:2016, eq. 2).
 
     Parameters
@@ -122,7 +123,7 @@ def compression_factor(X, s):
     return 1.0 - sum(x * s[k] for k, x in X.items()) ** 2
 
 
-def ideal_volume_cv(H_molar_kJ_mol, Z, T_meter_K, P=P_ISO):
+def ideal_volume_cv(H_molar_kJ_mol: float, Z: float, T_meter_K: float, P: float = P_ISO) -> float:
     """Real-gas volumetric heating value H_v = H_m p / (Z R T) [MJ/m^3] (ISO 6976:2016, eq. 7 with 9).
 
     Parameters
@@ -142,7 +143,7 @@ def ideal_volume_cv(H_molar_kJ_mol, Z, T_meter_K, P=P_ISO):
     return H_molar_kJ_mol * P / (Z * R_ISO * T_meter_K) / 1000.0
 
 
-def relative_density(M, Z, Z_air, M_air=M_AIR):
+def relative_density(M: float, Z: float, Z_air: float, M_air: float = M_AIR) -> float:
     """Real-gas relative density d = (M / M_air)(Z_air / Z) [-] (ISO 6976:2016, eq. 12).
 
     Parameters
@@ -160,7 +161,7 @@ def relative_density(M, Z, Z_air, M_air=M_AIR):
     return (M / M_air) * (Z_air / Z)
 
 
-def wobbe_index(H_v, d):
+def wobbe_index(H_v: float, d: float) -> float:
     """Wobbe index W = H_v / sqrt(d) [MJ/m^3] (ISO 6976:2016, eq. 14).
 
     Gases of equal Wobbe index give the same thermal input through the same nozzle
@@ -195,7 +196,7 @@ class GasProperties:
     fallback_species: tuple[str, ...]
 
 
-def fuel_gas_properties(X, combustion_T_C: int = 15, metering_T_C: int = 15,
+def fuel_gas_properties(X: Mapping[str, float], combustion_T_C: int = 15, metering_T_C: int = 15,
                         fallback: dict | None = None) -> GasProperties:
     """ISO 6976:2016 properties of a fuel gas (real gas, 101.325 kPa).
 

@@ -19,8 +19,12 @@ each constant holds (the data it was fitted on) is physics.validity's.
 """
 from __future__ import annotations
 
+from typing import Any
+
 #: Default settings, each overridable in the study's [indicators] table.
-DEFAULTS = {
+#: Values are floats, or None where a setting has no default (Any: the defaults of the functions
+#: below read them as floats).
+DEFAULTS: dict[str, Any] = {
     # Flashback Peclet number of the critical-gradient model. Derived: for stoichiometric
     # methane-air this tool computes S_L^2/alpha_u = 6.3e3 1/s and for hydrogen-air
     # 1.2e5 1/s (GRI-Mech 3.0 / h2o2, 298 K, 1 atm); Lewis & von Elbe report critical
@@ -44,7 +48,7 @@ DEFAULTS = {
 }
 
 
-def chemical_time(alpha_u, S_L):
+def chemical_time(alpha_u: float, S_L: float) -> float:
     """Chemical (flame) time tau_c = alpha_u / S_L^2 [s].
 
     The transit time of the flame through its own diffusive thickness (Poinsot &
@@ -64,7 +68,7 @@ def chemical_time(alpha_u, S_L):
     return alpha_u / S_L ** 2
 
 
-def blint_thickness(alpha_u, S_L, T_b, T_u):
+def blint_thickness(alpha_u: float, S_L: float, T_b: float, T_u: float) -> float:
     """Blint's flame-thickness estimate 2 (alpha_u/S_L)(T_b/T_u)^0.7 [m].
 
     Blint, Combust. Sci. Technol. 49 (1986) 79, as given by Poinsot & Veynante 2005,
@@ -85,7 +89,7 @@ def blint_thickness(alpha_u, S_L, T_b, T_u):
     return 2.0 * (alpha_u / S_L) * (T_b / T_u) ** 0.7
 
 
-def flashback_critical_gradient(S_L, alpha_u, Pe_F=DEFAULTS["flashback_peclet"]):
+def flashback_critical_gradient(S_L: float, alpha_u: float, Pe_F: float = DEFAULTS["flashback_peclet"]) -> float:
     """Critical wall velocity gradient for boundary-layer flashback g_F = S_L^2/(Pe_F alpha_u) [1/s].
 
     Lewis & von Elbe's critical-gradient concept (Combustion, Flames and Explosions of
@@ -109,7 +113,7 @@ def flashback_critical_gradient(S_L, alpha_u, Pe_F=DEFAULTS["flashback_peclet"])
     return S_L ** 2 / (Pe_F * alpha_u)
 
 
-def blowoff_critical_gradient(S_L, alpha_u, Ka_B=DEFAULTS["blowoff_karlovitz"]):
+def blowoff_critical_gradient(S_L: float, alpha_u: float, Ka_B: float = DEFAULTS["blowoff_karlovitz"]) -> float:
     """Critical wall velocity gradient for blowoff of a port flame g_B = Ka_B S_L^2 / alpha_u [1/s].
 
     The flame-stretch (Karlovitz) criterion of Reed, Combust. Flame 11 (1967) 177:
@@ -131,7 +135,7 @@ def blowoff_critical_gradient(S_L, alpha_u, Ka_B=DEFAULTS["blowoff_karlovitz"]):
     return Ka_B * S_L ** 2 / alpha_u
 
 
-def quenching_distance(alpha_u, S_L, Pe_q=DEFAULTS["quench_peclet"]):
+def quenching_distance(alpha_u: float, S_L: float, Pe_q: float = DEFAULTS["quench_peclet"]) -> float:
     """Quenching distance between parallel plates d_q = Pe_q alpha_u / S_L [m].
 
     A flame does not pass a gap narrower than d_q; the quench Peclet number is about 40
@@ -146,7 +150,7 @@ def quenching_distance(alpha_u, S_L, Pe_q=DEFAULTS["quench_peclet"]):
     return Pe_q * alpha_u / S_L
 
 
-def tube_quenching_diameter(d_q, factor=DEFAULTS["tube_quench_factor"]):
+def tube_quenching_diameter(d_q: float, factor: float = DEFAULTS["tube_quench_factor"]) -> float:
     """Quenching diameter of a round tube from the plate quenching distance, d_T = k d_q [m].
 
     Examples
@@ -157,7 +161,7 @@ def tube_quenching_diameter(d_q, factor=DEFAULTS["tube_quench_factor"]):
     return factor * d_q
 
 
-def bluff_body_blowoff_velocity(D, tau_c, C_BO):
+def bluff_body_blowoff_velocity(D: float, tau_c: float, C_BO: float) -> float:
     """Bluff-body blowoff velocity past the body's edge from Damkoehler scaling, U_BO = C_BO D / tau_c [m/s].
 
     Blowoff when the residence time in the recirculation zone (about D/U, U the velocity
@@ -179,7 +183,7 @@ def bluff_body_blowoff_velocity(D, tau_c, C_BO):
     return C_BO * D / tau_c
 
 
-def edge_velocity(U_approach, blockage):
+def edge_velocity(U_approach: float, blockage: float) -> float:
     """Velocity past the edge of a bluff body [m/s]: the approach velocity over the open
     area fraction, U / (1 - B), B the area fraction of the duct the body blocks (continuity;
     the velocity of Zukoski-Marble blowoff correlations, Shanbhogue, Husain & Lieuwen 2009).
@@ -190,7 +194,7 @@ def edge_velocity(U_approach, blockage):
     return U_approach / (1.0 - blockage)
 
 
-def wall_velocity_gradient_round(U, D):
+def wall_velocity_gradient_round(U: float, D: float) -> float:
     """Wall velocity gradient of fully developed laminar flow in a round port, g = 8 U / D [1/s].
 
     Exact for Poiseuille flow, u(r) = 2U(1 - (2r/D)^2).
@@ -203,7 +207,7 @@ def wall_velocity_gradient_round(U, D):
     return 8.0 * U / D
 
 
-def wall_velocity_gradient_turbulent(U, D_h, nu):
+def wall_velocity_gradient_turbulent(U: float, D_h: float, nu: float) -> float:
     """Wall velocity gradient of fully developed turbulent flow in a smooth duct [1/s].
 
     g = tau_w / mu = lambda U^2 / (8 nu) with Blasius's friction factor
@@ -222,7 +226,7 @@ def wall_velocity_gradient_turbulent(U, D_h, nu):
     return 0.3164 * Re ** -0.25 * U * U / (8.0 * nu)
 
 
-def wall_velocity_gradient_slot(U, h):
+def wall_velocity_gradient_slot(U: float, h: float) -> float:
     """Wall velocity gradient of fully developed laminar flow in a slot of gap h, g = 6 U / h [1/s].
 
     Exact for plane Poiseuille flow, u(y) = 1.5U(1 - (2y/h)^2).
@@ -235,7 +239,8 @@ def wall_velocity_gradient_slot(U, h):
     return 6.0 * U / h
 
 
-def port_velocity_at_thermal_input(Q, LHV_mass, afr_stoich_mass, phi, rho_u, A_port):
+def port_velocity_at_thermal_input(Q: float, LHV_mass: float, afr_stoich_mass: float, phi: float, rho_u: float,
+                                   A_port: float) -> float:
     """Bulk port velocity of a premixed burner at a given thermal input [m/s].
 
     Fuel mass flow Q / LHV; mixture mass flow fuel x (1 + AFR_st / phi); volume flow

@@ -17,6 +17,7 @@ from __future__ import annotations
 import math
 import re
 from collections import Counter
+from collections.abc import Iterable
 
 _ARROW = re.compile(r"\s*(<=>|=>|=)\s*")
 _FALLOFF = re.compile(r"\(\s*\+\s*[A-Za-z0-9()]+\s*\)")
@@ -66,7 +67,7 @@ def reaction_key(equation: str) -> str:
     return f"{sides[0]} <=> {sides[1]}"
 
 
-def grouped(equations, sensitivities) -> dict[str, float]:
+def grouped(equations: Iterable[str], sensitivities: Iterable[float]) -> dict[str, float]:
     """Sensitivities summed per :func:`reaction_key`, largest magnitude first.
 
     Duplicate expressions of one reaction, and the variants of a third-body reaction with
@@ -83,7 +84,7 @@ def grouped(equations, sensitivities) -> dict[str, float]:
     return dict(sorted(out.items(), key=lambda kv: -abs(kv[1])))
 
 
-def flame_speed_band(sensitivities, factors, sigmas_per_factor: float) -> float:
+def flame_speed_band(sensitivities: Iterable[float], factors: Iterable[float], sigmas_per_factor: float) -> float:
     """Standard deviation of ln S_L from independent rate-constant uncertainties, first order.
 
     sigma_ln_S = sqrt(sum_i (s_i ln f_i / k)^2), where f_i is reaction i's uncertainty factor

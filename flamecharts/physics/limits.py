@@ -17,7 +17,6 @@ import math
 from functools import lru_cache
 from pathlib import Path
 
-
 #: Pressure range [bar] a mechanism states it was optimised for, by file name.
 MECHANISM_RANGES = {
     "gri30.yaml": (10 * 101325 / 760 / 1e5, 10 * 1.01325,

@@ -20,8 +20,8 @@ every output carries them as a warning.
 from __future__ import annotations
 
 import re
+from collections.abc import Mapping
 from fractions import Fraction
-from typing import Mapping
 
 #: Inert gases that stand in as N2 when the mechanism lacks them.
 INERT_TO_N2 = ("He", "Ar", "Ne", "HE", "AR", "NE")

@@ -15,8 +15,8 @@ naming the species or value that describes no real mixture.
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from numbers import Real
-from typing import Mapping
 
 from ..errors import MixtureError, show
 

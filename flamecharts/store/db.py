@@ -41,9 +41,9 @@ import sqlite3
 import stat
 import struct
 import time
+from collections.abc import Callable, Iterable
 from pathlib import Path
-from typing import Callable
-
+from typing import Protocol
 
 from ..errors import StoreError
 from . import profiles
@@ -190,6 +190,21 @@ def unpack_profile(blob: bytes | None) -> dict | None:
     return None if blob is None else profiles.decode(blob)
 
 
+class StoredPoint(Protocol):
+    """What the store keeps of a point besides its result (sweep.points.Point, sweep.extras.Record)."""
+
+    @property
+    def key(self) -> str: ...
+    @property
+    def family(self) -> str: ...
+    @property
+    def phi(self) -> float: ...
+    @property
+    def pressure_bar(self) -> float: ...
+    @property
+    def T_u(self) -> float: ...
+
+
 class Store:
     """Results of finished flames in one SQLite file.
 
@@ -197,9 +212,9 @@ class Store:
     migrates; without it the store is created or migrated to SCHEMA_VERSION.
     """
 
-    def __init__(self, path: Path, readonly: bool = False):
+    def __init__(self, path: Path, readonly: bool = False) -> None:
         self.path = Path(path)
-        self.db = None
+        self.db: sqlite3.Connection | None = None   # open from here until close()
         self.migrated_from: int | None = None   # schema version this open migrated from
         self.backup_path: Path | None = None    # the copy kept before that migration
         self._examine_file(readonly)
@@ -213,6 +228,12 @@ class Store:
         except BaseException:
             self._close_quietly()
             raise
+
+    @property
+    def _db(self) -> sqlite3.Connection:
+        """The open connection (every method but close() runs on an open store)."""
+        assert self.db is not None, "the results store is closed"
+        return self.db
 
     def _close_quietly(self) -> None:
         if self.db is not None:
@@ -256,7 +277,7 @@ class Store:
             raise StoreError(f"results store {path} {problem}")
 
     def _check_and_migrate(self, readonly: bool) -> None:
-        db = self.db
+        db = self._db
         path = self.path
         # every check comes before the first write, so a foreign or damaged file is never changed
         check = [r[0] for r in db.execute("PRAGMA quick_check")]
@@ -297,7 +318,7 @@ class Store:
 
     def _migrate(self, version: int, backup: bool) -> Path | None:
         """Upgrade from ``version`` to SCHEMA_VERSION in one transaction, after a backup copy."""
-        db = self.db
+        db = self._db
         copy = None
         if backup:
             copy = self.path.with_name(f"{self.path.name}.v{version}-{time.strftime('%Y%m%d-%H%M%S')}.bak")
@@ -338,27 +359,27 @@ class Store:
     def close(self) -> None:
         self._close_quietly()
 
-    def __enter__(self):
+    def __enter__(self) -> Store:
         return self
 
-    def __exit__(self, *exc):
+    def __exit__(self, *exc: object) -> None:
         self.close()
 
-    def _damaged(self, key, what: str, exc: BaseException) -> StoreError:
+    def _damaged(self, key: str, what: str, exc: BaseException) -> StoreError:
         return StoreError(f"results store {self.path} is damaged: the {what} of point {key} cannot be read "
                           f"({type(exc).__name__}); {_WHAT_TO_DO}")
 
-    def _query(self, sql: str, args=()) -> list[tuple]:
+    def _query(self, sql: str, args: tuple = ()) -> list[tuple]:
         """All rows of a query; SQLite finding damage on the way is a StoreError."""
         try:
-            return self.db.execute(sql, args).fetchall()
+            return self._db.execute(sql, args).fetchall()
         except (sqlite3.DatabaseError, UnicodeDecodeError) as exc:
             raise StoreError(f"results store {self.path} is damaged ({exc}); {_WHAT_TO_DO}") from None
 
     def keys(self) -> set[str]:
         return {r[0] for r in self._query("SELECT key FROM points")}
 
-    def commit_point(self, point, result: dict, run_id: str) -> bytes | None:
+    def commit_point(self, point: StoredPoint, result: dict, run_id: str) -> bytes | None:
         """Write one finished point (ok, no_flame or failed) in its own transaction.
 
         A write SQLite refuses (another program holds the file locked for longer than
@@ -373,8 +394,8 @@ class Store:
                float(result["solve_seconds"]), time.time(), run_id, blob,
                str(result["reason"]))
         try:
-            with self.db:
-                self.db.execute("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", row)
+            with self._db:
+                self._db.execute("INSERT OR REPLACE INTO points VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)", row)
         except sqlite3.DatabaseError as exc:
             text = str(exc)
             why = ("another program holds it locked for writing: close that program" if "locked" in text or
@@ -387,12 +408,12 @@ class Store:
         """SQLite VACUUM: the file rewritten without the free pages a migration or deletes left.
         Returns (bytes before, bytes after)."""
         before = self.path.stat().st_size
-        self.db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
-        self.db.execute("VACUUM")
-        self.db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
+        self._db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
+        self._db.execute("VACUUM")
+        self._db.execute("PRAGMA wal_checkpoint(TRUNCATE)")
         return before, self.path.stat().st_size
 
-    def rows(self, keys=None) -> dict[str, dict]:
+    def rows(self, keys: Iterable[str] | None = None) -> dict[str, dict]:
         """key -> stored row (without profile) for the given keys, or all."""
         cur = self._query(
             "SELECT key, status, reason, message, start, metrics, solve_seconds, finished_at, run_id FROM points")
@@ -446,4 +467,4 @@ class Store:
         return out
 
     def integrity_ok(self) -> bool:
-        return self.db.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
+        return self._db.execute("PRAGMA integrity_check").fetchone()[0] == "ok"

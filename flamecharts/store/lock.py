@@ -6,6 +6,7 @@ import os
 import socket
 import time
 from pathlib import Path
+from typing import TextIO
 
 from ..errors import StoreError
 
@@ -30,11 +31,11 @@ class RunLock:
     a refused run can say who holds the folder.
     """
 
-    def __init__(self, folder: Path):
+    def __init__(self, folder: Path) -> None:
         self.path = Path(folder) / LOCK_NAME
-        self._fh = None
+        self._fh: TextIO | None = None
 
-    def acquire(self) -> "RunLock":
+    def acquire(self) -> RunLock:
         try:
             fh = open(self.path, "a+")
         except OSError as exc:
@@ -77,8 +78,8 @@ class RunLock:
             self._fh.close()
             self._fh = None
 
-    def __enter__(self):
+    def __enter__(self) -> RunLock:
         return self.acquire()
 
-    def __exit__(self, *exc):
+    def __exit__(self, *exc: object) -> None:
         self.release()

@@ -37,6 +37,7 @@ import lzma
 import struct
 
 import numpy as np
+import numpy.typing as npt
 
 #: First bytes of a profile in this format (older stores hold numpy .npz blobs, 'PK').
 MAGIC = b"FCP3"
@@ -84,7 +85,7 @@ def _undelta(d: np.ndarray) -> np.ndarray:
     return np.cumsum(d, axis=-1, dtype=np.uint32).view(np.float32)
 
 
-def floored(Y) -> np.ndarray:
+def floored(Y: npt.ArrayLike) -> np.ndarray:
     """Mass fractions with every |Y| < Y_FLOOR set to 0.
 
     >>> floored(np.array([0.2, 3e-11, -1e-12, 2e-10])).tolist()

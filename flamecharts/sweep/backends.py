@@ -12,26 +12,51 @@ from __future__ import annotations
 import contextlib
 import os
 import time
+from collections.abc import Callable, Iterator
 from concurrent.futures import Future
+from typing import TYPE_CHECKING, Protocol
 
 from joblib.externals.loky import get_reusable_executor
 
 from ..config import check_cluster_spec
 from .worker import local_worker
 
+if TYPE_CHECKING:
+    from ..config import Study
+
+
+class Executor(Protocol):
+    """What the run loop asks of an executor (concurrent.futures-like)."""
+
+    def submit(self, fn: Callable[[dict], dict], task: dict, /) -> Future[dict]: ...
+
+    def shutdown(self, wait: bool = True, kill_workers: bool = False) -> None: ...
+
+
+class Backend(Protocol):
+    """What the run loop asks of a backend (LocalBackend, dask_backend.ClusterSession)."""
+
+    slots: int
+
+    def executor(self, study: Study) -> Executor: ...
+
+    def renew(self, study: Study) -> Executor: ...
+
+    def workers(self) -> int: ...
+
 
 class InProcess:
     """A one-worker executor that runs tasks in this process (jobs=1)."""
 
-    def submit(self, fn, arg) -> Future:
-        fut = Future()
+    def submit(self, fn: Callable[[dict], dict], arg: dict) -> Future[dict]:
+        fut: Future[dict] = Future()
         try:
             fut.set_result(fn(arg))
         except BaseException as exc:  # noqa: BLE001 - handed to the caller like a pool would
             fut.set_exception(exc)
         return fut
 
-    def shutdown(self, wait=True, kill_workers=False) -> None:
+    def shutdown(self, wait: bool = True, kill_workers: bool = False) -> None:
         pass
 
 
@@ -51,16 +76,16 @@ class LocalBackend:
     #: Attempts at starting the pool again after a worker died.
     RENEW_ATTEMPTS = 3
 
-    def __init__(self, jobs: int | None):
+    def __init__(self, jobs: int | None) -> None:
         self.slots = resolve_jobs(jobs)
 
-    def executor(self, study=None):
+    def executor(self, study: Study | None = None) -> Executor:
         if self.slots == 1:
             return InProcess()
         return get_reusable_executor(max_workers=self.slots, initializer=local_worker, initargs=(os.getpid(),),
                                      timeout=60)
 
-    def renew(self, study=None):
+    def renew(self, study: Study | None = None) -> Executor:
         """The executor after a worker died: loky replaces a broken pool; starting its helper
         processes again can hit a pipe that died with them, so try a few times."""
         for i in range(self.RENEW_ATTEMPTS):
@@ -70,13 +95,14 @@ class LocalBackend:
                 if i == self.RENEW_ATTEMPTS - 1:
                     raise
                 time.sleep(0.5)
+        raise AssertionError("not reached: the last attempt returns or raises")
 
     def workers(self) -> int:
         return self.slots
 
 
 @contextlib.contextmanager
-def open_backend(jobs: int | None = None, cluster: str | None = None):
+def open_backend(jobs: int | None = None, cluster: str | None = None) -> Iterator[Backend]:
     """The backend of a run: a Dask cluster for ``cluster`` ('tcp://HOST:PORT' or
     'local:N', checked), else ``jobs`` local processes. Dask is imported only here,
     when a cluster is asked for: it adds about a second to start-up."""

@@ -27,13 +27,20 @@ import os
 import sys
 import tempfile
 import uuid
+from collections.abc import Callable
 from concurrent.futures import Future
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from .._version import __version__
 from ..chemistry.mechanism import cantera_version, mechanism_text
 from ..errors import FlamechartsError, first_line
 from .worker import code_fingerprint, local_worker
+
+if TYPE_CHECKING:
+    from distributed import Client, LocalCluster
+
+    from ..config import Study
 
 #: Seconds to wait for a scheduler to answer before giving up.
 CONNECT_TIMEOUT_S = 10
@@ -83,7 +90,7 @@ def _mechanism_file(text: str, sha: str) -> str:
     return str(path)
 
 
-def run_on_worker(fn, task: dict, expected: dict[str, str], parent: int | None) -> dict:
+def run_on_worker(fn: Callable[[dict], dict], task: dict, expected: dict[str, str], parent: int | None) -> dict:
     """Worker entry of every cluster task: check versions (first task of this worker),
     write the mechanism locally, then run ``fn(task)`` exactly as a local process would.
     ``parent`` is the pid of the run's process when it started the cluster itself
@@ -112,13 +119,13 @@ def parse_spec(spec: str) -> tuple[str, int | None]:
 class _Executor:
     """The run loop's view of the cluster: submit(fn, task) -> concurrent.futures.Future."""
 
-    def __init__(self, session: "ClusterSession", study):
+    def __init__(self, session: ClusterSession, study: Study) -> None:
         self._session = session
-        self._inner = session.client.get_executor(pure=False)
+        self._inner = session.connected().get_executor(pure=False)
         self._extra = {"mechanism_yaml": mechanism_text(study.mechanism_path, study.transport)}
         self._extra["mechanism_text_sha256"] = hashlib.sha256(self._extra["mechanism_yaml"].encode()).hexdigest()
 
-    def submit(self, fn, task: dict) -> Future:
+    def submit(self, fn: Callable[[dict], dict], task: dict) -> Future[dict]:
         key = f"flame-{task['key'][:10]}-{uuid.uuid4().hex[:8]}"
         return self._inner.submit(run_on_worker, fn, {**task, **self._extra}, self._session.expected,
                                   self._session.parent, key=key)
@@ -131,17 +138,17 @@ class _Executor:
 class ClusterSession:
     """A connected Dask client (and the local cluster it started, if any)."""
 
-    def __init__(self, spec: str):
+    def __init__(self, spec: str) -> None:
         self.spec = spec
         self.expected = local_versions()
-        self.cluster = None
-        self.client = None
-        self.parent = None  # this process's pid once it has started the cluster itself (local:N)
-        self._executor = None
-        self._executor_key = None
+        self.cluster: LocalCluster | None = None
+        self.client: Client | None = None
+        self.parent: int | None = None  # this process's pid once it has started the cluster itself (local:N)
+        self._executor: _Executor | None = None
+        self._executor_key: tuple[str, str] | None = None
 
     # -- connection
-    def open(self) -> "ClusterSession":
+    def open(self) -> ClusterSession:
         try:
             from distributed import Client, LocalCluster
         except ImportError:
@@ -165,9 +172,14 @@ class ClusterSession:
         self.check_workers()
         return self
 
+    def connected(self) -> Client:
+        """The client, between open() and close()."""
+        assert self.client is not None, "the cluster session is not open"
+        return self.client
+
     def check_workers(self) -> None:
         """Compare the versions of every connected worker with this process (ClusterError if any differs)."""
-        answers = self.client.run(local_versions, on_error="return")
+        answers = self.connected().run(local_versions, on_error="return")
         for worker, found in sorted(answers.items()):
             if isinstance(found, BaseException):
                 self.close()
@@ -185,10 +197,10 @@ class ClusterSession:
 
     def workers(self) -> int:
         """Threads of all workers connected now (each solves one flame at a time)."""
-        workers = self.client.scheduler_info().get("workers", {})
+        workers = self.connected().scheduler_info().get("workers", {})
         return sum(w.get("nthreads", 1) for w in workers.values())
 
-    def executor(self, study) -> _Executor:
+    def executor(self, study: Study) -> _Executor:
         """The executor of ``study``'s mechanism: made once per mechanism, since it carries the
         mechanism file to the workers (a study comparing mechanisms asks for each in turn)."""
         key = (study.mechanism_sha256, study.transport)
@@ -196,7 +208,7 @@ class ClusterSession:
             self._executor, self._executor_key = _Executor(self, study), key
         return self._executor
 
-    def renew(self, study) -> _Executor:
+    def renew(self, study: Study) -> _Executor:
         """The executor after a worker died: Dask replaces workers itself, the executor stays."""
         return self.executor(study)
 
@@ -208,10 +220,10 @@ class ClusterSession:
             self.cluster.close()
             self.cluster = None
 
-    def __enter__(self) -> "ClusterSession":
+    def __enter__(self) -> ClusterSession:
         return self
 
-    def __exit__(self, *exc) -> None:
+    def __exit__(self, *exc: object) -> None:
         self.close()
 
 

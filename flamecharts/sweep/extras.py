@@ -13,13 +13,18 @@ from __future__ import annotations
 import hashlib
 import json
 import uuid
+from collections.abc import Callable
 from concurrent.futures import FIRST_COMPLETED, wait
 from dataclasses import dataclass
-from typing import Callable
+from typing import TYPE_CHECKING
 
 from ..store import Store
 from .points import Point
 from .run import RETRIED_REASONS, worker_error
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from .backends import Backend
 
 
 @dataclass(frozen=True)
@@ -52,7 +57,8 @@ def done_keys(store: Store, keys: list[str]) -> set[str]:
     return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED_REASONS}
 
 
-def solve_extras(study, store: Store, todo: list[tuple[Record, dict]], fn: Callable[[dict], dict], backend,
+def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], fn: Callable[[dict], dict],
+                 backend: Backend,
                  progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Solve ``fn(task)`` for every (record, task) on the backend, commit each result under its
     record as it finishes (a worker that dies leaves a failed row: the next run tries again).

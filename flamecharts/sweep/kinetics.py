@@ -11,17 +11,24 @@ solves nothing.
 """
 from __future__ import annotations
 
+from collections.abc import Callable
+from typing import TYPE_CHECKING
+
 from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point
 from .schedule import flame_time_limit
 from .worker import sensitivity_task
 
+if TYPE_CHECKING:
+    from ..config import Study
+    from .backends import Backend
+
 #: Changes of the method that change the stored answer (part of the key).
 SENSITIVITY_VERSION = 1
 
 
-def wants_sensitivities(study) -> bool:
+def wants_sensitivities(study: Study) -> bool:
     u = getattr(study, "uncertainty", None)
     return u is not None and u.kinetics
 
@@ -30,7 +37,7 @@ def sensitivity_key(p: Point) -> str:
     return derived_key("sensitivity", p, {"version": SENSITIVITY_VERSION})
 
 
-def _task(study, p: Point, warm: dict | None) -> dict:
+def _task(study: Study, p: Point, warm: dict | None) -> dict:
     return {"key": sensitivity_key(p), "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution, "T_u": p.T_u,
@@ -38,8 +45,8 @@ def _task(study, p: Point, warm: dict | None) -> dict:
             "time_limit_s": 2 * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
 
 
-def solve_sensitivities(study, store: Store, pts: list[Point], stored: dict[str, dict], backend,
-                        progress=None) -> tuple[int, float]:
+def solve_sensitivities(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
+                        progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Solve the sensitivities of every burning point of ``pts`` (``stored``: the store's rows by
     key) that the store lacks and whose profile it keeps. Returns (solved, their summed seconds)."""
     if not wants_sensitivities(study):
@@ -56,7 +63,7 @@ def solve_sensitivities(study, store: Store, pts: list[Point], stored: dict[str,
     return solve_extras(study, store, todo, sensitivity_task, backend, progress)
 
 
-def with_sensitivities(study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
+def with_sensitivities(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
     """``stored`` with each point's sensitivity vector merged into its metrics under
     'reaction_sensitivities' (when asked for and solved); a new dict, the store's rows untouched."""
     if not wants_sensitivities(study):

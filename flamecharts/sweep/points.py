@@ -126,7 +126,7 @@ def points(study: Study) -> list[Point]:
     (timings at 100,000 points in docs/benchmarks.md).
     """
     settings = settings_of(study)
-    out = []
+    out: list[Point] = []
     for fuel, ox, frac in product(study.sweep_fuels, study.sweep_oxidizers, study.blend_fractions):
         X_fuel = fuel_stream(study, fuel, frac)
         X_flame, _ = flame_stream(study, X_fuel)  # lumped onto the mechanism's species where it lacks some

@@ -10,8 +10,9 @@ The tree spans every point of the study, stored ones included, so a resumed run 
 each point from the same neighbour as an uninterrupted one (its stored profile) and
 gives the same flames. A worker that dies costs its point up to MAX_RETRIES retries;
 then the point is recorded as failed (reason: worker error) and solved again by the
-next run, as is a flame that ran out of its time limit (reason: time limit). Ctrl-C: the first stops handing out work and lets running flames finish and
-be stored (then :class:`RunInterrupted`), a second stops at once.
+next run, as is a flame that ran out of its time limit (reason: time limit). Ctrl-C: the
+first stops handing out work and lets running flames finish and be stored (then
+:class:`RunInterrupted`), a second stops at once.
 """
 from __future__ import annotations
 
@@ -20,9 +21,11 @@ import threading
 import time
 import uuid
 from collections import OrderedDict
-from concurrent.futures import FIRST_COMPLETED, BrokenExecutor, wait
+from collections.abc import Callable
+from concurrent.futures import FIRST_COMPLETED, BrokenExecutor, Future, wait
 from dataclasses import dataclass
-from typing import Callable
+from types import FrameType
+from typing import TYPE_CHECKING, Any
 
 from ..errors import FlamechartsError, first_line
 from ..outcome import Reason, Status
@@ -32,6 +35,10 @@ from .points import Point
 from .schedule import Scheduler, estimate_run_seconds, flame_cost, flame_seconds
 from .warm_tree import StoredFlame, WarmPlan, warm_tree
 from .worker import make_task, solve_task
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from .backends import Backend
 
 #: A worker that dies (killed, out of memory) costs its point this many retries.
 MAX_RETRIES = 2
@@ -80,7 +87,7 @@ class RunInterrupted(KeyboardInterrupt):
     still unsolved; ``at_once`` is True when a second Ctrl-C abandoned running flames.
     """
 
-    def __init__(self, solved: int = 0, remaining: int = 0, at_once: bool = False):
+    def __init__(self, solved: int = 0, remaining: int = 0, at_once: bool = False) -> None:
         super().__init__("interrupted")
         self.solved, self.remaining, self.at_once = solved, remaining, at_once
 
@@ -121,24 +128,24 @@ class _CtrlC:
     """First Ctrl-C: ``requested`` (hand out nothing new); second: RunInterrupted at once.
     Installed only in the main thread (a signal handler cannot be set elsewhere)."""
 
-    def __init__(self, count_solved: Callable[[], tuple[int, int]]):
+    def __init__(self, count_solved: Callable[[], tuple[int, int]]) -> None:
         self.requested = False
         self._counts = count_solved
-        self._old = None
+        self._old: Callable[[int, FrameType | None], Any] | int | None = None
         self._installed = False
 
-    def _on_sigint(self, signum, frame) -> None:
+    def _on_sigint(self, signum: int, frame: FrameType | None) -> None:
         if self.requested:
             raise RunInterrupted(*self._counts(), at_once=True)
         self.requested = True
 
-    def __enter__(self) -> "_CtrlC":
+    def __enter__(self) -> _CtrlC:
         if threading.current_thread() is threading.main_thread():
             self._old = signal.signal(signal.SIGINT, self._on_sigint)
             self._installed = True
         return self
 
-    def __exit__(self, *exc) -> None:
+    def __exit__(self, *exc: object) -> None:
         if self._installed:
             signal.signal(signal.SIGINT, self._old if self._old is not None else signal.SIG_DFL)
 
@@ -152,15 +159,15 @@ def worker_error(exc: BaseException) -> dict:
 class _Loop:
     """State of one pass: the scheduler, the flames finished in it, the executor."""
 
-    def __init__(self, study, store: Store, unique: list[Point], todo: list[Point], backend, run_id: str,
-                 sources: set[str] | None = None):
+    def __init__(self, study: Study, store: Store, unique: list[Point], todo: list[Point], backend: Backend, run_id: str,
+                 sources: set[str] | None = None) -> None:
         self.study, self.store, self.backend, self.run_id = study, store, backend, run_id
         self.tree = warm_plan(store, unique, sources)
         self.by_index = {p.index: p for p in unique}
         self.sched = Scheduler(self.tree, [p.index for p in todo])
         self.recent: OrderedDict[int, dict | None] = OrderedDict()  # profiles of the last finished flames
         self.retries: dict[int, int] = {}
-        self.in_flight: dict = {}
+        self.in_flight: dict[Future[dict], Point] = {}
         self.executor = backend.executor(study)
 
     def warm_for(self, p: Point) -> dict | None:
@@ -169,8 +176,8 @@ class _Loop:
         on), else of the stored flame of another study the path starts from (None:
         solve fresh)."""
         parent, cur = self.tree.parent, p.index
-        while parent[cur] is not None:
-            cur = parent[cur]
+        while (up := parent[cur]) is not None:
+            cur = up
             prof = self.recent[cur] if cur in self.recent else self.store.profile(self.by_index[cur].key)
             if prof is not None:
                 return prof
@@ -193,7 +200,7 @@ class _Loop:
             fut = self.executor.submit(solve_task, task)
         self.in_flight[fut] = p
 
-    def result_of(self, fut, p: Point) -> dict | None:
+    def result_of(self, fut: Future[dict], p: Point) -> dict | None:
         """The finished flame, or None when the point goes back to the queue (worker died)."""
         try:
             return fut.result()
@@ -208,7 +215,8 @@ class _Loop:
             return worker_error(exc)
 
 
-def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
+def solve_points(study: Study, store: Store, pts: list[Point], backend: Backend,
+                 progress: Callable[[Progress], None] | None = None,
                  stop_after: int | None = None, t0: float | None = None,
                  sources: set[str] | None = None) -> SolveOutcome:
     """Solve the points of ``pts`` that ``store`` lacks on ``backend``; commit each as it finishes.
@@ -234,7 +242,7 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
     submitted = 0
     ctrl_c = _CtrlC(lambda: (out.solved, loop.sched.remaining))
 
-    def report(last=None) -> None:
+    def report(last: dict | None = None) -> None:
         if progress is not None:
             progress(Progress(done=out.solved, total=len(todo), failed=out.failed, no_flame=out.no_flame,
                               reused=out.reused, elapsed_s=time.perf_counter() - t0, last=last,
@@ -247,7 +255,9 @@ def solve_points(study, store: Store, pts: list[Point], backend, progress=None,
             while loop.sched.has_ready() or loop.in_flight:
                 while (loop.sched.has_ready() and len(loop.in_flight) < backend.slots and submitted < limit
                        and not ctrl_c.requested):
-                    loop.submit(loop.sched.pop())
+                    i = loop.sched.pop()
+                    assert i is not None  # has_ready() above
+                    loop.submit(i)
                     submitted += 1
                 if ctrl_c.requested and not told:
                     told = True

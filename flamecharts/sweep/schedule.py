@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import heapq
 import statistics
-from typing import Iterable
+from collections.abc import Iterable
 
 from .warm_tree import WarmPlan
 
@@ -29,7 +29,7 @@ class Scheduler:
     (1, 2, 2)
     """
 
-    def __init__(self, plan: WarmPlan, todo: Iterable[int]):
+    def __init__(self, plan: WarmPlan, todo: Iterable[int]) -> None:
         self._height = plan.height
         self._pending = set(todo)
         self._children: dict[int, list[int]] = {}
@@ -186,6 +186,7 @@ def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: floa
     while sched.has_ready() or running:
         while sched.has_ready() and len(running) < slots:
             i = sched.pop()
+            assert i is not None  # has_ready() above
             heapq.heappush(running, (now + flame_cost(plan, i, {"fresh": fresh_s, "warm": warm_s}), i))
         now, i = heapq.heappop(running)
         sched.finished(i)

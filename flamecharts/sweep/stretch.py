@@ -11,12 +11,19 @@ under its own key (family 'stretch:...', no profile: never a warm-start source).
 """
 from __future__ import annotations
 
+from collections.abc import Callable
+from typing import TYPE_CHECKING, Any
+
 from ..chemistry import strained
 from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point
 from .schedule import flame_time_limit
 from .worker import stretch_task
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from .backends import Backend
 
 #: Everything of chemistry.strained that changes a ladder's answer (part of its key).
 LADDER_SETTINGS = {
@@ -31,7 +38,7 @@ LADDER_SETTINGS = {
 LADDER_TIME_LIMITS = 4.0
 
 
-def stretch_points(study, pts: list[Point]) -> list[Point]:
+def stretch_points(study: Study, pts: list[Point]) -> list[Point]:
     """The points of ``pts`` that the study's [stretch] table selects (none without one)."""
     st = study.stretch
     if st is None:
@@ -46,15 +53,15 @@ def stretch_key(p: Point) -> str:
     return derived_key("stretch", p, LADDER_SETTINGS)
 
 
-def _task(study, p: Point, row: dict) -> dict:
+def _task(study: Study, p: Point, row: dict) -> dict:
     return {"key": stretch_key(p), "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport, "T_u": p.T_u, "P": p.P,
             "X": p.X_unburned, "S_L": row["laminar_flame_speed_m_s"], "T_ad": row["adiabatic_flame_temperature_K"],
             "time_limit_s": LADDER_TIME_LIMITS * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
 
 
-def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend,
-                  progress=None) -> tuple[int, float]:
+def solve_stretch(study: Study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend: Backend,
+                  progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Solve the ladder of every selected point whose free flame burns and whose ladder the
     store lacks (or lost to a dead worker); commit each as it finishes. Returns (ladders
     solved, their summed seconds)."""
@@ -65,7 +72,7 @@ def solve_stretch(study, store: Store, pts: list[Point], rows_by_key: dict[str, 
     return solve_extras(study, store, todo, stretch_task, backend, progress)
 
 
-def characteristic_strain(study, row: dict) -> float | None:
+def characteristic_strain(study: Study, row: dict) -> float | None:
     """Strain rate the burner imposes where its flame is held [1/s]: the wall velocity gradient
     at the port rim, or U/D of a bluff-body stabilizer (the order of its shear-layer strain);
     None without a [burner]. An order of magnitude, not the local strain of a real flame base."""
@@ -73,16 +80,17 @@ def characteristic_strain(study, row: dict) -> float | None:
     if b is None:
         return None
     if b.on_stabilizer:
+        assert b.approach_velocity_m_s is not None and b.stabilizer_size_m is not None  # config sets both
         return b.approach_velocity_m_s / b.stabilizer_size_m
     return row.get("wall_velocity_gradient_1_s")
 
 
-def stretch_rows(study, pts: list[Point], rows_by_key: dict[str, dict], store: Store) -> list[dict]:
+def stretch_rows(study: Study, pts: list[Point], rows_by_key: dict[str, dict], store: Store) -> list[dict]:
     """One row per selected ladder (STRETCH_COLUMNS), in study order; ladders not solved yet
     (or whose free flame does not burn) have status 'pending' or the free flame's status."""
     selected = stretch_points(study, pts)
     stored = store.rows([stretch_key(p) for p in selected])
-    out = []
+    out: list[dict[str, Any]] = []
     for p in selected:
         free = rows_by_key.get(p.key, {})
         s = stored.get(stretch_key(p))

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import heapq
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -69,7 +70,7 @@ class WarmPlan:
         """Points on the longest warm-start path of the plan."""
         return max(self.height.values(), default=0)
 
-    def pending(self, todo: set[int], keys: dict[int, str]) -> "WarmPlan":
+    def pending(self, todo: set[int], keys: dict[int, str]) -> WarmPlan:
         """The part of this plan still to solve: the points in ``todo``, where a point whose
         source is already solved (outside ``todo``; ``keys`` gives its store key) starts
         from that stored flame.
@@ -119,7 +120,7 @@ def warm_distance(scal_a: np.ndarray, fuel_a: np.ndarray, scal_b: np.ndarray, fu
     return np.sqrt(d2)
 
 
-def warm_tree(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
+def warm_tree(pts: list[Point], stored: Sequence[StoredFlame] = ()) -> WarmPlan:
     """Plan the warm starts of ``pts``: each point starts from its nearest neighbour.
 
     A greedy spanning tree (Prim's order, Prim 1957): repeatedly take the unsolved point
@@ -407,12 +408,13 @@ def _heights(parent: dict[int, int | None], order: list[int]) -> dict[int, int]:
     """Points on the longest warm-start path below each point, itself included."""
     height = {i: 1 for i in parent}
     for i in reversed(order):
-        if parent[i] is not None:
-            height[parent[i]] = max(height[parent[i]], height[i] + 1)
+        up = parent[i]
+        if up is not None:
+            height[up] = max(height[up], height[i] + 1)
     return height
 
 
-def _warm_tree_dense(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPlan:
+def _warm_tree_dense(pts: list[Point], stored: Sequence[StoredFlame] = ()) -> WarmPlan:
     """The plan of :func:`warm_tree` by its definition, the greedy step over all pairs:
     O(N^2) time (tests and benchmarks check the fast plan against it).
     """
@@ -423,7 +425,7 @@ def _warm_tree_dense(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPl
     best = np.full(n, np.inf)
     src: list[tuple[str, int | str] | None] = [None] * n
 
-    def relax(s_scal, s_fuel, s_family, label) -> None:
+    def relax(s_scal: np.ndarray, s_fuel: np.ndarray, s_family: str, label: tuple[str, int | str]) -> None:
         d = warm_distance(s_scal, s_fuel, scal, fuel)
         d[fam != s_family] = np.inf
         better = d < best
@@ -445,16 +447,18 @@ def _warm_tree_dense(pts: list[Point], stored: list[StoredFlame] = ()) -> WarmPl
         cand = np.where(open_, best, np.nan)
         i = int(np.nanargmin(cand))
         if best[i] > MAX_WARM_DISTANCE:
-            i = min(np.flatnonzero(open_), key=lambda k: (abs(pts[k].phi - SEED_PHI), pts[k].phi,
-                                                          pts[k].pressure_bar, -pts[k].T_u, k))
+            i = int(min(np.flatnonzero(open_), key=lambda k: (abs(pts[k].phi - SEED_PHI), pts[k].phi,
+                                                          pts[k].pressure_bar, -pts[k].T_u, k)))
             parent[i] = None
             roots.append(i)
             distance[i] = math.inf
         else:
-            kind, ref = src[i]
-            parent[i] = ref if kind == "point" else None
+            entry = src[i]
+            assert entry is not None  # best[i] is finite: relax() labelled it
+            kind, ref = entry
+            parent[i] = int(ref) if kind == "point" else None
             if kind == "stored":
-                stored_of[i] = ref
+                stored_of[i] = str(ref)
             distance[i] = float(best[i])
         open_[i] = False
         best[i] = np.inf

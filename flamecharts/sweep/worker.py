@@ -15,16 +15,26 @@ import signal
 import threading
 import time
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from ..chemistry.flame import NUMERICS, solve_flame
-from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak, premixer_horizon
+from ..chemistry.ignition import (
+    autoignition_screen,
+    autoignition_screen_without_flame,
+    ignition_delay_peak,
+    premixer_horizon,
+)
+from ..chemistry.mechanism import solution
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
-from ..chemistry.mechanism import solution
 from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from .points import Point
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
@@ -64,7 +74,7 @@ def local_worker(parent: int) -> None:
     exit_with(parent)
 
 
-def make_task(study, point, warm: dict | None) -> dict:
+def make_task(study: Study, point: Point, warm: dict | None) -> dict:
     """The plain task of one point: what :func:`solve_task` needs, nothing else."""
     return {"key": point.key, "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
@@ -88,7 +98,7 @@ def zeldovich_task(task: dict) -> dict:
     t0 = time.perf_counter()
     gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
 
-    def solve(X, warm):
+    def solve(X: dict, warm: dict | None) -> dict:
         return solve_flame(gas, task["T_u"], task["P"], X, task["transport"], task["thermal_diffusion"],
                            NUMERICS[task["resolution"]], warm, task.get("time_limit_s"))
 
@@ -128,7 +138,7 @@ def stretch_task(task: dict) -> dict:
     except Exception as exc:  # noqa: BLE001 - a ladder that breaks is recorded with its reason
         ladder, message = None, f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
     burning = bool(ladder and ladder["strain_rates_1_s"])
-    if burning:
+    if ladder is not None and burning:
         ladder["markstein_number_strain"] = markstein_number_from_strain(
             ladder["strain_rates_1_s"], ladder["consumption_speeds_m_s"], task["S_L"],
             ladder["unburned_thermal_diffusivity_m2_s"])

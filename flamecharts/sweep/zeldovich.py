@@ -10,11 +10,18 @@ never solves the sweep again.
 """
 from __future__ import annotations
 
+from collections.abc import Callable
+from typing import TYPE_CHECKING
+
 from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point, zeldovich_step
 from .schedule import flame_time_limit
 from .worker import zeldovich_task
+
+if TYPE_CHECKING:
+    from ..config import Study
+    from .backends import Backend
 
 #: Changes of the method that change the stored answer (part of the key).
 ZELDOVICH_VERSION = 1
@@ -24,7 +31,7 @@ def zeldovich_key(p: Point, step: float) -> str:
     return derived_key("zeldovich", p, {"version": ZELDOVICH_VERSION, "inert_step": step})
 
 
-def _task(study, p: Point, stored: dict, warm: dict | None, step: float) -> dict:
+def _task(study: Study, p: Point, stored: dict, warm: dict | None, step: float) -> dict:
     return {"key": zeldovich_key(p, step), "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution, "T_u": p.T_u,
@@ -32,8 +39,8 @@ def _task(study, p: Point, stored: dict, warm: dict | None, step: float) -> dict
             "time_limit_s": 2 * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
 
 
-def solve_zeldovich(study, store: Store, pts: list[Point], stored: dict[str, dict], backend,
-                    progress=None) -> tuple[int, float]:
+def solve_zeldovich(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
+                    progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Solve the pair of every burning point of ``pts`` (``stored``: the store's rows by key)
     that the store lacks. Returns (pairs solved, their summed seconds)."""
     step = zeldovich_step(study)
@@ -47,7 +54,7 @@ def solve_zeldovich(study, store: Store, pts: list[Point], stored: dict[str, dic
     return solve_extras(study, store, todo, zeldovich_task, backend, progress)
 
 
-def with_zeldovich(study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
+def with_zeldovich(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
     """``stored`` with each point's Zeldovich metrics merged into its metrics (when asked for
     and solved); a new dict, the store's rows untouched."""
     step = zeldovich_step(study)

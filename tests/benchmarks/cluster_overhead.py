@@ -21,9 +21,9 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from conftest import write_h2_study  # noqa: E402
-
 from flamecharts import load_study, run_study  # noqa: E402
+
+from conftest import write_h2_study  # noqa: E402
 
 
 def _noop(x):

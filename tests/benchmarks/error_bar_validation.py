@@ -55,8 +55,14 @@ from joblib import Parallel, delayed
 from flamecharts.chemistry import flame
 from flamecharts.chemistry.mechanism import find_mechanism
 from flamecharts.physics import mixtures
-from flamecharts.physics.grid_error import (GRID_RATIO, MIN_INDEX, ORDER_BOUNDS, SAFETY_UNCONFIRMED,
-                                            grid_convergence_index, placement_floor)
+from flamecharts.physics.grid_error import (
+    GRID_RATIO,
+    MIN_INDEX,
+    ORDER_BOUNDS,
+    SAFETY_UNCONFIRMED,
+    grid_convergence_index,
+    placement_floor,
+)
 
 sys.path.insert(0, str(Path(__file__).parent))
 from grid_convergence import REFERENCE_STAGES, WARM_STEP, _entry, extrapolate  # noqa: E402

@@ -44,12 +44,12 @@ from pathlib import Path
 import cantera as ct
 import psutil
 
-from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
 from flamecharts.chemistry.flame import NUMERICS, _initial_guess, _make_flame, _set_criteria
-from flamecharts.pipeline import run_study
-from flamecharts.sweep.backends import resolve_jobs
-from flamecharts.store import DB_NAME, Store
 from flamecharts.config import load_study
+from flamecharts.pipeline import run_study
+from flamecharts.store import DB_NAME, Store
+from flamecharts.sweep import points as plan_points, schedule as plan_schedule, warm_tree as plan_tree
+from flamecharts.sweep.backends import resolve_jobs
 
 STUDIES = {
     "small": dict(mechanism="h2o2.yaml", base='diluted_hydrogen = { H2 = 0.5, N2 = 0.5 }',

@@ -29,7 +29,7 @@ def sweep_with(**lines):
     """The base [sweep] with some lines replaced (value None drops the line)."""
     out = []
     keys = ["fuel", "oxidizer", "equivalence_ratio", "pressure_bar", "unburned_temperature_K"]
-    base = dict(l.split(" = ", 1) for l in BASE["sweep"].splitlines()[1:])
+    base = dict(line.split(" = ", 1) for line in BASE["sweep"].splitlines()[1:])
     for k in keys + [k for k in lines if k not in keys]:
         v = lines.get(k, base.get(k))
         if v is not None:

@@ -10,27 +10,37 @@ mechanism_charts.py the same flames and limits under each mechanism a study comp
 """
 from __future__ import annotations
 
+from collections.abc import Sequence
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import matplotlib.pyplot as plt
 import xarray as xr
 
 from ...results import to_dataset
 
+# the order of these imports is the order of the charts in the report: not sorted
+# isort: off
 from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
 from . import design_charts  # noqa: F401,I001
 from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
 from . import mechanism_charts  # noqa: F401,I001
+# isort: on
 from .registry import CHARTS, ChartData
 from .style import note_empty_panels
+
+if TYPE_CHECKING:
+    from ...config import Study
+    from ...results import Comparison
 
 #: chart file name -> one-line caption of how to read it (the report prints it)
 CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
-def draw_all(rows: list[dict], gases: list[dict], study, out_dir: Path, dataset: xr.Dataset | None = None,
-             limits: list[dict] = (), stretch: list[dict] = (), comparison=None) -> list[Path]:
+def draw_all(rows: list[dict], gases: list[dict], study: Study, out_dir: Path, dataset: xr.Dataset | None = None,
+             limits: Sequence[dict] = (), stretch: Sequence[dict] = (),
+             comparison: Comparison | None = None) -> list[Path]:
     """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
     ``dataset`` is results.to_dataset of the rows (made here when not given); ``comparison``
     the results.Comparison of a study comparing mechanisms (``rows`` then are the reference's)."""

@@ -10,24 +10,55 @@ Drawn from flat rows only (see design.annotate), like every chart; each register
 """
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from scipy.interpolate import RegularGridInterpolator
 
-from ...admissible.words import kept
+from ...admissible.words import burner_and_limits, kept
 from ...columns import gas_label
 from ...physics.fits import fit_power_law
-from .registry import (MAX_PANELS, burning_blends, chart, conditions_note, has_margins, has_window, several_blends,
-                       spread, thinned_note, varies_p_or_T)
-from .style import MARKERS, colour_scale, curves as fuel_keys, empty_note, figure, finish, ok_rows, phi_near_one, plain_log_ticks, sparse_log_yticks
+from .registry import (
+    MAX_PANELS,
+    ChartData,
+    burning_blends,
+    chart,
+    conditions_note,
+    has_margins,
+    has_window,
+    several_blends,
+    spread,
+    thinned_note,
+    varies_p_or_T,
+)
+from .style import (
+    MARKERS,
+    colour_scale,
+    curves as fuel_keys,
+    empty_note,
+    figure,
+    finish,
+    ok_rows,
+    phi_near_one,
+    plain_log_ticks,
+    sparse_log_yticks,
+)
+
+if TYPE_CHECKING:
+    from matplotlib.artist import Artist
+    from matplotlib.axes import Axes
+    from matplotlib.figure import Figure
+
+    from ...config import Study
 
 
 @chart("pressure_and_preheat_dependence",
        "Flame speed against pressure and against unburned temperature on log "
        "axes; the legend gives the fitted power-law exponent of each curve.",
        varies_p_or_T)
-def pressure_preheat_chart(data, study):
+def pressure_preheat_chart(data: ChartData, study: Study) -> Figure:
     """Flame speed vs pressure and vs unburned temperature (log axes), exponents in the legend."""
     ok = ok_rows(data.rows)
     phi = phi_near_one(ok)
@@ -40,7 +71,7 @@ def pressure_preheat_chart(data, study):
               if len({r[axis[0]] for r in ok}) > 1]  # draw only what the study varies
     fig, axes = figure(len(varied))
     handles = {}
-    for ai, (along, fixed, sym, unit) in enumerate(varied):
+    for ai, (along, fixed, sym, _unit) in enumerate(varied):
         ax = axes[0, ai]
         is_p = along == "pressure_bar"
         fixed_values = [v for v in data.shown[fixed] if any(r[fixed] == v for r in sel)]
@@ -100,7 +131,7 @@ MAX_PHI_CURVES = 8
        "Flame speed, thickness and adiabatic temperature against blend fraction at fixed equivalence ratio, and "
        "flame speed at fixed adiabatic flame temperature, a block of four panels per fuel and condition.",
        burning_blends)
-def blend_chart(data, study):
+def blend_chart(data: ChartData, study: Study) -> Figure:
     """S_L, thermal thickness and T_ad vs blend fraction per phi; S_L at fixed T_ad; per fuel and condition."""
     ok_all = ok_rows(data.rows)
     conditions = sorted({(r["fuel"], r["oxidizer"], r["pressure_bar"], r["unburned_temperature_K"]) for r in ok_all},
@@ -181,9 +212,10 @@ LOG_MARGIN_SPAN = 20.0
        "a curve in the red zone under the minimum-margin line is a flashback risk. Right: quenching size "
        "against the port size.",
        has_margins)
-def flashback_chart(data, study):
+def flashback_chart(data: ChartData, study: Study) -> Figure:
     """Flashback margin vs phi per blend with the required minimum; quench size vs port size."""
     b = study.burner
+    assert b is not None  # drawn only with a burner (registry.has_margins)
     ok = [r for r in ok_rows(data.shown_rows) if r["flashback_margin"] is not None]
     panels = spread(sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok}),
                     MAX_PANELS // 2)  # two panels per condition
@@ -278,14 +310,16 @@ def _limit_overlay(ax, limits: list[dict]) -> None:
 @chart("operating_window",
        "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read between the "
        "solved points (dots; bilinear in their logarithms); the green region keeps both minimum margins and is "
-       "bounded by exactly the two lines drawn; hatched: no flame, failed, or no margin assessed (outside the range of the criteria: see the report). With [limits], black segments are "
+       "bounded by exactly the two lines drawn; hatched: no flame, failed, or no margin assessed (outside the range "
+       "of the criteria: see the report). With [limits], black segments are "
        "the windows the limit searches found with flames: where they and the shading differ, the segments are "
        "the answer.",
        has_window)
-def window_chart(data, study):
+def window_chart(data: ChartData, study: Study) -> Figure:
     """Operating window over (blend fraction, phi): one interpolated field per margin, the fill and
     both edge lines drawn from it, so the two can never disagree."""
     ds, b = data.dataset, study.burner
+    assert b is not None  # drawn only with a burner (registry.has_window)
     bo_col, bo_min, _ = b.blowoff
     bo_short = "SM" if b.on_stabilizer else "BO"
     every = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in data.shown["pressure_bar"]
@@ -360,7 +394,7 @@ def window_chart(data, study):
        "Wobbe index and heating value of the blends against blend fraction, with the "
        "allowed Wobbe band.",
        several_blends)
-def gas_quality_chart(data, study):
+def gas_quality_chart(data: ChartData, study: Study) -> Figure:
     """Wobbe index and heating value of the blends vs blend fraction, with the allowed band."""
     table = data.gases
     fig, axes = figure(2)
@@ -370,7 +404,7 @@ def gas_quality_chart(data, study):
         if k not in keys:
             keys.append(k)
     colours = colour_scale(len(keys))
-    handles = {}
+    handles: dict[str, Artist] = {}
     for ci, k in enumerate(keys):
         gs = sorted((g for g in table if (g["fuel"], g["oxidizer"]) == k), key=lambda g: g["blend_fraction"])
         x = [100 * g["blend_fraction"] for g in gs]
@@ -407,7 +441,7 @@ BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blow
 OPEN_KINDS = ("swept end", "stopped")
 
 
-def has_limits(data, study) -> bool:
+def has_limits(data: ChartData, study: Study) -> bool:
     return any(r["outcome"] in ("window", "none admissible") for r in data.limits)
 
 
@@ -506,7 +540,7 @@ def _shade_outside_band(ax, rows, handles, span) -> None:
     handles["grey: outside the Wobbe band"] = Patch(color="0.88")
 
 
-def _draw_blend_windows(ax, rows, study, colours, handles):
+def _draw_blend_windows(ax: Axes, rows: list[dict], study: Study, colours: np.ndarray, handles: dict) -> None:
     """Blend axis against phi: each window a vertical bar from its low to its high blend fraction."""
     groups = _limit_groups(rows, "equivalence_ratio")
     phis = sorted({r["equivalence_ratio"] for r in rows})
@@ -552,7 +586,7 @@ def _draw_window_spans(ax, rows, colours, handles):
     ax.grid(alpha=0.3, axis="x")
 
 
-def _draw_phi_windows(ax, rows, study, colours, handles):
+def _draw_phi_windows(ax: Axes, rows: list[dict], study: Study, colours: np.ndarray, handles: dict) -> None:
     """Phi axis against blend fraction: each window a vertical bar from its lean to its rich edge."""
     if not study.blend_with:  # nothing to plot the windows against: the window itself per condition
         _draw_window_spans(ax, rows, colours, handles)
@@ -583,7 +617,7 @@ def _draw_phi_windows(ax, rows, study, colours, handles):
        "or the edge was not settled); red cross: no window, drawn where the margins came closest; grey dots: "
        "flames the searches solved; dotted: what the flame margins alone would allow where the Wobbe band binds.",
        has_limits)
-def limits_chart(data, study):
+def limits_chart(data: ChartData, study: Study) -> Figure:
     """Admissible blend-fraction windows vs phi and phi windows vs blend fraction (limits.csv)."""
     P_shown, T_shown = set(data.shown["pressure_bar"]), set(data.shown["unburned_temperature_K"])
     drawn = [r for r in data.limits if r["pressure_bar"] in P_shown and r["unburned_temperature_K"] in T_shown]
@@ -597,9 +631,10 @@ def limits_chart(data, study):
     colours = colour_scale(n)
     for ax, (kind, rows) in zip(axes[0], parts):
         (_draw_blend_windows if kind == "blend" else _draw_phi_windows)(ax, rows, study, colours, handles)
-    return finish(fig, study, (f"Admissible windows: {study.burner.name}",
+    b, lim = burner_and_limits(study)
+    return finish(fig, study, (f"Admissible windows: {b.name}",
                                f"keeping {kept(study).replace('>=', '≥')};\ntolerance "
-                               + ", ".join(f"{study.limits.tolerance[a]:g} in {'blend fraction' if a == 'blend_fraction' else 'φ'}"
-                                           for a in study.limits.find)
+                               + ", ".join(f"{lim.tolerance[a]:g} in {'blend fraction' if a == 'blend_fraction' else 'φ'}"
+                                           for a in lim.find)
                                + data.note("pressure_bar", "unburned_temperature_K").replace("results.nc", "limits.csv")),
                    handles, "")

@@ -8,14 +8,20 @@ from __future__ import annotations
 
 from dataclasses import replace
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 
 from ...columns import gas_label
 from ...design import mechanism_differences
-from .registry import MAX_CURVES, MAX_LEVELS, chart, spread, thinned_note
+from .registry import MAX_CURVES, MAX_LEVELS, ChartData, chart, spread, thinned_note
 from .style import LINESTYLES, MARKERS, colour_scale, curves, figure, finish, ok_rows, panels
+
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
+
+    from ...config import Study
 
 #: Limit searches one panel of the limits comparison draws, at most.
 MAX_SEARCHES = 16
@@ -25,11 +31,11 @@ def _names(data) -> list[str]:
     return data.comparison.names if data.comparison is not None else []
 
 
-def compares_flames(data, study) -> bool:
+def compares_flames(data: ChartData, study: Study) -> bool:
     return data.comparison is not None and bool(ok_rows(data.comparison.rows))
 
 
-def compares_limits(data, study) -> bool:
+def compares_limits(data: ChartData, study: Study) -> bool:
     return data.comparison is not None and any(r["outcome"] in ("window", "none admissible")
                                                 for r in data.comparison.limits)
 
@@ -52,8 +58,9 @@ def _style(names: list[str]) -> dict[str, tuple[str, str]]:
        "A flame-speed difference outside the band says the mechanisms disagree by more than their rate "
        "constants' stated uncertainty.",
        compares_flames)
-def mechanism_comparison_chart(data, study):
+def mechanism_comparison_chart(data: ChartData, study: Study) -> Figure:
     names = _names(data)
+    assert data.comparison is not None  # drawn only for a study comparing mechanisms (compares_flames)
     rows = data.comparison.rows
     ok = ok_rows(rows)
     every = panels(ok)
@@ -129,8 +136,8 @@ def _difference_panel(ax, diffs, gas, cond, names, style, col) -> None:
     band = sorted({(d["equivalence_ratio"], d["reference_kinetic_uncertainty_percent"]) for d in mine
                    if d["reference_kinetic_uncertainty_percent"] is not None})
     if band:
-        phi, b = zip(*band)
-        ax.fill_between(phi, [-v for v in b], b, color=col, alpha=0.15, lw=0)
+        band_phi, b = zip(*band)
+        ax.fill_between(band_phi, [-v for v in b], b, color=col, alpha=0.15, lw=0)
 
 
 @chart("limits_by_mechanism",
@@ -138,9 +145,10 @@ def _difference_panel(ax, diffs, gas, cond, names, style, col) -> None:
        "from its low to its high edge; cross: no window, where the margins came closest). Bars that do not "
        "overlap by more than the tolerance: the limit depends on the chemistry; keep the more cautious one.",
        compares_limits)
-def limits_by_mechanism_chart(data, study):
+def limits_by_mechanism_chart(data: ChartData, study: Study) -> Figure:
     names = _names(data)
     style = _style(names)
+    assert data.comparison is not None  # drawn only for a study comparing mechanisms (compares_limits)
     found = [r for r in data.comparison.limits if r["outcome"] in ("window", "none admissible")]
     several_ox = len({r["oxidizer"] for r in found}) > 1
     parts = [(kind, [r for r in found if (r["axis"] == "blend_fraction") == (kind == "blend")])
@@ -184,6 +192,7 @@ def limits_by_mechanism_chart(data, study):
                                                                       mec="k", lw=3) for i, m in enumerate(names)}
     handles["hollow: edge at the last swept value or not settled"] = Line2D([], [], ls="", marker="o", mfc="white",
                                                                             mec="k")
+    assert study.burner is not None  # a study with limits has a burner
     return finish(fig, replace(study, mechanism=" vs ".join(names)), ("Admissible windows under each mechanism",
                                f"{study.burner.name}: the same searches, the same burner, different chemistry"),
                   handles, "mechanism")

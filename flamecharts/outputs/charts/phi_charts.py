@@ -5,19 +5,28 @@ thermal_thickness_chart  thermal flame thickness vs equivalence ratio
 flame_temperature_chart  adiabatic flame temperature vs equivalence ratio
 
 Layout: one panel per (pressure, unburned temperature), one curve per fuel,
-oxidizer and blend fraction (big studies: the levels of registry.py's chart rule). Points that did not give a flame are not dropped:
-they are marked on the axis floor with their status (zero, or the panel's unburned
+oxidizer and blend fraction (big studies: the levels of registry.py's chart rule). Points that
+did not give a flame are not dropped: they are marked on the axis floor with their status (zero, or the panel's unburned
 temperature for the flame temperature chart: no flame, no temperature rise).
 """
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import matplotlib.pyplot as plt
 import numpy as np
+from matplotlib.layout_engine import ConstrainedLayoutEngine
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from .registry import any_flame, chart
+from .registry import ChartData, any_flame, chart
 from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys, title_text
+
+if TYPE_CHECKING:
+    from matplotlib.artist import Artist
+    from matplotlib.figure import Figure
+
+    from ...config import Study
 
 
 def _error_bands(ax, good: list[dict], column: str, scale: float, colour, band: str | None,
@@ -66,9 +75,9 @@ def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float
                                        markersize=4)
 
 
-def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
+def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: str, title: tuple[str, str],
                companion: tuple[str, str] | None = None, floor_at_preheat: bool = False,
-               band: str | None = None, error_bars: str | None = None):
+               band: str | None = None, error_bars: str | None = None) -> Figure:
     """One panel per (pressure, preheat), one curve per gas. ``band``: a column of percent
     drawn as a shaded band around each curve (the kinetic 1-sigma band); ``error_bars``: a
     column of percent drawn as error bars (the numerical band)."""
@@ -82,7 +91,7 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
     fig, axes = plt.subplots(nrows, ncols, figsize=(max(10.0, 4.4 * ncols + 3.5), 3.5 * nrows + 2.0),
                              squeeze=False, layout="constrained", sharey=True)  # one scale: panels compare
     colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
-    handles = {}
+    handles: dict[str, Artist] = {}
     shown: set[str] = set()
     for ax, (P, T) in zip(axes.flat, panels):
         floor = T * scale if floor_at_preheat else 0.0
@@ -131,14 +140,16 @@ def _phi_chart(data, study, column: str, scale: float, ylabel: str, title: str,
     fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
                frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
     footer(fig, study)
-    fig.get_layout_engine().set(rect=(0, 0.07, 1, 0.93))
+    engine = fig.get_layout_engine()
+    assert isinstance(engine, ConstrainedLayoutEngine)  # made with layout="constrained" above
+    engine.set(rect=(0, 0.07, 1, 0.93))
     return fig
 
 
 @chart("flame_speed_vs_equivalence_ratio",
        "Laminar flame speed of each fuel and blend against equivalence ratio, a panel per pressure and "
        "preheat. Higher curves flash back more easily at the same port velocity.")
-def flame_speed_chart(data, study):
+def flame_speed_chart(data: ChartData, study: Study) -> Figure:
     """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at; with
     [uncertainty], the kinetic band shaded and (error_bars = true) the numerical band as bars."""
     u = study.uncertainty
@@ -152,7 +163,7 @@ def flame_speed_chart(data, study):
 @chart("thermal_thickness_vs_equivalence_ratio",
        "Thermal thickness (solid) and reaction-zone thickness (dotted). Thinner flames quench in narrower "
        "gaps and need finer grids in CFD.")
-def thermal_thickness_chart(data, study):
+def thermal_thickness_chart(data: ChartData, study: Study) -> Figure:
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
     return _phi_chart(data, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
                       ("Flame thickness vs equivalence ratio",
@@ -167,7 +178,7 @@ def thermal_thickness_chart(data, study):
        "ratio, a panel per pressure and preheat; points without a flame sit at the preheat temperature. Hotter flames make more "
        "thermal NOx and heat the burner more.",
        any_flame)
-def flame_temperature_chart(data, study):
+def flame_temperature_chart(data: ChartData, study: Study) -> Figure:
     """Adiabatic flame temperature [K] vs equivalence ratio: how hot each mixture burns."""
     return _phi_chart(data, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
                       ("Adiabatic flame temperature vs equivalence ratio",

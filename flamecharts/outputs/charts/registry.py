@@ -10,11 +10,18 @@ own); draw_all and the report pick it up, in the order the charts are registered
 from __future__ import annotations
 
 import textwrap
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field
 from functools import cached_property
-from typing import Callable
+from typing import TYPE_CHECKING, Any
 
 import xarray as xr
+
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
+
+    from ...config import Study
+    from ...results import Comparison
 
 # ---- the rule for big studies: what one figure shows (README, "Charts of big studies")
 #: Pressures, and preheats, a figure draws as panels or curves: lowest, middle, highest.
@@ -35,7 +42,7 @@ _AXIS_WORDS = {"pressure_bar": ("pressures", "bar"), "unburned_temperature_K": (
                "blend_fraction": ("blend fractions", ""), "equivalence_ratio": ("equivalence ratios", "")}
 
 
-def spread(values, k: int) -> list:
+def spread(values: Iterable[Any], k: int) -> list:
     """At most ``k`` of ``values``, evenly spread over their order, first and last included.
 
     >>> spread([1, 2, 3, 4, 5, 6, 7, 8, 9, 10], 3)
@@ -88,7 +95,7 @@ class ChartData:
     dataset: xr.Dataset
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
     stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (STRETCH_COLUMNS)
-    comparison: object | None = None  # results.Comparison of a study comparing mechanisms (rows: the reference's)
+    comparison: Comparison | None = None  # results.Comparison of a study comparing mechanisms (rows: the reference's)
 
     @cached_property
     def every(self) -> dict[str, list]:
@@ -128,12 +135,17 @@ class ChartData:
         return {k: sorted(v, key=lambda r: r["equivalence_ratio"]) for k, v in out.items()}
 
 
+#: A chart's drawing function and its condition.
+Draw = Callable[["ChartData", "Study"], "Figure"]
+When = Callable[["ChartData", "Study"], bool]
+
+
 @dataclass(frozen=True)
 class Chart:
     name: str          # file name without extension
-    draw: Callable     # (ChartData, Study) -> Figure
+    draw: Draw
     caption: str       # one line on how to read it (the report prints it under the chart)
-    when: Callable     # (ChartData, Study) -> bool: does this study's sweep support the chart?
+    when: When         # does this study's sweep support the chart?
 
 
 #: Every chart, in the order the report shows them.
@@ -141,7 +153,7 @@ CHARTS: list[Chart] = []
 
 
 # ---- conditions a chart may be drawn under ("when"), shared by every chart family
-def always(data: ChartData, study) -> bool:
+def always(data: ChartData, study: Study) -> bool:
     return True
 
 
@@ -149,29 +161,29 @@ def _burning(rows: list[dict]) -> list[dict]:
     return [r for r in rows if r["status"] == "ok"]
 
 
-def any_flame(data: ChartData, study) -> bool:
+def any_flame(data: ChartData, study: Study) -> bool:
     """At least one point burns."""
     return bool(_burning(data.rows))
 
 
-def varies_p_or_T(data, study) -> bool:
+def varies_p_or_T(data: ChartData, study: Study) -> bool:
     ok = _burning(data.rows)
     return bool(ok) and (len({r["pressure_bar"] for r in ok}) > 1 or len({r["unburned_temperature_K"] for r in ok}) > 1)
 
 
-def several_blends(data, study) -> bool:
+def several_blends(data: ChartData, study: Study) -> bool:
     return study.blend_with is not None and len(study.blend_fractions) > 1
 
 
-def burning_blends(data, study) -> bool:
+def burning_blends(data: ChartData, study: Study) -> bool:
     return several_blends(data, study) and bool(_burning(data.rows))
 
 
-def has_margins(data, study) -> bool:
+def has_margins(data: ChartData, study: Study) -> bool:
     return study.burner is not None and any(r["flashback_margin"] is not None for r in data.rows)
 
 
-def has_window(data, study) -> bool:
+def has_window(data: ChartData, study: Study) -> bool:
     return has_margins(data, study) and several_blends(data, study) and len(study.equivalence_ratios) > 1
 
 
@@ -194,9 +206,9 @@ def not_drawn(drawn: set[str]) -> list[tuple[str, str]]:
             if c.name not in drawn and c.when.__name__ in SHAPE_WHY]
 
 
-def chart(name: str, caption: str, when: Callable = always):
+def chart(name: str, caption: str, when: When = always) -> Callable[[Draw], Draw]:
     """Register the decorated ``draw(data, study)`` as chart ``name``."""
-    def register(draw):
+    def register(draw: Draw) -> Draw:
         CHARTS.append(Chart(name, draw, caption, when))
         return draw
     return register

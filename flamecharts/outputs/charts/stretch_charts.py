@@ -5,15 +5,22 @@ stretch_chart   left: S_c / S_L against strain rate per ladder, extinction marke
 """
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from .registry import MAX_CURVES, chart, spread
+from .registry import MAX_CURVES, ChartData, chart, spread
 from .style import MARKERS, colour_scale, figure, finish
 
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
 
-def has_stretch(data, study) -> bool:
+    from ...config import Study
+
+
+def has_stretch(data: ChartData, study: Study) -> bool:
     return any(r["status"] == "ok" for r in data.stretch)
 
 
@@ -30,7 +37,7 @@ def _where(r: dict) -> str:
        "|du/dz| ahead of the flame), from low strain to extinction (×). Rising curves (Markstein number below "
        "0) burn faster when stretched. Right: extinction strain rate against equivalence ratio.",
        has_stretch)
-def stretch_chart(data, study):
+def stretch_chart(data: ChartData, study: Study) -> Figure:
     """S_c/S_L vs strain per ladder with the extinction point; K_ext vs phi per gas and condition."""
     ladders = [r for r in data.stretch if r["status"] == "ok"]
     shown = spread(ladders, MAX_CURVES)

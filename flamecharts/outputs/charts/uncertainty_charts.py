@@ -6,17 +6,24 @@ sensitivity_chart   horizontal bars of d ln S_L / d ln k for the most sensitive 
 """
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from ...columns import gas_label
-from .registry import MAX_PANELS, chart
+from .registry import MAX_PANELS, ChartData, chart
 from .style import figure, finish
+
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
+
+    from ...config import Study
 
 #: Bars per panel.
 BARS = 8
 
 
-def has_sensitivities(data, study) -> bool:
+def has_sensitivities(data: ChartData, study: Study) -> bool:
     return study.uncertainty is not None and any(r.get("top_reactions") for r in data.rows)
 
 
@@ -46,7 +53,7 @@ def chosen_points(rows: list[dict]) -> list[dict]:
        "reactions that matter most, with their uncertainty factor f. Long bars with large f dominate the "
        "kinetic band.",
        has_sensitivities)
-def sensitivity_chart(data, study):
+def sensitivity_chart(data: ChartData, study: Study) -> Figure:
     """Horizontal bars of the largest sensitivities of the chosen points (:func:`chosen_points`)."""
     chosen = chosen_points(data.rows)
     ncols = min(3, len(chosen))
