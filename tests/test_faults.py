@@ -388,7 +388,7 @@ def test_pressure_outside_the_mechanism_range_warns_only_for_known_mechanisms():
 
 def test_equivalence_ratio_outside_the_flammable_range_warns():
     # flammability limits in air, 1 atm (Coward & Jones, US Bureau of Mines Bulletin 503, 1952):
-    # methane 5-15 % (phi 0.5-1.67), hydrogen 4-75 % (phi 0.1-7.1)
+    # methane 5-15 % (phi 0.50-1.68), hydrogen 4-75 % (phi 0.10-7.14) in air (O2 + 3.76 N2)
     air = {"O2": 1.0, "N2": 3.76}
     assert "Coward & Jones" in flammability_warning({"CH4": 1.0}, air, 0.45)
     assert flammability_warning({"CH4": 1.0}, air, 1.8) != ""

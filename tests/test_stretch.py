@@ -165,7 +165,7 @@ def test_methane_extinction_strain_rises_to_stoichiometric_and_with_hydrogen():
     (Law, Zhu & Yu 1986; Law, Combustion Physics 2006, ch. 10: stoichiometric methane-air
     about 2,000-2,500 1/s and lean flames near phi 0.6 some 4 times lower; from memory,
     absolute values differ with the strain definition, here the largest |du/dz| ahead of the
-    flame), and hydrogen in the fuel raises it at equal phi (Guo, Smallwood, Liu, Ju & Gulder,
+    flame), and hydrogen in the fuel raises it at equal phi (Guo, Smallwood, Liu, Ju & Gülder,
     Int. J. Hydrogen Energy 2005, counterflow methane-hydrogen flames; from memory). Three
     ladders on two processes, about 3 minutes."""
     from flamecharts.sweep.backends import LocalBackend

@@ -171,7 +171,8 @@ def test_ethane_air_near_its_peak(tmp_path_factory):
 
 def test_hydrogen_air_stoichiometric(tmp_path):
     # Hu, Huang, He & Zheng, Int. J. Hydrogen Energy 34 (2009) 8741-8755 (hydrogen-air at
-    # elevated pressures and temperatures; pages from memory, see tests/test_mechanisms.py),
+    # elevated pressures and temperatures; title, volume and pages from memory, as in
+    # tests/test_mechanisms.py),
     # spherical bomb, 1 atm, 303 K: 211 +/- 11 cm/s (2 sigma). Stretch-corrected data of other
     # laboratories reach about 230-240 cm/s (Egolfopoulos & Law 1990; from memory), and
     # h2o2.yaml (the H/O subset of GRI-Mech 3.0) is known to read about 10 % high.
@@ -201,7 +202,8 @@ def methane_hydrogen(tmp_path_factory):
 def test_methane_with_30_percent_hydrogen_stoichiometric(methane_hydrogen):
     # CH4/H2 blends, 1 atm, ~298 K, phi 1.0: about 40-43 cm/s at 20 % H2 and 47-52 at
     # 40 % H2 in the fuel (Halter et al., Combust. Flame 2005; Huang et al., Combust. Flame
-    # 2006; Hu et al., Int. J. Hydrogen Energy 2009; from memory). 30 % lies between them;
+    # 2006; Hu, Huang, He, Jin & Zheng, Int. J. Hydrogen Energy 34 (2009) 4876-4888, their
+    # methane-hydrogen-air paper; all from memory). 30 % lies between them;
     # band: the two ranges' inner edges widened by the 5 % floor, 41-50 cm/s.
     r = methane_hydrogen[-1]
     assert r["blend_fraction"] == 0.3 and r["status"] == "ok"
