@@ -59,9 +59,29 @@ class RunSummary:
         return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
-def _labelled(progress: Callable[[str, int, int], None] | None, what: str) -> Callable[[int, int], None] | None:
-    """``progress(what, done, total)`` as the (done, total) callback an extras loop calls."""
-    return None if progress is None else (lambda done, total: progress(what, done, total))
+def _part(progress: Callable[[Progress], None] | None, what: str) -> Callable[[int, int], None] | None:
+    """The (done, total) callback an extras loop calls, as the run's one progress event
+    (:class:`Progress` with ``what``), timed from now: its time left follows the share done."""
+    if progress is None:
+        return None
+    t0 = time.perf_counter()
+    return lambda done, total: progress(Progress(done=done, total=total, failed=0, no_flame=0, reused=0,
+                                                 elapsed_s=time.perf_counter() - t0, what=what,
+                                                 done_share=done / total if total else 1.0))
+
+
+def _limits_part(progress: Callable[[Progress], None] | None) -> Callable[[LimitsProgress], None] | None:
+    """The limit searches' round report as the run's one progress event ('limits': searches
+    answered of all; the round and its flames in ``detail``)."""
+    if progress is None:
+        return None
+
+    def report(p: LimitsProgress) -> None:
+        answered = p.searches - p.open_searches
+        progress(Progress(done=answered, total=p.searches, failed=0, no_flame=0, reused=0, elapsed_s=p.elapsed_s,
+                          what="limits", detail=f"round {p.round}, {p.flames_solved} flames solved",
+                          done_share=answered / p.searches if p.searches else 1.0))
+    return report
 
 
 def default_out_dir(study: Study) -> Path:
@@ -80,14 +100,13 @@ def _out_folder(study: Study, out_dir: str | os.PathLike | None) -> Path:
 
 def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
                 progress: Callable[[Progress], None] | None = None, cluster: str | None = None,
-                stop_after: int | None = None,
-                limits_progress: Callable[[LimitsProgress], None] | None = None,
-                extras_progress: Callable[[str, int, int], None] | None = None) -> RunSummary:
+                stop_after: int | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
 
     Then, when the study has a [limits] table, run its limit searches: each asks for
-    flames between the swept ones, solved on the same backend and stored like any point
-    (``limits_progress`` is called after each round of them).
+    flames between the swept ones, solved on the same backend and stored like any point.
+    ``progress`` receives one :class:`Progress` event after every finished flame, extra solve
+    and round of limit flames (``what`` says which).
 
     A study that compares mechanisms is solved once per mechanism, the reference first,
     into the same store (config.by_mechanism): rows, limits and ladders of all of them
@@ -112,7 +131,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                 stage = f"{sub.mechanism} ({i + 1} of {len(subs)})" if len(subs) > 1 else ""
                 try:
                     parts.append(_solve_one(sub, store, backend, _staged(progress, stage), stop_after,
-                                            t0 if i == 0 else None, limits_progress, extras_progress))
+                                            t0 if i == 0 else None))
                 except RunInterrupted as exc:  # counted over the whole study, not the mechanism it stopped in
                     exc.solved += sum(p["solved"] for p in parts)
                     exc.remaining += sum(s.n_points for s in subs[i + 1:])
@@ -143,19 +162,17 @@ def _staged(progress: Callable[[Progress], None] | None, stage: str) -> Callable
 
 
 def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[[Progress], None] | None,
-               stop_after: int | None, t0: float | None, limits_progress: Callable[[LimitsProgress], None] | None,
-               extras_progress: Callable[[str, int, int], None] | None) -> dict:
+               stop_after: int | None, t0: float | None) -> dict:
     """Solve one mechanism's study: the sweep, then the extras, limits and ladders it asks for."""
     pts = points(study)
     done = solve_points(study, store, pts, backend, progress, stop_after, t0)
     stored = store.rows([p.key for p in pts])
     extra_seconds = 0.0
     if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
-        _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _labelled(extras_progress,
-                                                                                        "Zeldovich pairs"))
+        _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _part(progress, "Zeldovich pairs"))
         # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
         extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
-                                             _labelled(extras_progress, "flame-speed sensitivities"))[1]
+                                             _part(progress, "flame-speed sensitivities"))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
     if study.limits is not None and stop_after is None:
@@ -165,12 +182,12 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
             n = solve_points(study, store, new_points, backend, sources=swept).solved
             limit_solved[0] += n
             return n
-        limits = with_mechanism(study, find_limits(study, rows, store, solve, limits_progress))
+        limits = with_mechanism(study, find_limits(study, rows, store, solve, _limits_part(progress)))
     stretch, ladders, ladder_seconds = [], 0, 0.0
     if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
         by_key = {r["point_key"]: r for r in rows}
         ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
-                                                _labelled(extras_progress, "strained-flame ladders"))
+                                                _part(progress, "strained-flame ladders"))
         stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
     return {"rows": rows, "solved": done.solved, "reused": done.reused, "limits": limits,
             "limit_flames": limit_solved[0], "stretch": stretch, "ladders": ladders,
@@ -189,9 +206,7 @@ def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int 
 
 def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None = None, jobs: int | None = None,
         cluster: str | None = None, progress: Callable[[Progress], None] | None = None,
-        charts: bool = True, report: bool = True,
-        limits_progress: Callable[[LimitsProgress], None] | None = None,
-        extras_progress: Callable[[str, int, int], None] | None = None) -> Results:
+        charts: bool = True, report: bool = True) -> Results:
     """Solve every point of a study the store lacks, store each flame, write every output file.
 
     Parameters
@@ -202,11 +217,11 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     jobs : local worker processes; None or 0 = all cores, negative = all but |jobs|-1
     cluster : 'tcp://HOST:PORT' of a Dask scheduler or 'local:N'; default the study's
         ``cluster`` key, else local processes
-    progress : called after each finished flame with a :class:`~flamecharts.sweep.run.Progress`
+    progress : called with one :class:`~flamecharts.sweep.run.Progress` event after every finished
+        flame, extra solve (a Zeldovich pair, the sensitivities of a point, a strained-flame
+        ladder) and round of limit flames; ``what`` says which, and every event carries its
+        elapsed time and time left
     charts, report : draw the charts, write report.html (the report needs the charts)
-    limits_progress : called after each round of limit flames (studies with [limits])
-    extras_progress : called with (what, done, to solve) after each extra of a point: a Zeldovich
-        pair ([flame_response]) or a strained-flame ladder ([stretch])
 
     Returns
     -------
@@ -214,8 +229,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     The command ``flamecharts run`` calls exactly this.
     """
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
-    summary = solve_study(study, out, jobs, progress, cluster, limits_progress=limits_progress,
-                          extras_progress=extras_progress)
+    summary = solve_study(study, out, jobs, progress, cluster)
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
     from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
 

@@ -28,6 +28,38 @@ def test_without_a_terminal_progress_is_plain_lines():
     assert "\r" not in out.getvalue()
 
 
+def test_extra_solves_and_limits_report_elapsed_time_and_time_left():
+    """One event type for every part of a run: the extras and the limit searches get plain lines
+    with their elapsed time and the time left from the share done (a new user's runs showed
+    neither for them)."""
+    out = io.StringIO()
+    show = ProgressDisplay(stream=out)
+    show(Progress(4, 4, 0, 0, 0, elapsed_s=8.0, done_share=1.0))  # the sweep's last flame
+    for done in range(1, 11):
+        show(Progress(done, 10, 0, 0, 0, elapsed_s=30.0 * done, what="flame-speed sensitivities",
+                      done_share=done / 10))
+    show(Progress(1, 4, 0, 0, 0, elapsed_s=50.0, what="limits", detail="round 1, 6 flames solved", done_share=0.25))
+    lines = out.getvalue().splitlines()
+    sens = [line for line in lines if "flame-speed sensitivities" in line]
+    assert sens[0] == "flamecharts: flame-speed sensitivities: 1/10 done, 30 s elapsed, about 4 min left"
+    assert sens[-1] == "flamecharts: flame-speed sensitivities: 10/10 done, 5 min elapsed"
+    assert lines[-1] == ("flamecharts: limits: 1 of 4 searches answered (round 1, 6 flames solved), 50 s elapsed, "
+                         "about 2 min left")
+
+
+def test_a_run_reports_its_extras_through_the_one_progress_callback(tmp_path):
+    import flamecharts
+
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", extra="")
+    config.write_text(config.read_text() + "\n[uncertainty]\n")
+    events = []
+    flamecharts.run(config, out=tmp_path / "out", jobs=1, charts=False, progress=events.append)
+    parts = {e.what for e in events}
+    assert parts == {"flames", "flame-speed sensitivities"}
+    last = [e for e in events if e.what == "flame-speed sensitivities"][-1]
+    assert (last.done, last.total) == (2, 2) and last.elapsed_s > 0 and last.remaining_s == 0.0
+
+
 def test_a_run_into_a_log_file_shows_progress_lines(tmp_path):
     config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]")
     r = run_cli("run", config, "--out", tmp_path / "out", "--jobs", "1", "--no-charts")

@@ -54,6 +54,7 @@ class ProgressDisplay:
         self._last_line_t: float | None = None
         self._last_line_done = -1
         self._stage = ""
+        self._what = "flames"
 
     def __call__(self, pr: Progress) -> None:
         if pr.stopping and not self.told_stop:
@@ -62,15 +63,42 @@ class ProgressDisplay:
                   "(Ctrl-C again to stop at once).", file=self.stream)
         if self.quiet or pr.total == 0:
             return
-        if pr.stage != self._stage:  # the next mechanism of a comparison: a bar (or line count) of its own
-            self.close()
-            self._stage, self._last_line_t, self._last_line_done = pr.stage, None, -1
+        if pr.stage != self._stage or pr.what != self._what:  # the next mechanism, or the next part of the run:
+            self.close()                                       # a bar (or line count) of its own
+            self._stage, self._what, self._last_line_t, self._last_line_done = pr.stage, pr.what, None, -1
         left = pr.remaining_s
         left_text = "" if left is None else f"about {duration(left)} left"
-        if self.terminal:
+        if pr.what != "flames":
+            self._part_line(pr, left_text)
+        elif self.terminal:
             self._bar(pr, left_text)
         else:
             self._line(pr, left_text)
+
+    def _due(self, pr: Progress) -> bool:
+        """Whether a plain line is due: every LINE_EVERY_SHARE of the work or LINE_EVERY_S
+        seconds, and at the end."""
+        now = time.monotonic()
+        step = max(1, round(LINE_EVERY_SHARE * pr.total))
+        assert self._last_line_t is not None
+        due = (pr.done >= self._last_line_done + step or now - self._last_line_t >= LINE_EVERY_S
+               or pr.done == pr.total)
+        if not due or pr.done == self._last_line_done:
+            return False
+        self._last_line_t, self._last_line_done = now, pr.done
+        return True
+
+    def _part_line(self, pr: Progress, left_text: str) -> None:
+        """A plain line for the extra solves and the limit searches (also on a terminal: they come
+        after the sweep's bar), with the elapsed time and the time left."""
+        if self._last_line_t is None:
+            self._last_line_t = time.monotonic()
+        elif not self._due(pr):
+            return
+        count = (f"{pr.done} of {pr.total} searches answered ({pr.detail})" if pr.what == "limits"
+                 else f"{pr.done}/{pr.total} done")
+        print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.what}: {count}, {duration(pr.elapsed_s)} elapsed"
+              + (f", {left_text}" if left_text and pr.done < pr.total else ""), file=self.stream, flush=True)
 
     def _bar(self, pr: Progress, left_text: str) -> None:
         if self.bar is None:
@@ -82,20 +110,15 @@ class ProgressDisplay:
         self.bar.update(pr.done - self.bar.n)
 
     def _line(self, pr: Progress, left_text: str) -> None:
-        now = time.monotonic()
         if self._last_line_t is None:
-            self._last_line_t, self._last_line_done = now, pr.done
+            self._last_line_t, self._last_line_done = time.monotonic(), pr.done
             print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.total} flames to solve, "
                   f"{pr.reused} from the store"
                   + (f"; estimated {duration(pr.estimate_s)} with the cores free" if pr.estimate_s is not None else ""),
                   file=self.stream, flush=True)
             return
-        step = max(1, round(LINE_EVERY_SHARE * pr.total))
-        due = (pr.done >= self._last_line_done + step or now - self._last_line_t >= LINE_EVERY_S
-               or pr.done == pr.total)
-        if not due or pr.done == self._last_line_done:
+        if not self._due(pr):
             return
-        self._last_line_t, self._last_line_done = now, pr.done
         print(f"flamecharts: {pr.done}/{pr.total} flames, {pr.no_flame} no flame, {pr.failed} failed, "
               f"{duration(pr.elapsed_s)} elapsed" + (f", {left_text}" if left_text and pr.done < pr.total else ""),
               file=self.stream, flush=True)

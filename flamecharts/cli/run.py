@@ -20,7 +20,6 @@ from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points, print_premixer
 
 if TYPE_CHECKING:
-    from ..admissible import LimitsProgress
     from ..config import Study
 
 
@@ -32,9 +31,7 @@ def cmd_run(args: argparse.Namespace) -> int:
 
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
-                      charts=not args.no_charts, report=not args.no_report,
-                      limits_progress=None if args.quiet else _limits_line,
-                      extras_progress=None if args.quiet else _extras_line)
+                      charts=not args.no_charts, report=not args.no_report)
         summary = results.summary
         assert isinstance(summary, RunSummary)  # run() gives the summary of the run
     except KeyboardInterrupt as exc:
@@ -105,12 +102,6 @@ def cmd_run(args: argparse.Namespace) -> int:
     return 0
 
 
-def _limits_line(p: LimitsProgress) -> None:
-    """One plain line per round of limit flames (stderr, like the progress bar)."""
-    print(f"limits: round {p.round}, {p.searches - p.open_searches} of {p.searches} searches answered, "
-          f"{plural(p.flames_solved, 'flame')} solved, {p.elapsed_s:.0f} s", file=sys.stderr)
-
-
 def _print_limits(study: Study, summary: RunSummary) -> None:
     """The [limits] answers, one sentence each."""
     if not summary.limits:
@@ -121,11 +112,6 @@ def _print_limits(study: Study, summary: RunSummary) -> None:
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:
         print("  " + (f"{r['mechanism']}: " if study.mechanisms else "") + limit_sentence(r, study))
-
-
-def _extras_line(what: str, done: int, total: int) -> None:
-    """One plain line per finished extra of a point: a Zeldovich pair, a ladder (stderr, like the progress bar)."""
-    print(f"{what}: {done} of {total} done", file=sys.stderr)
 
 
 def _print_stretch(summary: RunSummary, by_mechanism: bool = False) -> None:

@@ -54,7 +54,11 @@ RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
 
 @dataclass
 class Progress:
-    """What a progress callback receives after every finished point."""
+    """The one event a run's progress callback receives: after every finished flame of the
+    sweep (``what`` 'flames'), and after every finished extra solve ('Zeldovich pairs',
+    'flame-speed sensitivities', 'strained-flame ladders') or round of limit flames ('limits',
+    ``done``/``total`` counting the searches answered, ``detail`` the round and its flames).
+    Every kind carries its elapsed time and, once something finished, the time left."""
 
     done: int
     total: int
@@ -67,16 +71,16 @@ class Progress:
     estimate_s: float | None = None  # the plan's estimate of this run's wall time (as check prints it)
     done_share: float = 0.0          # share of the plan's estimated flame cost finished so far
     stage: str = ""                  # which part of the study, when it has several (one per mechanism)
+    what: str = "flames"             # which part of the run reports: the sweep's flames, or an extra
+    detail: str = ""                 # more words on it (the limit searches' round)
 
     @property
     def remaining_s(self) -> float | None:
         """Seconds still to go: the plan's estimate before the first flame finishes, then the
         elapsed time scaled by the cost share done (fresh flames, dear, come first: a count of
         flames would overstate what is left)."""
-        if self.estimate_s is None:
-            return None
         if self.done_share <= 0:
-            return max(self.estimate_s - self.elapsed_s, 0.0)
+            return None if self.estimate_s is None else max(self.estimate_s - self.elapsed_s, 0.0)
         return self.elapsed_s * (1.0 - self.done_share) / self.done_share
 
 
