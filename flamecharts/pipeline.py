@@ -79,7 +79,8 @@ def _limits_part(progress: Callable[[Progress], None] | None) -> Callable[[Limit
     def report(p: LimitsProgress) -> None:
         answered = p.searches - p.open_searches
         progress(Progress(done=answered, total=p.searches, failed=0, no_flame=0, reused=0, elapsed_s=p.elapsed_s,
-                          what="limits", detail=f"round {p.round}, {p.flames_solved} flames solved",
+                          what="limits",
+                          detail=f"round {p.round}, {p.flames_solved} flame{'s' if p.flames_solved != 1 else ''} solved",
                           done_share=answered / p.searches if p.searches else 1.0))
     return report
 
