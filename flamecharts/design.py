@@ -421,7 +421,7 @@ def point_warnings(study: Study, point: Point, row: dict) -> str:
     """All warnings of one point, joined by '; ' ('' when it is inside every range). A flame that
     turns out to be autoignition is not warned of here: it is a status of its own
     (results.not_a_flame); a point whose flame failed is, when its mixture ignites on its own."""
-    out = [unsolved_autoignition_warning(row["status"], row.get("autoignition_screen_delay_s"), point.T_u),
+    out = [unsolved_autoignition_warning(row.get("status", ""), row.get("autoignition_screen_delay_s"), point.T_u),
            pressure_warning(study.mechanism, point.pressure_bar),
            flammability_warning(point.X_fuel, point.X_oxidizer, point.phi),
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
