@@ -8,7 +8,7 @@ PACKAGE = Path(flamecharts.__file__).parent
 
 #: Lowest first. A module may import from its own layer and the layers below, never above.
 LAYERS = (
-    ("_version", "errors", "columns", "outcome"),  # names, units, status words, the error family
+    ("_version", "errors", "columns", "outcome", "numerics"),  # names, units, status words, errors, grid settings
     ("physics",),      # pure functions with cited sources
     ("chemistry",),    # the only code that imports Cantera
     ("config",),       # TOML -> validated Study
@@ -97,3 +97,13 @@ def test_the_check_sees_a_wrong_import(tmp_path):
     fake = tmp_path / "m.py"
     fake.write_text("from ..cli import main\nfrom ..physics import mixtures\n")
     assert _imports("physics.m", fake) >= {"cli.__init__", "physics.mixtures"}
+
+
+def test_the_outputs_do_not_import_the_chemistry_layer_themselves():
+    """CSV, netCDF, charts and report name the grid settings and Cantera's version without
+    importing Cantera (numerics.py, _version.installed_cantera_version); what they still
+    reach through design and results is the read-side work of issue 29."""
+    mods = _modules()
+    for name, path in mods.items():
+        if _top(name) == "outputs":
+            assert not {m for m in _imports(name, path) if _top(m) == "chemistry"}, name

@@ -22,13 +22,13 @@ import io
 import threading
 import time
 import warnings
-from dataclasses import asdict, dataclass
 
 import cantera as ct
 import numpy as np
 import numpy.typing as npt
 
 from ..errors import first_line
+from ..numerics import NUMERICS, Numerics  # noqa: F401 - NUMERICS re-exported (the grid settings live below the chemistry)
 from ..outcome import Reason, Status
 from ..physics import flame_measures as profiles
 from ..physics.grid_error import grid_convergence_index, placement_floor
@@ -51,50 +51,8 @@ MIN_EQUILIBRIUM_RISE_K = 300.0
 T_EQ_WARN_SHARE = 0.01
 
 
-@dataclass(frozen=True)
-class Numerics:
-    """Grid settings of one flame solve.
-
-    stages : successive (ratio, slope, curve) refinement criteria of Cantera's
-        ``set_refine_criteria``; the last one is the final grid.
-    prune : Cantera's prune criterion [-]
-    width_m : initial domain width at 1 bar [m]; scaled as 1/sqrt(p) and widened by
-        Cantera's automatic solve when the flame needs it
-    max_grid_points : ceiling on grid points
-    tail_share : a settled grid (of any stage after the first: Cantera's refiner run to
-        its end on the converged solution, :func:`_settle`) that would add no more than
-        this share of the grid's points (at least TAIL_MIN_POINTS) is not taken; the
-        flame converged on the grid before it is kept (see :func:`_refine_loop`)
-    warm_share : the same for the first settled grid after the full-grid solve of a
-        warm start, whose grid was already refined at the final criteria on a converged
-        profile of the new flame (see :func:`_solve_warm`; its effect on S_L is in
-        docs/benchmarks.md)
-    warm_stride : a warm start first solves on every warm_stride-th point of the
-        neighbour's grid (fewer for small neighbours, :func:`warm_stride`; see
-        :func:`_solve_warm`)
-    """
-
-    label: str
-    stages: tuple[tuple[float, float, float], ...]
-    prune: float = 0.0
-    width_m: float = 0.03
-    max_grid_points: int = 5000
-    tail_share: float = 0.01
-    warm_share: float = 0.08
-    warm_stride: int = 4
-
-    def as_dict(self) -> dict:
-        d = asdict(self)
-        d["stages"] = [list(s) for s in self.stages]
-        return d
-
-
-NUMERICS = {
-    "coarse": Numerics("coarse", ((3.0, 0.1, 0.2), (2.0, 0.3, 0.04))),
-    "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01))),
-    "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01), (2.0, 0.1, 0.004))),
-}
-
+# the grid settings live below the chemistry, so the read side can name them without Cantera
+from ..numerics import NUMERICS, Numerics  # noqa: E402,F401 - re-exported: chemistry.flame.NUMERICS
 
 #: Smallest refinement pass that is always skipped at the end (see Numerics.tail_share).
 TAIL_MIN_POINTS = 3

@@ -17,10 +17,8 @@ from typing import TYPE_CHECKING, Any, TypeVar
 
 import xarray as xr
 
-from .._version import __version__
+from .._version import __version__, installed_cantera_version
 from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, search_flames, unassessed
-from ..chemistry.flame import NUMERICS
-from ..chemistry.mechanism import cantera_version
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import (
@@ -32,6 +30,7 @@ from ..design import (
     mechanism_differences,
     not_assessed_summary,
 )
+from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope
 from ..results import margin_summary, premixer_summary, to_dataset
@@ -603,7 +602,7 @@ def _provenance(study: Study, comparison: Comparison | None) -> list[str]:
         ["indicator settings", ", ".join(f"{k} = {'not set' if v is None else format(v, 'g')}"
                                          for k, v in study.indicator_settings.items())],
         *([["uncertainty settings", uncertainty_settings(study.uncertainty)]] if study.uncertainty else []),
-        ["software", f"flamecharts {__version__}, Cantera {cantera_version()}"],
+        ["software", f"flamecharts {__version__}, Cantera {installed_cantera_version()}"],
         ["written", time.strftime("%Y-%m-%d %H:%M:%S %Z")],
         ["config", study.config_path or "(from Python)"],
     ])]

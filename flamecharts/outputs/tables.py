@@ -14,11 +14,10 @@ import time
 from collections.abc import Sequence
 from pathlib import Path
 
-from .._version import __version__
-from ..chemistry.flame import NUMERICS
-from ..chemistry.mechanism import cantera_version
+from .._version import __version__, installed_cantera_version
 from ..columns import CAUTION, COLUMNS
 from ..config import Study, Uncertainty, lumping_note, resolution_label
+from ..numerics import NUMERICS
 
 
 def write_atomic(path: Path, text: str) -> None:
@@ -79,7 +78,7 @@ def write_about(study: Study, path: Path) -> Path:
         f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
         *([f"Uncertainty: {uncertainty_settings(study.uncertainty)}"] if study.uncertainty else []),
         f"Resolution: {resolution_label(study)}; refinement stages (ratio, slope, curve): {list(n.stages)}",
-        f"flamecharts {__version__}, Cantera {cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
+        f"flamecharts {__version__}, Cantera {installed_cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",
         *([note, ""] if (note := lumping_note(study)) else []),
         "CAUTION: " + CAUTION,
