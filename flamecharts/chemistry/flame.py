@@ -51,9 +51,6 @@ MIN_EQUILIBRIUM_RISE_K = 300.0
 T_EQ_WARN_SHARE = 0.01
 
 
-# the grid settings live below the chemistry, so the read side can name them without Cantera
-from ..numerics import NUMERICS, Numerics  # noqa: E402,F401 - re-exported: chemistry.flame.NUMERICS
-
 #: Smallest refinement pass that is always skipped at the end (see Numerics.tail_share).
 TAIL_MIN_POINTS = 3
 
