@@ -21,7 +21,7 @@ def test_without_a_terminal_progress_is_plain_lines():
     for done in range(1, 21):
         show(Progress(done, 20, 0, 0, 3, elapsed_s=10.0 * done, estimate_s=600.0, done_share=done / 20))
     lines = out.getvalue().splitlines()
-    assert lines[0] == "flamecharts: 20 flames to solve, 3 from the store; estimated 10 min with the cores free"
+    assert lines[0] == "flamecharts: 20 flames to solve, 3 from the store; these estimated 10 min with the cores free"
     assert lines[1].startswith("flamecharts: 2/20 flames, 0 no flame, 0 failed, 20 s elapsed, about 3 min left")
     assert lines[-1] == "flamecharts: 20/20 flames, 0 no flame, 0 failed, 3 min elapsed"
     assert len(lines) == 11  # the first line, then every 10 % of the flames

@@ -2,6 +2,8 @@
 from __future__ import annotations
 
 import argparse
+import contextlib
+import io
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -54,6 +56,13 @@ def cmd_check(args: argparse.Namespace) -> int:
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
     print(_total_line(sum(seconds), resolve_jobs(args.jobs), len(subs)))
     return 0
+
+
+def whole_run_seconds(study: Study, out: Path, jobs: int | None) -> float:
+    """The estimate `check` prints as its total (sweep, limits and extra solves of every
+    mechanism), computed without printing: `run` announces it before it starts."""
+    with contextlib.redirect_stdout(io.StringIO()):
+        return sum(_plan(sub, out, stored_keys(out / DB_NAME), jobs) for sub in by_mechanism(study))
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:

@@ -45,7 +45,7 @@ class ProgressDisplay:
     plan's estimate refined by the measured cost (Progress.remaining_s), or, when stderr is
     not a terminal, a plain line every LINE_EVERY_S seconds or LINE_EVERY_SHARE of the flames."""
 
-    def __init__(self, quiet: bool = False, stream: TextIO | None = None) -> None:
+    def __init__(self, quiet: bool = False, stream: TextIO | None = None, whole_run_s: float | None = None) -> None:
         self.quiet = quiet
         self.stream = stream or sys.stderr
         self.terminal = hasattr(self.stream, "isatty") and self.stream.isatty()
@@ -55,6 +55,7 @@ class ProgressDisplay:
         self._last_line_done = -1
         self._stage = ""
         self._what = "flames"
+        self.whole_run_s = whole_run_s  # `check`'s estimate of the whole run, said once when work starts
 
     def __call__(self, pr: Progress) -> None:
         if pr.stopping and not self.told_stop:
@@ -63,6 +64,10 @@ class ProgressDisplay:
                   "(Ctrl-C again to stop at once).", file=self.stream)
         if self.quiet or pr.total == 0:
             return
+        if self.whole_run_s:
+            print(f"flamecharts: the whole run (sweep, limit searches and extra solves) is estimated at about "
+                  f"{duration(self.whole_run_s)} with the cores free", file=self.stream, flush=True)
+            self.whole_run_s = None
         if pr.stage != self._stage or pr.what != self._what:  # the next mechanism, or the next part of the run:
             self.close()                                       # a bar (or line count) of its own
             self._stage, self._what, self._last_line_t, self._last_line_done = pr.stage, pr.what, None, -1
@@ -114,7 +119,7 @@ class ProgressDisplay:
             self._last_line_t, self._last_line_done = time.monotonic(), pr.done
             print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.total} flames to solve, "
                   f"{pr.reused} from the store"
-                  + (f"; estimated {duration(pr.estimate_s)} with the cores free" if pr.estimate_s is not None else ""),
+                  + (f"; these estimated {duration(pr.estimate_s)} with the cores free" if pr.estimate_s is not None else ""),
                   file=self.stream, flush=True)
             return
         if not self._due(pr):

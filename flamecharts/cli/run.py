@@ -27,7 +27,12 @@ def cmd_run(args: argparse.Namespace) -> int:
     cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
-    progress = ProgressDisplay(quiet=args.quiet)
+    whole = None
+    if not args.quiet:  # the whole run as `check` estimates it, said with the first progress report
+        from .check import whole_run_seconds
+
+        whole = whole_run_seconds(study, out, args.jobs)
+    progress = ProgressDisplay(quiet=args.quiet, whole_run_s=whole)
 
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
@@ -108,7 +113,7 @@ def _print_limits(study: Study, summary: RunSummary) -> None:
         return
     assert study.burner is not None  # a study with limits has a burner
     print(f"Limits ({study.burner.name}; keeping {kept(study)}"
-          + f"; {search_flames(summary.limits)} flames beyond the sweep, "
+          + f"; {plural(search_flames(summary.limits), 'flame')} beyond the sweep, "
           f"{summary.limit_flames} solved in this run):")
     for r in summary.limits:
         print("  " + (f"{r['mechanism']}: " if study.mechanisms else "") + limit_sentence(r, study))

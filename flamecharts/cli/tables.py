@@ -62,7 +62,8 @@ def print_margins(study: Study, ds: xr.Dataset) -> None:
     for s in summary:
         print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
               f"{s['unburned_temperature_K']:g} K: {_lowest_words(s, 'flashback', 'flashback')}, "
-              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points with the verdict ok")
+              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points ok on every criterion "
+              "(assessed and met)")
     judged = {(s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"]) for s in summary
               if s["min_flashback_margin"] is not None}
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():

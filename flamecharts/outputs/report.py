@@ -162,6 +162,9 @@ MAX_KEY_LIMITS = 8
 def _span(r: dict) -> str:
     """'15.2–18.4 %' or 'φ 0.689–0.731' of one window row (an edge left open at the last swept
     value marked ≤ or ≥)."""
+    if r["lower_edge"] == r["upper_edge"]:  # one swept value, admissible, with no neighbour to search towards
+        only = _number(r, r["lower_edge"])
+        return f"{only} % (the only value swept)" if r["axis"] == "blend_fraction" else f"φ {only} (the only value swept)"
     lo = ("≤" if r["lower_kind"] == "swept end" else "") + _number(r, r["lower_edge"])
     hi = ("≥" if r["upper_kind"] == "swept end" else "") + _number(r, r["upper_edge"])
     return f"{lo}–{hi} %" if r["axis"] == "blend_fraction" else f"φ {lo}–{hi}"
@@ -430,7 +433,8 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                if r.get("flame_speed_kinetic_uncertainty_percent") is not None]
         table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", error_bar_sentence(near),
                       f"{max(r['flame_speed_numerical_error_percent'] for r in rs):.2g}",
-                      f"{min(kin):.2g}-{max(kin):.2g}" if kin else ""])
+                      (f"{min(kin):.2g}" if f"{min(kin):.2g}" == f"{max(kin):.2g}" else f"{min(kin):.2g}-{max(kin):.2g}")
+                      if kin else ""])
     table, more = _first(table, "results.csv")
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
@@ -570,7 +574,8 @@ def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
                f"at every swept point is searched for a dip only next to its lowest one (each margin rises and falls "
                f"at most once along an axis; a dip is not looked for where the parabola through the nearest swept "
                f"margins stays 25 % above the minimum). Each step is a flame warm-started from the sweep's flames "
-               f"and stored like any point ({flames} flames beyond the sweep). Each edge is the admissible end "
+               f"and stored like any point ({flames} flame{'s' if flames != 1 else ''} beyond the sweep). "
+               "Each edge is the admissible end "
                f"of a bracket at most {lim.tolerance['blend_fraction']:g} wide in blend fraction and "
                f"{lim.tolerance['equivalence_ratio']:g} in equivalence ratio (an edge not settled keeps the wider bracket it "
                "reached; limits.csv gives both ends of every "

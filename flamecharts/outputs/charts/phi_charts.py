@@ -38,8 +38,11 @@ def _error_bands(ax, good: list[dict], column: str, scale: float, colour, band: 
     if banded:
         y = np.array([r[column] * scale for r in banded])
         w = np.array([r[band] / 100.0 for r in banded])
-        ax.fill_between([r["equivalence_ratio"] for r in banded], y * (1 - w), y * (1 + w), color=colour, alpha=0.18,
-                        lw=0)
+        x = [r["equivalence_ratio"] for r in banded]
+        if len(set(x)) > 1:
+            ax.fill_between(x, y * (1 - w), y * (1 + w), color=colour, alpha=0.18, lw=0)
+        else:  # one equivalence ratio: a shaded area has no width, so the band is a broad translucent bar
+            ax.errorbar(x, y, yerr=y * w, fmt="none", ecolor=colour, elinewidth=9, alpha=0.25)
         drawn.add("band")
     bars = [r for r in good if error_bars and r.get(error_bars) is not None]
     if bars:
