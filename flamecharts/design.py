@@ -163,6 +163,16 @@ def _port_velocity(b: Burner, r: dict, gas: FuelGas) -> tuple[float, float | Non
                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
 
 
+def burner_flow_words(b: Burner) -> str:
+    """How the burner's flow is set, in words: 'port velocity 3 m/s', or 'thermal input 0.41 kW over
+    301.6 mm² of ports, following the Wobbe index (fixed supply pressure)' (check and the report)."""
+    if b.mode == "velocity":
+        return f"port velocity {b.port_velocity_m_s:g} m/s"
+    assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: an input and an area
+    return (f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
+            + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+
+
 def hydraulic_diameter(b: Burner) -> float:
     """Hydraulic diameter of a port [m]: its diameter (round), twice its gap (slot)."""
     return b.port_size_m if b.port == "round" else 2.0 * b.port_size_m

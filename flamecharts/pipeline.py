@@ -70,6 +70,11 @@ def _part(progress: Callable[[Progress], None] | None, what: str) -> Callable[[i
                                                  done_share=done / total if total else 1.0))
 
 
+def _relabelled(progress: Callable[[Progress], None] | None, what: str) -> Callable[[Progress], None] | None:
+    """``progress`` with each flame report labelled ``what`` (the limit searches' own flames)."""
+    return None if progress is None else (lambda pr: progress(replace(pr, what=what)))
+
+
 def _limits_part(progress: Callable[[Progress], None] | None) -> Callable[[LimitsProgress], None] | None:
     """The limit searches' round report as the run's one progress event ('limits': searches
     answered of all; the round and its flames in ``detail``)."""
@@ -180,7 +185,8 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
         swept = {p.key for p in pts}
 
         def solve(new_points: list[Point]) -> int:  # warm-started from the sweep's flames only: resumed runs agree
-            n = solve_points(study, store, new_points, backend, sources=swept).solved
+            n = solve_points(study, store, new_points, backend, _relabelled(progress, "limit flames"),
+                             sources=swept).solved
             limit_solved[0] += n
             return n
         limits = with_mechanism(study, find_limits(study, rows, store, solve, _limits_part(progress)))

@@ -65,6 +65,8 @@ def test_charts_render_when_every_flame_failed(tmp_path):
     files = draw_all(rows, fuel_gas_table(study), study, tmp_path / "o")
     assert {f.stem for f in files} >= {"flame_speed_vs_equivalence_ratio", "fuel_interchangeability"}
     assert "adiabatic_flame_temperature_vs_equivalence_ratio" not in {f.stem for f in files}  # needs a flame
+    # no [gas_quality] band: the interchangeability chart says so rather than promising one
+    assert "no Wobbe band drawn" in (tmp_path / "o" / "charts" / "fuel_interchangeability.svg").read_text()
 
 
 def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tmp_path):

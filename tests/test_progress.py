@@ -50,14 +50,16 @@ def test_extra_solves_and_limits_report_elapsed_time_and_time_left():
 def test_a_run_reports_its_extras_through_the_one_progress_callback(tmp_path):
     import flamecharts
 
-    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.8, 1.0]", extra="")
-    config.write_text(config.read_text() + "\n[uncertainty]\n")
+    config = write_h2_study(tmp_path, fractions="[0.0, 0.5]", phis="[0.8, 1.0]", extra="")
+    config.write_text(config.read_text() + "\n[uncertainty]\n\n[burner]\nport = 'round'\nport_diameter_mm = 1.0\n"
+                      "port_velocity_m_s = 4.0\nmin_flashback_margin = 3.0\n\n[limits]\ncriteria = ['flashback']\n")
     events = []
     flamecharts.run(config, out=tmp_path / "out", jobs=1, charts=False, progress=events.append)
     parts = {e.what for e in events}
-    assert parts == {"flames", "flame-speed sensitivities"}
+    assert parts == {"flames", "flame-speed sensitivities", "limit flames", "limits"}, parts
+    assert all(e.elapsed_s >= 0 for e in events)
     last = [e for e in events if e.what == "flame-speed sensitivities"][-1]
-    assert (last.done, last.total) == (2, 2) and last.elapsed_s > 0 and last.remaining_s == 0.0
+    assert (last.done, last.total) == (4, 4) and last.elapsed_s > 0 and last.remaining_s == 0.0
 
 
 def test_a_run_into_a_log_file_shows_progress_lines(tmp_path):

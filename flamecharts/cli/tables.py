@@ -6,7 +6,7 @@ from typing import TYPE_CHECKING
 import xarray as xr
 
 from ..columns import gas_label
-from ..design import fuel_gas_table, injection_end
+from ..design import burner_flow_words, fuel_gas_table, injection_end
 from ..physics.indicators import edge_velocity
 from ..results import first_flashback_fraction, margin_summary, premixer_summary
 
@@ -33,12 +33,7 @@ def print_burner(study: Study) -> None:
         print("Burner: none given (add a [burner] table for flashback and blowoff margins)")
         return
     size = f"{'diameter' if b.port == 'round' else 'gap'} {b.port_size_m * 1e3:g} mm"
-    if b.mode == "velocity":
-        how = f"port velocity {b.port_velocity_m_s:g} m/s"
-    else:
-        assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: an input and an area
-        how = (f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
-               + (", following the Wobbe index (fixed supply pressure)" if b.input_follows_wobbe else ""))
+    how = burner_flow_words(b)
     _, bo_min, bo_name = b.blowoff
     held = ""
     if b.on_stabilizer:

@@ -22,6 +22,7 @@ from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, sea
 from ..columns import CAUTION, gas_label
 from ..config import lumping_note, resolution_label
 from ..design import (
+    burner_flow_words,
     error_bar_sentence,
     fuel_gas_table,
     injection_end,
@@ -288,12 +289,7 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
         parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
     b = study.burner
     if b is not None:
-        if b.mode == "velocity":
-            how = f"port velocity {b.port_velocity_m_s:g} m/s"
-        else:
-            assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: an input and an area
-            how = (f"thermal input {b.thermal_input_W / 1e3:g} kW over {b.port_area_m2 * 1e6:g} mm² of ports"
-                   + (" at fixed supply pressure (input follows the Wobbe index)" if b.input_follows_wobbe else ""))
+        how = burner_flow_words(b)
         brows = [["name", b.name], ["port", f"{b.port}, {'diameter' if b.port == 'round' else 'gap'} "
                                             f"{b.port_size_m * 1e3:g} mm"
                                             + ("; a deck of merged port flames" if b.layout == "deck" else "")],

@@ -55,9 +55,10 @@ RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
 @dataclass
 class Progress:
     """The one event a run's progress callback receives: after every finished flame of the
-    sweep (``what`` 'flames'), and after every finished extra solve ('Zeldovich pairs',
-    'flame-speed sensitivities', 'strained-flame ladders') or round of limit flames ('limits',
-    ``done``/``total`` counting the searches answered, ``detail`` the round and its flames).
+    sweep (``what`` 'flames'), after every finished extra solve ('Zeldovich pairs',
+    'flame-speed sensitivities', 'strained-flame ladders'), every flame of a round of the limit
+    searches ('limit flames') and every round ('limits', ``done``/``total`` counting the
+    searches answered, ``detail`` the round and its flames).
     Every kind carries its elapsed time and, once something finished, the time left."""
 
     done: int

@@ -392,7 +392,7 @@ def window_chart(data: ChartData, study: Study) -> Figure:
 
 @chart("fuel_interchangeability",
        "Wobbe index and heating value of the blends against blend fraction, with the "
-       "allowed Wobbe band.",
+       "allowed Wobbe band where [gas_quality] sets one (wobbe_tolerance_percent).",
        several_blends)
 def gas_quality_chart(data: ChartData, study: Study) -> Figure:
     """Wobbe index and heating value of the blends vs blend fraction, with the allowed band."""
@@ -426,6 +426,8 @@ def gas_quality_chart(data: ChartData, study: Study) -> Figure:
         ax.set_ylabel(yl)
         ax.grid(True, color="0.9", lw=0.6)
     gq = study.gas_quality
+    if not any(k.startswith("allowed") for k in handles):
+        handles["no Wobbe band drawn: set [gas_quality]\nwobbe_tolerance_percent for one"] = Line2D([], [], linestyle="none")
     return finish(fig, study, ("Fuel interchangeability: Wobbe index and heating value",
                                 f"Is the blend interchangeable? ISO 6976:2016, combustion {gq.combustion_T_C} °C, "
                                 f"metering {gq.metering_T_C} °C, 101.325 kPa"), handles, "Fuel gas")
