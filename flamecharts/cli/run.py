@@ -23,16 +23,21 @@ if TYPE_CHECKING:
     from ..config import Study
 
 
+def _display(args: argparse.Namespace, study: Study, out: Path) -> ProgressDisplay:
+    """The run's progress display, which says with its first report what `check` estimates for
+    the whole run (sweep, limit searches and extra solves)."""
+    if args.quiet:
+        return ProgressDisplay(quiet=True)
+    from .check import whole_run_seconds
+
+    return ProgressDisplay(whole_run_s=whole_run_seconds(study, out, args.jobs))
+
+
 def cmd_run(args: argparse.Namespace) -> int:
     cluster = check_cluster_spec(args.cluster, "--cluster") if args.cluster is not None else None
     study = load_study(args.config)
     out = Path(args.out) if args.out else default_out_dir(study)
-    whole = None
-    if not args.quiet:  # the whole run as `check` estimates it, said with the first progress report
-        from .check import whole_run_seconds
-
-        whole = whole_run_seconds(study, out, args.jobs)
-    progress = ProgressDisplay(quiet=args.quiet, whole_run_s=whole)
+    progress = _display(args, study, out)
 
     try:
         results = run(study, out=out, jobs=args.jobs, cluster=cluster, progress=progress,
