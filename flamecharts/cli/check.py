@@ -2,8 +2,6 @@
 from __future__ import annotations
 
 import argparse
-import contextlib
-import io
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -26,6 +24,7 @@ from .tables import print_burner, print_gases, print_points
 
 if TYPE_CHECKING:
     from ..config import Study
+    from ..sweep.points import Point
     from ..sweep.warm_tree import WarmPlan
 
 #: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
@@ -60,9 +59,14 @@ def cmd_check(args: argparse.Namespace) -> int:
 
 def whole_run_seconds(study: Study, out: Path, jobs: int | None) -> float:
     """The estimate `check` prints as its total (sweep, limits and extra solves of every
-    mechanism), computed without printing: `run` announces it before it starts."""
-    with contextlib.redirect_stdout(io.StringIO()):
-        return sum(_plan(sub, out, stored_keys(out / DB_NAME), jobs) for sub in by_mechanism(study))
+    mechanism), without its printing or the read-out of the stored points: `run` announces it."""
+    keys = stored_keys(out / DB_NAME)
+    total = 0.0
+    for sub in by_mechanism(study):
+        _, todo, tree, timings = _sweep_plan(sub, out, keys)
+        total += (_estimate_line(sub, tree, timings, jobs)[1] if todo else 0.0)
+        total += sum(t for _, t in _extras(sub, timings, jobs, len(todo)))
+    return total
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
@@ -76,76 +80,78 @@ def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
     return line
 
 
-def _plan(study: Study, out: Path, keys: set, jobs: int | None) -> float:
-    """Print one mechanism's plan (its stored points, what is left, the extras asked for); return
-    the estimated seconds of its sweep (0 when nothing is left)."""
+def _sweep_plan(study: Study, out: Path, keys: set) -> tuple[list[Point], set[int], WarmPlan, dict]:
+    """The study's points, the indices of those still to solve, the warm-start plan of those,
+    and the store's timings of the same settings."""
     pts = points(study)
-    stored = sum(p.key in keys for p in pts)
     unique = unique_points(pts)
     todo = {p.index for p in unique if p.key not in keys}
-    rows, timings = [], {}
-    if keys:
-        with Store(out / DB_NAME, readonly=True) as st:
-            tree = warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique})
-            timings = st.timings({p.family for p in pts})
-            done = [p for p in pts if p.key in keys]  # only stored points are printed
-            rows = point_rows(study, done, stored_with_extras(study, done, st))
-    else:
-        tree = warm_tree(unique)
+    if not keys:
+        return pts, todo, warm_tree(unique), {}
+    with Store(out / DB_NAME, readonly=True) as st:
+        return (pts, todo, warm_plan(st, unique).pending(todo, {p.index: p.key for p in unique}),
+                st.timings({p.family for p in pts}))
+
+
+def _plan(study: Study, out: Path, keys: set, jobs: int | None) -> float:
+    """Print one mechanism's plan (its stored points, what is left, the extras asked for); return
+    the estimated seconds of its sweep and extras (the sweep's 0 when nothing is left)."""
+    pts, todo, tree, timings = _sweep_plan(study, out, keys)
     print(f"Mechanism: {study.mechanism} -> {study.mechanism_path}")
     note = lumping_note(study)
     if note:
         print(note)
-    if stored:
+    done = [p for p in pts if p.key in keys]  # only stored points are printed
+    if done:
+        with Store(out / DB_NAME, readonly=True) as st:
+            rows = point_rows(study, done, stored_with_extras(study, done, st))
         print_points(study, [r for r in rows if r["status"] != "pending"])
-    print(f"Plan: {len(pts)} points; {stored} already stored in {out}, {len(todo)} to solve: "
+    print(f"Plan: {len(pts)} points; {len(done)} already stored in {out}, {len(todo)} to solve: "
           f"{len(tree.roots)} from scratch, {len(todo) - len(tree.roots)} warm-started from a neighbour "
           f"(longest warm-start path {tree.depth})")
     seconds = 0.0
     if todo:
         line, seconds = _estimate_line(study, tree, timings, jobs)
         print(line)
-    return seconds + _extras_lines(study, timings, jobs, len(todo))
+    for line, t in _extras(study, timings, jobs, len(todo)):
+        print(line)
+        seconds += t
+    return seconds
 
 
-def _extras_lines(study: Study, timings: dict, jobs: int | None, n_todo: int) -> float:
-    """Print what the study's [limits], [stretch], [uncertainty] and [flame_response] tables add,
-    each with its estimate; return their seconds. Extras of points already stored are not
-    solved again, so only the points still to solve count (an upper bound: points that turn
-    out not to burn need none)."""
+def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[tuple[str, float]]:
+    """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add: a
+    line each, with its estimated seconds. Extras of points already stored are not solved
+    again, so only the points still to solve count (an upper bound: points that turn out not
+    to burn need none)."""
     jobs = resolve_jobs(jobs)
     n_sp = len(study.atoms)
     secs, _ = flame_seconds(n_sp, timings, study.resolution)
-    total = 0.0
+    lines: list[tuple[str, float]] = []
     if study.limits is not None:
-        line, t = _limits_line(study, timings, jobs)
-        print(line)
-        total += t
+        lines.append(_limits_line(study, timings, jobs))
     if study.stretch is not None:
         st = study.stretch
         t = st.n_ladders * ladder_seconds(n_sp) / min(jobs, st.n_ladders)
-        total += t
-        print(f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
-              f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep: "
-              f"about {duration(t)} (measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with "
-              "GRI-Mech 3.0); stored ladders are not solved again")
+        lines.append((f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
+                      f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep: "
+                      f"about {duration(t)} (measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with "
+                      "GRI-Mech 3.0); stored ladders are not solved again", t))
     u = study.uncertainty
     if u is not None and u.kinetics:
         t = n_todo * sensitivity_seconds(n_sp, len(reaction_equations(study.mechanism_path)), study.resolution) / jobs
-        total += t
-        print(f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
-              f"{n_todo} adjoint solves after the sweep, each the stored flame solved again on its grid): about "
-              f"{duration(t)} (measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0); stored "
-              "ones are not solved again, and changing a factor solves nothing")
+        lines.append((f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
+                      f"{n_todo} adjoint solves after the sweep, each the stored flame solved again on its grid): about "
+                      f"{duration(t)} (measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0); stored "
+                      "ones are not solved again, and changing a factor solves nothing", t))
     fr = study.flame_response
     if fr is not None and fr.zeldovich:
         t = 2 * n_todo * secs["warm"] / jobs
-        total += t
-        print(f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-              f"burning point (up to {2 * n_todo} flames, the inert moved {fr.inert_step:g} either way, "
-              f"warm-started from the point's stored flame after the sweep): about {duration(t)}; pairs already "
-              "stored are not solved again")
-    return total
+        lines.append((f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
+                      f"burning point (up to {2 * n_todo} flames, the inert moved {fr.inert_step:g} either way, "
+                      f"warm-started from the point's stored flame after the sweep): about {duration(t)}; pairs already "
+                      "stored are not solved again", t))
+    return lines
 
 
 def _limits_line(study: Study, timings: dict, jobs: int | None) -> tuple[str, float]:
