@@ -11,6 +11,7 @@ in the domain, not a deflagration.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from functools import lru_cache
 
 import cantera as ct
@@ -62,12 +63,19 @@ def autoignition_screen(mechanism_path: str, X: dict, T_u: float, P: float, S_L:
     ``autoignition_screen_delay_s``), so a read-out of 100,000 points integrates no reactor."""
     if T_u < AUTOIGNITION_MIN_T_K or not S_L or not thickness_m:
         return None
-    transit = thickness_m / S_L
-    rise = min(IGNITION_RISE_K, 0.5 * max((T_ad or T_u) - T_u, 1.0))
-    t_max = min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S)
-    X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
+    t_max = min(AUTOIGNITION_FACTOR * thickness_m / S_L, AUTOIGNITION_MAX_TIME_S)
+    return _screen_delay(mechanism_path, X, T_u, P, float(f"{t_max:.6g}"), lambda: T_ad or T_u)
+
+
+def _screen_delay(mechanism_path: str, X: dict, T_u: float, P: float, t_max: float,
+                  flame_temperature: Callable[[], float]) -> float | None:
+    """Ignition delay [s] of mixture X at T_u, P within ``t_max``, ignition being a rise of
+    min(IGNITION_RISE_K, half the rise to ``flame_temperature()`` [K]); None when the check
+    cannot be made (both screens above)."""
     try:
-        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), float(f"{t_max:.6g}"), float(rise))
+        rise = min(IGNITION_RISE_K, 0.5 * max(flame_temperature() - T_u, 1.0))
+        X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
+        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), t_max, float(rise))
     except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
         return None
 
@@ -82,15 +90,13 @@ def autoignition_screen_without_flame(mechanism_path: str, X: dict, T_u: float, 
     ``autoignition_screen_delay_s``)."""
     if T_u < AUTOIGNITION_MIN_T_K:
         return None
-    try:
+
+    def equilibrium_temperature() -> float:
         gas = solution(mechanism_path)
         gas.TPX = T_u, P, dict(X)
         gas.equilibrate("HP")
-        rise = min(IGNITION_RISE_K, 0.5 * max(gas.T - T_u, 1.0))
-        X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
-        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), AUTOIGNITION_MAX_TIME_S, float(rise))
-    except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
-        return None
+        return float(gas.T)
+    return _screen_delay(mechanism_path, X, T_u, P, AUTOIGNITION_MAX_TIME_S, equilibrium_temperature)
 
 
 def autoignition_reason(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
