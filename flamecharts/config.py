@@ -40,12 +40,13 @@ import os
 import stat
 import tomllib
 from collections import Counter
+from collections.abc import Callable
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
-from .chemistry.mechanism import file_sha256, find_mechanism, load_mechanism_atoms
 from .errors import ConfigError, MechanismError, first_line, show
+from .facts import MechanismFacts
 from .physics import lumping, mixtures
 from .physics.gasprops import ISO6976_2016
 from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
@@ -89,8 +90,7 @@ STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pres
 #: Most strained-flame ladders one study may ask for (each is 10-40 flames).
 MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
-from .chemistry.mechanism import reaction_equations  # noqa: E402
-from .chemistry.response import DEFAULT_INERT_STEP  # noqa: E402
+from .physics.flame_response import DEFAULT_INERT_STEP  # noqa: E402
 from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
 from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
 
@@ -246,6 +246,7 @@ class MechanismChoice:
     sha256: str
     atoms: dict[str, dict[str, float]] = field(repr=False)
     analysis_atoms: dict[str, dict[str, float]] = field(repr=False)
+    facts: MechanismFacts = field(repr=False, compare=False)
 
 
 @dataclass(frozen=True)
@@ -292,6 +293,8 @@ class Study:
     uncertainty: Uncertainty | None = None
     #: Several mechanisms to compare (the first is the one above); () when the study has one.
     mechanisms: tuple[MechanismChoice, ...] = ()
+    #: What the read side needs of the mechanism above (kept with a run: facts.MechanismFacts).
+    facts: MechanismFacts | None = field(default=None, repr=False, compare=False)
 
     @property
     def n_points(self) -> int:
@@ -308,7 +311,7 @@ def by_mechanism(study: Study) -> list[Study]:
     if len(study.mechanisms) <= 1:
         return [study]
     return [replace(study, mechanism=m.name, mechanism_path=m.path, mechanism_sha256=m.sha256, atoms=m.atoms,
-                    analysis_atoms=m.analysis_atoms, mechanisms=()) for m in study.mechanisms]
+                    analysis_atoms=m.analysis_atoms, mechanisms=(), facts=m.facts) for m in study.mechanisms]
 
 
 def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
@@ -600,7 +603,7 @@ def _flame_response(t: Any) -> FlameResponse:
     return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
 
 
-def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
+def _uncertainty(t: Any, mechs: list[MechanismFacts]) -> Uncertainty:
     """The [uncertainty] table; each reaction named in ``factors`` must be in one of the study's mechanisms
     (a factor applies in every mechanism that has the reaction)."""
     if not isinstance(t, dict):
@@ -623,7 +626,8 @@ def _uncertainty(t: Any, mech_paths: list[Path]) -> Uncertainty:
     if not isinstance(given, dict):
         raise ConfigError("'uncertainty.factors' must be a table of \"reaction equation\" = factor, e.g. "
                           "factors = { \"H + O2 <=> O + OH\" = 1.3 }")
-    equations = [e for path in mech_paths for e in reaction_equations(str(path))]
+    equations = [e for m in mechs for e in m.reaction_equations]
+    mech_paths = [Path(m.path) for m in mechs]
     by_key = {reaction_key(e): e for e in equations}
     names = (f"{Path(mech_paths[0]).name} does not have" if len(mech_paths) == 1 else
              "neither " + " nor ".join(Path(path).name for path in mech_paths) + " has")
@@ -870,38 +874,50 @@ def _mechanism_names(value: Any) -> tuple[str, ...]:
     return names
 
 
-def _mechanisms(names: tuple[str, ...], base_dir: Path | None, transport: str, check_species) -> list[MechanismChoice]:
-    """Each listed mechanism found, loaded and checked: ``check_species(atoms, path)`` returns the
-    gas-analysis species it lacks (raising MechanismError for a species it cannot burn; with
-    several mechanisms the error also names those that have the species)."""
+def live_facts(name: str, base_dir: Path | None, transport: str) -> MechanismFacts:
+    """The facts of mechanism ``name`` read from its file (found beside the config, then in
+    Cantera's data folders; its transport data checked): the only place config loads Cantera,
+    imported here so that a run folder's study (saved facts) loads without it."""
+    from .chemistry.mechanism import file_sha256, find_mechanism, load_mechanism_atoms, mechanism_facts
+
+    path = find_mechanism(name, base_dir)
+    load_mechanism_atoms(path, transport)
+    return mechanism_facts(name, str(path), file_sha256(path))
+
+
+def _mechanisms(names: tuple[str, ...], facts_of: Callable[[str], MechanismFacts], check_species) -> list[MechanismChoice]:
+    """Each listed mechanism's facts (``facts_of``: from its file, or saved with a run) and its
+    species checked: ``check_species(atoms, path)`` returns the gas-analysis species it lacks
+    (raising MechanismError for a species it cannot burn; with several mechanisms the error
+    also names those that have the species)."""
     out: list[MechanismChoice] = []
     for name in names:
-        path = find_mechanism(name, base_dir)
-        atoms = load_mechanism_atoms(path, transport)
+        facts = facts_of(name)
         try:
-            analysis = check_species(atoms, path)
+            analysis = check_species(facts.atoms, Path(facts.path))
         except MechanismError as exc:
             if len(names) == 1 or not hasattr(exc, "species"):
                 raise
             others = [n for n in names if n != name]
-            have = [n for n in others if exc.species in load_mechanism_atoms(find_mechanism(n, base_dir), transport)]
+            have = [n for n in others if exc.species in facts_of(n).atoms]
             raise MechanismError(
-                f"species '{exc.species}' in '{exc.where}' is not in mechanism {Path(path).name}, which 'mechanism' "
-                f"lists beside {', '.join(others)}" + (f" ({', '.join(have)} {'has' if len(have) == 1 else 'have'} it)"
-                                                       if have else "")
+                f"species '{exc.species}' in '{exc.where}' is not in mechanism {Path(facts.path).name}, which "
+                f"'mechanism' lists beside {', '.join(others)}"
+                + (f" ({', '.join(have)} {'has' if len(have) == 1 else 'have'} it)" if have else "")
                 + ": every mechanism a study compares must have every species the study burns; drop the "
                 "mechanism or the fuel") from None
-        sha = file_sha256(path)
-        if any(m.sha256 == sha for m in out):
+        if any(m.sha256 == facts.sha256 for m in out):
             raise ConfigError(f"'mechanism' lists {name!r}, the same file as "
-                              f"{next(m.name for m in out if m.sha256 == sha)!r}; list each mechanism once")
-        out.append(MechanismChoice(name=name, path=str(path), sha256=sha, atoms=atoms, analysis_atoms=analysis))
+                              f"{next(m.name for m in out if m.sha256 == facts.sha256)!r}; list each mechanism once")
+        out.append(MechanismChoice(name=name, path=facts.path, sha256=facts.sha256, atoms=facts.atoms,
+                                   analysis_atoms=analysis, facts=facts))
     return out
 
 
 def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = None,
-                    config_path: str | None = None) -> Study:
-    """Validate a parsed config table and build the :class:`Study`."""
+                    config_path: str | None = None, saved_facts: dict[str, MechanismFacts] | None = None) -> Study:
+    """Validate a parsed config table and build the :class:`Study`. Its mechanisms are read
+    from their files, or taken from ``saved_facts`` (by name, as a run kept them) where given."""
     if not isinstance(data, dict):
         raise ConfigError("config must be a TOML table")
     _check_keys(data, TOP_KEYS, "")
@@ -951,12 +967,10 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     if n_points > max_points:  # before the mechanism is loaded: a runaway sweep is refused at once
         raise ConfigError(f"the sweep has {n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
-
-    choices = _mechanisms(mechanism_list, base_dir, transport,
+    choices = _mechanisms(mechanism_list, lambda m: (saved_facts or {}).get(m) or live_facts(m, base_dir, transport),
                           lambda atoms, path: _check_species(fuels, oxidizers, sweep_fuels, sweep_oxidizers,
                                                              blend_with, atoms, path))
     first = choices[0]
-    mechanism, mech_path, atoms, analysis_atoms = first.name, Path(first.path), first.atoms, first.analysis_atoms
     for m in choices:
         _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
                         {**m.analysis_atoms, **m.atoms})
@@ -964,16 +978,17 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     axes = {"fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
             "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures}
     study = Study(
-        title=title, name=name, mechanism=mechanism, mechanism_path=str(mech_path),
+        title=title, name=name, mechanism=first.name, mechanism_path=first.path,
         mechanism_sha256=first.sha256, transport=transport,
         thermal_diffusion=thermal_diffusion, resolution=resolution, fuels=fuels,
         oxidizers=oxidizers, sweep_fuels=sweep_fuels, sweep_oxidizers=sweep_oxidizers,
         blend_with=blend_with, blend_fractions=fractions, equivalence_ratios=phis,
-        pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=atoms, analysis_atoms=analysis_atoms,
+        pressures_bar=pressures, unburned_temperatures_K=temperatures, atoms=first.atoms,
+        analysis_atoms=first.analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
         keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
-        uncertainty=_uncertainty(data["uncertainty"], [Path(m.path) for m in choices])
-        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else ())
+        uncertainty=_uncertainty(data["uncertainty"], [m.facts for m in choices])
+        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else (), facts=first.facts)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")
@@ -1041,30 +1056,40 @@ def study_from_toml(text: str, name: str = "study", base_dir: Path | None = None
 STUDY_COPY = "study.json"
 
 
+def _facts_of_study(study: Study) -> list[MechanismFacts]:
+    return [m.facts for m in study.mechanisms] if study.mechanisms else [study.facts] if study.facts else []
+
+
 def save_config_copy(study: Study, out_dir: Path, data: dict | None = None) -> Path:
-    """Keep the config a run used beside its store, so charts can be redrawn from the folder alone."""
+    """Keep the config a run used beside its store, with what the read side needs of its
+    mechanisms (facts.MechanismFacts), so charts and report are redrawn from the folder
+    alone, without the mechanism file."""
     if data is None:
         data = study.raw
     base = str(Path(study.config_path).parent) if study.config_path else str(Path.cwd())
     path = Path(out_dir) / STUDY_COPY
     tmp = path.with_suffix(".tmp")
     tmp.write_text(json.dumps({"name": study.name, "base_dir": base, "config_path": study.config_path,
-                               "config": data}, indent=1), encoding="utf-8")
+                               "config": data,
+                               "mechanism_facts": {f.name: f.to_json() for f in _facts_of_study(study)}}),
+                   encoding="utf-8")
     os.replace(tmp, path)
     return path
 
 
 def load_config_copy(out_dir: Path) -> Study:
-    """The study a run in ``out_dir`` used (see :func:`save_config_copy`)."""
+    """The study a run in ``out_dir`` used (see :func:`save_config_copy`), its mechanisms taken
+    from the facts saved with it (a folder written before they were saved reads the files)."""
     path = Path(out_dir) / STUDY_COPY
     if not path.is_file():
         raise ConfigError(f"{out_dir} holds no finished run ({STUDY_COPY} missing); "
                           "give the output folder of a 'flamecharts run'")
     try:
         saved = json.loads(path.read_text(encoding="utf-8"))
+        facts = {n: MechanismFacts.from_json(f) for n, f in (saved.get("mechanism_facts") or {}).items()}
         return study_from_dict(saved["config"], name=saved["name"], base_dir=Path(saved["base_dir"]),
-                               config_path=saved.get("config_path"))
-    except (ValueError, KeyError, TypeError, RecursionError) as exc:
+                               config_path=saved.get("config_path"), saved_facts=facts)
+    except (ValueError, KeyError, TypeError, AttributeError, RecursionError) as exc:
         raise ConfigError(f"{path} is damaged ({type(exc).__name__}: {exc}); rerun the study to rewrite it") from None
 
 

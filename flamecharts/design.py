@@ -15,12 +15,11 @@ import re
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from .chemistry.ignition import ignition_delay_peak, premixer_horizon
-from .chemistry.mechanism import fallback_data, molar_masses, reaction_equations, solution
 from .columns import BURNER_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
 from .physics import flame_response as fr, indicators as ind, kinetic_uncertainty as ku, mixtures, validity as val
+from .physics.autoignition import INJECTION_PHIS, injection_end
 from .physics.gasprops import ISO6976_2016, fuel_gas_properties
 from .physics.limits import (
     autoignition_verdict,
@@ -33,7 +32,13 @@ from .physics.rate_factors import RATE_FACTORS
 
 if TYPE_CHECKING:
     from .config import Burner, Study
+    from .facts import MechanismFacts
     from .sweep.points import Point
+
+
+def _facts(study: Study) -> MechanismFacts:
+    assert study.facts is not None, "config.study_from_dict always sets the mechanism's facts"
+    return study.facts
 
 
 def gas_record(study: Study, X_fuel: dict, oxidizer: str) -> dict:
@@ -41,7 +46,7 @@ def gas_record(study: Study, X_fuel: dict, oxidizer: str) -> dict:
     gq = study.gas_quality
     outside = [sp for sp in X_fuel if sp not in ISO6976_2016]
     try:
-        fb = fallback_data(solution(study.mechanism_path), outside, gq.combustion_T_C) if outside else None
+        fb = _facts(study).fallback(outside, gq.combustion_T_C) if outside else None
         props = fuel_gas_properties(X_fuel, gq.combustion_T_C, gq.metering_T_C, fallback=fb)
     except ValueError as exc:
         raise ConfigError(f"fuel-gas properties of {', '.join(sorted(X_fuel))} cannot be computed: {exc}") from None
@@ -52,7 +57,7 @@ def gas_record(study: Study, X_fuel: dict, oxidizer: str) -> dict:
                           "burn); a fuel or reference gas must contain combustible species")
     in_mech = (set(X_fuel) | set(X_ox)) & set(study.atoms)
     M = {**{sp: ISO6976_2016[sp][0] for sp in X_fuel if sp not in study.atoms},  # analysis species: ISO 6976
-         **molar_masses(study.mechanism_path, in_mech)}
+         **{sp: _facts(study).molar_masses_kg_kmol[sp] for sp in in_mech}}
     M_fuel = sum(x * M[k] for k, x in X_fuel.items())
     M_ox = sum(x * M[k] for k, x in X_ox.items())
     return {"props": props, "stoich_oxidizer_volume_m3_m3": n_ox,
@@ -362,7 +367,7 @@ def kinetic_columns(study: Study, row: dict) -> dict:
         return out
     u = study.uncertainty
     assert u is not None  # annotate() asks only with [uncertainty]
-    equations = reaction_equations(study.mechanism_path)
+    equations = _facts(study).reaction_equations
     first: dict[str, str] = {}
     for eq in equations:
         first.setdefault(ku.reaction_key(eq), eq)
@@ -439,64 +444,29 @@ def point_warnings(study: Study, point: Point, row: dict) -> str:
     return "; ".join(w for w in out if w)
 
 
-#: Equivalence ratios scanned for the most reactive mixture near the fuel injection, where the
-#: fuel meets the oxidizer before it is mixed to the premixed phi (common practice without
-#: source: a geometric spread around stoichiometric).
-INJECTION_PHIS = (0.25, 0.5, 1.0, 2.0, 4.0)
-
-
-def injection_end(phi: float) -> str:
-    """', the end of the range scanned' where the most reactive mixture near the injection lies at an
-    end of INJECTION_PHIS (mixtures beyond may ignite sooner), else ''.
-
-    >>> injection_end(4.0), injection_end(1.0)
-    (', the end of the range scanned', '')
-    """
-    return ", the end of the range scanned" if phi in (INJECTION_PHIS[0], INJECTION_PHIS[-1]) else ""
-
-
-def injection_delay(study: Study, point: Point, horizon: float) -> tuple[float, float]:
-    """(shortest ignition delay [s], its phi) of the fuel-oxidizer mixtures near the fuel
-    injection: chemistry.ignition.ignition_delay_peak at every INJECTION_PHIS, at the point's
-    preheat and pressure. The fuel is taken as hot as the oxidizer, which makes the rich mixtures
-    more reactive than a cooler fuel jet would (conservative). Cached per mixture."""
-    o2 = mixtures.stoich_o2_per_fuel(study.atoms, point.X_flame)
-    best = (math.inf, INJECTION_PHIS[-1])
-    for phi in INJECTION_PHIS:
-        X = mixtures.unburned_mixture(point.X_flame, point.X_oxidizer, phi, o2)
-        tau = ignition_delay_peak(study.mechanism_path, tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)),
-                                  float(point.T_u), float(point.P), float(horizon))
-        if tau < best[0]:
-            best = (tau, phi)
-    return best
-
-
 def premixer_columns(study: Study, point: Point, row: dict | None = None) -> dict:
     """Ignition delay of the fresh mixture at the point's preheat and pressure, the
     autoignition margin (delay / residence time), the same for the most reactive mixture near
-    the fuel injection (:func:`injection_delay`), and the verdict on both
-    (columns.PREMIXER_COLUMNS; physics.limits.autoignition_verdict).
-
-    Delay: time of the largest dT/dt in an adiabatic constant-pressure reactor
-    (chemistry.ignition.ignition_delay_peak), the premixer's gas held at the burner's
-    pressure; inf when it has not ignited within max(PREMIXER_HORIZON_S,
-    PREMIXER_HORIZON_FACTOR x required margin x residence time). Empty without [premixer].
+    the fuel injection (one of physics.autoignition.INJECTION_PHIS), and the verdict on both
+    (columns.PREMIXER_COLUMNS; physics.limits.autoignition_verdict), from the delays the run
+    stored (sweep.premixer: time of the largest dT/dt in an adiabatic constant-pressure
+    reactor, inf when the gas has not ignited within physics.autoignition.premixer_horizon).
+    Empty without [premixer]; the verdict says so when the delays are not stored.
     """
     pm = study.premixer
     out = dict.fromkeys(PREMIXER_COLUMNS)
     if pm is None:
         return out
-    horizon = premixer_horizon(pm.residence_time_s, pm.min_autoignition_margin)
-    X = tuple(sorted((k, float(v)) for k, v in point.X_unburned.items() if v > 0))
-    try:
-        if row is not None and row.get("premixer_horizon_s") == horizon:  # the worker's, stored with the flame
-            tau = row["premixer_ignition_delay_s"]
-        else:
-            tau = ignition_delay_peak(study.mechanism_path, X, float(point.T_u), float(point.P), float(horizon))
-        tau_inj, phi_inj = injection_delay(study, point, horizon)
-    except Exception as exc:  # noqa: BLE001 - the column says why instead of stopping the read-out
-        out["autoignition_verdict"] = f"not computed: {type(exc).__name__}"
+    row = row or {}
+    if row.get("premixer_ignition_delay_s") is None:
+        out["autoignition_verdict"] = ("not computed: the ignition delays of this point are not stored; run the "
+                                       "study again (flamecharts run) to integrate them, no flame is solved again")
         return out
+    tau = float(row["premixer_ignition_delay_s"])
+    tau_inj, phi_inj = math.inf, INJECTION_PHIS[-1]  # the shortest; all inf: the richest scanned
+    for t, phi in zip(map(float, row["injection_ignition_delays_s"]), INJECTION_PHIS):
+        if t < tau_inj:
+            tau_inj, phi_inj = t, phi
     margin, margin_inj = tau / pm.residence_time_s, tau_inj / pm.residence_time_s
     verdict = autoignition_verdict(study.mechanism_path, float(point.T_u), min(margin, margin_inj),
                                    pm.min_autoignition_margin)

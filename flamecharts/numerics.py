@@ -1,4 +1,5 @@
-"""Grid settings of a flame solve (coarse, standard, fine): plain data, no Cantera.
+"""Grid settings of a flame solve (coarse, standard, fine) and of the strained-flame ladder:
+plain data, no Cantera.
 
 They decide every flame's answer and are named in every output (results.csv's resolution,
 the report's numerics), so the read side needs them without the chemistry layer; the solver
@@ -52,3 +53,27 @@ NUMERICS = {
     "standard": Numerics("standard", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01))),
     "fine": Numerics("fine", ((3.0, 0.1, 0.2), (2.0, 0.2, 0.01), (2.0, 0.1, 0.004))),
 }
+
+
+# Settings of the strained-flame ladder (chemistry.strained; part of a ladder's store key, sweep.stretch).
+
+#: Half the nozzle separation (nozzle to symmetry plane) in flame thicknesses alpha_u / S_L:
+#: the same geometry in flame units for every mixture (methane-air at phi 1: about 24 mm;
+#: hydrogen-air: about 8 mm), within HALF_SEPARATION_BOUNDS_M.
+HALF_SEPARATION_THICKNESSES = 400.0
+HALF_SEPARATION_BOUNDS_M = (0.002, 0.03)
+#: First nozzle velocity as a multiple of S_L: the flame off the nozzle, weakly strained
+#: (Karlovitz number about 2 x 2 / 400 = 0.01).
+FIRST_VELOCITY_FACTOR = 2.0
+#: Factor of the nozzle velocity between ladder steps while the flame burns.
+LADDER_FACTOR = 1.6
+#: The continuation stops refining the extinction bracket when the velocity step is below this
+#: ratio (the extinction strain rate is then known to about 2 %).
+EXTINCTION_RESOLUTION = 1.02
+#: A flame counts as burning while its peak temperature rises above T_u by at least this share
+#: of T_ad - T_u.
+BURNING_SHARE = 0.5
+#: Grid refinement of the strained flames (Cantera's ratio, slope, curve, prune).
+REFINE = dict(ratio=3.0, slope=0.1, curve=0.2, prune=0.03)
+#: Most solves one ladder may make (burning steps and refinement of the extinction bracket).
+MAX_SOLVES = 40

@@ -7,6 +7,8 @@ from __future__ import annotations
 
 from enum import StrEnum
 
+from .errors import first_line
+
 
 class Status(StrEnum):
     OK = "ok"                # a burning flame was solved and measured
@@ -24,3 +26,13 @@ class Reason(StrEnum):
     WORKER_ERROR = "worker error"       # the worker process died on the point: solved again by the next run
     TIME_LIMIT = "time limit"           # the flame took longer than the run's per-flame time limit
     AUTOIGNITION = "autoignition"       # status autoignition (decided at read-out from the stored screen)
+
+
+#: Failures the next run solves again (the point's answer was never reached, not refused).
+RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
+
+
+def worker_error(exc: BaseException) -> dict:
+    """The failed result of a task whose worker died or raised (the next run solves it again)."""
+    return {"status": Status.FAILED, "reason": Reason.WORKER_ERROR, "start": "fresh", "metrics": None, "profile": None,
+            "message": f"{Reason.WORKER_ERROR}: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}

@@ -22,8 +22,10 @@ from .store import DB_NAME, RunLock, Store
 from .sweep.backends import open_backend
 from .sweep.kinetics import solve_sensitivities
 from .sweep.points import points
+from .sweep.premixer import solve_premixer
 from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
+from .sweep.upgrade import upgrade_store
 from .sweep.zeldovich import solve_zeldovich
 
 if TYPE_CHECKING:
@@ -132,6 +134,7 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
         out = _out_folder(study, out_dir)
         with RunLock(out), Store(out / DB_NAME) as store:
             save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
+            upgrade_store(store, {s.mechanism_sha256: (s.mechanism_path, s.atoms) for s in subs})
             parts = []
             for i, sub in enumerate(subs):
                 stage = f"{sub.mechanism} ({i + 1} of {len(subs)})" if len(subs) > 1 else ""
@@ -179,6 +182,8 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
         # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
         extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
                                              _part(progress, "flame-speed sensitivities"))[1]
+        # [premixer]: the ignition delays of every point's mixture and of those near the fuel injection
+        extra_seconds += solve_premixer(study, store, pts, backend, _part(progress, "premixer ignition delays"))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
     if study.limits is not None and stop_after is None:

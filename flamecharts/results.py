@@ -27,18 +27,18 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .chemistry.ignition import autoignition_reason
-from .chemistry.mechanism import viscosity
-from .chemistry.response import lewis_numbers_of
 from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
+from .physics.autoignition import not_a_flame_reason
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
 from .sweep.kinetics import with_sensitivities
 from .sweep.points import Point, points
+from .sweep.premixer import with_premixer
+from .sweep.upgrade import lacks_readout
 from .sweep.zeldovich import with_zeldovich
 
 
@@ -63,17 +63,11 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
         v = metrics.get(name)
         row[col] = None if v is None else v * scale
     row["grid_convergence"] = metrics.get("grid_convergence", "")
-    for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "premixer_horizon_s",
-                 "reaction_sensitivities"):
+    for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
+                 "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
-
-
-def unburned_viscosity(study: Study, p: Point) -> float:
-    """Viscosity [Pa s] of the point's fresh mixture at its preheat and pressure."""
-    X = tuple(sorted((k, float(v)) for k, v in p.X_unburned.items() if v > 0))
-    return viscosity(study.mechanism_path, X, float(p.T_u), float(p.P))
 
 
 #: Columns a solution that is autoignition, not a deflagration, does not have (the mixture's
@@ -93,19 +87,19 @@ def not_a_flame(row: dict, why: str) -> None:
 def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[dict]:
     """One flat row per point, in study order, from stored results (missing -> 'pending'),
     with the design indicators, fuel-gas properties and burner margins added, and the
-    range warnings of each point (column 'warnings', see design.point_warnings)."""
+    range warnings of each point (column 'warnings', see design.point_warnings). A store written
+    before the flames carried what the read-out needs of their mixture (sweep.upgrade) is a
+    StoreError naming the commands that upgrade it."""
+    if any(lacks_readout(r) for r in stored.values()):
+        raise StoreError("the results store was written by an earlier flamecharts: some flames lack the mixture "
+                         "properties the read-out now takes from the store; 'flamecharts compact DIR' or 'flamecharts "
+                         "run' adds them (no flame is solved again; a backup copy is kept)")
     flat = [flat_row(study, p, stored.get(p.key)) for p in pts]
-    for p, r in zip(pts, flat):  # stores written before the workers stored the Lewis numbers
-        if r["status"] == "ok" and r["lewis_number_fuel"] is None:
-            X = tuple(sorted((k, float(v)) for k, v in p.X_unburned.items() if v > 0))
-            r["lewis_number_fuel"], r["lewis_number_oxygen"] = lewis_numbers_of(study.mechanism_path, X, float(p.T_u),
-                                                                                float(p.P))
     for p, r in zip(pts, flat):  # a mixture that ignites before a flame can cross it is not a flame
-        if r["status"] == "ok" and (why := autoignition_reason(study.mechanism_path, p.X_unburned, p.T_u, p.P, r)):
+        if r["status"] == "ok" and (why := not_a_flame_reason(r.get("autoignition_screen_delay_s"),
+                                                              r["laminar_flame_speed_m_s"], r["thermal_thickness_mm"],
+                                                              p.T_u)):
             not_a_flame(r, why)
-    if study.burner is not None:  # the port's Reynolds number decides laminar or turbulent wall gradient
-        for p, r in zip(pts, flat):
-            r["unburned_viscosity_Pa_s"] = unburned_viscosity(study, p)
     rows = annotate(study, flat)
     for p, r in zip(pts, rows):
         r["warnings"] = point_warnings(study, p, r)
@@ -116,9 +110,11 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
 
 def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
     """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
-    merged into its metrics: the Zeldovich pair, the flame-speed sensitivities."""
+    merged into its metrics: the Zeldovich pair, the flame-speed sensitivities, the premixer's
+    ignition delays."""
     stored = store.rows([p.key for p in pts]) if stored is None else stored
-    return with_sensitivities(study, pts, with_zeldovich(study, pts, stored, store), store)
+    return with_premixer(study, pts, with_sensitivities(study, pts, with_zeldovich(study, pts, stored, store), store),
+                         store)
 
 
 def sensitivity_rows(rows: list[dict]) -> list[dict]:

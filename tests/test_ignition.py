@@ -90,21 +90,14 @@ def test_premixer_columns_and_verdict(tmp_path):
     from flamecharts.outputs.report import _premixer_section
     section = html.unescape("".join(_premixer_section(res.study, res.rows)))
     assert "h2o2.yaml's hydrogen delays" in section and "GRI-Mech 3.0's delays" not in section
-    # the worker stored the delay with each burning flame (a read-out of many points integrates no
-    # reactor); computing it again at read-out gives the same number
-    from flamecharts.design import premixer_columns
-    from flamecharts.sweep.points import points
-
     # the reactor is integrated well past what the verdict needs: min margin x residence time
     assert hot["premixer_horizon_s"] >= 3.0 * 5e-3
     for r in (cold, hot):  # a risk exactly where the nearer of the two delays falls inside 3 residence times
         near = min(r["autoignition_margin"], r["injection_autoignition_margin"])
         assert (r["autoignition_verdict"] == "autoignition risk") == (near < 3.0), r
-    p_hot = next(p for p in points(res.study) if p.T_u == 1000.0)
-    assert premixer_columns(res.study, p_hot)["ignition_delay_ms"] == pytest.approx(hot["ignition_delay_ms"], rel=1e-12)
     # near the fuel injection: the shortest delay of phi 0.25-4 at the same T and p, never longer than
     # the premixed mixture's (phi 1 is among those scanned), and inf where nothing ignites
-    from flamecharts.design import INJECTION_PHIS
+    from flamecharts.physics.autoignition import INJECTION_PHIS
 
     assert hot["injection_ignition_delay_ms"] <= hot["ignition_delay_ms"]
     assert hot["injection_equivalence_ratio"] in INJECTION_PHIS
@@ -119,3 +112,38 @@ def test_premixer_columns_and_verdict(tmp_path):
 def test_premixer_errors_name_the_key(tmp_path, extra, message):
     with pytest.raises(ConfigError, match=message):
         flamecharts.load_study(write_h2_study(tmp_path, extra=extra))
+
+
+def test_premixer_delays_are_stored_apart_and_reread_at_another_horizon(tmp_path):
+    """The premixer's delays are an extra of their own (sweep.premixer): a shorter residence
+    time reads the stored delays (a delay over a longer horizon answers a shorter one); a
+    longer one integrates again only the points that had not ignited; no flame is solved again."""
+    from flamecharts.store import Store
+    from flamecharts.sweep.points import points
+    from flamecharts.sweep.premixer import premixer_key
+
+    def study(residence_ms):
+        cfg = write_h2_study(tmp_path, phis="[1.0]", fractions="[0.0]",
+                             extra=f"[premixer]\nresidence_time_ms = {residence_ms}\nmin_autoignition_margin = 3.0\n")
+        cfg.write_text(cfg.read_text().replace("unburned_temperature_K = [300.0]",
+                                               "unburned_temperature_K = [300.0, 1000.0]"))
+        return cfg
+
+    def stored(res):
+        with Store(tmp_path / "out" / "results.db", readonly=True) as store:
+            rows = store.rows([premixer_key(p) for p in points(res.study)])
+        return {p.T_u: rows[premixer_key(p)] for p in points(res.study)}
+
+    first = flamecharts.run(study(2.0), out=tmp_path / "out", jobs=1, charts=False)
+    before = stored(first)
+    assert before[300.0]["metrics"]["premixer_horizon_s"] == 1.0  # max(1 s, 100 x 3 x 2 ms)
+    shorter = flamecharts.run(study(1.0), out=tmp_path / "out", jobs=1, charts=False)
+    assert shorter.summary.solved == 0 and stored(shorter) == before
+    hot = {r["unburned_temperature_K"]: r for r in shorter.rows}[1000.0]
+    assert hot["autoignition_margin"] == pytest.approx(first.rows[1]["ignition_delay_ms"] / 1.0, rel=1e-12)
+    longer = flamecharts.run(study(50.0), out=tmp_path / "out", jobs=1, charts=False)  # horizon 15 s
+    after = stored(longer)
+    assert longer.summary.solved == 0
+    assert after[1000.0] == before[1000.0]  # ignited within 1 s: answers any horizon
+    assert after[300.0]["metrics"]["premixer_horizon_s"] == 15.0  # integrated again over the longer horizon
+    assert {r["unburned_temperature_K"]: r for r in longer.rows}[300.0]["autoignition_verdict"] == "ok"

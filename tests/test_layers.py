@@ -8,7 +8,8 @@ PACKAGE = Path(flamecharts.__file__).parent
 
 #: Lowest first. A module may import from its own layer and the layers below, never above.
 LAYERS = (
-    ("_version", "errors", "columns", "outcome", "numerics"),  # names, units, status words, errors, grid settings
+    ("_version", "errors", "columns", "outcome", "numerics", "facts"),  # names, units, status words, errors,
+    # grid settings, what a run keeps of its mechanism
     ("physics",),      # pure functions with cited sources
     ("chemistry",),    # the only code that imports Cantera
     ("config",),       # TOML -> validated Study
@@ -99,11 +100,12 @@ def test_the_check_sees_a_wrong_import(tmp_path):
     assert _imports("physics.m", fake) >= {"cli.__init__", "physics.mixtures"}
 
 
-def test_the_outputs_do_not_import_the_chemistry_layer_themselves():
-    """CSV, netCDF, charts and report name the grid settings and Cantera's version without
-    importing Cantera (numerics.py, _version.installed_cantera_version); what they still
-    reach through design and results is the read-side work of issue 29."""
+def test_the_read_side_does_not_import_the_chemistry_layer():
+    """Design read-out, results, limits and outputs (CSV, netCDF, charts, report) import nothing
+    of the chemistry layer, anywhere in their code: what they need of the mechanism was stored
+    by the run (facts.MechanismFacts, sweep.worker.mixture_properties); tests/test_read_side.py
+    runs them with the mechanism moved away and checks Cantera is never imported."""
     mods = _modules()
     for name, path in mods.items():
-        if _top(name) == "outputs":
+        if _top(name) in ("design", "results", "admissible", "outputs"):
             assert not {m for m in _imports(name, path) if _top(m) == "chemistry"}, name

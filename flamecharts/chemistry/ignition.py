@@ -1,12 +1,11 @@
-"""Autoignition of the unburned mixture ahead of a flame (Cantera reactor).
+"""Ignition delays of a mixture (Cantera reactors): the autoignition screens stored with each
+flame, and the premixer's delays.
 
 A point is not a flame (status autoignition, results.point_rows) when the unburned
-mixture ignites on its own within AUTOIGNITION_FACTOR flame transit times delta_T/S_L (constant-pressure ignition delay
-at T_u, p, computed with Cantera's IdealGasConstPressureReactor over a bounded time).
-A freely propagating flame assumes the unburned gas stays chemically frozen while it
-crosses the flame, i.e. an ignition delay much longer than the flame transit time
-(common practice); when it is not, the computed "flame speed" measures autoignition
-in the domain, not a deflagration.
+mixture ignites on its own within AUTOIGNITION_FACTOR flame transit times delta_T/S_L
+(physics.autoignition.not_a_flame_reason, from the delay the worker stores: constant-pressure
+ignition delay at T_u, p, computed with Cantera's IdealGasConstPressureReactor over a
+bounded time).
 """
 from __future__ import annotations
 
@@ -16,17 +15,9 @@ from functools import lru_cache
 
 import cantera as ct
 
+from ..physics.autoignition import AUTOIGNITION_FACTOR, AUTOIGNITION_MAX_TIME_S, AUTOIGNITION_MIN_T_K
 from .mechanism import solution
 
-#: Not a flame when the ignition delay is shorter than this many flame transit times
-#: (common practice: "much longer" taken as two orders of magnitude).
-AUTOIGNITION_FACTOR = 100.0
-#: The ignition delay is integrated for at most this long [s]; longer delays never warn.
-AUTOIGNITION_MAX_TIME_S = 1.0
-#: Below this preheat the ignition check is skipped: it lies below the autoignition
-#: temperature of common fuel gases (hydrogen about 800 K, methane about 810 K in air;
-#: the lowest common liquid fuel vapours, e.g. n-heptane, about 490 K; from memory).
-AUTOIGNITION_MIN_T_K = 450.0
 #: Ignition = temperature rise of this much [K] in the reactor (or half the rise to the
 #: flame's adiabatic temperature, if smaller).
 IGNITION_RISE_K = 400.0
@@ -99,49 +90,8 @@ def autoignition_screen_without_flame(mechanism_path: str, X: dict, T_u: float, 
     return _screen_delay(mechanism_path, X, T_u, P, AUTOIGNITION_MAX_TIME_S, equilibrium_temperature)
 
 
-def autoignition_reason(mechanism_path: str, X: dict, T_u: float, P: float, row: dict) -> str:
-    """'' or why the mixture is not a flame: it autoignites within AUTOIGNITION_FACTOR flame
-    transit times delta_T/S_L of the row's flame (only for burning flames, T_u >= AUTOIGNITION_MIN_T_K);
-    results.point_rows then gives the point status autoignition and no flame quantities.
-    Uses the delay the worker stored with the flame (row key ``autoignition_screen_delay_s``)
-    when there is one, else computes it (stores written before it was stored)."""
-    if row.get("status") != "ok":
-        return ""
-    S_L, d_mm = row.get("laminar_flame_speed_m_s"), row.get("thermal_thickness_mm")
-    if "autoignition_screen_delay_s" in row:
-        tau = row["autoignition_screen_delay_s"]
-    else:
-        tau = autoignition_screen(mechanism_path, X, T_u, P, S_L, d_mm * 1e-3 if d_mm else None,
-                                  row.get("adiabatic_flame_temperature_K"))
-    if tau is None or not S_L or not d_mm:
-        return ""
-    transit = d_mm * 1e-3 / S_L
-    if tau < min(AUTOIGNITION_FACTOR * transit, AUTOIGNITION_MAX_TIME_S):
-        return (f"autoignition: ignites in {tau * 1e3:.2g} ms at {T_u:g} K, within {tau / transit:.0f} flame transit "
-                f"times (limit {AUTOIGNITION_FACTOR:g}): the mixture ignites before a flame can cross it, so it has "
-                "no flame speed or thickness")
-    return ""
-
-
 #: A reactor counts as ignited when its temperature rose by at least this much [K].
 MIN_IGNITION_RISE_K = 100.0
-
-
-#: A premixer's ignition delay is integrated for at least this long [s], and at least
-#: this many times the residence time the margin requires: a mixture that has not ignited
-#: by then is reported as not igniting (delay inf).
-PREMIXER_HORIZON_S = 1.0
-PREMIXER_HORIZON_FACTOR = 100.0
-
-
-def premixer_horizon(residence_time_s: float, min_margin: float) -> float:
-    """How long a premixer's ignition delay is integrated [s]: max(PREMIXER_HORIZON_S,
-    PREMIXER_HORIZON_FACTOR x required margin x residence time).
-
-    >>> premixer_horizon(0.002, 3.0), premixer_horizon(0.01, 3.0)
-    (1.0, 3.0)
-    """
-    return max(PREMIXER_HORIZON_S, PREMIXER_HORIZON_FACTOR * min_margin * residence_time_s)
 
 
 @lru_cache(maxsize=4096)

@@ -11,6 +11,7 @@ solution               the cached ``cantera.Solution`` of a file and transport m
 cantera_model          the transport model Cantera loads for one of the study's models
 mechanism_text         the mechanism as one YAML text (for cluster workers)
 fallback_data          ideal-gas heating data for species outside the ISO 6976 table
+mechanism_facts        what the read side needs of a mechanism (facts.MechanismFacts), kept with a run
 """
 from __future__ import annotations
 
@@ -24,6 +25,7 @@ from pathlib import Path
 import cantera as ct
 
 from ..errors import MechanismError, first_line
+from ..facts import MechanismFacts
 from ..physics.gasprops import L_WATER, P_ISO
 
 #: A mechanism that names another file's species, reactions or phases (``other.yaml/species``).
@@ -187,3 +189,24 @@ def viscosity(path: str, X: tuple, T: float, P: float) -> float:
     gas = solution(path, "mixture-averaged")
     gas.TPX = T, P, dict(X)
     return float(gas.viscosity)
+
+
+@lru_cache(maxsize=8)
+def mechanism_facts(name: str, path: str, sha256: str) -> MechanismFacts:
+    """The read side's facts of mechanism ``path`` (named ``name`` in the study, content hash
+    ``sha256``): element counts and molar masses of every species, the reaction equations,
+    and :func:`fallback_data` of every species at every ISO 6976 combustion temperature
+    (L_WATER's), or why a species has none."""
+    gas = solution(path, None, sha256)
+    fallback: dict[int, dict[str, tuple[float, float, float] | str]] = {}
+    for T_C in sorted(L_WATER):
+        fallback[T_C] = {}
+        for sp in gas.species_names:
+            try:
+                fallback[T_C][sp] = fallback_data(gas, [sp], T_C)[sp]
+            except ValueError as exc:
+                fallback[T_C][sp] = str(exc)
+    return MechanismFacts(name=name, path=str(path), sha256=sha256,
+                          atoms={sp.name: dict(sp.composition) for sp in gas.species()},
+                          molar_masses_kg_kmol=dict(zip(gas.species_names, map(float, gas.molecular_weights))),
+                          reaction_equations=reaction_equations(path), heating_fallback=fallback)

@@ -23,9 +23,7 @@ if TYPE_CHECKING:
 #: Inerts whose mole fraction is moved to change T_ad at fixed phi, in order of preference.
 INERTS = ("N2", "AR", "Ar", "HE", "He", "CO2")
 
-#: Default step of the inert's mole fraction for the Zeldovich flames: each step moves T_ad
-#: by about 20 K in methane-air (0.015 moved it 60 K, a span of 120-140 K for one derivative).
-DEFAULT_INERT_STEP = 0.005
+
 
 #: Products a combustible is burned to for its heating value.
 _PRODUCTS = {"C": "CO2", "H": "H2O", "N": "N2"}

@@ -8,7 +8,6 @@ from typing import TYPE_CHECKING
 from ..admissible.driver import planned_searches
 from ..admissible.words import kept
 from ..chemistry.flame import NUMERICS
-from ..chemistry.mechanism import reaction_equations
 from ..chemistry.strained import MAX_SOLVES
 from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
@@ -139,7 +138,8 @@ def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[
                       "GRI-Mech 3.0); stored ladders are not solved again", t))
     u = study.uncertainty
     if u is not None and u.kinetics:
-        t = n_todo * sensitivity_seconds(n_sp, len(reaction_equations(study.mechanism_path)), study.resolution) / jobs
+        n_reactions = len(study.facts.reaction_equations) if study.facts else 0
+        t = n_todo * sensitivity_seconds(n_sp, n_reactions, study.resolution) / jobs
         lines.append((f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
                       f"{n_todo} adjoint solves after the sweep, each the stored flame solved again on its grid): about "
                       f"{duration(t)} (measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0); stored "

@@ -29,6 +29,11 @@ PULSATING_THRESHOLD = 4.0 * (1.0 + math.sqrt(3.0))
 #: Universal gas constant [J/(mol K)]
 R_GAS = 8.314462618
 
+#: Default step of the inert's mole fraction for the Zeldovich flames (chemistry.response):
+#: each step moves T_ad by about 20 K in methane-air (0.015 moved it 60 K, a span of
+#: 120-140 K for one derivative).
+DEFAULT_INERT_STEP = 0.005
+
 
 def lewis_number(thermal_diffusivity_m2_s: float, diffusion_coefficient_m2_s: float) -> float:
     """Lewis number of a species, Le_k = alpha / D_k [-].

@@ -319,18 +319,7 @@ class Store:
     def _migrate(self, version: int, backup: bool) -> Path | None:
         """Upgrade from ``version`` to SCHEMA_VERSION in one transaction, after a backup copy."""
         db = self._db
-        copy = None
-        if backup:
-            copy = self.path.with_name(f"{self.path.name}.v{version}-{time.strftime('%Y%m%d-%H%M%S')}.bak")
-            n = 1
-            while copy.exists():
-                copy = copy.with_name(f"{self.path.name}.v{version}-{time.strftime('%Y%m%d-%H%M%S')}-{n}.bak")
-                n += 1
-            dst = sqlite3.connect(copy)
-            try:
-                db.backup(dst)
-            finally:
-                dst.close()
+        copy = self.backup(f"v{version}") if backup else None
         previous = db.isolation_level
         db.isolation_level = None  # explicit BEGIN/COMMIT: DDL and user_version inside one transaction
         try:
@@ -355,6 +344,44 @@ class Store:
         self.migrated_from = version
         self.backup_path = copy
         return copy
+
+    def backup(self, tag: str) -> Path:
+        """A consistent copy of the store beside it, ``<name>.<tag>-<date>-<time>.bak`` (SQLite's
+        online backup), made before a migration or an upgrade rewrites rows. Returns its path."""
+        stamp = time.strftime('%Y%m%d-%H%M%S')
+        copy = self.path.with_name(f"{self.path.name}.{tag}-{stamp}.bak")
+        n = 1
+        while copy.exists():
+            copy = copy.with_name(f"{self.path.name}.{tag}-{stamp}-{n}.bak")
+            n += 1
+        dst = sqlite3.connect(copy)
+        try:
+            self._db.backup(dst)
+        finally:
+            dst.close()
+        return copy
+
+    def inputs(self, keys: Iterable[str] | None = None) -> dict[str, dict]:
+        """key -> the inputs a stored row was solved for (what its key hashes), for the given keys, or all."""
+        wanted = set(keys) if keys is not None else None
+        out = {}
+        for key, text in self._query("SELECT key, inputs FROM points"):
+            if wanted is None or key in wanted:
+                try:
+                    out[key] = json.loads(text)
+                except ValueError as exc:
+                    raise self._damaged(key, "inputs", exc) from None
+        return out
+
+    def update_metrics(self, metrics: dict[str, dict]) -> None:
+        """Replace the metrics of stored rows (key -> new metrics) in one transaction: all or none."""
+        try:
+            with self._db:
+                self._db.executemany("UPDATE points SET metrics = ? WHERE key = ?",
+                                     [(json.dumps(m), k) for k, m in metrics.items()])
+        except sqlite3.DatabaseError as exc:
+            raise StoreError(f"results store {self.path} cannot be written ({exc}); every flame stored "
+                             "before is kept unchanged") from None
 
     def close(self) -> None:
         self._close_quietly()

@@ -19,7 +19,6 @@ from typing import TYPE_CHECKING, Protocol
 from joblib.externals.loky import get_reusable_executor
 
 from ..config import check_cluster_spec
-from .worker import local_worker
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -82,6 +81,8 @@ class LocalBackend:
     def executor(self, study: Study | None = None) -> Executor:
         if self.slots == 1:
             return InProcess()
+        from .worker import local_worker  # the solver, here: importing the backends loads no Cantera
+
         return get_reusable_executor(max_workers=self.slots, initializer=local_worker, initargs=(os.getpid(),),
                                      timeout=60)
 

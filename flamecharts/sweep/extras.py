@@ -18,9 +18,9 @@ from concurrent.futures import FIRST_COMPLETED, wait
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+from ..outcome import RETRIED_REASONS, worker_error
 from ..store import Store
 from .points import Point
-from .run import RETRIED_REASONS, worker_error
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -57,14 +57,17 @@ def done_keys(store: Store, keys: list[str]) -> set[str]:
     return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED_REASONS}
 
 
-def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], fn: Callable[[dict], dict],
-                 backend: Backend,
+def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], task_name: str, backend: Backend,
                  progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
-    """Solve ``fn(task)`` for every (record, task) on the backend, commit each result under its
-    record as it finishes (a worker that dies leaves a failed row: the next run tries again).
-    Returns (extras solved, their summed seconds)."""
+    """Solve ``task(task)`` for every (record, task) on the backend, ``task`` being the function
+    ``task_name`` of sweep.worker (imported here, on the solve side only: the read side of an
+    extra needs no Cantera), commit each result under its record as it finishes (a worker that
+    dies leaves a failed row: the next run tries again). Returns (extras solved, their summed seconds)."""
     if not todo:
         return 0, 0.0
+    from . import worker
+
+    fn: Callable[[dict], dict] = getattr(worker, task_name)
     executor = backend.executor(study)
     run_id = uuid.uuid4().hex[:12]
     in_flight = {executor.submit(fn, task): rec for rec, task in todo}

@@ -18,7 +18,6 @@ from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point
 from .schedule import flame_time_limit
-from .worker import sensitivity_task
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -60,7 +59,7 @@ def solve_sensitivities(study: Study, store: Store, pts: list[Point], stored: di
         profile = store.profile(p.key)
         if profile is not None:  # keep_profiles = false: nothing to start from (the read-out says so)
             todo.append((record("sensitivity", sensitivity_key(p), p), _task(study, p, profile)))
-    return solve_extras(study, store, todo, sensitivity_task, backend, progress)
+    return solve_extras(study, store, todo, "sensitivity_task", backend, progress)
 
 
 def with_sensitivities(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:

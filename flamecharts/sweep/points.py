@@ -15,9 +15,9 @@ import json
 from dataclasses import dataclass, field
 from itertools import product
 
-from ..chemistry.flame import NUMERICS
-from ..chemistry.mechanism import cantera_version
+from .._version import installed_cantera_version
 from ..config import Study, flame_stream, fuel_stream
+from ..numerics import NUMERICS
 from ..physics import mixtures
 
 #: Bump when the measurements taken from a converged flame change meaning.
@@ -64,7 +64,7 @@ def settings_of(study: Study) -> dict:
     the Zeldovich pair, are stored under keys of their own: sweep.extras)."""
     return {
         "mechanism_sha256": study.mechanism_sha256,
-        "cantera": cantera_version(),
+        "cantera": installed_cantera_version(),
         "transport": study.transport,
         "thermal_diffusion": study.thermal_diffusion,
         "numerics": NUMERICS[study.resolution].as_dict(),

@@ -27,14 +27,13 @@ from dataclasses import dataclass
 from types import FrameType
 from typing import TYPE_CHECKING, Any
 
-from ..errors import FlamechartsError, first_line
-from ..outcome import Reason, Status
+from ..errors import FlamechartsError
+from ..outcome import RETRIED_REASONS, Status, worker_error
 from ..store import Store
 from ..store.db import unpack_profile
 from .points import Point
 from .schedule import Scheduler, estimate_run_seconds, flame_cost, flame_seconds
 from .warm_tree import StoredFlame, WarmPlan, warm_tree
-from .worker import make_task, solve_task
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -47,9 +46,6 @@ MAX_RETRIES = 2
 #: older ones are read back from the store (the same bytes), so a 100,000-flame run
 #: holds at most this many (a GRI-Mech 3.0 profile is about 130 KB decoded).
 RECENT_PROFILES = 64
-
-#: Failed points that the next run solves again (the failure may not recur).
-RETRIED_REASONS = (Reason.WORKER_ERROR, Reason.TIME_LIMIT)
 
 
 @dataclass
@@ -155,12 +151,6 @@ class _CtrlC:
             signal.signal(signal.SIGINT, self._old if self._old is not None else signal.SIG_DFL)
 
 
-def worker_error(exc: BaseException) -> dict:
-    """The failed result of a task whose worker died or raised (the next run solves it again)."""
-    return {"status": Status.FAILED, "reason": Reason.WORKER_ERROR, "start": "fresh", "metrics": None, "profile": None,
-            "message": f"{Reason.WORKER_ERROR}: {type(exc).__name__}: {first_line(exc)}", "solve_seconds": 0.0}
-
-
 class _Loop:
     """State of one pass: the scheduler, the flames finished in it, the executor."""
 
@@ -196,6 +186,8 @@ class _Loop:
             self.recent.popitem(last=False)
 
     def submit(self, i: int) -> None:
+        from .worker import make_task, solve_task  # the solver, here: importing the run loop loads no Cantera
+
         p = self.by_index[i]
         task = make_task(self.study, p, self.warm_for(p))
         try:

@@ -14,12 +14,11 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
-from ..chemistry import strained
+from .. import numerics as strained
 from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point
 from .schedule import flame_time_limit
-from .worker import stretch_task
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -69,7 +68,7 @@ def solve_stretch(study: Study, store: Store, pts: list[Point], rows_by_key: dic
     done = done_keys(store, [stretch_key(p) for p in chosen])
     todo = [(record("stretch", stretch_key(p), p), _task(study, p, rows_by_key[p.key]))
             for p in chosen if stretch_key(p) not in done]
-    return solve_extras(study, store, todo, stretch_task, backend, progress)
+    return solve_extras(study, store, todo, "stretch_task", backend, progress)
 
 
 def characteristic_strain(study: Study, row: dict) -> float | None:

@@ -18,13 +18,8 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from ..chemistry.flame import NUMERICS, solve_flame
-from ..chemistry.ignition import (
-    autoignition_screen,
-    autoignition_screen_without_flame,
-    ignition_delay_peak,
-    premixer_horizon,
-)
-from ..chemistry.mechanism import solution
+from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
+from ..chemistry.mechanism import solution, viscosity
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
@@ -80,16 +75,42 @@ def make_task(study: Study, point: Point, warm: dict | None) -> dict:
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport,
             "thermal_diffusion": study.thermal_diffusion, "resolution": study.resolution,
             "T_u": point.T_u, "P": point.P, "X": point.X_unburned, "warm": warm,
-            "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms)),
-            "premixer_horizon_s": None if study.premixer is None else premixer_horizon(
-                study.premixer.residence_time_s, study.premixer.min_autoignition_margin)}
+            "time_limit_s": study.flame_time_limit_s or flame_time_limit(len(study.atoms))}
 
 
-def _flame_response(task: dict) -> dict:
-    """Lewis numbers of the fresh mixture (mixture-averaged transport, whatever the study's)."""
-    mixed = solution(task["mechanism_path"], "mixture-averaged", task["mechanism_sha256"])
-    le_fuel, le_o2 = lewis_numbers(mixed, task["X"], task["T_u"], task["P"])
-    return {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2}
+def mixture_properties(mechanism_path: str, sha256: str, X: dict, T_u: float, P: float) -> dict:
+    """What the read-out needs of the fresh mixture besides its flame (stored with it, so the
+    read side needs no mechanism): its Lewis numbers and viscosity (mixture-averaged transport,
+    whatever the study's). Keys: :data:`MIXTURE_PROPERTIES`."""
+    mixed = solution(mechanism_path, "mixture-averaged", sha256)
+    le_fuel, le_o2 = lewis_numbers(mixed, X, T_u, P)
+    mu = viscosity(mechanism_path, tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)), float(T_u), float(P))
+    return {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2, "unburned_viscosity_Pa_s": mu}
+
+
+#: The stored metrics of :func:`mixture_properties` (every burning point has them).
+MIXTURE_PROPERTIES = ("lewis_number_fuel", "lewis_number_oxygen", "unburned_viscosity_Pa_s")
+
+
+def premixer_task(task: dict) -> dict:
+    """Ignition delays of [premixer] (chemistry.ignition.ignition_delay_peak, constant pressure,
+    over ``horizon_s``): the fresh mixture's and those of the ``injection`` mixtures (one per
+    physics.autoignition.INJECTION_PHIS); a plain result dict in the store's form."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+
+    def delay(X: dict) -> float:
+        return ignition_delay_peak(task["mechanism_path"], tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)),
+                                   float(task["T_u"]), float(task["P"]), float(task["horizon_s"]))
+    try:
+        m: dict | None = {"premixer_ignition_delay_s": delay(task["X"]), "premixer_horizon_s": task["horizon_s"],
+                          "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}
+        status, reason, message = "ok", "", ""
+    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says it is missing
+        m, status, reason = None, "failed", "not converged"
+        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "fresh",
+            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
+            "cpu_seconds": time.process_time() - cpu0}
 
 
 def zeldovich_task(task: dict) -> dict:
@@ -164,19 +185,11 @@ def solve_task(task: dict) -> dict:
         m["autoignition_screen_delay_s"] = autoignition_screen(
             task["mechanism_path"], task["X"], task["T_u"], task["P"], m.get("laminar_flame_speed_m_s"),
             m.get("thermal_thickness_m"), m.get("adiabatic_flame_temperature_K"))
-        m.update(_flame_response(task))
-        if task.get("premixer_horizon_s"):  # [premixer]: the fresh mixture's ignition delay, stored for read-outs
-            X = tuple(sorted((k, float(v)) for k, v in task["X"].items() if v > 0))
-            try:
-                m["premixer_ignition_delay_s"] = ignition_delay_peak(
-                    task["mechanism_path"], X, float(task["T_u"]), float(task["P"]), float(task["premixer_horizon_s"]))
-                m["premixer_horizon_s"] = task["premixer_horizon_s"]
-            except Exception:  # noqa: BLE001 - the read-out tries again and says why in its column
-                pass
-    elif result.get("status") != "ok":  # no flame to answer with: the mixture's own ignition is still a finding
+        m.update(mixture_properties(task["mechanism_path"], task["mechanism_sha256"], task["X"], task["T_u"], task["P"]))
+    else:  # no flame to answer with: the mixture's own ignition is still a finding (None: none within the window)
         tau = autoignition_screen_without_flame(task["mechanism_path"], task["X"], task["T_u"], task["P"])
-        if tau is not None and math.isfinite(tau):
-            result["metrics"] = {"autoignition_screen_delay_s": tau}
+        result["metrics"] = {**(m or {}), "autoignition_screen_delay_s": tau if tau is not None and math.isfinite(tau)
+                             else None}
     # the worker encodes the profile for the store (lossy rounding, LZMA: ~10 ms for h2o2, more for
     # big mechanisms), so the process that commits every flame of a 100,000-point run only writes it
     result["profile_blob"] = pack_profile(result.pop("profile", None))

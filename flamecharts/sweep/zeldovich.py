@@ -17,7 +17,6 @@ from ..store import Store
 from .extras import derived_key, done_keys, record, solve_extras
 from .points import Point, zeldovich_step
 from .schedule import flame_time_limit
-from .worker import zeldovich_task
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -51,7 +50,7 @@ def solve_zeldovich(study: Study, store: Store, pts: list[Point], stored: dict[s
     todo = [(record("zeldovich", zeldovich_key(p, step), p),
              _task(study, p, stored[p.key], store.profile(p.key), step))
             for p in burning if zeldovich_key(p, step) not in done]
-    return solve_extras(study, store, todo, zeldovich_task, backend, progress)
+    return solve_extras(study, store, todo, "zeldovich_task", backend, progress)
 
 
 def with_zeldovich(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
