@@ -19,14 +19,12 @@ from .config import Study, by_mechanism, load_study, save_config_copy
 from .errors import FlamechartsError
 from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_extras, to_dataset, with_mechanism
 from .store import DB_NAME, RunLock, Store
+from .sweep.analyses import PER_POINT
 from .sweep.backends import open_backend
-from .sweep.kinetics import solve_sensitivities
 from .sweep.points import points
-from .sweep.premixer import solve_premixer
 from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.stretch import solve_stretch, stretch_rows
 from .sweep.upgrade import upgrade_store
-from .sweep.zeldovich import solve_zeldovich
 
 if TYPE_CHECKING:
     from .sweep.backends import Backend
@@ -177,13 +175,9 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
     done = solve_points(study, store, pts, backend, progress, stop_after, t0)
     stored = store.rows([p.key for p in pts])
     extra_seconds = 0.0
-    if stop_after is None:  # [flame_response]: the Zeldovich pair of each burning point
-        _, extra_seconds = solve_zeldovich(study, store, pts, stored, backend, _part(progress, "Zeldovich pairs"))
-        # [uncertainty]: the flame-speed sensitivities of each burning point (adjoint)
-        extra_seconds += solve_sensitivities(study, store, pts, stored, backend,
-                                             _part(progress, "flame-speed sensitivities"))[1]
-        # [premixer]: the ignition delays of every point's mixture and of those near the fuel injection
-        extra_seconds += solve_premixer(study, store, pts, backend, _part(progress, "premixer ignition delays"))[1]
+    for analysis in PER_POINT if stop_after is None else ():  # the extra solves the study's tables ask for
+        if analysis.wanted(study):
+            extra_seconds += analysis.solve(study, store, pts, stored, backend, _part(progress, analysis.what))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
     if study.limits is not None and stop_after is None:

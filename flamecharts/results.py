@@ -35,11 +35,9 @@ from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
 from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
-from .sweep.kinetics import with_sensitivities
+from .sweep.analyses import PER_POINT
 from .sweep.points import Point, points
-from .sweep.premixer import with_premixer
 from .sweep.upgrade import lacks_readout
-from .sweep.zeldovich import with_zeldovich
 
 
 def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
@@ -110,11 +108,13 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
 
 def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
     """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
-    merged into its metrics: the Zeldovich pair, the flame-speed sensitivities, the premixer's
-    ignition delays."""
+    merged into its metrics (each analysis of sweep.analyses.PER_POINT the study wants: the
+    Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays)."""
     stored = store.rows([p.key for p in pts]) if stored is None else stored
-    return with_premixer(study, pts, with_sensitivities(study, pts, with_zeldovich(study, pts, stored, store), store),
-                         store)
+    for analysis in PER_POINT:
+        if analysis.wanted(study):
+            stored = analysis.merge(study, pts, stored, store)
+    return stored
 
 
 def sensitivity_rows(rows: list[dict]) -> list[dict]:

@@ -147,3 +147,16 @@ def test_premixer_delays_are_stored_apart_and_reread_at_another_horizon(tmp_path
     assert after[1000.0] == before[1000.0]  # ignited within 1 s: answers any horizon
     assert after[300.0]["metrics"]["premixer_horizon_s"] == 15.0  # integrated again over the longer horizon
     assert {r["unburned_temperature_K"]: r for r in longer.rows}[300.0]["autoignition_verdict"] == "ok"
+
+
+def test_check_estimates_the_premixer_delays(tmp_path):
+    """`check` prints one line per extra solve a study asks for (sweep.analyses.PER_POINT): the
+    premixer's delays with their horizon and time, inside the total."""
+    from conftest import run_cli
+
+    cfg = write_h2_study(tmp_path, extra="[premixer]\nresidence_time_ms = 2.0\n")
+    done = run_cli("check", cfg, "--out", tmp_path / "none")
+    assert done.returncode == 0, done.stderr
+    line = next(t for t in done.stdout.splitlines() if t.startswith("Premixer:"))
+    assert "5 mixtures near the fuel injection" in line and "over 1 s" in line and "about" in line
+    assert "Estimated total" in done.stdout

@@ -13,10 +13,11 @@ from ..config import by_mechanism, load_study, lumping_note
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
+from ..sweep.analyses import PER_POINT, Budget
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
-from ..sweep.schedule import CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds, sensitivity_seconds
+from ..sweep.schedule import CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds
 from ..sweep.warm_tree import warm_tree
 from .progress import duration, plural
 from .tables import print_burner, print_gases, print_points
@@ -136,21 +137,12 @@ def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[
                       f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep: "
                       f"about {duration(t)} (measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with "
                       "GRI-Mech 3.0); stored ladders are not solved again", t))
-    u = study.uncertainty
-    if u is not None and u.kinetics:
-        n_reactions = len(study.facts.reaction_equations) if study.facts else 0
-        t = n_todo * sensitivity_seconds(n_sp, n_reactions, study.resolution) / jobs
-        lines.append((f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
-                      f"{n_todo} adjoint solves after the sweep, each the stored flame solved again on its grid): about "
-                      f"{duration(t)} (measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0); stored "
-                      "ones are not solved again, and changing a factor solves nothing", t))
-    fr = study.flame_response
-    if fr is not None and fr.zeldovich:
-        t = 2 * n_todo * secs["warm"] / jobs
-        lines.append((f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-                      f"burning point (up to {2 * n_todo} flames, the inert moved {fr.inert_step:g} either way, "
-                      f"warm-started from the point's stored flame after the sweep): about {duration(t)}; pairs already "
-                      "stored are not solved again", t))
+    budget = Budget(points_to_solve=n_todo, workers=jobs, warm_flame_s=secs["warm"], species=n_sp,
+                    reactions=len(study.facts.reaction_equations) if study.facts else 0)
+    for analysis in PER_POINT:
+        if analysis.wanted(study):
+            what, t, note = analysis.estimate(study, budget)
+            lines.append((f"{what}: about {duration(t)}; {note}", t))
     return lines
 
 

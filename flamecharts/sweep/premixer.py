@@ -69,10 +69,11 @@ def read_delays(metrics: dict | None, horizon_s: float) -> dict | None:
             "premixer_horizon_s": horizon_s}
 
 
-def solve_premixer(study: Study, store: Store, pts: list[Point], backend: Backend,
+def solve_premixer(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
                    progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Integrate the delays of every point of ``pts`` whose row the store lacks, or holds over a
-    horizon too short for the study's. Returns (points done, their summed seconds)."""
+    horizon too short for the study's (every point, whatever its flame: ``stored`` is not needed).
+    Returns (points done, their summed seconds)."""
     horizon = horizon_of(study)
     if horizon is None:
         return 0, 0.0
