@@ -6,4 +6,5 @@ indicators      flashback, blowoff and quenching indicators from S_L and alpha_u
 gasprops        ISO 6976:2016 heating values, relative density, Wobbe index
 fits            power-law fits (Metghalchi & Keck)
 limits          mechanism pressure ranges, flammability limits (range warnings)
+emissions       dry basis, reference O2, mg/m3 and mg/kWh, residence time along a flame
 """
