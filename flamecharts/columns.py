@@ -179,6 +179,25 @@ UNITS: dict[str, tuple[str, str]] = {
     "evaluated_at": ("", "where the search asked for flames, in order"),
     "note": ("", "how the search ended: edges not settled, failing intervals searched without a window, "
                  "the Wobbe band"),
+    "residence_time_ms": ("ms", "burned-gas residence time after the flame's peak heat release"),
+    "emissions_residence_time_ms": ("ms", "the design residence time the emission columns are read at"),
+    "burned_gas_temperature_K": ("K", "temperature of the burned gas at the residence time"),
+    "burned_gas_dry_o2_percent": ("%", "O2 of the dry burned gas at the residence time"),
+    "beyond_flame_domain": ("", "true where the time lies beyond the flame's domain (adiabatic plug flow)"),
+    "no_ppmvd_at_reference_o2": ("ppm", "NO, by volume of dry gas at the study's reference O2"),
+    "no2_ppmvd_at_reference_o2": ("ppm", "NO2, by volume of dry gas at the study's reference O2"),
+    "nox_ppmvd_at_reference_o2": ("ppm", "NOx (NO + NO2), by volume of dry gas at the study's reference O2"),
+    "n2o_ppmvd_at_reference_o2": ("ppm", "N2O, by volume of dry gas at the study's reference O2"),
+    "co_ppmvd_at_reference_o2": ("ppm", "CO, by volume of dry gas at the study's reference O2"),
+    "unburned_fuel_ppmvd_at_reference_o2": ("ppm", "unburned fuel species, by volume of dry gas at the study's "
+                                                   "reference O2"),
+    "flame_zone_no_ppmvd_at_reference_o2": ("ppm", "NO where the flame's temperature rise is 95 % complete, dry at "
+                                                   "the reference O2 (with the burned gas's O2 and water)"),
+    "equilibrium_no_ppmvd_at_reference_o2": ("ppm", "NO of the burned state's HP equilibrium, dry at the reference "
+                                                    "O2 (the limit of a long residence time)"),
+    "nox_mg_kwh": ("mg/kWh", "NOx counted as NO2 per kWh of fuel heat input (the study's heating-value basis)"),
+    "co_mg_kwh": ("mg/kWh", "CO per kWh of fuel heat input (the study's heating-value basis)"),
+    "emissions_note": ("", "why a burning point has no emission values"),
 }
 
 INDICATOR_COLUMNS = (
@@ -200,6 +219,19 @@ BURNER_COLUMNS = (
 #: Premixer autoignition columns (empty unless the study has a [premixer] table).
 PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignition_delay_ms",
                     "injection_equivalence_ratio", "injection_autoignition_margin", "autoignition_verdict")
+#: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
+EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
+                    "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
+                    "n2o_ppmvd_at_reference_o2", "co_ppmvd_at_reference_o2", "unburned_fuel_ppmvd_at_reference_o2",
+                    "flame_zone_no_ppmvd_at_reference_o2", "equilibrium_no_ppmvd_at_reference_o2", "nox_mg_kwh",
+                    "co_mg_kwh", "emissions_note")
+#: emissions.csv: every residence time of every burning point ([emissions]), in this order.
+EMISSIONS_TABLE_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+                           "unburned_temperature_K", "residence_time_ms", "beyond_flame_domain",
+                           "burned_gas_temperature_K", "burned_gas_dry_o2_percent", "nox_ppmvd_at_reference_o2",
+                           "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2", "n2o_ppmvd_at_reference_o2",
+                           "co_ppmvd_at_reference_o2", "unburned_fuel_ppmvd_at_reference_o2", "nox_mg_kwh",
+                           "co_mg_kwh", "mechanism")
 #: Numerical error of every flame (physics.grid_error), right after its grid points.
 #: (Richardson's extrapolated S_L is stored with each flame but not a column: on the benchmark's
 #: grid-converged flames it was further off than the flame's own value, docs/benchmarks.md.)
@@ -225,14 +257,15 @@ STRETCH_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivale
                    "consumption_speeds_m_s", "message", "mechanism")
 
 #: results.csv, one row per point, in this order.
-COLUMNS = (
+COLUMNS = ((
     "fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
     "unburned_temperature_K", "status", "laminar_flame_speed_m_s", "thermal_thickness_mm",
     "diffusive_thickness_mm", "reaction_zone_thickness_mm", "adiabatic_flame_temperature_K",
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + ("warnings",)
+) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + EMISSION_COLUMNS
+  + ("warnings",))
 
 #: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference
 #: mechanism and another, one row per other mechanism (design.mechanism_differences).

@@ -58,7 +58,7 @@ MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty")
+            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty", "emissions")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "stabilizer_blockage", "min_stabilizer_margin", "layout")
@@ -84,6 +84,16 @@ DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
+EMISSIONS_KEYS = ("residence_times_ms", "design_residence_time_ms", "reference_oxygen_percent", "heating_value",
+                  "specific")
+#: Burned-gas residence times of [emissions] when the table gives none [ms] (gas-turbine combustors
+#: hold their burned gas some 5-30 ms, appliances less; from memory), and the most it takes.
+DEFAULT_RESIDENCE_TIMES_MS = (2.0, 5.0, 10.0, 20.0, 50.0)
+DEFAULT_DESIGN_RESIDENCE_TIME_MS = 20.0
+MAX_RESIDENCE_TIMES = 12
+#: O2 in dry air [%] (the reference-O2 correction's, physics.emissions).
+AIR_O2_PERCENT = 20.9
+HEATING_VALUE_BASES = ("gross", "net")
 UNCERTAINTY_KEYS = ("kinetics", "factors", "default_factor", "factor_sigmas", "error_bars")
 #: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
 STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
@@ -226,6 +236,21 @@ class Stretch:
 
 
 @dataclass(frozen=True)
+class Emissions:
+    """The [emissions] request: NO, NO2, N2O, CO and unburned fuel of every burning flame's
+    burned gas after ``residence_times_s`` from its peak heat release (chemistry.emissions), dry
+    and corrected to ``reference_oxygen_percent``, and in mg/kWh of the fuel's heat input on the
+    ``heating_value`` basis ('gross' or 'net'). ``design_residence_time_s`` (one of the times) is
+    the one results.csv, the charts and the sentences use."""
+
+    residence_times_s: tuple[float, ...]
+    design_residence_time_s: float
+    reference_oxygen_percent: float = 15.0
+    heating_value: str = "gross"
+    specific: bool = True   # report mg/kWh
+
+
+@dataclass(frozen=True)
 class GasQuality:
     """Reference state of the fuel-gas properties and the allowed Wobbe band."""
 
@@ -291,6 +316,7 @@ class Study:
     flame_response: FlameResponse | None = None
     stretch: Stretch | None = None
     uncertainty: Uncertainty | None = None
+    emissions: Emissions | None = None
     #: Several mechanisms to compare (the first is the one above); () when the study has one.
     mechanisms: tuple[MechanismChoice, ...] = ()
     #: What the read side needs of the mechanism above (kept with a run: facts.MechanismFacts).
@@ -587,6 +613,46 @@ def _premixer(t: Any) -> Premixer:
         raise ConfigError(f"'premixer.min_autoignition_margin' is {m:g}; allowed: 1 or more (ignition delay over "
                           "residence time: below 1 the mixture ignites inside the premixer)")
     return Premixer(residence_time_s=tau, **({} if m is None else {"min_autoignition_margin": m}))
+
+
+def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emissions:
+    """The [emissions] table: refused on a mechanism without nitrogen chemistry and without
+    stored profiles (the burned gas is read from each flame's profile)."""
+    if not isinstance(t, dict):
+        raise ConfigError("'emissions' must be a table")
+    _check_keys(t, EMISSIONS_KEYS, "emissions.")
+    lacking = [m.name for m in mechs if not m.nitrogen_chemistry]
+    if lacking:
+        raise ConfigError(f"[emissions] needs a mechanism that forms NO from N2, and {lacking[0]} has no nitrogen "
+                          "chemistry; use e.g. gri30.yaml (methane, hydrogen, ethane, propane) or "
+                          "example_data/ammonia-CO-H2-Alzueta-2023.yaml (hydrogen, ammonia)")
+    if not keep_profiles:
+        raise ConfigError("[emissions] reads each flame's burned gas from its stored profile, and keep_profiles = "
+                          "false stores none; remove one of the two")
+    times = tuple(sorted(set(_axis(t.get("residence_times_ms", list(DEFAULT_RESIDENCE_TIMES_MS)),
+                                   "emissions.residence_times_ms"))))
+    if len(times) > MAX_RESIDENCE_TIMES or times[0] <= 0 or times[-1] > 10000:
+        raise ConfigError(f"'emissions.residence_times_ms' must list 1 to {MAX_RESIDENCE_TIMES} times above 0 and up "
+                          "to 10,000 ms (milliseconds after the flame's peak heat release), e.g. [5, 20, 50]")
+    design = _number(t["design_residence_time_ms"], "emissions.design_residence_time_ms") if \
+        "design_residence_time_ms" in t else (DEFAULT_DESIGN_RESIDENCE_TIME_MS if DEFAULT_DESIGN_RESIDENCE_TIME_MS in times
+                                              else times[-1])
+    if design not in times:
+        raise ConfigError(f"'emissions.design_residence_time_ms' is {design:g}; allowed: one of residence_times_ms "
+                          f"({', '.join(f'{v:g}' for v in times)})")
+    ref = _number(t.get("reference_oxygen_percent", 15.0), "emissions.reference_oxygen_percent")
+    if not 0.0 <= ref < AIR_O2_PERCENT:
+        raise ConfigError(f"'emissions.reference_oxygen_percent' is {ref:g}; allowed: 0 to below {AIR_O2_PERCENT:g} "
+                          "(dry O2 the concentrations are corrected to: 15 for gas turbines, 3 or 0 for appliances)")
+    basis = _string(t.get("heating_value", "gross"), "emissions.heating_value")
+    if basis not in HEATING_VALUE_BASES:
+        raise ConfigError(f"'emissions.heating_value' is {basis!r}{_suggest(basis, HEATING_VALUE_BASES)} (the heat "
+                          "input of mg/kWh: gross = higher heating value, as appliance NOx classes use)")
+    specific = t.get("specific", True)
+    if not isinstance(specific, bool):
+        raise ConfigError(f"'emissions.specific' must be true or false, got {show(specific)}")
+    return Emissions(residence_times_s=tuple(v * 1e-3 for v in times), design_residence_time_s=design * 1e-3,
+                     reference_oxygen_percent=ref, heating_value=basis, specific=specific)
 
 
 def _flame_response(t: Any) -> FlameResponse:
@@ -965,8 +1031,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     n_points = (len(sweep_fuels) * len(sweep_oxidizers) * len(fractions) * len(phis) * len(pressures)
                 * len(temperatures) * len(mechanism_list))
     if n_points > max_points:  # before the mechanism is loaded: a runaway sweep is refused at once
-        raise ConfigError(f"the sweep has {n_points} points, more than 'max_points' = {max_points}; "
-                          "raise 'max_points' if you mean it")
+        raise ConfigError(f"the sweep has {n_points} points, more than 'max_points' = {max_points}; raise 'max_points' "
+                          "if you mean it")
     choices = _mechanisms(mechanism_list, lambda m: (saved_facts or {}).get(m) or live_facts(m, base_dir, transport),
                           lambda atoms, path: _check_species(fuels, oxidizers, sweep_fuels, sweep_oxidizers,
                                                              blend_with, atoms, path))
@@ -974,7 +1040,6 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     for m in choices:
         _check_mixtures(fuels, oxidizers, sweep_fuels, sweep_oxidizers, blend_with, fractions, phis,
                         {**m.analysis_atoms, **m.atoms})
-
     axes = {"fuel": sweep_fuels, "oxidizer": sweep_oxidizers, "blend_fraction": fractions,
             "equivalence_ratio": phis, "pressure_bar": pressures, "unburned_temperature_K": temperatures}
     study = Study(
@@ -988,7 +1053,9 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
         keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
         uncertainty=_uncertainty(data["uncertainty"], [m.facts for m in choices])
-        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else (), facts=first.facts)
+        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else (), facts=first.facts,
+        emissions=_emissions(data["emissions"], [m.facts for m in choices], keep_profiles) if "emissions" in data
+        else None)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

@@ -31,12 +31,14 @@ class MechanismFacts:
     molar_masses_kg_kmol: dict[str, float] = field(repr=False)
     reaction_equations: tuple[str, ...] = field(repr=False)
     heating_fallback: dict[int, dict[str, tuple[float, float, float] | str]] = field(repr=False)
+    nitrogen_chemistry: bool = False   # NO formed from N2 (chemistry.emissions.has_nitrogen_chemistry)
 
     def to_json(self) -> dict:
         """Plain JSON data (:meth:`from_json` reads it back)."""
         return {"name": self.name, "path": self.path, "sha256": self.sha256, "atoms": self.atoms,
                 "molar_masses_kg_kmol": self.molar_masses_kg_kmol, "reaction_equations": list(self.reaction_equations),
-                "heating_fallback": {str(t): v for t, v in self.heating_fallback.items()}}
+                "heating_fallback": {str(t): v for t, v in self.heating_fallback.items()},
+                "nitrogen_chemistry": self.nitrogen_chemistry}
 
     @classmethod
     def from_json(cls, data: dict) -> MechanismFacts:
@@ -47,7 +49,8 @@ class MechanismFacts:
                    reaction_equations=tuple(data["reaction_equations"]),
                    heating_fallback={int(t): {sp: v if isinstance(v, str) else (float(v[0]), float(v[1]), float(v[2]))
                                               for sp, v in by_sp.items()}
-                                     for t, by_sp in data["heating_fallback"].items()})
+                                     for t, by_sp in data["heating_fallback"].items()},
+                   nitrogen_chemistry=bool(data.get("nitrogen_chemistry", False)))
 
     def fallback(self, species: list[str], combustion_T_C: int) -> dict[str, tuple[float, float, float]]:
         """Heating data of ``species`` at a combustion temperature (ValueError naming the first

@@ -27,7 +27,7 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, FROM_METRICS, UNITS
+from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, EMISSIONS_TABLE_COLUMNS, FROM_METRICS, UNITS
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
@@ -62,7 +62,8 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
         row[col] = None if v is None else v * scale
     row["grid_convergence"] = metrics.get("grid_convergence", "")
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
-                 "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities"):
+                 "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
+                 "emissions_message"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -127,6 +128,15 @@ def sensitivity_rows(rows: list[dict]) -> list[dict]:
                                              "pressure_bar", "unburned_temperature_K")}, "rank": rank, **t,
                         "mechanism": r["mechanism"]})
     return out
+
+
+def emission_rows(rows: list[dict]) -> list[dict]:
+    """emissions.csv: every residence time of every burning point with emissions
+    (design.emission_columns), one row each (columns.EMISSIONS_TABLE_COLUMNS)."""
+    keys = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
+            "unburned_temperature_K")
+    return [{**{a: r[a] for a in keys}, **e, "mechanism": r["mechanism"]}
+            for r in rows for e in r.get("emissions_by_time") or ()]
 
 
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
@@ -240,6 +250,34 @@ def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Datase
     return one
 
 
+#: emissions.csv's quantities that get a residence-time dimension in the dataset.
+BY_TIME = tuple(c for c in EMISSIONS_TABLE_COLUMNS if c not in AXES + ("blend_with", "mechanism", "residence_time_ms",
+                                                                      "beyond_flame_domain"))
+
+
+def _emissions_by_time(study: Study, rows: list[dict], shape: tuple[int, ...]) -> dict[str, xr.DataArray]:
+    """[emissions]: each quantity of BY_TIME over the sweep axes and ``residence_time_ms``
+    (``<column>_by_time``), NaN where a point has none; the reference O2 and heating-value
+    basis in the attributes."""
+    em = study.emissions
+    assert em is not None  # asked only with [emissions]
+    times = [1e3 * t for t in em.residence_times_s]
+    out = {}
+    for col in BY_TIME:
+        arr = np.full((len(rows), len(times)), np.nan)
+        for i, r in enumerate(rows):
+            for j, e in enumerate(r.get("emissions_by_time") or ()):
+                arr[i, j] = np.nan if e.get(col) is None else float(e[col])
+        unit, long_name = UNITS[col]
+        out[f"{col}_by_time"] = xr.DataArray(
+            arr.reshape(shape + (len(times),)), dims=AXES + ("residence_time_ms",),
+            coords={"residence_time_ms": ("residence_time_ms", np.array(times),
+                                          {"units": "ms", "long_name": UNITS["residence_time_ms"][1]})},
+            attrs={"units": unit, "long_name": long_name, "reference_oxygen_percent": em.reference_oxygen_percent,
+                   "heating_value_basis": em.heating_value})
+    return out
+
+
 def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     """:func:`to_dataset` of a one-mechanism study."""
     coords = _axis_values(study)
@@ -264,6 +302,8 @@ def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     for a in AXES:
         unit, long_name = UNITS[a]
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
+    if study.emissions is not None:
+        ds = ds.assign(_emissions_by_time(study, rows, shape))
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
                      **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
@@ -443,3 +483,32 @@ class Results:
         for r in self.rows:
             out[r["status"]] = out.get(r["status"], 0) + 1
         return out
+
+
+def emission_sentences(study: Study, rows: list[dict], most_phis: int = 4) -> list[str]:
+    """One plain sentence per blended gas and condition ([emissions] with a blend axis): its NOx
+    after the design residence time against the unblended gas's at equal equivalence ratio, at
+    up to ``most_phis`` equivalence ratios where both burn. [] without [emissions] or blends."""
+    em = study.emissions
+    if em is None or not study.blend_with:
+        return []
+    nox = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"], r["unburned_temperature_K"],
+            r["equivalence_ratio"]): r["nox_ppmvd_at_reference_o2"] for r in rows
+           if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None}
+    out = []
+    for fuel, ox, frac, P, T in dict.fromkeys(k[:5] for k in nox if k[2] > 0):
+        pairs = [(phi, nox[(fuel, ox, 0.0, P, T, phi)], v) for (f, o, b, p, t, phi), v in nox.items()
+                 if (f, o, b, p, t) == (fuel, ox, frac, P, T) and (fuel, ox, 0.0, P, T, phi) in nox]
+        if not pairs:
+            continue
+        pairs.sort()
+        shown = [pairs[round(i * (len(pairs) - 1) / (most_phis - 1))] for i in range(most_phis)] \
+            if len(pairs) > most_phis else pairs
+        shown = list(dict.fromkeys(shown))
+        parts = [f"{'rises' if b > a else 'falls' if b < a else 'stays'} from {a:.3g} to {b:.3g} ppm at φ {phi:g}"
+                 for phi, a, b in shown]
+        out.append(f"With {100 * frac:g} % {study.blend_with} in {fuel}"
+                   + (f" (in {ox})" if len(study.sweep_oxidizers) > 1 else "")
+                   + f" at {P:g} bar and {T:g} K, NOx at {em.reference_oxygen_percent:g} % O2 (dry) after "
+                   f"{1e3 * em.design_residence_time_s:g} ms " + ", ".join(parts) + " (equal φ).")
+    return out

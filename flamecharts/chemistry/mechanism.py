@@ -27,6 +27,7 @@ import cantera as ct
 from ..errors import MechanismError, first_line
 from ..facts import MechanismFacts
 from ..physics.gasprops import L_WATER, P_ISO
+from .emissions import has_nitrogen_chemistry
 
 #: A mechanism that names another file's species, reactions or phases (``other.yaml/species``).
 _FILE_REFERENCE = re.compile(r"[\w./\\-]+\.ya?ml/\w+")
@@ -209,4 +210,5 @@ def mechanism_facts(name: str, path: str, sha256: str) -> MechanismFacts:
     return MechanismFacts(name=name, path=str(path), sha256=sha256,
                           atoms={sp.name: dict(sp.composition) for sp in gas.species()},
                           molar_masses_kg_kmol=dict(zip(gas.species_names, map(float, gas.molecular_weights))),
-                          reaction_equations=reaction_equations(path), heating_fallback=fallback)
+                          reaction_equations=reaction_equations(path), heating_fallback=fallback,
+                          nitrogen_chemistry=has_nitrogen_chemistry(gas))

@@ -14,7 +14,7 @@ from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
 from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences, not_assessed_summary
 from ..outcome import Status
 from ..pipeline import RunSummary, default_out_dir, run
-from ..results import comparison_of, mechanism_dataset, rows_of
+from ..results import comparison_of, emission_sentences, mechanism_dataset, rows_of
 from ..sweep.run import RunInterrupted
 from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points, print_premixer
@@ -95,6 +95,7 @@ def cmd_run(args: argparse.Namespace) -> int:
         print_margins(sub, mechanism_dataset(results.dataset, sub.mechanism))
         print_premixer(sub, rows)
         _print_error_bars(sub, rows)
+        _print_emissions(sub, rows)
     _print_limits(study, summary)
     _print_stretch(summary, len(subs) > 1)
     _print_mechanisms(study, summary.rows)
@@ -102,6 +103,7 @@ def cmd_run(args: argparse.Namespace) -> int:
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
           + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "")
           + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "")
+          + (f"; emissions: {out / 'emissions.csv'}" if (out / 'emissions.csv').is_file() else "")
           + (f"; mechanisms compared: {out / 'mechanism_comparison.csv'}" if study.mechanisms else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
@@ -141,6 +143,28 @@ def _print_stretch(summary: RunSummary, by_mechanism: bool = False) -> None:
         ma, margin = r["markstein_number_strain"], r["extinction_strain_margin"]
         print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else "")
               + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
+
+
+def _print_emissions(study: Study, rows: list[dict]) -> None:
+    """[emissions]: the range of NOx and CO at the design residence time, and one sentence per
+    blended gas and condition (results.emission_sentences)."""
+    em = study.emissions
+    if em is None:
+        return
+    have = [r for r in rows if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None]
+    if not have:
+        print("Emissions: none computed (see the column emissions_note in results.csv)")
+        return
+    nox = [r["nox_ppmvd_at_reference_o2"] for r in have]
+    co = [r["co_ppmvd_at_reference_o2"] for r in have if r["co_ppmvd_at_reference_o2"] is not None]
+    print(f"Emissions after {1e3 * em.design_residence_time_s:g} ms (dry, at {em.reference_oxygen_percent:g} % O2; "
+          f"laminar flame and plug flow, a screening estimate): NOx {min(nox):.3g}-{max(nox):.3g} ppm"
+          + (f", CO {min(co):.3g}-{max(co):.3g} ppm" if co else "") + f" over {plural(len(have), 'flame')}")
+    lines = emission_sentences(study, rows)
+    for line in lines[:20]:
+        print("  " + line.replace("φ", "phi"))
+    if len(lines) > 20:
+        print(f"  ... and {len(lines) - 20} more (report.html, emissions.csv)")
 
 
 def _print_error_bars(study: Study, rows: list[dict]) -> None:

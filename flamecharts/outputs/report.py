@@ -33,8 +33,8 @@ from ..design import (
 )
 from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
-from ..physics.limits import ignition_check, mechanism_scope
-from ..results import margin_summary, premixer_summary, to_dataset
+from ..physics.limits import ignition_check, mechanism_scope, nox_scope
+from ..results import emission_sentences, margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .charts.registry import not_drawn
 from .tables import uncertainty_settings, write_atomic
@@ -342,6 +342,46 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
                      _injection_cell(s), f"{s['points'] - s['risky_points']} of {s['points']}",
                      "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more]
+
+
+def _emissions_section(study: Study, rows: list[dict]) -> list[str]:
+    """[emissions]: how they are computed and reported, one sentence per blended gas and condition,
+    and the design-time values of every burning point (emissions.csv has every time)."""
+    em = study.emissions
+    if em is None:
+        return []
+    t, ref = 1e3 * em.design_residence_time_s, em.reference_oxygen_percent
+    have = [r for r in rows if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None]
+    missing = [r for r in rows if r["status"] == "ok" and r.get("emissions_note")]
+    table, more = _first(have, "results.csv and emissions.csv")
+    basis = "gross (higher)" if em.heating_value == "gross" else "net (lower)"
+    parts = ["<h2 id='emissions'>Emissions</h2>",
+             f"<p>The burned gas of each burning flame after {', '.join(f'{1e3 * v:g}' for v in em.residence_times_s)} "
+             f"ms from its peak heat release: read from the flame's own profile while the time lies inside its "
+             f"domain, then an adiabatic constant-pressure plug flow on the same mechanism (Cantera's reactor). "
+             f"Concentrations are ppm by volume of the dry gas corrected to {ref:g} % O2 (X (20.9 − {ref:g}) / "
+             f"(20.9 − O2), US EPA Method 19's form); NOx is NO + NO2, counted as NO2 for mass; mg/kWh are per kWh of "
+             f"the fuel gas's heat input on its {basis} heating value (EU gas appliances are limited on the gross "
+             f"value, Regulation 813/2013). The tables and charts read {t:g} ms. "
+             f"Mechanism: {_e(nox_scope(study.mechanism))}. A laminar flame with a plug flow has no unmixedness, "
+             "recirculation or heat loss, which set a real combustor's NOx: compare blends and settings with these "
+             "numbers, and confirm absolute values by measurement.</p>"]
+    sentences = emission_sentences(study, rows)
+    if sentences:
+        parts.append("<ul>" + "".join(f"<li>{_e(x)}</li>" for x in sentences) + "</ul>")
+    if missing:
+        parts.append(f"<p>{len(missing)} burning point(s) have no emissions: {_e(missing[0]['emissions_note'])}.</p>")
+
+    def num(v) -> str:
+        return "" if v is None else f"{v:,.0f}" if abs(v) >= 1000 else f"{v:.3g}"
+    parts.append(more + _table(["gas", "φ", "p [bar]", "T_u [K]", f"NOx [ppm @{ref:g} % O2]", "CO [ppm]",
+                                "flame-zone NO [ppm]", "equilibrium NO [ppm]", "NOx [mg/kWh]", "CO [mg/kWh]"],
+                               [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                                 f"{r['unburned_temperature_K']:g}", num(r["nox_ppmvd_at_reference_o2"]),
+                                 num(r["co_ppmvd_at_reference_o2"]), num(r["flame_zone_no_ppmvd_at_reference_o2"]),
+                                 num(r["equilibrium_no_ppmvd_at_reference_o2"]), num(r["nox_mg_kwh"]),
+                                 num(r["co_mg_kwh"])] for r in table], set(range(1, 10))))
+    return parts
 
 
 def _injection_cell(s: dict) -> str:
@@ -668,6 +708,7 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
     parts += _stretch_section(study, stretch)
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
+    parts += _emissions_section(study, rows)
 
     parts += _charts_section(out_dir)
 

@@ -6,10 +6,17 @@ from typing import TYPE_CHECKING
 
 import xarray as xr
 
-from ..columns import COMPARISON_COLUMNS, GAS_TABLE_COLUMNS, LIMIT_COLUMNS, SENSITIVITY_COLUMNS, STRETCH_COLUMNS
+from ..columns import (
+    COMPARISON_COLUMNS,
+    EMISSIONS_TABLE_COLUMNS,
+    GAS_TABLE_COLUMNS,
+    LIMIT_COLUMNS,
+    SENSITIVITY_COLUMNS,
+    STRETCH_COLUMNS,
+)
 from ..config import by_mechanism
 from ..design import fuel_gas_table, mechanism_differences
-from ..results import comparison_of, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
+from ..results import comparison_of, emission_rows, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
 from .charts import CAPTIONS, draw_all
 from .netcdf import write_netcdf
 from .report import write_report
@@ -26,7 +33,8 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
     rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]),
-    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty].
+    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty];
+    emissions.csv with [emissions] (every residence time of every burning point).
 
     A study comparing mechanisms writes every mechanism's rows to the tables; the design
     charts and the report's design sections read the reference (first) mechanism, and the
@@ -44,6 +52,8 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
         files.append(write_csv(limits, out / "limits.csv", LIMIT_COLUMNS))
     if stretch:
         files.append(write_csv(stretch, out / "stretch.csv", STRETCH_COLUMNS))
+    if emissions := emission_rows(rows):
+        files.append(write_csv(emissions, out / "emissions.csv", EMISSIONS_TABLE_COLUMNS))
     sensitivities = sensitivity_rows(rows)
     if sensitivities:
         files.append(write_csv(sensitivities, out / "sensitivities.csv", SENSITIVITY_COLUMNS))
@@ -63,7 +73,7 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
 
 #: Tables a run writes only when the study asks for them.
 OPTIONAL_TABLES = ("power_law_exponents.csv", "limits.csv", "stretch.csv", "sensitivities.csv",
-                   "mechanism_comparison.csv")
+                   "mechanism_comparison.csv", "emissions.csv")
 
 
 def remove_stale(out: Path, written: list[Path], charts: bool) -> list[Path]:

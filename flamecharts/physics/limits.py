@@ -108,6 +108,29 @@ def ignition_check(mechanism: str) -> str:
                                      "flamecharts: check what its authors validated it for")
 
 
+#: How far a mechanism's nitrogen chemistry was checked against NO data (for [emissions]).
+NOX_SCOPE = {
+    "gri30.yaml": "GRI-Mech 3.0's nitrogen chemistry (thermal, prompt, N2O and NNH routes) was optimised together "
+                  "with the rest against flame and reactor NO data up to about 10 atm (GRI-Mech 3.0 web "
+                  "documentation; from memory); above that, and for NO2 and N2O, read its NOx as indicative",
+    "ammonia-CO-H2-Alzueta-2023.yaml": "built for ammonia, CO and hydrogen oxidation and the NO they form, from "
+                                       "flow-reactor work near 1 bar (from memory); thermal NO of hydrocarbon "
+                                       "flames is outside it",
+}
+
+
+def nox_scope(mechanism: str) -> str:
+    """What the mechanism's NOx chemistry was checked against, or a line saying it is not in the table.
+
+    >>> nox_scope("gri30.yaml")[:40]
+    "GRI-Mech 3.0's nitrogen chemistry (therm"
+    >>> nox_scope("my.yaml").startswith("not in flamecharts")
+    True
+    """
+    return NOX_SCOPE.get(_file_name(mechanism), "not in flamecharts' table: check what its authors validated its "
+                                                "NO chemistry against before reading its NOx")
+
+
 def mechanism_scope(mechanism: str) -> str:
     """What the mechanism was built and validated for, or a line saying it is not in the table.
 

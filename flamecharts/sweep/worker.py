@@ -17,6 +17,7 @@ import time
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+from ..chemistry.emissions import burned_gas_history
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
 from ..chemistry.mechanism import solution, viscosity
@@ -33,7 +34,7 @@ if TYPE_CHECKING:
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
-               "chemistry/strained.py", "chemistry/sensitivity.py",
+               "chemistry/strained.py", "chemistry/sensitivity.py", "chemistry/emissions.py", "physics/emissions.py",
                "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
 
 
@@ -141,6 +142,25 @@ def sensitivity_task(task: dict) -> dict:
                                       task["thermal_diffusion"], task["warm"], NUMERICS[task["resolution"]])
         status, reason, message = "ok", "", ""
     except Exception as exc:  # noqa: BLE001 - recorded with its reason; the next run tries again
+        m, status, reason = None, "failed", "not converged"
+        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
+            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
+            "cpu_seconds": time.process_time() - cpu0}
+
+
+def emissions_task(task: dict) -> dict:
+    """The burned gas of a stored flame after the study's residence times
+    (chemistry.emissions.burned_gas_history, from the peak heat release), as plain lists; a
+    plain result dict in the store's form (runs in a worker)."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+    gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
+    try:
+        h = burned_gas_history(task["profile"], gas, task["times_s"])
+        m: dict | None = {k: (v.tolist() if hasattr(v, "tolist") else
+                              {s: x.tolist() for s, x in v.items()} if isinstance(v, dict) else v) for k, v in h.items()}
+        status, reason, message = "ok", "", ""
+    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says why
         m, status, reason = None, "failed", "not converged"
         message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
     return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
