@@ -39,6 +39,7 @@ FILES = {
     "limits.csv": ("with [limits]", "one row per admissible window of every limit search ([below](#limitscsv))"),
     "stretch.csv": ("with [stretch]", "one row per strained-flame ladder ([below](#stretchcsv))"),
     "sensitivities.csv": ("with [uncertainty]", "each point's largest flame-speed sensitivities ([below](#sensitivitiescsv))"),
+    "emissions.csv": ("with [emissions]", "every residence time of every burning point ([below](#emissionscsv))"),
     "mechanism_comparison.csv": ("with several mechanisms",
                                  "each point under each other mechanism against the reference "
                                  "([below](#mechanism_comparisoncsv))"),
@@ -63,6 +64,7 @@ GROUPS = {
     "GAS_COLUMNS": ("Fuel gas", "every point: the ISO 6976 properties of its fuel gas"),
     "BURNER_COLUMNS": ("Burner", "empty unless the study has a [burner]"),
     "PREMIXER_COLUMNS": ("Premixer", "empty unless the study has a [premixer]"),
+    "EMISSION_COLUMNS": ("Emissions", "empty unless the study has [emissions]: the design residence time's values"),
 }
 #: The columns that belong to no group, in the chunks they come in (the numerical error sits between two).
 BASE = [("The point and its flame", "every point; the flame quantities blank where it did not burn"),
@@ -75,6 +77,7 @@ TABLES = {
     "stretch.csv": "STRETCH_COLUMNS",
     "sensitivities.csv": "SENSITIVITY_COLUMNS",
     "mechanism_comparison.csv": "COMPARISON_COLUMNS",
+    "emissions.csv": "EMISSIONS_TABLE_COLUMNS",
     "fuel_gases.csv": "GAS_TABLE_COLUMNS",
 }
 
@@ -101,6 +104,8 @@ WHEN = {
     "has_limits": "[limits]",
     "has_stretch": "[stretch]",
     "has_sensitivities": "[uncertainty]",
+    "has_emissions": "[emissions], a burning point with emissions",
+    "several_blends_with_emissions": "[emissions] and several blend fractions",
     "compares_flames": "several mechanisms",
     "compares_limits": "several mechanisms and [limits]",
 }
@@ -192,6 +197,7 @@ def render() -> str:
                                      "how to read it: [Admissible limits](limits.md).",
                        "stretch.csv": "One row per strained-flame ladder.",
                        "sensitivities.csv": "The largest sensitivities of each burning point, one row per reaction.",
+                       "emissions.csv": "The burned gas of each burning point at every residence time of [emissions].",
                        "mechanism_comparison.csv": "Each point burning under the reference and another mechanism, one "
                                                    "row per other mechanism."}[name]
         out += ["", f"## {name}", "", anchor_note, "", *column_table(cols)]

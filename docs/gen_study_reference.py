@@ -37,6 +37,7 @@ MINIMAL = {
     "flame_response": {},
     "stretch": {"equivalence_ratio": [1.0]},
     "uncertainty": {},
+    "emissions": {},
 }
 
 
@@ -44,7 +45,8 @@ def defaults() -> SimpleNamespace:
     """The validated minimal study and its tables."""
     s = C.study_from_dict(MINIMAL, name="my_study")
     return SimpleNamespace(study=s, burner=s.burner, gas=s.gas_quality, limits=s.limits, premixer=s.premixer,
-                           response=s.flame_response, uncertainty=s.uncertainty, indicators=s.indicator_settings)
+                           response=s.flame_response, uncertainty=s.uncertainty, indicators=s.indicator_settings,
+                           emissions=s.emissions)
 
 
 def toml(v: Any) -> str:
@@ -266,6 +268,23 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "blend_fraction": Key("swept values", "all swept", "blend fractions that get a ladder"),
             "pressure_bar": Key("swept values [bar]", "all swept", "pressures that get a ladder"),
             "unburned_temperature_K": Key("swept values [K]", "all swept", "preheat temperatures that get a ladder"),
+        }),
+        ("emissions", "[emissions]", C.EMISSIONS_KEYS, (
+            "NO, NO2, N2O, CO and unburned fuel of every burning flame's burned gas after stated residence times from "
+            "its peak heat release (the flame's own profile, then an adiabatic plug flow), dry at a reference O2 and "
+            "in mg/kWh. Needs a mechanism with nitrogen chemistry (e.g. gri30.yaml) and the stored profiles."), {
+            "residence_times_ms": Key(f"1 to {C.MAX_RESIDENCE_TIMES} numbers above 0, at most 10000 [ms]",
+                                      code(lambda d: [round(1e3 * t, 9) for t in d.emissions.residence_times_s]),
+                                      "times after the peak heat release the burned gas is read at"),
+            "design_residence_time_ms": Key("one of residence_times_ms [ms]", "20 if listed, else the longest",
+                                            "the time results.csv, the charts and the sentences read"),
+            "reference_oxygen_percent": Key("a number, 0 to below 20.9 [%]",
+                                            code(lambda d: d.emissions.reference_oxygen_percent),
+                                            "dry O2 the ppm are corrected to: 15 for gas turbines, 3 or 0 for "
+                                            "appliances"),
+            "heating_value": Key('`"gross"` or `"net"`', code(lambda d: d.emissions.heating_value),
+                                 "heat input of mg/kWh: gross (higher) as EU appliance NOx classes use, or net"),
+            "specific": Key("`true` or `false`", code(lambda d: d.emissions.specific), "report NOx and CO in mg/kWh"),
         }),
         ("uncertainty", "[uncertainty]", C.UNCERTAINTY_KEYS, (
             "Error bars on every flame speed: adjoint sensitivities to every rate constant and the kinetic band (1σ) "

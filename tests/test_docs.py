@@ -116,8 +116,8 @@ def test_what_the_code_adds_and_the_generators_do_not_describe_stops_them(monkey
     with pytest.raises(SystemExit, match="soot_yield"):
         outputs_ref.render()
     monkeypatch.undo()
-    monkeypatch.setattr(outputs_ref.K, "EMISSION_COLUMNS", ("nox_ppm",), raising=False)
-    with pytest.raises(SystemExit, match="EMISSION_COLUMNS"):
+    monkeypatch.setattr(outputs_ref.K, "SOOT_COLUMNS", ("soot_volume_fraction",), raising=False)
+    with pytest.raises(SystemExit, match="SOOT_COLUMNS"):
         outputs_ref.render()
 
 
