@@ -46,7 +46,7 @@ from pathlib import Path
 from typing import Any
 
 from .errors import ConfigError, MechanismError, first_line, show
-from .facts import MechanismFacts
+from .facts import MechanismFacts, file_sha256
 from .physics import lumping, mixtures
 from .physics.gasprops import ISO6976_2016
 from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
@@ -944,7 +944,7 @@ def live_facts(name: str, base_dir: Path | None, transport: str) -> MechanismFac
     """The facts of mechanism ``name`` read from its file (found beside the config, then in
     Cantera's data folders; its transport data checked): the only place config loads Cantera,
     imported here so that a run folder's study (saved facts) loads without it."""
-    from .chemistry.mechanism import file_sha256, find_mechanism, load_mechanism_atoms, mechanism_facts
+    from .chemistry.mechanism import find_mechanism, load_mechanism_atoms, mechanism_facts
 
     path = find_mechanism(name, base_dir)
     load_mechanism_atoms(path, transport)

@@ -11,7 +11,18 @@ the file by chemistry.mechanism.mechanism_facts.
 """
 from __future__ import annotations
 
+import hashlib
 from dataclasses import dataclass, field
+from pathlib import Path
+
+
+def file_sha256(path: str | Path) -> str:
+    """sha256 of a file's content, hex (a mechanism's fingerprint: part of every point's key)."""
+    h = hashlib.sha256()
+    with open(path, "rb") as fh:
+        for chunk in iter(lambda: fh.read(1 << 20), b""):
+            h.update(chunk)
+    return h.hexdigest()
 
 
 @dataclass(frozen=True)
@@ -65,3 +76,11 @@ class MechanismFacts:
                 raise ValueError(v)
             out[sp] = v
         return out
+
+    def file_changed(self) -> bool:
+        """Whether the mechanism file at ``path`` now differs from the one the run used (False
+        when it is gone: the run folder does not need it)."""
+        try:
+            return file_sha256(self.path) != self.sha256
+        except OSError:
+            return False

@@ -5,7 +5,6 @@ Cantera. Everything here returns plain data or a ``cantera.Solution`` from the o
 cache, :func:`solution`.
 
 find_mechanism         a mechanism name -> a file (beside the config, then Cantera's data folders)
-file_sha256            content hash of a mechanism file (part of every point's key)
 load_mechanism_atoms   species -> element counts, after checking the transport data loads
 solution               the cached ``cantera.Solution`` of a file and transport model
 cantera_model          the transport model Cantera loads for one of the study's models
@@ -15,7 +14,6 @@ mechanism_facts        what the read side needs of a mechanism (facts.MechanismF
 """
 from __future__ import annotations
 
-import hashlib
 import re
 import tempfile
 from collections.abc import Iterable
@@ -99,14 +97,6 @@ def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
     raise MechanismError(
         f"'mechanism' file {mechanism!r} not found beside the config or in Cantera's data folders; "
         "give a path to a Cantera mechanism file (YAML), e.g. gri30.yaml")
-
-
-def file_sha256(path: Path) -> str:
-    h = hashlib.sha256()
-    with open(path, "rb") as fh:
-        for chunk in iter(lambda: fh.read(1 << 20), b""):
-            h.update(chunk)
-    return h.hexdigest()
 
 
 def load_mechanism_atoms(path: Path, transport: str = "mixture-averaged") -> dict[str, dict[str, float]]:
