@@ -285,6 +285,9 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "heating_value": Key('`"gross"` or `"net"`', code(lambda d: d.emissions.heating_value),
                                  "heat input of mg/kWh: gross (higher) as EU appliance NOx classes use, or net"),
             "specific": Key("`true` or `false`", code(lambda d: d.emissions.specific), "report NOx and CO in mg/kWh"),
+            "equal_flame_temperature": Key("`true` or `false`", code(lambda d: d.emissions.equal_flame_temperature),
+                                           "with a blend axis from 0: also burn each blend at the unblended gas's "
+                                           "adiabatic flame temperature (one more flame per blended point)"),
         }),
         ("uncertainty", "[uncertainty]", C.UNCERTAINTY_KEYS, (
             "Error bars on every flame speed: adjoint sensitivities to every rate constant and the kinetic band (1σ) "

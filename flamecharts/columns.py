@@ -198,6 +198,10 @@ UNITS: dict[str, tuple[str, str]] = {
     "nox_mg_kwh": ("mg/kWh", "NOx counted as NO2 per kWh of fuel heat input (the study's heating-value basis)"),
     "co_mg_kwh": ("mg/kWh", "CO per kWh of fuel heat input (the study's heating-value basis)"),
     "emissions_note": ("", "why a burning point has no emission values"),
+    "equal_flame_temperature_equivalence_ratio": ("1", "equivalence ratio at which this gas burns at the adiabatic "
+                                                       "flame temperature of the unblended gas at this point's phi"),
+    "nox_ppmvd_at_reference_o2_equal_flame_temperature": ("ppm", "NOx of this gas at that equivalence ratio, dry at the "
+                                                                 "reference O2, after the design residence time"),
 }
 
 INDICATOR_COLUMNS = (
@@ -224,7 +228,8 @@ EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "
                     "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
                     "n2o_ppmvd_at_reference_o2", "co_ppmvd_at_reference_o2", "unburned_fuel_ppmvd_at_reference_o2",
                     "flame_zone_no_ppmvd_at_reference_o2", "equilibrium_no_ppmvd_at_reference_o2", "nox_mg_kwh",
-                    "co_mg_kwh", "emissions_note")
+                    "co_mg_kwh", "equal_flame_temperature_equivalence_ratio",
+                    "nox_ppmvd_at_reference_o2_equal_flame_temperature", "emissions_note")
 #: emissions.csv: every residence time of every burning point ([emissions]), in this order.
 EMISSIONS_TABLE_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
                            "unburned_temperature_K", "residence_time_ms", "beyond_flame_domain",

@@ -85,7 +85,7 @@ DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
 EMISSIONS_KEYS = ("residence_times_ms", "design_residence_time_ms", "reference_oxygen_percent", "heating_value",
-                  "specific")
+                  "specific", "equal_flame_temperature")
 #: Burned-gas residence times of [emissions] when the table gives none [ms] (gas-turbine combustors
 #: hold their burned gas some 5-30 ms, appliances less; from memory), and the most it takes.
 DEFAULT_RESIDENCE_TIMES_MS = (2.0, 5.0, 10.0, 20.0, 50.0)
@@ -248,6 +248,7 @@ class Emissions:
     reference_oxygen_percent: float = 15.0
     heating_value: str = "gross"
     specific: bool = True   # report mg/kWh
+    equal_flame_temperature: bool = True  # blends also at the unblended gas's adiabatic flame temperature
 
 
 @dataclass(frozen=True)
@@ -648,11 +649,12 @@ def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emis
     if basis not in HEATING_VALUE_BASES:
         raise ConfigError(f"'emissions.heating_value' is {basis!r}{_suggest(basis, HEATING_VALUE_BASES)} (the heat "
                           "input of mg/kWh: gross = higher heating value, as appliance NOx classes use)")
-    specific = t.get("specific", True)
-    if not isinstance(specific, bool):
-        raise ConfigError(f"'emissions.specific' must be true or false, got {show(specific)}")
+    flags = {k: t.get(k, True) for k in ("specific", "equal_flame_temperature")}
+    for k, v in flags.items():
+        if not isinstance(v, bool):
+            raise ConfigError(f"'emissions.{k}' must be true or false, got {show(v)}")
     return Emissions(residence_times_s=tuple(v * 1e-3 for v in times), design_residence_time_s=design * 1e-3,
-                     reference_oxygen_percent=ref, heating_value=basis, specific=specific)
+                     reference_oxygen_percent=ref, heating_value=basis, **flags)
 
 
 def _flame_response(t: Any) -> FlameResponse:

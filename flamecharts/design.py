@@ -590,6 +590,7 @@ def emission_columns(study: Study, row: dict, gas_row: dict) -> dict:
     out["emissions_by_time"] = []
     hist = row.pop("emissions_history", None)
     message = row.pop("emissions_message", None)
+    equal = row.pop("equal_tad", None)
     if em is None or row["status"] != "ok":
         return out
     if hist is None:
@@ -600,6 +601,14 @@ def emission_columns(study: Study, row: dict, gas_row: dict) -> dict:
     design = min(by_time, key=lambda e: abs(e["residence_time_ms"] - 1e3 * em.design_residence_time_s))
     out.update({k: v for k, v in design.items() if k in out})
     out["emissions_residence_time_ms"] = design["residence_time_ms"]
+    i_design = by_time.index(design)
+    if row["blend_fraction"] == 0.0 and em.equal_flame_temperature:  # the reference burns at its own temperature
+        out.update(equal_flame_temperature_equivalence_ratio=row["equivalence_ratio"],
+                   nox_ppmvd_at_reference_o2_equal_flame_temperature=design["nox_ppmvd_at_reference_o2"])
+    elif equal and equal.get("history") and equal.get("status") == "ok":
+        at = emissions_at(em, gas_row, equal["phi"], equal["history"], i_design)
+        out.update(equal_flame_temperature_equivalence_ratio=equal["phi"],
+                   nox_ppmvd_at_reference_o2_equal_flame_temperature=at["nox_ppmvd_at_reference_o2"])
     out["emissions_note"] = ""
     out["emissions_by_time"] = by_time
     return out

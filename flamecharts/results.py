@@ -63,7 +63,7 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     row["grid_convergence"] = metrics.get("grid_convergence", "")
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
                  "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
-                 "emissions_message"):
+                 "emissions_message", "equal_tad"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -510,5 +510,22 @@ def emission_sentences(study: Study, rows: list[dict], most_phis: int = 4) -> li
         out.append(f"With {100 * frac:g} % {study.blend_with} in {fuel}"
                    + (f" (in {ox})" if len(study.sweep_oxidizers) > 1 else "")
                    + f" at {P:g} bar and {T:g} K, NOx at {em.reference_oxygen_percent:g} % O2 (dry) after "
-                   f"{1e3 * em.design_residence_time_s:g} ms " + ", ".join(parts) + " (equal φ).")
+                   f"{1e3 * em.design_residence_time_s:g} ms " + ", ".join(parts) + " (equal φ)"
+                   + _at_equal_tad(rows, (fuel, ox, frac, P, T), [phi for phi, _, _ in shown], nox) + ".")
     return out
+
+
+def _at_equal_tad(rows: list[dict], gas: tuple, phis: list[float], nox: dict) -> str:
+    """'; at the unblended gas's flame temperature ...' for the sentence of ``gas`` (fuel,
+    oxidizer, blend fraction, p, T) at ``phis``, where the matched flames are solved."""
+    by_phi = {r["equivalence_ratio"]: r for r in rows if (r["fuel"], r["oxidizer"], r["blend_fraction"],
+                                                         r["pressure_bar"], r["unburned_temperature_K"]) == gas}
+    parts = []
+    for phi in phis:
+        r = by_phi.get(phi) or {}
+        v, matched = r.get("nox_ppmvd_at_reference_o2_equal_flame_temperature"), \
+            r.get("equal_flame_temperature_equivalence_ratio")
+        ref = nox.get((gas[0], gas[1], 0.0, gas[3], gas[4], phi))
+        if v is not None and matched is not None and ref is not None:
+            parts.append(f"{ref:.3g} to {v:.3g} ppm (φ {phi:g} against {matched:.3g})")
+    return "; at the unblended gas's flame temperature, " + ", ".join(parts) if parts else ""

@@ -18,7 +18,7 @@ from flamecharts.config import study_from_toml
 from flamecharts.errors import ConfigError
 from flamecharts.store import Store
 from flamecharts.sweep.emissions import emissions_key
-from flamecharts.sweep.points import points
+from flamecharts.sweep.points import point_at_phi, points
 
 from conftest import run_cli, write_h2_study
 
@@ -59,6 +59,7 @@ def _study(tmp_path, emissions: str = "residence_times_ms = [5, 20, 50]"):
     ("reference_oxygen_percent = 21", "reference_oxygen_percent' is 21; allowed: 0 to below 20.9"),
     ("heating_value = \"upper\"", "'emissions.heating_value' is 'upper'"),
     ("specific = 1", "'emissions.specific' must be true or false"),
+    ("equal_flame_temperature = \"yes\"", "'emissions.equal_flame_temperature' must be true or false"),
     ("minutes = 3", "unknown key 'emissions.minutes'"),
 ])
 def test_the_table_names_the_offending_key(tmp_path, emissions, message):
@@ -111,6 +112,21 @@ def test_nox_of_every_burning_flame_in_every_output(run):
     assert hot[0]["nox_ppmvd_at_reference_o2"] < hot[1]["nox_ppmvd_at_reference_o2"] < hot[2]["nox_ppmvd_at_reference_o2"]
     assert hot[2]["nox_ppmvd_at_reference_o2"] < by[(0.0, 0.9)]["equilibrium_no_ppmvd_at_reference_o2"]
     assert by[(0.0, 0.9)]["emissions_residence_time_ms"] == 20.0
+    # at the unblended gas's flame temperature the blend burns leaner, and its NOx falls back close to the
+    # unblended gas's (thermal NO follows the flame temperature; common practice, from memory)
+    study = res.study
+    for phi in (0.7, 0.9):
+        b, a = by[(0.3, phi)], by[(0.0, phi)]
+        assert b["equal_flame_temperature_equivalence_ratio"] < phi
+        assert b["nox_ppmvd_at_reference_o2_equal_flame_temperature"] < b["nox_ppmvd_at_reference_o2"]
+        assert b["nox_ppmvd_at_reference_o2_equal_flame_temperature"] == pytest.approx(
+            a["nox_ppmvd_at_reference_o2"], rel=0.15)
+        # the matched flame, solved by the flame solver, ends at the reference's HP equilibrium temperature
+        p = next(q for q in points(study) if q.blend_fraction == 0.3 and q.phi == phi)
+        matched = point_at_phi(study, p, b["equal_flame_temperature_equivalence_ratio"])
+        with Store(out / "results.db", readonly=True) as store:
+            m = store.rows([matched.key])[matched.key]["metrics"]
+        assert m["equilibrium_temperature_K"] == pytest.approx(a["equilibrium_temperature_K"], abs=1.0)
     assert (out / "emissions.csv").read_text().count("\n") == 1 + 4 * 3
     with xr.open_dataset(out / "results.nc") as ds:
         var = ds["nox_ppmvd_at_reference_o2_by_time"]
@@ -169,3 +185,4 @@ def test_run_prints_the_emissions_and_check_estimates_them(run, tmp_path):
     assert done.returncode == 0, done.stderr
     assert "Emissions after 20 ms (dry, at 15 % O2" in done.stdout
     assert "With 30 % hydrogen in pipeline at 1 bar and 300 K, NOx at 15 % O2 (dry) after 20 ms rises from" in done.stdout
+    assert "at the unblended gas's flame temperature, " in done.stdout

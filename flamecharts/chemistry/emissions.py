@@ -3,6 +3,8 @@
 burned_gas_history       composition and temperature at given residence times after a stated
                          position of the flame (default: the peak heat release rate)
 has_nitrogen_chemistry   whether a mechanism forms NO from N2
+phi_at_flame_temperature the equivalence ratio at which a fuel burns at a given adiabatic
+                         flame temperature (blends compared at equal T_ad)
 heat_release_rate_W_m3   heat release rate at each point of a stored profile
 
 Time is the time of flight of the gas, t(z) = integral of dz/u from the start position
@@ -30,11 +32,12 @@ to dry, reference-O2, mg/m3 and mg/kWh values.
 from __future__ import annotations
 
 import time
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import cantera as ct
 import numpy as np
 import numpy.typing as npt
+from scipy.optimize import brentq
 
 from ..physics.emissions import residence_time_s
 
@@ -267,3 +270,35 @@ def burned_gas_history(profile: dict, gas: ct.Solution, times_s: npt.ArrayLike, 
             "mole_fractions": {s: X[:, gas.species_index(s)] for s in reported}, "from_reactor": ~inside,
             "fuel_species": fuels, "start_position_m": z0, "domain_time_s": domain_time,
             **_flame_zone(tau, tau0, grid, T, X_NO_profile), **_equilibrium(gas, T[-1], P, Y[-1])}
+
+
+#: Equivalence ratios the equal-flame-temperature search brackets within: a lean branch up to the
+#: hottest phi (found on PEAK_SCAN first) and a rich branch beyond it.
+PHI_RANGE = (0.05, 5.0)
+PEAK_SCAN = (0.9, 0.95, 1.0, 1.05, 1.1, 1.15)
+
+
+def equilibrium_temperature_K(gas: ct.Solution, X: dict[str, float], T_u: float, P: float) -> float:
+    """Adiabatic flame temperature [K]: the HP equilibrium of the fresh mixture X at T_u [K], P [Pa]."""
+    gas.TPX = T_u, P, X
+    gas.equilibrate("HP")
+    return float(gas.T)
+
+
+def phi_at_flame_temperature(gas: ct.Solution, mixture_at: Callable[[float], dict[str, float]], T_u: float, P: float,
+                             target_K: float, lean: bool) -> float | None:
+    """The equivalence ratio at which a fuel's adiabatic flame temperature (HP equilibrium,
+    :func:`equilibrium_temperature_K`) equals ``target_K``, on the lean branch (up to the hottest
+    phi) or the rich one; None where the fuel never reaches it on that branch within PHI_RANGE.
+    Brent's method (scipy.optimize.brentq) to 1e-6 in phi: T_ad is monotone on each branch.
+
+    ``mixture_at(phi)`` gives the fresh mixture at phi (physics.mixtures.unburned_mixture)."""
+    def excess(phi: float) -> float:
+        return equilibrium_temperature_K(gas, mixture_at(phi), T_u, P) - target_K
+
+    peak = max(PEAK_SCAN, key=excess)
+    lo, hi = (PHI_RANGE[0], peak) if lean else (peak, PHI_RANGE[1])
+    f_lo, f_hi = excess(lo), excess(hi)
+    if f_lo * f_hi > 0:
+        return None
+    return float(brentq(excess, lo, hi, xtol=1e-6))

@@ -19,6 +19,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from .emissions import solve_emissions, wants_emissions, with_emissions
+from .equal_tad import solve_equal_tad, wants_equal_tad, with_equal_tad
 from .kinetics import solve_sensitivities, wants_sensitivities, with_sensitivities
 from .premixer import horizon_of, solve_premixer, with_premixer
 from .schedule import sensitivity_seconds
@@ -101,6 +102,14 @@ def _emissions_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
             "other residence times integrate again, a new reference O2 or basis integrates nothing")
 
 
+def _equal_tad_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
+    n = b.points_to_solve * (len(study.blend_fractions) - 1) // len(study.blend_fractions)
+    return (f"Emissions at equal flame temperature: each blended point's equivalence ratio matched to the unblended "
+            f"gas's adiabatic flame temperature (HP equilibrium), then up to {n} more flames (warm-started) and their "
+            "burned gas", n * (b.warm_flame_s + EMISSIONS_SECONDS_PER_SPECIES * b.species) / b.workers,
+            "equal_flame_temperature = false in [emissions] skips them")
+
+
 #: The registered per-point analyses, in the order a run solves them after the sweep.
 PER_POINT: tuple[PerPoint, ...] = (
     PerPoint("zeldovich", "Zeldovich pairs", lambda s: s.flame_response is not None and s.flame_response.zeldovich,
@@ -110,4 +119,6 @@ PER_POINT: tuple[PerPoint, ...] = (
     PerPoint("premixer", "premixer ignition delays", lambda s: s.premixer is not None, solve_premixer, with_premixer,
              _premixer_estimate),
     PerPoint("emissions", "burned-gas emissions", wants_emissions, solve_emissions, with_emissions, _emissions_estimate),
+    PerPoint("equal_tad", "flames at equal flame temperature", wants_equal_tad, solve_equal_tad, with_equal_tad,
+             _equal_tad_estimate),
 )

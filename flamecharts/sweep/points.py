@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import hashlib
 import json
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from itertools import product
 
 from .._version import installed_cantera_version
@@ -147,3 +147,11 @@ def points(study: Study) -> list[Point]:
                 X_oxidizer=dict(X_ox), X_unburned=dict(unburned[phi]),
                 key=key, family=family, inputs=inputs, X_flame=dict(X_flame)))
     return out
+
+
+def point_at_phi(study: Study, p: Point, phi: float, index: int = 0) -> Point:
+    """The point of ``p``'s gas, oxidizer, pressure and preheat at another equivalence ratio
+    (its key is the one a swept point of that mixture would have)."""
+    sub = replace(study, sweep_fuels=(p.fuel,), sweep_oxidizers=(p.oxidizer,), blend_fractions=(p.blend_fraction,),
+                  equivalence_ratios=(phi,), pressures_bar=(p.pressure_bar,), unburned_temperatures_K=(p.T_u,))
+    return replace(points(sub)[0], index=index)

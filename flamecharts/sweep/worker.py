@@ -17,13 +17,14 @@ import time
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from ..chemistry.emissions import burned_gas_history
+from ..chemistry.emissions import burned_gas_history, equilibrium_temperature_K, phi_at_flame_temperature
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
 from ..chemistry.mechanism import solution, viscosity
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
+from ..physics.mixtures import unburned_mixture
 from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
@@ -164,6 +165,28 @@ def emissions_task(task: dict) -> dict:
         m, status, reason = None, "failed", "not converged"
         message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
     return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
+            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
+            "cpu_seconds": time.process_time() - cpu0}
+
+
+def equal_tad_task(task: dict) -> dict:
+    """The equivalence ratio at which a blend's adiabatic flame temperature equals its unblended
+    reference's (chemistry.emissions.phi_at_flame_temperature); a plain result dict in the
+    store's form, phi None where the blend never reaches it on that branch."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+    gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
+    try:
+        target = equilibrium_temperature_K(gas, task["X_reference"], task["T_u"], task["P"])
+        phi = phi_at_flame_temperature(
+            gas, lambda f: unburned_mixture(task["X_fuel"], task["X_oxidizer"], f, task["o2_per_fuel"]),
+            task["T_u"], task["P"], target, task["lean"])
+        m: dict | None = {"phi": phi, "target_T_K": target}
+        status, reason = "ok", ""
+        message = "" if phi is not None else f"the blend does not reach {target:.0f} K on this side of stoichiometric"
+    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says it is missing
+        m, status, reason = None, "failed", "not converged"
+        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "fresh",
             "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
             "cpu_seconds": time.process_time() - cpu0}
 

@@ -58,8 +58,10 @@ def nox_phi_chart(data: ChartData, study: Study) -> Figure:
 
 
 @chart("nox_vs_blend_fraction",
-       "NOx after the design residence time against the blend fraction at equal equivalence ratio, one curve per "
-       "equivalence ratio: what the blend gas costs in NOx when the burner's air setting stays.",
+       "NOx after the design residence time against the blend fraction, one colour per equivalence ratio: solid at "
+       "equal equivalence ratio (the burner's air setting stays), dashed at the unblended gas's adiabatic flame "
+       "temperature (the blend burned leaner to match it), which separates the blend's chemistry from its hotter "
+       "flame.",
        several_blends_with_emissions)
 def nox_blend_chart(data: ChartData, study: Study) -> Figure:
     ref, t = _reference(study)
@@ -71,6 +73,7 @@ def nox_blend_chart(data: ChartData, study: Study) -> Figure:
     fig, axes = figure(ncols, int(np.ceil(len(panels) / ncols)), width=4.6, height=3.6)
     colours = colour_scale(len(phis))
     handles: dict = {}
+    dashed = False
     for ax, (P, T) in zip(axes.flat, panels):
         at = [r for r in rows if r["pressure_bar"] == P and r["unburned_temperature_K"] == T]
         for ci, phi in enumerate(phis):
@@ -83,6 +86,12 @@ def nox_blend_chart(data: ChartData, study: Study) -> Figure:
                 h, = ax.plot([100 * r["blend_fraction"] for r in sel], [r["nox_ppmvd_at_reference_o2"] for r in sel],
                              color=colours[ci], marker=MARKERS[gi % len(MARKERS)], lw=1.6, markersize=5)
                 handles.setdefault(label, h)
+                equal = [r for r in sel if r.get("nox_ppmvd_at_reference_o2_equal_flame_temperature") is not None]
+                if len(equal) > 1:
+                    ax.plot([100 * r["blend_fraction"] for r in equal],
+                            [r["nox_ppmvd_at_reference_o2_equal_flame_temperature"] for r in equal], color=colours[ci],
+                            marker=MARKERS[gi % len(MARKERS)], markerfacecolor="none", lw=1.3, ls="--", markersize=5)
+                    dashed = True
         if not at:
             empty_note(ax, "no burning point with emissions at this pressure and preheat")
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
@@ -92,7 +101,12 @@ def nox_blend_chart(data: ChartData, study: Study) -> Figure:
         ax.grid(True, color="0.88", lw=0.7)
     for ax in list(axes.flat)[len(panels):]:
         ax.set_visible(False)
-    return finish(fig, study, ("NOx vs blend fraction at equal equivalence ratio",
+    handles["solid: at equal φ"] = Line2D([], [], color="0.35", lw=1.6)
+    if dashed:
+        handles["dashed: at the unblended gas's flame temperature\n(the blend at its matched, leaner φ)"] = Line2D(
+            [], [], color="0.35", lw=1.3, ls="--", marker="o", markerfacecolor="none")
+    return finish(fig, study, ("NOx vs blend fraction at equal equivalence ratio" + (" and equal flame temperature"
+                                                                                     if dashed else ""),
                                f"What does the blend gas cost in NOx after {t:g} ms? ({SCREENING})" + data.note()),
                   handles, "Equivalence ratio")
 
