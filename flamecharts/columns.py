@@ -189,8 +189,14 @@ UNITS: dict[str, tuple[str, str]] = {
     "nox_ppmvd_at_reference_o2": ("ppm", "NOx (NO + NO2), by volume of dry gas at the study's reference O2"),
     "n2o_ppmvd_at_reference_o2": ("ppm", "N2O, by volume of dry gas at the study's reference O2"),
     "co_ppmvd_at_reference_o2": ("ppm", "CO, by volume of dry gas at the study's reference O2"),
-    "unburned_fuel_ppmvd_at_reference_o2": ("ppm", "unburned fuel species, by volume of dry gas at the study's "
-                                                   "reference O2"),
+    "unburned_hydrocarbons_ppmvd_at_reference_o2": ("ppm", "the fuel's hydrocarbon species left (each as itself, not "
+                                                           "as C1), dry at the reference O2; H2 not counted: the hot "
+                                                           "gas holds equilibrium H2 whatever the fuel"),
+    "equilibrium_co_ppmvd_at_reference_o2": ("ppm", "CO of the burned state's HP equilibrium, dry at the reference O2: "
+                                                    "where an adiabatic plug flow's CO levels off (hot gas, not a "
+                                                    "cooled stack gas)"),
+    "emissions_reference_o2_percent": ("%", "the dry O2 the ppm columns are corrected to ([emissions])"),
+    "emissions_heating_value": ("", "heating-value basis of the mg/kWh columns: gross or net (empty: not reported)"),
     "flame_zone_no_ppmvd_at_reference_o2": ("ppm", "NO where the flame's temperature rise is 95 % complete, dry at "
                                                    "the reference O2 (with the burned gas's O2 and water)"),
     "equilibrium_no_ppmvd_at_reference_o2": ("ppm", "NO of the burned state's HP equilibrium, dry at the reference "
@@ -226,17 +232,20 @@ PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignit
 #: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
 EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
                     "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
-                    "n2o_ppmvd_at_reference_o2", "co_ppmvd_at_reference_o2", "unburned_fuel_ppmvd_at_reference_o2",
-                    "flame_zone_no_ppmvd_at_reference_o2", "equilibrium_no_ppmvd_at_reference_o2", "nox_mg_kwh",
-                    "co_mg_kwh", "equal_flame_temperature_equivalence_ratio",
+                    "n2o_ppmvd_at_reference_o2", "co_ppmvd_at_reference_o2",
+                    "unburned_hydrocarbons_ppmvd_at_reference_o2", "flame_zone_no_ppmvd_at_reference_o2",
+                    "equilibrium_no_ppmvd_at_reference_o2", "equilibrium_co_ppmvd_at_reference_o2",
+                    "emissions_reference_o2_percent", "beyond_flame_domain", "nox_mg_kwh", "co_mg_kwh",
+                    "emissions_heating_value", "equal_flame_temperature_equivalence_ratio",
                     "nox_ppmvd_at_reference_o2_equal_flame_temperature", "emissions_note")
 #: emissions.csv: every residence time of every burning point ([emissions]), in this order.
 EMISSIONS_TABLE_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
                            "unburned_temperature_K", "residence_time_ms", "beyond_flame_domain",
                            "burned_gas_temperature_K", "burned_gas_dry_o2_percent", "nox_ppmvd_at_reference_o2",
                            "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2", "n2o_ppmvd_at_reference_o2",
-                           "co_ppmvd_at_reference_o2", "unburned_fuel_ppmvd_at_reference_o2", "nox_mg_kwh",
-                           "co_mg_kwh", "mechanism")
+                           "co_ppmvd_at_reference_o2", "unburned_hydrocarbons_ppmvd_at_reference_o2",
+                           "equilibrium_co_ppmvd_at_reference_o2", "emissions_reference_o2_percent", "nox_mg_kwh",
+                           "co_mg_kwh", "emissions_heating_value", "mechanism")
 #: Numerical error of every flame (physics.grid_error), right after its grid points.
 #: (Richardson's extrapolated S_L is stored with each flame but not a column: on the benchmark's
 #: grid-converged flames it was further off than the flame's own value, docs/benchmarks.md.)

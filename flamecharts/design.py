@@ -542,11 +542,15 @@ def largest_differences(differences: list[dict]) -> list[dict]:
 EMISSION_SPECIES = (("no", ("NO",)), ("no2", ("NO2",)), ("nox", ("NO", "NO2")), ("n2o", ("N2O",)), ("co", ("CO",)))
 
 
-def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int) -> dict:
+def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int,
+                 hydrocarbons: frozenset[str] = frozenset()) -> dict:
     """The burned gas of a stored history (chemistry.emissions.burned_gas_history) at its
     ``i``-th residence time: ppm by volume on the dry gas corrected to the study's reference
     O2 (physics.emissions.corrected_to_reference_O2, 20.9 % air) of NO, NO2, NOx (NO + NO2),
-    N2O, CO and the unburned fuel species, and NOx (as NO2) and CO in mg/kWh of the fuel gas's
+    N2O, CO and the unburned fuel hydrocarbons (``hydrocarbons``: the fuel's species with carbon;
+    H2 is not counted, as the hot gas holds equilibrium H2 whatever the fuel), the equilibrium NO
+    and CO of the burned state (an adiabatic plug flow's CO tends to that hot-gas value, not to a
+    stack value), and NOx (as NO2) and CO in mg/kWh of the fuel gas's
     heat input on the study's heating-value basis (physics.emissions.specific_emission_mg_kWh;
     the fuel gas's mass fraction in the fresh mixture is 1 / (1 + AFR_st / phi)).
     Concentrations are None where the burned gas holds 20.9 % O2 or more (no reference exists)."""
@@ -555,7 +559,9 @@ def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int) -
     o2_dry = 100.0 * float(em_phys.dry_mole_fraction(X.get("O2", 0.0), h2o))
     out: dict[str, Any] = {"residence_time_ms": 1e3 * float(hist["times_s"][i]),
                            "burned_gas_temperature_K": float(hist["T_K"][i]), "burned_gas_dry_o2_percent": o2_dry,
-                           "beyond_flame_domain": bool(hist["from_reactor"][i])}
+                           "beyond_flame_domain": bool(hist["from_reactor"][i]),
+                           "emissions_reference_o2_percent": em.reference_oxygen_percent,
+                           "emissions_heating_value": em.heating_value if em.specific else ""}
 
     def ppm(x_wet: float) -> float | None:
         if o2_dry >= em_phys.AIR_O2_PERCENT:
@@ -564,10 +570,16 @@ def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int) -
                                                              em.reference_oxygen_percent))
     for stem, species in EMISSION_SPECIES:
         out[f"{stem}_ppmvd_at_reference_o2"] = ppm(sum(X.get(s, 0.0) for s in species))
-    out["unburned_fuel_ppmvd_at_reference_o2"] = ppm(sum(X.get(s, 0.0) for s in hist["fuel_species"]
-                                                         if s not in ("CO",)))
+    out["unburned_hydrocarbons_ppmvd_at_reference_o2"] = ppm(sum(X.get(s, 0.0) for s in hist["fuel_species"]
+                                                                 if s in hydrocarbons))
     out["flame_zone_no_ppmvd_at_reference_o2"] = ppm(float(hist["flame_zone_NO_mole_fraction"]))
-    out["equilibrium_no_ppmvd_at_reference_o2"] = ppm(float(hist["equilibrium_NO_mole_fraction"]))
+    eq = hist["equilibrium_mole_fractions"]
+    eq_o2 = 100.0 * float(em_phys.dry_mole_fraction(eq.get("O2", 0.0), eq.get("H2O", 0.0)))
+    for stem, species in (("no", ("NO",)), ("co", ("CO",))):
+        out[f"equilibrium_{stem}_ppmvd_at_reference_o2"] = None if eq_o2 >= em_phys.AIR_O2_PERCENT else 1e6 * float(
+            em_phys.corrected_to_reference_O2(em_phys.dry_mole_fraction(sum(eq.get(s, 0.0) for s in species),
+                                                                        eq.get("H2O", 0.0)), eq_o2,
+                                              em.reference_oxygen_percent))
     out["nox_mg_kwh"] = out["co_mg_kwh"] = None
     if em.specific:
         y_fuel = 1.0 / (1.0 + gas_row["stoich_oxidizer_mass_kg_kg"] / phi)
@@ -597,16 +609,19 @@ def emission_columns(study: Study, row: dict, gas_row: dict) -> dict:
         out["emissions_note"] = (f"not computed: {message}" if message else "not computed yet: run the study again "
                                  "(flamecharts run) to integrate the burned gas, no flame is solved again")
         return out
-    by_time = [emissions_at(em, gas_row, row["equivalence_ratio"], hist, i) for i in range(len(hist["times_s"]))]
+    carbon = frozenset(s for s in hist["fuel_species"] if study.atoms.get(s, {}).get("C", 0) > 0)
+    by_time = [emissions_at(em, gas_row, row["equivalence_ratio"], hist, i, carbon) for i in range(len(hist["times_s"]))]
     design = min(by_time, key=lambda e: abs(e["residence_time_ms"] - 1e3 * em.design_residence_time_s))
     out.update({k: v for k, v in design.items() if k in out})
-    out["emissions_residence_time_ms"] = design["residence_time_ms"]
+    out.update(emissions_residence_time_ms=design["residence_time_ms"],
+               emissions_reference_o2_percent=em.reference_oxygen_percent,
+               emissions_heating_value=em.heating_value if em.specific else "")
     i_design = by_time.index(design)
     if row["blend_fraction"] == 0.0 and em.equal_flame_temperature:  # the reference burns at its own temperature
         out.update(equal_flame_temperature_equivalence_ratio=row["equivalence_ratio"],
                    nox_ppmvd_at_reference_o2_equal_flame_temperature=design["nox_ppmvd_at_reference_o2"])
     elif equal and equal.get("history") and equal.get("status") == "ok":
-        at = emissions_at(em, gas_row, equal["phi"], equal["history"], i_design)
+        at = emissions_at(em, gas_row, equal["phi"], equal["history"], i_design, carbon)
         out.update(equal_flame_temperature_equivalence_ratio=equal["phi"],
                    nox_ppmvd_at_reference_o2_equal_flame_temperature=at["nox_ppmvd_at_reference_o2"])
     out["emissions_note"] = ""

@@ -251,8 +251,8 @@ def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Datase
 
 
 #: emissions.csv's quantities that get a residence-time dimension in the dataset.
-BY_TIME = tuple(c for c in EMISSIONS_TABLE_COLUMNS if c not in AXES + ("blend_with", "mechanism", "residence_time_ms",
-                                                                      "beyond_flame_domain"))
+BY_TIME = tuple(c for c in EMISSIONS_TABLE_COLUMNS if UNITS[c][0] != "" and c not in AXES + (
+    "residence_time_ms", "emissions_reference_o2_percent"))
 
 
 def _emissions_by_time(study: Study, rows: list[dict], shape: tuple[int, ...]) -> dict[str, xr.DataArray]:
@@ -304,6 +304,13 @@ def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
     if study.emissions is not None:
         ds = ds.assign(_emissions_by_time(study, rows, shape))
+        for name in ds.data_vars:  # the reference O2 and basis travel with every emission variable
+            if "at_reference_o2" in str(name) or "mg_kwh" in str(name):
+                ds[name].attrs.update(reference_oxygen_percent=study.emissions.reference_oxygen_percent,
+                                      heating_value_basis=study.emissions.heating_value)
+        ds.attrs.update(emissions_reference_oxygen_percent=study.emissions.reference_oxygen_percent,
+                        emissions_heating_value_basis=study.emissions.heating_value,
+                        emissions_design_residence_time_ms=1e3 * study.emissions.design_residence_time_s)
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
                      **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
@@ -477,8 +484,14 @@ class Results:
         rows = mechanism_differences(self.rows, comparison.names) if comparison else []
         return pd.DataFrame([[r.get(c) for c in COMPARISON_COLUMNS] for r in rows], columns=list(COMPARISON_COLUMNS))
 
+    def emissions(self) -> pd.DataFrame:
+        """A pandas DataFrame of emissions.csv ([emissions]): every residence time of every burning
+        point, one row each (columns.EMISSIONS_TABLE_COLUMNS); empty without [emissions]."""
+        return pd.DataFrame([[r.get(c) for c in EMISSIONS_TABLE_COLUMNS] for r in emission_rows(self.rows)],
+                            columns=list(EMISSIONS_TABLE_COLUMNS))
+
     def counts(self) -> dict[str, int]:
-        """Points by status: ok, no_flame, failed, pending."""
+        """Points by status: ok, no_flame, failed, autoignition, pending."""
         out = {"ok": 0, "no_flame": 0, "failed": 0, "pending": 0}
         for r in self.rows:
             out[r["status"]] = out.get(r["status"], 0) + 1

@@ -112,6 +112,13 @@ def test_nox_of_every_burning_flame_in_every_output(run):
     assert hot[0]["nox_ppmvd_at_reference_o2"] < hot[1]["nox_ppmvd_at_reference_o2"] < hot[2]["nox_ppmvd_at_reference_o2"]
     assert hot[2]["nox_ppmvd_at_reference_o2"] < by[(0.0, 0.9)]["equilibrium_no_ppmvd_at_reference_o2"]
     assert by[(0.0, 0.9)]["emissions_residence_time_ms"] == 20.0
+    assert all(r["emissions_reference_o2_percent"] == 15.0 and r["emissions_heating_value"] == "gross" for r in ok)
+    # the adiabatic plug flow keeps its gas at flame temperature: its CO levels off at the hot gas's
+    # equilibrium CO (a property of the model, which the report states), far above a cooled flue gas's
+    assert hot[2]["co_ppmvd_at_reference_o2"] == pytest.approx(by[(0.0, 0.9)]["equilibrium_co_ppmvd_at_reference_o2"],
+                                                               rel=0.1)
+    # hydrogen in the hot gas is equilibrium H2, not fuel left: unburned hydrocarbons only
+    assert by[(0.3, 0.9)]["unburned_hydrocarbons_ppmvd_at_reference_o2"] < 1.0
     # at the unblended gas's flame temperature the blend burns leaner, and its NOx falls back close to the
     # unblended gas's (thermal NO follows the flame temperature; common practice, from memory)
     study = res.study

@@ -202,7 +202,9 @@ def _equilibrium(gas: ct.Solution, T: float, P: float, Y: np.ndarray) -> dict:
         gas.equilibrate("HP")
     except ct.CanteraError:
         raise EmissionsIntegrationError("HP equilibrium of the burned gas failed") from None
-    return {"equilibrium_T_K": float(gas.T), "equilibrium_NO_mole_fraction": float(gas["NO"].X[0])}
+    return {"equilibrium_T_K": float(gas.T), "equilibrium_NO_mole_fraction": float(gas["NO"].X[0]),
+            "equilibrium_mole_fractions": {s: float(gas[s].X[0]) for s in ("NO", "NO2", "CO", "O2", "H2O")
+                                           if s in gas.species_names}}
 
 
 def burned_gas_history(profile: dict, gas: ct.Solution, times_s: npt.ArrayLike, start: str | float = PEAK_HEAT_RELEASE,
@@ -234,7 +236,9 @@ def burned_gas_history(profile: dict, gas: ct.Solution, times_s: npt.ArrayLike, 
     zone (``flame_zone_time_s``, ``_position_m``, ``_T_K``, ``_NO_mole_fraction``: where T
     first reaches FLAME_ZONE_RISE_SHARE of its rise, at or after the start) and the HP
     equilibrium of the domain-end state (``equilibrium_T_K``, ``equilibrium_NO_mole_fraction``;
-    the state an adiabatic constant-pressure plug flow tends to, so the reactor's NO approaches it).
+    the state an adiabatic constant-pressure plug flow tends to, so the reactor's NO approaches it;
+    ``equilibrium_mole_fractions`` of NO, NO2, CO, O2 and H2O there: an adiabatic plug flow keeps
+    its gas at flame temperature, so its CO tends to this hot-gas equilibrium, not to a stack value).
     """
     if not has_nitrogen_chemistry(gas):
         raise ValueError("the mechanism has no nitrogen chemistry (no NO formed from N2); use one that has, e.g. gri30.yaml")

@@ -142,7 +142,7 @@ def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[
     for analysis in PER_POINT:
         if analysis.wanted(study):
             what, t, note = analysis.estimate(study, budget)
-            lines.append((f"{what}: about {duration(t)}; {note}", t))
+            lines.append((f"{what}: {'about ' + duration(t) if t >= 0.5 else 'under a second'}; {note}", t))
     return lines
 
 

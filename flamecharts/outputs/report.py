@@ -360,9 +360,14 @@ def _emissions_section(study: Study, rows: list[dict]) -> list[str]:
              f"ms from its peak heat release: read from the flame's own profile while the time lies inside its "
              f"domain, then an adiabatic constant-pressure plug flow on the same mechanism (Cantera's reactor). "
              f"Concentrations are ppm by volume of the dry gas corrected to {ref:g} % O2 (X (20.9 − {ref:g}) / "
-             f"(20.9 − O2), US EPA Method 19's form); NOx is NO + NO2, counted as NO2 for mass; mg/kWh are per kWh of "
-             f"the fuel gas's heat input on its {basis} heating value (EU gas appliances are limited on the gross "
-             f"value, Regulation 813/2013). The tables and charts read {t:g} ms. "
+             f"(20.9 − O2), US EPA Method 19's form); NOx is NO + NO2, counted as NO2 for mass"
+             + (f"; mg/kWh are per kWh of the fuel gas's heat input on its {basis} heating value (EU gas appliances "
+                "are limited on the gross value, Regulation 813/2013)" if em.specific else "")
+             + f". The tables and charts read {t:g} ms. The plug flow stays adiabatic, so its gas stays at flame "
+             "temperature: its NO grows toward the burned state's equilibrium NO (given for scale, far above any "
+             "real exhaust), and its CO levels off at the hot gas's equilibrium CO, which is not a stack value: "
+             "a flue gas that cools burns most of that CO out. Hydrogen is not counted as unburned fuel (the hot "
+             "gas holds equilibrium H2 whatever the fuel). "
              f"Mechanism: {_e(nox_scope(study.mechanism))}. A laminar flame with a plug flow has no unmixedness, "
              "recirculation or heat loss, which set a real combustor's NOx: compare blends and settings with these "
              "numbers, and confirm absolute values by measurement.</p>"]
@@ -374,13 +379,16 @@ def _emissions_section(study: Study, rows: list[dict]) -> list[str]:
 
     def num(v) -> str:
         return "" if v is None else f"{v:,.0f}" if abs(v) >= 1000 else f"{v:.3g}"
-    parts.append(more + _table(["gas", "φ", "p [bar]", "T_u [K]", f"NOx [ppm @{ref:g} % O2]", "CO [ppm]",
-                                "flame-zone NO [ppm]", "equilibrium NO [ppm]", "NOx [mg/kWh]", "CO [mg/kWh]"],
-                               [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
-                                 f"{r['unburned_temperature_K']:g}", num(r["nox_ppmvd_at_reference_o2"]),
-                                 num(r["co_ppmvd_at_reference_o2"]), num(r["flame_zone_no_ppmvd_at_reference_o2"]),
-                                 num(r["equilibrium_no_ppmvd_at_reference_o2"]), num(r["nox_mg_kwh"]),
-                                 num(r["co_mg_kwh"])] for r in table], set(range(1, 10))))
+    at = f" [ppm @{ref:g} % O2]"
+    header = ["gas", "φ", "p [bar]", "T_u [K]", "NOx" + at, "CO" + at, "flame-zone NO" + at, "equilibrium NO" + at,
+              "equilibrium CO" + at, "read from"] + (["NOx [mg/kWh]", "CO [mg/kWh]"] if em.specific else [])
+    parts.append(more + _table(header, [
+        [gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}",
+         num(r["nox_ppmvd_at_reference_o2"]), num(r["co_ppmvd_at_reference_o2"]),
+         num(r["flame_zone_no_ppmvd_at_reference_o2"]), num(r["equilibrium_no_ppmvd_at_reference_o2"]),
+         num(r["equilibrium_co_ppmvd_at_reference_o2"]), "plug flow" if r["beyond_flame_domain"] else "flame profile"]
+        + ([num(r["nox_mg_kwh"]), num(r["co_mg_kwh"])] if em.specific else []) for r in table],
+        set(range(1, 9)) | ({10, 11} if em.specific else set())))
     return parts
 
 

@@ -103,11 +103,11 @@ def _emissions_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
 
 
 def _equal_tad_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    n = b.points_to_solve * (len(study.blend_fractions) - 1) // len(study.blend_fractions)
+    n = study.n_points * (len(study.blend_fractions) - 1) // len(study.blend_fractions)
     return (f"Emissions at equal flame temperature: each blended point's equivalence ratio matched to the unblended "
             f"gas's adiabatic flame temperature (HP equilibrium), then up to {n} more flames (warm-started) and their "
             "burned gas", n * (b.warm_flame_s + EMISSIONS_SECONDS_PER_SPECIES * b.species) / b.workers,
-            "equal_flame_temperature = false in [emissions] skips them")
+            "those already stored are not solved again; equal_flame_temperature = false in [emissions] skips them")
 
 
 #: The registered per-point analyses, in the order a run solves them after the sweep.

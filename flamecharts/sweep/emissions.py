@@ -24,7 +24,7 @@ if TYPE_CHECKING:
     from .backends import Backend
 
 #: Changes of the method that change the stored answer (part of the key).
-EMISSIONS_VERSION = 1
+EMISSIONS_VERSION = 2  # 2: the equilibrium's CO, O2 and water stored too
 
 
 def wants_emissions(study: Study) -> bool:

@@ -81,8 +81,9 @@ def solve_equal_tad(study: Study, store: Store, pts: list[Point], stored: dict[s
             if equal_tad_key(p, ref) not in done]
     n, seconds = solve_extras(study, store, todo, "equal_tad_task", backend, progress)
     matched = list(_matched(study, store, blended).values())
-    flames = solve_points(study, store, matched, backend, None, sources={p.key for p in pts})
-    n_em, s_em = solve_emissions(study, store, matched, store.rows([q.key for q in matched]), backend)
+    flames = solve_points(study, store, matched, backend, None if progress is None else (
+        lambda pr: progress(pr.done, pr.total)), sources={p.key for p in pts})
+    n_em, s_em = solve_emissions(study, store, matched, store.rows([q.key for q in matched]), backend, progress)
     return n + flames.solved + n_em, seconds + flames.solve_seconds + s_em
 
 

@@ -150,6 +150,13 @@ def sensitivity_task(task: dict) -> dict:
             "cpu_seconds": time.process_time() - cpu0}
 
 
+def _plain(v: object) -> object:
+    """JSON-ready: arrays and NumPy scalars as lists and floats, dicts of them alike."""
+    if isinstance(v, dict):
+        return {k: _plain(x) for k, x in v.items()}
+    return v.tolist() if hasattr(v, "tolist") else v
+
+
 def emissions_task(task: dict) -> dict:
     """The burned gas of a stored flame after the study's residence times
     (chemistry.emissions.burned_gas_history, from the peak heat release), as plain lists; a
@@ -158,8 +165,7 @@ def emissions_task(task: dict) -> dict:
     gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
     try:
         h = burned_gas_history(task["profile"], gas, task["times_s"])
-        m: dict | None = {k: (v.tolist() if hasattr(v, "tolist") else
-                              {s: x.tolist() for s, x in v.items()} if isinstance(v, dict) else v) for k, v in h.items()}
+        m: dict | None = {k: _plain(v) for k, v in h.items()}
         status, reason, message = "ok", "", ""
     except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says why
         m, status, reason = None, "failed", "not converged"

@@ -124,9 +124,10 @@ def _leanest(rows: list[dict]) -> list[dict]:
 
 
 @chart("co_burnout",
-       "CO (dry, at the reference O2) against residence time at each gas's leanest burning equivalence ratio, a "
-       "panel per pressure and preheat: near the lean limit the burned gas is cool and its CO burns out slowly; "
-       "open markers lie beyond the flame's own domain (plug flow).",
+       "CO (dry, at the reference O2) against residence time at each gas's leanest burning swept equivalence ratio, "
+       "a panel per pressure and preheat: the leaner and cooler the burned gas, the slower its CO burns out; open "
+       "markers lie beyond the flame's own domain (adiabatic plug flow), the dotted line is the hot gas's "
+       "equilibrium CO where the plug flow levels off (not a stack value: a cooling flue gas burns most of it).",
        has_emissions)
 def co_burnout_chart(data: ChartData, study: Study) -> Figure:
     ref, _ = _reference(study)
@@ -137,6 +138,7 @@ def co_burnout_chart(data: ChartData, study: Study) -> Figure:
     gases = sorted({(r["fuel"], r["oxidizer"], r["blend_fraction"]) for r in lean})
     colours = colour_scale(len(gases))
     handles: dict = {}
+    dotted = False
     for ax, (P, T) in zip(axes.flat, panels):
         drawn = False
         for gi, gas in enumerate(gases):
@@ -153,6 +155,10 @@ def co_burnout_chart(data: ChartData, study: Study) -> Figure:
             ax.scatter(x, y, s=30, zorder=5, edgecolors=colours[gi],
                        facecolors=["none" if b else colours[gi] for b in open_])
             handles.setdefault(f"{gas_label(r)}, φ {r['equivalence_ratio']:g}", h)
+            eq = r.get("equilibrium_co_ppmvd_at_reference_o2")
+            if eq:
+                ax.axhline(max(eq, 1e-3), color=colours[gi], ls=":", lw=1.1)
+                dotted = True
             drawn = True
         if not drawn:
             empty_note(ax, "no burning point with emissions at this pressure and preheat")
@@ -165,6 +171,9 @@ def co_burnout_chart(data: ChartData, study: Study) -> Figure:
         ax.set_visible(False)
     handles["open marker: beyond the flame's domain (adiabatic plug flow)"] = Line2D(
         [], [], marker="o", markerfacecolor="none", markeredgecolor="0.35", linestyle="none")
-    return finish(fig, study, ("CO burnout near the lean limit",
+    if dotted:
+        handles["dotted: equilibrium CO of the hot burned gas\n(where the adiabatic plug flow levels off;\nnot a stack value)"] \
+            = Line2D([], [], color="0.35", ls=":", lw=1.1)
+    return finish(fig, study, ("CO burnout at the leanest burning equivalence ratio swept",
                                f"How long until the CO of the leanest flames burns out? ({SCREENING})" + data.note()),
                   handles, "Gas, leanest burning φ")
