@@ -158,5 +158,6 @@ def test_check_estimates_the_premixer_delays(tmp_path):
     done = run_cli("check", cfg, "--out", tmp_path / "none")
     assert done.returncode == 0, done.stderr
     line = next(t for t in done.stdout.splitlines() if t.startswith("Premixer:"))
-    assert "5 mixtures near the fuel injection" in line and "over 1 s" in line and "about" in line
+    assert "5 mixtures near the fuel injection" in line and "over 1 s" in line
+    assert "under a second" in line or "about " in line
     assert "Estimated total" in done.stdout
