@@ -37,7 +37,6 @@ from collections.abc import Callable, Sequence
 import cantera as ct
 import numpy as np
 import numpy.typing as npt
-from scipy.optimize import brentq
 
 from ..physics.emissions import residence_time_s
 
@@ -297,6 +296,8 @@ def phi_at_flame_temperature(gas: ct.Solution, mixture_at: Callable[[float], dic
     Brent's method (scipy.optimize.brentq) to 1e-6 in phi: T_ad is monotone on each branch.
 
     ``mixture_at(phi)`` gives the fresh mixture at phi (physics.mixtures.unburned_mixture)."""
+    from scipy.optimize import brentq  # here: a worker that solves flames only never loads SciPy
+
     def excess(phi: float) -> float:
         return equilibrium_temperature_K(gas, mixture_at(phi), T_u, P) - target_K
 
