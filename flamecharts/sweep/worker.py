@@ -14,6 +14,7 @@ import os
 import signal
 import threading
 import time
+from collections.abc import Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -94,25 +95,32 @@ def mixture_properties(mechanism_path: str, sha256: str, X: dict, T_u: float, P:
 MIXTURE_PROPERTIES = ("lewis_number_fuel", "lewis_number_oxygen", "unburned_viscosity_Pa_s")
 
 
+def _extra(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> dict:
+    """The store's result dict of an extra solve: ``compute()`` -> (metrics, message), timed (wall
+    and CPU); an exception it raises is a failure recorded with its reason ('not converged' and
+    the exception's first line: the read-out says why, the next run tries again)."""
+    cpu0, t0 = time.process_time(), time.perf_counter()
+    try:
+        m, message = compute()
+        status, reason = "ok", ""
+    except Exception as exc:  # noqa: BLE001 - recorded with its reason, never raised
+        m, status, reason = None, "failed", "not converged"
+        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
+    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": start,
+            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
+            "cpu_seconds": time.process_time() - cpu0}
+
+
 def premixer_task(task: dict) -> dict:
     """Ignition delays of [premixer] (chemistry.ignition.ignition_delay_peak, constant pressure,
     over ``horizon_s``): the fresh mixture's and those of the ``injection`` mixtures (one per
     physics.autoignition.INJECTION_PHIS); a plain result dict in the store's form."""
-    cpu0, t0 = time.process_time(), time.perf_counter()
-
     def delay(X: dict) -> float:
         return ignition_delay_peak(task["mechanism_path"], tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)),
                                    float(task["T_u"]), float(task["P"]), float(task["horizon_s"]))
-    try:
-        m: dict | None = {"premixer_ignition_delay_s": delay(task["X"]), "premixer_horizon_s": task["horizon_s"],
-                          "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}
-        status, reason, message = "ok", "", ""
-    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says it is missing
-        m, status, reason = None, "failed", "not converged"
-        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
-    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "fresh",
-            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
-            "cpu_seconds": time.process_time() - cpu0}
+    return _extra(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
+                                           "premixer_horizon_s": task["horizon_s"],
+                                           "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}, ""))
 
 
 def zeldovich_task(task: dict) -> dict:
@@ -136,18 +144,10 @@ def zeldovich_task(task: dict) -> dict:
 def sensitivity_task(task: dict) -> dict:
     """Flame-speed sensitivities to every rate constant of a stored flame (chemistry.sensitivity,
     adjoint); a plain result dict in the store's form (runs in a worker)."""
-    cpu0, t0 = time.process_time(), time.perf_counter()
     gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
-    try:
-        m = flame_speed_sensitivities(gas, task["T_u"], task["P"], task["X"], task["transport"],
-                                      task["thermal_diffusion"], task["warm"], NUMERICS[task["resolution"]])
-        status, reason, message = "ok", "", ""
-    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the next run tries again
-        m, status, reason = None, "failed", "not converged"
-        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
-    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
-            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
-            "cpu_seconds": time.process_time() - cpu0}
+    return _extra(task, "warm", lambda: (flame_speed_sensitivities(
+        gas, task["T_u"], task["P"], task["X"], task["transport"], task["thermal_diffusion"], task["warm"],
+        NUMERICS[task["resolution"]]), ""))
 
 
 def _plain(v: object) -> object:
@@ -161,40 +161,26 @@ def emissions_task(task: dict) -> dict:
     """The burned gas of a stored flame after the study's residence times
     (chemistry.emissions.burned_gas_history, from the peak heat release), as plain lists; a
     plain result dict in the store's form (runs in a worker)."""
-    cpu0, t0 = time.process_time(), time.perf_counter()
     gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
-    try:
-        h = burned_gas_history(task["profile"], gas, task["times_s"])
-        m: dict | None = {k: _plain(v) for k, v in h.items()}
-        status, reason, message = "ok", "", ""
-    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says why
-        m, status, reason = None, "failed", "not converged"
-        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
-    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "warm",
-            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
-            "cpu_seconds": time.process_time() - cpu0}
+    return _extra(task, "warm", lambda: ({k: _plain(v) for k, v in
+                                          burned_gas_history(task["profile"], gas, task["times_s"]).items()}, ""))
 
 
 def equal_tad_task(task: dict) -> dict:
     """The equivalence ratio at which a blend's adiabatic flame temperature equals its unblended
     reference's (chemistry.emissions.phi_at_flame_temperature); a plain result dict in the
     store's form, phi None where the blend never reaches it on that branch."""
-    cpu0, t0 = time.process_time(), time.perf_counter()
     gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
-    try:
+
+    def match() -> tuple[dict, str]:
         target = equilibrium_temperature_K(gas, task["X_reference"], task["T_u"], task["P"])
         phi = phi_at_flame_temperature(
             gas, lambda f: unburned_mixture(task["X_fuel"], task["X_oxidizer"], f, task["o2_per_fuel"]),
             task["T_u"], task["P"], target, task["lean"])
-        m: dict | None = {"phi": phi, "target_T_K": target}
-        status, reason = "ok", ""
-        message = "" if phi is not None else f"the blend does not reach {target:.0f} K on this side of stoichiometric"
-    except Exception as exc:  # noqa: BLE001 - recorded with its reason; the read-out says it is missing
-        m, status, reason = None, "failed", "not converged"
-        message = f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
-    return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": "fresh",
-            "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
-            "cpu_seconds": time.process_time() - cpu0}
+        return {"phi": phi, "target_T_K": target}, ("" if phi is not None else
+                                                    f"the blend does not reach {target:.0f} K on this side of "
+                                                    "stoichiometric")
+    return _extra(task, "fresh", match)
 
 
 def stretch_task(task: dict) -> dict:
