@@ -144,6 +144,7 @@ def test_nox_of_every_burning_flame_in_every_output(run):
     html = (out / "report.html").read_text()
     assert "id='emissions'" in html and "With 30 % hydrogen in pipeline at 1 bar and 300 K, NOx at 15 % O2" in html
     assert "GRI-Mech 3.0&#x27;s nitrogen chemistry" in html
+    assert "Highest NOx after 20 ms (dry, 15 % O2)" in html  # a key number of the design review
 
 
 @pytest.mark.slow

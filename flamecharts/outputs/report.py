@@ -149,6 +149,14 @@ def key_numbers(study: Study, rows: list[dict]) -> list[list[str]]:
         n_ok = sum(r["verdict"] == "ok" for r in ok)
         out.append(["Points with the verdict ok (every criterion assessed and met)", f"{n_ok} of {len(ok)}",
                     study.burner.name])
+    em = study.emissions
+    have = [r for r in ok if r.get("nox_ppmvd_at_reference_o2") is not None]
+    if em is not None and have:
+        w = max(have, key=lambda r: r["nox_ppmvd_at_reference_o2"])
+        out.append([f"Highest NOx after {1e3 * em.design_residence_time_s:g} ms (dry, {em.reference_oxygen_percent:g} % O2)",
+                    f"{w['nox_ppmvd_at_reference_o2']:.3g} ppm", f"{gas_label(w)}, φ {w['equivalence_ratio']:g}, "
+                    f"{w['pressure_bar']:g} bar, {w['unburned_temperature_K']:g} K (laminar flame and plug flow: a "
+                    "screening estimate)"])
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
