@@ -47,14 +47,14 @@ def _reference(study: Study) -> tuple[float, float]:
 
 @chart("nox_vs_equivalence_ratio",
        "NOx (NO + NO2, dry, at the study's reference O2) after the design residence time against equivalence "
-       "ratio, a panel per pressure and preheat: thermal NO grows steeply with flame temperature, so the curves "
-       "peak near stoichiometric and fall fast on the lean side.",
+       "ratio, a panel per pressure and preheat, on a logarithmic axis: thermal NO grows steeply with flame "
+       "temperature, so the curves peak near stoichiometric and fall by decades on the lean side.",
        has_emissions)
 def nox_phi_chart(data: ChartData, study: Study) -> Figure:
     ref, t = _reference(study)
     return _phi_chart(data, study, "nox_ppmvd_at_reference_o2", 1.0, f"NOx at {ref:g} % O2, dry [ppm]",
                       ("NOx vs equivalence ratio",
-                       f"How much NOx after {t:g} ms of burned gas? ({SCREENING})"))
+                       f"How much NOx after {t:g} ms of burned gas? ({SCREENING}; log scale)"), log_y=True)
 
 
 @chart("nox_vs_blend_fraction",

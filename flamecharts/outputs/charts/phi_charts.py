@@ -80,10 +80,11 @@ def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float
 
 def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: str, title: tuple[str, str],
                companion: tuple[str, str] | None = None, floor_at_preheat: bool = False,
-               band: str | None = None, error_bars: str | None = None) -> Figure:
+               band: str | None = None, error_bars: str | None = None, log_y: bool = False) -> Figure:
     """One panel per (pressure, preheat), one curve per gas. ``band``: a column of percent
     drawn as a shaded band around each curve (the kinetic 1-sigma band); ``error_bars``: a
-    column of percent drawn as error bars (the numerical band)."""
+    column of percent drawn as error bars (the numerical band). ``log_y``: a logarithmic axis
+    (quantities spanning decades), the points without a flame then at half its smallest value."""
     rows = data.shown_rows  # big studies: the chart rule of registry.py picks the levels drawn
     panels = panel_keys(rows)
     curves = curve_keys(rows)
@@ -96,8 +97,9 @@ def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel:
     colours = plt.get_cmap(CMAP)(np.linspace(0.0, 0.85, max(len(curves), 1)))
     handles: dict[str, Artist] = {}
     shown: set[str] = set()
+    positive = [r[column] * scale for r in rows if r["status"] == "ok" and r.get(column) and r[column] > 0]
     for ax, (P, T) in zip(axes.flat, panels):
-        floor = T * scale if floor_at_preheat else 0.0
+        floor = T * scale if floor_at_preheat else 0.5 * min(positive) if log_y and positive else 0.0
         for ci, ck in enumerate(curves):
             sel = data.series.get(ck + (P, T), [])
             good = [r for r in sel if r["status"] == "ok" and r[column] is not None]
@@ -131,7 +133,11 @@ def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel:
         ax.set_ylabel(ylabel)
         ax.tick_params(labelleft=True)  # shared scale, but every panel keeps its numbers
         ax.grid(True, color="0.88", lw=0.7)
-    if not floor_at_preheat:
+    if log_y and positive:
+        for ax in axes.flat:
+            ax.set_yscale("log")
+        axes.flat[0].set_ylim(bottom=0.4 * min(positive))
+    elif not floor_at_preheat:
         axes.flat[0].set_ylim(bottom=0.0)
     elif shown & {"no_flame", "failed"}:  # points without a flame sit at the preheat: show it
         axes.flat[0].set_ylim(bottom=min(T for _, T in panels) * scale)
