@@ -64,6 +64,8 @@ GROUPS = {
     "GAS_COLUMNS": ("Fuel gas", "every point: the ISO 6976 properties of its fuel gas"),
     "BURNER_COLUMNS": ("Burner", "empty unless the study has a [burner]"),
     "PREMIXER_COLUMNS": ("Premixer", "empty unless the study has a [premixer]"),
+    "TURBULENCE_COLUMNS": ("Premixer turbulence", "burning points of a study with [premixer] and a [burner]: u', l_t "
+                                                  "and Peters' regime numbers"),
     "EMISSION_COLUMNS": ("Emissions", "empty unless the study has [emissions]: the design residence time's values"),
 }
 #: The columns that belong to no group, in the chunks they come in (the numerical error sits between two).
@@ -105,6 +107,7 @@ WHEN = {
     "has_stretch": "[stretch]",
     "has_sensitivities": "[uncertainty]",
     "has_emissions": "[emissions], a burning point with emissions",
+    "has_regimes": "[premixer] and a [burner] with a port velocity, and a burning point",
     "several_blends_with_emissions": "[emissions] and several blend fractions",
     "compares_flames": "several mechanisms",
     "compares_limits": "several mechanisms and [limits]",

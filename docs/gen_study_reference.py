@@ -248,6 +248,12 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "min_autoignition_margin": Key("a number, 1 or more", code(lambda d: d.premixer.min_autoignition_margin),
                                            "required ignition delay over residence time (common practice, set your "
                                            "own)"),
+            "turbulence_intensity_percent": Key("a number, 0.1 to 100 [%]", "the duct estimate",
+                                                "u' at the flame in per cent of the burner's port velocity; without "
+                                                "it, 16 Re^-1/8 % of a fully developed duct flow (common practice)"),
+            "integral_length_mm": Key("a number above 0, at most 1000 [mm]", "the duct estimate",
+                                      "integral length of the turbulence; without it, 0.07 of the port's hydraulic "
+                                      "diameter (common practice)"),
         }),
         ("flame_response", "[flame_response]", C.FLAME_RESPONSE_KEYS, (
             "Zeldovich, effective Lewis and Markstein numbers and the thermodiffusive instability flag: two more "

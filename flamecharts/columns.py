@@ -204,6 +204,15 @@ UNITS: dict[str, tuple[str, str]] = {
     "nox_mg_kwh": ("mg/kWh", "NOx counted as NO2 per kWh of fuel heat input (the study's heating-value basis)"),
     "co_mg_kwh": ("mg/kWh", "CO per kWh of fuel heat input (the study's heating-value basis)"),
     "emissions_note": ("", "why a burning point has no emission values"),
+    "rms_velocity_m_s": ("m/s", "turbulent velocity fluctuation u' at the flame ([premixer]: the study's intensity "
+                                "times the port velocity, or the duct estimate)"),
+    "integral_length_mm": ("mm", "integral length scale l_t of the turbulence at the flame"),
+    "turbulence_source": ("", "where u' and l_t come from: study, duct estimate (common practice), or both"),
+    "turbulent_reynolds_number": ("1", "Re_t = u' l_t / (S_L l_F), l_F = alpha_u / S_L (Peters 2000)"),
+    "damkohler_number": ("1", "Da = (l_t / u') / (l_F / S_L): large-eddy time over flame time"),
+    "karlovitz_number": ("1", "Ka = (u'/S_L)^1.5 (l_t/l_F)^-0.5: flame time over Kolmogorov time"),
+    "combustion_regime": ("", "regime of Peters' diagram: laminar, wrinkled or corrugated flamelets, thin or broken "
+                              "reaction zones"),
     "equal_flame_temperature_equivalence_ratio": ("1", "equivalence ratio at which this gas burns at the adiabatic "
                                                        "flame temperature of the unblended gas at this point's phi"),
     "nox_ppmvd_at_reference_o2_equal_flame_temperature": ("ppm", "NOx of this gas at that equivalence ratio, dry at the "
@@ -229,6 +238,9 @@ BURNER_COLUMNS = (
 #: Premixer autoignition columns (empty unless the study has a [premixer] table).
 PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignition_delay_ms",
                     "injection_equivalence_ratio", "injection_autoignition_margin", "autoignition_verdict")
+#: The premixer's turbulence and the flame's regime (empty unless [premixer] and [burner]).
+TURBULENCE_COLUMNS = ("rms_velocity_m_s", "integral_length_mm", "turbulence_source", "turbulent_reynolds_number",
+                      "damkohler_number", "karlovitz_number", "combustion_regime")
 #: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
 EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
                     "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
@@ -278,7 +290,8 @@ COLUMNS = ((
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
     "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS + EMISSION_COLUMNS
+) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
+  + TURBULENCE_COLUMNS + EMISSION_COLUMNS
   + ("warnings",))
 
 #: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference

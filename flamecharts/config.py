@@ -82,7 +82,7 @@ LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "wobbe")
 DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 #: Flames one limit search may solve before it stops and reports its bracket.
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
-PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin")
+PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin", "turbulence_intensity_percent", "integral_length_mm")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
 EMISSIONS_KEYS = ("residence_times_ms", "design_residence_time_ms", "reference_oxygen_percent", "heating_value",
                   "specific", "equal_flame_temperature")
@@ -188,6 +188,10 @@ class Premixer:
 
     residence_time_s: float
     min_autoignition_margin: float = DEFAULT_MIN_AUTOIGNITION_MARGIN
+    #: The flow's turbulence where the flame sits: u' as a share of the bulk (port) velocity, and
+    #: the integral length [m]; None: estimated from the burner's duct (physics.premixer.duct_turbulence).
+    turbulence_intensity: float | None = None
+    integral_length_m: float | None = None
 
 
 @dataclass(frozen=True)
@@ -613,7 +617,15 @@ def _premixer(t: Any) -> Premixer:
     if m is not None and m < 1.0:
         raise ConfigError(f"'premixer.min_autoignition_margin' is {m:g}; allowed: 1 or more (ignition delay over "
                           "residence time: below 1 the mixture ignites inside the premixer)")
-    return Premixer(residence_time_s=tau, **({} if m is None else {"min_autoignition_margin": m}))
+    intensity = _positive(t, "turbulence_intensity_percent", "premixer", 0.01)
+    if intensity is not None and not 0.001 <= intensity <= 1.0:
+        raise ConfigError(f"'premixer.turbulence_intensity_percent' is {100 * intensity:g}; allowed: 0.1 to 100 "
+                          "(u' in per cent of the bulk velocity at the flame; ducts about 5-10, swirlers 10-30)")
+    length = _positive(t, "integral_length_mm", "premixer", 1e-3)
+    if length is not None and length > 1.0:
+        raise ConfigError(f"'premixer.integral_length_mm' is {length * 1e3:g} mm, more than 1 m: the key is in mm")
+    return Premixer(residence_time_s=tau, turbulence_intensity=intensity, integral_length_m=length,
+                    **({} if m is None else {"min_autoignition_margin": m}))
 
 
 def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emissions:

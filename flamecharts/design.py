@@ -15,7 +15,15 @@ import re
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from .columns import BURNER_COLUMNS, EMISSION_COLUMNS, GAS_COLUMNS, INDICATOR_COLUMNS, KINETIC_COLUMNS, PREMIXER_COLUMNS
+from .columns import (
+    BURNER_COLUMNS,
+    EMISSION_COLUMNS,
+    GAS_COLUMNS,
+    INDICATOR_COLUMNS,
+    KINETIC_COLUMNS,
+    PREMIXER_COLUMNS,
+    TURBULENCE_COLUMNS,
+)
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
 from .physics import (
@@ -24,6 +32,7 @@ from .physics import (
     indicators as ind,
     kinetic_uncertainty as ku,
     mixtures,
+    turbulence as turb,
     validity as val,
 )
 from .physics.autoignition import INJECTION_PHIS, injection_end
@@ -35,6 +44,7 @@ from .physics.limits import (
     pressure_warning,
     unsolved_autoignition_warning,
 )
+from .physics.premixer import duct_turbulence
 from .physics.rate_factors import RATE_FACTORS
 
 if TYPE_CHECKING:
@@ -320,6 +330,7 @@ def annotate(study: Study, rows: list[dict]) -> list[dict]:
         for col in GAS_COLUMNS:
             r[col] = gas.row[col]
         r.update(_burner_margins(study, r, gas, s))
+        r.update(turbulence_columns(study, r))
         r.update(emission_columns(study, r, gas.row))
     return rows
 
@@ -450,6 +461,36 @@ def point_warnings(study: Study, point: Point, row: dict) -> str:
            heavy_hydrocarbon_warning(study.mechanism, point.X_fuel, all_atoms(study)),
            instability_warning(row), lewis_warning(row)]
     return "; ".join(w for w in out if w)
+
+
+def turbulence_columns(study: Study, row: dict) -> dict:
+    """Where a burning point's flame sits in the regimes of premixed turbulent combustion
+    ([premixer] with a [burner] that sets the bulk velocity; columns.TURBULENCE_COLUMNS): u' and
+    l_t from the study, or estimated from the burner's duct (physics.premixer.duct_turbulence:
+    u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h, common practice without source), and Peters'
+    turbulent Reynolds, Damkohler and Karlovitz numbers with l_F = alpha_u / S_L and the
+    regime (physics.turbulence; Peters 2000)."""
+    out: dict[str, Any] = dict.fromkeys(TURBULENCE_COLUMNS)
+    pm, b = study.premixer, study.burner
+    U = row.get("port_velocity_m_s")
+    if pm is None or b is None or row["status"] != "ok" or not U or not row.get("unburned_viscosity_Pa_s"):
+        return out
+    D_h = hydraulic_diameter(b)
+    nu = row["unburned_viscosity_Pa_s"] / row["unburned_density_kg_m3"]
+    duct = duct_turbulence(U, D_h, nu)
+    u_p = U * pm.turbulence_intensity if pm.turbulence_intensity is not None else duct.u_prime_m_s
+    l_t = pm.integral_length_m if pm.integral_length_m is not None else duct.integral_length_m
+    S_L = row["laminar_flame_speed_m_s"]
+    l_F = float(turb.diffusive_thickness(row["unburned_thermal_diffusivity_m2_s"], S_L))
+    given = (pm.turbulence_intensity is not None, pm.integral_length_m is not None)
+    out.update(rms_velocity_m_s=u_p, integral_length_mm=1e3 * l_t,
+               turbulence_source="study" if all(given) else "duct estimate" if not any(given) else
+               "study and duct estimate",
+               turbulent_reynolds_number=float(turb.turbulent_reynolds(u_p, l_t, S_L, l_F)),
+               damkohler_number=float(turb.damkohler(u_p, l_t, S_L, l_F)),
+               karlovitz_number=float(turb.karlovitz(u_p, l_t, S_L, l_F)),
+               combustion_regime=turb.regime(u_p, l_t, S_L, l_F))
+    return out
 
 
 def premixer_columns(study: Study, point: Point, row: dict | None = None) -> dict:

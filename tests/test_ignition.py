@@ -161,3 +161,44 @@ def test_check_estimates_the_premixer_delays(tmp_path):
     assert "5 mixtures near the fuel injection" in line and "over 1 s" in line
     assert "under a second" in line or "about " in line
     assert "Estimated total" in done.stdout
+
+
+def test_a_premixers_turbulence_places_each_flame_in_peters_regimes(tmp_path):
+    """[premixer] with a [burner]: u' and l_t (the study's, else the duct estimate) and Peters'
+    numbers per burning point, consistent with their definitions (Peters 2000, sec. 2.3:
+    Re_t = Da^2 Ka^2; the regime from Re_t, u'/S_L and Ka), and the regime diagram drawn."""
+    from flamecharts.physics.turbulence import regime
+
+    burner = ('[burner]\nname = "test tube"\nport = "round"\nport_diameter_mm = 20.0\nport_velocity_m_s = 30.0\n')
+    cfg = write_h2_study(tmp_path, phis="[0.5, 1.0]", fractions="[0.0]",
+                         extra="[premixer]\nresidence_time_ms = 2.0\n\n" + burner)
+    res = flamecharts.run(cfg, out=tmp_path / "out", jobs=1, report=False)
+    ok = [r for r in res.rows if r["status"] == "ok"]
+    assert ok and all(r["turbulence_source"] == "duct estimate" for r in ok)
+    for r in ok:
+        nu = r["unburned_viscosity_Pa_s"] / r["unburned_density_kg_m3"]
+        Re = 30.0 * 0.02 / nu  # the duct estimate: u'/U = 0.16 Re^-1/8, l_t = 0.07 D (common practice)
+        assert r["rms_velocity_m_s"] == pytest.approx(30.0 * 0.16 * Re ** -0.125, rel=1e-9)
+        assert r["integral_length_mm"] == pytest.approx(1.4, rel=1e-12)
+        assert r["turbulent_reynolds_number"] == pytest.approx(r["damkohler_number"] ** 2 * r["karlovitz_number"] ** 2,
+                                                               rel=1e-9)
+        l_F = r["unburned_thermal_diffusivity_m2_s"] / r["laminar_flame_speed_m_s"]
+        assert r["combustion_regime"] == regime(r["rms_velocity_m_s"], 1.4e-3, r["laminar_flame_speed_m_s"], l_F)
+    assert (tmp_path / "out" / "charts" / "turbulent_regime_diagram.png").stat().st_size > 15_000
+    # the study's own turbulence replaces the estimate
+    cfg.write_text(cfg.read_text().replace("residence_time_ms = 2.0", "residence_time_ms = 2.0\n"
+                                           "turbulence_intensity_percent = 10\nintegral_length_mm = 3"))
+    again = flamecharts.run(cfg, out=tmp_path / "out", jobs=1, charts=False, report=False)
+    r = next(r for r in again.rows if r["status"] == "ok")
+    assert again.summary.solved == 0 and r["turbulence_source"] == "study"
+    assert r["rms_velocity_m_s"] == pytest.approx(3.0) and r["integral_length_mm"] == pytest.approx(3.0)
+
+
+@pytest.mark.parametrize("extra, message", [
+    ("turbulence_intensity_percent = 150", "'premixer.turbulence_intensity_percent' is 150; allowed: 0.1 to 100"),
+    ("integral_length_mm = 5000", "'premixer.integral_length_mm' is 5000 mm, more than 1 m"),
+    ("integral_length_mm = 0", "'premixer.integral_length_mm' must be > 0"),
+])
+def test_premixer_turbulence_keys_name_the_key(tmp_path, extra, message):
+    with pytest.raises(ConfigError, match=message):
+        flamecharts.load_study(write_h2_study(tmp_path, extra=f"[premixer]\nresidence_time_ms = 2\n{extra}\n"))

@@ -349,7 +349,25 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
                      _injection_cell(s), f"{s['points'] - s['risky_points']} of {s['points']}",
-                     "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more]
+                     "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more] + _regime_lines(rows)
+
+
+def _regime_lines(rows: list[dict]) -> list[str]:
+    """One paragraph on where the premixer's flames sit among the turbulent regimes (design.turbulence_columns)."""
+    have = [r for r in rows if r.get("combustion_regime")]
+    if not have:
+        return []
+    counts: dict[str, int] = {}
+    for r in have:
+        counts[r["combustion_regime"]] = counts.get(r["combustion_regime"], 0) + 1
+    ka = [r["karlovitz_number"] for r in have]
+    return [f"<p><b>Turbulent flame regime</b> (Peters 2000; u' {min(r['rms_velocity_m_s'] for r in have):.3g}-"
+            f"{max(r['rms_velocity_m_s'] for r in have):.3g} m/s and l_t {have[0]['integral_length_mm']:.3g} mm, "
+            f"{_e(have[0]['turbulence_source'])}): "
+            + ", ".join(f"{_e(k)} at {n} of {len(have)} points" for k, n in sorted(counts.items(), key=lambda t: -t[1]))
+            + f"; Karlovitz number {min(ka):.2g}-{max(ka):.2g}. Laminar flame criteria do not apply in a turbulent "
+            "premixer; see the regime diagram. The duct estimate (u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h) is common "
+            "practice without source: give the premixer's own turbulence where it is known.</p>"]
 
 
 def _emissions_section(study: Study, rows: list[dict]) -> list[str]:

@@ -27,6 +27,7 @@ from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
 from . import mechanism_charts  # noqa: F401,I001
 from . import emissions_charts  # noqa: F401,I001
+from . import regime_charts  # noqa: F401,I001
 # isort: on
 from .registry import CHARTS, ChartData
 from .style import note_empty_panels
