@@ -958,11 +958,12 @@ def live_facts(name: str, base_dir: Path | None, transport: str) -> MechanismFac
     """The facts of mechanism ``name`` read from its file (found beside the config, then in
     Cantera's data folders; its transport data checked): the only place config loads Cantera,
     imported here so that a run folder's study (saved facts) loads without it."""
-    from .chemistry.mechanism import find_mechanism, load_mechanism_atoms, mechanism_facts
+    from .chemistry.mechanism import check_mechanism, find_mechanism, mechanism_facts
 
     path = find_mechanism(name, base_dir)
-    load_mechanism_atoms(path, transport)
-    return mechanism_facts(name, str(path), file_sha256(path))
+    sha = file_sha256(path)
+    check_mechanism(path, transport, sha)
+    return mechanism_facts(name, str(path), sha)
 
 
 def _mechanisms(names: tuple[str, ...], facts_of: Callable[[str], MechanismFacts], check_species) -> list[MechanismChoice]:

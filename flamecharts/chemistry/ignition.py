@@ -16,7 +16,7 @@ from functools import lru_cache
 import cantera as ct
 
 from ..physics.autoignition import AUTOIGNITION_FACTOR, AUTOIGNITION_MAX_TIME_S, AUTOIGNITION_MIN_T_K
-from .mechanism import solution
+from .mechanism import mixture_key, solution
 
 #: Ignition = temperature rise of this much [K] in the reactor (or half the rise to the
 #: flame's adiabatic temperature, if smaller).
@@ -65,8 +65,7 @@ def _screen_delay(mechanism_path: str, X: dict, T_u: float, P: float, t_max: flo
     cannot be made (both screens above)."""
     try:
         rise = min(IGNITION_RISE_K, 0.5 * max(flame_temperature() - T_u, 1.0))
-        X_key = tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
-        return ignition_delay(mechanism_path, X_key, float(T_u), float(P), t_max, float(rise))
+        return ignition_delay(mechanism_path, mixture_key(X), float(T_u), float(P), t_max, float(rise))
     except Exception:  # noqa: BLE001 - a check that cannot be made gives no warning, never a crash
         return None
 

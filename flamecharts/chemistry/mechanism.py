@@ -5,7 +5,7 @@ Cantera. Everything here returns plain data or a ``cantera.Solution`` from the o
 cache, :func:`solution`.
 
 find_mechanism         a mechanism name -> a file (beside the config, then Cantera's data folders)
-load_mechanism_atoms   species -> element counts, after checking the transport data loads
+check_mechanism        whether Cantera loads a mechanism with the transport data a study needs
 solution               the cached ``cantera.Solution`` of a file and transport model
 cantera_model          the transport model Cantera loads for one of the study's models
 mechanism_text         the mechanism as one YAML text (for cluster workers)
@@ -16,7 +16,7 @@ from __future__ import annotations
 
 import re
 import tempfile
-from collections.abc import Iterable
+from collections.abc import Iterable, Mapping
 from functools import lru_cache
 from pathlib import Path
 
@@ -62,12 +62,6 @@ def reaction_equations(path: str) -> tuple[str, ...]:
     return tuple(solution(path).reaction_equations())
 
 
-def molar_masses(path: str, species: Iterable[str]) -> dict[str, float]:
-    """Molar mass [kg/kmol] of each species of the mechanism."""
-    gas = solution(path)
-    return {sp: float(gas.molecular_weights[gas.species_index(sp)]) for sp in species}
-
-
 def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
     """Resolve a mechanism name to a file: beside the config first, then Cantera's data folders."""
     candidates = []
@@ -99,20 +93,20 @@ def find_mechanism(mechanism: str, base_dir: Path | None) -> Path:
         "give a path to a Cantera mechanism file (YAML), e.g. gri30.yaml")
 
 
-def load_mechanism_atoms(path: Path, transport: str = "mixture-averaged") -> dict[str, dict[str, float]]:
-    """Species -> {element: atoms} for every species of a mechanism that has the transport
-    data ``transport`` needs (raises MechanismError)."""
+def check_mechanism(path: Path, transport: str, sha256: str) -> None:
+    """Raise MechanismError unless Cantera loads the mechanism, with the transport data
+    ``transport`` needs; both phases stay in the :func:`solution` cache (the facts and an
+    in-process run use them)."""
     try:
-        gas = ct.Solution(str(path), transport_model=None)
+        solution(str(path), None, sha256)
     except Exception as exc:  # Cantera raises CanteraError or YAML errors
         raise MechanismError(f"'mechanism' {path} cannot be loaded by Cantera ({first_line(exc, 200).rstrip(':')}); "
                              "give a Cantera mechanism file (YAML), e.g. gri30.yaml") from None
     try:
-        ct.Solution(str(path), transport_model=cantera_model(transport))
+        solution(str(path), transport, sha256)
     except Exception as exc:
         raise MechanismError(f"'mechanism' {path} has no usable {transport} transport data "
                              f"({first_line(exc, 160)}); a flame needs a mechanism with transport data") from None
-    return {sp.name: dict(sp.composition) for sp in gas.species()}
 
 
 def mechanism_text(path: str, transport: str) -> str:
@@ -173,13 +167,14 @@ def fallback_data(gas: ct.Solution, species: Iterable[str], combustion_T_C: int 
     return out
 
 
-@lru_cache(maxsize=65536)
-def viscosity(path: str, X: tuple, T: float, P: float) -> float:
-    """Dynamic viscosity [Pa s] of mixture X (tuple of (species, mole fraction)) at T [K],
-    P [Pa], from the mechanism's transport data (mixture-averaged)."""
-    gas = solution(path, "mixture-averaged")
-    gas.TPX = T, P, dict(X)
-    return float(gas.viscosity)
+def mixture_key(X: Mapping[str, float]) -> tuple[tuple[str, float], ...]:
+    """A mixture as a hashable key of the reactor caches: (species, mole fraction) pairs,
+    sorted, absent species dropped.
+
+    >>> mixture_key({"N2": 0.79, "O2": 0.21, "H2": 0.0})
+    (('N2', 0.79), ('O2', 0.21))
+    """
+    return tuple(sorted((k, float(v)) for k, v in X.items() if v > 0))
 
 
 @lru_cache(maxsize=8)

@@ -11,11 +11,9 @@ feeds it from Cantera, in the worker, so the numbers are stored with each flame.
 from __future__ import annotations
 
 from collections.abc import Callable, Mapping
-from functools import lru_cache
 from typing import TYPE_CHECKING, Any
 
 from ..physics import flame_response as fr
-from .mechanism import solution
 
 if TYPE_CHECKING:
     import cantera as ct
@@ -73,13 +71,6 @@ def lewis_numbers(gas: ct.Solution, X: dict, T: float, P: float) -> tuple[float 
     if sum(q) <= 0 or any(v is None for v in lhv):
         q = [X[k] for k in fuels]  # no heating values from this mechanism: by mole fraction
     return fr.blend_lewis_number_heat_release(le, q), le_o2
-
-
-@lru_cache(maxsize=65536)
-def lewis_numbers_of(path: str, X: tuple, T: float, P: float) -> tuple[float | None, float | None]:
-    """:func:`lewis_numbers` of mixture X (tuple of (species, mole fraction)) with the
-    mechanism at ``path`` (mixture-averaged): for rows of stores that did not store them."""
-    return lewis_numbers(solution(path, "mixture-averaged"), dict(X), T, P)
 
 
 def diluted(X: dict, inert: str, step: float) -> dict:

@@ -21,7 +21,7 @@ from typing import TYPE_CHECKING
 from ..chemistry.emissions import burned_gas_history, equilibrium_temperature_K, phi_at_flame_temperature
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
-from ..chemistry.mechanism import solution, viscosity
+from ..chemistry.mechanism import mixture_key, solution
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
@@ -87,7 +87,8 @@ def mixture_properties(mechanism_path: str, sha256: str, X: dict, T_u: float, P:
     whatever the study's). Keys: :data:`MIXTURE_PROPERTIES`."""
     mixed = solution(mechanism_path, "mixture-averaged", sha256)
     le_fuel, le_o2 = lewis_numbers(mixed, X, T_u, P)
-    mu = viscosity(mechanism_path, tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)), float(T_u), float(P))
+    mixed.TPX = T_u, P, X  # lewis_numbers may leave the phase in another state (heating values)
+    mu = float(mixed.viscosity)
     return {"lewis_number_fuel": le_fuel, "lewis_number_oxygen": le_o2, "unburned_viscosity_Pa_s": mu}
 
 
@@ -116,8 +117,8 @@ def premixer_task(task: dict) -> dict:
     over ``horizon_s``): the fresh mixture's and those of the ``injection`` mixtures (one per
     physics.autoignition.INJECTION_PHIS); a plain result dict in the store's form."""
     def delay(X: dict) -> float:
-        return ignition_delay_peak(task["mechanism_path"], tuple(sorted((k, float(v)) for k, v in X.items() if v > 0)),
-                                   float(task["T_u"]), float(task["P"]), float(task["horizon_s"]))
+        return ignition_delay_peak(task["mechanism_path"], mixture_key(X), float(task["T_u"]), float(task["P"]),
+                                   float(task["horizon_s"]))
     return _extra(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
                                            "premixer_horizon_s": task["horizon_s"],
                                            "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}, ""))
