@@ -20,7 +20,7 @@ import pytest
 
 import flamecharts
 from flamecharts.errors import StoreError
-from flamecharts.sweep.upgrade import BURNING_FIELDS
+from flamecharts.sweep.upgrade import BURNING_FIELDS, READOUT_MARK
 
 from conftest import run_cli, write_h2_study
 
@@ -104,7 +104,8 @@ def test_an_old_store_is_refused_then_upgraded_by_compact_after_a_backup(finishe
     folder, res = finished
     out = tmp_path / "out"
     shutil.copytree(folder / "out", out)
-    con = sqlite3.connect(out / "results.db")  # as a store written before the fields were stored
+    con = sqlite3.connect(out / "results.db")  # as a store written before the fields were stored: no mark
+    con.execute("DELETE FROM meta WHERE name = ?", (READOUT_MARK,))
     for key, metrics in con.execute("SELECT key, metrics FROM points WHERE status = 'ok'").fetchall():
         m = json.loads(metrics)
         if "laminar_flame_speed_m_s" in m:

@@ -373,12 +373,19 @@ class Store:
                     raise self._damaged(key, "inputs", exc) from None
         return out
 
-    def update_metrics(self, metrics: dict[str, dict]) -> None:
-        """Replace the metrics of stored rows (key -> new metrics) in one transaction: all or none."""
+    def has_mark(self, name: str) -> bool:
+        """Whether :meth:`update_metrics` left the mark ``name`` (a row of the meta table)."""
+        return bool(self._query("SELECT 1 FROM meta WHERE name = ?", (name,)))
+
+    def update_metrics(self, metrics: dict[str, dict], mark: str | None = None) -> None:
+        """Replace the metrics of stored rows (key -> new metrics) and, with ``mark``, note in the
+        meta table that this upgrade is complete, in one transaction: all or none."""
         try:
             with self._db:
                 self._db.executemany("UPDATE points SET metrics = ? WHERE key = ?",
                                      [(json.dumps(m), k) for k, m in metrics.items()])
+                if mark is not None:
+                    self._db.execute("INSERT OR REPLACE INTO meta VALUES (?, ?)", (mark, json.dumps({"at": time.time()})))
         except sqlite3.DatabaseError as exc:
             raise StoreError(f"results store {self.path} cannot be written ({exc}); every flame stored "
                              "before is kept unchanged") from None

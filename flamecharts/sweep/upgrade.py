@@ -1,7 +1,8 @@
 """Stores written before the read side stopped needing the mechanism, brought up to date.
 
 lacks_readout     whether a stored flame lacks what the read-out now takes from the store
-upgrade_store     those fields computed for every such flame (none solved again), after a backup
+upgrade_store     those fields computed for every such flame (none solved again), after a backup;
+                  the store then marked, so later runs skip the scan
 
 Since this version every worker stores with each flame what the read-out needs of its
 mixture (sweep.worker.mixture_properties, the autoignition screen): ``open_results``, the
@@ -13,7 +14,6 @@ the command that upgrades it.
 """
 from __future__ import annotations
 
-from collections.abc import Iterable
 from pathlib import Path
 
 from ..errors import StoreError
@@ -42,13 +42,6 @@ def lacks_readout(row: dict) -> bool:
     return any(f not in metrics for f in need)
 
 
-def unupgraded(store: Store, keys: Iterable[str] | None = None) -> list[str]:
-    """Keys of the store's points (not extras: their family has no ':') that lack read-out fields."""
-    rows = store.rows(keys)
-    inputs = store.inputs(rows)
-    return [k for k, r in rows.items() if lacks_readout(r) and not any(n.endswith("_of") for n in inputs[k])]
-
-
 def _fields(path: str, sha256: str, atoms: dict, row: dict, inputs: dict) -> dict:
     """The read-out fields of one stored flame, from its inputs and measurements."""
     from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame
@@ -68,28 +61,33 @@ def _fields(path: str, sha256: str, atoms: dict, row: dict, inputs: dict) -> dic
     return {**mixture_properties(path, sha256, X, T_u, P), **out}
 
 
+#: The store's mark that every flame in it has its read-out fields: later runs skip the scan.
+READOUT_MARK = "readout_fields_v1"
+
+
 def upgrade_store(store: Store, mechanisms: dict[str, tuple[str, dict]]) -> tuple[int, str | None]:
     """Compute the read-out fields of every stored flame that lacks them and was solved with one
     of ``mechanisms`` (content hash -> (file path, species atoms)); flames of other mechanisms
-    are left as they are. A backup copy is made first. Returns (flames upgraded, backup name)."""
-    keys = unupgraded(store)
-    if not keys:
+    are left as they are. A backup copy is made first. Once no flame lacks them the store is
+    marked (READOUT_MARK), so later runs do not read every row again to find out. Extra solves
+    (their inputs name the point they belong to, ``<kind>_of``) have no such fields.
+    Returns (flames upgraded, backup name)."""
+    if store.has_mark(READOUT_MARK):
         return 0, None
-    rows, inputs = store.rows(keys), store.inputs(keys)
+    rows, inputs = store.rows(), store.inputs()
+    keys = [k for k, r in rows.items() if lacks_readout(r) and not any(n.endswith("_of") for n in inputs[k])]
     todo = [k for k in keys if inputs[k].get("mechanism_sha256") in mechanisms]
-    if not todo:
-        return 0, None
     missing = sorted({mechanisms[inputs[k]["mechanism_sha256"]][0] for k in todo
                       if not Path(mechanisms[inputs[k]["mechanism_sha256"]][0]).is_file()})
     if missing:
         raise StoreError(f"results store {store.path} was written by an earlier flamecharts and {len(todo)} of its "
                          f"flames need their mixture properties computed once, from mechanism file {missing[0]}, "
                          "which is not there; put it back and run 'flamecharts compact DIR'")
-    copy = store.backup("readout")
+    copy = store.backup("readout") if todo else None
     new = {}
     for k in todo:
         path, atoms = mechanisms[inputs[k]["mechanism_sha256"]]
         new[k] = {**(rows[k]["metrics"] or {}),
                   **_fields(path, inputs[k]["mechanism_sha256"], atoms, rows[k], inputs[k])}
-    store.update_metrics(new)
-    return len(new), copy.name
+    store.update_metrics(new, mark=READOUT_MARK if len(todo) == len(keys) else None)
+    return len(new), copy.name if copy else None
