@@ -652,12 +652,13 @@ def emission_columns(study: Study, row: dict, gas_row: dict) -> dict:
         return out
     carbon = frozenset(s for s in hist["fuel_species"] if study.atoms.get(s, {}).get("C", 0) > 0)
     by_time = [emissions_at(em, gas_row, row["equivalence_ratio"], hist, i, carbon) for i in range(len(hist["times_s"]))]
-    design = min(by_time, key=lambda e: abs(e["residence_time_ms"] - 1e3 * em.design_residence_time_s))
+    i_design = min(range(len(by_time)),
+                   key=lambda i: abs(by_time[i]["residence_time_ms"] - 1e3 * em.design_residence_time_s))
+    design = by_time[i_design]
     out.update({k: v for k, v in design.items() if k in out})
     out.update(emissions_residence_time_ms=design["residence_time_ms"],
                emissions_reference_o2_percent=em.reference_oxygen_percent,
                emissions_heating_value=em.heating_value if em.specific else "")
-    i_design = by_time.index(design)
     if row["blend_fraction"] == 0.0 and em.equal_flame_temperature:  # the reference burns at its own temperature
         out.update(equal_flame_temperature_equivalence_ratio=row["equivalence_ratio"],
                    nox_ppmvd_at_reference_o2_equal_flame_temperature=design["nox_ppmvd_at_reference_o2"])

@@ -56,7 +56,7 @@ def _matched(study: Study, store: Store, blended: list[tuple[Point, Point]]) -> 
     for i, (p, ref) in enumerate(blended):
         m = (rows.get(equal_tad_key(p, ref)) or {}).get("metrics") or {}
         if m.get("phi") is not None:
-            out[p.key] = point_at_phi(study, p, float(m["phi"]), index=1_000_000 + i)
+            out[p.key] = point_at_phi(study, p, float(m["phi"]), index=i)  # indices of one solve_points call
     return out
 
 
