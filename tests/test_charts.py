@@ -248,7 +248,7 @@ def test_blend_comparison_covers_every_condition_and_flashback_plots_the_margin(
 
 
 def test_a_big_study_keeps_every_chart_readable(study_rows, tmp_path):
-    """The chart rule of registry.py (README, 'Charts of big studies'): 5 pressures x 4 preheats
+    """The chart rule of registry.py (docs/sweeps.md, 'Charts of big studies'): 5 pressures x 4 preheats
     x 10 blend fractions draw at most 9 panels and 12 curves a figure, and each figure names
     the levels it leaves out. Rows: the solved flames of the small study copied to every point."""
     import matplotlib.pyplot as plt
