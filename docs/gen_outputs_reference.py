@@ -71,6 +71,13 @@ GROUPS = {
                                 "of each correlation and the core-flow flashback margin on the largest (the "
                                 "leading-point speed and S_c,max only where a [stretch] ladder burned; see "
                                 "[Gas-turbine premixers](premixers.md#turbulent-flame-speed-and-core-flow-flashback))"),
+    "PREMIXER_MARGIN_COLUMNS": ("Premixer boundary-layer flashback and blowout",
+                                "burning points of a study with [premixer] and a [burner]: the critical-gradient "
+                                "boundary-layer margin (assessed in turbulent duct flow only with a calibrated "
+                                "turbulent Pe_F) and the extinction-strain Damköhler number of lean blowout (where a "
+                                "[stretch] ladder burned at the point's gas, pressure and preheat, and with a "
+                                "stabilizer; see [Gas-turbine premixers](premixers.md#flashback-and-blowoff-in-a-"
+                                "premixer-tube))"),
     "EMISSION_COLUMNS": ("Emissions", "empty unless the study has [emissions]: the design residence time's values"),
 }
 #: The columns that belong to no group, in the chunks they come in (the numerical error sits between two).

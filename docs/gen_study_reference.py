@@ -254,6 +254,13 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "integral_length_mm": Key("a number above 0, at most 1000 [mm]", "the duct estimate",
                                       "integral length of the turbulence; without it, 0.07 of the port's hydraulic "
                                       "diameter (common practice)"),
+            "turbulent_flashback_peclet": Key("a number above 0, at most 10000", "not set",
+                                              "Pe_F of boundary-layer flashback in turbulent duct flow, calibrated on "
+                                              "your own premixer; without it the boundary-layer margin is not assessed "
+                                              "above Re 2300"),
+            "blowout_damkohler": Key("a number, 0.01 to 100", code(lambda d: d.premixer.blowout_damkohler),
+                                     "critical extinction Damköhler number κ_ext d / U_edge of lean blowout (of "
+                                     "order one, from memory: calibrate it on your own stabilizer)"),
         }),
         ("flame_response", "[flame_response]", C.FLAME_RESPONSE_KEYS, (
             "Zeldovich, effective Lewis and Markstein numbers and the thermodiffusive instability flag: two more "

@@ -99,7 +99,8 @@ UNITS: dict[str, tuple[str, str]] = {
     "quench_ratio": ("1", "quenching size over port size"),
     "bluff_body_blowoff_velocity_m_s": ("m/s", "blowoff velocity of the bluff-body stabilizer"),
     "stabilizer_margin": ("1", "stabilizer blowoff velocity over the velocity past the body's edge"),
-    "verdict": ("", "burner verdict: ok or the risks found, and the criteria not assessed"),
+    "verdict": ("", "burner verdict: ok or the risks found, and the criteria not assessed (a premixer's: on its "
+                    "core-flow and boundary-layer flashback and extinction-strain blowout margins)"),
     "criteria_not_assessed": ("", "criteria outside the range of their data at this point, and why (blank margin)"),
     "warnings": ("", "inputs outside the range the method or mechanism covers"),
     "ignition_delay_ms": ("ms", "constant-pressure ignition delay of the fresh mixture (time of max dT/dt)"),
@@ -228,6 +229,29 @@ UNITS: dict[str, tuple[str, str]] = {
     "core_flashback_margin": ("1", "bulk (port) velocity over the largest turbulent flame speed of the correlations "
                                    "at the point: below 1 the flame can travel upstream through the core"),
     "core_flashback_correlation": ("", "the correlation that gave the largest turbulent flame speed (the margin's)"),
+    "premixer_wall_velocity_gradient_1_s": ("1/s", "wall velocity gradient of the premixer's fully developed duct "
+                                                   "flow, laminar through turbulent (Churchill 1977's friction "
+                                                   "factor)"),
+    "wall_friction_velocity_m_s": ("m/s", "friction velocity u_tau = U (f/8)^(1/2) of the premixer's duct flow"),
+    "boundary_layer_flame_speed_m_s": ("m/s", "flame speed of the critical-gradient model: S_L, or the strained "
+                                              "flames' S_c,max where a [stretch] ladder burned and it is larger"),
+    "boundary_layer_critical_gradient_1_s": ("1/s", "critical wall gradient S^2 / (Pe_F alpha_u) (Lewis & von Elbe; "
+                                                    "Putnam & Jensen), Pe_F laminar, turbulent or blended in Re"),
+    "boundary_layer_flashback_margin": ("1", "wall velocity gradient over the critical one: below 1 the flame can "
+                                             "enter the duct's boundary layer (blank where not assessed)"),
+    "boundary_layer_flashback_status": ("", "assessed (with which Pe_F and flame speed), or not assessed and why"),
+    "extinction_karlovitz_number": ("1", "C = kappa_ext alpha_u / S_L^2: the extinction strain rate in units of the "
+                                         "flame's own strain scale S_L^2 / alpha_u"),
+    "blowout_extinction_strain_rate_1_s": ("1/s", "extinction strain rate at the point: its [stretch] ladder's, else "
+                                                  "interpolated (linear in its logarithm) between the ladder points "
+                                                  "of its gas, pressure and preheat"),
+    "extinction_strain_source": ("", "at a ladder point, interpolated, nearest ladder point (beyond the ladders' "
+                                     "span), or not assessed: no ladder at this condition"),
+    "stabilizer_edge_velocity_m_s": ("m/s", "velocity past the stabilizer's edge, U_approach / (1 - blockage)"),
+    "extinction_damkohler_number": ("1", "Da_ext = kappa_ext d / U_edge: shear-layer flow time over the extinction "
+                                         "time (Shanbhogue, Husain & Lieuwen 2009; Zhang et al. 2007)"),
+    "extinction_blowout_margin": ("1", "Da_ext over its critical value ([premixer] blowout_damkohler): below 1, "
+                                       "lean blowout"),
     "equal_flame_temperature_equivalence_ratio": ("1", "equivalence ratio at which this gas burns at the adiabatic "
                                                        "flame temperature of the unblended gas at this point's phi"),
     "nox_ppmvd_at_reference_o2_equal_flame_temperature": ("ppm", "NOx of this gas at that equivalence ratio, dry at the "
@@ -261,6 +285,14 @@ TURBULENCE_COLUMNS = ("rms_velocity_m_s", "integral_length_mm", "turbulence_sour
 TURBULENT_SPEED_COLUMNS = ("strained_consumption_speed_max_m_s", "turbulent_flame_speed_zimont_m_s",
                            "turbulent_flame_speed_muppala_m_s", "turbulent_flame_speed_leading_point_m_s",
                            "turbulent_flame_speed_outside_range", "core_flashback_margin", "core_flashback_correlation")
+#: The premixer's boundary-layer flashback and extinction-strain blowout (empty unless [premixer] and
+#: [burner]; the blowout only where a [stretch] ladder burned at the point's gas, pressure and preheat).
+PREMIXER_MARGIN_COLUMNS = ("premixer_wall_velocity_gradient_1_s", "wall_friction_velocity_m_s",
+                           "boundary_layer_flame_speed_m_s", "boundary_layer_critical_gradient_1_s",
+                           "boundary_layer_flashback_margin", "boundary_layer_flashback_status",
+                           "extinction_karlovitz_number", "blowout_extinction_strain_rate_1_s",
+                           "extinction_strain_source", "stabilizer_edge_velocity_m_s", "extinction_damkohler_number",
+                           "extinction_blowout_margin")
 #: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
 EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
                     "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
@@ -311,7 +343,7 @@ COLUMNS = ((
     "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
 ) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
-  + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + EMISSION_COLUMNS
+  + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + PREMIXER_MARGIN_COLUMNS + EMISSION_COLUMNS
   + ("warnings",))
 
 #: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference

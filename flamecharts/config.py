@@ -50,6 +50,7 @@ from .facts import MechanismFacts, file_sha256
 from .physics import lumping, mixtures
 from .physics.gasprops import ISO6976_2016
 from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
+from .physics.premixer import BLOWOUT_CRITICAL_DAMKOHLER
 
 TRANSPORT_MODELS = ("mixture-averaged", "multicomponent", "unity-Lewis-number")
 RESOLUTIONS = ("standard", "fine", "coarse")
@@ -82,7 +83,8 @@ LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "wobbe")
 DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 #: Flames one limit search may solve before it stops and reports its bracket.
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
-PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin", "turbulence_intensity_percent", "integral_length_mm")
+PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin", "turbulence_intensity_percent", "integral_length_mm",
+                 "turbulent_flashback_peclet", "blowout_damkohler")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
 EMISSIONS_KEYS = ("residence_times_ms", "design_residence_time_ms", "reference_oxygen_percent", "heating_value",
                   "specific", "equal_flame_temperature")
@@ -192,6 +194,11 @@ class Premixer:
     #: the integral length [m]; None: estimated from the burner's duct (physics.premixer.duct_turbulence).
     turbulence_intensity: float | None = None
     integral_length_m: float | None = None
+    #: Pe_F of turbulent boundary-layer flashback, calibrated by the user (None: not set, and the
+    #: boundary-layer margin is not assessed in turbulent duct flow; physics.premixer.boundary_layer_flashback).
+    turbulent_flashback_peclet: float | None = None
+    #: Critical extinction Damkohler number of lean blowout (physics.premixer.BLOWOUT_CRITICAL_DAMKOHLER).
+    blowout_damkohler: float = BLOWOUT_CRITICAL_DAMKOHLER
 
 
 @dataclass(frozen=True)
@@ -624,8 +631,17 @@ def _premixer(t: Any) -> Premixer:
     length = _positive(t, "integral_length_mm", "premixer", 1e-3)
     if length is not None and length > 1.0:
         raise ConfigError(f"'premixer.integral_length_mm' is {length * 1e3:g} mm, more than 1 m: the key is in mm")
+    pe = _positive(t, "turbulent_flashback_peclet", "premixer")
+    if pe is not None and pe > 1e4:
+        raise ConfigError(f"'premixer.turbulent_flashback_peclet' is {pe:g}; allowed: above 0, at most 10000 (the "
+                          "laminar tube value is 13; calibrate it on your own premixer)")
+    da = _positive(t, "blowout_damkohler", "premixer")
+    if da is not None and not 0.01 <= da <= 100.0:
+        raise ConfigError(f"'premixer.blowout_damkohler' is {da:g}; allowed: 0.01 to 100 (critical extinction "
+                          "Damkohler number of lean blowout, of order one)")
     return Premixer(residence_time_s=tau, turbulence_intensity=intensity, integral_length_m=length,
-                    **({} if m is None else {"min_autoignition_margin": m}))
+                    turbulent_flashback_peclet=pe, **({} if m is None else {"min_autoignition_margin": m}),
+                    **({} if da is None else {"blowout_damkohler": da}))
 
 
 def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emissions:

@@ -5,6 +5,7 @@ indicator setting or the burner never needs a flame to be solved again.
 
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
+premixer_margins          a premixer's boundary-layer flashback, extinction-strain blowout and verdict
 point_warnings            inputs outside the range the method or the mechanism covers
 mechanism_differences     flame speed and thickness of each mechanism a study compares against the reference's
 """
@@ -22,6 +23,7 @@ from .columns import (
     INDICATOR_COLUMNS,
     KINETIC_COLUMNS,
     PREMIXER_COLUMNS,
+    PREMIXER_MARGIN_COLUMNS,
     TURBULENCE_COLUMNS,
     TURBULENT_SPEED_COLUMNS,
 )
@@ -47,10 +49,14 @@ from .physics.limits import (
 )
 from .physics.premixer import (
     FlameSpeed,
+    boundary_layer_flashback,
     core_flashback_margin,
     duct_turbulence,
+    extinction_damkohler,
     leading_point_flame_speed,
+    lean_blowout_margin,
     muppala_flame_speed,
+    wall_velocity_gradient as premixer_wall_gradient,
     zimont_flame_speed,
 )
 from .physics.rate_factors import RATE_FACTORS
@@ -341,6 +347,7 @@ def annotate(study: Study, rows: list[dict]) -> list[dict]:
         r.update(turbulence_columns(study, r))
         r.update(turbulent_speed_columns(r))
         r.update(emission_columns(study, r, gas.row))
+    premixer_margins(study, rows)
     return rows
 
 
@@ -736,3 +743,238 @@ def emission_columns(study: Study, row: dict, gas_row: dict) -> dict:
     out["emissions_note"] = ""
     out["emissions_by_time"] = by_time
     return out
+
+
+# --- a premixer's boundary-layer flashback, extinction-strain blowout and verdict (issue 30, items 5-7) ---
+
+def boundary_layer_columns(study: Study, row: dict) -> dict:
+    """Boundary-layer flashback of a burning premixer point (columns.PREMIXER_MARGIN_COLUMNS, its
+    first six) by the critical-gradient model (physics.premixer.boundary_layer_flashback; Lewis &
+    von Elbe, Putnam & Jensen): the duct's wall velocity gradient, laminar through turbulent
+    (Churchill 1977), over g_c = S^2 / (Pe_F alpha_u). S is S_L, or the strained flames' S_c,max
+    where a [stretch] ladder burned at the point and it is larger (the leading-point reading for
+    Le_eff < 1: not validated against flashback data). Pe_F is the [indicators] laminar value up to
+    Re 2300 and, from Re 4000, [premixer] turbulent_flashback_peclet (blended between); without
+    that key the margin is not assessed in transitional or turbulent flow. Where the laminar Pe_F
+    counts, the laminar criterion's pressure and preheat range holds too (physics.validity).
+    The margin is blank where not assessed; the status says why."""
+    out: dict[str, Any] = dict.fromkeys(PREMIXER_MARGIN_COLUMNS[:6])
+    pm, b = study.premixer, study.burner
+    U, mu = row.get("port_velocity_m_s"), row.get("unburned_viscosity_Pa_s")
+    if pm is None or b is None or row["status"] != "ok" or not U or not mu:
+        return out
+    D_h, nu = hydraulic_diameter(b), mu / row["unburned_density_kg_m3"]
+    S_L, alpha = row["laminar_flame_speed_m_s"], row["unburned_thermal_diffusivity_m2_s"]
+    S_c = row.get("ladder_consumption_speed_max_m_s")
+    strained = bool(S_c and S_c > S_L)
+    S = float(S_c) if S_c and strained else S_L
+    Pe_lam, Pe_turb = study.indicator_settings["flashback_peclet"], pm.turbulent_flashback_peclet
+    m = boundary_layer_flashback(U, D_h, nu, S, alpha, Pe_lam, Pe_turb)
+    g = float(premixer_wall_gradient(U, D_h, nu))
+    Re = U * D_h / nu
+    why = [m.why] if m.why else []
+    if Re < val.TURBULENT_REYNOLDS and not why:  # the laminar Pe_F counts: its data's range
+        why = val.domain_reasons(val.DOMAINS["flashback"], reynolds=None, pressure_bar=row["pressure_bar"],
+                                 unburned_temperature_K=row["unburned_temperature_K"],
+                                 equivalence_ratio=row["equivalence_ratio"], deficient_lewis=None)
+    pe_words = (f"laminar Pe_F {Pe_lam:g}" if Re <= val.LAMINAR_REYNOLDS or Pe_turb is None
+                else f"turbulent Pe_F {Pe_turb:g} of [premixer]" if Re >= val.TURBULENT_REYNOLDS
+                else f"Pe_F blended from {Pe_lam:g} to {Pe_turb:g} (transitional Re {Re:.3g})")
+    out.update(premixer_wall_velocity_gradient_1_s=g, wall_friction_velocity_m_s=math.sqrt(g * nu),
+               boundary_layer_flame_speed_m_s=S, boundary_layer_critical_gradient_1_s=g / m.value,
+               boundary_layer_flashback_margin=None if why else m.value,
+               boundary_layer_flashback_status=(f"not assessed: {'; '.join(why)}" if why else
+                                                f"assessed ({pe_words}, on {'S_c,max' if strained else 'S_L'})"))
+    return out
+
+
+#: The point axes whose ladders' extinction strain rates are interpolated along: one gas, pressure and preheat.
+LADDER_GROUP = ("fuel", "oxidizer", "pressure_bar", "unburned_temperature_K")
+
+
+def ladder_extinction(row: dict) -> float | None:
+    """kappa_ext [1/s] of a burning point whose [stretch] ladder burned, else None."""
+    K = row.get("ladder_extinction_strain_rate_1_s")
+    return float(K) if row.get("status") == "ok" and K else None
+
+
+def ladder_points(rows: list[dict]) -> dict[tuple, dict[tuple[float, float], float]]:
+    """(fuel, oxidizer, p, T) -> {(blend fraction, phi): kappa_ext} of every point whose ladder burned."""
+    out: dict[tuple, dict[tuple[float, float], float]] = {}
+    for r in rows:
+        K = ladder_extinction(r)
+        if K is not None:
+            out.setdefault(tuple(r[a] for a in LADDER_GROUP), {})[(r["blend_fraction"], r["equivalence_ratio"])] = K
+    return out
+
+
+def _bracket(xs: list[float], v: float) -> tuple[list[tuple[int, float]], bool]:
+    """(index, weight) of the sorted values ``xs`` that linear interpolation at ``v`` uses, and
+    whether ``v`` lies beyond them (then the nearest one, weight 1: held, never extrapolated)."""
+    if v <= xs[0] or v >= xs[-1]:
+        i = 0 if v <= xs[0] else len(xs) - 1
+        return [(i, 1.0)], not math.isclose(v, xs[i], rel_tol=1e-9, abs_tol=1e-12)
+    j = next(k for k in range(1, len(xs)) if xs[k] >= v)
+    if math.isclose(v, xs[j], rel_tol=1e-9, abs_tol=1e-12):
+        return [(j, 1.0)], False
+    w = (v - xs[j - 1]) / (xs[j] - xs[j - 1])
+    return [(j - 1, 1.0 - w), (j, w)], False
+
+
+def interpolated_extinction(ladders: dict[tuple[float, float], float], blend: float, phi: float) -> tuple[float, str]:
+    """kappa_ext [1/s] at (``blend``, ``phi``) from the ladder points of one gas, pressure and
+    preheat (``ladders``: {(blend fraction, phi): kappa_ext}, at least one), and how it was found:
+    'at a ladder point'; 'interpolated' (linear in ln kappa_ext along phi at each ladder blend
+    fraction, then along the blend fraction); or 'nearest ladder point (beyond the ladders' ...)'
+    where the point lies outside the ladders' span on an axis, the nearest value held there,
+    never extrapolated. ln kappa_ext rather than the ratio C = kappa_ext alpha_u / S_L^2 or C
+    itself: on lean hydrogen-air ladders it was off by 2-6 % where C was off by 7-16 % (ln C)
+    and 26-57 % (C) (tests/benchmarks/extinction_interpolation.py, docs/benchmarks.md).
+
+    >>> K, how = interpolated_extinction({(0.0, 0.5): 4000.0, (0.0, 1.0): 1000.0}, 0.0, 0.75)
+    >>> round(K, 6), how
+    (2000.0, 'interpolated')
+    >>> interpolated_extinction({(0.0, 0.5): 4000.0, (0.0, 1.0): 1000.0}, 0.3, 1.2)
+    (1000.0, "nearest ladder point (beyond the ladders' blend fraction 0 and phi 0.5-1)")
+    """
+    if (blend, phi) in ladders:
+        return ladders[(blend, phi)], "at a ladder point"
+    by_blend: dict[float, list[tuple[float, float]]] = {}
+    for (x, y), K in ladders.items():
+        by_blend.setdefault(x, []).append((y, K))
+    xs = sorted(by_blend)
+    used, held_x = _bracket(xs, blend)
+    K, mixed, held_y = 1.0, len(used) > 1, []
+    for i, w in used:  # a geometric mean, weights 1 where a value is held: exact there
+        ys = sorted(by_blend[xs[i]])
+        along, held = _bracket([y for y, _ in ys], phi)
+        K *= math.prod(ys[k][1] ** v for k, v in along) ** w
+        mixed = mixed or len(along) > 1
+        if held:
+            held_y.append((ys[0][0], ys[-1][0]))
+    beyond = ([f"blend fraction {_span(xs[0], xs[-1])}"] if held_x else []) + \
+        ([f"phi {_span(min(a for a, _ in held_y), max(b for _, b in held_y))}"] if held_y else [])
+    how = "interpolated" if mixed else "nearest ladder point"
+    return K, how + (f" (beyond the ladders' {' and '.join(beyond)})" if beyond else "")
+
+
+def _span(lo: float, hi: float) -> str:
+    return f"{lo:g}" if lo == hi else f"{lo:g}-{hi:g}"
+
+
+#: extinction_strain_source of a point whose gas, pressure and preheat has no burned ladder.
+NO_LADDER = "not assessed: no ladder at this condition"
+
+
+def blowout_columns(study: Study, row: dict, ladders: dict[tuple, dict[tuple[float, float], float]]) -> dict:
+    """Lean blowout on the extinction strain rate of a burning premixer point (columns.
+    PREMIXER_MARGIN_COLUMNS, the last six): kappa_ext of its ladder, or interpolated between the
+    ladder points of its gas, pressure and preheat (``ladders``: :func:`ladder_points`;
+    :func:`interpolated_extinction`), with C = kappa_ext alpha_u / S_L^2 beside it (the extinction
+    strain in units of the flame's own strain scale); with a stabilizer in [burner], the
+    Damkohler number Da_ext = kappa_ext d / U_edge (physics.premixer.extinction_damkohler;
+    Shanbhogue, Husain & Lieuwen 2009; Zhang et al. 2007 for hydrogen blends, from memory) and
+    its margin over [premixer] blowout_damkohler (physics.premixer.lean_blowout_margin). No
+    ladder at the condition, no stabilizer: those columns blank."""
+    out: dict[str, Any] = dict.fromkeys(PREMIXER_MARGIN_COLUMNS[6:])
+    pm, b = study.premixer, study.burner
+    if pm is None or b is None or row["status"] != "ok" or row.get("rms_velocity_m_s") is None:
+        return out
+    mine = ladders.get(tuple(row[a] for a in LADDER_GROUP))
+    if not mine:
+        out["extinction_strain_source"] = NO_LADDER
+        return out
+    K, how = interpolated_extinction(mine, row["blend_fraction"], row["equivalence_ratio"])
+    out.update(extinction_karlovitz_number=K * row["unburned_thermal_diffusivity_m2_s"]
+               / row["laminar_flame_speed_m_s"] ** 2, blowout_extinction_strain_rate_1_s=K,
+               extinction_strain_source=how)
+    if b.stabilizer_size_m is not None:
+        assert b.approach_velocity_m_s is not None  # config sets it with the stabilizer size
+        U_edge = ind.edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage)
+        Da = float(extinction_damkohler(K, b.stabilizer_size_m, U_edge))
+        out.update(stabilizer_edge_velocity_m_s=U_edge, extinction_damkohler_number=Da,
+                   extinction_blowout_margin=float(lean_blowout_margin(Da, pm.blowout_damkohler)))
+    return out
+
+
+def extinction_leave_one_out(rows: list[dict]) -> list[dict]:
+    """How well :func:`interpolated_extinction` stands in for a ladder: each ladder point of a gas,
+    pressure and preheat with at least one other, its kappa_ext predicted from the others alone.
+    One dict per such point: its axes and blend_with, kappa_ext of its ladder ('ladder_1_s'), the
+    one predicted ('predicted_1_s'), 'error_percent' and 'how' (interpolated or nearest)."""
+    blends = {tuple(r[a] for a in LADDER_GROUP) + (r["blend_fraction"], r["equivalence_ratio"]): r.get("blend_with", "")
+              for r in rows}
+    out = []
+    for group, mine in ladder_points(rows).items():
+        if len(mine) < 2:
+            continue
+        for (x, y), K in mine.items():
+            K_pred, how = interpolated_extinction({k: v for k, v in mine.items() if k != (x, y)}, x, y)
+            out.append({**dict(zip(LADDER_GROUP, group)), "blend_with": blends[group + (x, y)], "blend_fraction": x,
+                        "equivalence_ratio": y, "ladder_1_s": K, "predicted_1_s": K_pred,
+                        "error_percent": 100.0 * (K_pred / K - 1.0), "how": how})
+    return out
+
+
+#: The premixer's criteria in its verdict: name -> (margin column, the burner's minimum attribute).
+PREMIXER_CRITERIA = {
+    "core-flow flashback": ("core_flashback_margin", "min_flashback_margin"),
+    "boundary-layer flashback": ("boundary_layer_flashback_margin", "min_flashback_margin"),
+    "blowout": ("extinction_blowout_margin", "min_stabilizer_margin"),
+}
+
+
+def premixer_unassessed(study: Study, row: dict) -> dict[str, str]:
+    """The premixer's criteria (PREMIXER_CRITERIA) not assessed at a burning point, and why."""
+    b = study.burner
+    assert b is not None  # asked only of a premixer point, which has a [burner]
+    out = {}
+    if row.get("boundary_layer_flashback_margin") is None:
+        out["boundary-layer flashback"] = str(row.get("boundary_layer_flashback_status") or "").removeprefix(
+            "not assessed: ")
+    if row.get("extinction_blowout_margin") is None:
+        src = row.get("extinction_strain_source")
+        out["blowout"] = ("no ladder at this gas, pressure and preheat: [stretch] selects none" if src in (None, NO_LADDER)
+                          else "no stabilizer in [burner]: stabilizer_size_mm and approach_velocity_m_s give d and U_edge")
+    return out
+
+
+def premixer_verdict(study: Study, row: dict) -> str:
+    """The verdict of a burning premixer point: its own criteria (the core-flow flashback margin,
+    the boundary-layer one where assessed, the extinction-strain blowout margin where a ladder and a
+    stabilizer give it) against the burner's minimum margins, plus the burner's laminar rim or
+    stabilizer blowoff criterion where that is assessed (the laminar flashback criterion is the
+    boundary-layer model's laminar end, so it is not counted twice). 'ok', the risks, and which
+    of the premixer's criteria are not assessed."""
+    b = study.burner
+    assert b is not None  # asked only of a premixer point, which has a [burner]
+    unassessed = premixer_unassessed(study, row)
+    decide = {c: (row.get(col), getattr(b, attr)) for c, (col, attr) in PREMIXER_CRITERIA.items()}
+    laminar = b.blowoff[2]
+    if laminar not in (row.get("not_assessed") or {}) and row.get(b.blowoff[0]) is not None:
+        decide[laminar if laminar == "blowoff" else "stabilizer blowoff"] = (row[b.blowoff[0]], b.blowoff[1])
+    risks = [f"{c} risk" for c, (m, need) in decide.items() if c not in unassessed and m < need]
+    if (row.get("instability") == "cellular" and "boundary-layer flashback" not in unassessed
+            and row.get("ladder_consumption_speed_max_m_s") is None):
+        risks.append("boundary-layer flashback risk underestimated (thermodiffusively unstable, no ladder)")
+    if not unassessed:
+        return " and ".join(risks) if risks else "ok"
+    gap = f"{' and '.join(unassessed)} not assessed"
+    assessed = [c for c in decide if c not in unassessed]
+    return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {' and '.join(assessed)} only; {gap}"
+
+
+def premixer_margins(study: Study, rows: list[dict]) -> None:
+    """Add a premixer's boundary-layer flashback and extinction-strain blowout columns to every row
+    (in place; after ``turbulent_speed_columns``, across the sweep: the blowout interpolates between
+    the ladder points), and give each burning premixer point the premixer's verdict
+    (:func:`premixer_verdict`) and its criteria not assessed beside the burner's."""
+    ladders = ladder_points(rows) if study.premixer is not None else {}
+    for r in rows:
+        r.update(boundary_layer_columns(study, r))
+        r.update(blowout_columns(study, r, ladders))
+        if r["status"] == "ok" and r.get("rms_velocity_m_s") is not None:
+            burner_own = {c: why for c, why in (r.get("not_assessed") or {}).items() if c not in PREMIXER_CRITERIA}
+            r["not_assessed"] = {**burner_own, **premixer_unassessed(study, r)}
+            r["criteria_not_assessed"] = "; ".join(f"{c}: {why}" for c, why in r["not_assessed"].items())
+            r["verdict"] = premixer_verdict(study, r)

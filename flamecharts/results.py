@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import itertools
 import json
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -73,7 +73,8 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     row["grid_convergence"] = metrics.get("grid_convergence", "")
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
                  "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
-                 "emissions_message", "equal_tad", "ladder_consumption_speed_max_m_s"):
+                 "emissions_message", "equal_tad", "ladder_consumption_speed_max_m_s",
+                 "ladder_extinction_strain_rate_1_s"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -568,36 +569,72 @@ def _margin_words(shown: list[tuple[float, float, float]]) -> str:
 
 def core_flashback_sentences(study: Study, rows: list[dict], most_phis: int = 3) -> list[str]:
     """One plain sentence per gas and condition ([premixer] with a [burner]) on its core-flow
-    flashback margin (design.turbulent_speed_columns): a blended gas's against the unblended
-    gas's at equal equivalence ratio, at up to ``most_phis`` equivalence ratios where both have
-    one (the unblended gas then has no sentence of its own); otherwise the gas's lowest margin
-    and where. [] without margins."""
+    flashback margin (design.turbulent_speed_columns): :func:`margin_sentences` naming the
+    correlation of the largest S_T. [] without margins."""
+    def largest(mine: list[dict]) -> str:
+        return "largest S_T: " + ", ".join(sorted({r["core_flashback_correlation"] for r in mine}))
+    return margin_sentences(study, rows, "core_flashback_margin", "core-flow flashback margin",
+                            "the turbulent flame can travel upstream through the core", largest, most_phis=most_phis)
+
+
+def margin_sentences(study: Study, rows: list[dict], column: str, what: str, below: str,
+                     note: Callable[[list[dict]], str] | None = None, why: Callable[[dict], str] | None = None,
+                     most_phis: int = 3) -> list[str]:
+    """One plain sentence per gas and condition on the margin ``column`` (called ``what``): a
+    blended gas's against the unblended gas's at equal equivalence ratio, at up to ``most_phis``
+    equivalence ratios where both have one (the unblended gas then has no sentence of its own);
+    otherwise the gas's lowest margin and where. ``below`` says what a margin below 1 means,
+    ``note`` adds a remark on the gas's rows, and with ``why`` (a row's reason for no margin) a
+    gas and condition of premixer points without any margin gets 'is not assessed (why)'."""
     have = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"], r["unburned_temperature_K"],
-             r["equivalence_ratio"]): r for r in rows if r.get("core_flashback_margin") is not None}
+             r["equivalence_ratio"]): r for r in rows if r.get(column) is not None}
     pairs: dict[tuple, list[tuple[float, float, float]]] = {}
     for (fuel, ox, frac, P, T, phi), r in have.items():
         ref = have.get((fuel, ox, 0.0, P, T, phi))
         if frac > 0.0 and ref is not None:
-            pairs.setdefault((fuel, ox, frac, P, T), []).append(
-                (phi, ref["core_flashback_margin"], r["core_flashback_margin"]))
+            pairs.setdefault((fuel, ox, frac, P, T), []).append((phi, ref[column], r[column]))
     compared = {(k[0], k[1], 0.0, k[3], k[4]) for k in pairs}
     out = []
     for gas in dict.fromkeys(k[:5] for k in have):
         if gas in compared:
             continue  # the unblended gas is told in its blends' sentences
         mine = sorted((k[5], r) for k, r in have.items() if k[:5] == gas)
-        low_phi, low = min(mine, key=lambda t: t[1]["core_flashback_margin"])
-        which = ", ".join(sorted({r["core_flashback_correlation"] for _, r in mine}))
-        where = f"{gas[3]:g} bar and {gas[4]:g} K" + (f", in {gas[1]}" if len(study.sweep_oxidizers) > 1 else "")
-        below = (" (below 1: the turbulent flame can travel upstream through the core)"
-                 if low["core_flashback_margin"] < 1.0 else "")
+        low_phi, low = min(mine, key=lambda t: t[1][column])
+        remark = note([r for _, r in mine]) if note else ""
+        where = _where(study, gas)
+        tail = f" (below 1: {below})" if low[column] < 1.0 else ""
         if gas not in pairs:
-            out.append(f"For {gas_label(low)} at {where} the core-flow flashback margin is "
-                       f"{low['core_flashback_margin']:.3g} at its lowest (φ {low_phi:g}; largest S_T: {which}){below}.")
+            out.append(f"For {gas_label(low)} at {where} the {what} is {low[column]:.3g} at its lowest "
+                       f"(φ {low_phi:g}{'; ' + remark if remark else ''}){tail}.")
             continue
         both = sorted(pairs[gas])
         shown = list(dict.fromkeys(both[round(i * (len(both) - 1) / (most_phis - 1))] for i in range(most_phis))) \
             if len(both) > most_phis else both
-        out.append(f"At {100 * gas[2]:g} % {study.blend_with} in {gas[0]} ({where}) the core-flow flashback margin "
-                   + _margin_words(shown) + f" (largest S_T: {which}){below}.")
+        out.append(f"At {100 * gas[2]:g} % {study.blend_with} in {gas[0]} ({where}) the {what} "
+                   + _margin_words(shown) + (f" ({remark})" if remark else "") + f"{tail}.")
+    return out + (_unassessed_sentences(study, rows, column, what, why) if why else [])
+
+
+def _where(study: Study, gas: tuple) -> str:
+    """'5 bar and 650 K' of a (fuel, oxidizer, blend fraction, p, T) gas and condition (', in air'
+    with several oxidizers)."""
+    return f"{gas[3]:g} bar and {gas[4]:g} K" + (f", in {gas[1]}" if len(study.sweep_oxidizers) > 1 else "")
+
+
+def _unassessed_sentences(study: Study, rows: list[dict], column: str, what: str, why: Callable[[dict], str]) -> list[str]:
+    """'For GAS (with 0 and 50 % BLEND) at P and T the WHAT is not assessed (WHY at its first point).'
+    of every fuel and condition whose burning premixer points have no value of ``column`` at all."""
+    groups: dict[tuple, list[dict]] = {}
+    for r in rows:
+        if r.get("status") == "ok" and r.get("rms_velocity_m_s") is not None:
+            groups.setdefault((r["fuel"], r["oxidizer"], None, r["pressure_bar"], r["unburned_temperature_K"]),
+                              []).append(r)
+    out = []
+    for gas, mine in groups.items():
+        if any(r.get(column) is not None for r in mine):
+            continue
+        fracs = sorted({r["blend_fraction"] for r in mine})
+        name = (f"{gas[0]} with {' and '.join(f'{100 * f:g}' for f in fracs)} % {study.blend_with}"
+                if study.blend_with else gas[0])
+        out.append(f"For {name} at {_where(study, gas)} the {what} is not assessed ({why(mine[0])}).")
     return out

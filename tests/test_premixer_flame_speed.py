@@ -177,3 +177,22 @@ def test_a_study_without_blends_gets_one_sentence_per_gas_and_condition():
     assert core_flashback_sentences(Plain(), rows) == [  # type: ignore[arg-type]
         f"For methane at 5 bar and 700 K the core-flow flashback margin is {margin:.3g} at its lowest "
         "(φ 0.7; largest S_T: muppala)."]
+
+
+def test_boundary_layer_and_blowout_margins_say_why_they_are_not_assessed_in_a_turbulent_duct(premixer_run):
+    """The 20 mm duct at 30 m/s is turbulent (Re about 3e4): the laminar Pe_F of the critical-gradient
+    model (Lewis & von Elbe; Putnam & Jensen 1949) does not hold there (Eichler, Baumgartner &
+    Sattelmayer 2012, from memory) and the study sets no turbulent one; no [stretch] ladder gives an
+    extinction strain rate. The premixer's verdict then rests on the core-flow margin alone, and says so."""
+    res, out = premixer_run
+    for r in res.rows:
+        assert r["boundary_layer_flashback_margin"] is None
+        assert r["boundary_layer_flashback_status"].startswith("not assessed: Re ")
+        assert r["premixer_wall_velocity_gradient_1_s"] > 8 * 30.0 / 0.02  # turbulent: above laminar 8 U / D
+        assert r["extinction_strain_source"] == "not assessed: no ladder at this condition"
+        assert r["verdict"] == "ok on core-flow flashback only; boundary-layer flashback and blowout not assessed"
+    html = (out / "report.html").read_text()
+    assert "Boundary-layer flashback and lean blowout" in html and "No gas and condition has two ladder points" in html
+    assert ("For diluted with 0 and 50 % hydrogen at 1 bar and 300 K the boundary-layer flashback margin is not "
+            "assessed (Re "
+            in html.replace("&#x27;", "'"))

@@ -24,6 +24,7 @@ from ..config import lumping_note, resolution_label
 from ..design import (
     burner_flow_words,
     error_bar_sentence,
+    extinction_leave_one_out,
     fuel_gas_table,
     injection_end,
     inside_kinetic_band,
@@ -35,7 +36,14 @@ from ..design import (
 from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope, nox_scope
-from ..results import core_flashback_sentences, emission_sentences, margin_summary, premixer_summary, to_dataset
+from ..results import (
+    core_flashback_sentences,
+    emission_sentences,
+    margin_sentences,
+    margin_summary,
+    premixer_summary,
+    to_dataset,
+)
 from .charts import CAPTIONS
 from .charts.registry import not_drawn
 from .tables import uncertainty_settings, write_atomic
@@ -351,7 +359,7 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
                      _injection_cell(s), f"{s['points'] - s['risky_points']} of {s['points']}",
                      "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more] + _regime_lines(rows) \
-        + _turbulent_speed_lines(study, rows)
+        + _turbulent_speed_lines(study, rows) + _premixer_margin_lines(study, rows)
 
 
 def _regime_lines(rows: list[dict]) -> list[str]:
@@ -411,8 +419,8 @@ def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
                                                                    "source" for _, label, what in shown)
             + ". Core-flow flashback margin = bulk (port) velocity / the largest S_T of the correlations at the point, "
             "in or out of their fitted range (the correlation named beside it): below 1 the turbulent flame can travel "
-            "upstream through the premixer's core. It sees neither boundary-layer flashback nor combustion-induced "
-            "vortex breakdown, and the verdict does not use it. * marks a correlation outside the range of its fitted "
+            "upstream through the premixer's core. It does not see combustion-induced vortex breakdown of swirl "
+            "flames; the premixer's verdict counts it (below). * marks a correlation outside the range of its fitted "
             "data (results.csv, turbulent_flame_speed_outside_range, says why). Turbulent correlations are fits with "
             "wide scatter and disagree with one another by more; a premixer fails at local features no "
             "one-dimensional model sees (wakes, recirculation, hot spots), and is judged finally by test under the "
@@ -421,6 +429,83 @@ def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
                    + ["bulk velocity [m/s]", "core-flow margin (largest S_T)"], table,
                    set(range(1, 7 + len(shown)))) + more,
             "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in core_flashback_sentences(study, have)) + "</ul>"]
+
+
+def _leave_one_out_words(rows: list[dict]) -> str:
+    """How far the interpolated extinction strain rate may be off: the leave-one-out check over the
+    ladder points (design.extinction_leave_one_out), in one sentence."""
+    loo = extinction_leave_one_out(rows)
+    if not loo:
+        return ("No gas and condition has two ladder points, so the interpolation's error cannot be measured on "
+                "this study (docs/premixers.md gives the figure measured on hydrogen-air ladders).")
+    def worst(kind: str) -> str:
+        mine = [d for d in loo if d["how"].startswith(kind)]
+        if not mine:
+            return ""
+        d = max(mine, key=lambda d: abs(d["error_percent"]))
+        return f"up to {d['error_percent']:+.0f} % where {kind} (φ {d['equivalence_ratio']:g} of {gas_label(d)})"
+    parts = [w for w in (worst("interpolated"), worst("nearest ladder point")) if w]
+    return (f"Leave-one-out check over the {len(loo)} ladder points (each predicted from the other ladders of its "
+            f"gas, pressure and preheat): κ_ext off by " + "; by ".join(parts)
+            + ". Read interpolated blowout margins with that error.")
+
+
+def _margin_cell(r: dict, column: str) -> str:
+    v = r.get(column)
+    return "not assessed" if v is None else f"{v:.3g}"
+
+
+def _premixer_margin_lines(study: Study, rows: list[dict]) -> list[str]:
+    """The premixer's boundary-layer flashback and extinction-strain blowout margins per burning
+    point and one sentence per gas and condition on each (design.premixer_margins)."""
+    have = [r for r in rows if r.get("boundary_layer_flashback_status")]
+    if not have:
+        return []
+    pm = study.premixer
+    assert pm is not None  # the columns exist only with [premixer]
+    listed, more = _first(have, "results.csv", order=lambda r: r.get("extinction_blowout_margin") or float("inf"))
+    table = [[gas_label(r), f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}", f"{r['equivalence_ratio']:g}",
+              _margin_cell(r, "boundary_layer_flashback_margin"),
+              "" if r.get("blowout_extinction_strain_rate_1_s") is None
+              else f"{r['blowout_extinction_strain_rate_1_s']:.3g}",
+              str(r.get("extinction_strain_source") or "").replace("not assessed: ", ""),
+              _margin_cell(r, "extinction_damkohler_number"), _margin_cell(r, "extinction_blowout_margin"),
+              r["verdict"]] for r in listed]
+    def bl_why(r: dict) -> str:
+        return str(r["boundary_layer_flashback_status"]).removeprefix("not assessed: ")
+
+    def blow_why(r: dict) -> str:
+        return str((r.get("not_assessed") or {}).get("blowout", ""))
+
+    def sources(mine: list[dict]) -> str:
+        return "κ_ext " + ", ".join(sorted({str(r["extinction_strain_source"]).split(" (")[0] for r in mine}))
+    sentences = (margin_sentences(study, have, "boundary_layer_flashback_margin", "boundary-layer flashback margin",
+                                  "the flame can enter the duct's boundary layer", why=bl_why)
+                 + margin_sentences(study, have, "extinction_blowout_margin", "extinction-strain blowout margin",
+                                    "lean blowout", sources, why=blow_why))
+    return ["<h3>Boundary-layer flashback and lean blowout</h3>",
+            "<p><b>Boundary-layer flashback</b>: the critical-gradient model (Lewis &amp; von Elbe; Putnam &amp; "
+            "Jensen 1949): the duct's wall velocity gradient, laminar through turbulent by Churchill's (1977) friction "
+            "factor, over S²/(Pe_F α_u), with S the strained flames' S_c,max where a ladder burned and it exceeds S_L. "
+            "Pe_F is fitted on laminar tube flashback: in transitional and turbulent duct flow the margin is assessed "
+            f"only with a turbulent Pe_F calibrated on your own premixer ([premixer] turbulent_flashback_peclet"
+            f"{', here ' + format(pm.turbulent_flashback_peclet, 'g') if pm.turbulent_flashback_peclet else ', not set'}"
+            "; published models of confined turbulent flashback could not be implemented from what was read). "
+            "<b>Lean blowout</b>: the Damköhler number Da_ext = κ_ext d / U_edge on the extinction strain rate of the "
+            "strained flames and the stabilizer's size and edge velocity (Shanbhogue, Husain &amp; Lieuwen 2009; lean "
+            "blowout of hydrogen blends collapses on it, Zhang et al. 2007, from memory), margin = Da_ext / "
+            f"{pm.blowout_damkohler:g} ([premixer] blowout_damkohler; of order one, scatter a factor 2-3 between data "
+            "sets, from memory). κ_ext is a [stretch] ladder's at its points; elsewhere interpolated, linearly in ln "
+            "κ_ext along φ and then along the blend fraction, between the ladder points of the same gas, pressure and "
+            "preheat, held at the nearest one beyond them, never extrapolated. "
+            + _e(_leave_one_out_words(rows)) + " The verdict of a premixer point counts the core-flow and "
+            "boundary-layer flashback margins against the burner's minimum flashback margin and the blowout margin "
+            "against its minimum stabilizer margin, where each is assessed. Neither sees wall temperature, wakes, "
+            "recirculation or hot spots; a premixer is judged finally by test under the applicable gas-turbine "
+            "standards.</p>",
+            _table(["gas", "p [bar]", "T_u [K]", "φ", "boundary-layer margin", "κ_ext [1/s]", "κ_ext from", "Da_ext",
+                    "blowout margin", "verdict"], table, {1, 2, 3, 4, 5, 7, 8}) + more,
+            "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in sentences) + "</ul>"]
 
 
 def _emissions_section(study: Study, rows: list[dict]) -> list[str]:
@@ -673,7 +758,9 @@ def _unassessed_section(rows: list[dict]) -> list[str]:
             "cold walls, about 1 atm and room temperature; Reed's blowoff constant on lean to stoichiometric "
             "hydrocarbon flames; the bluff-body constant on the user's own stabilizer). Outside it the margin is "
             "left blank: no verdict and no limit above rests on it, and an answer that no criterion in range "
-            "binds says so. Judge these by other means (test, or the methods of the literature for the regime).</p>",
+            "binds says so. Judge these by other means (test, or the methods of the literature for the regime). A "
+            "premixer's boundary-layer flashback and blowout are listed too: the premixer section says what each "
+            "needs.</p>",
             _table(["criterion", "outside its range (first such point)", "flames"],
                    [[g["criterion"], g["example"], f"{g['points']} of {g['of']}"] for g in gaps], {2})]
 

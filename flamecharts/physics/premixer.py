@@ -23,8 +23,9 @@ from memory; the docstrings say the same in short. Turbulent correlations are fi
 scatter; a premixer fails at local features no one-dimensional model sees (wakes, recirculation,
 hot spots), and is judged finally by test.
 
-Pure functions of SI inputs; scalars (``float``) unless a docstring says it broadcasts. Nothing
-here is wired into a study yet (issue 30).
+Pure functions of SI inputs; scalars (``float``) unless a docstring says it broadcasts. A study
+with [premixer] and a [burner] reads them out per point in design.turbulent_speed_columns and
+design.premixer_margins (issue 30).
 """
 from __future__ import annotations
 

@@ -1,0 +1,91 @@
+"""How well the extinction strain rate interpolates between [stretch] ladders (issue 30, item 6).
+
+Run:  python tests/benchmarks/extinction_interpolation.py [--out DIR] [--jobs N]
+
+A lean hydrogen study (h2o2.yaml, coarse flames): diluted hydrogen (60 % H2, 40 % N2) with 0, 50
+and 100 % hydrogen, phi 0.5-0.8 in steps of 0.1, 1 bar, 300 K, a ladder at each of the 12 points
+(about 8 minutes on one core of the project's 2-core machine; a folder given with --out is reused,
+so a second call solves nothing). Each ladder point is then predicted from the others, three ways:
+ln kappa_ext linear (what design.interpolated_extinction does), ln C linear and C linear, with
+C = kappa_ext alpha_u / S_L^2 (the ratio to the flame's own strain scale): along phi (from the
+neighbours 0.1 away on either side: 0.2 apart), across the blend fraction (50 % from 0 and 100 %),
+and held from the nearest neighbour beyond (phi 0.5 from 0.6, 0.8 from 0.7). Prints the error
+ranges in per cent and, last, one JSON object.
+"""
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import sys
+import tempfile
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[2]
+sys.path.insert(0, str(ROOT))
+
+import flamecharts  # noqa: E402
+
+STUDY = """title = "extinction strain interpolation"
+mechanism = "h2o2.yaml"
+resolution = "coarse"
+
+[fuels]
+diluted = { H2 = 0.6, N2 = 0.4 }
+hydrogen = { H2 = 1.0 }
+
+[oxidizers]
+air = { O2 = 1.0, N2 = 3.76 }
+
+[sweep]
+fuel = ["diluted"]
+oxidizer = ["air"]
+blend = { with = "hydrogen", fraction = [0.0, 0.5, 1.0] }
+equivalence_ratio = [0.5, 0.6, 0.7, 0.8]
+pressure_bar = [1.0]
+unburned_temperature_K = [300.0]
+
+[stretch]
+equivalence_ratio = [0.5, 0.6, 0.7, 0.8]
+"""
+BLENDS, PHIS = (0.0, 0.5, 1.0), (0.5, 0.6, 0.7, 0.8)
+
+
+def _errors(value: dict, how: str) -> dict[str, list[float]]:
+    """Per cent errors of the three cases for one quantity (``value``: (blend, phi) -> ladder value),
+    interpolated ``how``: 'ln' (geometric) or 'lin'."""
+    def mid(a: float, b: float) -> float:
+        return math.sqrt(a * b) if how == "ln" else 0.5 * (a + b)
+    out: dict[str, list[float]] = {"along phi": [], "across blends": [], "held": []}
+    for x in BLENDS:
+        for y in (0.6, 0.7):
+            out["along phi"].append(100 * (mid(value[(x, round(y - 0.1, 1))], value[(x, round(y + 0.1, 1))])
+                                           / value[(x, y)] - 1))
+        out["held"] += [100 * (value[(x, 0.6)] / value[(x, 0.5)] - 1), 100 * (value[(x, 0.7)] / value[(x, 0.8)] - 1)]
+    for y in PHIS:
+        out["across blends"].append(100 * (mid(value[(0.0, y)], value[(1.0, y)]) / value[(0.5, y)] - 1))
+    return out
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--out", type=Path, default=None)
+    ap.add_argument("--jobs", type=int, default=1)
+    args = ap.parse_args()
+    folder = args.out or Path(tempfile.mkdtemp(prefix="extinction_"))
+    folder.mkdir(parents=True, exist_ok=True)
+    (folder / "study.toml").write_text(STUDY)
+    res = flamecharts.run(folder / "study.toml", out=folder / "out", jobs=args.jobs, charts=False, report=False)
+    rows = {(r["blend_fraction"], r["equivalence_ratio"]): r for r in res.rows}
+    kappa = {k: float(r["ladder_extinction_strain_rate_1_s"]) for k, r in rows.items()}
+    C = {k: K * rows[k]["unburned_thermal_diffusivity_m2_s"] / rows[k]["laminar_flame_speed_m_s"] ** 2
+         for k, K in kappa.items()}
+    result = {"ln kappa_ext": _errors(kappa, "ln"), "ln C": _errors(C, "ln"), "C": _errors(C, "lin")}
+    for name, cases in result.items():
+        print(name + ": " + "; ".join(f"{case} {min(v):+.1f} to {max(v):+.1f} %" for case, v in cases.items()))
+    print(json.dumps({"kappa_ext_1_s": {f"{k[0]:g},{k[1]:g}": v for k, v in kappa.items()},
+                      "C": {f"{k[0]:g},{k[1]:g}": v for k, v in C.items()}, "errors_percent": result}))
+
+
+if __name__ == "__main__":
+    main()
