@@ -66,6 +66,11 @@ GROUPS = {
     "PREMIXER_COLUMNS": ("Premixer", "empty unless the study has a [premixer]"),
     "TURBULENCE_COLUMNS": ("Premixer turbulence", "burning points of a study with [premixer] and a [burner]: u', l_t "
                                                   "and Peters' regime numbers"),
+    "TURBULENT_SPEED_COLUMNS": ("Premixer flame speed and core flashback",
+                                "burning points of a study with [premixer] and a [burner]: the turbulent flame speed "
+                                "of each correlation and the core-flow flashback margin on the largest (the "
+                                "leading-point speed and S_c,max only where a [stretch] ladder burned; see "
+                                "[Gas-turbine premixers](premixers.md#turbulent-flame-speed-and-core-flow-flashback))"),
     "EMISSION_COLUMNS": ("Emissions", "empty unless the study has [emissions]: the design residence time's values"),
 }
 #: The columns that belong to no group, in the chunks they come in (the numerical error sits between two).
@@ -108,6 +113,7 @@ WHEN = {
     "has_sensitivities": "[uncertainty]",
     "has_emissions": "[emissions], a burning point with emissions",
     "has_regimes": "[premixer] and a [burner] with a port velocity, and a burning point",
+    "has_core_margins": "[premixer] and a [burner] with a port velocity, several blend fractions and a burning point",
     "several_blends_with_emissions": "[emissions] and several blend fractions",
     "compares_flames": "several mechanisms",
     "compares_limits": "several mechanisms and [limits]",

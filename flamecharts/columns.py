@@ -213,6 +213,21 @@ UNITS: dict[str, tuple[str, str]] = {
     "karlovitz_number": ("1", "Ka = (u'/S_L)^1.5 (l_t/l_F)^-0.5: flame time over Kolmogorov time"),
     "combustion_regime": ("", "regime of Peters' diagram: laminar, wrinkled or corrugated flamelets, thin or broken "
                               "reaction zones"),
+    "strained_consumption_speed_max_m_s": ("m/s", "strongest consumption speed along the point's strained-flame "
+                                                  "ladder ([stretch]): S_c,max of the leading-point speed"),
+    "turbulent_flame_speed_zimont_m_s": ("m/s", "turbulent flame speed S_T = 0.52 u' Da^(1/4) of Zimont's closure "
+                                                "(no Lewis number; Zimont 2000)"),
+    "turbulent_flame_speed_muppala_m_s": ("m/s", "turbulent flame speed S_T = S_L (1 + (0.46/Le) Re_t^0.25 "
+                                                 "(u'/S_L)^0.3 (p/0.1 MPa)^0.2) with the deficient reactant's Lewis "
+                                                 "number (Muppala et al. 2005)"),
+    "turbulent_flame_speed_leading_point_m_s": ("m/s", "turbulent flame speed on the leading points: Schmid's "
+                                                       "S_L + u' (1 + Da^-2)^(-1/4) with S_L -> S_c,max (Kuznetsov & "
+                                                       "Sabelnikov 1990; points with a [stretch] ladder)"),
+    "turbulent_flame_speed_outside_range": ("", "which correlation is outside the range of its fitted data here, and "
+                                                "why ('' where all are inside)"),
+    "core_flashback_margin": ("1", "bulk (port) velocity over the largest turbulent flame speed of the correlations "
+                                   "at the point: below 1 the flame can travel upstream through the core"),
+    "core_flashback_correlation": ("", "the correlation that gave the largest turbulent flame speed (the margin's)"),
     "equal_flame_temperature_equivalence_ratio": ("1", "equivalence ratio at which this gas burns at the adiabatic "
                                                        "flame temperature of the unblended gas at this point's phi"),
     "nox_ppmvd_at_reference_o2_equal_flame_temperature": ("ppm", "NOx of this gas at that equivalence ratio, dry at the "
@@ -241,6 +256,11 @@ PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignit
 #: The premixer's turbulence and the flame's regime (empty unless [premixer] and [burner]).
 TURBULENCE_COLUMNS = ("rms_velocity_m_s", "integral_length_mm", "turbulence_source", "turbulent_reynolds_number",
                       "damkohler_number", "karlovitz_number", "combustion_regime")
+#: The premixer's turbulent flame speeds and core-flow flashback margin (empty unless [premixer] and
+#: [burner]; the leading-point speed only where a [stretch] ladder burned).
+TURBULENT_SPEED_COLUMNS = ("strained_consumption_speed_max_m_s", "turbulent_flame_speed_zimont_m_s",
+                           "turbulent_flame_speed_muppala_m_s", "turbulent_flame_speed_leading_point_m_s",
+                           "turbulent_flame_speed_outside_range", "core_flashback_margin", "core_flashback_correlation")
 #: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
 EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
                     "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
@@ -291,7 +311,7 @@ COLUMNS = ((
     "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
 ) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
-  + TURBULENCE_COLUMNS + EMISSION_COLUMNS
+  + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + EMISSION_COLUMNS
   + ("warnings",))
 
 #: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference

@@ -23,6 +23,7 @@ from .columns import (
     KINETIC_COLUMNS,
     PREMIXER_COLUMNS,
     TURBULENCE_COLUMNS,
+    TURBULENT_SPEED_COLUMNS,
 )
 from .config import all_atoms, fuel_stream
 from .errors import ConfigError
@@ -44,7 +45,14 @@ from .physics.limits import (
     pressure_warning,
     unsolved_autoignition_warning,
 )
-from .physics.premixer import duct_turbulence
+from .physics.premixer import (
+    FlameSpeed,
+    core_flashback_margin,
+    duct_turbulence,
+    leading_point_flame_speed,
+    muppala_flame_speed,
+    zimont_flame_speed,
+)
 from .physics.rate_factors import RATE_FACTORS
 
 if TYPE_CHECKING:
@@ -331,6 +339,7 @@ def annotate(study: Study, rows: list[dict]) -> list[dict]:
             r[col] = gas.row[col]
         r.update(_burner_margins(study, r, gas, s))
         r.update(turbulence_columns(study, r))
+        r.update(turbulent_speed_columns(r))
         r.update(emission_columns(study, r, gas.row))
     return rows
 
@@ -490,6 +499,64 @@ def turbulence_columns(study: Study, row: dict) -> dict:
                damkohler_number=float(turb.damkohler(u_p, l_t, S_L, l_F)),
                karlovitz_number=float(turb.karlovitz(u_p, l_t, S_L, l_F)),
                combustion_regime=turb.regime(u_p, l_t, S_L, l_F))
+    return out
+
+
+def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:
+    """The turbulent flame speeds of a burning point whose turbulence is known
+    (``turbulence_columns``), by correlation (physics.premixer), each with its fitted range:
+
+    zimont         Zimont's closure, 0.52 u' Da^(1/4): no Lewis number
+    muppala        Muppala et al. (2005), 1/Le on the Lewis number of the deficient reactant (the
+                   fuel's, heat-release weighted over a blend's fuels, on the lean side; oxygen's
+                   on the rich side): carries a Lewis number below one (hydrogen), coarsely
+    leading point  Schmid's S_L + u' (1 + Da^-2)^(-1/4) with S_L -> S_c,max, the strongest
+                   consumption speed of the point's strained-flame ladder (Kuznetsov &
+                   Sabelnikov; only where a [stretch] ladder burned): carries hydrogen's
+                   response to stretch as the mechanism gives it, pressure included
+
+    Empty where the point has no turbulence columns; a correlation without its input (a Lewis
+    number, a ladder) is left out."""
+    u_p = row.get("rms_velocity_m_s")
+    if u_p is None:
+        return {}
+    l_t = 1e-3 * row["integral_length_mm"]
+    S_L, alpha = row["laminar_flame_speed_m_s"], row["unburned_thermal_diffusivity_m2_s"]
+    nu = row["unburned_viscosity_Pa_s"] / row["unburned_density_kg_m3"]
+    out = {"zimont": zimont_flame_speed(u_p, l_t, S_L, alpha)}
+    lewis = row.get("lewis_number_fuel" if row["equivalence_ratio"] <= 1.0 else "lewis_number_oxygen")
+    if lewis:
+        out["muppala"] = muppala_flame_speed(u_p, l_t, S_L, nu, lewis, 1e5 * row["pressure_bar"])
+    S_c = row.get("ladder_consumption_speed_max_m_s")
+    if S_c:
+        out["leading point"] = leading_point_flame_speed(u_p, l_t, S_c, alpha)
+    return out
+
+
+def turbulent_speed_columns(row: dict) -> dict:
+    """A premixer's turbulent flame speeds (``turbulent_speeds``), which of them lie outside the
+    range of their fitted data and why, and the core-flow flashback margin
+    (columns.TURBULENT_SPEED_COLUMNS).
+
+    Core-flow margin (physics.premixer.core_flashback_margin): the bulk (port) velocity over
+    the LARGEST turbulent flame speed of the correlations computed at the point, in or out of
+    their fitted range, and which correlation that was. The largest, because the correlations
+    disagree by more than their scatter and the fastest flame is the one that flashes back; out
+    of range too, because hydrogen blends are exactly where the Lewis-number correlation leaves
+    its data (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's
+    (about 1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
+    out: dict[str, Any] = dict.fromkeys(TURBULENT_SPEED_COLUMNS)
+    speeds = turbulent_speeds(row)
+    if not speeds:
+        return out
+    fastest = max(speeds, key=lambda k: speeds[k].S_T_m_s)
+    get = {k: v.S_T_m_s for k, v in speeds.items()}.get
+    out.update(strained_consumption_speed_max_m_s=row.get("ladder_consumption_speed_max_m_s"),
+               turbulent_flame_speed_zimont_m_s=get("zimont"), turbulent_flame_speed_muppala_m_s=get("muppala"),
+               turbulent_flame_speed_leading_point_m_s=get("leading point"),
+               turbulent_flame_speed_outside_range="; ".join(f"{k}: {v.why}" for k, v in speeds.items() if v.why),
+               core_flashback_margin=float(core_flashback_margin(row["port_velocity_m_s"], speeds[fastest].S_T_m_s)),
+               core_flashback_correlation=fastest)
     return out
 
 

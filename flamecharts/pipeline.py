@@ -195,6 +195,8 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
         ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
                                                 _part(progress, "strained-flame ladders"))
         stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
+        if ladders and study.premixer is not None:  # the leading-point flame speed reads the new ladders
+            rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     return {"rows": rows, "solved": done.solved, "reused": done.reused, "limits": limits,
             "limit_flames": limit_solved[0], "stretch": stretch, "ladders": ladders,
             "solve_seconds": done.solve_seconds + ladder_seconds + extra_seconds}

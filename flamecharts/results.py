@@ -27,7 +27,16 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
-from .columns import AXES, CAUTION, COLUMNS, COMPARISON_COLUMNS, EMISSIONS_TABLE_COLUMNS, FROM_METRICS, UNITS
+from .columns import (
+    AXES,
+    CAUTION,
+    COLUMNS,
+    COMPARISON_COLUMNS,
+    EMISSIONS_TABLE_COLUMNS,
+    FROM_METRICS,
+    UNITS,
+    gas_label,
+)
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
 from .design import annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
@@ -37,6 +46,7 @@ from .physics.fits import fit_power_law
 from .store import DB_NAME, Store
 from .sweep.analyses import PER_POINT
 from .sweep.points import Point, points
+from .sweep.stretch import with_ladders
 from .sweep.upgrade import lacks_readout
 
 
@@ -63,7 +73,7 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     row["grid_convergence"] = metrics.get("grid_convergence", "")
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
                  "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
-                 "emissions_message", "equal_tad"):
+                 "emissions_message", "equal_tad", "ladder_consumption_speed_max_m_s"):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -110,11 +120,14 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
 def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
     """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
     merged into its metrics (each analysis of sweep.analyses.PER_POINT the study wants: the
-    Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays)."""
+    Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays) and the
+    strongest consumption speed of its [stretch] ladder (sweep.stretch.with_ladders)."""
     stored = store.rows([p.key for p in pts]) if stored is None else stored
     for analysis in PER_POINT:
         if analysis.wanted(study):
             stored = analysis.merge(study, pts, stored, store)
+    if study.stretch is not None:  # the ladders are solved after the sweep's rows (pipeline._solve_one)
+        stored = with_ladders(study, pts, stored, store)
     return stored
 
 
@@ -542,3 +555,49 @@ def _at_equal_tad(rows: list[dict], gas: tuple, phis: list[float], nox: dict) ->
         if v is not None and matched is not None and ref is not None:
             parts.append(f"{ref:.3g} to {v:.3g} ppm (φ {phi:g} against {matched:.3g})")
     return "; at the unblended gas's flame temperature, " + ", ".join(parts) if parts else ""
+
+
+def _margin_words(shown: list[tuple[float, float, float]]) -> str:
+    """'falls from 16.4 to 13 at φ 0.5 and from 7.66 to 6.06 at φ 0.7' of (phi, unblended, blended) margins."""
+    moves = ["falls" if b < a else "rises" if b > a else "stays" for _, a, b in shown]
+    parts = [f"from {a:.3g} to {b:.3g} at φ {phi:g}" for phi, a, b in shown]
+    if len(set(moves)) == 1:
+        return f"{moves[0]} " + " and ".join(parts)
+    return "; ".join(f"{m} {t}" for m, t in zip(moves, parts))
+
+
+def core_flashback_sentences(study: Study, rows: list[dict], most_phis: int = 3) -> list[str]:
+    """One plain sentence per gas and condition ([premixer] with a [burner]) on its core-flow
+    flashback margin (design.turbulent_speed_columns): a blended gas's against the unblended
+    gas's at equal equivalence ratio, at up to ``most_phis`` equivalence ratios where both have
+    one (the unblended gas then has no sentence of its own); otherwise the gas's lowest margin
+    and where. [] without margins."""
+    have = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"], r["unburned_temperature_K"],
+             r["equivalence_ratio"]): r for r in rows if r.get("core_flashback_margin") is not None}
+    pairs: dict[tuple, list[tuple[float, float, float]]] = {}
+    for (fuel, ox, frac, P, T, phi), r in have.items():
+        ref = have.get((fuel, ox, 0.0, P, T, phi))
+        if frac > 0.0 and ref is not None:
+            pairs.setdefault((fuel, ox, frac, P, T), []).append(
+                (phi, ref["core_flashback_margin"], r["core_flashback_margin"]))
+    compared = {(k[0], k[1], 0.0, k[3], k[4]) for k in pairs}
+    out = []
+    for gas in dict.fromkeys(k[:5] for k in have):
+        if gas in compared:
+            continue  # the unblended gas is told in its blends' sentences
+        mine = sorted((k[5], r) for k, r in have.items() if k[:5] == gas)
+        low_phi, low = min(mine, key=lambda t: t[1]["core_flashback_margin"])
+        which = ", ".join(sorted({r["core_flashback_correlation"] for _, r in mine}))
+        where = f"{gas[3]:g} bar and {gas[4]:g} K" + (f", in {gas[1]}" if len(study.sweep_oxidizers) > 1 else "")
+        below = (" (below 1: the turbulent flame can travel upstream through the core)"
+                 if low["core_flashback_margin"] < 1.0 else "")
+        if gas not in pairs:
+            out.append(f"For {gas_label(low)} at {where} the core-flow flashback margin is "
+                       f"{low['core_flashback_margin']:.3g} at its lowest (φ {low_phi:g}; largest S_T: {which}){below}.")
+            continue
+        both = sorted(pairs[gas])
+        shown = list(dict.fromkeys(both[round(i * (len(both) - 1) / (most_phis - 1))] for i in range(most_phis))) \
+            if len(both) > most_phis else both
+        out.append(f"At {100 * gas[2]:g} % {study.blend_with} in {gas[0]} ({where}) the core-flow flashback margin "
+                   + _margin_words(shown) + f" (largest S_T: {which}){below}.")
+    return out

@@ -50,9 +50,9 @@ def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
     assert names == set(ALL) == set(CAPTIONS) - {"consumption_speed_vs_strain", "flame_speed_sensitivity",
                                                  "mechanism_comparison", "limits_by_mechanism",
                                                  "nox_vs_equivalence_ratio", "nox_vs_blend_fraction", "co_burnout",
-                                                 "turbulent_regime_diagram"}
+                                                 "turbulent_regime_diagram", "core_flashback_vs_blend_fraction"}
     # [stretch]: tests/test_stretch.py; [uncertainty]: tests/test_uncertainty.py; [emissions]: tests/test_emissions.py;
-    # the regime diagram: tests/test_ignition.py
+    # the regime diagram: tests/test_ignition.py; the core-flow margin: tests/test_premixer_flame_speed.py
     for name in ALL:
         png, svg = folder / "o" / "charts" / f"{name}.png", folder / "o" / "charts" / f"{name}.svg"
         assert np.asarray(mpimg.imread(png)).std() > 0.05, name
@@ -248,7 +248,7 @@ def test_blend_comparison_covers_every_condition_and_flashback_plots_the_margin(
 
 
 def test_a_big_study_keeps_every_chart_readable(study_rows, tmp_path):
-    """The chart rule of registry.py (README, 'Charts of big studies'): 5 pressures x 4 preheats
+    """The chart rule of registry.py (docs/sweeps.md, 'Charts of big studies'): 5 pressures x 4 preheats
     x 10 blend fractions draw at most 9 panels and 12 curves a figure, and each figure names
     the levels it leaves out. Rows: the solved flames of the small study copied to every point."""
     import matplotlib.pyplot as plt

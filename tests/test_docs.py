@@ -48,7 +48,9 @@ def test_the_site_builds_in_strict_mode_with_every_page(tmp_path):
     assert done.returncode == 0, f"mkdocs build --strict failed:\n{done.stdout}\n{done.stderr}"
     pages = _nav_pages()
     assert {"index.md", "getting-started.md", "study-file.md", "outputs.md", "python-api.md", "changelog.md",
-            "benchmarks.md", "limits.md", "references.md", "research/premixer-sources.md"} <= set(pages)
+            "benchmarks.md", "limits.md", "references.md", "research/premixer-sources.md", "sweeps.md",
+            "indicators.md", "premixers.md", "flame-response.md", "emissions.md", "error-bars.md", "run-time.md",
+            "cluster.md", "guarantees.md"} <= set(pages)
     for page in pages:  # use_directory_urls is off: page.md -> page.html
         assert (site / page.replace(".md", ".html")).is_file(), page
     # the changelog page is CHANGELOG.md at the root, rendered at build time
@@ -61,6 +63,29 @@ def test_the_site_builds_in_strict_mode_with_every_page(tmp_path):
     index = (site / "index.html").read_text(encoding="utf-8")
     assert "not certification" in index and "confirm every margin by test" in index
     assert (site / "demo_flame_speed.png").is_file() and 'src="demo_flame_speed.png"' in index
+
+
+def test_the_readme_is_a_front_page_whose_links_resolve():
+    """README.md (which the strict build does not see) links every page of the site's nav by its
+    path in docs/, the changelog and DEVELOPERS.md, and each relative link it has reaches a file
+    and, with #anchor, a heading there."""
+    _require_mkdocs()
+    from markdown.extensions.toc import slugify  # Markdown comes with mkdocs
+
+    readme = (ROOT / "README.md").read_text(encoding="utf-8")
+    links = re.findall(r"\]\(([^)\s]+)\)", readme)
+    targets = {link.partition("#")[0] for link in links if "://" not in link}
+    # the site's own front page (index.md) stands for the README there; the changelog is CHANGELOG.md
+    pages = {f"docs/{page}" for page in _nav_pages() if page not in ("index.md", "changelog.md")}
+    assert pages | {"CHANGELOG.md", "DEVELOPERS.md"} <= targets
+    for link in links:
+        if "://" in link:
+            continue
+        path, _, anchor = link.partition("#")
+        assert (ROOT / path).is_file(), f"README links {link}: no such file"
+        if anchor:
+            headings = re.findall(r"^#+ (.+)$", (ROOT / path).read_text(encoding="utf-8"), re.M)
+            assert anchor in {slugify(h.strip(), "-") for h in headings}, f"README links {link}: no such heading"
 
 
 def test_a_broken_link_fails_the_strict_build(tmp_path):

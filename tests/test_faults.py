@@ -320,7 +320,7 @@ def test_a_failed_fresh_solve_is_retried_with_robust_settings(tmp_path, monkeypa
     _fail_for(monkeypatch, None, only_width=flame.NUMERICS["standard"].width_m)
     row = run_study(study, out_dir=tmp_path / "retry", jobs=1).rows[0]
     assert row["status"] == "ok" and flame.ROBUST_RETRY in row["message"], row["message"]
-    # the retry ends on the same final grid criteria: within the setting's 1 % (README accuracy)
+    # the retry ends on the same final grid criteria: within the setting's 1 % (docs/error-bars.md, "Accuracy and scope")
     assert row["laminar_flame_speed_m_s"] == pytest.approx(clean["laminar_flame_speed_m_s"], rel=0.01)
 
 

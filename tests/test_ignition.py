@@ -49,7 +49,7 @@ def test_hydrogen_air_ignition_delay_within_a_factor_2_of_shock_tube_data(mech, 
 #: standard deviations are a factor of about 2.1; GRI-Mech 3.0 adds its own error at
 #: these pressures. The check: within a factor 2.5 from 1175 K up to 1305 K. Below about
 #: 1150 K GRI-Mech 3.0 gives delays 2-7 times LONGER than measured (an overstated
-#: autoignition margin: the README says so); at 1370 K (B, 39 atm) it gives 0.31 x.
+#: autoignition margin: docs/premixers.md says so); at 1370 K (B, 39 atm) it gives 0.31 x.
 METHANE_A = (("CH4", 0.095), ("O2", 0.192), ("N2", 0.715))
 METHANE_B = (("CH4", 0.068), ("O2", 0.196), ("N2", 0.736))
 METHANE_SHOCK_TUBE = [

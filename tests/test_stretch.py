@@ -19,13 +19,17 @@ from flamecharts.sweep.stretch import stretch_key, stretch_points
 from conftest import run_cli, write_h2_study
 
 STRETCH = "\n[flame_response]\n\n[stretch]\nequivalence_ratio = [0.5, 1.0, 2.0]\n"
+#: The fixture's study is also a premixer (its leading-point flame speed reads the ladders): a
+#: 20 mm duct at 30 m/s. Neither table changes a flame or a ladder.
+PREMIXER = ('\n[premixer]\nresidence_time_ms = 2.0\n\n[burner]\nname = "test tube"\nport = "round"\n'
+            'port_diameter_mm = 20.0\nport_velocity_m_s = 30.0\n')
 
 
 @pytest.fixture(scope="module")
 def ladders(tmp_path_factory):
     folder = tmp_path_factory.mktemp("stretch")
     config = write_h2_study(folder, fractions="[1.0]", phis="[0.5, 1.0, 2.0]")
-    config.write_text(config.read_text() + STRETCH)
+    config.write_text(config.read_text() + STRETCH + PREMIXER)
     res = run(config, out=folder / "o", jobs=2)
     return load_study(config), res, folder
 
@@ -116,6 +120,30 @@ def test_stretch_csv_chart_and_report(ladders):
     r = run_cli("report", out)
     assert r.returncode == 0, r.stderr
     assert "Strained flames" in (out / "report.html").read_text()
+
+
+def test_the_leading_point_flame_speed_reads_each_ladders_strongest_consumption_speed(ladders):
+    """The leading-point idea (Kuznetsov & Sabelnikov 1990; Venkateswaran et al. 2015 for fuels of
+    negative Markstein length): S_T of Schmid et al. (1998) with S_L replaced by the strongest
+    consumption speed of the strained flames, S_c,max, read from the point's ladder - on the run
+    that solved the ladders and on the read side alike. Lean hydrogen (Le_eff < 1) burns faster
+    strained than unstrained, so S_c,max > S_L there (Law, Combustion Physics 2006, ch. 10, from memory)."""
+    from flamecharts.physics import premixer as pm
+
+    _, res, folder = ladders
+    rows, ladder = _by_phi(res.rows), _by_phi(res.stretch)
+    for phi, r in rows.items():
+        S_c = max(float(v) for v in ladder[phi]["consumption_speeds_m_s"].split())  # 6 digits in stretch.csv
+        assert r["strained_consumption_speed_max_m_s"] == pytest.approx(S_c, rel=1e-5)
+        lp = pm.leading_point_flame_speed(r["rms_velocity_m_s"], 1e-3 * r["integral_length_mm"],
+                                          r["strained_consumption_speed_max_m_s"], r["unburned_thermal_diffusivity_m2_s"])
+        assert r["turbulent_flame_speed_leading_point_m_s"] == pytest.approx(lp.S_T_m_s, rel=1e-12)
+        assert ("leading point:" in r["turbulent_flame_speed_outside_range"]) == (not lp.in_range)
+    assert rows[0.5]["strained_consumption_speed_max_m_s"] > 1.2 * rows[0.5]["laminar_flame_speed_m_s"]
+    read = _by_phi(open_results(folder / "o").rows)
+    assert [read[phi]["turbulent_flame_speed_leading_point_m_s"] for phi in rows] == [
+        rows[phi]["turbulent_flame_speed_leading_point_m_s"] for phi in rows]
+    assert "S_T leading point [m/s]" in (folder / "o" / "report.html").read_text()
 
 
 def test_check_says_what_a_stretch_request_costs(tmp_path):

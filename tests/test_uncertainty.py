@@ -134,7 +134,7 @@ def test_methane_air_is_most_sensitive_to_h_plus_o2():
     """Stoichiometric methane-air: H + O2 <=> O + OH first, CH3 + H (+M) <=> CH4 (+M) negative
     (chain terminating) among the top three (Law, Combustion Physics, 2006, ch. 7; Warnatz, Maas &
     Dibble, Combustion, 4th ed., 2006; from memory). The band is of the order of the spread of
-    published mechanisms' S_L near stoichiometric (a few percent; see README)."""
+    published mechanisms' S_L near stoichiometric (a few percent; see docs/error-bars.md)."""
     gas, X, r = _flame("gri30.yaml", {"CH4": 1.0}, 1.0, resolution="coarse")
     s = flame_speed_sensitivities(gas, 300.0, 1e5, X, "mixture-averaged", False, r["profile"],
                                   flame.NUMERICS["coarse"])["sensitivities"]

@@ -75,8 +75,8 @@ def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
     line = (f"Estimated total{every}: about {duration(t)} (the sweep, limits and extra solves above), assuming "
             f"{jobs} core{'s' if jobs > 1 else ''} free for this run: a busy machine takes longer")
     if t > CLUSTER_ADVICE_S:
-        line += (f". That is {duration(t)} of work on this machine: run it on a cluster (--cluster; README, "
-                 "'Running on a cluster'), or plan fewer points or a coarser resolution")
+        line += (f". That is {duration(t)} of work on this machine: run it on a cluster (--cluster; "
+                 "docs/cluster.md), or plan fewer points or a coarser resolution")
     return line
 
 

@@ -30,11 +30,12 @@ from ..design import (
     largest_differences,
     mechanism_differences,
     not_assessed_summary,
+    turbulent_speeds,
 )
 from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
 from ..physics.limits import ignition_check, mechanism_scope, nox_scope
-from ..results import emission_sentences, margin_summary, premixer_summary, to_dataset
+from ..results import core_flashback_sentences, emission_sentences, margin_summary, premixer_summary, to_dataset
 from .charts import CAPTIONS
 from .charts.registry import not_drawn
 from .tables import uncertainty_settings, write_atomic
@@ -349,7 +350,8 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
                      "> horizon" if s["autoignition_margin"] == inf else f"{s['autoignition_margin']:.3g}",
                      _injection_cell(s), f"{s['points'] - s['risky_points']} of {s['points']}",
-                     "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more] + _regime_lines(rows)
+                     "; ".join(s["verdicts"])] for s in summary], {1, 2, 4}) + more] + _regime_lines(rows) \
+        + _turbulent_speed_lines(study, rows)
 
 
 def _regime_lines(rows: list[dict]) -> list[str]:
@@ -368,6 +370,57 @@ def _regime_lines(rows: list[dict]) -> list[str]:
             + f"; Karlovitz number {min(ka):.2g}-{max(ka):.2g}. Laminar flame criteria do not apply in a turbulent "
             "premixer; see the regime diagram. The duct estimate (u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h) is common "
             "practice without source: give the premixer's own turbulence where it is known.</p>"]
+
+
+#: The turbulent flame speed correlations of the premixer section: what each is and carries, with
+#: its source and the scatter its source states (physics/premixer.py and its working note
+#: docs/research/premixer-sources.md: none of the sources read states one).
+TURBULENT_CORRELATIONS = (
+    ("zimont", "Zimont", "Zimont's closure 0.52 u' Da^1/4 (Zimont 2000; no Lewis number)"),
+    ("muppala", "Muppala", "Muppala et al.'s algebraic closure with 1/Le of the deficient reactant (Muppala et al. "
+                           "2005; fitted on methane, ethylene and propane at 0.1-1 MPa, Le 0.9-2 from memory)"),
+    ("leading point", "leading point", "Schmid et al.'s S_L + u' (1 + Da^-2)^-1/4 with S_L replaced by the strongest "
+                                       "consumption speed S_c,max of the point's strained-flame ladder (the leading-"
+                                       "point idea, Kuznetsov &amp; Sabelnikov 1990; Venkateswaran et al. 2015), "
+                                       "where a [stretch] ladder burned"),
+)
+
+
+def _speed_cell(r: dict, name: str) -> str:
+    """A turbulent flame speed [m/s] with * where the correlation is outside its fitted range."""
+    s = turbulent_speeds(r).get(name)
+    return "" if s is None else f"{s.S_T_m_s:.3g}" + ("" if s.in_range else " *")
+
+
+def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
+    """The premixer's turbulent flame speeds side by side per point, the core-flow flashback
+    margin and one sentence per gas and condition (design.turbulent_speed_columns)."""
+    have = [r for r in rows if r.get("core_flashback_margin") is not None]
+    if not have:
+        return []
+    shown = [c for c in TURBULENT_CORRELATIONS if any(r.get(f"turbulent_flame_speed_{c[0].replace(' ', '_')}_m_s")
+                                                      is not None for r in have)]
+    listed, more = _first(have, "results.csv", order=lambda r: r["core_flashback_margin"])
+    table = [[gas_label(r), f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}", f"{r['equivalence_ratio']:g}",
+              f"{r['laminar_flame_speed_m_s']:.3g}"] + [_speed_cell(r, c[0]) for c in shown]
+             + [f"{r['port_velocity_m_s']:.3g}", f"{r['core_flashback_margin']:.3g} ({r['core_flashback_correlation']})"]
+             for r in listed]
+    return ["<h3>Turbulent flame speed and core-flow flashback</h3>",
+            "<p>Turbulent flame speed S_T of each burning point by correlation (physics/premixer.py), from the "
+            "stored flame and the turbulence above: " + "; ".join(f"<b>{label}</b>: {what}, scatter not stated in its "
+                                                                   "source" for _, label, what in shown)
+            + ". Core-flow flashback margin = bulk (port) velocity / the largest S_T of the correlations at the point, "
+            "in or out of their fitted range (the correlation named beside it): below 1 the turbulent flame can travel "
+            "upstream through the premixer's core. It sees neither boundary-layer flashback nor combustion-induced "
+            "vortex breakdown, and the verdict does not use it. * marks a correlation outside the range of its fitted "
+            "data (results.csv, turbulent_flame_speed_outside_range, says why). Turbulent correlations are fits with "
+            "wide scatter and disagree with one another by more; a premixer fails at local features no "
+            "one-dimensional model sees (wakes, recirculation, hot spots), and is judged finally by test under the "
+            "applicable gas-turbine standards.</p>",
+            _table(["gas", "p [bar]", "T_u [K]", "φ", "S_L [m/s]"] + [f"S_T {label} [m/s]" for _, label, _ in shown]
+                   + ["bulk velocity [m/s]", "core-flow margin (largest S_T)"], table,
+                   set(range(1, 7 + len(shown)))) + more,
+            "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in core_flashback_sentences(study, have)) + "</ul>"]
 
 
 def _emissions_section(study: Study, rows: list[dict]) -> list[str]:

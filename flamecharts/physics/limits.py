@@ -41,7 +41,7 @@ MECHANISM_SCOPE = {
 
 
 #: How far a mechanism's constant-pressure/volume ignition delays were found from shock-tube
-#: data (README, "Design answers"; tests/test_ignition.py), by file name.
+#: data (docs/premixers.md, "How far the delays hold"; tests/test_ignition.py), by file name.
 IGNITION_CHECKS = {
     "gri30.yaml": "GRI-Mech 3.0's delays lie within a factor 2-2.5 of shock-tube measurements above about 1150 K "
                   "(methane at 15-40 atm, Huang et al. 2004; hydrogen at 2-2.5 atm, Slack 1977), but below it they "
@@ -55,7 +55,7 @@ IGNITION_CHECKS = {
 
 
 #: Below this preheat [K] a mechanism's delays were found longer than measured, and by how much
-#: at most, by file name (the README's ignition checks; GRI-Mech 3.0:
+#: at most, by file name (the ignition checks of docs/premixers.md; GRI-Mech 3.0:
 #: 2-7 times for methane at 37 atm and hydrogen near its second explosion limit; h2o2.yaml
 #: carries GRI-Mech 3.0's hydrogen-oxygen reactions, so its hydrogen delays are the same).
 IGNITION_LOW_T = {"gri30.yaml": (1150.0, 7.0), "h2o2.yaml": (1080.0, 7.0)}
@@ -252,7 +252,7 @@ def flammability_warning(X_fuel: dict, X_oxidizer: dict, phi: float) -> str:
 #: Mechanisms built for natural gas, by file name: the share of C3+ hydrocarbons in the fuel's
 #: combustibles above which they are used outside their validation (GRI-Mech 3.0 is optimised
 #: for methane and natural gas with ethane and a little propane; it over-predicts propane-air
-#: flame speeds by about 25 %, see the README's Accuracy section and tests/test_validation.py).
+#: flame speeds by about 25 %, see docs/error-bars.md, "Accuracy and scope", and tests/test_validation.py).
 NATURAL_GAS_MECHANISMS = {"gri30.yaml": 0.10}
 
 

@@ -65,7 +65,7 @@ DOMAINS = {
     # (secondary air feeds the flame base). Hydrogen's stretched flame base strengthens
     # (Lewis number of the deficient reactant well below 1): this tool's own extinction
     # Karlovitz numbers K_ext alpha_u / S_L^2 are 0.65 and 3.8 for hydrogen-air at phi 0.7
-    # and 0.5 against 0.34 for stoichiometric methane (README, [stretch]). 0.8 keeps the
+    # and 0.5 against 0.34 for stoichiometric methane (docs/flame-response.md, [stretch]). 0.8 keeps the
     # hydrocarbons (Le of lean methane about 0.96) and blends up to about half hydrogen by
     # volume (heat-release weighted Le about 0.82): common practice without source.
     # Reed's data are flames on single tubes in open air; on a deck of closely spaced ports

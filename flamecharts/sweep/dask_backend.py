@@ -63,7 +63,7 @@ def version_mismatch(expected: dict[str, str], found: dict[str, str], worker: st
         have = found.get(name)
         if have != want:
             return (f"Dask worker {worker} runs {name} {have}, this process {want}; install the same "
-                    "flamecharts and Cantera on every worker (README: Running on a cluster)")
+                    "flamecharts and Cantera on every worker (docs/cluster.md)")
     return None
 
 

@@ -4,6 +4,8 @@ stretch_points   the swept points a [stretch] table selects
 stretch_key      a ladder's store key: the point's inputs and the ladder's settings (sweep.extras)
 solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each
 stretch_rows     one row per ladder (STRETCH_COLUMNS), from the store
+with_ladders     stored rows with each burned ladder's strongest consumption speed merged into
+                 its point's metrics (the premixer's leading-point flame speed reads it)
 
 A ladder needs its mixture's unstretched S_L and T_ad, so it runs after the sweep, one task
 per ladder on the same workers (local or Dask), stored in the same table as the free flames
@@ -115,4 +117,19 @@ def stretch_rows(study: Study, pts: list[Point], rows_by_key: dict[str, dict], s
     for r in out:
         K, c = r["extinction_strain_rate_1_s"], r["characteristic_strain_1_s"]
         r["extinction_strain_margin"] = K / c if K and c else None
+    return out
+
+
+def with_ladders(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
+    """``stored`` with the strongest consumption speed of each selected point's burned ladder
+    merged into its metrics as ``ladder_consumption_speed_max_m_s`` (a ladder that failed gives
+    none: a partial ladder may stop short of the peak); a new dict, the store's rows untouched."""
+    selected = stretch_points(study, pts)
+    ladders = store.rows([stretch_key(p) for p in selected])
+    out = dict(stored)
+    for p in selected:
+        s, row = ladders.get(stretch_key(p)), stored.get(p.key)
+        speeds = ((s or {}).get("metrics") or {}).get("consumption_speeds_m_s")
+        if s and s["status"] == "ok" and speeds and row and row.get("metrics"):
+            out[p.key] = {**row, "metrics": {**row["metrics"], "ladder_consumption_speed_max_m_s": max(speeds)}}
     return out

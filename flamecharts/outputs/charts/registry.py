@@ -23,7 +23,7 @@ if TYPE_CHECKING:
     from ...config import Study
     from ...results import Comparison
 
-# ---- the rule for big studies: what one figure shows (README, "Charts of big studies")
+# ---- the rule for big studies: what one figure shows (docs/sweeps.md, "Charts of big studies")
 #: Pressures, and preheats, a figure draws as panels or curves: lowest, middle, highest.
 MAX_LEVELS = 3
 #: Curves of one panel (fuel x oxidizer x blend fraction); blend fractions are thinned to fit,
