@@ -6,7 +6,7 @@ deficient reactant (negative for lean hydrogen-air, positive rich: Law, Combusti
 2006, ch. 10, from memory) and agrees with the theoretical one; extinction strain rates of
 hydrogen-air peak near stoichiometric and fall to the lean side (Law & Sung 2000, counterflow
 extinction of hydrogen-air, from memory). h2o2.yaml throughout; GRI-Mech 3.0 methane in the
-slow test.
+benchmark (tests/benchmarks/stretch_validation.py: the methane extinction check).
 """
 import numpy as np
 import pytest
@@ -199,47 +199,3 @@ def test_a_stretch_value_outside_the_sweep_is_refused(tmp_path):
     r = run_cli("check", config)
     assert r.returncode == 2
     assert "'stretch.equivalence_ratio' lists 0.7, which the sweep does not have; allowed: 0.5, 1" in r.stderr
-
-
-#: Screening settings of the extinction search for the slow GRI-Mech 3.0 check: a coarser grid,
-#: the first step nearer extinction and a 20 % bracket. Measured on 2 cores against the full
-#: ladder (tests/benchmarks/stretch_validation.py): phi 0.6 488 (bracket to 580) against 545 1/s,
-#: phi 1.0 2,080 (to 2,473) against 2,167 1/s, 100-120 s a ladder instead of 9-15 min.
-SCREENING = dict(refine=dict(ratio=4.0, slope=0.2, curve=0.4, prune=0.05), first_velocity_factor=8.0,
-                 ladder_factor=2.0, resolution=1.2)
-
-
-def _extinction(case: tuple[str, float]) -> tuple[float, float]:
-    """(last burning, first extinguished) strain rate [1/s] of twin flames of (fuel, phi) in air, GRI-Mech 3.0."""
-    fuel, phi = case
-    import cantera as ct
-
-    from flamecharts.chemistry.strained import twin_flame_ladder
-    gas = ct.Solution("gri30.yaml")
-    gas.set_equivalence_ratio(phi, fuel, "O2:1, N2:3.76")
-    gas.TP = 300.0, ct.one_atm
-    X = gas.mole_fraction_dict()
-    f = ct.FreeFlame(gas, width=0.03)
-    f.set_refine_criteria(ratio=3, slope=0.1, curve=0.2)
-    f.solve(loglevel=0, auto=True)
-    out = twin_flame_ladder(gas, 300.0, ct.one_atm, X, float(f.velocity[0]), float(f.T[-1]), **SCREENING)
-    return out["extinction_strain_rate_1_s"], out["extinguished_above_1_s"]
-
-
-@pytest.mark.slow
-def test_methane_extinction_strain_rises_to_stoichiometric_and_with_hydrogen():
-    """Methane-air twin flames go out at a strain several times higher at phi 1.0 than at 0.6
-    (Law, Zhu & Yu 1986; Law, Combustion Physics 2006, ch. 10: stoichiometric methane-air
-    about 2,000-2,500 1/s and lean flames near phi 0.6 some 4 times lower; from memory,
-    absolute values differ with the strain definition, here the largest |du/dz| ahead of the
-    flame), and hydrogen in the fuel raises it at equal phi (Guo, Smallwood, Liu, Ju & Gülder,
-    Int. J. Hydrogen Energy 2005, counterflow methane-hydrogen flames; from memory). Three
-    ladders on two processes, about 3 minutes."""
-    from flamecharts.sweep.backends import LocalBackend
-    cases = (("CH4", 0.6), ("CH4", 1.0), ("CH4:0.7, H2:0.3", 0.6))
-    pool = LocalBackend(2).executor()  # the run's own worker pool (a second loky pool would clash with it)
-    (lean_lo, lean_hi), (st_lo, _), (h2_lo, _) = [f.result() for f in [pool.submit(_extinction, c) for c in cases]]
-    assert lean_lo and st_lo and h2_lo, "a ladder never went out"
-    assert st_lo / lean_hi > 3.0  # the brackets' most pessimistic ratio (full ladders: 4.0)
-    assert 1000 < st_lo < 5000     # within a factor 2 of the published stoichiometric value
-    assert h2_lo / lean_hi > 1.5   # 30 % hydrogen at phi 0.6 (full ladders: 1,367 against 545 1/s)
