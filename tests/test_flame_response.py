@@ -199,7 +199,9 @@ def test_methane_air_zeldovich_numbers(tmp_path):
     methane-air is thermodiffusively stable with a positive Markstein number (Tseng, Ismail &
     Faeth 1993; Gu et al. 2000: positive Markstein numbers of lean methane-air, from memory)."""
     config = tmp_path / "ch4.toml"
-    config.write_text('title = "methane response"\nmechanism = "gri30.yaml"\n[fuels]\nmethane = { CH4 = 1.0 }\n'
+    # coarse grids: Ze is a difference quotient of two flames on like grids, and the bands are wide
+    config.write_text('title = "methane response"\nmechanism = "gri30.yaml"\nresolution = "coarse"\n'
+                      '[fuels]\nmethane = { CH4 = 1.0 }\n'
                       '[oxidizers]\nair = { O2 = 1.0, N2 = 3.76 }\n[sweep]\nfuel = ["methane"]\noxidizer = ["air"]\n'
                       'equivalence_ratio = [0.6, 1.0]\n[flame_response]\n')
     study = load_study(config)

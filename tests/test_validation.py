@@ -34,10 +34,11 @@ unburned_temperature_K = {temperatures}
 """
 
 
-def _run(folder, name, mechanism="gri30.yaml", blend="", jobs=2, **axes):
+def _run(folder, name, mechanism="gri30.yaml", blend="", jobs=2, resolution="standard", **axes):
     """Solve a validation study with the tool; rows keyed by (fuel, phi, p, T)."""
     path = folder / f"{name}.toml"
-    path.write_text(STUDY.format(mechanism=mechanism, blend=blend, **axes))
+    text = STUDY.format(mechanism=mechanism, blend=blend, **axes)
+    path.write_text(text.replace("[fuels]", f'resolution = "{resolution}"\n[fuels]', 1))
     summary = run_study(load_study(path), out_dir=folder / "out", jobs=jobs)
     return {(r["fuel"], r["equivalence_ratio"], r["pressure_bar"], r["unburned_temperature_K"]): r
             for r in summary.rows}
@@ -126,8 +127,10 @@ def test_agrees_with_plain_cantera_solve(methane_1atm):
 
 @pytest.fixture(scope="module")
 def methane_p_T(tmp_path_factory):
+    # coarse grids (methane S_L about 1.5-2 % high, alike at every p and T: docs/error-bars.md): the checks
+    # are ratios between the four flames with bands of +-0.15 in the exponents, and this halves their cost
     return _run(tmp_path_factory.mktemp("methane_pT"), "methane_pT", fuels='["methane"]', phis="[1.0]",
-                pressures="[1.0, 5.0]", temperatures="[300.0, 450.0]")
+                pressures="[1.0, 5.0]", temperatures="[300.0, 450.0]", resolution="coarse")
 
 
 @pytest.mark.slow
