@@ -43,6 +43,7 @@ from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
 from .physics.fits import fit_power_law
+from .record_tables import ladders_dataset, limits_dataset
 from .store import DB_NAME, Store
 from .sweep.analyses import PER_POINT
 from .sweep.points import Point, points
@@ -464,7 +465,8 @@ def first_flashback_fraction(ds: xr.Dataset, study: Study) -> dict[tuple, float 
 
 @dataclass
 class Results:
-    """The results of a study: one row per point, as an xarray Dataset or a pandas DataFrame.
+    """The results of a study: one row per point, as an xarray Dataset or a pandas DataFrame;
+    the limit searches and the strained-flame ladders as Datasets of their own.
 
     ``summary`` is the :class:`~flamecharts.pipeline.RunSummary` of the run that gave them
     (None when read from a folder with :func:`flamecharts.open_results`); ``files`` are
@@ -486,6 +488,19 @@ class Results:
         if self.table is None:
             self.table = to_dataset(self.study, self.rows)
         return self.table
+
+    @property
+    def limits_dataset(self) -> xr.Dataset:
+        """limits.csv as a Dataset over ``search`` (one per limit search and window; empty
+        without [limits]); units and long names as in results.nc (record_tables.limits_dataset)."""
+        return limits_dataset(self.limits)
+
+    @property
+    def ladders_dataset(self) -> xr.Dataset:
+        """stretch.csv as a Dataset over ``ladder``, each ladder's strain rates and consumption
+        speeds over (``ladder``, ``strain_step``), NaN past its last burning step (empty without
+        [stretch]; record_tables.ladders_dataset)."""
+        return ladders_dataset(self.stretch)
 
     def to_dataframe(self) -> pd.DataFrame:
         """A pandas DataFrame with results.csv's columns, one row per point, in study order."""

@@ -256,6 +256,9 @@ def test_limit_matches_a_fine_sweep_and_reruns_cost_nothing(tmp_path):
     assert 2 <= lim["flames_evaluated"] <= 7   # the pure blend gas, then the edge
     assert res.summary.limit_flames == lim["flames_evaluated"]
     assert (tmp_path / "out" / "limits.csv").is_file()
+    ds = res.limits_dataset  # limits.csv as a Dataset over `search`, units as in results.nc
+    assert ds.sizes["search"] == 1 and float(ds["upper_edge"][0]) == lim["upper_edge"]
+    assert str(ds["upper_binding"].values[0]) == "flashback" and ds["flames_evaluated"].attrs["units"] == "1"
 
     fine = write_h2_study(tmp_path, name="fine", phis="[1.0]",
                           fractions="[" + ", ".join(f"{x:.2f}" for x in np.arange(0.0, 0.161, 0.02)) + "]",

@@ -44,7 +44,7 @@ def test_every_ladder_burns_then_goes_out(ladders):
     assert set(rows) == {0.5, 1.0, 2.0}
     for r in rows.values():
         assert r["status"] == "ok", r["message"]
-        K = [float(v) for v in r["strain_rates_1_s"].split()]
+        K = r["strain_rates_1_s"]
         assert len(K) >= 4 and K == sorted(K)  # a ladder up in strain
         assert r["extinction_strain_rate_1_s"] == pytest.approx(K[-1], rel=1e-5)
         assert r["extinguished_above_1_s"] <= 1.03 * r["extinction_strain_rate_1_s"]  # bracket within ~2 %
@@ -58,8 +58,7 @@ def test_consumption_speed_tends_to_the_free_flame_speed_without_strain(ladders)
     _, res, _ = ladders
     for phi in (1.0, 2.0):
         r = _by_phi(res.stretch)[phi]
-        K = np.array([float(v) for v in r["strain_rates_1_s"].split()])[:2]
-        S = np.array([float(v) for v in r["consumption_speeds_m_s"].split()])[:2]
+        K, S = np.array(r["strain_rates_1_s"][:2]), np.array(r["consumption_speeds_m_s"][:2])
         S0 = S[0] - K[0] * (S[1] - S[0]) / (K[1] - K[0])
         assert S0 == pytest.approx(r["laminar_flame_speed_m_s"], rel=0.04)
 
@@ -110,6 +109,25 @@ def test_ladders_are_stored_and_read_back_without_solving(ladders):
     assert len(keys) == 3
 
 
+def test_ladders_dataset_has_a_strain_step_dimension_equal_to_stretch_csv(ladders):
+    """Results.ladders_dataset: one ladder per stretch.csv row, its steps over strain_step (NaN
+    past a ladder's last step), the same numbers as stretch.csv's space-separated columns."""
+    import csv
+    _, res, folder = ladders
+    ds = res.ladders_dataset
+    assert ds["strain_rates_1_s"].dims == ("ladder", "strain_step") and ds["strain_rates_1_s"].attrs["units"] == "1/s"
+    with open(folder / "o" / "stretch.csv") as fh:
+        table = list(csv.DictReader(fh))
+    assert ds.sizes["ladder"] == len(table) == 3
+    for i, row in enumerate(table):
+        K = [float(v) for v in row["strain_rates_1_s"].split()]
+        got = ds["strain_rates_1_s"].isel(ladder=i).values
+        assert np.allclose(got[:len(K)], K, rtol=1e-5) and np.isnan(got[len(K):]).all()
+        assert float(ds["extinction_strain_rate_1_s"][i]) == pytest.approx(float(row["extinction_strain_rate_1_s"]), rel=1e-5)
+        assert str(ds["status"].values[i]) == row["status"]
+    assert open_results(folder / "o").ladders_dataset.identical(ds)
+
+
 def test_stretch_csv_chart_and_report(ladders):
     _, res, folder = ladders
     out = folder / "o"
@@ -133,8 +151,8 @@ def test_the_leading_point_flame_speed_reads_each_ladders_strongest_consumption_
     _, res, folder = ladders
     rows, ladder = _by_phi(res.rows), _by_phi(res.stretch)
     for phi, r in rows.items():
-        S_c = max(float(v) for v in ladder[phi]["consumption_speeds_m_s"].split())  # 6 digits in stretch.csv
-        assert r["strained_consumption_speed_max_m_s"] == pytest.approx(S_c, rel=1e-5)
+        S_c = max(ladder[phi]["consumption_speeds_m_s"])
+        assert r["strained_consumption_speed_max_m_s"] == pytest.approx(S_c, rel=1e-12)
         lp = pm.leading_point_flame_speed(r["rms_velocity_m_s"], 1e-3 * r["integral_length_mm"],
                                           r["strained_consumption_speed_max_m_s"], r["unburned_thermal_diffusivity_m2_s"])
         assert r["turbulent_flame_speed_leading_point_m_s"] == pytest.approx(lp.S_T_m_s, rel=1e-12)

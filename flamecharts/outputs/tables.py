@@ -43,6 +43,8 @@ def _fmt(v) -> str:
         return "true" if v else "false"
     if isinstance(v, float):
         return f"{v:.6g}"
+    if isinstance(v, (list, tuple)):  # a ladder's steps (stretch.csv): space-separated
+        return " ".join(f"{x:.6g}" for x in v)
     return str(v)
 
 

@@ -111,8 +111,8 @@ def stretch_rows(study: Study, pts: list[Point], rows_by_key: dict[str, dict], s
             "characteristic_strain_1_s": characteristic_strain(study, free),
             "half_separation_mm": 1e3 * m["half_separation_m"] if m.get("half_separation_m") else None,
             "strained_flames": m.get("solves"), "ladder_seconds": round(s["solve_seconds"], 2) if s else None,
-            "strain_rates_1_s": " ".join(f"{k:.6g}" for k in m.get("strain_rates_1_s", [])),
-            "consumption_speeds_m_s": " ".join(f"{v:.6g}" for v in m.get("consumption_speeds_m_s", [])),
+            "strain_rates_1_s": [float(k) for k in m.get("strain_rates_1_s", [])],
+            "consumption_speeds_m_s": [float(v) for v in m.get("consumption_speeds_m_s", [])],
             "message": s["message"] if s else "",
         })
     for r in out:

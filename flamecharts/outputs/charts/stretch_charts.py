@@ -24,8 +24,9 @@ def has_stretch(data: ChartData, study: Study) -> bool:
     return any(r["status"] == "ok" for r in data.stretch)
 
 
-def _numbers(text: str) -> np.ndarray:
-    return np.array([float(v) for v in str(text or "").split()])
+def _numbers(steps: list[float] | str) -> np.ndarray:
+    """A ladder's steps: the run's list, or stretch.csv's space-separated text."""
+    return np.array([float(v) for v in (steps.split() if isinstance(steps, str) else steps or [])])
 
 
 def _where(r: dict) -> str:
