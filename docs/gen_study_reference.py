@@ -226,9 +226,12 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "find": Key(f"a list of {one_of(C.LIMIT_KINDS)}", "both when the sweep blends, else `[\"equivalence_ratio\"]`",
                         "which limits to search"),
             "criteria": Key(f"a list of {one_of(C.LIMIT_CRITERIA)}",
-                            "flashback, the blowoff that applies (the rim's, or the stabilizer's with a bluff body) and "
-                            "the Wobbe band when [gas_quality] sets one",
-                            "the criteria a window keeps; at least one burner margin besides the Wobbe band"),
+                            "flashback, the blowoff that applies (the rim's, or the stabilizer's with a bluff body), "
+                            "with [premixer] core_flashback, with [premixer], [stretch] and a stabilizer "
+                            "extinction_blowout, and the Wobbe band when [gas_quality] sets one",
+                            "the criteria a window keeps; at least one burner margin besides the Wobbe band; "
+                            "core_flashback and extinction_blowout are a premixer's "
+                            "([Gas-turbine premixers](premixers.md#admissible-limits-of-a-premixer))"),
             "blend_fraction_tolerance": Key("a number above 0, at most 0.1",
                                             code(lambda d: d.limits.tolerance["blend_fraction"]),
                                             "width of each blend edge's final bracket (a mole fraction: 0.005 is 0.5 "

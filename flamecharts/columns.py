@@ -214,8 +214,12 @@ UNITS: dict[str, tuple[str, str]] = {
     "karlovitz_number": ("1", "Ka = (u'/S_L)^1.5 (l_t/l_F)^-0.5: flame time over Kolmogorov time"),
     "combustion_regime": ("", "regime of Peters' diagram: laminar, wrinkled or corrugated flamelets, thin or broken "
                               "reaction zones"),
-    "strained_consumption_speed_max_m_s": ("m/s", "strongest consumption speed along the point's strained-flame "
-                                                  "ladder ([stretch]): S_c,max of the leading-point speed"),
+    "strained_consumption_speed_max_m_s": ("m/s", "strongest strained-flame consumption speed S_c,max of the "
+                                                  "leading-point speed: its [stretch] ladder's, else interpolated "
+                                                  "(linear in its logarithm) between the ladder points of its gas, "
+                                                  "pressure and preheat"),
+    "strained_consumption_speed_source": ("", "at a ladder point, interpolated, nearest ladder point (beyond the "
+                                              "ladders' span), or no ladder at this condition"),
     "turbulent_flame_speed_zimont_m_s": ("m/s", "turbulent flame speed S_T = 0.52 u' Da^(1/4) of Zimont's closure "
                                                 "(no Lewis number; Zimont 2000)"),
     "turbulent_flame_speed_muppala_m_s": ("m/s", "turbulent flame speed S_T = S_L (1 + (0.46/Le) Re_t^0.25 "
@@ -223,7 +227,8 @@ UNITS: dict[str, tuple[str, str]] = {
                                                  "number (Muppala et al. 2005)"),
     "turbulent_flame_speed_leading_point_m_s": ("m/s", "turbulent flame speed on the leading points: Schmid's "
                                                        "S_L + u' (1 + Da^-2)^(-1/4) with S_L -> S_c,max (Kuznetsov & "
-                                                       "Sabelnikov 1990; points with a [stretch] ladder)"),
+                                                       "Sabelnikov 1990; where a [stretch] ladder burned at the "
+                                                       "point's gas, pressure and preheat)"),
     "turbulent_flame_speed_outside_range": ("", "which correlation is outside the range of its fitted data here, and "
                                                 "why ('' where all are inside)"),
     "core_flashback_margin": ("1", "bulk (port) velocity over the largest turbulent flame speed of the correlations "
@@ -281,8 +286,10 @@ PREMIXER_COLUMNS = ("ignition_delay_ms", "autoignition_margin", "injection_ignit
 TURBULENCE_COLUMNS = ("rms_velocity_m_s", "integral_length_mm", "turbulence_source", "turbulent_reynolds_number",
                       "damkohler_number", "karlovitz_number", "combustion_regime")
 #: The premixer's turbulent flame speeds and core-flow flashback margin (empty unless [premixer] and
-#: [burner]; the leading-point speed only where a [stretch] ladder burned).
-TURBULENT_SPEED_COLUMNS = ("strained_consumption_speed_max_m_s", "turbulent_flame_speed_zimont_m_s",
+#: [burner]; the leading-point speed only where a [stretch] ladder burned at the point's gas, pressure
+#: and preheat).
+TURBULENT_SPEED_COLUMNS = ("strained_consumption_speed_max_m_s", "strained_consumption_speed_source",
+                           "turbulent_flame_speed_zimont_m_s",
                            "turbulent_flame_speed_muppala_m_s", "turbulent_flame_speed_leading_point_m_s",
                            "turbulent_flame_speed_outside_range", "core_flashback_margin", "core_flashback_correlation")
 #: The premixer's boundary-layer flashback and extinction-strain blowout (empty unless [premixer] and

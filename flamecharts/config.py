@@ -76,8 +76,10 @@ LIMITS_KEYS = ("find", "criteria", "blend_fraction_tolerance", "equivalence_rati
 #: sweep setting, and the lean and rich edges of the equivalence-ratio window at every blend.
 LIMIT_KINDS = ("blend_fraction", "equivalence_ratio")
 #: What a limit may keep: burner margins (the stabilizer one only where the burner has a
-#: stabilizer) and, along the blend axis, the Wobbe band of [gas_quality].
-LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "wobbe")
+#: stabilizer), a premixer's core-flow flashback margin and extinction-strain blowout margin
+#: (with [premixer]; the blowout with a stabilizer and [stretch]) and, along the blend axis, the
+#: Wobbe band of [gas_quality].
+LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "core_flashback", "extinction_blowout", "wobbe")
 #: Default tolerances of a limit search: the width of the final bracket (0.5 percentage
 #: points of blend fraction; 0.005 in equivalence ratio).
 DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
@@ -571,8 +573,39 @@ def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str,
     return tuple(dict.fromkeys(items))
 
 
-def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: GasQuality) -> Limits:
-    """The [limits] table: checked against the burner and the sweep it needs."""
+def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, stretch: bool) -> tuple[str, ...]:
+    """limits.criteria, checked against what each criterion needs. Default: flashback, the burner's
+    blowoff criterion (the rim's, or the stabilizer's), and with [premixer] the core-flow flashback
+    margin, with a stabilizer and [stretch] the extinction-strain blowout, and the Wobbe band where
+    [gas_quality] sets one."""
+    default = (["flashback", burner.blowoff[2]] + (["core_flashback"] if premixer else [])
+               + (["extinction_blowout"] if premixer and stretch and burner.stabilizer_size_m is not None else [])
+               + (["wobbe"] if has_band else []))
+    criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
+    if "stabilizer" in criteria and burner.stabilizer_size_m is None:
+        raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
+    for c, what in (("core_flashback", "the core-flow flashback margin"), ("extinction_blowout", "the blowout margin")):
+        if c in criteria and not premixer:
+            raise ConfigError(f"'limits.criteria' names {c!r}, but the study has no [premixer]: {what} is a "
+                              "premixer's (add [premixer] with its residence_time_ms)")
+    if "extinction_blowout" in criteria and burner.stabilizer_size_m is None:
+        raise ConfigError("'limits.criteria' names 'extinction_blowout', but [burner] has no 'stabilizer_size_mm' "
+                          "(with 'approach_velocity_m_s'): Da_ext needs the stabilizer's size and edge velocity")
+    if "extinction_blowout" in criteria and not stretch:
+        raise ConfigError("'limits.criteria' names 'extinction_blowout', but the study has no [stretch]: the "
+                          "extinction strain rate comes from its strained-flame ladders")
+    if "wobbe" in criteria and not has_band:
+        raise ConfigError("'limits.criteria' names 'wobbe', but [gas_quality] sets no band: add "
+                          "'wobbe_tolerance_percent' or 'wobbe_band_MJ_m3'")
+    if criteria == ("wobbe",):
+        raise ConfigError("'limits.criteria' needs at least one burner margin besides 'wobbe': "
+                          + ", ".join(c for c in LIMIT_CRITERIA if c != "wobbe"))
+    return criteria
+
+
+def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: GasQuality, premixer: bool = False,
+            stretch: bool = False) -> Limits:
+    """The [limits] table: checked against the burner, the sweep and the tables it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")
     _check_keys(t, LIMITS_KEYS, "limits.")
@@ -584,16 +617,7 @@ def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: 
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
                           "sweep.blend = { with = ..., fraction = [...] }")
     has_band = gas_quality.band_MJ_m3 is not None or gas_quality.tolerance_percent is not None
-    default = ["flashback", burner.blowoff[2]] + (["wobbe"] if has_band else [])
-    criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
-    if "stabilizer" in criteria and burner.stabilizer_size_m is None:
-        raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
-    if "wobbe" in criteria and not has_band:
-        raise ConfigError("'limits.criteria' names 'wobbe', but [gas_quality] sets no band: add "
-                          "'wobbe_tolerance_percent' or 'wobbe_band_MJ_m3'")
-    if criteria == ("wobbe",):
-        raise ConfigError("'limits.criteria' needs at least one burner margin besides 'wobbe': flashback, blowoff "
-                          "or stabilizer")
+    criteria = _limit_criteria(t, burner, has_band, premixer, stretch)
     tol = dict(DEFAULT_LIMIT_TOLERANCE)
     for kind, top in (("blend_fraction", 0.1), ("equivalence_ratio", 0.1)):
         key = f"{kind}_tolerance"
@@ -945,7 +969,8 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
         "gas_quality": gas_quality,
         "indicator_settings": _indicator_settings(data.get("indicators", {})),
         "cluster": check_cluster_spec(data["cluster"]) if "cluster" in data else None,
-        "limits": _limits(data["limits"], burner, blend_with, gas_quality) if "limits" in data else None,
+        "limits": _limits(data["limits"], burner, blend_with, gas_quality, "premixer" in data,
+                          "stretch" in data) if "limits" in data else None,
         "premixer": _premixer(data["premixer"]) if "premixer" in data else None,
         "flame_response": _flame_response(data["flame_response"]) if "flame_response" in data else None,
         "stretch": _stretch(data["stretch"], axes) if "stretch" in data else None,

@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import math
 import re
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
@@ -317,10 +318,16 @@ def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
     return out
 
 
-def annotate(study: Study, rows: list[dict]) -> list[dict]:
-    """Add indicator, reference-ratio, fuel-gas and burner columns to flat rows (in place)."""
+def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> list[dict]:
+    """Add indicator, reference-ratio, fuel-gas and burner columns to flat rows (in place).
+
+    ``ladders``: what a premixer's margins interpolate between the [stretch] ladder points
+    (:class:`Ladders`); None: those of ``rows`` themselves (a whole sweep). A limit search gives
+    its flames the sweep's (admissible.driver)."""
     s = study.indicator_settings
     gases = fuel_gases(study)
+    if ladders is None:
+        ladders = sweep_ladders(rows) if study.premixer is not None else NO_LADDERS
     for r in rows:
         r.update(dict.fromkeys(INDICATOR_COLUMNS))
         if r["status"] == "ok":
@@ -345,9 +352,9 @@ def annotate(study: Study, rows: list[dict]) -> list[dict]:
             r[col] = gas.row[col]
         r.update(_burner_margins(study, r, gas, s))
         r.update(turbulence_columns(study, r))
-        r.update(turbulent_speed_columns(r))
+        r.update(turbulent_speed_columns(r, strained_speed(r, ladders.consumption)))
         r.update(emission_columns(study, r, gas.row))
-    premixer_margins(study, rows)
+    premixer_margins(study, rows, ladders)
     return rows
 
 
@@ -510,6 +517,12 @@ def turbulence_columns(study: Study, row: dict) -> dict:
 
 
 def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:
+    """The turbulent flame speeds of an annotated burning point (:func:`speeds_at` on its
+    ``strained_consumption_speed_max_m_s``): what the report and charts read."""
+    return speeds_at(row, row.get("strained_consumption_speed_max_m_s"))
+
+
+def speeds_at(row: dict, S_c: float | None) -> dict[str, FlameSpeed]:
     """The turbulent flame speeds of a burning point whose turbulence is known
     (``turbulence_columns``), by correlation (physics.premixer), each with its fitted range:
 
@@ -517,13 +530,14 @@ def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:
     muppala        Muppala et al. (2005), 1/Le on the Lewis number of the deficient reactant (the
                    fuel's, heat-release weighted over a blend's fuels, on the lean side; oxygen's
                    on the rich side): carries a Lewis number below one (hydrogen), coarsely
-    leading point  Schmid's S_L + u' (1 + Da^-2)^(-1/4) with S_L -> S_c,max, the strongest
-                   consumption speed of the point's strained-flame ladder (Kuznetsov &
-                   Sabelnikov; only where a [stretch] ladder burned): carries hydrogen's
-                   response to stretch as the mechanism gives it, pressure included
+    leading point  Schmid's S_L + u' (1 + Da^-2)^(-1/4) with S_L -> S_c,max (``S_c``), the strongest
+                   consumption speed of the strained-flame ladders (Kuznetsov & Sabelnikov; where
+                   a [stretch] ladder burned at the point's gas, pressure and preheat:
+                   :func:`strained_speed`): carries hydrogen's response to stretch as the
+                   mechanism gives it, pressure included
 
     Empty where the point has no turbulence columns; a correlation without its input (a Lewis
-    number, a ladder) is left out."""
+    number, S_c,max) is left out."""
     u_p = row.get("rms_velocity_m_s")
     if u_p is None:
         return {}
@@ -534,16 +548,16 @@ def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:
     lewis = row.get("lewis_number_fuel" if row["equivalence_ratio"] <= 1.0 else "lewis_number_oxygen")
     if lewis:
         out["muppala"] = muppala_flame_speed(u_p, l_t, S_L, nu, lewis, 1e5 * row["pressure_bar"])
-    S_c = row.get("ladder_consumption_speed_max_m_s")
     if S_c:
         out["leading point"] = leading_point_flame_speed(u_p, l_t, S_c, alpha)
     return out
 
 
-def turbulent_speed_columns(row: dict) -> dict:
-    """A premixer's turbulent flame speeds (``turbulent_speeds``), which of them lie outside the
+def turbulent_speed_columns(row: dict, strained: tuple[float | None, str | None] | None = None) -> dict:
+    """A premixer's turbulent flame speeds (:func:`speeds_at`), which of them lie outside the
     range of their fitted data and why, and the core-flow flashback margin
-    (columns.TURBULENT_SPEED_COLUMNS).
+    (columns.TURBULENT_SPEED_COLUMNS). ``strained``: (S_c,max, how it was found) at the point
+    (:func:`strained_speed`, what ``annotate`` gives every point); None: the point's own ladder's.
 
     Core-flow margin (physics.premixer.core_flashback_margin): the bulk (port) velocity over
     the LARGEST turbulent flame speed of the correlations computed at the point, in or out of
@@ -553,12 +567,15 @@ def turbulent_speed_columns(row: dict) -> dict:
     its data (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's
     (about 1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
     out: dict[str, Any] = dict.fromkeys(TURBULENT_SPEED_COLUMNS)
-    speeds = turbulent_speeds(row)
+    if strained is None:
+        own = row.get("ladder_consumption_speed_max_m_s")
+        strained = (own, "at a ladder point") if own else (None, None)
+    speeds = speeds_at(row, strained[0])
     if not speeds:
         return out
     fastest = max(speeds, key=lambda k: speeds[k].S_T_m_s)
     get = {k: v.S_T_m_s for k, v in speeds.items()}.get
-    out.update(strained_consumption_speed_max_m_s=row.get("ladder_consumption_speed_max_m_s"),
+    out.update(strained_consumption_speed_max_m_s=strained[0], strained_consumption_speed_source=strained[1],
                turbulent_flame_speed_zimont_m_s=get("zimont"), turbulent_flame_speed_muppala_m_s=get("muppala"),
                turbulent_flame_speed_leading_point_m_s=get("leading point"),
                turbulent_flame_speed_outside_range="; ".join(f"{k}: {v.why}" for k, v in speeds.items() if v.why),
@@ -798,14 +815,47 @@ def ladder_extinction(row: dict) -> float | None:
     return float(K) if row.get("status") == "ok" and K else None
 
 
-def ladder_points(rows: list[dict]) -> dict[tuple, dict[tuple[float, float], float]]:
-    """(fuel, oxidizer, p, T) -> {(blend fraction, phi): kappa_ext} of every point whose ladder burned."""
-    out: dict[tuple, dict[tuple[float, float], float]] = {}
+def ladder_consumption_speed(row: dict) -> float | None:
+    """S_c,max [m/s], the strongest strained-flame consumption speed, of a burning point whose
+    [stretch] ladder burned, else None."""
+    S_c = row.get("ladder_consumption_speed_max_m_s")
+    return float(S_c) if row.get("status") == "ok" and S_c else None
+
+
+#: A value per ladder point: (fuel, oxidizer, p, T) -> {(blend fraction, phi): value}.
+LadderTable = dict[tuple, dict[tuple[float, float], float]]
+
+
+def ladder_points(rows: list[dict], value: Callable[[dict], float | None] = ladder_extinction) -> LadderTable:
+    """(fuel, oxidizer, p, T) -> {(blend fraction, phi): value} of every point whose ladder burned;
+    ``value``: :func:`ladder_extinction` (kappa_ext, the default) or :func:`ladder_consumption_speed`."""
+    out: LadderTable = {}
     for r in rows:
-        K = ladder_extinction(r)
-        if K is not None:
-            out.setdefault(tuple(r[a] for a in LADDER_GROUP), {})[(r["blend_fraction"], r["equivalence_ratio"])] = K
+        v = value(r)
+        if v is not None:
+            out.setdefault(tuple(r[a] for a in LADDER_GROUP), {})[(r["blend_fraction"], r["equivalence_ratio"])] = v
     return out
+
+
+@dataclass(frozen=True)
+class Ladders:
+    """What the [stretch] ladders of a sweep give every flame at their gas, pressure and preheat, by
+    interpolation between the ladder points (:func:`interpolated_extinction`): kappa_ext for the
+    extinction-strain blowout, S_c,max for the leading-point flame speed. The same table serves
+    the swept points and the flames a [limits] search solves between them (admissible.driver), so a
+    margin is the same function of the flame at both."""
+
+    extinction: LadderTable
+    consumption: LadderTable
+
+
+#: A sweep without burned ladders.
+NO_LADDERS = Ladders({}, {})
+
+
+def sweep_ladders(rows: list[dict]) -> Ladders:
+    """The :class:`Ladders` of a sweep's rows (those whose ladder burned carry its values)."""
+    return Ladders(ladder_points(rows), ladder_points(rows, ladder_consumption_speed))
 
 
 def _bracket(xs: list[float], v: float) -> tuple[list[tuple[int, float]], bool]:
@@ -823,7 +873,8 @@ def _bracket(xs: list[float], v: float) -> tuple[list[tuple[int, float]], bool]:
 
 def interpolated_extinction(ladders: dict[tuple[float, float], float], blend: float, phi: float) -> tuple[float, str]:
     """kappa_ext [1/s] at (``blend``, ``phi``) from the ladder points of one gas, pressure and
-    preheat (``ladders``: {(blend fraction, phi): kappa_ext}, at least one), and how it was found:
+    preheat (``ladders``: {(blend fraction, phi): kappa_ext}, at least one), and how it was found
+    (the same for any positive ladder value: S_c,max in :func:`strained_speed`):
     'at a ladder point'; 'interpolated' (linear in ln kappa_ext along phi at each ladder blend
     fraction, then along the blend fraction); or 'nearest ladder point (beyond the ladders' ...)'
     where the point lies outside the ladders' span on an axis, the nearest value held there,
@@ -864,6 +915,33 @@ def _span(lo: float, hi: float) -> str:
 
 #: extinction_strain_source of a point whose gas, pressure and preheat has no burned ladder.
 NO_LADDER = "not assessed: no ladder at this condition"
+
+
+def strained_speed(row: dict, speeds: LadderTable) -> tuple[float | None, str | None]:
+    """(S_c,max [m/s], how it was found) of a burning point: the strongest strained-flame consumption
+    speed of the ladder points of its gas, pressure and preheat (``speeds``: the ``consumption`` of
+    :class:`Ladders`), interpolated as kappa_ext is (:func:`interpolated_extinction`: linear in its
+    logarithm along phi, then along the blend fraction; held beyond the ladders, never
+    extrapolated): the ladder's own value at a ladder point. (None, None) for a point without a
+    flame, (None, 'no ladder at this condition') without a ladder at its condition.
+
+    S_c,max itself, not its ratio to the point's S_L (the first plan, carrying each point's S_L): on
+    lean hydrogen ladders ln S_c,max was off by -3 to +8 % along phi and -5 to +1 % across blends,
+    the ratio by +8 to +16 % and +1 to +8 % (tests/benchmarks/extinction_interpolation.py,
+    docs/benchmarks.md): S_L falls steeply to the lean side while S_c,max does not, as for kappa_ext.
+
+    >>> row = {"status": "ok", "fuel": "f", "oxidizer": "air", "pressure_bar": 1.0, "unburned_temperature_K": 300.0,
+    ...        "blend_fraction": 0.0, "equivalence_ratio": 0.6, "laminar_flame_speed_m_s": 0.5}
+    >>> S_c, how = strained_speed(row, {("f", "air", 1.0, 300.0): {(0.0, 0.5): 0.75, (0.0, 0.7): 0.96}})
+    >>> round(S_c, 4), how
+    (0.8485, 'interpolated')
+    """
+    if row.get("status") != "ok" or not row.get("laminar_flame_speed_m_s"):
+        return None, None
+    mine = speeds.get(tuple(row[a] for a in LADDER_GROUP))
+    if not mine:
+        return None, NO_LADDER.removeprefix("not assessed: ")
+    return interpolated_extinction(mine, row["blend_fraction"], row["equivalence_ratio"])
 
 
 def blowout_columns(study: Study, row: dict, ladders: dict[tuple, dict[tuple[float, float], float]]) -> dict:
@@ -964,15 +1042,17 @@ def premixer_verdict(study: Study, row: dict) -> str:
     return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {' and '.join(assessed)} only; {gap}"
 
 
-def premixer_margins(study: Study, rows: list[dict]) -> None:
+def premixer_margins(study: Study, rows: list[dict], ladders: Ladders | None = None) -> None:
     """Add a premixer's boundary-layer flashback and extinction-strain blowout columns to every row
     (in place; after ``turbulent_speed_columns``, across the sweep: the blowout interpolates between
-    the ladder points), and give each burning premixer point the premixer's verdict
-    (:func:`premixer_verdict`) and its criteria not assessed beside the burner's."""
-    ladders = ladder_points(rows) if study.premixer is not None else {}
+    the ladder points of ``ladders``, by default those of ``rows``), and give each burning premixer
+    point the premixer's verdict (:func:`premixer_verdict`) and its criteria not assessed beside the
+    burner's."""
+    if ladders is None:
+        ladders = sweep_ladders(rows) if study.premixer is not None else NO_LADDERS
     for r in rows:
         r.update(boundary_layer_columns(study, r))
-        r.update(blowout_columns(study, r, ladders))
+        r.update(blowout_columns(study, r, ladders.extinction))
         if r["status"] == "ok" and r.get("rms_velocity_m_s") is not None:
             burner_own = {c: why for c, why in (r.get("not_assessed") or {}).items() if c not in PREMIXER_CRITERIA}
             r["not_assessed"] = {**burner_own, **premixer_unassessed(study, r)}

@@ -109,8 +109,9 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                 stop_after: int | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
 
-    Then, when the study has a [limits] table, run its limit searches: each asks for
-    flames between the swept ones, solved on the same backend and stored like any point.
+    Then the extra solves and [stretch] ladders the study asks for and, when it has a [limits]
+    table, its limit searches (after the ladders, whose values a premixer's margins read): each
+    asks for flames between the swept ones, solved on the same backend and stored like any point.
     ``progress`` receives one :class:`Progress` event after every finished flame, extra solve
     and round of limit flames (``what`` says which).
 
@@ -179,8 +180,16 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
         if analysis.wanted(study):
             extra_seconds += analysis.solve(study, store, pts, stored, backend, _part(progress, analysis.what))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
+    stretch, ladders, ladder_seconds = [], 0, 0.0
+    if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
+        by_key = {r["point_key"]: r for r in rows}
+        ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
+                                                _part(progress, "strained-flame ladders"))
+        stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
+        if ladders and study.premixer is not None:  # a premixer's margins, and its limits, read the new ladders
+            rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
-    if study.limits is not None and stop_after is None:
+    if study.limits is not None and stop_after is None:  # after the ladders: a first run and a rerun agree
         swept = {p.key for p in pts}
 
         def solve(new_points: list[Point]) -> int:  # warm-started from the sweep's flames only: resumed runs agree
@@ -189,14 +198,6 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
             limit_solved[0] += n
             return n
         limits = with_mechanism(study, find_limits(study, rows, store, solve, _limits_part(progress)))
-    stretch, ladders, ladder_seconds = [], 0, 0.0
-    if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
-        by_key = {r["point_key"]: r for r in rows}
-        ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
-                                                _part(progress, "strained-flame ladders"))
-        stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
-        if ladders and study.premixer is not None:  # the leading-point flame speed reads the new ladders
-            rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     return {"rows": rows, "solved": done.solved, "reused": done.reused, "limits": limits,
             "limit_flames": limit_solved[0], "stretch": stretch, "ladders": ladders,
             "solve_seconds": done.solve_seconds + ladder_seconds + extra_seconds}

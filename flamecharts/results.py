@@ -38,7 +38,7 @@ from .columns import (
     gas_label,
 )
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
-from .design import annotate, mechanism_differences, point_warnings, premixer_columns
+from .design import Ladders, annotate, mechanism_differences, point_warnings, premixer_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
@@ -95,12 +95,13 @@ def not_a_flame(row: dict, why: str) -> None:
     row.update(dict.fromkeys(FLAME_ONLY_COLUMNS))
 
 
-def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[dict]:
+def point_rows(study: Study, pts: list[Point], stored: dict[str, dict], ladders: Ladders | None = None) -> list[dict]:
     """One flat row per point, in study order, from stored results (missing -> 'pending'),
     with the design indicators, fuel-gas properties and burner margins added, and the
     range warnings of each point (column 'warnings', see design.point_warnings). A store written
     before the flames carried what the read-out needs of their mixture (sweep.upgrade) is a
-    StoreError naming the commands that upgrade it."""
+    StoreError naming the commands that upgrade it. ``ladders``: what a premixer's margins
+    interpolate between the [stretch] ladder points (design.annotate; None: those of ``pts``)."""
     if any(lacks_readout(r) for r in stored.values()):
         raise StoreError("the results store was written by an earlier flamecharts: some flames lack the mixture "
                          "properties the read-out now takes from the store; 'flamecharts compact DIR' or 'flamecharts "
@@ -111,7 +112,7 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict]) -> list[
                                                               r["laminar_flame_speed_m_s"], r["thermal_thickness_mm"],
                                                               p.T_u)):
             not_a_flame(r, why)
-    rows = annotate(study, flat)
+    rows = annotate(study, flat, ladders)
     for p, r in zip(pts, rows):
         r["warnings"] = point_warnings(study, p, r)
         if study.premixer is not None:

@@ -21,10 +21,21 @@ from typing import TYPE_CHECKING
 from scipy.optimize import brentq
 
 from ..columns import LIMIT_COLUMNS
-from ..design import fuel_gas
+from ..design import Ladders, fuel_gas, sweep_ladders
 from ..results import point_rows
 from ..sweep.points import Point, points
-from .search import CRITERIA, NOT_ASSESSED, WOBBE, Answer, Window, apply_band, band_at, limit_parts, window_search
+from .search import (
+    CRITERIA,
+    NOT_ASSESSED,
+    WOBBE,
+    Answer,
+    Window,
+    apply_band,
+    band_at,
+    limit_parts,
+    unassessed_reason,
+    window_search,
+)
 from .words import burner_and_limits, fixed_ratio_note
 
 if TYPE_CHECKING:
@@ -167,7 +178,7 @@ def unassessed_words(swept: list[tuple[float, dict]], criteria: tuple[str, ...],
     burning = [(x, r) for x, r in swept if r.get("status") == "ok"]
     out = []
     for c in criteria:
-        off = [(x, r["not_assessed"][c]) for x, r in burning if c in (r.get("not_assessed") or {})]
+        off = [(x, why) for x, r in burning if (why := unassessed_reason(r, c)) is not None]
         if off:
             at = f"{100 * off[0][0]:g} %" if axis == "blend_fraction" else f"phi {off[0][0]:g}"
             out.append(f"{c} at {len(off)} of {len(burning)} swept flames (at {at}: {off[0][1]})")
@@ -211,6 +222,7 @@ def find_limits(study: Study, rows: list[dict], store: Store, solve: Callable[[l
     store lacks (None: read only; a search whose flame is not stored stops and says so).
     """
     t0 = time.perf_counter()
+    ladders = sweep_ladders(rows) if study.premixer is not None else None
     searches = _searches(study, rows)
     for s in searches:
         if s.gen is not None:
@@ -237,11 +249,20 @@ def find_limits(study: Study, rows: list[dict], store: Store, solve: Callable[[l
                              "again to finish this search")
                 s.request = None
                 continue
-            _advance(s, [point_rows(sub, [p], stored)[0] for sub, p in mine])
+            _advance(s, [search_row(sub, p, stored, ladders) for sub, p in mine])
         if on_round is not None:
             on_round(LimitsProgress(rnd, sum(s.request is not None for s in searches), len(searches), solved,
                                     time.perf_counter() - t0))
     return [{c: r.get(c) for c in LIMIT_COLUMNS if c != "mechanism"} for s in searches for r in limit_rows(study, s)]
+
+
+def search_row(sub: Study, p: Point, stored: dict[str, dict], ladders: Ladders | None) -> dict:
+    """The annotated row of a flame a search solved (``sub``, ``p``: :func:`point_at`): the same read-out
+    as a swept point's, with the sweep's [stretch] ladders (``ladders``: design.sweep_ladders of the
+    sweep's rows) for a premixer's margins, which interpolate between the ladder points: so the
+    core-flow flashback and blowout margins are the same function of a flame at a swept point and
+    between two. The search's flames carry no ladder, ignition delays or other extras of their own."""
+    return point_rows(sub, [p], stored, ladders)[0]
 
 
 def limit_rows(study: Study, s: _Search) -> list[dict]:

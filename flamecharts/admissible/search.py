@@ -24,7 +24,9 @@ points, then works on every interval between neighbours at once:
   in phi, so each g_c is quasi-concave or quasi-convex along either axis: a maximum
   inside an interval can only sit next to the swept point where g_c is largest. Those
   intervals get a bounded maximisation (Brent's minimiser on -g, :func:`brent.maximum_steps`);
-  the others cannot hold a window and cost no flame;
+  the others cannot hold a window and cost no flame (a premixer's core-flow flashback and
+  extinction-strain blowout margins, on turbulent flame speeds and on kappa_ext interpolated
+  between ladder points, rise and fall at most once too: docs/premixers.md);
 - a criterion that holds at both ends of an interval may still fail inside it if its margin
   is quasi-convex (the flashback margin along phi is lowest where the flame is fastest), but
   only next to the swept point where that margin is lowest. Before the intervals are worked
@@ -52,12 +54,32 @@ from .brent import Bracket, brent_steps, maximum_steps
 if TYPE_CHECKING:
     from ..config import Burner
 
-#: criterion -> (margin column of the annotated row, the burner's minimum attribute).
+#: criterion -> (margin column of the annotated row, the burner's minimum attribute). The last two
+#: are a premixer's (design.turbulent_speed_columns, design.blowout_columns): the bulk velocity over
+#: the largest turbulent flame speed, and Da_ext = kappa_ext d / U_edge over its critical value, both
+#: against the minima the premixer's verdict uses (design.PREMIXER_CRITERIA).
 CRITERIA = {
     "flashback": ("flashback_margin", "min_flashback_margin"),
     "blowoff": ("blowoff_margin", "min_blowoff_margin"),
     "stabilizer": ("stabilizer_margin", "min_stabilizer_margin"),
+    "core_flashback": ("core_flashback_margin", "min_flashback_margin"),
+    "extinction_blowout": ("extinction_blowout_margin", "min_stabilizer_margin"),
 }
+#: Criteria whose reason for not being assessed a row keeps under another name (the premixer's
+#: verdict's, design.premixer_unassessed); the others under their own.
+ASSESSED_AS = {"core_flashback": "core-flow flashback", "extinction_blowout": "blowout"}
+
+
+def unassessed_reason(row: dict, criterion: str) -> str | None:
+    """Why ``criterion`` is not assessed at an annotated row (design.not_assessed,
+    design.premixer_unassessed), or None where it is.
+
+    >>> unassessed_reason({"not_assessed": {"blowout": "no ladder at this gas"}}, "extinction_blowout")
+    'no ladder at this gas'
+    """
+    return (row.get("not_assessed") or {}).get(ASSESSED_AS.get(criterion, criterion))
+
+
 #: The closed-form criterion of the blend axis: the fuel gas's Wobbe index inside the band.
 WOBBE = "Wobbe band"
 
@@ -131,7 +153,7 @@ def limit_parts(row: dict, burner: Burner, criteria: tuple[str, ...]) -> tuple[d
     if row.get("status") != "ok":
         return None, f"{row.get('status')}: {row.get('message', '')}"
     out: dict[str, float] = {}
-    skipped = row.get("not_assessed") or {}
+    skipped = {c: why for c in criteria if (why := unassessed_reason(row, c)) is not None}
     for c in criteria:
         if c in skipped:
             out[c] = UNASSESSED_G

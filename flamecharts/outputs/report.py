@@ -390,7 +390,8 @@ TURBULENT_CORRELATIONS = (
     ("leading point", "leading point", "Schmid et al.'s S_L + u' (1 + Da^-2)^-1/4 with S_L replaced by the strongest "
                                        "consumption speed S_c,max of the point's strained-flame ladder (the leading-"
                                        "point idea, Kuznetsov &amp; Sabelnikov 1990; Venkateswaran et al. 2015), "
-                                       "where a [stretch] ladder burned"),
+                                       "where a [stretch] ladder burned at the gas, pressure and preheat: S_c,max "
+                                       "interpolated between the ladder points like κ_ext below"),
 )
 
 
@@ -420,11 +421,11 @@ def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
             + ". Core-flow flashback margin = bulk (port) velocity / the largest S_T of the correlations at the point, "
             "in or out of their fitted range (the correlation named beside it): below 1 the turbulent flame can travel "
             "upstream through the premixer's core. It does not see combustion-induced vortex breakdown of swirl "
-            "flames; the premixer's verdict counts it (below). * marks a correlation outside the range of its fitted "
-            "data (results.csv, turbulent_flame_speed_outside_range, says why). Turbulent correlations are fits with "
-            "wide scatter and disagree with one another by more; a premixer fails at local features no "
-            "one-dimensional model sees (wakes, recirculation, hot spots), and is judged finally by test under the "
-            "applicable gas-turbine standards.</p>",
+            "flames; the premixer's verdict counts it (below), and [limits] as core_flashback. * marks a correlation "
+            "outside the range of its fitted data (results.csv, turbulent_flame_speed_outside_range, says why). "
+            "Turbulent correlations are fits with wide scatter and disagree with one another by more; a premixer "
+            "fails at local features no one-dimensional model sees (wakes, recirculation, hot spots), and is judged "
+            "finally by test under the applicable gas-turbine standards.</p>",
             _table(["gas", "p [bar]", "T_u [K]", "φ", "S_L [m/s]"] + [f"S_T {label} [m/s]" for _, label, _ in shown]
                    + ["bulk velocity [m/s]", "core-flow margin (largest S_T)"], table,
                    set(range(1, 7 + len(shown)))) + more,
@@ -793,6 +794,7 @@ def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
                "needs no flame: a window it cuts says what the flame margins alone would allow. A limit inherits "
                "every uncertainty of the margins it keeps: it is a screening estimate; confirm it by test on the "
                "burner.</p>")
+    out += _premixer_limit_words(study)
     ratio = fixed_ratio_note(study)
     if ratio and any(ratio in (r.get("note") or "") for r in limits):
         out.append(f"<p><b>Flashback and blowoff together.</b> The window between the port's flashback and blowoff "
@@ -801,6 +803,25 @@ def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
                    "(Edmondson &amp; Heap 1971), and laminar hydrogen port flames hardly lift. The windows marked "
                    "so in limits.csv (column note) rest on it.</p>")
     return out
+
+
+def _premixer_limit_words(study: Study) -> list[str]:
+    """What a premixer's criteria in [limits] rest on (core_flashback, extinction_blowout), if used."""
+    lim = study.limits
+    assert lim is not None  # called for a study with [limits]
+    used = [c for c in ("core_flashback", "extinction_blowout") if c in lim.criteria]
+    if not used:
+        return []
+    words = {"core_flashback": "<b>core_flashback</b> is the premixer's core-flow flashback margin (bulk velocity over "
+                               "the largest turbulent flame speed) against the burner's minimum flashback margin",
+             "extinction_blowout": "<b>extinction_blowout</b> is the extinction-strain blowout margin (Da_ext over its "
+                                   "critical value) against its minimum stabilizer margin, not assessed where no "
+                                   "ladder burned at the gas, pressure and preheat"}
+    return ["<p><b>A premixer's criteria.</b> " + "; ".join(words[c] for c in used) + ". At a flame a search solves "
+            "between the swept points, S_c,max of the leading-point speed and κ_ext are interpolated between the "
+            "sweep's ladder points exactly as at a swept point, so each margin is the same function of the flame at "
+            "both; both inherit the interpolation's error (Boundary-layer flashback and lean blowout, above) and the "
+            "turbulent correlations' wide scatter.</p>"]
 
 
 def _provenance(study: Study, comparison: Comparison | None) -> list[str]:

@@ -1,4 +1,5 @@
-"""How well the extinction strain rate interpolates between [stretch] ladders (issue 30, item 6).
+"""How well the extinction strain rate, and the leading-point speed's S_c,max, interpolate between
+[stretch] ladders (issue 30, items 6 and 7).
 
 Run:  python tests/benchmarks/extinction_interpolation.py [--out DIR] [--jobs N]
 
@@ -9,8 +10,10 @@ so a second call solves nothing). Each ladder point is then predicted from the o
 ln kappa_ext linear (what design.interpolated_extinction does), ln C linear and C linear, with
 C = kappa_ext alpha_u / S_L^2 (the ratio to the flame's own strain scale): along phi (from the
 neighbours 0.1 away on either side: 0.2 apart), across the blend fraction (50 % from 0 and 100 %),
-and held from the nearest neighbour beyond (phi 0.5 from 0.6, 0.8 from 0.7). Prints the error
-ranges in per cent and, last, one JSON object.
+and held from the nearest neighbour beyond (phi 0.5 from 0.6, 0.8 from 0.7). The same for the
+strongest consumption speed S_c,max of the leading-point flame speed, three ways: ln(S_c,max / S_L)
+linear, times the point's own S_L (what design.strained_speed does), ln S_c,max linear and
+S_c,max / S_L linear. Prints the error ranges in per cent and, last, one JSON object.
 """
 from __future__ import annotations
 
@@ -80,11 +83,19 @@ def main() -> None:
     kappa = {k: float(r["ladder_extinction_strain_rate_1_s"]) for k, r in rows.items()}
     C = {k: K * rows[k]["unburned_thermal_diffusivity_m2_s"] / rows[k]["laminar_flame_speed_m_s"] ** 2
          for k, K in kappa.items()}
-    result = {"ln kappa_ext": _errors(kappa, "ln"), "ln C": _errors(C, "ln"), "C": _errors(C, "lin")}
+    S_c = {k: float(r["ladder_consumption_speed_max_m_s"]) for k, r in rows.items()}
+    ratio = {k: v / rows[k]["laminar_flame_speed_m_s"] for k, v in S_c.items()}
+    S_L = {k: r["laminar_flame_speed_m_s"] for k, r in rows.items()}
+    result = {"ln kappa_ext": _errors(kappa, "ln"), "ln C": _errors(C, "ln"), "C": _errors(C, "lin"),
+              # S_c,max predicted: the ratio's error is S_c,max's, the point's own S_L being known
+              "ln S_c,max/S_L": _errors(ratio, "ln"), "ln S_c,max": _errors(S_c, "ln"),
+              "S_c,max/S_L": _errors(ratio, "lin")}
     for name, cases in result.items():
         print(name + ": " + "; ".join(f"{case} {min(v):+.1f} to {max(v):+.1f} %" for case, v in cases.items()))
     print(json.dumps({"kappa_ext_1_s": {f"{k[0]:g},{k[1]:g}": v for k, v in kappa.items()},
-                      "C": {f"{k[0]:g},{k[1]:g}": v for k, v in C.items()}, "errors_percent": result}))
+                      "C": {f"{k[0]:g},{k[1]:g}": v for k, v in C.items()},
+                      "S_c_max_m_s": {f"{k[0]:g},{k[1]:g}": v for k, v in S_c.items()},
+                      "S_L_m_s": {f"{k[0]:g},{k[1]:g}": v for k, v in S_L.items()}, "errors_percent": result}))
 
 
 if __name__ == "__main__":

@@ -245,6 +245,10 @@ CASES = {
                                  tail='\n[burner]\nport_diameter_mm = 2.0\nport_velocity_m_s = 1.0\n'
                                       '\n[gas_quality]\nwobbe_tolerance_percent = 5\n'
                                       '\n[limits]\ncriteria = ["wobbe"]\n')),
+    "limits_core_flashback_without_premixer": (["limits.criteria", "'core_flashback'", "no [premixer]"],
+                                               config(tail='\n[burner]\nport_diameter_mm = 20.0\n'
+                                                           'port_velocity_m_s = 30.0\n'
+                                                           '\n[limits]\ncriteria = ["core_flashback"]\n')),
     "keep_profiles_not_a_flag": (["'keep_profiles'", "true or false"], 'keep_profiles = "no"\n' + config()),
     "premixer_residence_in_seconds": (["premixer.residence_time_ms", "milliseconds"],
                                       config(tail='\n[premixer]\nresidence_time_ms = 40000\n')),

@@ -436,6 +436,8 @@ def gas_quality_chart(data: ChartData, study: Study) -> Figure:
 #: How the limits chart marks the criterion that binds past each edge of a window.
 BINDING_MARKERS = {"flashback": ("v", "flashback binds"), "blowoff": ("^", "blowoff binds"),
                    "stabilizer": ("s", "stabilizer blowoff binds"), "Wobbe band": ("D", "Wobbe band binds"),
+                   "core_flashback": ("<", "core-flow flashback binds (premixer)"),
+                   "extinction_blowout": (">", "extinction-strain blowout binds (premixer)"),
                    "no flame": ("P", "no flame beyond (does not burn)"),
                    "autoignition": ("*", "autoignites beyond (no flame)"),
                    "not assessed": ("h", "no criterion in its range beyond (not assessed)")}
