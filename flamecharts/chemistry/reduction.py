@@ -63,6 +63,15 @@ INERTS = ("N2", "AR", "HE")
 MIN_IGNITION_RISE_K = 100.0
 #: Temperature rises [K] at which the induction period is sampled, before the regular steps.
 EARLY_RISES_K = (1.0, 3.0, 10.0, 30.0)
+#: Before the first of EARLY_RISES_K, where the radical pool builds up at nearly constant
+#: temperature, a state is also taken at every time of this ladder [s] (4 per decade from
+#: 10 ns): on the n-hexane mechanism it cut the largest delay error of the skeletal
+#: mechanisms of one threshold by a fifth (docs/benchmarks.md, "Mechanism reduction").
+INDUCTION_TIMES_S = tuple(1e-8 * 10 ** (k / 4) for k in range(41))
+#: Chain carriers that are targets besides the fuel and O2 by default: the H atom of the
+#: branching step H + O2 -> O + OH, which controls high-temperature ignition. A choice made
+#: here on measurements (docs/benchmarks.md, "Mechanism reduction"), not the paper's.
+CHAIN_CARRIERS = ("H",)
 #: At most this many reactor steps per trajectory.
 MAX_STEPS = 200000
 
@@ -174,23 +183,26 @@ def _autoignite(gas: ct.Solution, X: Mapping[str, float], T0: float, P: float, t
     """Integrate one autoignition from (T0 [K], P [Pa], X) for at most ``t_max_s`` [s].
 
     Returns the ignition delay [s] (time of the largest dT/dt, inf without a rise of
-    MIN_IGNITION_RISE_K) and the states (T, P, Y) taken when the temperature first rose by
-    each of ``rises_K`` [K] (ascending), plus the initial and the last state when
-    ``rises_K`` is given. The run ends once ignited and dT/dt fell below 1 % of its peak.
+    MIN_IGNITION_RISE_K) and, when ``rises_K`` is given, the states (T, P, Y) taken at the
+    start, at the times of INDUCTION_TIMES_S until the temperature rose by ``rises_K[0]``,
+    when it first rose by each of ``rises_K`` [K] (ascending), and at the end. The run ends
+    once ignited and dT/dt fell below 1 % of its peak.
     """
     gas.TPX = T0, P, dict(X)
     states = [(T0, P, gas.Y.copy())] if rises_K else []
     net = _reactor_net(gas)
-    nxt, t_prev, T_prev, best_rate, best_t = 0, 0.0, T0, 0.0, math.inf
+    nxt, mark, t_prev, T_prev, best_rate, best_t = 0, 0, 0.0, T0, 0.0, math.inf
     for _ in range(MAX_STEPS):
         if net.time >= t_max_s:
             break
         net.step()
         t, T = net.time, gas.T
-        passed = nxt
+        passed, marked = nxt, mark
         while nxt < len(rises_K) and T - T0 >= rises_K[nxt]:
             nxt += 1
-        if nxt > passed:
+        while rises_K and nxt == 0 and mark < len(INDUCTION_TIMES_S) and t >= INDUCTION_TIMES_S[mark]:
+            mark += 1
+        if nxt > passed or mark > marked:
             states.append((T, P, gas.Y.copy()))
         rate = (T - T_prev) / (t - t_prev) if t > t_prev else 0.0
         if rate > best_rate:
@@ -210,8 +222,9 @@ def _rise_ladder(rise_step_K: float, up_to_K: float) -> list[float]:
 
 def ignition_states(gas: ct.Solution, conditions: Conditions, rise_step_K: float = 50.0, t_max_s: float = 1.0) -> States:
     """Reacting states sampled along adiabatic constant-pressure autoignition from every
-    point of ``conditions``: the initial state, the states at temperature rises of
-    EARLY_RISES_K (the induction period) and then every ``rise_step_K`` [K], and the last
+    point of ``conditions``: the initial state, states at the times of INDUCTION_TIMES_S
+    and at temperature rises of EARLY_RISES_K (the induction period), then every
+    ``rise_step_K`` [K], and the last
     state (dT/dt below 1 % of its peak after ignition, or ``t_max_s`` [s]). Deterministic:
     the same inputs give the same states.
 
@@ -553,17 +566,19 @@ def _search(gas: ct.Solution, importance: Mapping[str, float], always: Sequence[
 
 def reduce_for_ignition(mechanism_path: str, training: Conditions, validation: Conditions | None = None,
                         targets: Sequence[str] = (), target: float = 0.10, ladder: Sequence[float] | None = None,
-                        scaled: bool = False, rise_step_K: float = 50.0, t_max_s: float = 1.0) -> Reduction:
+                        scaled: bool = False, rise_step_K: float = 50.0, t_max_s: float = 1.0,
+                        carriers: Sequence[str] = CHAIN_CARRIERS) -> Reduction:
     """The smallest DRGEP skeletal mechanism whose ignition delays stay within ``target``
     (relative, default 10 %) of the detailed mechanism's at every validation point.
 
     Trains on autoignition states from ``training`` (:func:`ignition_states`), ranks the
-    species by their importance for the fuel species, O2 and ``targets``
-    (:func:`species_importance`), and tries the skeletal mechanisms of the ``ladder`` of
+    species by their importance for the fuel species, O2, the chain ``carriers`` the
+    mechanism has (default CHAIN_CARRIERS) and ``targets`` (:func:`species_importance`),
+    and tries the skeletal mechanisms of the ``ladder`` of
     thresholds (default :func:`epsilon_ladder`) from the smallest up, stopping at the first
     whose largest error over the ``validation`` points (default :func:`between` the training
-    values; none may be a training point) is within ``target``. Fuel, oxidizer, inert and
-    target species are always kept (:func:`always_kept`).
+    values; none may be a training point) is within ``target``. Fuel, oxidizer, inert,
+    carrier and target species are always kept (:func:`always_kept`).
 
     A skeletal mechanism's delay is integrated for at most 10 times the detailed one, so a
     mechanism that no longer ignites costs little.
@@ -574,9 +589,11 @@ def reduce_for_ignition(mechanism_path: str, training: Conditions, validation: C
     overlap = set(points) & set(training.points())
     if overlap:
         raise ValueError(f"validation points that are training points: {sorted(overlap)}")
-    always = always_kept(gas, training.fuels + training.oxidizers + validation.fuels + validation.oxidizers, targets)
+    present = [s for s in carriers if s in gas.species_names]
+    always = always_kept(gas, training.fuels + training.oxidizers + validation.fuels + validation.oxidizers,
+                         list(targets) + present)
     fuel_species = [s for X in training.fuels for s, x in X.items() if x > 0]
-    goals = list(dict.fromkeys(fuel_species + ["O2"] + list(targets)))
+    goals = list(dict.fromkeys(fuel_species + ["O2"] + present + list(targets)))
     cpu = {"start": time.process_time()}
     states = ignition_states(gas, training, rise_step_K, t_max_s)
     cpu["sampling"] = time.process_time()
