@@ -72,6 +72,8 @@ INDUCTION_TIMES_S = tuple(1e-8 * 10 ** (k / 4) for k in range(41))
 #: branching step H + O2 -> O + OH, which controls high-temperature ignition. A choice made
 #: here on measurements (docs/benchmarks.md, "Mechanism reduction"), not the paper's.
 CHAIN_CARRIERS = ("H",)
+#: Temperature rises beyond this [K] are not sampled on the regular steps (no mixture rises further).
+MAX_RISE_K = 4000.0
 #: At most this many reactor steps per trajectory.
 MAX_STEPS = 200000
 
@@ -215,28 +217,27 @@ def _autoignite(gas: ct.Solution, X: Mapping[str, float], T0: float, P: float, t
     return (best_t if T_prev >= T0 + MIN_IGNITION_RISE_K else math.inf), states
 
 
-def _rise_ladder(rise_step_K: float, up_to_K: float) -> list[float]:
-    return list(EARLY_RISES_K) + [k * rise_step_K for k in range(1, int(up_to_K / rise_step_K) + 2)
-                                  if k * rise_step_K > EARLY_RISES_K[-1]]
+def _rise_ladder(rise_step_K: float) -> list[float]:
+    """EARLY_RISES_K, then every ``rise_step_K`` [K] up to a rise of MAX_RISE_K (rises
+    beyond what a mixture reaches are never met)."""
+    regular = [k * rise_step_K for k in range(1, int(MAX_RISE_K / rise_step_K) + 1)]
+    return list(EARLY_RISES_K) + [r for r in regular if r > EARLY_RISES_K[-1]]
 
 
 def ignition_states(gas: ct.Solution, conditions: Conditions, rise_step_K: float = 50.0, t_max_s: float = 1.0) -> States:
     """Reacting states sampled along adiabatic constant-pressure autoignition from every
     point of ``conditions``: the initial state, states at the times of INDUCTION_TIMES_S
     and at temperature rises of EARLY_RISES_K (the induction period), then every
-    ``rise_step_K`` [K], and the last
-    state (dT/dt below 1 % of its peak after ignition, or ``t_max_s`` [s]). Deterministic:
-    the same inputs give the same states.
+    ``rise_step_K`` [K], and the last state (dT/dt below 1 % of its peak after ignition,
+    or ``t_max_s`` [s]). Deterministic: the same inputs give the same states.
 
     Sampling autoignition over the conditions of use is the usual training set of graph-based
     reduction (Pepiot-Desjardins & Pitsch 2008; Lu & Law, Proc. Combust. Inst. 30 (2005) 1333).
     """
     T, P, Y = [], [], []
+    ladder = _rise_ladder(rise_step_K)
     for point in conditions.points():
         X, T0, p = _mixture(gas, point)
-        gas.TPX = T0, p, X
-        gas.equilibrate("HP")
-        ladder = _rise_ladder(rise_step_K, gas.T - T0)
         _, states = _autoignite(gas, X, T0, p, t_max_s, ladder)
         for s in states:
             T.append(s[0])
