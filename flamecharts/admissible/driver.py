@@ -419,7 +419,11 @@ def _idle(study: Study, swept: list[Point], crit: tuple[str, ...], mixture: Mixt
     """Whether no flame criterion of a search is assessed at any of its swept points (the run then
     starts no search, so it needs no flame: driver._searches' ``nothing``). A criterion whose range
     ``mixture`` would be needed to judge, without it, counts as assessed."""
-    return all(c in _not_assessed(study, p, mixture, refs, crit) for p in swept for c in crit)
+    for p in swept:
+        off = _not_assessed(study, p, mixture, refs, crit)
+        if any(c not in off for c in crit):
+            return False
+    return True
 
 
 def planned_searches(study: Study, mixture: Mixture | None = None) -> LimitsPlan:
