@@ -242,7 +242,7 @@ WORKING_DAY_S = 8 * 3600.0
 
 
 #: A flame gets this many times TIME_LIMIT_BASIS x (species + 4)^2 [s] (the estimate of a flame
-#: from scratch before the recalibration of 2026-12-06; kept so that the time limits did not move) ...
+#: from scratch before the recalibration of 2026-12-05 (afternoon); kept so that the time limits did not move) ...
 TIME_LIMIT_FACTOR, TIME_LIMIT_BASIS = 20.0, 9.0e-3
 #: ... and never less than this [s] (a loaded machine, a robust retry).
 MIN_TIME_LIMIT_S = 60.0
