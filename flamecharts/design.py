@@ -200,6 +200,18 @@ def _port_velocity(b: Burner, r: dict, gas: FuelGas) -> tuple[float, float | Non
                                               r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
 
 
+def port_flow(study: Study, r: dict, gas: FuelGas) -> tuple[float, float | None, float | None]:
+    """(bulk port velocity [m/s], thermal input [W] or None, port Reynolds number or None) of a
+    mixture of the study's burner. ``r`` needs only the fresh mixture's equivalence_ratio,
+    unburned_density_kg_m3 and unburned_viscosity_Pa_s (None: no Reynolds number), never its
+    flame: ``check`` predicts from it which criteria a limit search can assess."""
+    b = study.burner
+    assert b is not None  # asked only of a study with a [burner]
+    U, Q = _port_velocity(b, r, gas)
+    mu = r.get("unburned_viscosity_Pa_s")
+    return U, Q, (U * hydraulic_diameter(b) * r["unburned_density_kg_m3"] / mu if mu else None)
+
+
 def burner_flow_words(b: Burner) -> str:
     """How the burner's flow is set, in words: 'port velocity 3 m/s', or 'thermal input 0.41 kW over
     301.6 mm² of ports, following the Wobbe index (fixed supply pressure)' (check and the report)."""
@@ -296,9 +308,8 @@ def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
     out["not_assessed"] = {}
     if b is None or r["status"] != "ok":
         return out
-    U, Q = _port_velocity(b, r, gas)
+    U, Q, Re = port_flow(study, r, gas)
     mu, rho = r.get("unburned_viscosity_Pa_s"), r["unburned_density_kg_m3"]
-    Re = U * hydraulic_diameter(b) * rho / mu if mu else None
     g = wall_gradient(b, U, Re, mu / rho if mu else None)
     unassessed = not_assessed(study, r, Re)
     margins = {"flashback": g / r["flashback_critical_gradient_1_s"], "blowoff": r["blowoff_critical_gradient_1_s"] / g,

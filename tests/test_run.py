@@ -153,7 +153,7 @@ def test_check_prints_the_plan_and_writes_nothing(tmp_path, cli):
     assert "Plan: 6 points; 0 already stored" in r.stdout
     assert "6 to solve: 2 from scratch, 4 warm-started from a neighbour" in r.stdout
     assert "Estimated sweep: about" in r.stdout
-    assert "Estimated total: about" in r.stdout and "cores free for this run" in r.stdout
+    assert "Estimated total: about" in r.stdout and "free cores: a busy machine takes longer" in r.stdout
     assert not (tmp_path / "output").exists()
 
 
@@ -181,9 +181,9 @@ unburned_temperature_K = [300, 400, 500, 600]
     assert r.returncode == 0, r.stderr
     assert "Plan: 8080 points" in r.stdout
     total = next(line for line in r.stdout.splitlines() if line.startswith("Estimated total: about"))
-    assert "assuming 2 cores free" in total and "run it on a cluster" in total, total
-    work = total.split("That is ")[1].split(" of work on this machine")[0]
-    assert work.endswith("days") or " h " in work, total  # hours or days, not minutes
+    assert "(assumes 2 free cores" in total and "run it on a cluster" in total, total
+    days = float(total.split("That is ")[1].split(" working days of 8 h on this machine")[0])
+    assert days > 1.0, total  # days of work, not minutes
 
 
 def test_a_second_run_on_the_same_folder_is_refused(tmp_path):

@@ -21,7 +21,7 @@ from typing import TYPE_CHECKING
 from scipy.optimize import brentq
 
 from ..columns import LIMIT_COLUMNS
-from ..design import Ladders, fuel_gas, sweep_ladders
+from ..design import Ladders, fuel_gas, not_assessed, port_flow, sweep_ladders
 from ..results import point_rows
 from ..sweep.points import Point, points
 from .search import (
@@ -390,30 +390,100 @@ def _pct(x: float) -> str:
     return f"{100 * x:.1f}"
 
 
-def planned_searches(study: Study) -> dict[str, int]:
-    """How many limit searches the study's [limits] table starts, by axis, and about how
-    many flames they need (for `check`): a blend search per (fuel, oxidizer, phi, p, T_u),
-    a phi search per (fuel, oxidizer, blend, p, T_u); each refines about two edges from a
-    bracket of one sweep step to the tolerance, about log2(step / tolerance) flames each by
-    bisection and usually fewer by Brent's method (a blend search tries the pure blend gas
-    once more). Interior windows between failing swept points cost more and are not in it."""
+#: The fresh mixture of a point as ``check`` computes it before any flame (sweep.worker.fresh_mixture):
+#: unburned_density_kg_m3, unburned_viscosity_Pa_s, lewis_number_fuel, lewis_number_oxygen.
+Mixture = Callable[[Point], dict]
+
+
+@dataclass(frozen=True)
+class LimitsPlan:
+    """What ``check`` expects of a study's limit searches before any flame is solved."""
+
+    searches: dict[str, int]   # axis -> searches the [limits] table starts along it
+    idle: dict[str, int]       # axis -> those of them that need no flame (no flame criterion in range)
+    flames_at: dict[float, int]  # pressure [bar] -> about how many flames beyond the sweep the others need
+    longest: int = 0           # the most flames one search needs (its rounds come one after another)
+    why: str = ""              # why the idle ones need none, at the first of them ('' without any)
+
+    @property
+    def flames(self) -> int:
+        return sum(self.flames_at.values())
+
+
+def flames_per_search(values: Sequence[float], tol: float, max_flames: int) -> int:
+    """About how many flames one edge of a search costs: bisection of the widest sweep step
+    down to the tolerance (Brent's method usually takes fewer), at most ``max_flames``.
+
+    >>> flames_per_search([0.6, 0.8, 1.0], 0.01, 20), flames_per_search([1.0], 0.01, 20)
+    (5, 1)
+    """
+    v = sorted(values)
+    step = max((b - a for a, b in zip(v, v[1:])), default=0.0)
+    return min(max_flames, max(1, math.ceil(math.log2(step / tol))) if step > tol else 1)
+
+
+def _not_assessed(study: Study, p: Point, mixture: Mixture | None, refs: dict, crit: tuple[str, ...],
+                  every: bool = False) -> dict[str, str]:
+    """criterion -> why it is not assessed at swept point ``p``, by the run's rules (design.not_assessed
+    on physics.validity) on what is known before its flame: pressure, preheat, phi and the port
+    layout; then, where a criterion of ``crit`` is still in range (or ``every``: for the words) and
+    ``mixture`` is given, the fresh mixture's port Reynolds number and Lewis numbers too."""
+    r: dict = {"equivalence_ratio": p.phi, "pressure_bar": p.pressure_bar, "unburned_temperature_K": p.T_u}
+    why = not_assessed(study, r, None)
+    if mixture is None or all(c in why for c in crit) and not every:
+        return why
+    r.update(mixture(p))
+    return not_assessed(study, r, port_flow(study, r, fuel_gas(study, p.fuel, p.blend_fraction, p.oxidizer, refs))[2])
+
+
+def _idle(study: Study, swept: list[Point], crit: tuple[str, ...], mixture: Mixture | None, refs: dict) -> bool:
+    """Whether no flame criterion of a search is assessed at any of its swept points (the run then
+    starts no search, so it needs no flame: driver._searches' ``nothing``). A criterion whose range
+    ``mixture`` would be needed to judge, without it, counts as assessed."""
+    for p in swept:
+        off = _not_assessed(study, p, mixture, refs, crit)
+        if any(c not in off for c in crit):
+            return False
+    return True
+
+
+def planned_searches(study: Study, mixture: Mixture | None = None) -> LimitsPlan:
+    """How many limit searches the study's [limits] table starts, by axis, which of them need
+    no flame, and about how many flames the others need (for `check`): a blend search per
+    (fuel, oxidizer, phi, p, T_u), a phi search per (fuel, oxidizer, blend, p, T_u); each
+    refines about two edges from a bracket of one sweep step to the tolerance
+    (:func:`flames_per_search`; a blend search tries the pure blend gas once more). A search
+    whose flame criteria are all outside their range at every swept point needs none
+    (:func:`_idle`; the Wobbe band alone needs none either). Interior windows between failing
+    swept points cost more and are not in it."""
     lim = study.limits
-    if lim is None:
-        return {}
-    others = len(study.sweep_fuels) * len(study.sweep_oxidizers) * len(study.pressures_bar) * len(
-        study.unburned_temperatures_K)
-    out = {"blend_fraction": 0, "equivalence_ratio": 0, "flames": 0}
-
-    def flames(values: Sequence[float], tol: float) -> int:
-        v = sorted(values)
-        step = max((b - a for a, b in zip(v, v[1:])), default=0.0)
-        return min(lim.max_flames_per_search, max(1, math.ceil(math.log2(step / tol))) if step > tol else 1)
-
-    if "blend_fraction" in lim.find:
-        out["blend_fraction"] = others * len(study.equivalence_ratios)
-        out["flames"] += out["blend_fraction"] * (flames(study.blend_fractions, lim.tolerance["blend_fraction"]) + 1)
-    if "equivalence_ratio" in lim.find:
-        out["equivalence_ratio"] = others * len(study.blend_fractions)
-        out["flames"] += 2 * out["equivalence_ratio"] * flames(study.equivalence_ratios,
-                                                               lim.tolerance["equivalence_ratio"])
-    return out
+    assert lim is not None  # asked only of a study with [limits]
+    crit = flame_criteria(study)
+    pts = points(study)
+    searches = {"blend_fraction": 0, "equivalence_ratio": 0}
+    idle = dict(searches)
+    flames_at: defaultdict[float, int] = defaultdict(int)
+    why, refs = "", dict[tuple, dict]()  # refs: fuel_gas's cache of reference gases
+    cost = {"blend_fraction": 1 + flames_per_search(study.blend_fractions, lim.tolerance["blend_fraction"],
+                                                    lim.max_flames_per_search),
+            "equivalence_ratio": 2 * flames_per_search(study.equivalence_ratios, lim.tolerance["equivalence_ratio"],
+                                                       lim.max_flames_per_search)}
+    for axis, col in (("blend_fraction", "blend_fraction"), ("equivalence_ratio", "phi")):
+        if axis not in lim.find:
+            continue
+        groups: defaultdict[tuple, list[Point]] = defaultdict(list)
+        for p in pts:
+            groups[tuple(getattr(p, a) for a in ("fuel", "oxidizer", "blend_fraction", "phi", "pressure_bar", "T_u")
+                         if a != col)].append(p)
+        for swept in groups.values():
+            searches[axis] += 1
+            swept.sort(key=lambda p: getattr(p, col))
+            if not _idle(study, swept, crit, mixture, refs):
+                flames_at[swept[0].pressure_bar] += cost[axis]
+                continue
+            idle[axis] += 1
+            if not why and crit:  # every reason at the first point, the Reynolds number too
+                off = _not_assessed(study, swept[0], mixture, refs, crit, every=True)
+                why = "; ".join(f"{c}: {off[c]}" for c in crit)
+    busy = [cost[a] for a in searches if searches[a] > idle[a]]
+    return LimitsPlan(searches, idle, dict(flames_at), max(busy, default=0), why)

@@ -5,7 +5,7 @@ import argparse
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from ..admissible.driver import planned_searches
+from ..admissible.driver import LimitsPlan, Mixture, planned_searches
 from ..admissible.words import kept
 from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
@@ -17,7 +17,18 @@ from ..sweep.analyses import PER_POINT, Budget
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
-from ..sweep.schedule import CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds
+from ..sweep.schedule import (
+    CLUSTER_ADVICE_S,
+    WORKING_DAY_S,
+    estimate_run_seconds,
+    flame_seconds,
+    ladder_seconds,
+    output_seconds,
+    parallel_seconds,
+    point_scales,
+    pressure_cost,
+)
+from ..sweep.stretch import ladder_time_limit, stretch_key, stretch_points
 from ..sweep.warm_tree import warm_tree
 from .progress import duration, plural
 from .tables import print_burner, print_gases, print_points
@@ -26,10 +37,6 @@ if TYPE_CHECKING:
     from ..config import Study
     from ..sweep.points import Point
     from ..sweep.warm_tree import WarmPlan
-
-#: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
-GRI_LADDER_NOTE = "30-60 s a strained flame, stoichiometric methane-air 15 flames in 11 min"
-
 
 def cmd_check(args: argparse.Namespace) -> int:
     study = load_study(args.config)
@@ -53,30 +60,35 @@ def cmd_check(args: argparse.Namespace) -> int:
         print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
               f"the first, {subs[0].mechanism}, is the reference of the design charts")
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
-    print(_total_line(sum(seconds), resolve_jobs(args.jobs), len(subs)))
+    writing = output_seconds(study.n_points * len(subs))
+    print(f"Writing the outputs (CSV, netCDF, charts, report): about {duration(writing)}")
+    print(_total_line(sum(seconds) + writing, resolve_jobs(args.jobs), len(subs)))
     return 0
 
 
 def whole_run_seconds(study: Study, out: Path, jobs: int | None) -> float:
     """The estimate `check` prints as its total (sweep, limits and extra solves of every
-    mechanism), without its printing or the read-out of the stored points: `run` announces it."""
+    mechanism, writing the outputs), without its printing or the read-out of the stored points:
+    `run` announces it."""
     keys = stored_keys(out / DB_NAME)
-    total = 0.0
-    for sub in by_mechanism(study):
-        _, todo, tree, timings = _sweep_plan(sub, out, keys)
-        total += (_estimate_line(sub, tree, timings, jobs)[1] if todo else 0.0)
-        total += sum(t for _, t in _extras(sub, timings, jobs, len(todo)))
+    subs = by_mechanism(study)
+    total = output_seconds(study.n_points * len(subs))
+    for sub in subs:
+        pts, todo, tree, timings = _sweep_plan(sub, out, keys)
+        total += (_estimate_line(sub, pts, tree, timings, jobs)[1] if todo else 0.0)
+        total += sum(t for _, t in _extras(sub, pts, keys, timings, jobs, todo))
     return total
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
     """The whole estimate in one line: what it assumes, and where a study is too big for this machine."""
     every = f" under all {n_mechanisms} mechanisms" if n_mechanisms > 1 else ""
-    line = (f"Estimated total{every}: about {duration(t)} (the sweep, limits and extra solves above), assuming "
-            f"{jobs} core{'s' if jobs > 1 else ''} free for this run: a busy machine takes longer")
+    line = (f"Estimated total{every}: about {duration(t)}, everything above included "
+            f"(assumes {jobs} free core{'s' if jobs > 1 else ''}: a busy machine takes longer)")
     if t > CLUSTER_ADVICE_S:
-        line += (f". That is {duration(t)} of work on this machine: run it on a cluster (--cluster; "
-                 "docs/cluster.md), or plan fewer points or a coarser resolution")
+        line += (f". That is {t / WORKING_DAY_S:.1f} working days of 8 h on this machine ({t / 86400:.1f} days "
+                 "round the clock): run it on a cluster (--cluster; docs/cluster.md), or plan fewer points or a "
+                 "coarser resolution")
     return line
 
 
@@ -111,15 +123,29 @@ def _plan(study: Study, out: Path, keys: set, jobs: int | None) -> float:
           f"(longest warm-start path {tree.depth})")
     seconds = 0.0
     if todo:
-        line, seconds = _estimate_line(study, tree, timings, jobs)
+        line, seconds = _estimate_line(study, pts, tree, timings, jobs)
         print(line)
-    for line, t in _extras(study, timings, jobs, len(todo)):
+    for line, t in _extras(study, pts, keys, timings, jobs, todo):
         print(line)
         seconds += t
     return seconds
 
 
-def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[tuple[str, float]]:
+def _mean_pressure_cost(study: Study, pts: list[Point], todo: set[int], timings: dict) -> float:
+    """The mean pressure factor of the points still to solve (1 where the store's timings of the
+    same settings already carry it)."""
+    if _measured(timings) or not todo:
+        return 1.0
+    return sum(pressure_cost(p.pressure_bar) for p in pts if p.index in todo) / len(todo)
+
+
+def _measured(timings: dict) -> bool:
+    """Whether the per-flame seconds come from the store's timings (flame_seconds' rule)."""
+    return any(len(v) >= 3 for v in timings.values())
+
+
+def _extras(study: Study, pts: list[Point], keys: set, timings: dict, jobs: int | None,
+            todo: set[int]) -> list[tuple[str, float]]:
     """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add: a
     line each, with its estimated seconds. Extras of points already stored are not solved
     again, so only the points still to solve count (an upper bound: points that turn out not
@@ -131,13 +157,9 @@ def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[
     if study.limits is not None:
         lines.append(_limits_line(study, timings, jobs))
     if study.stretch is not None:
-        st = study.stretch
-        t = st.n_ladders * ladder_seconds(n_sp) / min(jobs, st.n_ladders)
-        lines.append((f"Strained flames: {st.n_ladders} twin counterflow ladder(s) to extinction (phi "
-                      f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} flames after the sweep: "
-                      f"about {duration(t)} (measured on 2 cores: 7-35 s a ladder with h2o2.yaml, {GRI_LADDER_NOTE} with "
-                      "GRI-Mech 3.0); stored ladders are not solved again", t))
-    budget = Budget(points_to_solve=n_todo, workers=jobs, warm_flame_s=secs["warm"], species=n_sp,
+        lines.append(_ladders_line(study, pts, keys, jobs))
+    budget = Budget(points_to_solve=len(todo), workers=jobs,
+                    warm_flame_s=secs["warm"] * _mean_pressure_cost(study, pts, todo, timings), species=n_sp,
                     reactions=len(study.facts.reaction_equations) if study.facts else 0)
     for analysis in PER_POINT:
         if analysis.wanted(study):
@@ -146,35 +168,99 @@ def _extras(study: Study, timings: dict, jobs: int | None, n_todo: int) -> list[
     return lines
 
 
-def _limits_line(study: Study, timings: dict, jobs: int | None) -> tuple[str, float]:
-    """What the [limits] table asks for and about how many flames beyond the sweep it needs, and
-    their estimated seconds."""
-    plan = planned_searches(study)
+def _ladders_line(study: Study, pts: list[Point], keys: set, jobs: int) -> tuple[str, float]:
+    """The [stretch] ladders still to solve and their estimated wall time: each ladder's
+    measured cost (sweep.schedule.ladder_seconds: species, pressure), spread over the workers
+    longest first."""
+    st = study.stretch
+    assert st is not None  # asked only of a study with [stretch]
+    chosen = stretch_points(study, pts)
+    todo = [p for p in chosen if stretch_key(p) not in keys]
+    each = [ladder_seconds(len(study.atoms), p.pressure_bar, ladder_time_limit(study)) for p in todo]
+    t = parallel_seconds(each, jobs)
+    stored = f"; {len(chosen) - len(todo)} stored, not solved again" if len(todo) < len(chosen) else ""
+    return (f"Strained flames: {len(todo)} twin counterflow ladder(s) to extinction (phi "
+            f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} strained flames after the "
+            f"sweep: about {duration(t)} ({duration(max(each, default=0.0))} the longest ladder, "
+            f"{min(jobs, max(len(todo), 1))} at a time; measured 15-70 s a ladder with h2o2.yaml at 1 bar, "
+            f"9-15 min with GRI-Mech 3.0{stored})", t)
+
+
+def _limits_line(study: Study, timings: dict, jobs: int, mixture: Mixture | None = None) -> tuple[str, float]:
+    """What the [limits] table asks for, about how many flames beyond the sweep it needs and their
+    estimated seconds; which searches need none (every flame criterion outside its range), and why."""
+    plan = planned_searches(study, mixture if mixture is not None else _mixture(study))
     lim = study.limits
     assert lim is not None  # asked only of a study with [limits]
     asks = []
-    if plan["blend_fraction"]:
+    n = plan.searches
+    if n["blend_fraction"]:
         asks.append(f"the admissible {study.blend_with} fractions (both edges of every window) at "
-                    f"{plural(plan['blend_fraction'], 'setting')} (to {lim.tolerance['blend_fraction']:g})")
-    if plan["equivalence_ratio"]:
-        asks.append(f"the admissible equivalence-ratio windows at {plural(plan['equivalence_ratio'], 'setting')} "
+                    f"{plural(n['blend_fraction'], 'setting')} (to {lim.tolerance['blend_fraction']:g})")
+    if n["equivalence_ratio"]:
+        asks.append(f"the admissible equivalence-ratio windows at {plural(n['equivalence_ratio'], 'setting')} "
                     f"(to {lim.tolerance['equivalence_ratio']:g})"
                     + (f"; the sweep has one phi ({study.equivalence_ratios[0]:g}): that search can only say whether "
                        "it is admissible, sweep more to find the window's edges"
                        if len(study.equivalence_ratios) == 1 else ""))
+    head = f"Limits: {' and '.join(asks)}, keeping {kept(study)}: "
+    t = _limits_seconds(study, plan, timings, jobs)
+    idle, total = sum(plan.idle.values()), sum(n.values())
+    why = _idle_words(plan, idle, total)
+    if idle == total:
+        return head + f"no flames beyond the sweep: {why}", 0.0
+    return (head + f"about {plan.flames} flames beyond the sweep (warm-started, about {duration(t)}; stored flames are "
+            "not solved again)" + (f"; {why}" if why else "")), t
+
+
+def _idle_words(plan: LimitsPlan, idle: int, total: int) -> str:
+    """Why the searches that need no flame need none ('' without such a search)."""
+    if not idle:
+        return ""
+    if not plan.why:
+        return (("no search needs" if idle == total else f"{idle} of the {total} searches need") +
+                " a flame: the Wobbe band alone is a closed form")
+    which = "every search" if idle == total else f"{idle} of the {total} searches"
+    return (f"every flame criterion is outside its range at every swept point of {which}, so "
+            f"{'none needs' if idle == total else 'those need no'} flames ({plan.why})")
+
+
+def _limits_seconds(study: Study, plan: LimitsPlan, timings: dict, jobs: int) -> float:
+    """Wall time of the limit flames: each round solves every open search's next flames side by
+    side, so the wall time is the flames over the workers, but never less than one search's
+    flames one after the other."""
+    if not plan.flames:
+        return 0.0
     secs, _ = flame_seconds(len(study.atoms), timings, study.resolution)
-    t = plan["flames"] * secs["warm"] / resolve_jobs(jobs)
-    return (f"Limits: {' and '.join(asks)}, keeping {kept(study)}: about {plan['flames']} flames beyond the sweep "
-            f"(warm-started, about {duration(t)}; stored flames are not solved again)"), t
+    cost = {p: secs["warm"] * (1.0 if _measured(timings) else pressure_cost(p)) for p in plan.flames_at}
+    work = sum(n * cost[p] for p, n in plan.flames_at.items())
+    return max(work / jobs, plan.longest * max(cost.values()))
 
 
-def _estimate_line(study: Study, tree: WarmPlan, timings: dict, jobs: int | None) -> tuple[str, float]:
-    """'Estimated run time ...' from stored timings of the same settings, else from the mechanism
-    size, and the estimate [s]."""
+def _mixture(study: Study) -> Mixture:
+    """The fresh mixture of a point before its flame (sweep.worker.fresh_mixture), once per point."""
+    from ..sweep.worker import fresh_mixture
+
+    cache: dict[str, dict] = {}
+
+    def mixture(p: Point) -> dict:
+        if p.key not in cache:
+            cache[p.key] = fresh_mixture(study.mechanism_path, study.mechanism_sha256, p.X_unburned, p.T_u, p.P)
+        return cache[p.key]
+    return mixture
+
+
+def _estimate_line(study: Study, pts: list[Point], tree: WarmPlan, timings: dict,
+                   jobs: int | None) -> tuple[str, float]:
+    """'Estimated sweep ...' from stored timings of the same settings, else from the mechanism
+    size, the resolution and each point's pressure, and the estimate [s]."""
     jobs = resolve_jobs(jobs)
     secs, basis = flame_seconds(len(study.atoms), timings, study.resolution)
-    t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"])
+    scale = None if _measured(timings) else point_scales(tree, {p.index: p.pressure_bar for p in pts})
+    t = estimate_run_seconds(tree, jobs, secs["fresh"], secs["warm"], scale)
+    top = max(study.pressures_bar)
+    at = (f" at 1 bar, {pressure_cost(top):.1f} times that at {top:g} bar" if scale and pressure_cost(top) > 1.05
+          else "")
+    how = " one step away" if scale else ""
     return (f"Estimated sweep: about {duration(t)} on {jobs} worker{'s' if jobs > 1 else ''} ({basis}; "
-            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm; good to a factor 2)"), t
-
-
+            f"{secs['fresh']:.1f} s per flame from scratch, {secs['warm']:.1f} s warm{how}{at})"), t

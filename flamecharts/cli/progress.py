@@ -65,7 +65,7 @@ class ProgressDisplay:
         if self.quiet or pr.total == 0:
             return
         if self.whole_run_s:
-            print(f"flamecharts: the whole run (sweep, limit searches and extra solves) is estimated at about "
+            print(f"flamecharts: the whole run (sweep, limit searches, extra solves and outputs) is estimated at about "
                   f"{duration(self.whole_run_s)} with the cores free", file=self.stream, flush=True)
             self.whole_run_s = None
         if pr.stage != self._stage or pr.what != self._what:  # the next mechanism, or the next part of the run:

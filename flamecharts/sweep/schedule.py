@@ -9,8 +9,9 @@ exactly what a run does.
 from __future__ import annotations
 
 import heapq
+import math
 import statistics
-from collections.abc import Iterable
+from collections.abc import Iterable, Mapping, Sequence
 
 from .warm_tree import WarmPlan
 
@@ -64,33 +65,94 @@ class Scheduler:
         return len(self._pending)
 
 
-#: Default seconds per flame on one core, per (mechanism species + 4)^2, when the store
-#: has no timings yet: a Jacobian of the 1D problem costs about (grid points) x
-#: (variables per point) x (residual cost per point ~ variables). Calibrated on GRI-Mech
-#: 3.0 flames on the slower of the project's two 2-core machines, under two workers, so
-#: that a faster machine sees an overestimate rather than a surprise (docs/benchmarks.md).
-SECONDS_PER_VARIABLE_SQUARED = {"fresh": 9.0e-3, "warm": 2.2e-3}
+#: Default seconds of one flame at 1 bar on one core, standard resolution, with a mechanism of
+#: 53 species (GRI-Mech 3.0: 57 variables per grid point), solved from scratch and warm-started
+#: one step away (one unit of sweep.warm_tree.DISTANCE_SCALES, e.g. 0.1 in phi), where the store
+#: has no timings yet; other mechanisms as ((species + 4) / 57)^SPECIES_POWER. CPU seconds of
+#: tests/benchmarks/estimate_calibration.py (one flame at a time; a busy machine stretches the wall
+#: time, not these): GRI-Mech 3.0 15.5-26 s from scratch, 6.4-7.2 s a step of 0.1 in phi;
+#: h2o2.yaml 0.5-0.6 s and 0.25-0.31 s (docs/benchmarks.md, "Run-time estimate calibration").
+FLAME_SECONDS = {"fresh": 25.0, "warm": 6.8}
+REFERENCE_VARIABLES = 57
+#: The power of (species + 4) a flame's cost grows with: a Jacobian costs (grid points) x
+#: (variables)^2, and bigger mechanisms take more Newton and time steps: 2.6 and 2.3 join the
+#: two mechanisms measured above.
+SPECIES_POWER = {"fresh": 2.6, "warm": 2.3}
 
-#: Cost of a flame at each resolution relative to the standard one, where the store has no
-#: timings of the study's settings: medians of the 22 flames of
-#: tests/benchmarks/error_bar_validation.py solved at every setting from scratch (coarse 0.48,
-#: range 0.29-1.28; fine 1.40, range 1.09-2.96; 2026-12-05, docs/benchmarks.md).
-RESOLUTION_COST = {"coarse": 0.5, "standard": 1.0, "fine": 1.4}
+#: Cost of a flame at each resolution relative to the standard one, solved from scratch and
+#: warm-started, where the store has no timings of the study's settings. From scratch: medians of
+#: the 22 flames of tests/benchmarks/error_bar_validation.py solved at every setting (coarse 0.48,
+#: range 0.29-1.28; fine 1.40, range 1.09-2.96; 2026-12-05). Warm-started on the coarse grid:
+#: 0.37-0.39 of the standard grid's warm starts (estimate_calibration.py, GRI-Mech 3.0 and
+#: h2o2.yaml alike); fine as from scratch (not measured warm).
+RESOLUTION_COST = {"coarse": {"fresh": 0.5, "warm": 0.38}, "standard": {"fresh": 1.0, "warm": 1.0},
+                   "fine": {"fresh": 1.4, "warm": 1.4}}
+#: A flame's cost grows with pressure by this share per decade above 1 bar (below 1 bar: none).
+#: The grid hardly grows (the domain is scaled as 1/sqrt(p), the refinement criteria are
+#: relative), but a thin high-pressure flame takes more Newton and time steps: at 10 bar against
+#: 1 bar, warm starts cost 1.15-1.3 times as much with GRI-Mech 3.0 and about twice with
+#: h2o2.yaml (a slow lean flame near its limit far more), from scratch 0.6-0.9 and 1.7 times.
+PRESSURE_COST_PER_DECADE = 0.5
+#: A warm start's cost against its distance d to its source (units of DISTANCE_SCALES), relative to
+#: one unit: WARM_DISTANCE_COST[0] + WARM_DISTANCE_COST[1] * d for d in 0.5-3. GRI-Mech 3.0, steps
+#: in phi: 0.84-0.87, 1 and 1.47-1.5 at 0.5, 1 and 2 units (coarse and standard alike), 2.0 in a
+#: study of blend and phi steps of 2 units; h2o2.yaml 1, 1, 1.4 and 1.3 at 0.5, 1, 2 and 3 units.
+WARM_DISTANCE_COST = (0.55, 0.45)
 #: Worker start-up and mechanism parsing per run [s] (an allowance; docs/benchmarks.md).
 START_UP_SECONDS = 2.0
+#: Writing a finished run's outputs (CSV, netCDF, charts, report) [s]: a base and a share per point
+#: (charts and report of a small study 4-8 s; 100,000 points in about 20 s, docs/run-time.md).
+OUTPUT_SECONDS = (5.0, 2e-4)
+
+
+def pressure_cost(pressure_bar: float) -> float:
+    """A flame's cost at ``pressure_bar`` relative to 1 bar (:data:`PRESSURE_COST_PER_DECADE`).
+
+    >>> pressure_cost(1.0), pressure_cost(10.0), pressure_cost(0.5)
+    (1.0, 1.5, 1.0)
+    """
+    return 1.0 + PRESSURE_COST_PER_DECADE * max(0.0, math.log10(pressure_bar))
+
+
+def distance_cost(distance: float) -> float:
+    """A warm start's cost at ``distance`` from its source relative to one unit (:data:`WARM_DISTANCE_COST`).
+
+    >>> [round(distance_cost(d), 2) for d in (1.0, 0.1, 2.0, math.inf)]
+    [1.0, 0.78, 1.45, 1.9]
+    """
+    a, b = WARM_DISTANCE_COST
+    return a + b * min(max(distance, 0.5), 3.0)
+
+
+def output_seconds(n_points: int) -> float:
+    """Seconds of writing a run's outputs (:data:`OUTPUT_SECONDS`).
+
+    >>> output_seconds(28), round(output_seconds(100_000))
+    (5.0056, 25)
+    """
+    return OUTPUT_SECONDS[0] + OUTPUT_SECONDS[1] * n_points
 
 
 def default_flame_seconds(n_species: int, resolution: str = "standard") -> dict[str, float]:
-    """Seconds per flame solved fresh and warm on one core, from the mechanism size and the
-    resolution (:data:`RESOLUTION_COST`).
+    """Seconds per flame at 1 bar solved fresh and warm (one step away) on one core, from the
+    mechanism size and the resolution (:data:`RESOLUTION_COST`); :func:`pressure_cost` and
+    :func:`distance_cost` scale them to a point.
 
     >>> {k: round(v, 1) for k, v in default_flame_seconds(53).items()}
-    {'fresh': 29.2, 'warm': 7.1}
-    >>> {k: round(v, 1) for k, v in default_flame_seconds(53, "coarse").items()}
-    {'fresh': 14.6, 'warm': 3.6}
+    {'fresh': 25.0, 'warm': 6.8}
+    >>> {k: round(v, 2) for k, v in default_flame_seconds(10, "coarse").items()}
+    {'fresh': 0.32, 'warm': 0.1}
     """
-    nv2 = (n_species + 4) ** 2 * RESOLUTION_COST.get(resolution, 1.0)
-    return {k: c * nv2 for k, c in SECONDS_PER_VARIABLE_SQUARED.items()}
+    return {k: c * ((n_species + 4) / REFERENCE_VARIABLES) ** SPECIES_POWER[k] * RESOLUTION_COST[resolution][k]
+            for k, c in FLAME_SECONDS.items()}
+
+
+def point_scales(plan: WarmPlan, pressures_bar: dict[int, float]) -> dict[int, float]:
+    """Each point's factor on the default per-flame seconds: its pressure's (:func:`pressure_cost`)
+    and, warm-started, its distance's (:func:`distance_cost`)."""
+    return {i: pressure_cost(pressures_bar[i]) * (1.0 if plan.parent[i] is None and i not in plan.stored
+                                                  else distance_cost(plan.distance.get(i, 1.0)))
+            for i in plan.parent}
 
 
 def flame_seconds(n_species: int, timings: dict[str, list[float]],
@@ -111,9 +173,10 @@ def flame_seconds(n_species: int, timings: dict[str, list[float]],
     return secs, f"from {sum(len(v) for v in timings.values())} stored timings"
 
 
-def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float]) -> float:
-    """Estimated seconds of point ``i`` of ``plan``: from scratch for a root without a stored source."""
-    return secs["fresh"] if (plan.parent[i] is None and i not in plan.stored) else secs["warm"]
+def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float], scale: float = 1.0) -> float:
+    """Estimated seconds of point ``i`` of ``plan``: from scratch for a root without a stored source;
+    ``scale`` its point's own factor (:func:`pressure_cost`)."""
+    return scale * (secs["fresh"] if (plan.parent[i] is None and i not in plan.stored) else secs["warm"])
 
 
 #: Cost of one sensitivity task (the stored flame solved again on its grid, then Cantera's
@@ -122,57 +185,85 @@ def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float]) -> float:
 #: species), 17.6 s with GRI-Mech 3.0 (325, 53), 13.9-16.9 s with Alzueta et al. 2023 (281,
 #: 42) on 2 cores (docs/benchmarks.md, "Kinetic sensitivities").
 SENSITIVITY_SECONDS = 1.1e-3
-#: One strained flame of a [stretch] ladder [s] with h2o2.yaml (20 flames in 18 s), and the
-#: power of (species + 4) that reaches GRI-Mech 3.0's 44 s a flame (15 in 11 min) from it
-#: (docs/benchmarks.md, "Flame response and strained flames"); a ladder is about
-#: LADDER_FLAMES flames.
-STRAINED_FLAME_SECONDS, STRAINED_FLAME_POWER, LADDER_FLAMES = 0.9, 2.77, 20
+#: One strained-flame ladder to extinction at 1 bar on one core [s] with a mechanism of 53 species
+#: (57 variables), other mechanisms as ((species + 4) / 57)^LADDER_SPECIES_POWER, and the ladder's
+#: share more per decade of pressure above 1 bar. A ladder is 13-22 strained flames whatever the
+#: mechanism. Measured (docs/benchmarks.md, "Run-time estimate calibration"): GRI-Mech 3.0 methane
+#: and methane-hydrogen ladders 521-898 s (tests/benchmarks/stretch_validation.py, two at a time on
+#: 2 cores, 2026-12-03); h2o2.yaml hydrogen-air at phi 0.5, 0.7, 1.0 15-60 CPU seconds at 1 bar and
+#: 1.8-3.6 times that at 10 bar (estimate_calibration.py; at 10 bar the twin-flame domain reaches its
+#: 2 mm floor, tens of flame thicknesses more than at 1 bar). Not measured at pressure with GRI-Mech 3.0.
+LADDER_SECONDS, LADDER_SPECIES_POWER, LADDER_PRESSURE_PER_DECADE = 680.0, 2.2, 1.0
 
 
 def sensitivity_seconds(n_species: int, n_reactions: int, resolution: str = "standard") -> float:
     """Seconds of one point's flame-speed sensitivities (adjoint) on one core, on the grid of
-    the study's resolution (:data:`RESOLUTION_COST`).
+    the study's resolution (:data:`RESOLUTION_COST`, a fresh flame's grid).
 
     >>> round(sensitivity_seconds(10, 29), 2), round(sensitivity_seconds(53, 325), 1)
     (0.45, 20.4)
     """
-    return SENSITIVITY_SECONDS * n_reactions * (n_species + 4) * RESOLUTION_COST.get(resolution, 1.0)
+    return SENSITIVITY_SECONDS * n_reactions * (n_species + 4) * RESOLUTION_COST[resolution]["fresh"]
 
 
-def ladder_seconds(n_species: int) -> float:
-    """Seconds of one strained-flame ladder to extinction on one core.
+def ladder_seconds(n_species: int, pressure_bar: float = 1.0, limit_s: float | None = None) -> float:
+    """Seconds of one strained-flame ladder to extinction on one core, at most ``limit_s`` (the
+    ladder's time limit, sweep.stretch.ladder_time_limit). The ladder's grid is its own (not the
+    study's resolution).
 
-    >>> round(ladder_seconds(10)), round(ladder_seconds(53))
-    (18, 880)
+    >>> round(ladder_seconds(10)), round(ladder_seconds(53)), round(ladder_seconds(10, 10.0))
+    (31, 680, 62)
+    >>> ladder_seconds(53, limit_s=240.0)
+    240.0
     """
-    return LADDER_FLAMES * STRAINED_FLAME_SECONDS * ((n_species + 4) / 14.0) ** STRAINED_FLAME_POWER
+    t = (LADDER_SECONDS * ((n_species + 4) / REFERENCE_VARIABLES) ** LADDER_SPECIES_POWER
+         * (1.0 + LADDER_PRESSURE_PER_DECADE * max(0.0, math.log10(pressure_bar))))
+    return t if limit_s is None else min(t, limit_s)
 
 
-#: Above this much estimated wall time, `check` says the study is a job for a cluster [s].
+def parallel_seconds(costs: Sequence[float], jobs: int) -> float:
+    """Wall time [s] of independent tasks of these ``costs`` on ``jobs`` workers, longest first
+    (the order they finish in matters little; the longest task bounds it from below).
+
+    >>> parallel_seconds([60.0, 25.0, 20.0], 2), parallel_seconds([], 2)
+    (60.0, 0.0)
+    """
+    load = [0.0] * max(1, jobs)
+    for c in sorted(costs, reverse=True):
+        i = load.index(min(load))
+        load[i] += c
+    return max(load)
+
+
+#: Above this much estimated wall time, `check` says the study is a job for a cluster [s] ...
 CLUSTER_ADVICE_S = 8 * 3600.0
+#: ... and counts it in working days of this many seconds.
+WORKING_DAY_S = 8 * 3600.0
 
 
-#: A flame gets this many times its estimated cost from scratch before it is given up ...
-TIME_LIMIT_FACTOR = 20.0
+#: A flame gets this many times TIME_LIMIT_BASIS x (species + 4)^2 [s] (the estimate of a flame
+#: from scratch before the recalibration of 2026-12-05 (afternoon); kept so that the time limits did not move) ...
+TIME_LIMIT_FACTOR, TIME_LIMIT_BASIS = 20.0, 9.0e-3
 #: ... and never less than this [s] (a loaded machine, a robust retry).
 MIN_TIME_LIMIT_S = 60.0
 
 
 def flame_time_limit(n_species: int) -> float:
-    """Default time limit of one flame [s]: TIME_LIMIT_FACTOR times the estimated cost of a
-    flame from scratch, at least MIN_TIME_LIMIT_S (a generous bound: only a flame that
+    """Default time limit of one flame [s]: TIME_LIMIT_FACTOR times about a flame's cost from
+    scratch (TIME_LIMIT_BASIS), at least MIN_TIME_LIMIT_S (a generous bound: only a flame that
     time-steps or iterates without end reaches it).
 
     >>> round(flame_time_limit(53)), flame_time_limit(10)
     (585, 60.0)
     """
-    return max(MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR * default_flame_seconds(n_species)["fresh"])
+    return max(MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR * TIME_LIMIT_BASIS * (n_species + 4) ** 2)
 
 
-def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float) -> float:
+def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: float,
+                         scale: Mapping[int, float] | None = None) -> float:
     """Wall time [s] of running ``plan`` on ``jobs`` workers, roots taking ``fresh_s`` and
-    the other points ``warm_s``: a list-scheduling simulation with the run's own
-    :class:`Scheduler`, plus START_UP_SECONDS.
+    the other points ``warm_s`` (times ``scale[i]`` of point i where given: :func:`pressure_cost`):
+    a list-scheduling simulation with the run's own :class:`Scheduler`, plus START_UP_SECONDS.
 
     >>> p = WarmPlan(parent={0: None, 1: 0, 2: 0, 3: 1}, stored={}, roots=[0],
     ...              height={0: 3, 1: 2, 2: 1, 3: 1}, distance={})
@@ -187,7 +278,8 @@ def estimate_run_seconds(plan: WarmPlan, jobs: int, fresh_s: float, warm_s: floa
         while sched.has_ready() and len(running) < slots:
             i = sched.pop()
             assert i is not None  # has_ready() above
-            heapq.heappush(running, (now + flame_cost(plan, i, {"fresh": fresh_s, "warm": warm_s}), i))
+            heapq.heappush(running, (now + flame_cost(plan, i, {"fresh": fresh_s, "warm": warm_s},
+                                                      scale.get(i, 1.0) if scale else 1.0), i))
         now, i = heapq.heappop(running)
         sched.finished(i)
     return now + START_UP_SECONDS

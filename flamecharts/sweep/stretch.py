@@ -59,7 +59,12 @@ def _task(study: Study, p: Point, row: dict) -> dict:
     return {"key": stretch_key(p), "mechanism_path": study.mechanism_path,
             "mechanism_sha256": study.mechanism_sha256, "transport": study.transport, "T_u": p.T_u, "P": p.P,
             "X": p.X_unburned, "S_L": row["laminar_flame_speed_m_s"], "T_ad": row["adiabatic_flame_temperature_K"],
-            "time_limit_s": LADDER_TIME_LIMITS * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))}
+            "time_limit_s": ladder_time_limit(study)}
+
+
+def ladder_time_limit(study: Study) -> float:
+    """Time limit of one ladder [s]: LADDER_TIME_LIMITS of the study's flame time limit."""
+    return LADDER_TIME_LIMITS * (study.flame_time_limit_s or flame_time_limit(len(study.atoms)))
 
 
 def solve_stretch(study: Study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend: Backend,

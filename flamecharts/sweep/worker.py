@@ -96,6 +96,16 @@ def mixture_properties(mechanism_path: str, sha256: str, X: dict, T_u: float, P:
 MIXTURE_PROPERTIES = ("lewis_number_fuel", "lewis_number_oxygen", "unburned_viscosity_Pa_s")
 
 
+def fresh_mixture(mechanism_path: str, sha256: str, X: dict, T_u: float, P: float) -> dict:
+    """:func:`mixture_properties` and the density of the fresh mixture (``unburned_density_kg_m3``,
+    ideal gas, as the flame's inlet has it): what ``check`` needs of a point, before its flame, to
+    tell which limit criteria a search can assess (admissible.driver.planned_searches)."""
+    gas = solution(mechanism_path, "mixture-averaged", sha256)
+    gas.TPX = T_u, P, X
+    rho = float(gas.density)
+    return {**mixture_properties(mechanism_path, sha256, X, T_u, P), "unburned_density_kg_m3": rho}
+
+
 def _extra(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> dict:
     """The store's result dict of an extra solve: ``compute()`` -> (metrics, message), timed (wall
     and CPU); an exception it raises is a failure recorded with its reason ('not converged' and
