@@ -180,6 +180,9 @@ def test_without_a_ladder_the_blowout_is_not_assessed_and_the_core_margin_alone_
     sentence = limit_sentence(lim, res.study)
     assert "not assessed: flashback at 2 of 2 swept flames, stabilizer at 2 of 2 swept flames, extinction_blowout at " \
            "2 of 2 swept flames" in sentence
+    # the answer never reads as flashback-proof: boundary-layer flashback is outside these criteria
+    assert sentence.endswith("boundary-layer flashback is not among these criteria (the report's premixer section "
+                             "says where it is assessed)")
 
 
 def test_the_report_and_the_limits_chart_name_the_premixers_criteria(premixer_limits):

@@ -182,6 +182,9 @@ def limit_sentence(r: dict, study: Study) -> str:
         text = text.replace(" keeps every margin from ", " keeps every assessed margin from ", 1).replace(
             " takes up to ", " takes, on the assessed criteria, up to ", 1).replace(
             ": admissible from ", ": admissible on the assessed criteria from ", 1)
+    if getattr(study, "premixer", None) is not None:  # a premixer's answer never reads as flashback-proof
+        gap += ("; boundary-layer flashback is not among these criteria (the report's premixer section says "
+                "where it is assessed)")
     return text + gap
 
 
