@@ -74,11 +74,22 @@ def test_ladders_cost_by_mechanism_and_pressure_spread_over_the_workers_and_stop
     assert parallel_seconds([4.0], 8) == 4.0
 
 
-def test_limits_need_no_flame_where_no_criterion_is_in_range():
-    """The gas-turbine demo's tube (issue 33: its limits line counted 84 flames, none was solved):
-    every flame criterion is out of range, by pressure and preheat alone and by the port's
-    Reynolds number, so no search needs a flame; the Wobbe band needs none."""
-    study = load_study(CONFIGS / "gas_turbine_premixer_demo.toml")
+def _laminar_criteria_demo(folder: Path) -> Path:
+    """The gas-turbine demo with the laminar port criteria only (as it was before its limits used the
+    premixer's core-flow criterion), written into ``folder``."""
+    text = (CONFIGS / "gas_turbine_premixer_demo.toml").read_text()
+    old = 'criteria = ["core_flashback", "flashback", "stabilizer", "wobbe"]'
+    assert old in text
+    path = folder / "turbine_laminar_criteria.toml"
+    path.write_text(text.replace(old, 'criteria = ["flashback", "stabilizer", "wobbe"]'))
+    return path
+
+
+def test_limits_need_no_flame_where_no_criterion_is_in_range(tmp_path):
+    """The gas-turbine demo's tube on the laminar criteria (issue 33: its limits line counted 84
+    flames, none was solved): every flame criterion is out of range, by pressure and preheat alone
+    and by the port's Reynolds number, so no search needs a flame; the Wobbe band needs none."""
+    study = load_study(_laminar_criteria_demo(tmp_path))
     plan = planned_searches(study)
     assert plan.searches == {"blend_fraction": 6, "equivalence_ratio": 6}
     assert plan.idle == plan.searches and plan.flames == 0
@@ -109,7 +120,7 @@ def test_a_turbulent_port_flow_is_told_by_the_fresh_mixture_before_any_flame(tmp
 
 
 def test_check_says_why_the_turbine_demo_limits_need_no_flames_and_totals_everything(capsys, tmp_path):
-    out = _check(capsys, "check", CONFIGS / "gas_turbine_premixer_demo.toml", "--out", tmp_path / "o", "--jobs", "2")
+    out = _check(capsys, "check", _laminar_criteria_demo(tmp_path), "--out", tmp_path / "o", "--jobs", "2")
     limits = next(line for line in out if line.startswith("Limits:"))
     assert "no flames beyond the sweep: every flame criterion is outside its range" in limits
     assert "turbulent port flow (Re" in limits and "about 0" not in limits
