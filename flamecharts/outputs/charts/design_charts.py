@@ -469,6 +469,11 @@ def _edge_marker(ax, x, y, r, side, col, handles, scale=1.0):
         handles.setdefault("hollow: window open (swept end or edge not settled)",
                            Line2D([], [], ls="", marker="o", mfc="white", mec="k"))
         return
+    _binding_marker(ax, x, y, binding, col, handles)
+
+
+def _binding_marker(ax, x, y, binding: str, col, handles) -> None:
+    """The marker of the criterion that binds past an edge (BINDING_MARKERS), named in the legend."""
     mk, text = BINDING_MARKERS.get(binding, ("o", binding))
     ax.plot(x, y, mk, color=col, ms=8, mec="k", zorder=4)
     handles.setdefault(text, Line2D([], [], ls="", marker=mk, color="0.6", mec="k"))
@@ -509,9 +514,12 @@ def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
         fu = r.get("flame_upper_edge")
         if fu is not None and r["upper_kind"] == "Wobbe band" and r["flame_upper_kind"] != "range end":
             ax.plot([x, x], [scale * r["upper_edge"], scale * fu], ":", color=col, lw=1.4)
-            ax.plot(x, scale * fu, "_", color=col, ms=12, mew=2)
             handles.setdefault("dotted: what the flame margins alone would allow\n(beyond the Wobbe band)",
-                               Line2D([], [], ls=":", marker="_", color="0.4"))
+                               Line2D([], [], ls=":", color="0.4"))
+            if r["flame_upper_kind"] == "found":  # the criterion that ends it, marked like any edge's
+                _binding_marker(ax, x, scale * fu, r["flame_upper_binding"], col, handles)
+            else:
+                ax.plot(x, scale * fu, "_", color=col, ms=12, mew=2)
     elif r["outcome"] == "none admissible" and r.get("flame_lower_edge") is not None:
         ax.plot([x, x], [scale * r["flame_lower_edge"], scale * r["flame_upper_edge"]], ":", color=col, lw=2.2)
         handles.setdefault("dotted: what the flame margins alone would allow\n(beyond the Wobbe band)",

@@ -122,7 +122,8 @@ def _margin_panel(ax: Axes, at: list[dict], phis: list[float], colours: np.ndarr
        "Core-flow flashback margin (bulk velocity over the turbulent flame speed) of each correlation against the "
        "blend fraction, one colour per equivalence ratio and one line style per correlation; open markers lie outside "
        "the correlation's fitted range. The lowest line at a blend fraction is the margin results.csv gives; below "
-       "the red line at 1 the turbulent flame can travel upstream through the premixer's core.",
+       "the red line at 1 the turbulent flame can travel upstream through the premixer's core; the dotted orange line is "
+       "the burner's minimum flashback margin, which the verdict and [limits] use.",
        has_core_margins)
 def core_flashback_chart(data: ChartData, study: Study) -> Figure:
     rows = [r for r in data.shown_rows if r.get("core_flashback_margin") is not None]
@@ -139,6 +140,8 @@ def core_flashback_chart(data: ChartData, study: Study) -> Figure:
         if not at:
             empty_note(ax, "no burning point with a core-flow margin at this pressure and preheat")
         ax.axhline(1.0, color="tab:red", lw=1.2, ls="--")
+        if study.burner is not None:  # the margin the burner asks for, which [limits] and the verdict use
+            ax.axhline(study.burner.min_flashback_margin, color="tab:orange", lw=1.2, ls=":")
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel("Bulk velocity / S_T [-]")
@@ -150,6 +153,9 @@ def core_flashback_chart(data: ChartData, study: Study) -> Figure:
     handles["open marker: outside the fitted range"] = Line2D([], [], color="0.35", marker="o", markerfacecolor="none",
                                                               linestyle="none")
     handles["margin 1: core flashback"] = Line2D([], [], color="tab:red", lw=1.2, ls="--")
+    if study.burner is not None:
+        handles[f"margin {study.burner.min_flashback_margin:g}: the burner's minimum"] = Line2D(
+            [], [], color="tab:orange", lw=1.2, ls=":")
     source = sorted({r["turbulence_source"] for r in rows})
     return finish(fig, study, ("Core-flow flashback margin vs blend fraction",
                                "How far is the premixer's bulk flow from the turbulent flame speed? (correlations are "
