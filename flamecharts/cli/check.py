@@ -9,7 +9,7 @@ from ..admissible.driver import planned_searches
 from ..admissible.words import kept
 from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
-from ..config import by_mechanism, load_study, lumping_note
+from ..config import by_mechanism, load_study, lumping_note, reduction_note, with_reduction
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
@@ -18,6 +18,7 @@ from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
 from ..sweep.schedule import CLUSTER_ADVICE_S, estimate_run_seconds, flame_seconds, ladder_seconds
+from ..sweep.skeletal import estimate as reduction_estimate, stored as stored_reduction
 from ..sweep.warm_tree import warm_tree
 from .progress import duration, plural
 from .tables import print_burner, print_gases, print_points
@@ -27,6 +28,10 @@ if TYPE_CHECKING:
     from ..sweep.points import Point
     from ..sweep.warm_tree import WarmPlan
 
+#: Measured cost of a reduction (docs/benchmarks.md, "Mechanism reduction").
+REDUCTION_MEASURED = ("measured on 2 busy cores: GRI-Mech 3.0 methane, 6 autoignitions, 2 ignition points and 2 coarse "
+                      "flames, 30 s CPU (28 s the flames); n-hexane (1268 species), 8 autoignitions and 9 ignition "
+                      "points, 75 s")
 #: Measured wall time of one GRI-Mech 3.0 ladder (docs/benchmarks.md).
 GRI_LADDER_NOTE = "30-60 s a strained flame, stoichiometric methane-air 15 flames in 11 min"
 
@@ -48,12 +53,13 @@ def cmd_check(args: argparse.Namespace) -> int:
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
     print_gases(study)
     print_burner(study)
+    study, reduction_s, keys = _reduction(study, out, keys, args.jobs)
     subs = by_mechanism(study)
     if len(subs) > 1:
         print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
               f"the first, {subs[0].mechanism}, is the reference of the design charts")
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
-    print(_total_line(sum(seconds), resolve_jobs(args.jobs), len(subs)))
+    print(_total_line(sum(seconds) + reduction_s, resolve_jobs(args.jobs), len(subs)))
     return 0
 
 
@@ -61,12 +67,31 @@ def whole_run_seconds(study: Study, out: Path, jobs: int | None) -> float:
     """The estimate `check` prints as its total (sweep, limits and extra solves of every
     mechanism), without its printing or the read-out of the stored points: `run` announces it."""
     keys = stored_keys(out / DB_NAME)
-    total = 0.0
+    study, total, keys = _reduction(study, out, keys, jobs, quiet=True)
     for sub in by_mechanism(study):
         _, todo, tree, timings = _sweep_plan(sub, out, keys)
         total += (_estimate_line(sub, tree, timings, jobs)[1] if todo else 0.0)
         total += sum(t for _, t in _extras(sub, timings, jobs, len(todo)))
     return total
+
+
+def _reduction(study: Study, out: Path, keys: set, jobs: int | None, quiet: bool = False) -> tuple[Study, float, set]:
+    """[reduction]: the study with the stored skeletal mechanism when the folder holds the one this
+    study asks for (then nothing to estimate), else the reduction's estimate line and seconds, and
+    no stored flame (a new mechanism is a new key: every flame is solved again)."""
+    if study.reduction is None:
+        return study, 0.0, keys
+    record, why = stored_reduction(study, out)
+    if record is not None:
+        if not quiet:
+            print(f"Mechanism reduction: stored in {out}, reused. {reduction_note(with_reduction(study, record))}")
+        return with_reduction(study, record), 0.0, keys
+    what, t = reduction_estimate(study)
+    if not quiet:
+        print(f"{what}: about {duration(t)} in one process ({why}); {REDUCTION_MEASURED}. The skeletal mechanism's "
+              "size is known only once it is made: the sweep below is estimated with the detailed mechanism's (an "
+              "upper bound), and every point is to solve, since a new mechanism is a new key")
+    return study, t, set()
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:
