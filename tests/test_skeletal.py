@@ -165,6 +165,27 @@ def test_the_read_side_and_check_find_the_stored_reduction(solved, capsys):
     assert "Mechanism reduction: stored in" in printed and "6 already stored" in printed
 
 
+def test_the_read_side_needs_neither_the_skeletal_file_nor_cantera(solved, tmp_path):
+    import shutil
+    import subprocess
+    import sys
+
+    folder, res = solved
+    out = tmp_path / "out"
+    shutil.copytree(folder / "out", out)
+    (out / SKELETAL_FILE).unlink()
+    code = ("import sys, json\n"
+            "from flamecharts.pipeline import open_results\n"
+            f"r = open_results({str(out)!r})\n"
+            "print(json.dumps({'cantera': 'cantera' in sys.modules, 'sha': r.study.mechanism_sha256,\n"
+            "                  'band': [x['flame_speed_reduction_error_percent'] for x in r.rows]}))\n")
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=600)
+    assert done.returncode == 0, done.stderr
+    answer = json.loads(done.stdout.strip().splitlines()[-1])
+    assert answer == {"cantera": False, "sha": res.study.mechanism_sha256,
+                      "band": [r["flame_speed_reduction_error_percent"] for r in res.rows]}
+
+
 def test_check_estimates_a_reduction_still_to_make(tmp_path, capsys):
     config = write_h2_study(tmp_path, extra=REDUCTION.format(fs=5, ign=10))
     assert cli.main(["check", str(config), "--out", str(tmp_path / "new")]) == 0
@@ -253,3 +274,32 @@ def test_without_validation_flames_the_band_is_not_measured(tmp_path):
     assert all(row["flame_speed_reduction_error_percent"] is None for row in res.rows)
     assert all(row["reduction_error_source"].startswith("not measured: ignition delays only") for row in res.rows)
     assert "flame speed not measured" in res.rows[0]["mechanism_reduction"]
+
+
+def test_a_mixture_that_cannot_autoignite_is_a_one_line_error(tmp_path, capsys):
+    """1 % hydrogen in nitrogen rises less than 100 K: no ignition delay to validate on."""
+    text = (BASE_TOML.replace("H2 = 0.6, N2 = 0.4", "H2 = 0.01, N2 = 0.99"))
+    (tmp_path / "weak.toml").write_text(text)
+    rc = cli.main(["run", str(tmp_path / "weak.toml"), "--out", str(tmp_path / "out"), "--jobs", "1", "--quiet"])
+    err = capsys.readouterr().err
+    assert rc == 2 and err.count("\n") == 1 and "[reduction] cannot reduce h2o2.yaml" in err
+
+
+BASE_TOML = """
+title = "weak"
+mechanism = "h2o2.yaml"
+resolution = "coarse"
+
+[reduction]
+
+[fuels]
+diluted = { H2 = 0.6, N2 = 0.4 }
+
+[oxidizers]
+air = { O2 = 1.0, N2 = 3.76 }
+
+[sweep]
+fuel = ["diluted"]
+oxidizer = ["air"]
+equivalence_ratio = [1.0]
+"""

@@ -28,6 +28,7 @@ from typing import TYPE_CHECKING, Any
 from .._version import installed_cantera_version
 from ..columns import gas_label
 from ..config import flame_stream, fuel_stream, with_reduction
+from ..errors import FlamechartsError, first_line
 from ..facts import ReducedMechanism, file_sha256
 from ..numerics import NUMERICS
 from ..physics.sampling import Conditions, between, composition
@@ -319,10 +320,15 @@ def _reduce(study: Study, the_plan: Plan, out: Path, report: Callable[[str], Non
                         study.flame_time_limit_s or flame_time_limit(len(study.atoms)))
     cases = [FlameCase(dict(p.X_unburned), p.T_u, p.P) for p in the_plan.flames]
     wall = time.perf_counter()
-    found = reduce_for_study(study.mechanism_path, study.mechanism_sha256, the_plan.training, list(the_plan.ignition),
-                             cases, how, Targets(r.ignition_delay_error, r.flame_speed_error, r.species_error,
-                                                 r.species), report=report)
     name = Path(study.mechanism).name
+    try:
+        found = reduce_for_study(study.mechanism_path, study.mechanism_sha256, the_plan.training,
+                                 list(the_plan.ignition), cases, how,
+                                 Targets(r.ignition_delay_error, r.flame_speed_error, r.species_error, r.species),
+                                 report=report)
+    except ValueError as exc:  # e.g. a mixture that does not ignite from the flame zone's temperatures
+        raise FlamechartsError(f"[reduction] cannot reduce {name} for this study: {first_line(exc, 300)}; "
+                               "remove [reduction] to solve with the detailed mechanism") from None
     file, sha, facts = "", "", None
     if found.reduced:
         gas = solution(study.mechanism_path, None, study.mechanism_sha256)
