@@ -350,12 +350,24 @@ def _reduce(study: Study, the_plan: Plan, out: Path, report: Callable[[str], Non
         targets={"flame_speed": r.flame_speed_error, "ignition_delay": r.ignition_delay_error,
                  "species_error": r.species_error, "species": list(r.species)},
         ignition_errors=found.ignition_errors, flames=flames, species_errors=found.species_errors,
-        tried=tuple({k: (None if isinstance(v, float) and math.isinf(v) else v) for k, v in asdict(t).items()}
-                    for t in found.tried),
+        tried=tuple(_finite(asdict(t)) for t in found.tried),
         n_states=found.n_states, training_runs=len(the_plan.training.points()),
         cpu_s={**found.cpu_s, "wall": time.perf_counter() - wall}, facts=facts)
     _write_record(out, the_plan.inputs, record)
     return record
+
+
+def _finite(v: Any) -> Any:
+    """``v`` with every infinite float (a candidate's flame that did not burn) as None: strict JSON.
+
+    >>> _finite({"errors": [0.1, float("inf")], "n": 3})
+    {'errors': [0.1, None], 'n': 3}
+    """
+    if isinstance(v, dict):
+        return {k: _finite(x) for k, x in v.items()}
+    if isinstance(v, (list, tuple)):
+        return [_finite(x) for x in v]
+    return None if isinstance(v, float) and not math.isfinite(v) else v
 
 
 def _write_record(out: Path, inputs: dict, record: ReducedMechanism) -> None:
@@ -364,7 +376,7 @@ def _write_record(out: Path, inputs: dict, record: ReducedMechanism) -> None:
     path = out / RECORD_FILE
     tmp = path.with_name(path.name + ".tmp")
     tmp.write_text(json.dumps({"version": REDUCTION_VERSION, "inputs": inputs, "outcome": record.to_json()},
-                              indent=1), encoding="utf-8")
+                              indent=1, allow_nan=False), encoding="utf-8")
     os.replace(tmp, path)
 
 
