@@ -50,9 +50,10 @@ FILES = {
                                                              "every chart with its caption, tables, cautions"),
     DB_NAME: ("always", "the store (SQLite): every finished flame, committed the moment it finishes; a rerun solves only "
                         "what it lacks. Never edit it; `flamecharts compact` gives its free space back"),
-    SKELETAL_FILE: ("with [reduction], where a skeletal mechanism met the targets",
-                    "the skeletal mechanism the flames burn (Cantera YAML); its sha256 is in every point's key "
-                    "([Mechanism reduction](reduction.md))"),
+    SKELETAL_FILE.format(sha12="HASH"): ("with [reduction], where a skeletal mechanism met the targets",
+                                         "the skeletal mechanism the flames burn (Cantera YAML), named by the first "
+                                         "12 digits of its sha256, which is in every point's key ([Mechanism "
+                                         "reduction](reduction.md))"),
     RECORD_FILE: ("with [reduction]", "the reduction's record: what it was made from (a rerun of the same study "
                                       "reuses it), the species kept, every candidate tried and the errors measured "
                                       "on each validation point"),

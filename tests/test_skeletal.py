@@ -21,7 +21,7 @@ from flamecharts import ConfigError, cli
 from flamecharts.config import study_from_dict
 from flamecharts.facts import file_sha256
 from flamecharts.sweep.points import points
-from flamecharts.sweep.skeletal import RECORD_FILE, SKELETAL_FILE, plan
+from flamecharts.sweep.skeletal import RECORD_FILE, SKELETAL_GLOB, plan
 
 from conftest import write_h2_study
 
@@ -129,10 +129,12 @@ def test_the_skeletal_file_is_written_and_its_hash_is_in_every_key(solved):
     folder, res = solved
     out = folder / "out"
     record = json.loads((out / RECORD_FILE).read_text())["outcome"]
-    sha = file_sha256(out / SKELETAL_FILE)
+    (skeletal,) = out.glob(SKELETAL_GLOB)
+    sha = file_sha256(skeletal)
+    assert skeletal.name == f"reduced_mechanism_{sha[:12]}.yaml" == record["file"]
     assert record["reduced"] and record["sha256"] == sha and len(record["species"]) < 10
     assert "H2O2" not in record["species"]
-    assert res.study.mechanism_sha256 == sha and res.study.mechanism_path == str(out / SKELETAL_FILE)
+    assert res.study.mechanism_sha256 == sha and res.study.mechanism_path == str(skeletal)
     assert all(p.inputs["mechanism_sha256"] == sha for p in points(res.study))
     detailed = {p.key for p in points(flamecharts.load_study(folder / "h2rig.toml"))}
     assert not detailed & {r["point_key"] for r in res.rows}  # a new mechanism is a new key
@@ -173,7 +175,7 @@ def test_the_read_side_needs_neither_the_skeletal_file_nor_cantera(solved, tmp_p
     folder, res = solved
     out = tmp_path / "out"
     shutil.copytree(folder / "out", out)
-    (out / SKELETAL_FILE).unlink()
+    next(out.glob(SKELETAL_GLOB)).unlink()
     code = ("import sys, json\n"
             "from flamecharts.pipeline import open_results\n"
             f"r = open_results({str(out)!r})\n"
@@ -207,7 +209,7 @@ def test_a_rerun_reuses_it_and_a_changed_target_makes_it_again(tmp_path):
     note = strict.summary.reduction_note
     assert "flame_speed_error_percent 5 -> 0.5" in note and "every flame of the study is solved again" in note
     assert strict.summary.solved == 6 and not strict.study.reduced.reduced
-    assert not (tmp_path / "out" / SKELETAL_FILE).exists()
+    assert not list((tmp_path / "out").glob(SKELETAL_GLOB))
     assert all(r["flame_speed_reduction_error_percent"] is None for r in strict.rows)
     assert "no skeletal mechanism" in strict.rows[0]["mechanism_reduction"]
 
@@ -218,10 +220,11 @@ def test_a_missing_skeletal_file_is_rewritten_to_the_same_hash(solved, tmp_path)
 
     copy_dir = tmp_path / "copy"
     shutil.copytree(folder, copy_dir)
-    (copy_dir / "out" / SKELETAL_FILE).unlink()
+    (skeletal,) = (copy_dir / "out").glob(SKELETAL_GLOB)
+    skeletal.unlink()
     again = flamecharts.run(copy_dir / "h2rig.toml", out=copy_dir / "out", jobs=1, charts=False, report=False)
     assert again.summary.solved == 0 and "reused" in again.summary.reduction_note
-    assert file_sha256(copy_dir / "out" / SKELETAL_FILE) == res.study.mechanism_sha256
+    assert file_sha256(skeletal) == res.study.mechanism_sha256
 
 
 # --- GRI-Mech 3.0 ------------------------------------------------------------------------------------

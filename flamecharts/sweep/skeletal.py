@@ -41,7 +41,11 @@ if TYPE_CHECKING:
 
 #: Changes of the method that change the skeletal mechanism (part of the stored inputs).
 REDUCTION_VERSION = 1
-SKELETAL_FILE = "reduced_mechanism.yaml"
+#: The skeletal mechanism's file, named by the first 12 hex digits of its sha256: a file name never
+#: holds two contents, so the mechanism caches of a long-lived process (chemistry.mechanism.solution,
+#: keyed by path) and of reused worker processes never serve an earlier skeletal mechanism.
+SKELETAL_FILE = "reduced_mechanism_{sha12}.yaml"
+SKELETAL_GLOB = "reduced_mechanism_*.yaml"
 RECORD_FILE = "reduction.json"
 #: Training autoignition starts at each end of the study's preheat range raised by these [K]: a
 #: premixed flame releases its heat between roughly 1000 K and its burned temperature, and the
@@ -295,12 +299,24 @@ def _skeletal_file_ok(study: Study, record: ReducedMechanism, out: Path) -> bool
     if path.is_file() and file_sha256(path) == record.sha256:
         return True
     from ..chemistry.mechanism import solution
-    from ..chemistry.reduction import skeletal_solution, write_mechanism
+    from ..chemistry.reduction import skeletal_solution
 
     gas = solution(study.mechanism_path, None, study.mechanism_sha256)
     note = _note(Path(study.mechanism).name, study.mechanism_sha256, (len(record.species), record.detailed_size[0]),
                  (record.reactions, record.detailed_size[1]), record.epsilon)
-    return write_mechanism(skeletal_solution(gas, record.species), path, note) == record.sha256
+    return _write_skeletal(out, skeletal_solution(gas, record.species), note) == (record.file, record.sha256)
+
+
+def _write_skeletal(out: Path, skeletal: Any, note: str) -> tuple[str, str]:
+    """Write a skeletal mechanism (a Cantera Solution) to ``out`` under SKELETAL_FILE, atomically;
+    its file name and sha256."""
+    from ..chemistry.reduction import mechanism_sha256, mechanism_yaml, write_mechanism
+
+    sha = mechanism_sha256(mechanism_yaml(skeletal, note))
+    file = SKELETAL_FILE.format(sha12=sha[:12])
+    written = write_mechanism(skeletal, out / file, note)
+    assert written == sha, "chemistry.reduction.mechanism_yaml is deterministic"
+    return file, sha
 
 
 def _flame_label(p: Point) -> str:
@@ -311,7 +327,7 @@ def _flame_label(p: Point) -> str:
 def _reduce(study: Study, the_plan: Plan, out: Path, report: Callable[[str], None]) -> ReducedMechanism:
     """Make the study's skeletal mechanism (chemistry.skeletal.reduce_for_study) and write it and its record."""
     from ..chemistry.mechanism import mechanism_facts, solution
-    from ..chemistry.reduction import skeletal_solution, write_mechanism
+    from ..chemistry.reduction import skeletal_solution
     from ..chemistry.skeletal import FlameCase, FlameSettings, Targets, reduce_for_study
 
     r = study.reduction
@@ -332,13 +348,13 @@ def _reduce(study: Study, the_plan: Plan, out: Path, report: Callable[[str], Non
     file, sha, facts = "", "", None
     if found.reduced:
         gas = solution(study.mechanism_path, None, study.mechanism_sha256)
-        file = SKELETAL_FILE
-        sha = write_mechanism(skeletal_solution(gas, found.species), out / file,
-                              _note(name, study.mechanism_sha256, (len(found.species), found.detailed[0]),
-                                    (found.n_reactions, found.detailed[1]), found.epsilon))
+        file, sha = _write_skeletal(out, skeletal_solution(gas, found.species),
+                                    _note(name, study.mechanism_sha256, (len(found.species), found.detailed[0]),
+                                          (found.n_reactions, found.detailed[1]), found.epsilon))
         facts = mechanism_facts(study.mechanism, str(out / file), sha)
-    elif (out / SKELETAL_FILE).is_file():  # an earlier run's: no flame of this study burns it
-        (out / SKELETAL_FILE).unlink()
+    for old in out.glob(SKELETAL_GLOB):  # earlier runs': no flame of this study burns them
+        if old.name != file:
+            old.unlink()
     flames = tuple({"condition": condition_key(p), "label": _flame_label(p), "held_out": the_plan.held_out,
                     "detailed_m_s": d.speed_m_s, "skeletal_m_s": s.speed_m_s, "error": e, "thickness_error": te}
                    for p, d, s, e, te in zip(the_plan.flames, found.detailed_flames, found.skeletal_flames,
