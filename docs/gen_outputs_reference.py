@@ -24,6 +24,7 @@ from flamecharts.outputs.charts import CHARTS
 from flamecharts.outputs.write import OPTIONAL_TABLES
 from flamecharts.results import DATASET_EXTRA, STUDY_WIDE, exponent_table
 from flamecharts.store import DB_NAME, LOCK_NAME
+from flamecharts.sweep.skeletal import RECORD_FILE, SKELETAL_FILE
 
 PAGE = "outputs.md"
 
@@ -49,6 +50,13 @@ FILES = {
                                                              "every chart with its caption, tables, cautions"),
     DB_NAME: ("always", "the store (SQLite): every finished flame, committed the moment it finishes; a rerun solves only "
                         "what it lacks. Never edit it; `flamecharts compact` gives its free space back"),
+    SKELETAL_FILE.format(sha12="HASH"): ("with [reduction], where a skeletal mechanism met the targets",
+                                         "the skeletal mechanism the flames burn (Cantera YAML), named by the first "
+                                         "12 digits of its sha256, which is in every point's key ([Mechanism "
+                                         "reduction](reduction.md))"),
+    RECORD_FILE: ("with [reduction]", "the reduction's record: what it was made from (a rerun of the same study "
+                                      "reuses it), the species kept, every candidate tried and the errors measured "
+                                      "on each validation point"),
     STUDY_COPY: ("always", "the study as the run read it, so `charts`, `report` and `open_results` need the folder "
                            "alone"),
     LOCK_NAME: ("while a run writes the folder", "the lock that refuses a second run on the same folder"),
@@ -60,6 +68,9 @@ GROUPS = {
     "INDICATOR_COLUMNS": ("Design indicators", "every burning point; the `*_ratio` columns against the reference fuel "
                                                "at the same φ, p and T"),
     "KINETIC_COLUMNS": ("Kinetic uncertainty", "empty unless the study has [uncertainty]"),
+    "REDUCTION_COLUMNS": ("Reduction band", "burning points of a study with [reduction] whose skeletal mechanism met "
+                                            "the targets: the skeletal mechanism's flame-speed error, beside the "
+                                            "numerical and kinetic bands ([Mechanism reduction](reduction.md))"),
     "RESPONSE_COLUMNS": ("Flame response", "the Lewis numbers for every point; the others with [flame_response]"),
     "GAS_COLUMNS": ("Fuel gas", "every point: the ISO 6976 properties of its fuel gas"),
     "BURNER_COLUMNS": ("Burner", "empty unless the study has a [burner]"),

@@ -38,6 +38,7 @@ MINIMAL = {
     "stretch": {"equivalence_ratio": [1.0]},
     "uncertainty": {},
     "emissions": {},
+    "reduction": {},
 }
 
 
@@ -46,7 +47,7 @@ def defaults() -> SimpleNamespace:
     s = C.study_from_dict(MINIMAL, name="my_study")
     return SimpleNamespace(study=s, burner=s.burner, gas=s.gas_quality, limits=s.limits, premixer=s.premixer,
                            response=s.flame_response, uncertainty=s.uncertainty, indicators=s.indicator_settings,
-                           emissions=s.emissions)
+                           emissions=s.emissions, reduction=s.reduction)
 
 
 def toml(v: Any) -> str:
@@ -304,6 +305,34 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "equal_flame_temperature": Key("`true` or `false`", code(lambda d: d.emissions.equal_flame_temperature),
                                            "with a blend axis from 0: also burn each blend at the unblended gas's "
                                            "adiabatic flame temperature (one more flame per blended point)"),
+        }),
+        ("reduction", "[reduction]", C.REDUCTION_KEYS, (
+            "A skeletal mechanism made for the study's own conditions before its sweep (DRGEP), the smallest whose "
+            "errors against the detailed mechanism stay within the targets on points it was not trained on; written "
+            "to the output folder, its hash in every point's key, reused by a rerun of the same study and made again "
+            "(every flame then solved again) when a target or the study's range changes. One mechanism only. See "
+            "[Mechanism reduction](reduction.md)."), {
+            "flame_speed_error_percent": Key("a number, {:g} to {:g} [%]".format(
+                *C.REDUCTION_TARGET_RANGES["flame_speed_error_percent"]),
+                code(lambda d: round(100 * d.reduction.flame_speed_error, 9)),
+                "largest flame-speed error on the validation flames"),
+            "ignition_delay_error_percent": Key("a number, {:g} to {:g} [%]".format(
+                *C.REDUCTION_TARGET_RANGES["ignition_delay_error_percent"]),
+                code(lambda d: round(100 * d.reduction.ignition_delay_error, 9)),
+                "largest ignition-delay error at the validation points between the training conditions"),
+            "species": Key(f"{NAMES}: species of the mechanism", "none (with [emissions]: "
+                           + ", ".join(C.EMISSION_SPECIES) + ")",
+                           "more target species: always kept, ranked from, and their mole fractions at the "
+                           "validation flames' outlets held within species_error_percent; [emissions] adds its "
+                           "own"),
+            "species_error_percent": Key("a number, {:g} to {:g} [%]".format(
+                *C.REDUCTION_TARGET_RANGES["species_error_percent"]),
+                code(lambda d: round(100 * d.reduction.species_error, 9)),
+                "largest error of a target species at the validation flames' outlets (where above 1 ppm)"),
+            "validation_flames": Key(f"a whole number, 0 to {C.MAX_VALIDATION_FLAMES}",
+                                     f"{C.DEFAULT_VALIDATION_FLAMES}; 0 above {C.FLAME_VALIDATION_MAX_SPECIES} species",
+                                     "flames of the study it does not train on, solved with the detailed mechanism "
+                                     "and each candidate; 0: ignition delays only"),
         }),
         ("uncertainty", "[uncertainty]", C.UNCERTAINTY_KEYS, (
             "Error bars on every flame speed: adjoint sensitivities to every rate constant and the kinetic band (1σ) "

@@ -43,6 +43,13 @@ UNITS: dict[str, tuple[str, str]] = {
     "grid_convergence": ("", "how the three grids converged: monotone, oscillating or two grids"),
     "solve_seconds": ("s", "wall time of the flame's solve"),
     "mechanism": ("", "reaction mechanism"),
+    "mechanism_reduction": ("", "[reduction]: the skeletal mechanism the flames burn (species and reactions kept, "
+                                "file) and its largest measured errors; empty without [reduction]"),
+    "flame_speed_reduction_error_percent": ("%", "[reduction]: flame-speed error of the skeletal mechanism against "
+                                                 "the detailed one, measured at this point where it was a "
+                                                 "validation flame, else the largest over the validation flames"),
+    "reduction_error_source": ("", "where the reduction band comes from: measured at this point, the largest of the "
+                                   "validation flames, or not measured (ignition delays only)"),
     "reference_mechanism": ("", "the mechanism a comparison is made against (the first of the study's list)"),
     "reference_laminar_flame_speed_m_s": ("m/s", "laminar flame speed under the reference mechanism"),
     "reference_thermal_thickness_mm": ("mm", "thermal thickness under the reference mechanism"),
@@ -325,6 +332,8 @@ NUMERICAL_COLUMNS = ("flame_speed_numerical_error_percent", "thermal_thickness_n
 #: Kinetic uncertainty of the flame speed (empty unless the study has an [uncertainty] table).
 KINETIC_COLUMNS = ("flame_speed_kinetic_uncertainty_percent", "most_sensitive_reaction",
                    "most_sensitive_reaction_sensitivity", "reactions_default_factor", "default_factor_variance_percent")
+#: The skeletal mechanism's error band of the flame speed (empty unless the study has [reduction]).
+REDUCTION_COLUMNS = ("flame_speed_reduction_error_percent", "reduction_error_source")
 #: sensitivities.csv: the largest sensitivities of each point, one row per reaction.
 SENSITIVITY_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
                        "unburned_temperature_K", "rank", "reaction", "sensitivity", "uncertainty_factor",
@@ -347,9 +356,10 @@ COLUMNS = ((
     "unburned_temperature_K", "status", "laminar_flame_speed_m_s", "thermal_thickness_mm",
     "diffusive_thickness_mm", "reaction_zone_thickness_mm", "adiabatic_flame_temperature_K",
     "equilibrium_temperature_K", "expansion_ratio", "unburned_density_kg_m3",
-    "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism", "transport",
+    "unburned_thermal_diffusivity_m2_s", "grid_points", *NUMERICAL_COLUMNS, "solve_seconds", "mechanism",
+    "mechanism_reduction", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
-) + INDICATOR_COLUMNS + KINETIC_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
+) + INDICATOR_COLUMNS + KINETIC_COLUMNS + REDUCTION_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
   + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + PREMIXER_MARGIN_COLUMNS + EMISSION_COLUMNS
   + ("warnings",))
 

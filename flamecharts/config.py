@@ -46,7 +46,7 @@ from pathlib import Path
 from typing import Any
 
 from .errors import ConfigError, MechanismError, first_line, show
-from .facts import MechanismFacts, file_sha256
+from .facts import MechanismFacts, ReducedMechanism, file_sha256
 from .physics import lumping, mixtures
 from .physics.gasprops import ISO6976_2016
 from .physics.indicators import DEFAULTS as INDICATOR_DEFAULTS
@@ -59,7 +59,8 @@ MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty", "emissions")
+            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty", "emissions",
+            "reduction")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "stabilizer_blockage", "min_stabilizer_margin", "layout")
@@ -98,6 +99,24 @@ MAX_RESIDENCE_TIMES = 12
 #: O2 in dry air [%] (the reference-O2 correction's, physics.emissions).
 AIR_O2_PERCENT = 20.9
 HEATING_VALUE_BASES = ("gross", "net")
+REDUCTION_KEYS = ("flame_speed_error_percent", "ignition_delay_error_percent", "species", "species_error_percent",
+                  "validation_flames")
+#: [reduction]'s default targets [%]: the largest flame-speed, ignition-delay and target-species
+#: error of the skeletal mechanism against the detailed one on the validation points.
+DEFAULT_REDUCTION_TARGETS_PERCENT = {"flame_speed_error_percent": 1.0, "ignition_delay_error_percent": 10.0,
+                                     "species_error_percent": 10.0}
+#: Allowed range of each target [%].
+REDUCTION_TARGET_RANGES = {"flame_speed_error_percent": (0.1, 20.0), "ignition_delay_error_percent": (1.0, 100.0),
+                           "species_error_percent": (1.0, 100.0)}
+#: Validation flames (each solved with the detailed mechanism once and with every candidate that
+#: passes the ignition check) by default, where the detailed mechanism has at most
+#: FLAME_VALIDATION_MAX_SPECIES species (GRI-Mech 3.0 has 53: a flame from scratch in 10-20 s);
+#: a larger one is validated on ignition delays only unless the table asks for flames.
+DEFAULT_VALIDATION_FLAMES = 4
+FLAME_VALIDATION_MAX_SPECIES = 60
+MAX_VALIDATION_FLAMES = 12
+#: Species [emissions] reads: reduction targets of a study that asks for both.
+EMISSION_SPECIES = ("NO", "NO2", "N2O", "CO")
 UNCERTAINTY_KEYS = ("kinetics", "factors", "default_factor", "factor_sigmas", "error_bars")
 #: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
 STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
@@ -265,6 +284,21 @@ class Emissions:
 
 
 @dataclass(frozen=True)
+class Reduction:
+    """The [reduction] request: a skeletal mechanism for the study's own conditions (sweep.skeletal),
+    the smallest whose errors against the detailed mechanism stay within these targets (fractions,
+    0.01 = 1 %) on validation points it was not trained on: the flame speed of ``validation_flames``
+    flames of the study, the ignition delays, and the target ``species`` (the table's and those an
+    analysis reads: EMISSION_SPECIES with [emissions]) at the flames' outlets."""
+
+    flame_speed_error: float
+    ignition_delay_error: float
+    species_error: float
+    species: tuple[str, ...] = ()
+    validation_flames: int = DEFAULT_VALIDATION_FLAMES
+
+
+@dataclass(frozen=True)
 class GasQuality:
     """Reference state of the fuel-gas properties and the allowed Wobbe band."""
 
@@ -331,6 +365,9 @@ class Study:
     stretch: Stretch | None = None
     uncertainty: Uncertainty | None = None
     emissions: Emissions | None = None
+    reduction: Reduction | None = None
+    #: The skeletal mechanism a run made for [reduction] (sweep.skeletal; config.with_reduction), None before.
+    reduced: ReducedMechanism | None = field(default=None, repr=False, compare=False)
     #: Several mechanisms to compare (the first is the one above); () when the study has one.
     mechanisms: tuple[MechanismChoice, ...] = ()
     #: What the read side needs of the mechanism above (kept with a run: facts.MechanismFacts).
@@ -352,6 +389,47 @@ def by_mechanism(study: Study) -> list[Study]:
         return [study]
     return [replace(study, mechanism=m.name, mechanism_path=m.path, mechanism_sha256=m.sha256, atoms=m.atoms,
                     analysis_atoms=m.analysis_atoms, mechanisms=(), facts=m.facts) for m in study.mechanisms]
+
+
+def with_reduction(study: Study, reduced: ReducedMechanism) -> Study:
+    """The study as its flames are solved under [reduction]: its mechanism the skeletal one (file,
+    hash, so every point's key; species; facts), ``reduced`` the record of it. When no skeletal
+    mechanism met the targets (``reduced.reduced`` False), the detailed mechanism with the record."""
+    if not reduced.reduced or reduced.facts is None:
+        return replace(study, reduced=reduced)
+    return replace(study, mechanism_path=reduced.facts.path, mechanism_sha256=reduced.sha256,
+                   atoms=reduced.facts.atoms, facts=reduced.facts, reduced=reduced)
+
+
+def detailed_path(study: Study) -> str:
+    """The file of the mechanism the study names (the detailed one, also under [reduction]): what
+    the tables of mechanism scopes look up."""
+    return study.reduced.detailed_path if study.reduced is not None else study.mechanism_path
+
+
+def reduction_note(study: Study) -> str:
+    """One sentence on the skeletal mechanism the flames burn and its measured error ('' without
+    [reduction] or before it is made); every output carries it."""
+    r = study.reduced
+    if r is None:
+        return ""
+    name = Path(study.mechanism).name
+    if not r.reduced:
+        return (f"Mechanism reduction asked for, but no skeletal mechanism of {name} met every target "
+                f"({_targets_words(r.targets)}): the flames use the detailed mechanism.")
+    speed = r.flame_speed_error
+    measured = (f"flame speed within {100 * speed:.2g} % of the detailed mechanism on "
+                f"{sum(f.get('error') is not None for f in r.flames)} validation flame(s)" if speed is not None else
+                "flame speed not measured (no validation flame burned or none asked for)")
+    return (f"The flames burn a skeletal {name} of {len(r.species)} of {r.detailed_size[0]} species "
+            f"and {r.reactions} of {r.detailed_size[1]} reactions ({r.file}, DRGEP), {measured}; ignition delays "
+            f"within {100 * r.ignition_delay_error:.2g} % at {len(r.ignition_errors)} point(s); targets "
+            f"{_targets_words(r.targets)}.")
+
+
+def _targets_words(t: dict) -> str:
+    return (f"flame speed {100 * t['flame_speed']:g} %, ignition delay {100 * t['ignition_delay']:g} %"
+            + (f", {', '.join(t['species'])} {100 * t['species_error']:g} %" if t.get("species") else ""))
 
 
 def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
@@ -709,6 +787,45 @@ def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emis
                      reference_oxygen_percent=ref, heating_value=basis, **flags)
 
 
+def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, emissions: bool) -> Reduction:
+    """The [reduction] table: targets in their ranges, target species the mechanism's (those of
+    [emissions] added), one mechanism."""
+    if not isinstance(t, dict):
+        raise ConfigError("'reduction' must be a table")
+    _check_keys(t, REDUCTION_KEYS, "reduction.")
+    if n_mechanisms > 1:
+        raise ConfigError(f"[reduction] reduces one mechanism, and 'mechanism' lists {n_mechanisms}: compare "
+                          "mechanisms without [reduction], or reduce one of them in a study of its own")
+    targets = {}
+    for key, default in DEFAULT_REDUCTION_TARGETS_PERCENT.items():
+        v = _number(t.get(key, default), f"reduction.{key}")
+        lo, hi = REDUCTION_TARGET_RANGES[key]
+        if not lo <= v <= hi:
+            raise ConfigError(f"'reduction.{key}' is {v:g}; allowed: {lo:g} to {hi:g} (per cent of the detailed "
+                              "mechanism's value)")
+        targets[key] = v / 100.0
+    given = t.get("species", [])
+    if isinstance(given, str):
+        given = [given]
+    if not isinstance(given, list):
+        raise ConfigError(f"'reduction.species' must be a list of species names, got {show(given)}")
+    species = list(EMISSION_SPECIES) if emissions else []
+    for sp in given:
+        if not isinstance(sp, str) or sp not in facts.atoms:
+            raise ConfigError(f"'reduction.species' names {show(sp)}, which mechanism {Path(facts.path).name} does "
+                              f"not have{_suggest_species(str(sp), list(facts.atoms))}")
+        species.append(sp)
+    default_flames = DEFAULT_VALIDATION_FLAMES if len(facts.atoms) <= FLAME_VALIDATION_MAX_SPECIES else 0
+    n = t.get("validation_flames", default_flames)
+    if isinstance(n, bool) or not isinstance(n, int) or not 0 <= n <= MAX_VALIDATION_FLAMES:
+        raise ConfigError(f"'reduction.validation_flames' must be a whole number from 0 to {MAX_VALIDATION_FLAMES} "
+                          f"(flames of the study solved with both mechanisms; 0: ignition delays only), got {show(n)}")
+    return Reduction(flame_speed_error=targets["flame_speed_error_percent"],
+                     ignition_delay_error=targets["ignition_delay_error_percent"],
+                     species_error=targets["species_error_percent"],
+                     species=tuple(dict.fromkeys(s for s in species if s in facts.atoms)), validation_flames=n)
+
+
 def _flame_response(t: Any) -> FlameResponse:
     if not isinstance(t, dict):
         raise ConfigError("'flame_response' must be a table")
@@ -977,6 +1094,16 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
     }
 
 
+def _mechanism_tables(data: dict, choices: list[MechanismChoice], keep_profiles: bool) -> dict:
+    """The tables checked against the mechanisms' facts ([uncertainty], [emissions], [reduction]),
+    validated: Study fields by name."""
+    facts = [m.facts for m in choices]
+    return {"uncertainty": _uncertainty(data["uncertainty"], facts) if "uncertainty" in data else None,
+            "emissions": _emissions(data["emissions"], facts, keep_profiles) if "emissions" in data else None,
+            "reduction": _reduction(data["reduction"], facts[0], len(choices), "emissions" in data)
+            if "reduction" in data else None}
+
+
 def _mechanism_names(value: Any) -> tuple[str, ...]:
     """'mechanism': one file name, or a list of 2 to MAX_MECHANISMS different ones."""
     if isinstance(value, str):
@@ -1108,10 +1235,8 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         analysis_atoms=first.analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
         keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
-        uncertainty=_uncertainty(data["uncertainty"], [m.facts for m in choices])
-        if "uncertainty" in data else None, mechanisms=tuple(choices) if len(choices) > 1 else (), facts=first.facts,
-        emissions=_emissions(data["emissions"], [m.facts for m in choices], keep_profiles) if "emissions" in data
-        else None)
+        **_mechanism_tables(data, choices, keep_profiles), mechanisms=tuple(choices) if len(choices) > 1 else (),
+        facts=first.facts)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "
                           "raise 'max_points' if you mean it")

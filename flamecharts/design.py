@@ -25,10 +25,11 @@ from .columns import (
     KINETIC_COLUMNS,
     PREMIXER_COLUMNS,
     PREMIXER_MARGIN_COLUMNS,
+    REDUCTION_COLUMNS,
     TURBULENCE_COLUMNS,
     TURBULENT_SPEED_COLUMNS,
 )
-from .config import all_atoms, fuel_stream
+from .config import all_atoms, detailed_path, fuel_stream
 from .errors import ConfigError
 from .physics import (
     emissions as em_phys,
@@ -61,6 +62,7 @@ from .physics.premixer import (
     zimont_flame_speed,
 )
 from .physics.rate_factors import RATE_FACTORS
+from .sweep.points import condition_key
 
 if TYPE_CHECKING:
     from .config import Burner, Emissions, Study
@@ -407,6 +409,30 @@ def rate_factor(study: Study, key: str) -> tuple[float, str]:
     return u.default_factor, "default"
 
 
+def reduction_columns(study: Study, point: Point, row: dict) -> dict:
+    """The reduction band of a burning point's flame speed under [reduction] (columns.REDUCTION_COLUMNS):
+    the skeletal mechanism's error measured at this point where it was a validation flame, else the
+    largest over the validation flames; not measured where no validation flame burned (ignition
+    delays only). Empty without [reduction], for a point that did not burn, and where no skeletal
+    mechanism met the targets (the flames then burn the detailed mechanism)."""
+    out: dict[str, Any] = dict.fromkeys(REDUCTION_COLUMNS)
+    r = study.reduced
+    if r is None or not r.reduced or row.get("status") != "ok":
+        return out
+    here = r.error_at(condition_key(point))
+    largest = r.flame_speed_error
+    n = sum(f.get("error") is not None for f in r.flames)
+    if here is not None:
+        out.update(flame_speed_reduction_error_percent=100.0 * here, reduction_error_source="measured at this point")
+    elif largest is not None:
+        out.update(flame_speed_reduction_error_percent=100.0 * largest,
+                   reduction_error_source=f"largest of {n} validation flame{'s' if n != 1 else ''}")
+    else:
+        out["reduction_error_source"] = (f"not measured: ignition delays only (within "
+                                         f"{100 * r.ignition_delay_error:.2g} %)")
+    return out
+
+
 def kinetic_columns(study: Study, row: dict) -> dict:
     """Kinetic uncertainty band of a point's flame speed from its stored sensitivities
     (physics.kinetic_uncertainty, first order), the most sensitive reaction, and how much of
@@ -444,9 +470,12 @@ def kinetic_columns(study: Study, row: dict) -> dict:
 
 def error_bar_sentence(r: dict) -> str:
     """How sure a burning point's S_L is, in one line: 'S_L at φ 1 = 37.8 cm/s ± 0.89 % numerics,
-    ± 6 % kinetics (1σ), most sensitive to H + O2 <=> O + OH' (kinetics with [uncertainty] only)."""
+    ± 0.4 % reduction, ± 6 % kinetics (1σ), most sensitive to H + O2 <=> O + OH' (the reduction with
+    [reduction], kinetics with [uncertainty] only)."""
     text = (f"S_L at φ {r['equivalence_ratio']:g} = {100 * r['laminar_flame_speed_m_s']:.3g} cm/s "
             f"± {r['flame_speed_numerical_error_percent']:.2g} % numerics")
+    if r.get("flame_speed_reduction_error_percent") is not None:
+        text += f", ± {r['flame_speed_reduction_error_percent']:.2g} % reduction"
     if r.get("flame_speed_kinetic_uncertainty_percent") is not None:
         text += (f", ± {r['flame_speed_kinetic_uncertainty_percent']:.2g} % kinetics (1σ), most sensitive to "
                  f"{r['most_sensitive_reaction']}")
@@ -619,7 +648,7 @@ def premixer_columns(study: Study, point: Point, row: dict | None = None) -> dic
         if t < tau_inj:
             tau_inj, phi_inj = t, phi
     margin, margin_inj = tau / pm.residence_time_s, tau_inj / pm.residence_time_s
-    verdict = autoignition_verdict(study.mechanism_path, float(point.T_u), min(margin, margin_inj),
+    verdict = autoignition_verdict(detailed_path(study), float(point.T_u), min(margin, margin_inj),
                                    pm.min_autoignition_margin)
     if margin_inj < margin and margin_inj < pm.min_autoignition_margin <= margin:
         verdict += f" near the fuel injection (phi {phi_inj:g}{injection_end(phi_inj)})"

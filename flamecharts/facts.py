@@ -3,6 +3,8 @@
 MechanismFacts   a mechanism's species (element counts, molar masses), reaction equations
                  and the heating data of species outside ISO 6976: everything the read
                  side (config checks, gas properties, kinetic bands) asks of a mechanism
+ReducedMechanism the skeletal mechanism a [reduction] study solved its flames with (its facts,
+                 file and hash) and the errors measured against the detailed one
 
 A run writes them beside the config copy (config.save_config_copy); ``open_results``,
 ``flamecharts charts`` and ``flamecharts report`` read them back, so a run folder redraws
@@ -12,7 +14,7 @@ the file by chemistry.mechanism.mechanism_facts.
 from __future__ import annotations
 
 import hashlib
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
 
@@ -84,3 +86,88 @@ class MechanismFacts:
             return file_sha256(self.path) != self.sha256
         except OSError:
             return False
+
+
+@dataclass(frozen=True)
+class ReducedMechanism:
+    """What a run keeps of its [reduction] (sweep.skeletal; written to reduction.json beside the
+    store): the skeletal mechanism a study's flames were solved with, and its measured error.
+
+    ``reduced`` False: no candidate met every target and the flames used the detailed mechanism
+    (``file``, ``sha256`` and ``facts`` empty). Errors are relative (0.01 = 1 %). ``flames`` are
+    the validation flames, each a dict: ``condition`` (sweep.points.condition_key of the point),
+    ``label``, ``held_out`` (a point of the study), the detailed and skeletal flame speeds [m/s]
+    and the relative ``error`` and ``thickness_error`` (None where a flame did not burn).
+    ``targets``: ``flame_speed``, ``ignition_delay``, ``species_error`` (fractions) and
+    ``species`` (the target species). ``cpu_s``: CPU seconds of each step of the reduction.
+    """
+
+    reduced: bool
+    file: str
+    sha256: str
+    detailed_name: str
+    detailed_path: str
+    detailed_sha256: str
+    detailed_size: tuple[int, int]            # species, reactions
+    species: tuple[str, ...]
+    reactions: int
+    epsilon: float
+    targets: dict
+    ignition_errors: tuple[float, ...]
+    flames: tuple[dict, ...]
+    species_errors: dict[str, float | None]
+    tried: tuple[dict, ...]
+    n_states: int
+    training_runs: int
+    cpu_s: dict[str, float]
+    facts: MechanismFacts | None = field(default=None, repr=False)
+
+    @property
+    def flame_speed_error(self) -> float | None:
+        """The largest measured flame-speed error over the validation flames (None: none measured)."""
+        errs = [f["error"] for f in self.flames if f.get("error") is not None]
+        return max(errs) if errs else None
+
+    @property
+    def thickness_error(self) -> float | None:
+        errs = [f["thickness_error"] for f in self.flames if f.get("thickness_error") is not None]
+        return max(errs) if errs else None
+
+    @property
+    def ignition_delay_error(self) -> float:
+        return max(self.ignition_errors, default=0.0)
+
+    def error_at(self, condition: str) -> float | None:
+        """The measured flame-speed error of the validation flame at ``condition`` (None: not one)."""
+        return next((f["error"] for f in self.flames if f["condition"] == condition and f.get("error") is not None),
+                    None)
+
+    def to_json(self) -> dict:
+        """Plain JSON data (:meth:`from_json` reads it back; ``facts`` without its path, which is
+        the output folder's)."""
+        out = {k: getattr(self, k) for k in ("reduced", "file", "sha256", "detailed_name", "detailed_path",
+                                             "detailed_sha256", "reactions", "epsilon", "targets",
+                                             "species_errors", "n_states", "training_runs", "cpu_s")}
+        return {**out, "detailed_size": list(self.detailed_size), "species": list(self.species),
+                "ignition_errors": list(self.ignition_errors), "flames": list(self.flames), "tried": list(self.tried),
+                "facts": None if self.facts is None else self.facts.to_json()}
+
+    @classmethod
+    def from_json(cls, data: dict, folder: str | Path) -> ReducedMechanism:
+        """The record :meth:`to_json` wrote, its skeletal file in ``folder`` (KeyError, TypeError or
+        ValueError when it is not that)."""
+        facts = MechanismFacts.from_json(data["facts"]) if data.get("facts") else None
+        if facts is not None:
+            facts = replace(facts, path=str(Path(folder) / str(data["file"])))
+        return cls(reduced=bool(data["reduced"]), file=str(data["file"]), sha256=str(data["sha256"]),
+                   detailed_name=str(data["detailed_name"]), detailed_path=str(data["detailed_path"]),
+                   detailed_sha256=str(data["detailed_sha256"]),
+                   detailed_size=(int(data["detailed_size"][0]), int(data["detailed_size"][1])),
+                   species=tuple(str(s) for s in data["species"]), reactions=int(data["reactions"]),
+                   epsilon=float(data["epsilon"]), targets=dict(data["targets"]),
+                   ignition_errors=tuple(float(e) for e in data["ignition_errors"]),
+                   flames=tuple(dict(f) for f in data["flames"]),
+                   species_errors={str(k): None if v is None else float(v) for k, v in data["species_errors"].items()},
+                   tried=tuple(dict(t) for t in data["tried"]), n_states=int(data["n_states"]),
+                   training_runs=int(data["training_runs"]),
+                   cpu_s={str(k): float(v) for k, v in data["cpu_s"].items()}, facts=facts)

@@ -23,6 +23,7 @@ from .sweep.analyses import PER_POINT
 from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, RunInterrupted, solve_points
+from .sweep.skeletal import prepare as prepare_reduction
 from .sweep.stretch import solve_stretch, stretch_rows
 from .sweep.upgrade import upgrade_store
 
@@ -50,6 +51,8 @@ class RunSummary:
     limit_flames: int = 0       # flames the limit searches solved in this run (stored ones not counted)
     stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (the study's [stretch] table)
     stretch_ladders: int = 0    # strained-flame ladders solved in this run
+    study: Study | None = None  # the study as solved: with its skeletal mechanism under [reduction]
+    reduction_note: str = ""    # [reduction]: what happened to the skeletal mechanism (made, reused, why)
 
     @property
     def worker_utilisation(self) -> float | None:
@@ -128,11 +131,13 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
     """
     t0 = time.perf_counter()
     cluster = study.cluster if cluster is None else cluster
-    subs = by_mechanism(study)
     with open_backend(jobs, cluster) as backend:  # an unreachable cluster leaves no folder behind
         out = _out_folder(study, out_dir)
         with RunLock(out), Store(out / DB_NAME) as store:
+            solved, note = prepare_reduction(study, out, store.keys() if study.reduction else set(),
+                                             _reduction_part(progress))
             save_config_copy(study, out)  # the folder alone can redraw its charts, even if this run is killed
+            subs = by_mechanism(solved)
             upgrade_store(store, {s.mechanism_sha256: (s.mechanism_path, s.atoms) for s in subs})
             parts = []
             for i, sub in enumerate(subs):
@@ -159,7 +164,17 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       limits=[r for p in parts for r in p["limits"]],
                       limit_flames=sum(p["limit_flames"] for p in parts),
                       stretch=[r for p in parts for r in p["stretch"]],
-                      stretch_ladders=sum(p["ladders"] for p in parts))
+                      stretch_ladders=sum(p["ladders"] for p in parts), study=solved, reduction_note=note)
+
+
+def _reduction_part(progress: Callable[[Progress], None] | None) -> Callable[[str], None] | None:
+    """The reduction's progress lines as the run's one progress event ('mechanism reduction', the
+    line in ``detail``)."""
+    if progress is None:
+        return None
+    t0 = time.perf_counter()
+    return lambda line: progress(Progress(done=0, total=1, failed=0, no_flame=0, reused=0,
+                                          elapsed_s=time.perf_counter() - t0, what="mechanism reduction", detail=line))
 
 
 def _staged(progress: Callable[[Progress], None] | None, stage: str) -> Callable[[Progress], None] | None:
@@ -239,6 +254,7 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     """
     study = study_or_path if isinstance(study_or_path, Study) else load_study(study_or_path)
     summary = solve_study(study, out, jobs, progress, cluster)
+    study = summary.study or study  # under [reduction], the study with the skeletal mechanism its flames burn
     ds = to_dataset(study, summary.rows)  # made once: results.nc, charts, report and Results share it
     from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
 

@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import itertools
 import json
+import re
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -37,8 +38,8 @@ from .columns import (
     UNITS,
     gas_label,
 )
-from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, resolution_label
-from .design import Ladders, annotate, mechanism_differences, point_warnings, premixer_columns
+from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, reduction_note, resolution_label
+from .design import Ladders, annotate, mechanism_differences, point_warnings, premixer_columns, reduction_columns
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
@@ -47,6 +48,7 @@ from .record_tables import ladders_dataset, limits_dataset
 from .store import DB_NAME, Store
 from .sweep.analyses import PER_POINT
 from .sweep.points import Point, points
+from .sweep.skeletal import applied
 from .sweep.stretch import with_ladders
 from .sweep.upgrade import lacks_readout
 
@@ -60,7 +62,7 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
         "status": Status(stored["status"]) if stored else Status.PENDING,
         "reason": Reason(stored["reason"]) if stored else Reason.NONE,
         "solve_seconds": round(stored["solve_seconds"], 3) if stored else None,
-        "mechanism": study.mechanism, "transport": study.transport,
+        "mechanism": study.mechanism, "mechanism_reduction": reduction_note(study), "transport": study.transport,
         "thermal_diffusion": study.thermal_diffusion, "resolution": resolution_label(study),
         "start": stored["start"] if stored else "",
         "message": stored["message"] if stored else "not solved yet",
@@ -72,6 +74,7 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
         v = metrics.get(name)
         row[col] = None if v is None else v * scale
     row["grid_convergence"] = metrics.get("grid_convergence", "")
+    row.update(reduction_columns(study, p, row))
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
                  "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
                  "emissions_message", "equal_tad", "ladder_consumption_speed_max_m_s",
@@ -85,7 +88,8 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
 #: own properties, its equilibrium and Lewis numbers stay).
 FLAME_ONLY_COLUMNS = ("laminar_flame_speed_m_s", "thermal_thickness_mm", "diffusive_thickness_mm",
                       "reaction_zone_thickness_mm", "expansion_ratio", "flame_speed_numerical_error_percent",
-                      "thermal_thickness_numerical_error_percent", "zeldovich_number")
+                      "thermal_thickness_numerical_error_percent", "zeldovich_number",
+                      "flame_speed_reduction_error_percent", "reduction_error_source")
 
 
 def not_a_flame(row: dict, why: str) -> None:
@@ -157,7 +161,7 @@ def emission_rows(rows: list[dict]) -> list[dict]:
 
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
     """The study of a finished run folder and its rows (every mechanism's), read from the store alone."""
-    study = load_config_copy(out_dir)
+    study = applied(load_config_copy(out_dir), out_dir)  # under [reduction]: the skeletal mechanism it stored
     subs = by_mechanism(study)
     rows, unmatched = [], []
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
@@ -213,7 +217,7 @@ def comparison_of(study: Study, rows: list[dict], limits: Sequence[dict] = ()) -
 DATASET_EXTRA = ("reason",)
 
 #: Columns that hold one value for the whole study: global attributes of the dataset.
-STUDY_WIDE = ("blend_with", "mechanism", "transport", "thermal_diffusion", "resolution")
+STUDY_WIDE = ("blend_with", "mechanism", "mechanism_reduction", "transport", "thermal_diffusion", "resolution")
 
 
 def _is_text(col: str) -> bool:
@@ -333,7 +337,35 @@ def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     note = lumping_note(study)
     if note:
         ds.attrs["lumped_fuel"] = note
+    ds.attrs.update(reduction_attributes(study))
     return ds
+
+
+def reduction_attributes(study: Study) -> dict:
+    """results.nc's global attributes of a [reduction] study: the skeletal mechanism's size and hash,
+    and its largest measured errors [%] (those not measured left out); {} without [reduction]."""
+    r = study.reduced
+    if r is None:
+        return {}
+    out: dict = {"reduction_applied": "true" if r.reduced else "false (no skeletal mechanism met every target)",
+                 "reduction_detailed_sha256": r.detailed_sha256, "reduction_detailed_species": r.detailed_size[0],
+                 "reduction_detailed_reactions": r.detailed_size[1],
+                 "reduction_ignition_delay_error_percent": 100.0 * r.ignition_delay_error,
+                 "reduction_ignition_points": len(r.ignition_errors),
+                 "reduction_validation_flames": sum(f.get("error") is not None for f in r.flames),
+                 "reduction_flame_speed_target_percent": 100.0 * r.targets["flame_speed"],
+                 "reduction_ignition_delay_target_percent": 100.0 * r.targets["ignition_delay"]}
+    if r.reduced:
+        out.update(reduction_skeletal_species=len(r.species), reduction_skeletal_reactions=r.reactions,
+                   reduction_skeletal_sha256=r.sha256, reduction_skeletal_file=r.file)
+    if r.flame_speed_error is not None:
+        out["reduction_flame_speed_error_percent"] = 100.0 * r.flame_speed_error
+    if r.thickness_error is not None:
+        out["reduction_thermal_thickness_error_percent"] = 100.0 * r.thickness_error
+    for sp, e in r.species_errors.items():
+        if e is not None:
+            out[f"reduction_{re.sub(r'[^A-Za-z0-9_]', '_', sp)}_error_percent"] = 100.0 * e
+    return out
 
 
 #: (axis fitted along, axis held fixed, name of the exponent) of power_law_exponents.csv

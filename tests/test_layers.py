@@ -16,7 +16,7 @@ LAYERS = (
     ("store",),        # SQLite store, migrations, run lock
     ("sweep",),        # points, warm-start tree, scheduler, worker task, backends, run loop
     ("design",),       # indicators, margins, verdicts, warnings from stored flames
-    ("results", "record_tables"),  # rows and the labelled tables (xarray)
+    ("results", "record_tables"),  # rows and the labelled table (xarray); the limits and ladders as tables
     ("admissible",),   # limit searches: admissible blend fraction, equivalence-ratio window
     ("outputs",),      # CSV, netCDF, charts, report
     ("pipeline",),     # run(), open_results()

@@ -1,7 +1,8 @@
 """Skeletal mechanisms reduced for a study's own conditions, with their ignition-delay error measured.
 
-Conditions           a grid of equivalence ratios, temperatures and pressures (the sampled states)
-between              the conditions half-way between neighbouring grid values (a validation set)
+Conditions           a grid of equivalence ratios, temperatures and pressures (the sampled states;
+                     physics.sampling, with between: the conditions half-way between neighbouring
+                     grid values, a validation set)
 ignition_states      reacting states along constant-pressure autoignition trajectories
 stoichiometry        net stoichiometric and participation matrices of a mechanism (sparse)
 direct_interactions  DRGEP's direct interaction coefficients r_AB at one state
@@ -13,6 +14,7 @@ kept_species         the species of a skeletal mechanism at threshold epsilon
 skeletal_solution    the skeletal mechanism as a Cantera Solution (transport data kept)
 write_mechanism      its Cantera YAML, written deterministically; mechanism_sha256 its hash
 ignition_delays      constant-pressure ignition delays (peak dT/dt)
+candidates           the distinct skeletal species sets of a threshold ladder, smallest first
 reduce_for_ignition  the smallest skeletal mechanism on an epsilon ladder whose largest
                      ignition-delay error on a validation set stays within a target
 
@@ -38,7 +40,6 @@ and the reactions all of whose reactants and products are kept.
 from __future__ import annotations
 
 import hashlib
-import itertools
 import json
 import math
 import os
@@ -56,6 +57,7 @@ from scipy import sparse
 from scipy.sparse.csgraph import dijkstra
 
 from ..physics import mixtures
+from ..physics.sampling import Composition, Conditions, Point, between, composition  # noqa: F401 - re-exported
 
 #: Species kept whatever their coefficients: the usual inert diluents, where present.
 INERTS = ("N2", "AR", "HE")
@@ -76,70 +78,6 @@ CHAIN_CARRIERS = ("H",)
 MAX_RISE_K = 4000.0
 #: At most this many reactor steps per trajectory.
 MAX_STEPS = 200000
-
-Composition = tuple[tuple[str, float], ...]  # (species, mole fraction), sorted by name
-Point = tuple[Composition, Composition, float, float, float]  # fuel, oxidizer, phi [-], T [K], p [Pa]
-
-
-def composition(X: Mapping[str, float]) -> Composition:
-    """A fuel or oxidizer as a sorted tuple of (species, mole fraction), normalised (hashable).
-
-    >>> composition({"O2": 1.0, "N2": 3.0})
-    (('N2', 0.75), ('O2', 0.25))
-    """
-    return tuple(sorted(mixtures.normalize(X).items()))
-
-
-@dataclass(frozen=True)
-class Conditions:
-    """A grid of initial states: every combination of ``fuels`` and ``oxidizers`` (mole
-    fractions), ``phis`` [-], ``temperatures_K`` [K] and ``pressures_Pa`` [Pa]."""
-    fuels: tuple[Mapping[str, float], ...]
-    oxidizers: tuple[Mapping[str, float], ...]
-    phis: tuple[float, ...]
-    temperatures_K: tuple[float, ...]
-    pressures_Pa: tuple[float, ...]
-
-    def points(self) -> list[Point]:
-        """The grid's (fuel, oxidizer, phi, T [K], p [Pa]) points, fuel slowest."""
-        return list(itertools.product([composition(f) for f in self.fuels], [composition(o) for o in self.oxidizers],
-                                      self.phis, self.temperatures_K, self.pressures_Pa))
-
-
-def _midpoints(values: Sequence[float], geometric: bool) -> tuple[float, ...]:
-    v = sorted(set(float(x) for x in values))
-    if len(v) == 1:
-        return (v[0],)
-    if geometric:
-        return tuple(math.sqrt(a * b) for a, b in zip(v, v[1:]))
-    return tuple(0.5 * (a + b) for a, b in zip(v, v[1:]))
-
-
-def _mean(a: Mapping[str, float], b: Mapping[str, float]) -> dict[str, float]:
-    """The fuel half-way between two (the equimolar mix of the two streams)."""
-    A, B = dict(composition(a)), dict(composition(b))
-    return {k: 0.5 * (A.get(k, 0.0) + B.get(k, 0.0)) for k in sorted(set(A) | set(B))}
-
-
-def between(training: Conditions) -> Conditions:
-    """Validation conditions half-way between neighbouring training values: arithmetic
-    means of equivalence ratios and temperatures, geometric means of pressures (delays
-    scale as a power of p), equimolar mixes of neighbouring fuels in their given order
-    (a blend ladder gives the blends between). Oxidizers and an axis with one value are
-    kept; at least one axis must have two values, so that no validation point is a
-    training point.
-
-    >>> c = between(Conditions(({"CH4": 1},), ({"O2": 1, "N2": 3.76},), (0.7, 1.3), (1400.0,), (1e5, 1e6)))
-    >>> [p[2:] for p in c.points()]
-    [(1.0, 1400.0, 316227.7660168379)]
-    """
-    if len(training.fuels) < 2 and all(len(set(v)) < 2 for v in (training.phis, training.temperatures_K,
-                                                                  training.pressures_Pa)):
-        raise ValueError("the training conditions have one value on every axis: nothing lies between them")
-    fuels = tuple(_mean(a, b) for a, b in zip(training.fuels, training.fuels[1:])) or training.fuels
-    return Conditions(fuels, training.oxidizers, _midpoints(training.phis, False),
-                      _midpoints(training.temperatures_K, False), _midpoints(training.pressures_Pa, True))
-
 
 @dataclass(frozen=True)
 class States:
@@ -538,7 +476,8 @@ class Reduction:
         return self.chosen.epsilon > 0
 
 
-def _candidates(importance: Mapping[str, float], always: Sequence[str], ladder: Sequence[float]):
+def candidates(importance: Mapping[str, float], always: Sequence[str],
+               ladder: Sequence[float]) -> Iterable[tuple[float, tuple[str, ...]]]:
     """(epsilon, species) for each distinct species set of the ladder, smallest first."""
     seen: set[tuple[str, ...]] = set()
     for eps in sorted(ladder, reverse=True):
@@ -554,7 +493,7 @@ def _search(gas: ct.Solution, importance: Mapping[str, float], always: Sequence[
     ``points`` (against the ``reference`` delays [s]) is within ``target``, and every
     candidate tried; None first when none is."""
     tried = []
-    for eps, species in _candidates(importance, always, ladder):
+    for eps, species in candidates(importance, always, ladder):
         skeletal = skeletal_solution(gas, species)
         start = time.process_time()
         tau = ignition_delays(skeletal, points, 10.0 * reference)

@@ -9,7 +9,7 @@ from ..admissible.driver import LimitsPlan, Mixture, planned_searches
 from ..admissible.words import kept
 from ..chemistry.flame import NUMERICS
 from ..chemistry.strained import MAX_SOLVES
-from ..config import by_mechanism, load_study, lumping_note
+from ..config import by_mechanism, load_study, lumping_note, reduction_note, with_reduction
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
@@ -28,6 +28,7 @@ from ..sweep.schedule import (
     point_scales,
     pressure_cost,
 )
+from ..sweep.skeletal import estimate as reduction_estimate, stored as stored_reduction
 from ..sweep.stretch import ladder_time_limit, stretch_key, stretch_points
 from ..sweep.warm_tree import warm_tree
 from .progress import duration, plural
@@ -37,6 +38,12 @@ if TYPE_CHECKING:
     from ..config import Study
     from ..sweep.points import Point
     from ..sweep.warm_tree import WarmPlan
+
+#: Measured cost of a reduction (docs/benchmarks.md, "Mechanism reduction").
+REDUCTION_MEASURED = ("measured on 2 busy cores (methane-air, GRI-Mech 3.0, 16 autoignitions, 4 validation flames): 61 s "
+                      "at coarse and 157 s at standard resolution, nearly all of it the validation flames; then each "
+                      "flame 2.4-2.8 times faster")
+
 
 def cmd_check(args: argparse.Namespace) -> int:
     study = load_study(args.config)
@@ -55,6 +62,7 @@ def cmd_check(args: argparse.Namespace) -> int:
     print(f"Unburned temperature [K]: {', '.join(f'{v:g}' for v in study.unburned_temperatures_K)}")
     print_gases(study)
     print_burner(study)
+    study, reduction_s, keys = _reduction(study, out, keys, args.jobs)
     subs = by_mechanism(study)
     if len(subs) > 1:
         print(f"Mechanisms compared: {len(subs)}, each solving the whole sweep ({study.n_points} flames in all); "
@@ -62,7 +70,7 @@ def cmd_check(args: argparse.Namespace) -> int:
     seconds = [_plan(sub, out, keys, args.jobs) for sub in subs]
     writing = output_seconds(study.n_points * len(subs))
     print(f"Writing the outputs (CSV, netCDF, charts, report): about {duration(writing)}")
-    print(_total_line(sum(seconds) + writing, resolve_jobs(args.jobs), len(subs)))
+    print(_total_line(sum(seconds) + writing + reduction_s, resolve_jobs(args.jobs), len(subs)))
     return 0
 
 
@@ -71,13 +79,33 @@ def whole_run_seconds(study: Study, out: Path, jobs: int | None) -> float:
     mechanism, writing the outputs), without its printing or the read-out of the stored points:
     `run` announces it."""
     keys = stored_keys(out / DB_NAME)
+    study, reduction_s, keys = _reduction(study, out, keys, jobs, quiet=True)
     subs = by_mechanism(study)
-    total = output_seconds(study.n_points * len(subs))
+    total = reduction_s + output_seconds(study.n_points * len(subs))
     for sub in subs:
         pts, todo, tree, timings = _sweep_plan(sub, out, keys)
         total += (_estimate_line(sub, pts, tree, timings, jobs)[1] if todo else 0.0)
         total += sum(t for _, t in _extras(sub, pts, keys, timings, jobs, todo))
     return total
+
+
+def _reduction(study: Study, out: Path, keys: set, jobs: int | None, quiet: bool = False) -> tuple[Study, float, set]:
+    """[reduction]: the study with the stored skeletal mechanism when the folder holds the one this
+    study asks for (then nothing to estimate), else the reduction's estimate line and seconds, and
+    no stored flame (a new mechanism is a new key: every flame is solved again)."""
+    if study.reduction is None:
+        return study, 0.0, keys
+    record, why = stored_reduction(study, out)
+    if record is not None:
+        if not quiet:
+            print(f"Mechanism reduction: stored in {out}, reused. {reduction_note(with_reduction(study, record))}")
+        return with_reduction(study, record), 0.0, keys
+    what, t = reduction_estimate(study)
+    if not quiet:
+        print(f"{what}: about {duration(t)} in one process ({why}); {REDUCTION_MEASURED}. The skeletal mechanism's "
+              "size is known only once it is made: the sweep below is estimated with the detailed mechanism's (an "
+              "upper bound), and every point is to solve, since a new mechanism is a new key")
+    return study, t, set()
 
 
 def _total_line(t: float, jobs: int, n_mechanisms: int) -> str:

@@ -7,6 +7,7 @@ from pathlib import Path
 from ..config import STUDY_COPY, by_mechanism, load_config_copy
 from ..errors import StoreError
 from ..store import DB_NAME, RunLock, Store
+from ..sweep.skeletal import applied
 from ..sweep.upgrade import upgrade_store
 
 
@@ -15,7 +16,7 @@ def cmd_compact(args: argparse.Namespace) -> int:
     path = folder / DB_NAME
     if not path.is_file():
         raise StoreError(f"{folder} holds no results store ({DB_NAME} missing); give the output folder of a run")
-    subs = by_mechanism(load_config_copy(folder)) if (folder / STUDY_COPY).is_file() else []
+    subs = by_mechanism(applied(load_config_copy(folder), folder)) if (folder / STUDY_COPY).is_file() else []
     with RunLock(folder), Store(path) as store:  # refused while a run writes the folder; migrates after a backup
         upgraded, copy = upgrade_store(store, {s.mechanism_sha256: (s.mechanism_path, s.atoms) for s in subs})
         before, after = store.compact()

@@ -96,6 +96,9 @@ class ProgressDisplay:
     def _part_line(self, pr: Progress, left_text: str) -> None:
         """A plain line for the extra solves and the limit searches (also on a terminal: they come
         after the sweep's bar), with the elapsed time and the time left."""
+        if pr.what == "mechanism reduction":  # a few lines, each a step of the one reduction
+            print(f"flamecharts: mechanism reduction: {pr.detail}", file=self.stream, flush=True)
+            return
         if self._last_line_t is None:
             self._last_line_t = time.monotonic()
         elif not self._due(pr):

@@ -10,7 +10,7 @@ from typing import TYPE_CHECKING
 
 from ..admissible.words import kept, limit_sentence, search_flames
 from ..columns import gas_label
-from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note
+from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note, reduction_note
 from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences, not_assessed_summary
 from ..outcome import Status
 from ..pipeline import RunSummary, default_out_dir, run
@@ -60,6 +60,7 @@ def cmd_run(args: argparse.Namespace) -> int:
           + (f"{summary.autoignition} autoigniting, " if summary.autoignition else "")
           + f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
           f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
+    _print_reduction(summary)
     if summary.failed:
         reasons = Counter(r["reason"] for r in summary.rows if r["status"] == Status.FAILED)
         print(f"{summary.failed} failed: " + ", ".join(f"{n} {why}" for why, n in sorted(reasons.items())))
@@ -82,9 +83,9 @@ def cmd_run(args: argparse.Namespace) -> int:
               "them; column 'criteria_not_assessed'):")
         for g in gaps:
             print(f"  {g['criterion']} at {g['points']} of {g['of']} flames, e.g. {g['example']}")
-    note = lumping_note(study)
-    if note:
+    if note := lumping_note(study):
         print(note)
+    study = summary.study or study  # under [reduction]: with the skeletal mechanism the flames burn
     subs = by_mechanism(study)
     for i, sub in enumerate(subs):  # a study comparing mechanisms: each one's read-out in turn
         rows = rows_of(sub, summary.rows)
@@ -112,6 +113,25 @@ def cmd_run(args: argparse.Namespace) -> int:
     print("Screening estimates, not certification: follow local codes and the applicable standards; "
           "confirm by test.")
     return 0
+
+
+def _print_reduction(summary: RunSummary) -> None:
+    """[reduction]: what happened to the skeletal mechanism (made, reused, why, whether the flames are
+    solved again), what it is, and its measured error at each validation flame."""
+    study = summary.study
+    if study is None or study.reduced is None:
+        return
+    print(summary.reduction_note)
+    print(reduction_note(study))
+    r = study.reduced
+    measured = [f for f in r.flames if f.get("error") is not None]
+    if r.reduced and measured:
+        print("Reduction band of S_L (results.csv flame_speed_reduction_error_percent; the largest where a point was "
+              "not a validation flame), measured against the detailed mechanism at:")
+        for f in measured[:12]:
+            print(f"  {f['label']}{'' if f['held_out'] else ' (beside the sweep)'}: "
+                  f"{100 * f['detailed_m_s']:.4g} cm/s detailed, {100 * f['skeletal_m_s']:.4g} skeletal, "
+                  f"{100 * f['error']:.2g} %")
 
 
 def _print_limits(study: Study, summary: RunSummary) -> None:

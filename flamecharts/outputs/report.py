@@ -20,7 +20,7 @@ import xarray as xr
 from .._version import __version__, installed_cantera_version
 from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, search_flames, unassessed
 from ..columns import CAUTION, gas_label
-from ..config import lumping_note, resolution_label
+from ..config import detailed_path, lumping_note, reduction_note, resolution_label
 from ..design import (
     burner_flow_words,
     error_bar_sentence,
@@ -304,6 +304,10 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
     note = lumping_note(study)
     if note:
         parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
+    if study.reduced is not None:
+        parts.append(f"<div class='caution'><b>Reduced mechanism.</b> {_e(reduction_note(study))} Each flame's "
+                     "reduction band is in results.csv (flame_speed_reduction_error_percent) and under How sure, below."
+                     "</div>")
     b = study.burner
     if b is not None:
         how = burner_flow_words(b)
@@ -628,6 +632,14 @@ def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str
     return parts
 
 
+def _span_text(values: list[float]) -> str:
+    """'0.3-1.2' (one value when both ends print alike; '' when there is none)."""
+    if not values:
+        return ""
+    lo, hi = f"{min(values):.2g}", f"{max(values):.2g}"
+    return lo if lo == hi else f"{lo}-{hi}"
+
+
 def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison | None = None) -> list[str]:
     """How sure the flame speeds are: per gas and condition the point nearest φ 1 with its
     numerical band and, with [uncertainty], its kinetic band and most sensitive reaction."""
@@ -640,10 +652,11 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
         near = min(rs, key=lambda r: (abs(r["equivalence_ratio"] - 1.0), r["equivalence_ratio"]))
         kin = [r["flame_speed_kinetic_uncertainty_percent"] for r in rs
                if r.get("flame_speed_kinetic_uncertainty_percent") is not None]
+        red = [r["flame_speed_reduction_error_percent"] for r in rs
+               if r.get("flame_speed_reduction_error_percent") is not None]
         table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", error_bar_sentence(near),
                       f"{max(r['flame_speed_numerical_error_percent'] for r in rs):.2g}",
-                      (f"{min(kin):.2g}" if f"{min(kin):.2g}" == f"{max(kin):.2g}" else f"{min(kin):.2g}-{max(kin):.2g}")
-                      if kin else ""])
+                      _span_text(red), _span_text(kin)])
     table, more = _first(table, "results.csv")
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
@@ -669,8 +682,12 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                "against measurements is the better check.</p>"
                if kinetics and u is not None else
                "<p>Add an [uncertainty] table to the study for the kinetic band (one adjoint solve per point).</p>"),
-            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
-                    "kinetic band, 1σ [%]"], table, {1, 2, 4, 5}) + more]
+            *([f"<p><b>Reduction.</b> {_e(reduction_note(study))} The band of a point is its own measured error "
+                "where it was a validation flame, else the largest over them; it is the skeletal mechanism's "
+                "difference from the detailed one, beside (not inside) the detailed mechanism's kinetic band.</p>"]
+              if study.reduced is not None else []),
+            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]", "reduction band [%]",
+                    "kinetic band, 1σ [%]"], table, {1, 2, 4, 5, 6}) + more]
 
 
 def _response_section(study: Study, rows: list[dict]) -> list[str]:
@@ -829,7 +846,8 @@ def _provenance(study: Study, comparison: Comparison | None) -> list[str]:
     n = NUMERICS[study.resolution]
     return ["<h2>Provenance</h2>", _table(["", ""], [
         *([["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
-           ["mechanism built for", mechanism_scope(study.mechanism_path)],
+           ["mechanism built for", mechanism_scope(detailed_path(study))],
+           *([["mechanism reduction", reduction_note(study)]] if study.reduced is not None else []),
            ["mechanism sha256", study.mechanism_sha256]] if comparison is None else
           [[f"mechanism {i + 1}" + (" (reference)" if i == 0 else ""),
             f"{s.mechanism} ({s.mechanism_path}, sha256 {s.mechanism_sha256})"] for i, s in enumerate(comparison.studies)]),

@@ -16,7 +16,7 @@ from pathlib import Path
 
 from .._version import __version__, installed_cantera_version
 from ..columns import CAUTION, COLUMNS
-from ..config import Study, Uncertainty, lumping_note, resolution_label
+from ..config import Study, Uncertainty, lumping_note, reduction_note, resolution_label
 from ..numerics import NUMERICS
 
 
@@ -67,14 +67,22 @@ def uncertainty_settings(u: Uncertainty) -> str:
             f"{'yes' if u.error_bars else 'no'}; the study's own factors: {own or 'none'}")
 
 
+def _mechanism_line(study: Study) -> str:
+    """'Mechanism: NAME (file, sha256 ...)'; under [reduction] the skeletal file and the detailed one."""
+    r = study.reduced
+    if r is not None and r.reduced:
+        return (f"Mechanism: {study.mechanism}, reduced to {study.mechanism_path} (sha256 {study.mechanism_sha256}) "
+                f"from {r.detailed_path} (sha256 {r.detailed_sha256})")
+    return f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256})"
+
+
 def write_about(study: Study, path: Path) -> Path:
     """about.txt beside the CSV: what produced it, with the cautions."""
     n = NUMERICS[study.resolution]
     lines = [
         f"Study: {study.title}",
         f"Config: {study.config_path or '(from Python)'}",
-        *([f"Mechanism: {study.mechanism} ({study.mechanism_path}, sha256 {study.mechanism_sha256})"]
-          if not study.mechanisms else
+        *([_mechanism_line(study)] if not study.mechanisms else
           [f"Mechanisms compared ({len(study.mechanisms)}; the first is the reference of the design charts):"]
           + [f"  {m.name} ({m.path}, sha256 {m.sha256})" for m in study.mechanisms]),
         f"Transport: {study.transport}; thermal diffusion: {'on' if study.thermal_diffusion else 'off'}",
@@ -83,6 +91,7 @@ def write_about(study: Study, path: Path) -> Path:
         f"flamecharts {__version__}, Cantera {installed_cantera_version()}; written {time.strftime('%Y-%m-%d %H:%M:%S %Z')}",
         "",
         *([note, ""] if (note := lumping_note(study)) else []),
+        *([reduction_note(study), ""] if study.reduced is not None else []),
         "CAUTION: " + CAUTION,
         "",
     ]

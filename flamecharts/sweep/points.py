@@ -149,6 +149,13 @@ def points(study: Study) -> list[Point]:
     return out
 
 
+def condition_key(p: Point) -> str:
+    """The point's mixture and state alone (fuel stream, oxidizer, phi, p, T_u; no mechanism, no
+    settings, no names): the same under the detailed and a skeletal mechanism, so a [reduction]'s
+    validation flame is found among the study's points (sweep.skeletal)."""
+    return _hash({k: p.inputs[k] for k in ("fuel", "oxidizer", "phi", "pressure_bar", "T_u")})
+
+
 def point_at_phi(study: Study, p: Point, phi: float, index: int = 0) -> Point:
     """The point of ``p``'s gas, oxidizer, pressure and preheat at another equivalence ratio
     (its key is the one a swept point of that mixture would have)."""

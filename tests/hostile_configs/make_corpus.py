@@ -274,6 +274,18 @@ CASES = {
                                           config(tail='\n[stretch]\npressure_bar = [1.0]\n')),
     "stretch_fuel_not_swept": (["stretch.fuel", "'diluted'"],
                                config(tail='\n[stretch]\nequivalence_ratio = [1.0]\nfuel = ["diluted"]\n')),
+    "reduction_target_out_of_range": (["reduction.flame_speed_error_percent", "0.1 to 20"],
+                                      config(tail='\n[reduction]\nflame_speed_error_percent = 50\n')),
+    "reduction_unknown_species": (["reduction.species", "'CH4'", "h2o2.yaml"],
+                                  config(tail='\n[reduction]\nspecies = ["CH4"]\n')),
+    "reduction_unknown_key": (["reduction.target", "allowed"], config(tail='\n[reduction]\ntarget = 1\n')),
+    "reduction_validation_flames_negative": (["reduction.validation_flames", "0 to 12"],
+                                             config(tail='\n[reduction]\nvalidation_flames = -1\n')),
+    "reduction_with_two_mechanisms": (["[reduction] reduces one mechanism", "lists 2"],
+                                      config(head='title = "two"\nmechanism = ["h2o2.yaml", "gri30.yaml"]\n',
+                                             tail='\n[reduction]\n')),
+    "reduction_not_a_table": (["'reduction' must be a table"],
+                              config(head=BASE["head"] + 'reduction = 1\n')),
 }
 
 

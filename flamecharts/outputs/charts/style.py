@@ -36,9 +36,19 @@ def panels(rows: list[dict]) -> list[tuple[float, float]]:
     return sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in rows})
 
 
+def _reduced_words(study: Study) -> str:
+    """' (skeletal: 31 of 53 species, S_L within 0.36 %)' under [reduction] ('' otherwise)."""
+    r = study.reduced
+    if r is None or not r.reduced:
+        return ""
+    speed = r.flame_speed_error
+    return (f" (skeletal: {len(r.species)} of {r.detailed_size[0]} species, "
+            + (f"S_L within {100 * speed:.2g} %)" if speed is not None else "S_L error not measured)"))
+
+
 def footer(fig: Figure, study: Study) -> None:
     fig.text(0.01, 0.01,
-             f"{study.title} | mechanism {study.mechanism} | transport {study.transport}"
+             f"{study.title} | mechanism {study.mechanism}{_reduced_words(study)} | transport {study.transport}"
              f"{' + thermal diffusion' if study.thermal_diffusion else ''} | resolution "
              f"{resolution_label(study)} | flamecharts {__version__}\n"
              + (f"Flames burn a lumped fuel: {', '.join(lumped_species(study))} stand in as mechanism species "
