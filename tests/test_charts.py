@@ -184,7 +184,7 @@ def _green_of_window(fb, bo, need: float) -> list:
     burner = SimpleNamespace(min_flashback_margin=need, min_blowoff_margin=need, name="test burner",
                              on_stabilizer=False, blowoff=("blowoff_margin", need, "blowoff"))
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
-                            thermal_diffusion=False, resolution="standard", analysis_atoms={})
+                            thermal_diffusion=False, resolution="standard", analysis_atoms={}, reduced=None)
     ax = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study).axes[0]
     return [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
             and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
