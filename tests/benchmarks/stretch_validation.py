@@ -35,17 +35,22 @@ from flamecharts.chemistry.strained import markstein_number_from_strain, twin_fl
 CASES = {"ch4_0.6": ({"CH4": 1.0}, 0.6), "ch4_1.0": ({"CH4": 1.0}, 1.0), "ch4h2_0.6": ({"CH4": 0.7, "H2": 0.3}, 0.6)}
 
 
-def case(name: str) -> dict:
+def free_flame(name: str, slope: float, curve: float) -> tuple[ct.Solution, dict, float, float]:
+    """(gas, fresh mole fractions, S_L [m/s], T_ad [K]) of one case's free flame, 300 K, 1 atm."""
     fuel, phi = CASES[name]
     gas = ct.Solution("gri30.yaml")
     gas.set_equivalence_ratio(phi, fuel, {"O2": 1.0, "N2": 3.76})
     gas.TP = 300.0, ct.one_atm
     X = gas.mole_fraction_dict()
-    t0 = time.perf_counter()
     f = ct.FreeFlame(gas, width=0.03)
-    f.set_refine_criteria(ratio=3, slope=0.06, curve=0.12)
+    f.set_refine_criteria(ratio=3, slope=slope, curve=curve)
     f.solve(loglevel=0, auto=True)
-    S_L, T_ad = float(f.velocity[0]), float(f.T[-1])
+    return gas, X, float(f.velocity[0]), float(f.T[-1])
+
+
+def case(name: str) -> dict:
+    t0 = time.perf_counter()
+    gas, X, S_L, T_ad = free_flame(name, 0.06, 0.12)
     t1 = time.perf_counter()
     ladder = twin_flame_ladder(gas, 300.0, ct.one_atm, X, S_L, T_ad, time_limit_s=3600.0)  # full ladder
     out = {"S_L_m_s": S_L, "extinction_strain_rate_1_s": ladder["extinction_strain_rate_1_s"],
@@ -66,16 +71,9 @@ SCREENING = dict(refine=dict(ratio=4.0, slope=0.2, curve=0.4, prune=0.05), first
 
 def screening_case(name: str) -> tuple[float, float, float]:
     """(last burning, first extinguished) strain rate [1/s] and seconds of one case's screening ladder."""
-    fuel, phi = CASES[name]
-    gas = ct.Solution("gri30.yaml")
-    gas.set_equivalence_ratio(phi, fuel, {"O2": 1.0, "N2": 3.76})
-    gas.TP = 300.0, ct.one_atm
-    X = gas.mole_fraction_dict()
     t0 = time.perf_counter()
-    f = ct.FreeFlame(gas, width=0.03)
-    f.set_refine_criteria(ratio=3, slope=0.1, curve=0.2)
-    f.solve(loglevel=0, auto=True)
-    out = twin_flame_ladder(gas, 300.0, ct.one_atm, X, float(f.velocity[0]), float(f.T[-1]), **SCREENING)
+    gas, X, S_L, T_ad = free_flame(name, 0.1, 0.2)
+    out = twin_flame_ladder(gas, 300.0, ct.one_atm, X, S_L, T_ad, **SCREENING)
     return out["extinction_strain_rate_1_s"], out["extinguished_above_1_s"], time.perf_counter() - t0
 
 
