@@ -1051,9 +1051,13 @@ def premixer_unassessed(study: Study, row: dict) -> dict[str, str]:
         out["boundary-layer flashback"] = str(row.get("boundary_layer_flashback_status") or "").removeprefix(
             "not assessed: ")
     if row.get("extinction_blowout_margin") is None:
-        src = row.get("extinction_strain_source")
-        out["blowout"] = ("no ladder at this gas, pressure and preheat: [stretch] selects none" if src in (None, NO_LADDER)
-                          else "no stabilizer in [burner]: stabilizer_size_mm and approach_velocity_m_s give d and U_edge")
+        # no comma in these reasons: summaries split a list of reasons at commas
+        why = []
+        if not b.on_stabilizer:
+            why.append("no stabilizer in [burner] (stabilizer_size_mm and approach_velocity_m_s give d and U_edge)")
+        if row.get("extinction_strain_source") in (None, NO_LADDER):
+            why.append("no ladder at this gas and pressure and preheat: [stretch] selects none")
+        out["blowout"] = " and ".join(why) or "no extinction strain rate at this point"
     return out
 
 

@@ -158,7 +158,9 @@ def test_the_premixers_verdict_counts_its_own_criteria_where_assessed():
     turbulent = {**ROW, "port_velocity_m_s": 40.0, "core_flashback_margin": 1.2}
     premixer_margins(_study(), [turbulent])
     assert turbulent["verdict"] == ("core-flow flashback risk; boundary-layer flashback and blowout not assessed")
-    assert "blowout: no ladder at this gas, pressure and preheat" in turbulent["criteria_not_assessed"]
+    # both reasons named, without a comma (summaries split a list of reasons at commas)
+    assert ("blowout: no stabilizer in [burner] (stabilizer_size_mm and approach_velocity_m_s give d and U_edge) and "
+            "no ladder at this gas and pressure and preheat: [stretch] selects none") in turbulent["criteria_not_assessed"]
     turbulent["core_flashback_margin"] = 3.0
     assert premixer_verdict(_study(), turbulent) == ("ok on core-flow flashback only; boundary-layer flashback and "
                                                      "blowout not assessed")

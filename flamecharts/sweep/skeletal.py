@@ -233,6 +233,9 @@ def _effective_sha(study: Study, record: ReducedMechanism) -> str:
 
 
 def _summary(r: ReducedMechanism) -> str:
+    if not r.reduced and not r.tried:  # every species needed at some threshold: nothing smaller to try
+        return ("no smaller mechanism to try: every candidate of the threshold ladder kept all the species the "
+                "targets need; the detailed mechanism is used")
     if not r.reduced:
         return "no skeletal mechanism met every target: the detailed mechanism is used"
     speed = r.flame_speed_error
