@@ -427,6 +427,13 @@ def ignition_delays(gas: ct.Solution, points: Sequence[Point], t_max_s: float | 
     return np.array(out)
 
 
+def delay_errors(skeletal: ct.Solution, points: Sequence[Point], reference: np.ndarray) -> tuple[float, ...]:
+    """|tau / tau_ref - 1| of a candidate's ignition delays at ``points`` against the detailed
+    mechanism's ``reference`` delays [s] (each integrated up to 10 times its reference)."""
+    tau = ignition_delays(skeletal, points, 10.0 * reference)
+    return tuple(float(abs(t / t_ref - 1.0)) for t, t_ref in zip(tau, reference))
+
+
 def epsilon_ladder(high: float = 0.5, low: float = 1e-4, per_decade: int = 6) -> tuple[float, ...]:
     """Thresholds from ``high`` down to ``low``, ``per_decade`` per factor 10 (geometric).
 
@@ -496,8 +503,7 @@ def _search(gas: ct.Solution, importance: Mapping[str, float], always: Sequence[
     for eps, species in candidates(importance, always, ladder):
         skeletal = skeletal_solution(gas, species)
         start = time.process_time()
-        tau = ignition_delays(skeletal, points, 10.0 * reference)
-        errors = tuple(float(abs(t / t_ref - 1.0)) for t, t_ref in zip(tau, reference))
+        errors = delay_errors(skeletal, points, reference)
         tried.append(Candidate(eps, species, skeletal.n_reactions, errors, time.process_time() - start))
         if tried[-1].max_error <= target:
             return tried[-1], tuple(tried)

@@ -39,6 +39,7 @@ from .reduction import (
     Point,
     always_kept,
     candidates,
+    delay_errors,
     epsilon_ladder,
     ignition_delays,
     ignition_states,
@@ -278,19 +279,19 @@ def _search(gas: ct.Solution, importance: dict[str, float], always: Sequence[str
     """The first candidate of the ladder, smallest first, within every target: (epsilon, species,
     its Solution, its flames, its ignition-delay errors); None when none is. And every candidate tried."""
     tried: list[Tried] = []
+    checking = flames if flames is not None and flames.cases else None  # flames to check candidates on
     for eps, species in candidates(importance, always, ladder):
         skeletal = skeletal_solution(gas, species)
-        tau = ignition_delays(skeletal, points, 10.0 * reference)
-        ign = [float(abs(t / t_ref - 1.0)) for t, t_ref in zip(tau, reference)]
+        ign = list(delay_errors(skeletal, points, reference))
         report(f"{len(species)} species: ignition delays within {100 * max(ign, default=0):.2g} %")
         if max(ign, default=0.0) > targets.ignition_delay:
             tried.append(_tried(eps, species, skeletal, ign, [], None, targets,
                                 f"ignition delay {100 * max(ign):.2g} %"))
             continue
-        mine, why = flames.check(skeletal) if flames is not None and flames.cases else ([], "")
-        ref = flames.reference() if flames is not None and flames.cases else None
+        mine, why = checking.check(skeletal) if checking else ([], "")
+        ref = checking.reference() if checking else None
         tried.append(_tried(eps, species, skeletal, ign, mine, ref, targets, why))
-        if flames is not None and flames.cases:
+        if checking:
             report(f"{len(species)} species: flames " + (f"refused ({why})" if why else "within the targets"))
         if not why:
             return (eps, species, skeletal, mine, ign), tried
