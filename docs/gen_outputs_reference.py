@@ -18,6 +18,7 @@ import numpy as np
 import xarray as xr
 
 from flamecharts import columns as K
+from flamecharts.analyses import parts
 from flamecharts.config import STUDY_COPY
 from flamecharts.outcome import Status
 from flamecharts.outputs.charts import CHARTS
@@ -89,8 +90,9 @@ GROUPS = {
                                 "[stretch] ladder burned at the point's gas, pressure and preheat, and with a "
                                 "stabilizer; see [Gas-turbine premixers](premixers.md#flashback-and-blowoff-in-a-"
                                 "premixer-tube))"),
-    "EMISSION_COLUMNS": ("Emissions", "empty unless the study has [emissions]: the design residence time's values"),
 }
+#: The registered analyses' columns parts (flamecharts.analyses): their groups and files come with them.
+ANALYSIS_COLUMNS = parts("columns")
 #: The columns that belong to no group, in the chunks they come in (the numerical error sits between two).
 BASE = [("The point and its flame", "every point; the flame quantities blank where it did not burn"),
         ("How it was solved", "every point: settings, solver message and store key")]
@@ -102,7 +104,6 @@ TABLES = {
     "stretch.csv": "STRETCH_COLUMNS",
     "sensitivities.csv": "SENSITIVITY_COLUMNS",
     "mechanism_comparison.csv": "COMPARISON_COLUMNS",
-    "emissions.csv": "EMISSIONS_TABLE_COLUMNS",
     "fuel_gases.csv": "GAS_TABLE_COLUMNS",
 }
 
@@ -186,7 +187,8 @@ def render() -> str:
     _missing("these columns in flamecharts/columns.py UNITS", [c for c in K.COLUMNS if c not in K.UNITS])
     _missing("these column groups of flamecharts/columns.py",
              [n for n in dir(K) if n.endswith("_COLUMNS") and n not in GROUPS and n not in TABLES.values()])
-    groups = {name: getattr(K, name) for name in GROUPS}
+    groups = {name: getattr(K, name) for name in GROUPS} | {m.__name__: m.POINT_COLUMNS for m in ANALYSIS_COLUMNS}
+    headings = GROUPS | {m.__name__: m.GROUP for m in ANALYSIS_COLUMNS}
     out += ["", "## results.csv", "",
             f"One row per point, {len(K.COLUMNS)} columns in this order (`flamecharts.columns.COLUMNS`). Units: `1` "
             "is dimensionless, `text` a text or a flag (`true`/`false`). A number the point does not have is an empty "
@@ -200,7 +202,7 @@ def render() -> str:
                 if chunk is None:
                     raise SystemExit("docs/gen_outputs_reference.py: results.csv has more ungrouped chunks of columns "
                                      f"than BASE describes (at {col})")
-            heading, note = GROUPS[group] if group in GROUPS else (chunk if group == "BASE" else LAST)
+            heading, note = headings[group] if group in headings else (chunk if group == "BASE" else LAST)
             out += ["", f"### {heading}", "", f"Filled: {note}.", "", "| # | column | unit | meaning |",
                     "|---|---|---|---|"]
             current = group
@@ -217,16 +219,16 @@ def render() -> str:
             + ", ".join(f"`{c}`" for c in DATASET_EXTRA) + f" ({K.UNITS[DATASET_EXTRA[0]][1]}); {len(variables)} "
             "variables in all. Numbers are float64 with NaN where a point has no value."]
 
-    for name, tuple_name in TABLES.items():
-        cols = getattr(K, tuple_name)
+    tables = {name: (getattr(K, tuple_name), None) for name, tuple_name in TABLES.items()}
+    tables |= {name: (cols, m.TABLE_NOTES[name]) for m in ANALYSIS_COLUMNS for name, cols in m.TABLES.items()}
+    for name, (cols, note) in tables.items():
         anchor_note = {"fuel_gases.csv": "One row per fuel gas (fuel, blend fraction, oxidizer).",
                        "limits.csv": "One row per admissible window of each limit search (window 0: none found); "
                                      "how to read it: [Admissible limits](limits.md).",
                        "stretch.csv": "One row per strained-flame ladder.",
                        "sensitivities.csv": "The largest sensitivities of each burning point, one row per reaction.",
-                       "emissions.csv": "The burned gas of each burning point at every residence time of [emissions].",
                        "mechanism_comparison.csv": "Each point burning under the reference and another mechanism, one "
-                                                   "row per other mechanism."}[name]
+                                                   "row per other mechanism."}.get(name, note)
         out += ["", f"## {name}", "", anchor_note, "", *column_table(cols)]
 
     exp = exponent_columns()

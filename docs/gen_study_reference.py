@@ -18,6 +18,7 @@ from types import SimpleNamespace
 from typing import Any
 
 from flamecharts import config as C
+from flamecharts.analyses.emissions import table as EM
 from flamecharts.physics.gasprops import ISO6976_2016
 from flamecharts.physics.rate_factors import MAX_RATE_FACTOR
 from flamecharts.sweep.schedule import MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR
@@ -47,7 +48,7 @@ def defaults() -> SimpleNamespace:
     s = C.study_from_dict(MINIMAL, name="my_study")
     return SimpleNamespace(study=s, burner=s.burner, gas=s.gas_quality, limits=s.limits, premixer=s.premixer,
                            response=s.flame_response, uncertainty=s.uncertainty, indicators=s.indicator_settings,
-                           emissions=s.emissions, reduction=s.reduction)
+                           emissions=EM.of(s), reduction=s.reduction)
 
 
 def toml(v: Any) -> str:
@@ -286,11 +287,11 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "pressure_bar": Key("swept values [bar]", "all swept", "pressures that get a ladder"),
             "unburned_temperature_K": Key("swept values [K]", "all swept", "preheat temperatures that get a ladder"),
         }),
-        ("emissions", "[emissions]", C.EMISSIONS_KEYS, (
+        ("emissions", "[emissions]", EM.KEYS, (
             "NO, NO2, N2O, CO and unburned fuel of every burning flame's burned gas after stated residence times from "
             "its peak heat release (the flame's own profile, then an adiabatic plug flow), dry at a reference O2 and "
             "in mg/kWh. Needs a mechanism with nitrogen chemistry (e.g. gri30.yaml) and the stored profiles."), {
-            "residence_times_ms": Key(f"1 to {C.MAX_RESIDENCE_TIMES} numbers above 0, at most 10000 [ms]",
+            "residence_times_ms": Key(f"1 to {EM.MAX_RESIDENCE_TIMES} numbers above 0, at most 10000 [ms]",
                                       code(lambda d: [round(1e3 * t, 9) for t in d.emissions.residence_times_s]),
                                       "times after the peak heat release the burned gas is read at"),
             "design_residence_time_ms": Key("one of residence_times_ms [ms]", "20 if listed, else the longest",
@@ -321,7 +322,7 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
                 code(lambda d: round(100 * d.reduction.ignition_delay_error, 9)),
                 "largest ignition-delay error at the validation points between the training conditions"),
             "species": Key(f"{NAMES}: species of the mechanism", "none (with [emissions]: "
-                           + ", ".join(C.EMISSION_SPECIES) + ")",
+                           + ", ".join(EM.EMISSION_SPECIES) + ")",
                            "more target species: always kept, ranked from, and their mole fractions at the "
                            "validation flames' outlets held within species_error_percent; [emissions] adds its "
                            "own"),

@@ -7,6 +7,8 @@ designers read them, every other quantity is SI.
 """
 from __future__ import annotations
 
+from .analyses import parts
+
 #: The caution every output carries (README, report, charts, about.txt, results.nc).
 CAUTION = ("Screening estimates from 1D laminar flame computations, not certification: follow local "
            "codes, the applicable appliance or gas-turbine standards and licensed engineering practice, "
@@ -187,31 +189,6 @@ UNITS: dict[str, tuple[str, str]] = {
     "evaluated_at": ("", "where the search asked for flames, in order"),
     "note": ("", "how the search ended: edges not settled, failing intervals searched without a window, "
                  "the Wobbe band"),
-    "residence_time_ms": ("ms", "burned-gas residence time after the flame's peak heat release"),
-    "emissions_residence_time_ms": ("ms", "the design residence time the emission columns are read at"),
-    "burned_gas_temperature_K": ("K", "temperature of the burned gas at the residence time"),
-    "burned_gas_dry_o2_percent": ("%", "O2 of the dry burned gas at the residence time"),
-    "beyond_flame_domain": ("", "true where the time lies beyond the flame's domain (adiabatic plug flow)"),
-    "no_ppmvd_at_reference_o2": ("ppm", "NO, by volume of dry gas at the study's reference O2"),
-    "no2_ppmvd_at_reference_o2": ("ppm", "NO2, by volume of dry gas at the study's reference O2"),
-    "nox_ppmvd_at_reference_o2": ("ppm", "NOx (NO + NO2), by volume of dry gas at the study's reference O2"),
-    "n2o_ppmvd_at_reference_o2": ("ppm", "N2O, by volume of dry gas at the study's reference O2"),
-    "co_ppmvd_at_reference_o2": ("ppm", "CO, by volume of dry gas at the study's reference O2"),
-    "unburned_hydrocarbons_ppmvd_at_reference_o2": ("ppm", "the fuel's hydrocarbon species left (each as itself, not "
-                                                           "as C1), dry at the reference O2; H2 not counted: the hot "
-                                                           "gas holds equilibrium H2 whatever the fuel"),
-    "equilibrium_co_ppmvd_at_reference_o2": ("ppm", "CO of the burned state's HP equilibrium, dry at the reference O2: "
-                                                    "where an adiabatic plug flow's CO levels off (hot gas, not a "
-                                                    "cooled stack gas)"),
-    "emissions_reference_o2_percent": ("%", "the dry O2 the ppm columns are corrected to ([emissions])"),
-    "emissions_heating_value": ("", "heating-value basis of the mg/kWh columns: gross or net (empty: not reported)"),
-    "flame_zone_no_ppmvd_at_reference_o2": ("ppm", "NO where the flame's temperature rise is 95 % complete, dry at "
-                                                   "the reference O2 (with the burned gas's O2 and water)"),
-    "equilibrium_no_ppmvd_at_reference_o2": ("ppm", "NO of the burned state's HP equilibrium, dry at the reference "
-                                                    "O2 (the limit of a long residence time)"),
-    "nox_mg_kwh": ("mg/kWh", "NOx counted as NO2 per kWh of fuel heat input (the study's heating-value basis)"),
-    "co_mg_kwh": ("mg/kWh", "CO per kWh of fuel heat input (the study's heating-value basis)"),
-    "emissions_note": ("", "why a burning point has no emission values"),
     "rms_velocity_m_s": ("m/s", "turbulent velocity fluctuation u' at the flame ([premixer]: the study's intensity "
                                 "times the port velocity, or the duct estimate)"),
     "integral_length_mm": ("mm", "integral length scale l_t of the turbulence at the flame"),
@@ -264,11 +241,9 @@ UNITS: dict[str, tuple[str, str]] = {
                                          "time (Shanbhogue, Husain & Lieuwen 2009; Zhang et al. 2007)"),
     "extinction_blowout_margin": ("1", "Da_ext over its critical value ([premixer] blowout_damkohler): below 1, "
                                        "lean blowout"),
-    "equal_flame_temperature_equivalence_ratio": ("1", "equivalence ratio at which this gas burns at the adiabatic "
-                                                       "flame temperature of the unblended gas at this point's phi"),
-    "nox_ppmvd_at_reference_o2_equal_flame_temperature": ("ppm", "NOx of this gas at that equivalence ratio, dry at the "
-                                                                 "reference O2, after the design residence time"),
 }
+for _analysis in parts("columns"):  # each registered analysis declares its own (flamecharts.analyses)
+    UNITS.update(_analysis.UNITS)
 
 INDICATOR_COLUMNS = (
     "chemical_time_s", "blint_thickness_mm", "flashback_critical_gradient_1_s",
@@ -307,23 +282,6 @@ PREMIXER_MARGIN_COLUMNS = ("premixer_wall_velocity_gradient_1_s", "wall_friction
                            "extinction_karlovitz_number", "blowout_extinction_strain_rate_1_s",
                            "extinction_strain_source", "stabilizer_edge_velocity_m_s", "extinction_damkohler_number",
                            "extinction_blowout_margin")
-#: Emissions at the study's design residence time (empty unless the study has an [emissions] table).
-EMISSION_COLUMNS = ("emissions_residence_time_ms", "burned_gas_temperature_K", "burned_gas_dry_o2_percent",
-                    "nox_ppmvd_at_reference_o2", "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2",
-                    "n2o_ppmvd_at_reference_o2", "co_ppmvd_at_reference_o2",
-                    "unburned_hydrocarbons_ppmvd_at_reference_o2", "flame_zone_no_ppmvd_at_reference_o2",
-                    "equilibrium_no_ppmvd_at_reference_o2", "equilibrium_co_ppmvd_at_reference_o2",
-                    "emissions_reference_o2_percent", "beyond_flame_domain", "nox_mg_kwh", "co_mg_kwh",
-                    "emissions_heating_value", "equal_flame_temperature_equivalence_ratio",
-                    "nox_ppmvd_at_reference_o2_equal_flame_temperature", "emissions_note")
-#: emissions.csv: every residence time of every burning point ([emissions]), in this order.
-EMISSIONS_TABLE_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
-                           "unburned_temperature_K", "residence_time_ms", "beyond_flame_domain",
-                           "burned_gas_temperature_K", "burned_gas_dry_o2_percent", "nox_ppmvd_at_reference_o2",
-                           "no_ppmvd_at_reference_o2", "no2_ppmvd_at_reference_o2", "n2o_ppmvd_at_reference_o2",
-                           "co_ppmvd_at_reference_o2", "unburned_hydrocarbons_ppmvd_at_reference_o2",
-                           "equilibrium_co_ppmvd_at_reference_o2", "emissions_reference_o2_percent", "nox_mg_kwh",
-                           "co_mg_kwh", "emissions_heating_value", "mechanism")
 #: Numerical error of every flame (physics.grid_error), right after its grid points.
 #: (Richardson's extrapolated S_L is stored with each flame but not a column: on the benchmark's
 #: grid-converged flames it was further off than the flame's own value, docs/benchmarks.md.)
@@ -360,8 +318,8 @@ COLUMNS = ((
     "mechanism_reduction", "transport",
     "thermal_diffusion", "resolution", "start", "message", "fuel_mole_fractions", "point_key",
 ) + INDICATOR_COLUMNS + KINETIC_COLUMNS + REDUCTION_COLUMNS + RESPONSE_COLUMNS + GAS_COLUMNS + BURNER_COLUMNS + PREMIXER_COLUMNS
-  + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + PREMIXER_MARGIN_COLUMNS + EMISSION_COLUMNS
-  + ("warnings",))
+  + TURBULENCE_COLUMNS + TURBULENT_SPEED_COLUMNS + PREMIXER_MARGIN_COLUMNS
+  + tuple(c for m in parts("columns") for c in m.POINT_COLUMNS) + ("warnings",))
 
 #: mechanism_comparison.csv (studies comparing mechanisms): each point burning under the reference
 #: mechanism and another, one row per other mechanism (design.mechanism_differences).

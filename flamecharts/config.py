@@ -45,6 +45,7 @@ from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
+from .analyses import parts
 from .errors import ConfigError, MechanismError, first_line, show
 from .facts import MechanismFacts, ReducedMechanism, file_sha256
 from .physics import lumping, mixtures
@@ -59,7 +60,7 @@ MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty", "emissions",
+            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty",
             "reduction")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
@@ -89,16 +90,6 @@ DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin", "turbulence_intensity_percent", "integral_length_mm",
                  "turbulent_flashback_peclet", "blowout_damkohler")
 FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
-EMISSIONS_KEYS = ("residence_times_ms", "design_residence_time_ms", "reference_oxygen_percent", "heating_value",
-                  "specific", "equal_flame_temperature")
-#: Burned-gas residence times of [emissions] when the table gives none [ms] (gas-turbine combustors
-#: hold their burned gas some 5-30 ms, appliances less; from memory), and the most it takes.
-DEFAULT_RESIDENCE_TIMES_MS = (2.0, 5.0, 10.0, 20.0, 50.0)
-DEFAULT_DESIGN_RESIDENCE_TIME_MS = 20.0
-MAX_RESIDENCE_TIMES = 12
-#: O2 in dry air [%] (the reference-O2 correction's, physics.emissions).
-AIR_O2_PERCENT = 20.9
-HEATING_VALUE_BASES = ("gross", "net")
 REDUCTION_KEYS = ("flame_speed_error_percent", "ignition_delay_error_percent", "species", "species_error_percent",
                   "validation_flames")
 #: [reduction]'s default targets [%]: the largest flame-speed, ignition-delay and target-species
@@ -115,8 +106,6 @@ REDUCTION_TARGET_RANGES = {"flame_speed_error_percent": (0.1, 20.0), "ignition_d
 DEFAULT_VALIDATION_FLAMES = 4
 FLAME_VALIDATION_MAX_SPECIES = 60
 MAX_VALIDATION_FLAMES = 12
-#: Species [emissions] reads: reduction targets of a study that asks for both.
-EMISSION_SPECIES = ("NO", "NO2", "N2O", "CO")
 UNCERTAINTY_KEYS = ("kinetics", "factors", "default_factor", "factor_sigmas", "error_bars")
 #: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
 STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
@@ -268,34 +257,49 @@ class Stretch:
 
 
 @dataclass(frozen=True)
-class Emissions:
-    """The [emissions] request: NO, NO2, N2O, CO and unburned fuel of every burning flame's
-    burned gas after ``residence_times_s`` from its peak heat release (chemistry.emissions), dry
-    and corrected to ``reference_oxygen_percent``, and in mg/kWh of the fuel's heat input on the
-    ``heating_value`` basis ('gross' or 'net'). ``design_residence_time_s`` (one of the times) is
-    the one results.csv, the charts and the sentences use."""
-
-    residence_times_s: tuple[float, ...]
-    design_residence_time_s: float
-    reference_oxygen_percent: float = 15.0
-    heating_value: str = "gross"
-    specific: bool = True   # report mg/kWh
-    equal_flame_temperature: bool = True  # blends also at the unblended gas's adiabatic flame temperature
-
-
-@dataclass(frozen=True)
 class Reduction:
     """The [reduction] request: a skeletal mechanism for the study's own conditions (sweep.skeletal),
     the smallest whose errors against the detailed mechanism stay within these targets (fractions,
     0.01 = 1 %) on validation points it was not trained on: the flame speed of ``validation_flames``
     flames of the study, the ignition delays, and the target ``species`` (the table's and those an
-    analysis reads: EMISSION_SPECIES with [emissions]) at the flames' outlets."""
+    analysis reads: its table's kept_species, NO, NO2, N2O and CO with [emissions]) at the flames' outlets."""
 
     flame_speed_error: float
     ignition_delay_error: float
     species_error: float
     species: tuple[str, ...] = ()
     validation_flames: int = DEFAULT_VALIDATION_FLAMES
+
+
+@dataclass(frozen=True)
+class TableContext:
+    """What an analysis's table may be checked against: the study's mechanisms, whether flame
+    profiles are stored."""
+
+    mechanisms: tuple[MechanismFacts, ...]
+    keep_profiles: bool
+
+
+@dataclass(frozen=True)
+class AnalysisTable:
+    """The study table of an analysis (flamecharts.analyses: its ``table`` part's TABLE): its name,
+    its keys, ``parse(value, context)`` -> its frozen dataclass (raising a one-line ConfigError),
+    and the species a [reduction] must keep for it."""
+
+    name: str
+    keys: tuple[str, ...]
+    parse: Callable[[Any, TableContext], Any]
+    kept_species: Callable[[Any], tuple[str, ...]] = lambda table: ()
+
+
+def analysis_tables() -> list[AnalysisTable]:
+    """The registered analyses' tables, in flamecharts.analyses.ANALYSES order."""
+    return [m.TABLE for m in parts("table")]
+
+
+def top_keys() -> tuple[str, ...]:
+    """Every top-level key a study file may have: TOP_KEYS and the analyses' table names."""
+    return TOP_KEYS + tuple(spec.name for spec in analysis_tables())
 
 
 @dataclass(frozen=True)
@@ -364,7 +368,9 @@ class Study:
     flame_response: FlameResponse | None = None
     stretch: Stretch | None = None
     uncertainty: Uncertainty | None = None
-    emissions: Emissions | None = None
+    #: The registered analyses' tables (flamecharts.analyses), by table name; each analysis reads its own
+    #: through its table part's ``of(study)``.
+    tables: dict[str, Any] = field(default_factory=dict)
     reduction: Reduction | None = None
     #: The skeletal mechanism a run made for [reduction] (sweep.skeletal; config.with_reduction), None before.
     reduced: ReducedMechanism | None = field(default=None, repr=False, compare=False)
@@ -746,50 +752,9 @@ def _premixer(t: Any) -> Premixer:
                     **({} if da is None else {"blowout_damkohler": da}))
 
 
-def _emissions(t: Any, mechs: list[MechanismFacts], keep_profiles: bool) -> Emissions:
-    """The [emissions] table: refused on a mechanism without nitrogen chemistry and without
-    stored profiles (the burned gas is read from each flame's profile)."""
-    if not isinstance(t, dict):
-        raise ConfigError("'emissions' must be a table")
-    _check_keys(t, EMISSIONS_KEYS, "emissions.")
-    lacking = [m.name for m in mechs if not m.nitrogen_chemistry]
-    if lacking:
-        raise ConfigError(f"[emissions] needs a mechanism that forms NO from N2, and {lacking[0]} has no nitrogen "
-                          "chemistry; use e.g. gri30.yaml (methane, hydrogen, ethane, propane) or "
-                          "example_data/ammonia-CO-H2-Alzueta-2023.yaml (hydrogen, ammonia)")
-    if not keep_profiles:
-        raise ConfigError("[emissions] reads each flame's burned gas from its stored profile, and keep_profiles = "
-                          "false stores none; remove one of the two")
-    times = tuple(sorted(set(_axis(t.get("residence_times_ms", list(DEFAULT_RESIDENCE_TIMES_MS)),
-                                   "emissions.residence_times_ms"))))
-    if len(times) > MAX_RESIDENCE_TIMES or times[0] <= 0 or times[-1] > 10000:
-        raise ConfigError(f"'emissions.residence_times_ms' must list 1 to {MAX_RESIDENCE_TIMES} times above 0 and up "
-                          "to 10,000 ms (milliseconds after the flame's peak heat release), e.g. [5, 20, 50]")
-    design = _number(t["design_residence_time_ms"], "emissions.design_residence_time_ms") if \
-        "design_residence_time_ms" in t else (DEFAULT_DESIGN_RESIDENCE_TIME_MS if DEFAULT_DESIGN_RESIDENCE_TIME_MS in times
-                                              else times[-1])
-    if design not in times:
-        raise ConfigError(f"'emissions.design_residence_time_ms' is {design:g}; allowed: one of residence_times_ms "
-                          f"({', '.join(f'{v:g}' for v in times)})")
-    ref = _number(t.get("reference_oxygen_percent", 15.0), "emissions.reference_oxygen_percent")
-    if not 0.0 <= ref < AIR_O2_PERCENT:
-        raise ConfigError(f"'emissions.reference_oxygen_percent' is {ref:g}; allowed: 0 to below {AIR_O2_PERCENT:g} "
-                          "(dry O2 the concentrations are corrected to: 15 for gas turbines, 3 or 0 for appliances)")
-    basis = _string(t.get("heating_value", "gross"), "emissions.heating_value")
-    if basis not in HEATING_VALUE_BASES:
-        raise ConfigError(f"'emissions.heating_value' is {basis!r}{_suggest(basis, HEATING_VALUE_BASES)} (the heat "
-                          "input of mg/kWh: gross = higher heating value, as appliance NOx classes use)")
-    flags = {k: t.get(k, True) for k in ("specific", "equal_flame_temperature")}
-    for k, v in flags.items():
-        if not isinstance(v, bool):
-            raise ConfigError(f"'emissions.{k}' must be true or false, got {show(v)}")
-    return Emissions(residence_times_s=tuple(v * 1e-3 for v in times), design_residence_time_s=design * 1e-3,
-                     reference_oxygen_percent=ref, heating_value=basis, **flags)
-
-
-def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, emissions: bool) -> Reduction:
-    """The [reduction] table: targets in their ranges, target species the mechanism's (those of
-    [emissions] added), one mechanism."""
+def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, kept: tuple[str, ...] = ()) -> Reduction:
+    """The [reduction] table: targets in their ranges, target species the mechanism's (``kept``,
+    those the study's analyses read, added first), one mechanism."""
     if not isinstance(t, dict):
         raise ConfigError("'reduction' must be a table")
     _check_keys(t, REDUCTION_KEYS, "reduction.")
@@ -809,7 +774,7 @@ def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, emissions: bool
         given = [given]
     if not isinstance(given, list):
         raise ConfigError(f"'reduction.species' must be a list of species names, got {show(given)}")
-    species = list(EMISSION_SPECIES) if emissions else []
+    species = list(kept)
     for sp in given:
         if not isinstance(sp, str) or sp not in facts.atoms:
             raise ConfigError(f"'reduction.species' names {show(sp)}, which mechanism {Path(facts.path).name} does "
@@ -1095,13 +1060,15 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
 
 
 def _mechanism_tables(data: dict, choices: list[MechanismChoice], keep_profiles: bool) -> dict:
-    """The tables checked against the mechanisms' facts ([uncertainty], [emissions], [reduction]),
-    validated: Study fields by name."""
+    """The tables checked against the mechanisms' facts ([uncertainty], the analyses' tables,
+    [reduction]), validated: Study fields by name."""
     facts = [m.facts for m in choices]
+    ctx = TableContext(mechanisms=tuple(facts), keep_profiles=keep_profiles)
+    tables = {spec.name: spec.parse(data[spec.name], ctx) for spec in analysis_tables() if spec.name in data}
+    kept = tuple(s for spec in analysis_tables() if spec.name in tables for s in spec.kept_species(tables[spec.name]))
     return {"uncertainty": _uncertainty(data["uncertainty"], facts) if "uncertainty" in data else None,
-            "emissions": _emissions(data["emissions"], facts, keep_profiles) if "emissions" in data else None,
-            "reduction": _reduction(data["reduction"], facts[0], len(choices), "emissions" in data)
-            if "reduction" in data else None}
+            "tables": tables,
+            "reduction": _reduction(data["reduction"], facts[0], len(choices), kept) if "reduction" in data else None}
 
 
 def _mechanism_names(value: Any) -> tuple[str, ...]:
@@ -1169,7 +1136,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     from their files, or taken from ``saved_facts`` (by name, as a run kept them) where given."""
     if not isinstance(data, dict):
         raise ConfigError("config must be a TOML table")
-    _check_keys(data, TOP_KEYS, "")
+    _check_keys(data, top_keys(), "")
     title = _string(data.get("title", name), "title")
     mechanism_list = _mechanism_names(data.get("mechanism", "gri30.yaml"))
     transport = _string(data.get("transport", "mixture-averaged"), "transport")

@@ -19,7 +19,7 @@ from .config import Study, by_mechanism, load_study, save_config_copy
 from .errors import FlamechartsError
 from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_extras, to_dataset, with_mechanism
 from .store import DB_NAME, RunLock, Store
-from .sweep.analyses import PER_POINT
+from .sweep.analyses import per_point
 from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, RunInterrupted, solve_points
@@ -191,7 +191,7 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
     done = solve_points(study, store, pts, backend, progress, stop_after, t0)
     stored = store.rows([p.key for p in pts])
     extra_seconds = 0.0
-    for analysis in PER_POINT if stop_after is None else ():  # the extra solves the study's tables ask for
+    for analysis in per_point() if stop_after is None else ():  # the extra solves the study's tables ask for
         if analysis.wanted(study):
             extra_seconds += analysis.solve(study, store, pts, stored, backend, _part(progress, analysis.what))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))

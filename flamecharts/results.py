@@ -28,12 +28,12 @@ import pandas as pd
 import xarray as xr
 
 from ._version import __version__
+from .analyses import parts
 from .columns import (
     AXES,
     CAUTION,
     COLUMNS,
     COMPARISON_COLUMNS,
-    EMISSIONS_TABLE_COLUMNS,
     FROM_METRICS,
     UNITS,
     gas_label,
@@ -46,7 +46,7 @@ from .physics.autoignition import not_a_flame_reason
 from .physics.fits import fit_power_law
 from .record_tables import ladders_dataset, limits_dataset
 from .store import DB_NAME, Store
-from .sweep.analyses import PER_POINT
+from .sweep.analyses import per_point
 from .sweep.points import Point, points
 from .sweep.skeletal import applied
 from .sweep.stretch import with_ladders
@@ -76,9 +76,9 @@ def flat_row(study: Study, p: Point, stored: dict | None) -> dict:
     row["grid_convergence"] = metrics.get("grid_convergence", "")
     row.update(reduction_columns(study, p, row))
     for name in ("autoignition_screen_delay_s", "premixer_ignition_delay_s", "injection_ignition_delays_s",
-                 "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities", "emissions_history",
-                 "emissions_message", "equal_tad", "ladder_consumption_speed_max_m_s",
-                 "ladder_extinction_strain_rate_1_s"):
+                 "premixer_horizon_s", "unburned_viscosity_Pa_s", "reaction_sensitivities",
+                 "ladder_consumption_speed_max_m_s", "ladder_extinction_strain_rate_1_s",
+                 *(k for m in parts("readout") for k in m.METRICS)):
         if name in metrics:  # computed by the worker for the read-out (not columns)
             row[name] = metrics[name]
     return row
@@ -126,11 +126,11 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict], ladders:
 
 def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
     """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
-    merged into its metrics (each analysis of sweep.analyses.PER_POINT the study wants: the
+    merged into its metrics (each analysis of sweep.analyses.per_point the study wants: the
     Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays) and the
     strongest consumption speed of its [stretch] ladder (sweep.stretch.with_ladders)."""
     stored = store.rows([p.key for p in pts]) if stored is None else stored
-    for analysis in PER_POINT:
+    for analysis in per_point():
         if analysis.wanted(study):
             stored = analysis.merge(study, pts, stored, store)
     if study.stretch is not None:  # the ladders are solved after the sweep's rows (pipeline._solve_one)
@@ -149,14 +149,6 @@ def sensitivity_rows(rows: list[dict]) -> list[dict]:
                         "mechanism": r["mechanism"]})
     return out
 
-
-def emission_rows(rows: list[dict]) -> list[dict]:
-    """emissions.csv: every residence time of every burning point with emissions
-    (design.emission_columns), one row each (columns.EMISSIONS_TABLE_COLUMNS)."""
-    keys = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
-            "unburned_temperature_K")
-    return [{**{a: r[a] for a in keys}, **e, "mechanism": r["mechanism"]}
-            for r in rows for e in r.get("emissions_by_time") or ()]
 
 
 def rows_from_dir(out_dir: Path) -> tuple[Study, list[dict]]:
@@ -259,6 +251,16 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     return ds
 
 
+def extra_tables(study: Study, rows: list[dict]) -> dict[str, tuple[list[dict], tuple[str, ...]]]:
+    """The registered analyses' extra CSV files (flamecharts.analyses): file name -> (its rows,
+    its columns), for the files the study asks for ([] rows: asked for, none to write)."""
+    out = {}
+    for cols, data in zip(parts("columns"), parts("dataset")):
+        for name, columns in cols.TABLES.items():
+            out[name] = (data.TABLE_ROWS[name](study, rows), columns)
+    return out
+
+
 def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Dataset:
     """One mechanism's table out of a dataset comparing several (the reference when
     ``mechanism`` is None), with the one-mechanism layout; a one-mechanism dataset as it is."""
@@ -268,34 +270,6 @@ def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Datase
     one = ds.sel(mechanism=name, drop=True)
     one.attrs = {**{k: v for k, v in ds.attrs.items() if k != "mechanisms"}, "mechanism": name}
     return one
-
-
-#: emissions.csv's quantities that get a residence-time dimension in the dataset.
-BY_TIME = tuple(c for c in EMISSIONS_TABLE_COLUMNS if UNITS[c][0] != "" and c not in AXES + (
-    "residence_time_ms", "emissions_reference_o2_percent"))
-
-
-def _emissions_by_time(study: Study, rows: list[dict], shape: tuple[int, ...]) -> dict[str, xr.DataArray]:
-    """[emissions]: each quantity of BY_TIME over the sweep axes and ``residence_time_ms``
-    (``<column>_by_time``), NaN where a point has none; the reference O2 and heating-value
-    basis in the attributes."""
-    em = study.emissions
-    assert em is not None  # asked only with [emissions]
-    times = [1e3 * t for t in em.residence_times_s]
-    out = {}
-    for col in BY_TIME:
-        arr = np.full((len(rows), len(times)), np.nan)
-        for i, r in enumerate(rows):
-            for j, e in enumerate(r.get("emissions_by_time") or ()):
-                arr[i, j] = np.nan if e.get(col) is None else float(e[col])
-        unit, long_name = UNITS[col]
-        out[f"{col}_by_time"] = xr.DataArray(
-            arr.reshape(shape + (len(times),)), dims=AXES + ("residence_time_ms",),
-            coords={"residence_time_ms": ("residence_time_ms", np.array(times),
-                                          {"units": "ms", "long_name": UNITS["residence_time_ms"][1]})},
-            attrs={"units": unit, "long_name": long_name, "reference_oxygen_percent": em.reference_oxygen_percent,
-                   "heating_value_basis": em.heating_value})
-    return out
 
 
 def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
@@ -322,15 +296,8 @@ def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
     for a in AXES:
         unit, long_name = UNITS[a]
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
-    if study.emissions is not None:
-        ds = ds.assign(_emissions_by_time(study, rows, shape))
-        for name in ds.data_vars:  # the reference O2 and basis travel with every emission variable
-            if "at_reference_o2" in str(name) or "mg_kwh" in str(name):
-                ds[name].attrs.update(reference_oxygen_percent=study.emissions.reference_oxygen_percent,
-                                      heating_value_basis=study.emissions.heating_value)
-        ds.attrs.update(emissions_reference_oxygen_percent=study.emissions.reference_oxygen_percent,
-                        emissions_heating_value_basis=study.emissions.heating_value,
-                        emissions_design_residence_time_ms=1e3 * study.emissions.design_residence_time_s)
+    for analysis in parts("dataset"):  # the registered analyses' variables (flamecharts.analyses)
+        ds = analysis.DATASET(study, rows, shape, ds)
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
                      **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
@@ -546,11 +513,15 @@ class Results:
         rows = mechanism_differences(self.rows, comparison.names) if comparison else []
         return pd.DataFrame([[r.get(c) for c in COMPARISON_COLUMNS] for r in rows], columns=list(COMPARISON_COLUMNS))
 
+    def extra_table(self, file_name: str) -> pd.DataFrame:
+        """A pandas DataFrame of an analysis's extra CSV file (``'emissions.csv'``: every residence
+        time of every burning point), empty when the study does not ask for it."""
+        rows, columns = extra_tables(self.study, self.rows).get(file_name, ([], ()))
+        return pd.DataFrame([[r.get(c) for c in columns] for r in rows], columns=list(columns))
+
     def emissions(self) -> pd.DataFrame:
-        """A pandas DataFrame of emissions.csv ([emissions]): every residence time of every burning
-        point, one row each (columns.EMISSIONS_TABLE_COLUMNS); empty without [emissions]."""
-        return pd.DataFrame([[r.get(c) for c in EMISSIONS_TABLE_COLUMNS] for r in emission_rows(self.rows)],
-                            columns=list(EMISSIONS_TABLE_COLUMNS))
+        """emissions.csv as a DataFrame ([emissions]; :meth:`extra_table`)."""
+        return self.extra_table("emissions.csv")
 
     def counts(self) -> dict[str, int]:
         """Points by status: ok, no_flame, failed, autoignition, pending."""
@@ -558,52 +529,6 @@ class Results:
         for r in self.rows:
             out[r["status"]] = out.get(r["status"], 0) + 1
         return out
-
-
-def emission_sentences(study: Study, rows: list[dict], most_phis: int = 4) -> list[str]:
-    """One plain sentence per blended gas and condition ([emissions] with a blend axis): its NOx
-    after the design residence time against the unblended gas's at equal equivalence ratio, at
-    up to ``most_phis`` equivalence ratios where both burn. [] without [emissions] or blends."""
-    em = study.emissions
-    if em is None or not study.blend_with:
-        return []
-    nox = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["pressure_bar"], r["unburned_temperature_K"],
-            r["equivalence_ratio"]): r["nox_ppmvd_at_reference_o2"] for r in rows
-           if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None}
-    out = []
-    for fuel, ox, frac, P, T in dict.fromkeys(k[:5] for k in nox if k[2] > 0):
-        pairs = [(phi, nox[(fuel, ox, 0.0, P, T, phi)], v) for (f, o, b, p, t, phi), v in nox.items()
-                 if (f, o, b, p, t) == (fuel, ox, frac, P, T) and (fuel, ox, 0.0, P, T, phi) in nox]
-        if not pairs:
-            continue
-        pairs.sort()
-        shown = [pairs[round(i * (len(pairs) - 1) / (most_phis - 1))] for i in range(most_phis)] \
-            if len(pairs) > most_phis else pairs
-        shown = list(dict.fromkeys(shown))
-        parts = [f"{'rises' if b > a else 'falls' if b < a else 'stays'} from {a:.3g} to {b:.3g} ppm at φ {phi:g}"
-                 for phi, a, b in shown]
-        out.append(f"With {100 * frac:g} % {study.blend_with} in {fuel}"
-                   + (f" (in {ox})" if len(study.sweep_oxidizers) > 1 else "")
-                   + f" at {P:g} bar and {T:g} K, NOx at {em.reference_oxygen_percent:g} % O2 (dry) after "
-                   f"{1e3 * em.design_residence_time_s:g} ms " + ", ".join(parts) + " (equal φ)"
-                   + _at_equal_tad(rows, (fuel, ox, frac, P, T), [phi for phi, _, _ in shown], nox) + ".")
-    return out
-
-
-def _at_equal_tad(rows: list[dict], gas: tuple, phis: list[float], nox: dict) -> str:
-    """'; at the unblended gas's flame temperature ...' for the sentence of ``gas`` (fuel,
-    oxidizer, blend fraction, p, T) at ``phis``, where the matched flames are solved."""
-    by_phi = {r["equivalence_ratio"]: r for r in rows if (r["fuel"], r["oxidizer"], r["blend_fraction"],
-                                                         r["pressure_bar"], r["unburned_temperature_K"]) == gas}
-    parts = []
-    for phi in phis:
-        r = by_phi.get(phi) or {}
-        v, matched = r.get("nox_ppmvd_at_reference_o2_equal_flame_temperature"), \
-            r.get("equal_flame_temperature_equivalence_ratio")
-        ref = nox.get((gas[0], gas[1], 0.0, gas[3], gas[4], phi))
-        if v is not None and matched is not None and ref is not None:
-            parts.append(f"{ref:.3g} to {v:.3g} ppm (φ {phi:g} against {matched:.3g})")
-    return "; at the unblended gas's flame temperature, " + ", ".join(parts) if parts else ""
 
 
 def _margin_words(shown: list[tuple[float, float, float]]) -> str:

@@ -14,10 +14,11 @@ import pytest
 import xarray as xr
 
 import flamecharts
+from flamecharts.analyses.emissions.solve import emissions_key
+from flamecharts.analyses.emissions.table import of
 from flamecharts.config import study_from_toml
 from flamecharts.errors import ConfigError
 from flamecharts.store import Store
-from flamecharts.sweep.emissions import emissions_key
 from flamecharts.sweep.points import point_at_phi, points
 
 from conftest import run_cli, write_h2_study
@@ -80,10 +81,10 @@ def test_emissions_without_stored_profiles_is_refused(tmp_path):
 
 
 def test_defaults_and_the_design_time():
-    em = study_from_toml(STUDY.format(emissions="")).emissions
+    em = of(study_from_toml(STUDY.format(emissions="")))
     assert em is not None and em.residence_times_s == (0.002, 0.005, 0.01, 0.02, 0.05)
     assert em.design_residence_time_s == 0.02 and em.reference_oxygen_percent == 15.0 and em.heating_value == "gross"
-    em = study_from_toml(STUDY.format(emissions="residence_times_ms = [30, 5]")).emissions
+    em = of(study_from_toml(STUDY.format(emissions="residence_times_ms = [30, 5]")))
     assert em is not None and em.residence_times_s == (0.005, 0.03) and em.design_residence_time_s == 0.03
 
 

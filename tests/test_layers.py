@@ -8,7 +8,7 @@ PACKAGE = Path(flamecharts.__file__).parent
 
 #: Lowest first. A module may import from its own layer and the layers below, never above.
 LAYERS = (
-    ("_version", "errors", "columns", "outcome", "numerics", "facts"),  # names, units, status words, errors,
+    ("_version", "errors", "columns", "outcome", "numerics", "facts", "analyses"),  # names, units, status words, errors,
     # grid settings, what a run keeps of its mechanism
     ("physics",),      # pure functions with cited sources
     ("chemistry",),    # the only code that imports Cantera
@@ -23,6 +23,10 @@ LAYERS = (
     ("cli", "__init__", "__main__"),
 )
 RANK = {name: i for i, names in enumerate(LAYERS) for name in names}
+#: An analysis's package (flamecharts/analyses/NAME/) holds one module per part, each in the layer
+#: its file name says; the package's __init__ and the registry (analyses/__init__.py) are the lowest.
+PART_LAYERS = {"columns": "columns", "table": "config", "solve": "sweep", "task": "sweep", "readout": "design",
+               "dataset": "results", "report": "outputs", "charts": "outputs", "console": "cli"}
 
 
 def _modules() -> dict[str, Path]:
@@ -54,7 +58,11 @@ def _imports(name: str, path: Path) -> set[str]:
 
 
 def _top(name: str) -> str:
-    return name.split(".")[0]
+    """The layer name of module ``name`` (an analysis's part: the layer of its file name)."""
+    parts = name.split(".")
+    if parts[0] == "analyses" and len(parts) == 3 and parts[2] != "__init__":
+        return PART_LAYERS[parts[2]]
+    return parts[0]
 
 
 def test_every_module_has_a_layer():

@@ -13,7 +13,7 @@ from ..config import by_mechanism, load_study, lumping_note, reduction_note, wit
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
-from ..sweep.analyses import PER_POINT, Budget
+from ..sweep.analyses import Budget, per_point
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
@@ -189,7 +189,7 @@ def _extras(study: Study, pts: list[Point], keys: set, timings: dict, jobs: int 
     budget = Budget(points_to_solve=len(todo), workers=jobs,
                     warm_flame_s=secs["warm"] * _mean_pressure_cost(study, pts, todo, timings), species=n_sp,
                     reactions=len(study.facts.reaction_equations) if study.facts else 0)
-    for analysis in PER_POINT:
+    for analysis in per_point():
         if analysis.wanted(study):
             what, t, note = analysis.estimate(study, budget)
             lines.append((f"{what}: {'about ' + duration(t) if t >= 0.5 else 'under a second'}; {note}", t))

@@ -9,18 +9,20 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from ..admissible.words import kept, limit_sentence, search_flames
+from ..analyses import parts
 from ..columns import gas_label
 from ..config import by_mechanism, check_cluster_spec, load_study, lumping_note, reduction_note
 from ..design import error_bar_sentence, inside_kinetic_band, largest_differences, mechanism_differences, not_assessed_summary
 from ..outcome import Status
 from ..pipeline import RunSummary, default_out_dir, run
-from ..results import comparison_of, emission_sentences, mechanism_dataset, rows_of
+from ..results import comparison_of, mechanism_dataset, rows_of
 from ..sweep.run import RunInterrupted
 from .progress import ProgressDisplay, plural
 from .tables import print_margins, print_points, print_premixer
 
 if TYPE_CHECKING:
     from ..config import Study
+    from ..results import Results
 
 
 def _display(args: argparse.Namespace, study: Study, out: Path) -> ProgressDisplay:
@@ -88,15 +90,9 @@ def cmd_run(args: argparse.Namespace) -> int:
     study = summary.study or study  # under [reduction]: with the skeletal mechanism the flames burn
     subs = by_mechanism(study)
     for i, sub in enumerate(subs):  # a study comparing mechanisms: each one's read-out in turn
-        rows = rows_of(sub, summary.rows)
         if len(subs) > 1 and (not args.quiet or study.burner or study.premixer or study.uncertainty):
             print(f"Under {sub.mechanism}{' (reference)' if i == 0 else ''}:")
-        if not args.quiet:
-            print_points(sub, rows)
-        print_margins(sub, mechanism_dataset(results.dataset, sub.mechanism))
-        print_premixer(sub, rows)
-        _print_error_bars(sub, rows)
-        _print_emissions(sub, rows)
+        _print_read_out(sub, rows_of(sub, summary.rows), results, args.quiet)
     _print_limits(study, summary)
     _print_stretch(summary, len(subs) > 1)
     _print_mechanisms(study, summary.rows)
@@ -104,7 +100,8 @@ def cmd_run(args: argparse.Namespace) -> int:
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
           + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "")
           + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "")
-          + (f"; emissions: {out / 'emissions.csv'}" if (out / 'emissions.csv').is_file() else "")
+          + "".join(f"; {Path(name).stem}: {out / name}" for m in parts("columns") for name in m.TABLES
+                    if (out / name).is_file())
           + (f"; mechanisms compared: {out / 'mechanism_comparison.csv'}" if study.mechanisms else "") + ")")
     if not args.no_charts:
         print(f"Charts: {out / 'charts'}/")
@@ -165,26 +162,17 @@ def _print_stretch(summary: RunSummary, by_mechanism: bool = False) -> None:
               + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
 
 
-def _print_emissions(study: Study, rows: list[dict]) -> None:
-    """[emissions]: the range of NOx and CO at the design residence time, and one sentence per
-    blended gas and condition (results.emission_sentences)."""
-    em = study.emissions
-    if em is None:
-        return
-    have = [r for r in rows if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None]
-    if not have:
-        print("Emissions: none computed (see the column emissions_note in results.csv)")
-        return
-    nox = [r["nox_ppmvd_at_reference_o2"] for r in have]
-    co = [r["co_ppmvd_at_reference_o2"] for r in have if r["co_ppmvd_at_reference_o2"] is not None]
-    print(f"Emissions after {1e3 * em.design_residence_time_s:g} ms (dry, at {em.reference_oxygen_percent:g} % O2; "
-          f"laminar flame and plug flow, a screening estimate): NOx {min(nox):.3g}-{max(nox):.3g} ppm"
-          + (f", CO {min(co):.3g}-{max(co):.3g} ppm" if co else "") + f" over {plural(len(have), 'flame')}")
-    lines = emission_sentences(study, rows)
-    for line in lines[:20]:
-        print("  " + line.replace("φ", "phi"))
-    if len(lines) > 20:
-        print(f"  ... and {len(lines) - 20} more (report.html, emissions.csv)")
+def _print_read_out(study: Study, rows: list[dict], results: Results, quiet: bool) -> None:
+    """One mechanism's read-out: the points (unless ``quiet``), the burner's margins, the premixer,
+    the error bars and the registered analyses' lines (flamecharts.analyses: each one's ``console``)."""
+    if not quiet:
+        print_points(study, rows)
+    print_margins(study, mechanism_dataset(results.dataset, study.mechanism))
+    print_premixer(study, rows)
+    _print_error_bars(study, rows)
+    for analysis in parts("console"):
+        for line in analysis.CONSOLE(study, rows):
+            print(line)
 
 
 def _print_error_bars(study: Study, rows: list[dict]) -> None:

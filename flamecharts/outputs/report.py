@@ -19,6 +19,7 @@ import xarray as xr
 
 from .._version import __version__, installed_cantera_version
 from ..admissible.words import band_alone, fixed_ratio_note, limit_sentence, search_flames, unassessed
+from ..analyses import parts as _analyses
 from ..columns import CAUTION, gas_label
 from ..config import detailed_path, lumping_note, reduction_note, resolution_label
 from ..design import (
@@ -35,10 +36,9 @@ from ..design import (
 )
 from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
-from ..physics.limits import ignition_check, mechanism_scope, nox_scope
+from ..physics.limits import ignition_check, mechanism_scope
 from ..results import (
     core_flashback_sentences,
-    emission_sentences,
     margin_sentences,
     margin_summary,
     premixer_summary,
@@ -158,14 +158,8 @@ def key_numbers(study: Study, rows: list[dict]) -> list[list[str]]:
         n_ok = sum(r["verdict"] == "ok" for r in ok)
         out.append(["Points with the verdict ok (every criterion assessed and met)", f"{n_ok} of {len(ok)}",
                     study.burner.name])
-    em = study.emissions
-    have = [r for r in ok if r.get("nox_ppmvd_at_reference_o2") is not None]
-    if em is not None and have:
-        w = max(have, key=lambda r: r["nox_ppmvd_at_reference_o2"])
-        out.append([f"Highest NOx after {1e3 * em.design_residence_time_s:g} ms (dry, {em.reference_oxygen_percent:g} % O2)",
-                    f"{w['nox_ppmvd_at_reference_o2']:.3g} ppm", f"{gas_label(w)}, φ {w['equivalence_ratio']:g}, "
-                    f"{w['pressure_bar']:g} bar, {w['unburned_temperature_K']:g} K (laminar flame and plug flow: a "
-                    "screening estimate)"])
+    for analysis in _analyses("report"):  # the registered analyses' key numbers (flamecharts.analyses)
+        out += analysis.KEY_NUMBERS(study, ok)
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
@@ -511,54 +505,6 @@ def _premixer_margin_lines(study: Study, rows: list[dict]) -> list[str]:
             _table(["gas", "p [bar]", "T_u [K]", "φ", "boundary-layer margin", "κ_ext [1/s]", "κ_ext from", "Da_ext",
                     "blowout margin", "verdict"], table, {1, 2, 3, 4, 5, 7, 8}) + more,
             "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in sentences) + "</ul>"]
-
-
-def _emissions_section(study: Study, rows: list[dict]) -> list[str]:
-    """[emissions]: how they are computed and reported, one sentence per blended gas and condition,
-    and the design-time values of every burning point (emissions.csv has every time)."""
-    em = study.emissions
-    if em is None:
-        return []
-    t, ref = 1e3 * em.design_residence_time_s, em.reference_oxygen_percent
-    have = [r for r in rows if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None]
-    missing = [r for r in rows if r["status"] == "ok" and r.get("emissions_note")]
-    table, more = _first(have, "results.csv and emissions.csv")
-    basis = "gross (higher)" if em.heating_value == "gross" else "net (lower)"
-    parts = ["<h2 id='emissions'>Emissions</h2>",
-             f"<p>The burned gas of each burning flame after {', '.join(f'{1e3 * v:g}' for v in em.residence_times_s)} "
-             f"ms from its peak heat release: read from the flame's own profile while the time lies inside its "
-             f"domain, then an adiabatic constant-pressure plug flow on the same mechanism (Cantera's reactor). "
-             f"Concentrations are ppm by volume of the dry gas corrected to {ref:g} % O2 (X (20.9 − {ref:g}) / "
-             f"(20.9 − O2), US EPA Method 19's form); NOx is NO + NO2, counted as NO2 for mass"
-             + (f"; mg/kWh are per kWh of the fuel gas's heat input on its {basis} heating value (EU gas appliances "
-                "are limited on the gross value, Regulation 813/2013)" if em.specific else "")
-             + f". The tables and charts read {t:g} ms. The plug flow stays adiabatic, so its gas stays at flame "
-             "temperature: its NO grows toward the burned state's equilibrium NO (given for scale, far above any "
-             "real exhaust), and its CO levels off at the hot gas's equilibrium CO, which is not a stack value: "
-             "a flue gas that cools burns most of that CO out. Hydrogen is not counted as unburned fuel (the hot "
-             "gas holds equilibrium H2 whatever the fuel). "
-             f"Mechanism: {_e(nox_scope(study.mechanism))}. A laminar flame with a plug flow has no unmixedness, "
-             "recirculation or heat loss, which set a real combustor's NOx: compare blends and settings with these "
-             "numbers, and confirm absolute values by measurement.</p>"]
-    sentences = emission_sentences(study, rows)
-    if sentences:
-        parts.append("<ul>" + "".join(f"<li>{_e(x)}</li>" for x in sentences) + "</ul>")
-    if missing:
-        parts.append(f"<p>{len(missing)} burning point(s) have no emissions: {_e(missing[0]['emissions_note'])}.</p>")
-
-    def num(v) -> str:
-        return "" if v is None else f"{v:,.0f}" if abs(v) >= 1000 else f"{v:.3g}"
-    at = f" [ppm @{ref:g} % O2]"
-    header = ["gas", "φ", "p [bar]", "T_u [K]", "NOx" + at, "CO" + at, "flame-zone NO" + at, "equilibrium NO" + at,
-              "equilibrium CO" + at, "read from"] + (["NOx [mg/kWh]", "CO [mg/kWh]"] if em.specific else [])
-    parts.append(more + _table(header, [
-        [gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}",
-         num(r["nox_ppmvd_at_reference_o2"]), num(r["co_ppmvd_at_reference_o2"]),
-         num(r["flame_zone_no_ppmvd_at_reference_o2"]), num(r["equilibrium_no_ppmvd_at_reference_o2"]),
-         num(r["equilibrium_co_ppmvd_at_reference_o2"]), "plug flow" if r["beyond_flame_domain"] else "flame profile"]
-        + ([num(r["nox_mg_kwh"]), num(r["co_mg_kwh"])] if em.specific else []) for r in table],
-        set(range(1, 9)) | ({10, 11} if em.specific else set())))
-    return parts
 
 
 def _injection_cell(s: dict) -> str:
@@ -921,7 +867,8 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
     parts += _stretch_section(study, stretch)
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
-    parts += _emissions_section(study, rows)
+    for analysis in _analyses("report"):  # the registered analyses' sections (flamecharts.analyses)
+        parts += analysis.SECTION(study, rows)
 
     parts += _charts_section(out_dir)
 

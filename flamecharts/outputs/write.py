@@ -6,9 +6,9 @@ from typing import TYPE_CHECKING
 
 import xarray as xr
 
+from ..analyses import parts
 from ..columns import (
     COMPARISON_COLUMNS,
-    EMISSIONS_TABLE_COLUMNS,
     GAS_TABLE_COLUMNS,
     LIMIT_COLUMNS,
     SENSITIVITY_COLUMNS,
@@ -16,7 +16,15 @@ from ..columns import (
 )
 from ..config import by_mechanism
 from ..design import fuel_gas_table, mechanism_differences
-from ..results import comparison_of, emission_rows, exponent_table, mechanism_dataset, rows_of, sensitivity_rows, to_dataset
+from ..results import (
+    comparison_of,
+    exponent_table,
+    extra_tables,
+    mechanism_dataset,
+    rows_of,
+    sensitivity_rows,
+    to_dataset,
+)
 from .charts import CAPTIONS, draw_all
 from .netcdf import write_netcdf
 from .report import write_report
@@ -33,8 +41,8 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
     rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]),
-    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty];
-    emissions.csv with [emissions] (every residence time of every burning point).
+    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty]; the
+    registered analyses' files (results.extra_tables: emissions.csv with [emissions]).
 
     A study comparing mechanisms writes every mechanism's rows to the tables; the design
     charts and the report's design sections read the reference (first) mechanism, and the
@@ -52,8 +60,9 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
         files.append(write_csv(limits, out / "limits.csv", LIMIT_COLUMNS))
     if stretch:
         files.append(write_csv(stretch, out / "stretch.csv", STRETCH_COLUMNS))
-    if emissions := emission_rows(rows):
-        files.append(write_csv(emissions, out / "emissions.csv", EMISSIONS_TABLE_COLUMNS))
+    for name, (extra, columns) in extra_tables(study, rows).items():  # the analyses' files (flamecharts.analyses)
+        if extra:
+            files.append(write_csv(extra, out / name, columns))
     sensitivities = sensitivity_rows(rows)
     if sensitivities:
         files.append(write_csv(sensitivities, out / "sensitivities.csv", SENSITIVITY_COLUMNS))
@@ -73,7 +82,7 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
 
 #: Tables a run writes only when the study asks for them.
 OPTIONAL_TABLES = ("power_law_exponents.csv", "limits.csv", "stretch.csv", "sensitivities.csv",
-                   "mechanism_comparison.csv", "emissions.csv")
+                   "mechanism_comparison.csv", *(name for m in parts("columns") for name in m.TABLES))
 
 
 def remove_stale(out: Path, written: list[Path], charts: bool) -> list[Path]:

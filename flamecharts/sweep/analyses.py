@@ -5,12 +5,13 @@ PerPoint      one analysis's per-point extra solve: whether the study wants it, 
               merge into each point's metrics, and what ``check`` estimates for it
 Budget        what an estimate knows: points still to solve, workers, a warm flame's seconds,
               the mechanism's size
-PER_POINT     the registered analyses, in the order a run solves them (after the sweep)
+PER_POINT     the core extra solves (Zeldovich pairs, sensitivities, the premixer's delays)
+per_point     those and the registered analyses' (flamecharts.analyses: each one's ``solve`` part
+              declares its PER_POINT), in the order a run solves them (after the sweep)
 
-The pipeline solves every wanted analysis of PER_POINT after the sweep, ``results`` merges
+The pipeline solves every wanted extra of per_point() after the sweep, ``results`` merges
 them into the rows, and ``flamecharts check`` prints their estimates; none of them is named
-anywhere else. Adding one: a module beside ``zeldovich.py`` with its key, ``solve_...`` and
-``with_...``, an entry here, and its columns in ``columns.py`` (DEVELOPERS.md, recipe).
+anywhere else. A new analysis declares its extra solves in its own package (DEVELOPERS.md, recipe).
 """
 from __future__ import annotations
 
@@ -18,8 +19,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
-from .emissions import solve_emissions, wants_emissions, with_emissions
-from .equal_tad import solve_equal_tad, wants_equal_tad, with_equal_tad
+from ..analyses import parts
 from .kinetics import solve_sensitivities, wants_sensitivities, with_sensitivities
 from .premixer import horizon_of, solve_premixer, with_premixer
 from .schedule import sensitivity_seconds
@@ -88,29 +88,7 @@ def _premixer_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
             "stored delays are reread for a shorter residence time")
 
 
-#: The burned-gas history of one flame per species of the mechanism [s]: measured on 2 busy cores,
-#: 18-26 ms a GRI-Mech 3.0 (53 species) flame at six residence times, 2026-12-05.
-EMISSIONS_SECONDS_PER_SPECIES = 0.0005
-
-
-def _emissions_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    em = study.emissions
-    assert em is not None  # wanted only with [emissions]
-    return (f"Emissions: the burned gas of each burning point after {len(em.residence_times_s)} residence time(s) "
-            f"up to {1e3 * max(em.residence_times_s):g} ms (read from the stored flame, a plug flow beyond its "
-            "domain)", b.points_to_solve * EMISSIONS_SECONDS_PER_SPECIES * b.species / b.workers,
-            "other residence times integrate again, a new reference O2 or basis integrates nothing")
-
-
-def _equal_tad_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    n = study.n_points * (len(study.blend_fractions) - 1) // len(study.blend_fractions)
-    return (f"Emissions at equal flame temperature: each blended point's equivalence ratio matched to the unblended "
-            f"gas's adiabatic flame temperature (HP equilibrium), then up to {n} more flames (warm-started) and their "
-            "burned gas", n * (b.warm_flame_s + EMISSIONS_SECONDS_PER_SPECIES * b.species) / b.workers,
-            "those already stored are not solved again; equal_flame_temperature = false in [emissions] skips them")
-
-
-#: The registered per-point analyses, in the order a run solves them after the sweep.
+#: The core per-point extra solves, in the order a run solves them after the sweep.
 PER_POINT: tuple[PerPoint, ...] = (
     PerPoint("zeldovich", "Zeldovich pairs", lambda s: s.flame_response is not None and s.flame_response.zeldovich,
              solve_zeldovich, with_zeldovich, _zeldovich_estimate),
@@ -118,7 +96,10 @@ PER_POINT: tuple[PerPoint, ...] = (
              _sensitivity_estimate),
     PerPoint("premixer", "premixer ignition delays", lambda s: s.premixer is not None, solve_premixer, with_premixer,
              _premixer_estimate),
-    PerPoint("emissions", "burned-gas emissions", wants_emissions, solve_emissions, with_emissions, _emissions_estimate),
-    PerPoint("equal_tad", "flames at equal flame temperature", wants_equal_tad, solve_equal_tad, with_equal_tad,
-             _equal_tad_estimate),
 )
+
+
+def per_point() -> tuple[PerPoint, ...]:
+    """Every per-point extra solve, in the order a run solves them: the core ones above, then
+    those of the registered analyses (flamecharts.analyses: each one's ``solve`` part's PER_POINT)."""
+    return PER_POINT + tuple(a for m in parts("solve") for a in m.PER_POINT)

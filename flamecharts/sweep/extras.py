@@ -57,17 +57,28 @@ def done_keys(store: Store, keys: list[str]) -> set[str]:
     return {k for k, r in store.rows(keys).items() if r["reason"] not in RETRIED_REASONS}
 
 
+def task_function(task_name: str) -> Callable[[dict], dict]:
+    """The worker function ``task_name``: a function of sweep.worker, or 'module:function' (an
+    analysis's task part, flamecharts.analyses), imported here, on the solve side only."""
+    from importlib import import_module
+
+    from . import worker
+
+    if ":" in task_name:
+        module, name = task_name.split(":")
+        return getattr(import_module(module), name)
+    return getattr(worker, task_name)
+
+
 def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], task_name: str, backend: Backend,
                  progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
     """Solve ``task(task)`` for every (record, task) on the backend, ``task`` being the function
-    ``task_name`` of sweep.worker (imported here, on the solve side only: the read side of an
+    ``task_name`` (:func:`task_function`, imported here, on the solve side only: the read side of an
     extra needs no Cantera), commit each result under its record as it finishes (a worker that
     dies leaves a failed row: the next run tries again). Returns (extras solved, their summed seconds)."""
     if not todo:
         return 0, 0.0
-    from . import worker
-
-    fn: Callable[[dict], dict] = getattr(worker, task_name)
+    fn = task_function(task_name)
     executor = backend.executor(study)
     run_id = uuid.uuid4().hex[:12]
     in_flight = {executor.submit(fn, task): rec for rec, task in todo}

@@ -18,14 +18,13 @@ from collections.abc import Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from ..chemistry.emissions import burned_gas_history, equilibrium_temperature_K, phi_at_flame_temperature
+from ..analyses import parts
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
 from ..chemistry.mechanism import mixture_key, solution
 from ..chemistry.response import lewis_numbers, zeldovich_flames
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
-from ..physics.mixtures import unburned_mixture
 from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
@@ -35,8 +34,10 @@ if TYPE_CHECKING:
     from .points import Point
 
 #: Files (relative to the package) whose text decides a flame's answer: what a worker runs.
+#: The registered analyses' tasks (flamecharts.analyses: each one's ``task`` part) and the chemistry and
+#: physics modules they name in CODE count too (:func:`code_fingerprint`).
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
-               "chemistry/strained.py", "chemistry/sensitivity.py", "chemistry/emissions.py", "physics/emissions.py",
+               "chemistry/strained.py", "chemistry/sensitivity.py",
                "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
 
 
@@ -44,8 +45,11 @@ def code_fingerprint() -> str:
     """12 hex digits of the sha256 of the worker's code (:data:`WORKER_CODE`)."""
     root = Path(__file__).resolve().parent.parent
     code = hashlib.sha256()
-    for name in WORKER_CODE:
+    tasks = parts("task")
+    for name in WORKER_CODE + tuple(c for m in tasks for c in m.CODE):
         code.update((root / name).read_bytes())
+    for m in tasks:
+        code.update(Path(m.__file__ or "").read_bytes())
     return code.hexdigest()[:12]
 
 
@@ -166,32 +170,6 @@ def _plain(v: object) -> object:
     if isinstance(v, dict):
         return {k: _plain(x) for k, x in v.items()}
     return v.tolist() if hasattr(v, "tolist") else v
-
-
-def emissions_task(task: dict) -> dict:
-    """The burned gas of a stored flame after the study's residence times
-    (chemistry.emissions.burned_gas_history, from the peak heat release), as plain lists; a
-    plain result dict in the store's form (runs in a worker)."""
-    gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
-    return _extra(task, "warm", lambda: ({k: _plain(v) for k, v in
-                                          burned_gas_history(task["profile"], gas, task["times_s"]).items()}, ""))
-
-
-def equal_tad_task(task: dict) -> dict:
-    """The equivalence ratio at which a blend's adiabatic flame temperature equals its unblended
-    reference's (chemistry.emissions.phi_at_flame_temperature); a plain result dict in the
-    store's form, phi None where the blend never reaches it on that branch."""
-    gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
-
-    def match() -> tuple[dict, str]:
-        target = equilibrium_temperature_K(gas, task["X_reference"], task["T_u"], task["P"])
-        phi = phi_at_flame_temperature(
-            gas, lambda f: unburned_mixture(task["X_fuel"], task["X_oxidizer"], f, task["o2_per_fuel"]),
-            task["T_u"], task["P"], target, task["lean"])
-        return {"phi": phi, "target_T_K": target}, ("" if phi is not None else
-                                                    f"the blend does not reach {target:.0f} K on this side of "
-                                                    "stoichiometric")
-    return _extra(task, "fresh", match)
 
 
 def stretch_task(task: dict) -> dict:

@@ -7,6 +7,8 @@ design_charts.py pressure/preheat dependence, blends, flashback, operating windo
 stretch_charts.py strained flames: consumption speed against strain, extinction
 uncertainty_charts.py flame-speed sensitivity to rate constants ([uncertainty])
 mechanism_charts.py the same flames and limits under each mechanism a study compares
+regime_charts.py the premixer's turbulent-flame regimes and core-flow margin
+(the registered analyses' charts: each one's ``charts`` part, flamecharts.analyses)
 """
 from __future__ import annotations
 
@@ -17,6 +19,7 @@ from typing import TYPE_CHECKING
 import matplotlib.pyplot as plt
 import xarray as xr
 
+from ...analyses import parts as _analyses
 from ...results import to_dataset
 
 # the order of these imports is the order of the charts in the report: not sorted
@@ -26,11 +29,11 @@ from . import design_charts  # noqa: F401,I001
 from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
 from . import mechanism_charts  # noqa: F401,I001
-from . import emissions_charts  # noqa: F401,I001
-from . import regime_charts  # noqa: F401,I001
+_analyses("charts")  # the registered analyses' charts register on import (flamecharts.analyses)
+from . import regime_charts  # noqa: E402,F401,I001
 # isort: on
-from .registry import CHARTS, ChartData
-from .style import note_empty_panels
+from .registry import CHARTS, ChartData  # noqa: E402
+from .style import note_empty_panels  # noqa: E402
 
 if TYPE_CHECKING:
     from ...config import Study

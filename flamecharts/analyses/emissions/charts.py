@@ -18,9 +18,10 @@ import numpy as np
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from .phi_charts import _phi_chart
-from .registry import MAX_CURVES, ChartData, chart, spread
-from .style import MARKERS, colour_scale, empty_note, figure, finish, panels as panel_keys
+from ...outputs.charts.phi_charts import _phi_chart
+from ...outputs.charts.registry import MAX_CURVES, ChartData, chart, spread
+from ...outputs.charts.style import MARKERS, colour_scale, empty_note, figure, finish, panels as panel_keys
+from .table import of
 
 if TYPE_CHECKING:
     from matplotlib.figure import Figure
@@ -32,7 +33,7 @@ SCREENING = "laminar flame + adiabatic plug flow: no unmixedness, recirculation 
 
 
 def has_emissions(data: ChartData, study: Study) -> bool:
-    return study.emissions is not None and any(r.get("nox_ppmvd_at_reference_o2") is not None for r in data.rows)
+    return of(study) is not None and any(r.get("nox_ppmvd_at_reference_o2") is not None for r in data.rows)
 
 
 def several_blends_with_emissions(data: ChartData, study: Study) -> bool:
@@ -40,7 +41,7 @@ def several_blends_with_emissions(data: ChartData, study: Study) -> bool:
 
 
 def _reference(study: Study) -> tuple[float, float]:
-    em = study.emissions
+    em = of(study)
     assert em is not None  # drawn only with [emissions]
     return em.reference_oxygen_percent, 1e3 * em.design_residence_time_s
 

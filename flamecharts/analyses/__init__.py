@@ -1,0 +1,47 @@
+"""Analyses: what an optional study table adds to a run, each declared in one package.
+
+An analysis (``[emissions]``, say) lives in ``flamecharts/analyses/NAME/``, one module per part it
+has, each in the layer its file name says (tests/test_layers.py holds the map, PART_LAYERS):
+
+=============  ==========  =====================================================================
+part (file)    layer       what it declares
+=============  ==========  =====================================================================
+columns.py     bottom      UNITS (name -> unit, long name), POINT_COLUMNS (results.csv), TABLES
+                           (extra CSV files: file name -> columns)
+table.py       config      TABLE: the study table (a frozen dataclass, its keys, its parser with
+                           one-line errors, the species a [reduction] must keep for it)
+solve.py       sweep       PER_POINT: its extra solves of every point (sweep.analyses.PerPoint:
+                           the store key, the worker task, the merge, the ``check`` estimate)
+task.py        sweep       the worker's side of those solves (may import chemistry; it is part
+                           of the worker's code fingerprint)
+readout.py     design      READ_OUT: its columns of one point from the stored values
+dataset.py     results     DATASET: variables it adds to results.nc, rows of its extra CSV files
+report.py      outputs     REPORT: its section of report.html
+charts.py      outputs     its charts (registered with outputs.charts.registry.chart on import)
+console.py     cli         CONSOLE: the lines ``flamecharts run`` prints for it
+=============  ==========  =====================================================================
+
+Each layer's own code iterates :func:`parts` and never names an analysis, so adding one is its
+package and one line in :data:`ANALYSES`. A part is imported by the layer that uses it (a worker
+loads ``task`` and ``solve``, never ``charts``), so the layers' rule holds: nothing imports upward.
+"""
+from __future__ import annotations
+
+from importlib import import_module
+from importlib.util import find_spec
+from types import ModuleType
+
+#: The registered analyses (their package names under flamecharts.analyses), in the order a run
+#: solves their extras and the report shows their sections.
+ANALYSES: tuple[str, ...] = ("emissions",)
+
+
+def parts(part: str) -> list[ModuleType]:
+    """The ``part`` module (file name without .py) of every registered analysis that has one, in
+    :data:`ANALYSES` order."""
+    out = []
+    for name in ANALYSES:
+        dotted = f"{__name__}.{name}.{part}"
+        if find_spec(dotted) is not None:
+            out.append(import_module(dotted))
+    return out
