@@ -19,6 +19,7 @@ from typing import Any
 
 from flamecharts import config as C
 from flamecharts.analyses.emissions import table as EM
+from flamecharts.analyses.flame_response import table as FR
 from flamecharts.physics.gasprops import ISO6976_2016
 from flamecharts.physics.rate_factors import MAX_RATE_FACTOR
 from flamecharts.sweep.schedule import MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR
@@ -47,7 +48,7 @@ def defaults() -> SimpleNamespace:
     """The validated minimal study and its tables."""
     s = C.study_from_dict(MINIMAL, name="my_study")
     return SimpleNamespace(study=s, burner=s.burner, gas=s.gas_quality, limits=s.limits, premixer=s.premixer,
-                           response=s.flame_response, uncertainty=s.uncertainty, indicators=s.indicator_settings,
+                           response=FR.of(s), uncertainty=s.uncertainty, indicators=s.indicator_settings,
                            emissions=EM.of(s), reduction=s.reduction)
 
 
@@ -267,7 +268,7 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
                                      "critical extinction Damköhler number κ_ext d / U_edge of lean blowout (of "
                                      "order one, from memory: calibrate it on your own stabilizer)"),
         }),
-        ("flame_response", "[flame_response]", C.FLAME_RESPONSE_KEYS, (
+        ("flame_response", "[flame_response]", FR.KEYS, (
             "Zeldovich, effective Lewis and Markstein numbers and the thermodiffusive instability flag: two more "
             "flames per burning point, solved after the sweep and stored apart (the Lewis numbers of every point come "
             "without it)."), {

@@ -60,7 +60,7 @@ MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "flame_response", "stretch", "uncertainty",
+            "limits", "premixer", "keep_profiles", "stretch", "uncertainty",
             "reduction")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
@@ -89,7 +89,6 @@ DEFAULT_LIMIT_TOLERANCE = {"blend_fraction": 0.005, "equivalence_ratio": 0.005}
 DEFAULT_MAX_FLAMES_PER_SEARCH = 12
 PREMIXER_KEYS = ("residence_time_ms", "min_autoignition_margin", "turbulence_intensity_percent", "integral_length_mm",
                  "turbulent_flashback_peclet", "blowout_damkohler")
-FLAME_RESPONSE_KEYS = ("zeldovich", "inert_step")
 REDUCTION_KEYS = ("flame_speed_error_percent", "ignition_delay_error_percent", "species", "species_error_percent",
                   "validation_flames")
 #: [reduction]'s default targets [%]: the largest flame-speed, ignition-delay and target-species
@@ -112,7 +111,6 @@ STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pres
 #: Most strained-flame ladders one study may ask for (each is 10-40 flames).
 MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
-from .physics.flame_response import DEFAULT_INERT_STEP  # noqa: E402
 from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
 from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
 
@@ -209,16 +207,6 @@ class Premixer:
     turbulent_flashback_peclet: float | None = None
     #: Critical extinction Damkohler number of lean blowout (physics.premixer.BLOWOUT_CRITICAL_DAMKOHLER).
     blowout_damkohler: float = BLOWOUT_CRITICAL_DAMKOHLER
-
-
-@dataclass(frozen=True)
-class FlameResponse:
-    """The [flame_response] request: two extra flames per point with the inert's mole
-    fraction moved by ``inert_step`` either way give the Zeldovich number, and with it the
-    effective Lewis number, the Markstein number and the thermodiffusive regime."""
-
-    zeldovich: bool = True
-    inert_step: float = DEFAULT_INERT_STEP
 
 
 @dataclass(frozen=True)
@@ -365,7 +353,6 @@ class Study:
     limits: Limits | None = None
     premixer: Premixer | None = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
-    flame_response: FlameResponse | None = None
     stretch: Stretch | None = None
     uncertainty: Uncertainty | None = None
     #: The registered analyses' tables (flamecharts.analyses), by table name; each analysis reads its own
@@ -791,20 +778,6 @@ def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, kept: tuple[str
                      species=tuple(dict.fromkeys(s for s in species if s in facts.atoms)), validation_flames=n)
 
 
-def _flame_response(t: Any) -> FlameResponse:
-    if not isinstance(t, dict):
-        raise ConfigError("'flame_response' must be a table")
-    _check_keys(t, FLAME_RESPONSE_KEYS, "flame_response.")
-    z = t.get("zeldovich", True)
-    if not isinstance(z, bool):
-        raise ConfigError(f"'flame_response.zeldovich' must be true or false, got {show(z)}")
-    step = _positive(t, "inert_step", "flame_response")
-    if step is not None and step > 0.1:
-        raise ConfigError(f"'flame_response.inert_step' is {step:g}; allowed: above 0, at most 0.1 (a mole "
-                          "fraction of the mixture: 0.5 % is 0.005)")
-    return FlameResponse(zeldovich=z, **({} if step is None else {"inert_step": step}))
-
-
 def _uncertainty(t: Any, mechs: list[MechanismFacts]) -> Uncertainty:
     """The [uncertainty] table; each reaction named in ``factors`` must be in one of the study's mechanisms
     (a factor applies in every mechanism that has the reaction)."""
@@ -1054,7 +1027,6 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
         "limits": _limits(data["limits"], burner, blend_with, gas_quality, "premixer" in data,
                           "stretch" in data) if "limits" in data else None,
         "premixer": _premixer(data["premixer"]) if "premixer" in data else None,
-        "flame_response": _flame_response(data["flame_response"]) if "flame_response" in data else None,
         "stretch": _stretch(data["stretch"], axes) if "stretch" in data else None,
     }
 

@@ -16,7 +16,8 @@ task.py        sweep       the worker's side of those solves (may import chemist
                            of the worker's code fingerprint)
 readout.py     design      READ_OUT: its columns of one point from the stored values
 dataset.py     results     DATASET: variables it adds to results.nc, rows of its extra CSV files
-report.py      outputs     REPORT: its section of report.html
+report.py      outputs     SECTION: its section of report.html; KEY_NUMBERS (optional): its rows
+                           of the report's key numbers
 charts.py      outputs     its charts (registered with outputs.charts.registry.chart on import)
 console.py     cli         CONSOLE: the lines ``flamecharts run`` prints for it
 =============  ==========  =====================================================================
@@ -33,7 +34,7 @@ from types import ModuleType
 
 #: The registered analyses (their package names under flamecharts.analyses), in the order a run
 #: solves their extras and the report shows their sections.
-ANALYSES: tuple[str, ...] = ("emissions",)
+ANALYSES: tuple[str, ...] = ("flame_response", "emissions")
 
 
 def parts(part: str) -> list[ModuleType]:

@@ -159,7 +159,7 @@ def key_numbers(study: Study, rows: list[dict]) -> list[list[str]]:
         out.append(["Points with the verdict ok (every criterion assessed and met)", f"{n_ok} of {len(ok)}",
                     study.burner.name])
     for analysis in _analyses("report"):  # the registered analyses' key numbers (flamecharts.analyses)
-        out += analysis.KEY_NUMBERS(study, ok)
+        out += analysis.KEY_NUMBERS(study, ok) if hasattr(analysis, "KEY_NUMBERS") else []
     bad = [r for r in rows if r["status"] != "ok"]
     out.append(["Points without a flame", f"{len(bad)} of {len(rows)}",
                 "; ".join(f"{gas_label(r)} φ {r['equivalence_ratio']:g}: {r['status']}" for r in bad[:6])
@@ -636,47 +636,6 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                     "kinetic band, 1σ [%]"], table, {1, 2, 4, 5, 6}) + more]
 
 
-def _response_section(study: Study, rows: list[dict]) -> list[str]:
-    """Flame response to stretch per gas and condition: Lewis numbers, and with [flame_response]
-    the Zeldovich and Markstein numbers and where the flame is thermodiffusively unstable."""
-    ok = [r for r in rows if r["status"] == "ok" and r.get("lewis_number_fuel") is not None]
-    if not ok:
-        return []
-    groups = by_gas_and_condition(ok)
-    table = []
-    for (gas, ox, P, T), rs in groups.items():
-        rs = sorted(rs, key=lambda r: r["equivalence_ratio"])
-        cellular = [r["equivalence_ratio"] for r in rs if r.get("instability") == "cellular"]
-        ze = [r["zeldovich_number"] for r in rs if r.get("zeldovich_number") is not None]
-        ma = [(r["markstein_number_unburned"], r["equivalence_ratio"]) for r in rs
-              if r.get("markstein_number_unburned") is not None]
-        le_d = [r["lewis_number_fuel"] if r["equivalence_ratio"] <= 1 else r["lewis_number_oxygen"] for r in rs]
-        table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", f"{min(le_d):.2f}-{max(le_d):.2f}",
-                      f"{min(ze):.1f}-{max(ze):.1f}" if ze else "",
-                      f"{min(ma)[0]:+.2f} (φ {min(ma)[1]:g})" if ma else "",
-                      ", ".join(f"{v:g}" for v in cellular) if cellular else ("none" if ze else "")])
-    table, more = _first(table, "results.csv")
-    asked = study.flame_response is not None and study.flame_response.zeldovich
-    return ["<h2 id='flame-response'>Flame response to stretch</h2>",
-            "<p>Lean hydrogen-rich flames (Lewis number of the deficient reactant well below 1) burn faster where "
-            "they are stretched or curved than their unstretched S_L: they wrinkle into cells and flash back earlier "
-            "than the S_L-based indicators say. Lewis numbers of the fresh mixture (mixture-averaged transport; "
-            "blends weighted by heat release, Law et al. 2005)"
-            + ("; Zeldovich number from two extra flames per point with the inert moved "
-               f"{study.flame_response.inert_step:g} either way (Egolfopoulos &amp; Law 1990); effective Lewis number "
-               "(Matalon, Cui &amp; Bechtold 2003); Markstein number relative to the unburned gas (Clavin &amp; "
-               "Williams 1982); cellular where Ze (Le_eff - 1) &lt; -2 (Sivashinsky 1977). Theoretical numbers: "
-               "compare signs and trends with measurements, not values. A point can be cellular with Ma_u above 0: "
-               "Ma_u adds the expansion term σ ln σ/(σ - 1) to the thermodiffusive one that sets the cellular "
-               "instability."
-               if asked and study.flame_response is not None else
-               ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
-                             "and the instability flag (two extra flames per point).") + "</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "Le deficient reactant", "Ze", "lowest Ma_u (φ)", "cellular at φ"],
-                   table, {1, 2})
-            + more]
-
-
 def _stretch_section(study: Study, stretch: Sequence[dict]) -> list[str]:
     """The [stretch] ladders: extinction strain rate and the measured Markstein number per mixture."""
     if not stretch:
@@ -863,7 +822,6 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
 
     parts += _uncertainty_section(study, rows, comparison)
     parts += _mechanisms_section(study, comparison)
-    parts += _response_section(study, rows)
     parts += _stretch_section(study, stretch)
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)

@@ -5,7 +5,7 @@ PerPoint      one analysis's per-point extra solve: whether the study wants it, 
               merge into each point's metrics, and what ``check`` estimates for it
 Budget        what an estimate knows: points still to solve, workers, a warm flame's seconds,
               the mechanism's size
-PER_POINT     the core extra solves (Zeldovich pairs, sensitivities, the premixer's delays)
+PER_POINT     the core extra solves (sensitivities, the premixer's delays)
 per_point     those and the registered analyses' (flamecharts.analyses: each one's ``solve`` part
               declares its PER_POINT), in the order a run solves them (after the sweep)
 
@@ -23,7 +23,6 @@ from ..analyses import parts
 from .kinetics import solve_sensitivities, wants_sensitivities, with_sensitivities
 from .premixer import horizon_of, solve_premixer, with_premixer
 from .schedule import sensitivity_seconds
-from .zeldovich import solve_zeldovich, with_zeldovich
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -57,15 +56,6 @@ class PerPoint:
     estimate: Callable[[Study, Budget], tuple[str, float, str]]
 
 
-def _zeldovich_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    fr = study.flame_response
-    assert fr is not None  # wanted only with [flame_response]
-    return (f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
-            f"burning point (up to {2 * b.points_to_solve} flames, the inert moved {fr.inert_step:g} either way, "
-            "warm-started from the point's stored flame after the sweep)",
-            2 * b.points_to_solve * b.warm_flame_s / b.workers, "pairs already stored are not solved again")
-
-
 def _sensitivity_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
     t = b.points_to_solve * sensitivity_seconds(b.species, b.reactions, study.resolution) / b.workers
     return (f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
@@ -90,8 +80,6 @@ def _premixer_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
 
 #: The core per-point extra solves, in the order a run solves them after the sweep.
 PER_POINT: tuple[PerPoint, ...] = (
-    PerPoint("zeldovich", "Zeldovich pairs", lambda s: s.flame_response is not None and s.flame_response.zeldovich,
-             solve_zeldovich, with_zeldovich, _zeldovich_estimate),
     PerPoint("sensitivity", "flame-speed sensitivities", wants_sensitivities, solve_sensitivities, with_sensitivities,
              _sensitivity_estimate),
     PerPoint("premixer", "premixer ignition delays", lambda s: s.premixer is not None, solve_premixer, with_premixer,

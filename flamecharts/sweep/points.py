@@ -72,12 +72,6 @@ def settings_of(study: Study) -> dict:
     }
 
 
-def zeldovich_step(study: Study) -> float | None:
-    """The inert step of the study's Zeldovich flames, None when it asks for none."""
-    fr = study.flame_response
-    return fr.inert_step if fr is not None and fr.zeldovich else None
-
-
 def _hash(obj) -> str:
     return hashlib.sha256(json.dumps(obj, sort_keys=True).encode()).hexdigest()[:32]
 

@@ -22,7 +22,7 @@ from ..analyses import parts
 from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
 from ..chemistry.mechanism import mixture_key, solution
-from ..chemistry.response import lewis_numbers, zeldovich_flames
+from ..chemistry.response import lewis_numbers
 from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..store.db import pack_profile
@@ -136,24 +136,6 @@ def premixer_task(task: dict) -> dict:
     return _extra(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
                                            "premixer_horizon_s": task["horizon_s"],
                                            "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}, ""))
-
-
-def zeldovich_task(task: dict) -> dict:
-    """The Zeldovich pair of a stored flame (chemistry.response.zeldovich_flames), warm-started
-    from its profile; a plain result dict in the store's form (runs in a worker)."""
-    t0 = time.perf_counter()
-    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
-
-    def solve(X: dict, warm: dict | None) -> dict:
-        return solve_flame(gas, task["T_u"], task["P"], X, task["transport"], task["thermal_diffusion"],
-                           NUMERICS[task["resolution"]], warm, task.get("time_limit_s"))
-
-    base = {"metrics": task["base_metrics"], "profile": task["warm"]}
-    m = zeldovich_flames(solve, task["X"], list(gas.species_names), task["T_u"], base, task["zeldovich_step"])
-    ok = m["zeldovich_number"] is not None
-    return {"key": task["key"], "status": "ok" if ok else "failed", "reason": "" if ok else "not converged",
-            "message": m.get("zeldovich_message", ""), "start": "warm", "metrics": m, "profile_blob": None,
-            "solve_seconds": time.perf_counter() - t0}
 
 
 def sensitivity_task(task: dict) -> dict:

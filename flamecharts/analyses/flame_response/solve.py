@@ -2,8 +2,9 @@
 
 zeldovich_key     the pair's store key: the point's inputs and the inert step
 solve_zeldovich   one task per burning point whose pair the store lacks, warm-started from the
-                  point's stored profile, on the run's backend
+                  point's stored profile, on the run's backend (task.zeldovich_task)
 with_zeldovich    the stored rows of the points with their pair's metrics merged in
+PER_POINT         the pair in sweep.analyses' shape, with its ``check`` estimate
 
 Stored apart from the point (sweep.extras), so asking for the pair, or another inert step,
 never solves the sweep again.
@@ -13,14 +14,19 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import TYPE_CHECKING
 
-from ..store import Store
-from .extras import derived_key, done_keys, record, solve_extras
-from .points import Point, zeldovich_step
-from .schedule import flame_time_limit
+from ...store import Store
+from ...sweep.analyses import Budget, PerPoint
+from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.points import Point
+from ...sweep.schedule import flame_time_limit
+from .table import of, zeldovich_step
 
 if TYPE_CHECKING:
-    from ..config import Study
-    from .backends import Backend
+    from ...config import Study
+    from ...sweep.backends import Backend
+
+#: The worker function of the pair (task.py), as sweep.extras.task_function finds it.
+TASKS = "flamecharts.analyses.flame_response.task:"
 
 #: Changes of the method that change the stored answer (part of the key).
 ZELDOVICH_VERSION = 1
@@ -50,7 +56,7 @@ def solve_zeldovich(study: Study, store: Store, pts: list[Point], stored: dict[s
     todo = [(record("zeldovich", zeldovich_key(p, step), p),
              _task(study, p, stored[p.key], store.profile(p.key), step))
             for p in burning if zeldovich_key(p, step) not in done]
-    return solve_extras(study, store, todo, "zeldovich_task", backend, progress)
+    return solve_extras(study, store, todo, TASKS + "zeldovich_task", backend, progress)
 
 
 def with_zeldovich(study: Study, pts: list[Point], stored: dict[str, dict], store: Store) -> dict[str, dict]:
@@ -67,3 +73,16 @@ def with_zeldovich(study: Study, pts: list[Point], stored: dict[str, dict], stor
         if pair and row and pair.get("metrics") and row.get("metrics"):
             out[p.key] = {**row, "metrics": {**row["metrics"], **pair["metrics"]}}
     return out
+
+
+def _zeldovich_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
+    fr = of(study)
+    assert fr is not None  # wanted only with [flame_response]
+    return (f"Flame response: Lewis numbers of every point, and the Zeldovich number from 2 more flames per "
+            f"burning point (up to {2 * b.points_to_solve} flames, the inert moved {fr.inert_step:g} either way, "
+            "warm-started from the point's stored flame after the sweep)",
+            2 * b.points_to_solve * b.warm_flame_s / b.workers, "pairs already stored are not solved again")
+
+
+PER_POINT = (PerPoint("zeldovich", "Zeldovich pairs", lambda s: zeldovich_step(s) is not None, solve_zeldovich,
+                      with_zeldovich, _zeldovich_estimate),)
