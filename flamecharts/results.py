@@ -519,10 +519,6 @@ class Results:
         rows, columns = extra_tables(self.study, self.rows).get(file_name, ([], ()))
         return pd.DataFrame([[r.get(c) for c in columns] for r in rows], columns=list(columns))
 
-    def emissions(self) -> pd.DataFrame:
-        """emissions.csv as a DataFrame ([emissions]; :meth:`extra_table`)."""
-        return self.extra_table("emissions.csv")
-
     def counts(self) -> dict[str, int]:
         """Points by status: ok, no_flame, failed, autoignition, pending."""
         out = {"ok": 0, "no_flame": 0, "failed": 0, "pending": 0}
