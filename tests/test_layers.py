@@ -117,3 +117,20 @@ def test_the_read_side_does_not_import_the_chemistry_layer():
     for name, path in mods.items():
         if _top(name) in ("design", "results", "admissible", "outputs"):
             assert not {m for m in _imports(name, path) if _top(m) == "chemistry"}, name
+
+
+def test_public_functions_and_those_taking_a_study_are_annotated():
+    """Every public function, and every function with a ``study`` parameter, has annotations on
+    its parameters and its return (mypy checks them in .ci/run)."""
+    bare = []
+    for name, path in _modules().items():
+        for node in ast.walk(ast.parse(path.read_text())):
+            if not isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef)):
+                continue
+            params = [a for a in node.args.posonlyargs + node.args.args + node.args.kwonlyargs
+                      if a.arg not in ("self", "cls")]
+            if node.name.startswith("_") and not any(a.arg == "study" for a in params):
+                continue
+            if node.returns is None or any(a.annotation is None for a in params):
+                bare.append(f"{name}.{node.name}")
+    assert not bare, bare

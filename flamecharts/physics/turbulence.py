@@ -9,19 +9,20 @@ Sc = 1, so nu = alpha), not the thermal thickness from the temperature gradient,
 several times larger: a diagram drawn on the thermal thickness moves every point and must say
 so. The dissipation rate is taken as epsilon = u'^3/l_t.
 
-Pure functions of SI inputs; they broadcast over NumPy arrays. Nothing here is wired into a
-study yet (issue 30 builds the premixer's answers on it).
+Pure functions of SI inputs; they broadcast over NumPy arrays (design.turbulence_columns reads
+them out for a premixer's points, outputs.charts.regime_charts draws the diagram).
 """
 from __future__ import annotations
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 #: Karlovitz number above which small eddies enter the inner reaction layer (Ka_delta = 1 with
 #: a reaction layer a tenth of l_F: Peters 2000, sec. 2.3).
 BROKEN_REACTION_ZONES_KA = 100.0
 
 
-def diffusive_thickness(alpha_u_m2_s, S_L_m_s):
+def diffusive_thickness(alpha_u_m2_s: ArrayLike, S_L_m_s: ArrayLike) -> np.ndarray:
     """Peters' flame thickness l_F = alpha_u / S_L [m].
 
     >>> round(float(diffusive_thickness(2.2e-5, 0.37)) * 1e6, 1)   # methane-air, 1 atm: 59.5 um
@@ -30,7 +31,7 @@ def diffusive_thickness(alpha_u_m2_s, S_L_m_s):
     return np.asarray(alpha_u_m2_s) / np.asarray(S_L_m_s)
 
 
-def turbulent_reynolds(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
+def turbulent_reynolds(u_prime_m_s: ArrayLike, l_t_m: ArrayLike, S_L_m_s: ArrayLike, l_F_m: ArrayLike) -> np.ndarray:
     """Re_t = u' l_t / (S_L l_F) [-] (= u' l_t / nu with nu = alpha_u = S_L l_F; Peters 2000, eq. 2.9).
 
     >>> round(float(turbulent_reynolds(2.0, 0.01, 0.4, 5e-5)), 6)
@@ -39,7 +40,7 @@ def turbulent_reynolds(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
     return np.asarray(u_prime_m_s) * np.asarray(l_t_m) / (np.asarray(S_L_m_s) * np.asarray(l_F_m))
 
 
-def damkohler(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
+def damkohler(u_prime_m_s: ArrayLike, l_t_m: ArrayLike, S_L_m_s: ArrayLike, l_F_m: ArrayLike) -> np.ndarray:
     """Da = (l_t/u') / (l_F/S_L) [-]: the turnover time of the large eddies over the flame time
     (Peters 2000, eq. 2.10).
 
@@ -49,7 +50,7 @@ def damkohler(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
     return (np.asarray(l_t_m) / np.asarray(u_prime_m_s)) / (np.asarray(l_F_m) / np.asarray(S_L_m_s))
 
 
-def karlovitz(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
+def karlovitz(u_prime_m_s: ArrayLike, l_t_m: ArrayLike, S_L_m_s: ArrayLike, l_F_m: ArrayLike) -> np.ndarray:
     """Ka = (l_F/eta)^2 = (u'/S_L)^(3/2) (l_t/l_F)^(-1/2) [-]: the flame time over the Kolmogorov
     time, with epsilon = u'^3/l_t and nu = S_L l_F (Peters 2000, eq. 2.11).
 
@@ -61,7 +62,7 @@ def karlovitz(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
     return ratio_u ** 1.5 / np.sqrt(ratio_l)
 
 
-def kolmogorov_length(nu_m2_s, u_prime_m_s, l_t_m):
+def kolmogorov_length(nu_m2_s: ArrayLike, u_prime_m_s: ArrayLike, l_t_m: ArrayLike) -> np.ndarray:
     """eta = (nu^3 / epsilon)^(1/4) with epsilon = u'^3 / l_t [m].
 
     >>> round(float(kolmogorov_length(1.5e-5, 2.0, 0.01)) * 1e6, 1)
@@ -71,7 +72,7 @@ def kolmogorov_length(nu_m2_s, u_prime_m_s, l_t_m):
     return (np.asarray(nu_m2_s) ** 3 / eps) ** 0.25
 
 
-def regime(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
+def regime(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, l_F_m: float) -> str:
     """The regime of Peters' diagram (2000, fig. 2.8) a flame falls in: 'laminar' (Re_t < 1),
     'wrinkled flamelets' (u' < S_L), 'corrugated flamelets' (Ka < 1), 'thin reaction zones'
     (1 <= Ka < 100) or 'broken reaction zones' (Ka >= 100). Scalars only.
@@ -89,7 +90,7 @@ def regime(u_prime_m_s, l_t_m, S_L_m_s, l_F_m):
     return "thin reaction zones" if ka < BROKEN_REACTION_ZONES_KA else "broken reaction zones"
 
 
-def regime_lines(length_ratio):
+def regime_lines(length_ratio: ArrayLike) -> dict[str, np.ndarray]:
     """u'/S_L of the diagram's boundary lines at l_t/l_F = ``length_ratio`` [-], from the
     definitions above: Re_t = 1 (u'/S_L = (l_t/l_F)^-1), Da = 1 (= l_t/l_F), Ka = 1
     (= (l_t/l_F)^(1/3)) and Ka = 100 (= 100^(2/3) (l_t/l_F)^(1/3)).

@@ -61,7 +61,7 @@ def emissions_section(study: Study, rows: list[dict]) -> list[str]:
     if missing:
         parts.append(f"<p>{len(missing)} burning point(s) have no emissions: {_e(missing[0]['emissions_note'])}.</p>")
 
-    def num(v) -> str:
+    def num(v: float | None) -> str:
         return "" if v is None else f"{v:,.0f}" if abs(v) >= 1000 else f"{v:.3g}"
     at = f" [ppm @{ref:g} % O2]"
     header = ["gas", "φ", "p [bar]", "T_u [K]", "NOx" + at, "CO" + at, "flame-zone NO" + at, "equilibrium NO" + at,
