@@ -3,7 +3,7 @@
 Run:  python tests/benchmarks/emissions_cost.py
 
 For each case, one free flame is solved from scratch with the project's solver (standard
-resolution) and timed; then the worker's emissions task (sweep.worker.emissions_task: the
+resolution) and timed; then the worker's emissions task (analyses.emissions.task.emissions_task: the
 burned gas read from the flame's profile, a plug flow beyond its domain) runs on the stored
 form of its profile at the default residence times (2, 5, 10, 20, 50 ms) and is timed in the
 same process. Printed: each case's flame seconds, emissions seconds and their ratio; the
@@ -21,11 +21,11 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 
+from flamecharts.analyses.emissions.task import emissions_task  # noqa: E402
 from flamecharts.chemistry.flame import NUMERICS, solve_flame  # noqa: E402
 from flamecharts.chemistry.mechanism import find_mechanism, solution  # noqa: E402
 from flamecharts.physics import mixtures  # noqa: E402
 from flamecharts.store.db import pack_profile, unpack_profile  # noqa: E402
-from flamecharts.sweep.worker import emissions_task  # noqa: E402
 
 AIR = {"O2": 1.0, "N2": 3.76}
 #: name -> (mechanism, fuel, phi)
