@@ -20,8 +20,8 @@ kappa_ext rises with the hydrogen fraction (0 -> 50 -> 100 %), so the extinction
 kappa_ext d / U_edge of design.blowout_columns rises, and the blowout margin reaches its minimum at a
 leaner phi. The expectation: lean blowout of H2/CO/CH4 blends collapses on an extinction-strain
 Damkohler number and moves leaner with hydrogen (Zhang, Noble, Meyers, Xu & Lieuwen 2007, from
-memory). Exit code 1 when it fails (too dear for the test suite: 12 ladders, about 8 minutes; two
-ladders at phi 0.5 alone take over a minute).
+memory). Exit code 1 when it fails (too dear for the test suite: the 12 ladders take about 5 minutes
+of CPU time, about 25 s a ladder, and the check needs at least two).
 """
 from __future__ import annotations
 
