@@ -132,6 +132,7 @@ WHEN = {
     "has_sensitivities": "[uncertainty]",
     "has_emissions": "[emissions], a burning point with emissions",
     "has_regimes": "[premixer] and a [burner] with a port velocity, and a burning point",
+    "has_turbulent_speeds": "[premixer] and a [burner] with a port velocity, and a burning point",
     "has_core_margins": "[premixer] and a [burner] with a port velocity, several blend fractions and a burning point",
     "several_blends_with_emissions": "[emissions] and several blend fractions",
     "compares_flames": "several mechanisms",

@@ -185,6 +185,8 @@ UNITS: dict[str, tuple[str, str]] = {
     "closest_miss_margins": ("", "every criterion's margin there"),
     "swept_failures": ("", "which criterion fails at each swept point that fails"),
     "tolerance": ("1", "width of the final bracket the edges were refined to"),
+    "core_flashback_basis": ("", "where core_flashback binds: the turbulent flame speed its margin rests on (the "
+                             "largest), and whether outside its correlation's fitted range"),
     "flames_evaluated": ("1", "flames the search asked for beyond the sweep (stored ones count)"),
     "evaluated_at": ("", "where the search asked for flames, in order"),
     "note": ("", "how the search ended: edges not settled, failing intervals searched without a window, "
@@ -338,7 +340,7 @@ LIMIT_COLUMNS = (
     "flame_lower_edge", "flame_lower_kind", "flame_lower_binding", "flame_upper_edge", "flame_upper_kind",
     "flame_upper_binding", "wobbe_band_from", "wobbe_band_to", "closest_miss_at", "closest_miss_binding",
     "closest_miss_margin", "closest_miss_margins", "swept_failures", "criteria_not_assessed", "tolerance",
-    "flames_evaluated", "evaluated_at", "note", "mechanism",
+    "flames_evaluated", "evaluated_at", "core_flashback_basis", "note", "mechanism",
 )
 
 #: fuel_gases.csv, one row per fuel gas (fuel, blend fraction, oxidizer).

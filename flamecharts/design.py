@@ -303,6 +303,37 @@ def _verdict(b: Burner, margins: dict[str, float | None], unassessed: dict[str, 
     return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {assessed} only; {gap}"
 
 
+def verdict_tally(verdicts: list[str]) -> str:
+    """How many of a condition's burning points are ok, and on what, in the verdicts' own words
+    (``_verdict``, ``premixer_verdict``): ok on every criterion, ok on the criteria assessed
+    (grouped by what was and was not assessed), at risk, nothing assessed. A parenthesis of a
+    verdict (what a criterion rests on) is left out.
+
+    >>> verdict_tally(["ok on core-flow flashback only; blowout not assessed"] * 2 + ["blowout risk"])
+    '2 of 3 points ok on core-flow flashback only (blowout not assessed), 1 at risk'
+    >>> verdict_tally(["ok", "ok (core-flow flashback judged on the leading-point S_T)"])
+    '2 of 2 points ok on every criterion'
+    """
+    groups: dict[str, int] = {}
+    for v in verdicts:
+        v = re.sub(r" \([^()]*\)", "", v)
+        if v == "ok":
+            words = "ok on every criterion"
+        elif v.startswith("ok on ") and "; " in v:
+            on, gap = v.split("; ", 1)
+            words = f"{on} ({gap})"
+        elif "risk" in v:
+            words = "at risk"
+        else:
+            words = f"with no criterion assessed ({v})"
+        groups[words] = groups.get(words, 0) + 1
+    if not any(w.startswith("ok") for w in groups):
+        groups = {"ok": 0, **groups}
+    order = sorted(groups, key=lambda w: (not w.startswith("ok on every"), not w.startswith("ok"), w == "at risk"))
+    parts = [f"{groups[w]} {w}" for w in order]
+    return f"{groups[order[0]]} of {len(verdicts)} points {order[0]}" + "".join(", " + p for p in parts[1:])
+
+
 def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
     b = study.burner
     out: dict[str, Any] = dict.fromkeys(BURNER_COLUMNS)
@@ -967,13 +998,35 @@ def premixer_unassessed(study: Study, row: dict) -> dict[str, str]:
     return out
 
 
+#: How a verdict or limit sentence names a correlation of ``speeds_at``.
+SPEED_WORDS = {"zimont": "Zimont's S_T", "muppala": "Muppala et al.'s S_T", "leading point": "the leading-point S_T"}
+
+
+def core_flashback_basis(row: dict) -> str:
+    """Which turbulent flame speed a point's core-flow flashback margin rests on (the largest,
+    ``core_flashback_correlation``), and whether it lies outside its correlation's fitted range
+    (physics.premixer's ranges); '' without a core-flow margin.
+
+    >>> core_flashback_basis({"core_flashback_correlation": "muppala",
+    ...                       "turbulent_flame_speed_outside_range": "muppala: Le 0.4 outside 0.9-2"})
+    "Muppala et al.'s S_T, outside its fitted range"
+    """
+    name = row.get("core_flashback_correlation")
+    if not name:
+        return ""
+    outside = {part.split(": ", 1)[0] for part in (row.get("turbulent_flame_speed_outside_range") or "").split("; ")}
+    return SPEED_WORDS.get(name, name) + (", outside its fitted range" if name in outside else "")
+
+
 def premixer_verdict(study: Study, row: dict) -> str:
     """The verdict of a burning premixer point: its own criteria (the core-flow flashback margin,
     the boundary-layer one where assessed, the extinction-strain blowout margin where a ladder and a
     stabilizer give it) against the burner's minimum margins, plus the burner's laminar rim or
     stabilizer blowoff criterion where that is assessed (the laminar flashback criterion is the
     boundary-layer model's laminar end, so it is not counted twice). 'ok', the risks, and which
-    of the premixer's criteria are not assessed."""
+    of the premixer's criteria are not assessed, then which turbulent flame speed the core-flow
+    criterion was judged on and whether it lies outside its fitted range (:func:`core_flashback_basis`:
+    an 'ok' for a hydrogen-rich fuel may rest on a correlation fitted on hydrocarbon flames)."""
     b = study.burner
     assert b is not None  # asked only of a premixer point, which has a [burner]
     unassessed = premixer_unassessed(study, row)
@@ -985,11 +1038,13 @@ def premixer_verdict(study: Study, row: dict) -> str:
     if (row.get("instability") == "cellular" and "boundary-layer flashback" not in unassessed
             and row.get("ladder_consumption_speed_max_m_s") is None):
         risks.append("boundary-layer flashback risk underestimated (thermodiffusively unstable, no ladder)")
+    basis = core_flashback_basis(row)
+    judged = f" (core-flow flashback judged on {basis})" if basis else ""
     if not unassessed:
-        return " and ".join(risks) if risks else "ok"
+        return (" and ".join(risks) if risks else "ok") + judged
     gap = f"{' and '.join(unassessed)} not assessed"
     assessed = [c for c in decide if c not in unassessed]
-    return f"{' and '.join(risks)}; {gap}" if risks else f"ok on {' and '.join(assessed)} only; {gap}"
+    return (f"{' and '.join(risks)}; {gap}" if risks else f"ok on {' and '.join(assessed)} only; {gap}") + judged
 
 
 def premixer_margins(study: Study, rows: list[dict], ladders: Ladders | None = None) -> None:

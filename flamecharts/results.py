@@ -39,7 +39,15 @@ from .columns import (
     gas_label,
 )
 from .config import Burner, Study, by_mechanism, load_config_copy, lumping_note, reduction_note, resolution_label
-from .design import Ladders, annotate, mechanism_differences, point_warnings, premixer_columns, reduction_columns
+from .design import (
+    Ladders,
+    annotate,
+    mechanism_differences,
+    point_warnings,
+    premixer_columns,
+    reduction_columns,
+    verdict_tally,
+)
 from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
@@ -376,8 +384,10 @@ def margin_summary(ds: xr.Dataset, burner: Burner | None) -> list[dict]:
     """Per fuel, oxidizer, blend fraction, pressure and preheat with a burning flame: the smallest
     flashback and blowoff margins along equivalence ratio and the phi where each occurs (the
     first in the study's order on a tie; None where the margin is not assessed at any phi), and
-    how many burning points have the verdict ok. The blowoff margin is the one that applies
-    (config.Burner.blowoff: the stabilizer's when a bluff body holds the flame)."""
+    how many burning points have the verdict ok and, in words, on what they are ok and what was
+    not assessed (``points_words``: design.verdict_tally). The blowoff margin is the one that applies
+    (config.Burner.blowoff: the stabilizer's when a bluff body holds the flame); a premixer's
+    lowest core-flow flashback margin comes too (``min_core_flashback_margin``)."""
     if burner is None:
         return []
     if "mechanism" in ds.dims:
@@ -398,7 +408,12 @@ def margin_summary(ds: xr.Dataset, burner: Burner | None) -> list[dict]:
                     "pressure_bar": float(key[3]), "unburned_temperature_K": float(key[4]),
                     **_lowest(fb, phis, "flashback"), **_lowest(bo, phis, "blowoff"),
                     "points_ok": int((verdict[burning] == "ok").sum()), "points": int(burning.sum()),
+                    "points_words": verdict_tally([str(v) for v in verdict[burning]]),
                     "mechanism": ds.attrs.get("mechanism", "")})
+    if "core_flashback_margin" in ds:  # a premixer's own flashback criterion
+        for s, core in zip(out, [m for m, v in zip(along_phi("core_flashback_margin"), along_phi("verdict"))
+                                 if (v != "").any()]):
+            s.update(_lowest(core, phis, "core_flashback"))
     return out
 
 

@@ -51,9 +51,11 @@ def test_every_chart_renders_with_units_and_is_not_blank(study_rows):
     assert names == set(ALL) == set(CAPTIONS) - {"consumption_speed_vs_strain", "flame_speed_sensitivity",
                                                  "mechanism_comparison", "limits_by_mechanism",
                                                  "nox_vs_equivalence_ratio", "nox_vs_blend_fraction", "co_burnout",
-                                                 "turbulent_regime_diagram", "core_flashback_vs_blend_fraction"}
+                                                 "turbulent_regime_diagram", "core_flashback_vs_blend_fraction",
+                                                 "turbulent_flame_speed_vs_phi"}
     # [stretch]: tests/test_stretch.py; [uncertainty]: tests/test_uncertainty.py; [emissions]: tests/test_emissions.py;
-    # the regime diagram: tests/test_ignition.py; the core-flow margin: tests/test_premixer_flame_speed.py
+    # the regime diagram: tests/test_ignition.py; the core-flow margin and the turbulent flame speeds:
+    # tests/test_premixer_flame_speed.py
     for name in ALL:
         png, svg = folder / "o" / "charts" / f"{name}.png", folder / "o" / "charts" / f"{name}.svg"
         assert np.asarray(mpimg.imread(png)).std() > 0.05, name

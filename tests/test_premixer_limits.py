@@ -175,9 +175,14 @@ def test_without_a_ladder_the_blowout_is_not_assessed_and_the_core_margin_alone_
         "flashback at 2 of 2 swept flames") and "extinction_blowout at 2 of 2 swept flames (at 0 %: no ladder at this " \
         "gas and pressure and preheat" in lim["criteria_not_assessed"]
     assert (lim["outcome"], lim["lower_kind"], lim["upper_binding"]) == ("window", "range end", "core_flashback")
-    assert all(r["verdict"].endswith("boundary-layer flashback and blowout not assessed")
-               for r in res.rows if r["pressure_bar"] == 2.0)
+    # without a ladder the largest S_T is Muppala et al.'s, whose hydrocarbon data (Le 0.9-2, from memory) do not
+    # reach hydrogen's Lewis number: the verdict and the sentence say what the core-flow answer rests on
+    muppala = "Muppala et al.'s S_T, outside its fitted range"
+    assert all(r["verdict"].endswith(f"boundary-layer flashback and blowout not assessed (core-flow flashback judged "
+                                     f"on {muppala})") for r in res.rows if r["pressure_bar"] == 2.0)
+    assert lim["core_flashback_basis"] == muppala
     sentence = limit_sentence(lim, res.study)
+    assert f"(core_flashback binds on {muppala}: margin" in sentence
     assert "not assessed: flashback at 2 of 2 swept flames, stabilizer at 2 of 2 swept flames, extinction_blowout at " \
            "2 of 2 swept flames" in sentence
     # the answer never reads as flashback-proof: boundary-layer flashback is outside these criteria
@@ -198,7 +203,10 @@ def test_the_report_and_the_limits_chart_name_the_premixers_criteria(premixer_li
     lim = _by(res.limits, 1.0)
     assert (f"keeps every assessed margin from {100 * lim['lower_edge']:.1f} % (extinction_blowout binds below: margin "
             f"{lim['lower_margin']:.2f} there, minimum {MIN_STABILIZER:g}) to {100 * lim['upper_edge']:.1f} % hydrogen "
-            f"(core_flashback binds: margin {lim['upper_margin']:.2f} there, minimum {MIN_FLASHBACK:g})") in html
+            f"(core_flashback binds on {lim['core_flashback_basis']}: margin {lim['upper_margin']:.2f} there, minimum "
+            f"{MIN_FLASHBACK:g})") in html
+    # which turbulent flame speed the core_flashback edge rests on, and whether outside its fitted range
+    assert lim["core_flashback_basis"] in {"the leading-point S_T", "Muppala et al.'s S_T, outside its fitted range"}
     assert "A premixer's criteria." in html and "the same function of the flame at both" in html
     fig = limits_chart(ChartData(rows=res.rows, gases=fuel_gas_table(study), dataset=res.dataset, limits=res.limits),
                        study)

@@ -21,7 +21,7 @@ from typing import TYPE_CHECKING
 from scipy.optimize import brentq
 
 from ..columns import LIMIT_COLUMNS
-from ..design import Ladders, fuel_gas, not_assessed, port_flow, sweep_ladders
+from ..design import Ladders, core_flashback_basis, fuel_gas, not_assessed, port_flow, sweep_ladders
 from ..results import point_rows
 from ..sweep.points import Point, points
 from .search import (
@@ -301,6 +301,7 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
         row = {**common, "window": 0, "outcome": outcome,
                "note": "; ".join(a.stopped + _band_words(a, s.band) + ends)}
         if m is not None:
+            row.update(core_flashback_basis=_core_basis([(m.binding, m.row)]))
             row.update(closest_miss_at=m.at, closest_miss_binding=m.binding,
                        closest_miss_margin=_margin(m.row, m.binding),
                        closest_miss_margins=", ".join(f"{c} {_margin(m.row, c):.3g}" for c in crit
@@ -316,6 +317,8 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
         for side, e in (("lower", w.lower), ("upper", w.upper)):
             row.update({f"{side}_edge": e.value, f"{side}_kind": e.kind, f"{side}_binding": e.binding,
                         f"{side}_margin": _margin(e.row, e.binding), f"{side}_bracket_failing": e.failing})
+        edges = [w.lower, w.upper] + ([w.flame.lower, w.flame.upper] if w.flame is not None else [])
+        row["core_flashback_basis"] = _core_basis([(e.binding, e.row) for e in edges])
         if w.flame is not None:
             row.update(_flame_columns(w.flame))
             assert s.band is not None  # a window keeps its flame window only under the Wobbe band
@@ -324,6 +327,13 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
+
+
+def _core_basis(bound: list[tuple[str, dict | None]]) -> str | None:
+    """Which turbulent flame speed the core_flashback edges (binding, flame row) rest on, and whether
+    outside its fitted range (design.core_flashback_basis); None where core_flashback binds nowhere."""
+    words = sorted({core_flashback_basis(row) for c, row in bound if c == "core_flashback" and row is not None} - {""})
+    return "; ".join(words) or None
 
 
 def _cellular_words(s: _Search, w: Window) -> list[str]:

@@ -84,7 +84,14 @@ def _binds(r: dict, side: str, study: Study, past: str) -> str:
         return f"no criterion is assessed{past}"
     need = _minimum(study, c)
     there = f": margin {m:.2f} there, minimum {need:g}" if m is not None and need is not None else ""
-    return f"{c} binds{past}{there}"
+    return f"{c} binds{past}{_on(r, c)}{there}"
+
+
+def _on(r: dict, criterion: str | None) -> str:
+    """' on Muppala et al.'s S_T, outside its fitted range' where core_flashback binds: what its margin
+    rests on (limits.csv core_flashback_basis); '' for the other criteria."""
+    basis = r.get("core_flashback_basis")
+    return f" on {basis}" if criterion == "core_flashback" and basis else ""
 
 
 def _blend_edge(r: dict, side: str, study: Study, blend: str) -> str:
@@ -99,7 +106,7 @@ def _blend_edge(r: dict, side: str, study: Study, blend: str) -> str:
             fk = r.get("flame_upper_kind")
             if fk == FOUND:
                 alone = (f"; the flame margins alone would allow {100 * r['flame_upper_edge']:.1f} % "
-                         f"({r['flame_upper_binding']} binds)")
+                         f"({r['flame_upper_binding']} binds{_on(r, r['flame_upper_binding'])})")
             elif fk == RANGE_END:
                 alone = f"; no {'assessed ' if r.get('criteria_not_assessed') else ''}flame criterion binds up to 100 % {blend}"
             elif fk is not None:
@@ -155,6 +162,8 @@ def _none(r: dict, study: Study, what: str) -> str:
         b, lim = burner_and_limits(study)
         need = sorted({getattr(b, CRITERIA[c][1]) for c in lim.criteria if c in CRITERIA})
         miss += f" (minimum {', '.join(f'{n:g}' for n in need)})"
+        if r.get("closest_miss_binding") == "core_flashback" and r.get("core_flashback_basis"):
+            miss += f", core_flashback on {r['core_flashback_basis']}"
     fails = f"; fails by {r['swept_failures']}" if r.get("swept_failures") else ""
     note = f"; {r['note']}" if r.get("note") else ""
     return f"not admissible: no {what} keeps every margin{fails}{miss}{note}"

@@ -54,11 +54,13 @@ def print_margins(study: Study, ds: xr.Dataset) -> None:
     assert b is not None  # margin_summary is empty without a burner
     _, bo_min, bo_name = b.blowoff
     print(f"Burner margins ({b.name}; minimum flashback {b.min_flashback_margin:g}, {bo_name} {bo_min:g}):")
+    core = study.premixer is not None  # a premixer's own flashback criterion, on which its verdict rests
     for s in summary:
         print(f"  {gas_label({**s, 'blend_with': study.blend_with})}, {s['pressure_bar']:g} bar, "
-              f"{s['unburned_temperature_K']:g} K: {_lowest_words(s, 'flashback', 'flashback')}, "
-              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_ok']} of {s['points']} points ok on every criterion "
-              "(assessed and met)")
+              f"{s['unburned_temperature_K']:g} K: "
+              + (f"{_lowest_words(s, 'core_flashback', 'core-flow flashback')}, " if core else "")
+              + f"{_lowest_words(s, 'flashback', 'laminar flashback' if core else 'flashback')}, "
+              f"{_lowest_words(s, 'blowoff', bo_name)}; {s['points_words']}")
     judged = {(s["fuel"], s["oxidizer"], s["pressure_bar"], s["unburned_temperature_K"]) for s in summary
               if s["min_flashback_margin"] is not None}
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
@@ -105,17 +107,32 @@ def print_premixer(study: Study, rows: list[dict]) -> None:
 MAX_POINT_LINES = 60
 
 
+def _turbulent(r: dict) -> str:
+    """A premixer point's largest turbulent flame speed (the core-flow margin's) and core-flow
+    flashback margin, 12 characters; blank where the point has none."""
+    m = r.get("core_flashback_margin")
+    if m is None:
+        return f" {'':>5s} {'':>5s}"
+    return f" {r['port_velocity_m_s'] / m:5.2f} {m:5.2f}"
+
+
 def print_points(study: Study, rows: list[dict]) -> None:
-    """One line per point with the flame, its indicators and, with a burner, its margins."""
+    """One line per point with the flame, its indicators and, with a burner, its margins; a
+    premixer's also with its largest turbulent flame speed S_T and core-flow flashback margin FBc."""
     burner = study.burner is not None
+    turbulent = burner and study.premixer is not None
     # the blowoff margin that decides the verdict: the rim's, or the bluff body's (SM) where the flame sits on one
     bo_col, bo_head = ((study.burner.blowoff[0], "SM" if study.burner.on_stabilizer else "BO")
                        if study.burner is not None else ("", ""))
     head = (f"  {'gas':30s} {'phi':>5s} {'p':>6s} {'T_u':>6s} {'S_L':>7s} {'d_T':>6s} {'g_F':>7s} {'d_q':>5s}"
-            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {bo_head:>5s}  verdict" if burner else ""))
+            + (f" {'U':>6s} {'g_wall':>7s} {'FB':>5s} {bo_head:>5s}" if burner else "")
+            + (f" {'S_T':>5s} {'FBc':>5s}" if turbulent else "") + ("  verdict" if burner else ""))
     unit = (f"  {'':30s} {'-':>5s} {'bar':>6s} {'K':>6s} {'cm/s':>7s} {'mm':>6s} {'1/s':>7s} {'mm':>5s}"
-            + (f" {'m/s':>6s} {'1/s':>7s} {'-':>5s} {'-':>5s}" if burner else ""))
-    print("Points (indicators per point; every column in results.csv):")
+            + (f" {'m/s':>6s} {'1/s':>7s} {'-':>5s} {'-':>5s}" if burner else "")
+            + (f" {'m/s':>5s} {'-':>5s}" if turbulent else ""))
+    print("Points (indicators per point; every column in results.csv"
+          + ("; S_T the largest turbulent flame speed, FBc = U / S_T the core-flow flashback margin" if turbulent
+             else "") + "):")
     print(head)
     print(unit)
     for r in rows[:MAX_POINT_LINES]:
@@ -127,7 +144,8 @@ def print_points(study: Study, rows: list[dict]) -> None:
                  f"{r['flashback_critical_gradient_1_s']:7.0f} {r['quenching_distance_mm']:5.2f}")
         if burner:
             line += (f" {r['port_velocity_m_s']:6.3f} {r['wall_velocity_gradient_1_s']:7.0f} "
-                     f"{_m(r['flashback_margin'])} {_m(r[bo_col])}  {r['verdict']}")
+                     f"{_m(r['flashback_margin'])} {_m(r[bo_col])}" + (_turbulent(r) if turbulent else "")
+                     + f"  {r['verdict']}")
         print(line)
     if len(rows) > MAX_POINT_LINES:
         print(f"  ... and {len(rows) - MAX_POINT_LINES} more points in results.csv")

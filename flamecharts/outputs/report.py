@@ -33,6 +33,7 @@ from ..design import (
     mechanism_differences,
     not_assessed_summary,
     turbulent_speeds,
+    verdict_tally,
 )
 from ..numerics import NUMERICS
 from ..physics.indicators import edge_velocity
@@ -155,9 +156,7 @@ def key_numbers(study: Study, rows: list[dict]) -> list[list[str]]:
             else:
                 out.append([f"Smallest {head}", "not assessed", f"assessed at none of the {len(ok)} flames (see Criteria "
                                                                 "not assessed)"])
-        n_ok = sum(r["verdict"] == "ok" for r in ok)
-        out.append(["Points with the verdict ok (every criterion assessed and met)", f"{n_ok} of {len(ok)}",
-                    study.burner.name])
+        out.append(["Points ok, and on what (verdicts)", verdict_tally([r["verdict"] for r in ok]), study.burner.name])
     for analysis in _analyses("report"):  # the registered analyses' key numbers (flamecharts.analyses)
         out += analysis.KEY_NUMBERS(study, ok) if hasattr(analysis, "KEY_NUMBERS") else []
     bad = [r for r in rows if r["status"] != "ok"]
@@ -812,12 +811,15 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
         summary, more = _first(summary, "results.csv", order=lambda s: min(
             (s["min_flashback_margin"] or math.inf) / b.min_flashback_margin,
             (s["min_blowoff_margin"] or math.inf) / b.blowoff[1]))
-        parts.append(_table(["gas", "p [bar]", "T_u [K]", "min flashback margin (φ)", f"min {b.blowoff[2]} margin (φ)",
-                             "points ok"],
+        core = study.premixer is not None  # a premixer's verdict rests on its core-flow flashback margin
+        parts.append(_table(["gas", "p [bar]", "T_u [K]"] + (["min core-flow flashback margin (φ)"] if core else [])
+                            + [f"min {'laminar ' if core else ''}flashback margin (φ)", f"min {b.blowoff[2]} margin (φ)",
+                               "points ok (verdicts)"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
-                              f"{s['unburned_temperature_K']:g}",
-                              _lowest_cell(s, "flashback"), _lowest_cell(s, "blowoff"),
-                              f"{s['points_ok']} of {s['points']}"] for s in summary], {1, 2}) + more)
+                              f"{s['unburned_temperature_K']:g}"]
+                             + ([_lowest_cell(s, "core_flashback")] if core else [])
+                             + [_lowest_cell(s, "flashback"), _lowest_cell(s, "blowoff"), s["points_words"]]
+                             for s in summary], {1, 2}) + more)
     parts += _unassessed_section(rows)
 
     parts += _uncertainty_section(study, rows, comparison)

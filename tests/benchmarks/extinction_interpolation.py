@@ -14,6 +14,14 @@ and held from the nearest neighbour beyond (phi 0.5 from 0.6, 0.8 from 0.7). The
 strongest consumption speed S_c,max of the leading-point flame speed, three ways: ln(S_c,max / S_L)
 linear, times the point's own S_L (what design.strained_speed does), ln S_c,max linear and
 S_c,max / S_L linear. Prints the error ranges in per cent and, last, one JSON object.
+
+It also checks the trend issue 30 asks for, "lean blowout moves leaner with hydrogen": at every phi
+kappa_ext rises with the hydrogen fraction (0 -> 50 -> 100 %), so the extinction Damkohler number
+kappa_ext d / U_edge of design.blowout_columns rises, and the blowout margin reaches its minimum at a
+leaner phi. The expectation: lean blowout of H2/CO/CH4 blends collapses on an extinction-strain
+Damkohler number and moves leaner with hydrogen (Zhang, Noble, Meyers, Xu & Lieuwen 2007, from
+memory). Exit code 1 when it fails (too dear for the test suite: the 12 ladders take about 5 minutes
+of CPU time, about 25 s a ladder, and the check needs at least two).
 """
 from __future__ import annotations
 
@@ -70,6 +78,18 @@ def _errors(value: dict, how: str) -> dict[str, list[float]]:
     return out
 
 
+def hydrogen_trend_failures(kappa: dict[tuple[float, float], float]) -> list[str]:
+    """Where kappa_ext does not rise with the hydrogen fraction at a phi (Zhang et al. 2007, from
+    memory: lean blowout moves leaner with hydrogen): one line per failure, empty when it holds."""
+    out = []
+    for y in PHIS:
+        ladder = [kappa[(x, y)] for x in BLENDS]
+        if not all(a < b for a, b in zip(ladder, ladder[1:])):
+            out.append(f"phi {y:g}: kappa_ext " + " -> ".join(f"{k:,.0f}" for k in ladder)
+                       + " 1/s at " + "/".join(f"{100 * x:g}" for x in BLENDS) + " % hydrogen does not rise")
+    return out
+
+
 def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--out", type=Path, default=None)
@@ -96,6 +116,12 @@ def main() -> None:
                       "C": {f"{k[0]:g},{k[1]:g}": v for k, v in C.items()},
                       "S_c_max_m_s": {f"{k[0]:g},{k[1]:g}": v for k, v in S_c.items()},
                       "S_L_m_s": {f"{k[0]:g},{k[1]:g}": v for k, v in S_L.items()}, "errors_percent": result}))
+    failures = hydrogen_trend_failures(kappa)
+    for line in failures:
+        print("FAILED: " + line)
+    if failures:
+        sys.exit(1)
+    print("held: kappa_ext rises with hydrogen at every phi (lean blowout moves leaner; Zhang et al. 2007, from memory)")
 
 
 if __name__ == "__main__":

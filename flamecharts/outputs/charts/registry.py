@@ -197,13 +197,21 @@ SHAPE_WHY = {
     "has_margins": "it needs a [burner] and a point with a flashback margin",
     "has_window": "it maps two axes, so it needs a [burner] with margins, two or more blend fractions and "
                   "two or more equivalence ratios",
+    # regime_charts.has_core_margins: listed only where its sibling was drawn (a premixer study)
+    "has_core_margins": "it needs a blend axis with two or more fractions (turbulent_flame_speed_vs_phi shows the "
+                        "turbulent flame speeds and the core-flow flashback margin against phi)",
 }
+
+#: A condition of SHAPE_WHY that also holds for studies without the table its chart reads ([premixer]):
+#: its chart is listed as not drawn only where the named chart was drawn (the study has that table).
+SHAPE_WHY_BESIDE = {"has_core_margins": "turbulent_flame_speed_vs_phi"}
 
 
 def not_drawn(drawn: set[str]) -> list[tuple[str, str]]:
     """(chart name, why) of the charts missing from ``drawn`` because of the sweep's shape."""
     return [(c.name, SHAPE_WHY[c.when.__name__]) for c in CHARTS
-            if c.name not in drawn and c.when.__name__ in SHAPE_WHY]
+            if c.name not in drawn and c.when.__name__ in SHAPE_WHY
+            and SHAPE_WHY_BESIDE.get(c.when.__name__, c.name) in drawn | {c.name}]
 
 
 def chart(name: str, caption: str, when: When = always) -> Callable[[Draw], Draw]:
