@@ -305,9 +305,8 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
     if note:
         parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
     if study.reduced is not None:
-        parts.append(f"<div class='caution'><b>Reduced mechanism.</b> {_e(reduction_note(study))} Each flame's "
-                     "reduction band is in results.csv (flame_speed_reduction_error_percent) and under How sure, below."
-                     "</div>")
+        parts.append(f"<div class='caution'><b>{'Reduced mechanism' if study.reduced.reduced else 'Mechanism reduction'}"
+                     f".</b> {_e(reduction_note(study))}{_e(_band_where(rows))}</div>")
     b = study.burner
     if b is not None:
         how = burner_flow_words(b)
@@ -632,6 +631,31 @@ def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str
     return parts
 
 
+def _band_where(rows: list[dict]) -> str:
+    """Where a reduced study's reduction band is ('' when no point has one: the note says why)."""
+    if not any(r.get("flame_speed_reduction_error_percent") is not None for r in rows):
+        return ""
+    return (" Each flame's reduction band is in results.csv (flame_speed_reduction_error_percent) and under How "
+            "sure, below.")
+
+
+def _reduction_paragraph(study: Study, banded: bool) -> list[str]:
+    """How sure's paragraph on the reduction: what the band is, or why there is none ([] without
+    [reduction])."""
+    if study.reduced is None:
+        return []
+    if banded:
+        why = (" The band of a point is its own measured error where it was a validation flame, else the largest "
+               "over them; it is the skeletal mechanism's difference from the detailed one, beside (not inside) "
+               "the detailed mechanism's kinetic band.")
+    elif study.reduced.reduced:
+        why = (" No point has a reduction band: no validation flame measured the skeletal mechanism's flame-speed "
+               "error (results.csv reduction_error_source says why).")
+    else:
+        why = ""  # the note says that the detailed mechanism is used and that there is no band
+    return [f"<p><b>Reduction.</b> {_e(reduction_note(study))}{_e(why)}</p>"]
+
+
 def _span_text(values: list[float]) -> str:
     """'0.3-1.2' (one value when both ends print alike; '' when there is none)."""
     if not values:
@@ -657,6 +681,9 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
         table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", error_bar_sentence(near),
                       f"{max(r['flame_speed_numerical_error_percent'] for r in rs):.2g}",
                       _span_text(red), _span_text(kin)])
+    banded = any(row[5] for row in table)  # the reduction band's column only where a point has one
+    if not banded:
+        table = [row[:5] + row[6:] for row in table]
     table, more = _first(table, "results.csv")
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
@@ -682,12 +709,10 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                "against measurements is the better check.</p>"
                if kinetics and u is not None else
                "<p>Add an [uncertainty] table to the study for the kinetic band (one adjoint solve per point).</p>"),
-            *([f"<p><b>Reduction.</b> {_e(reduction_note(study))} The band of a point is its own measured error "
-                "where it was a validation flame, else the largest over them; it is the skeletal mechanism's "
-                "difference from the detailed one, beside (not inside) the detailed mechanism's kinetic band.</p>"]
-              if study.reduced is not None else []),
-            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]", "reduction band [%]",
-                    "kinetic band, 1σ [%]"], table, {1, 2, 4, 5, 6}) + more]
+            *_reduction_paragraph(study, banded),
+            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
+                    *(["reduction band [%]"] if banded else []), "kinetic band, 1σ [%]"], table,
+                   {1, 2, 4, 5, 6} if banded else {1, 2, 4, 5}) + more]
 
 
 def _response_section(study: Study, rows: list[dict]) -> list[str]:
