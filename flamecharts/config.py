@@ -408,8 +408,9 @@ def reduction_note(study: Study) -> str:
         return ""
     name = Path(study.mechanism).name
     if not r.reduced:
-        return (f"Mechanism reduction asked for, but no skeletal mechanism of {name} met every target "
-                f"({_targets_words(r.targets)}): the flames use the detailed mechanism.")
+        return (f"Mechanism reduction asked for ({_targets_words(r.targets)}), but none made of {name}: "
+                f"{r.why_detailed}; {r.validation_words}. The flames burn the detailed mechanism, so there is "
+                "no reduction band.")
     speed = r.flame_speed_error
     measured = (f"flame speed within {100 * speed:.2g} % of the detailed mechanism on "
                 f"{sum(f.get('error') is not None for f in r.flames)} validation flame(s)" if speed is not None else

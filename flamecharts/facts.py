@@ -137,6 +137,34 @@ class ReducedMechanism:
     def ignition_delay_error(self) -> float:
         return max(self.ignition_errors, default=0.0)
 
+    @property
+    def why_detailed(self) -> str:
+        """Why the flames burn the detailed mechanism ('' when they burn a skeletal one): no smaller
+        candidate to try, every candidate refused on its ignition delays, or none met every target."""
+        if self.reduced:
+            return ""
+        if not self.tried:
+            return ("no smaller mechanism to try: every candidate of the threshold ladder kept all the species the "
+                    "targets need")
+        if all(str(t.get("refused", "")).startswith("ignition delay") for t in self.tried):
+            return f"each of the {len(self.tried)} smaller candidates was refused on its ignition delays"
+        return "no skeletal mechanism met every target"
+
+    @property
+    def validation_words(self) -> str:
+        """How many validation flames were solved, and why none was when none was (a candidate's
+        flames are solved only once its ignition delays hold; none asked for: ignition delays only)."""
+        n = sum(f.get("detailed_m_s") is not None for f in self.flames)
+        if n:
+            return f"{n} validation flame(s) solved with the detailed mechanism"
+        if self.flames:
+            return "no validation flame burned with the detailed mechanism"
+        if not self.tried and not self.reduced:
+            return "no validation flame solved (no smaller candidate to check)"
+        if not self.reduced:
+            return "no validation flame solved (no candidate kept its ignition delays within the target)"
+        return "no validation flame solved (none asked for: ignition delays only)"
+
     def error_at(self, condition: str) -> float | None:
         """The measured flame-speed error of the validation flame at ``condition`` (None: not one)."""
         return next((f["error"] for f in self.flames if f["condition"] == condition and f.get("error") is not None),

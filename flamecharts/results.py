@@ -322,7 +322,7 @@ def reduction_attributes(study: Study) -> dict:
     r = study.reduced
     if r is None:
         return {}
-    out: dict = {"reduction_applied": "true" if r.reduced else "false (no skeletal mechanism met every target)",
+    out: dict = {"reduction_applied": "true" if r.reduced else f"false ({r.why_detailed})",
                  "reduction_detailed_sha256": r.detailed_sha256, "reduction_detailed_species": r.detailed_size[0],
                  "reduction_detailed_reactions": r.detailed_size[1],
                  "reduction_ignition_delay_error_percent": 100.0 * r.ignition_delay_error,

@@ -306,3 +306,53 @@ fuel = ["diluted"]
 oxidizer = ["air"]
 equivalence_ratio = [1.0]
 """
+
+
+ONE_POINT = """
+title = "one point"
+mechanism = "h2o2.yaml"
+resolution = "coarse"
+
+[reduction]
+
+[fuels]
+hydrogen = { H2 = 1.0 }
+
+[oxidizers]
+air = { O2 = 0.21, AR = 0.79 }
+
+[sweep]
+fuel = ["hydrogen"]
+oxidizer = ["air"]
+equivalence_ratio = [0.8]
+pressure_bar = [1.0]
+unburned_temperature_K = [300.0]
+"""
+
+
+def test_with_no_smaller_candidate_check_run_and_report_agree_that_no_flame_validates(tmp_path, capsys):
+    """Hydrogen in O2/Ar at phi 0.8 (a newcomer trial's study): every threshold keeps all 10 species,
+    so no candidate is tried and no validation flame is solved. `check` said 'one validation flame'
+    and the report spoke of a reduction band it left blank: check now says 'up to', the run says
+    why none was solved, and the report has no band column and says why there is none."""
+    (tmp_path / "one.toml").write_text(ONE_POINT)
+    assert cli.main(["check", str(tmp_path / "one.toml"), "--out", str(tmp_path / "out")]) == 0
+    printed = capsys.readouterr().out
+    assert "up to 1 flames of the study" in printed and "none when no candidate is smaller" in printed
+    res = flamecharts.run(tmp_path / "one.toml", out=tmp_path / "out", jobs=1, charts=True, report=True)
+    r = res.study.reduced
+    assert not r.reduced and r.tried == () and r.flames == ()
+    assert "no validation flame solved (no smaller candidate to check)" in res.summary.reduction_note
+    assert "no smaller mechanism to try" in res.rows[0]["mechanism_reduction"]
+    assert res.dataset.attrs["reduction_applied"].startswith("false (no smaller mechanism to try")
+    report = (tmp_path / "out" / "report.html").read_text()
+    assert "reduction band [%]" not in report and "Reduced mechanism." not in report
+    assert "no reduction band" in report and "Each flame's reduction band" not in report
+
+
+def test_without_reduction_the_report_has_no_reduction_band(tmp_path):
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[1.0]", extra='resolution = "coarse"\n')
+    flamecharts.run(config, out=tmp_path / "out", jobs=1, charts=True, report=True)
+    report = (tmp_path / "out" / "report.html").read_text()
+    assert "largest numerical band [%]" in report and "reduction band" not in report
+    assert "<b>Reduction.</b>" not in report and "mechanism reduction" not in report.lower()

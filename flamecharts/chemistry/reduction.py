@@ -58,11 +58,10 @@ from scipy.sparse.csgraph import dijkstra
 
 from ..physics import mixtures
 from ..physics.sampling import Composition, Conditions, Point, between, composition  # noqa: F401 - re-exported
+from .ignition import peak_ignition_delay
 
 #: Species kept whatever their coefficients: the usual inert diluents, where present.
 INERTS = ("N2", "AR", "HE")
-#: A reactor counts as ignited when its temperature rose by at least this much [K].
-MIN_IGNITION_RISE_K = 100.0
 #: Temperature rises [K] at which the induction period is sampled, before the regular steps.
 EARLY_RISES_K = (1.0, 3.0, 10.0, 30.0)
 #: Before the first of EARLY_RISES_K, where the radical pool builds up at nearly constant
@@ -76,8 +75,6 @@ INDUCTION_TIMES_S = tuple(1e-8 * 10 ** (k / 4) for k in range(41))
 CHAIN_CARRIERS = ("H",)
 #: Temperature rises beyond this [K] are not sampled on the regular steps (no mixture rises further).
 MAX_RISE_K = 4000.0
-#: At most this many reactor steps per trajectory.
-MAX_STEPS = 200000
 
 @dataclass(frozen=True)
 class States:
@@ -104,23 +101,10 @@ def _mixture(gas: ct.Solution, point: Point) -> tuple[dict[str, float], float, f
     return unburned(gas, dict(fuel), dict(oxidizer), phi), T, p
 
 
-def _reactor_net(gas: ct.Solution) -> ct.ReactorNet:
-    """An adiabatic constant-pressure reactor on ``gas`` itself (its state follows the
-    reactor), integrated with Cantera's sparse preconditioned solver: 4 times faster than
-    the dense one on the 1268-species n-hexane mechanism, equal delays on GRI-Mech 3.0
-    (measured, docs/benchmarks.md)."""
-    try:
-        reactor = ct.IdealGasConstPressureMoleReactor(gas, clone=False)  # Cantera >= 3.2
-    except TypeError:
-        reactor = ct.IdealGasConstPressureMoleReactor(gas)
-    net = ct.ReactorNet([reactor])
-    net.preconditioner = ct.AdaptivePreconditioner()
-    return net
-
-
 def _autoignite(gas: ct.Solution, X: Mapping[str, float], T0: float, P: float, t_max_s: float,
                 rises_K: Sequence[float] = ()) -> tuple[float, list[tuple[float, float, np.ndarray]]]:
-    """Integrate one autoignition from (T0 [K], P [Pa], X) for at most ``t_max_s`` [s].
+    """Integrate one autoignition from (T0 [K], P [Pa], X) for at most ``t_max_s`` [s]
+    (chemistry.ignition.peak_ignition_delay, constant pressure).
 
     Returns the ignition delay [s] (time of the largest dT/dt, inf without a rise of
     MIN_IGNITION_RISE_K) and, when ``rises_K`` is given, the states (T, P, Y) taken at the
@@ -130,29 +114,21 @@ def _autoignite(gas: ct.Solution, X: Mapping[str, float], T0: float, P: float, t
     """
     gas.TPX = T0, P, dict(X)
     states = [(T0, P, gas.Y.copy())] if rises_K else []
-    net = _reactor_net(gas)
-    nxt, mark, t_prev, T_prev, best_rate, best_t = 0, 0, 0.0, T0, 0.0, math.inf
-    for _ in range(MAX_STEPS):
-        if net.time >= t_max_s:
-            break
-        net.step()
-        t, T = net.time, gas.T
-        passed, marked = nxt, mark
-        while nxt < len(rises_K) and T - T0 >= rises_K[nxt]:
-            nxt += 1
-        while rises_K and nxt == 0 and mark < len(INDUCTION_TIMES_S) and t >= INDUCTION_TIMES_S[mark]:
-            mark += 1
-        if nxt > passed or mark > marked:
+    marks = {"rise": 0, "time": 0}
+
+    def sample(t: float, T: float) -> None:
+        passed, marked = marks["rise"], marks["time"]
+        while marks["rise"] < len(rises_K) and T - T0 >= rises_K[marks["rise"]]:
+            marks["rise"] += 1
+        while marks["rise"] == 0 and marks["time"] < len(INDUCTION_TIMES_S) and t >= INDUCTION_TIMES_S[marks["time"]]:
+            marks["time"] += 1
+        if marks["rise"] > passed or marks["time"] > marked:
             states.append((T, P, gas.Y.copy()))
-        rate = (T - T_prev) / (t - t_prev) if t > t_prev else 0.0
-        if rate > best_rate:
-            best_rate, best_t = rate, 0.5 * (t + t_prev)
-        t_prev, T_prev = t, T
-        if T > T0 + MIN_IGNITION_RISE_K and rate < 0.01 * best_rate:
-            break
+
+    tau = peak_ignition_delay(gas, X, T0, P, t_max_s, "pressure", sample if rises_K else None)
     if rises_K and states[-1][0] != gas.T:
         states.append((gas.T, P, gas.Y.copy()))
-    return (best_t if T_prev >= T0 + MIN_IGNITION_RISE_K else math.inf), states
+    return tau, states
 
 
 def _rise_ladder(rise_step_K: float) -> list[float]:
@@ -419,7 +395,7 @@ def write_mechanism(solution: ct.Solution, path: str | os.PathLike, note: str = 
 def ignition_delays(gas: ct.Solution, points: Sequence[Point], t_max_s: float | npt.ArrayLike = 1.0) -> np.ndarray:
     """Constant-pressure ignition delay [s] at each point (fuel, oxidizer, phi, T [K], p [Pa]): the
     time of the largest dT/dt in an adiabatic IdealGasConstPressureMoleReactor (one of the
-    usual definitions, see chemistry.ignition.ignition_delay_peak); inf where the
+    usual definitions: chemistry.ignition.peak_ignition_delay, the one integrator); inf where the
     temperature has not risen by MIN_IGNITION_RISE_K within ``t_max_s`` [s] (one value, or
     one per point)."""
     limits = np.broadcast_to(np.asarray(t_max_s, dtype=float), (len(points),))

@@ -298,9 +298,8 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
     if note:
         parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
     if study.reduced is not None:
-        parts.append(f"<div class='caution'><b>Reduced mechanism.</b> {_e(reduction_note(study))} Each flame's "
-                     "reduction band is in results.csv (flame_speed_reduction_error_percent) and under How sure, below."
-                     "</div>")
+        parts.append(f"<div class='caution'><b>{'Reduced mechanism' if study.reduced.reduced else 'Mechanism reduction'}"
+                     f".</b> {_e(reduction_note(study))}{_e(_band_where(rows))}</div>")
     b = study.burner
     if b is not None:
         how = burner_flow_words(b)
@@ -577,6 +576,31 @@ def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str
     return parts
 
 
+def _band_where(rows: list[dict]) -> str:
+    """Where a reduced study's reduction band is ('' when no point has one: the note says why)."""
+    if not any(r.get("flame_speed_reduction_error_percent") is not None for r in rows):
+        return ""
+    return (" Each flame's reduction band is in results.csv (flame_speed_reduction_error_percent) and under How "
+            "sure, below.")
+
+
+def _reduction_paragraph(study: Study, banded: bool) -> list[str]:
+    """How sure's paragraph on the reduction: what the band is, or why there is none ([] without
+    [reduction])."""
+    if study.reduced is None:
+        return []
+    if banded:
+        why = (" The band of a point is its own measured error where it was a validation flame, else the largest "
+               "over them; it is the skeletal mechanism's difference from the detailed one, beside (not inside) "
+               "the detailed mechanism's kinetic band.")
+    elif study.reduced.reduced:
+        why = (" No point has a reduction band: no validation flame measured the skeletal mechanism's flame-speed "
+               "error (results.csv reduction_error_source says why).")
+    else:
+        why = ""  # the note says that the detailed mechanism is used and that there is no band
+    return [f"<p><b>Reduction.</b> {_e(reduction_note(study))}{_e(why)}</p>"]
+
+
 def _span_text(values: list[float]) -> str:
     """'0.3-1.2' (one value when both ends print alike; '' when there is none)."""
     if not values:
@@ -602,20 +626,22 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
         table.append([f"{gas} in {ox}", f"{P:g}", f"{T:g}", error_bar_sentence(near),
                       f"{max(r['flame_speed_numerical_error_percent'] for r in rs):.2g}",
                       _span_text(red), _span_text(kin)])
+    banded = any(row[5] for row in table)  # the reduction band's column only where a point has one
+    if not banded:
+        table = [row[:5] + row[6:] for row in table]
     table, more = _first(table, "results.csv")
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
     defaulted = max((r.get("reactions_default_factor") or 0 for r in ok), default=0)
     return ["<h2 id='error-bars'>How sure: error bars of the flame speed"
             + (f" ({_e(study.mechanism)}, the reference)" if comparison is not None else "") + "</h2>",
-            "<p><b>Numerics.</b> Every flame is solved again on every second and every fourth point of its final "
-            "grid; the three flame speeds give Roache's grid convergence index (factor of safety 1.25 with the "
-            "observed order bounded to 0.5-1, the scheme's formal order, else 3), never below 0.3 % × 942 / N on a "
-            "grid of N points: the spread two valid grids of the same criteria can have, which coarsening one grid "
-            "cannot see. Checked on 22 flames it was not tuned on (methane, hydrogen, blends, a heavier natural gas, "
-            "1-20 bar, 300-700 K, three mechanisms; chosen on one half, checked on the other): the standard "
-            "setting's true error lay inside the band in 22 of 22 flames solved from scratch and 22 of 22 "
-            "warm-started, the band a median 1.7-2.1 times the true error (docs/benchmarks.md).</p>"
+            "<p><b>Numerics.</b> Every flame is solved again on every fourth point of its final grid; the two "
+            "flame speeds give Roache's two-grid convergence index (factor of safety 3, the scheme's formal order "
+            "1: the band is the change itself), never below 0.3 % × 942 / N on a grid of N points: the spread two "
+            "valid grids of the same criteria can have, which coarsening one grid cannot see. Checked on 22 flames "
+            "(methane, hydrogen, blends, a heavier natural gas, 1-20 bar, 300-700 K, three mechanisms): the "
+            "standard setting's true error lay inside the band in 22 of 22 flames solved from scratch and 22 of 22 "
+            "warm-started, the band a median 3.1 times the true error (docs/benchmarks.md).</p>"
             + ("<p><b>Kinetics.</b> Sensitivities of S_L to every rate constant by Cantera's adjoint solve, "
                "combined with rate-constant uncertainty factors (packaged table with sources; the study's own "
                f"factors; {u.default_factor:g} for reactions neither names: "
@@ -627,12 +653,10 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                "against measurements is the better check.</p>"
                if kinetics and u is not None else
                "<p>Add an [uncertainty] table to the study for the kinetic band (one adjoint solve per point).</p>"),
-            *([f"<p><b>Reduction.</b> {_e(reduction_note(study))} The band of a point is its own measured error "
-                "where it was a validation flame, else the largest over them; it is the skeletal mechanism's "
-                "difference from the detailed one, beside (not inside) the detailed mechanism's kinetic band.</p>"]
-              if study.reduced is not None else []),
-            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]", "reduction band [%]",
-                    "kinetic band, 1σ [%]"], table, {1, 2, 4, 5, 6}) + more]
+            *_reduction_paragraph(study, banded),
+            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
+                    *(["reduction band [%]"] if banded else []), "kinetic band, 1σ [%]"], table,
+                   {1, 2, 4, 5, 6} if banded else {1, 2, 4, 5}) + more]
 
 
 def _stretch_section(study: Study, stretch: Sequence[dict]) -> list[str]:

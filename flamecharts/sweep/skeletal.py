@@ -233,11 +233,8 @@ def _effective_sha(study: Study, record: ReducedMechanism) -> str:
 
 
 def _summary(r: ReducedMechanism) -> str:
-    if not r.reduced and not r.tried:  # every species needed at some threshold: nothing smaller to try
-        return ("no smaller mechanism to try: every candidate of the threshold ladder kept all the species the "
-                "targets need; the detailed mechanism is used")
-    if not r.reduced:
-        return "no skeletal mechanism met every target: the detailed mechanism is used"
+    if not r.reduced:  # nothing smaller to try, every candidate refused on its delays, or none met every target
+        return f"{r.why_detailed}; {r.validation_words}; the detailed mechanism is used"
     speed = r.flame_speed_error
     return (f"{len(r.species)} of {r.detailed_size[0]} species, {r.reactions} of {r.detailed_size[1]} reactions; "
             + (f"flame speed within {100 * speed:.2g} % on {sum(f.get('error') is not None for f in r.flames)} "
@@ -409,8 +406,9 @@ def estimate(study: Study) -> tuple[str, float]:
     t += len(p.flames) * (fresh + 2 * default_flame_seconds(int(0.6 * n), study.resolution)["fresh"])
     what = (f"Mechanism reduction (once, before the sweep): {runs} autoignitions of {Path(study.mechanism).name} "
             f"rank its species (DRGEP), ignition delays at {delays} points between them"
-            + (f" and {len(p.flames)} flames of the study it does not train on "
+            + (f" and up to {len(p.flames)} flames of the study it does not train on "
                f"({'held-out points' if p.held_out else 'beside its points'}) are solved with the detailed "
-               "mechanism and with each candidate that passes" if p.flames else
-               ", no validation flame (ignition delays only)"))
+               "mechanism and with each candidate whose ignition delays hold; none when no candidate is smaller "
+               "than the detailed mechanism (a small one may need every species) or none keeps its delays"
+               if p.flames else ", no validation flame (ignition delays only)"))
     return what, t
