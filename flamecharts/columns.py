@@ -39,10 +39,10 @@ UNITS: dict[str, tuple[str, str]] = {
     "unburned_density_kg_m3": ("kg/m3", "unburned density"),
     "unburned_thermal_diffusivity_m2_s": ("m2/s", "unburned thermal diffusivity"),
     "grid_points": ("1", "grid points of the final flame"),
-    "flame_speed_numerical_error_percent": ("%", "grid error band of the flame speed: Roache's two-grid convergence "
-                                                 "index from the flame on its grid and on every 4th point"),
+    "flame_speed_numerical_error_percent": ("%", "grid error band of the flame speed: Roache's grid convergence "
+                                                 "index from the flame on its grid, every 2nd and every 4th point"),
     "thermal_thickness_numerical_error_percent": ("%", "grid error band of the thermal thickness (same method)"),
-    "grid_convergence": ("", "grids the band is from: two grids, or not estimated"),
+    "grid_convergence": ("", "how the three grids converged: monotone, oscillating or two grids"),
     "solve_seconds": ("s", "wall time of the flame's solve"),
     "mechanism": ("", "reaction mechanism"),
     "mechanism_reduction": ("", "[reduction]: the skeletal mechanism the flames burn (species and reactions kept, "

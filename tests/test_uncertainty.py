@@ -74,13 +74,9 @@ def test_numerical_estimate_bounds_the_true_error(phi):
     m = r["metrics"]
     true = abs(m["laminar_flame_speed_m_s"] * 100 / GRID_CONVERGED_CM_S[phi] - 1)
     est = m["flame_speed_numerical_error"]
-    # not uselessly wide: the two-grid band (final grid and every 4th point, factor of safety 3) was a
-    # median 3.1 times the true error on the 22 flames of tests/benchmarks/error_bar_validation.py at the
-    # standard setting, and up to 40 times on its leanest hydrogen flame (h2o2, phi 0.35, 1 bar;
-    # docs/benchmarks.md); here, measured: 20 times at phi 0.4 (was 8 at most with three grids)
-    assert true <= est <= max(30 * true, 5 * MIN_INDEX), (phi, true, est)
-    assert m["grid_convergence"] == "two grids"
-    assert 0 < m["thermal_thickness_numerical_error"] < 0.06  # measured 4.4 % at phi 0.4 (was below 3 % with three grids)
+    assert true <= est <= max(8 * true, 5 * MIN_INDEX), (phi, true, est)
+    assert m["grid_convergence"] in ("monotone", "oscillating")
+    assert 0 < m["thermal_thickness_numerical_error"] < 0.03
 
 
 def test_estimate_leaves_the_flame_as_it_was():

@@ -474,52 +474,37 @@ def _speed_and_thickness_on(f, final, keep) -> tuple[float, float]:
     return float(f.velocity[0]), profiles.thermal_thickness(f.grid, f.T)
 
 
-#: The coarsened grid of the error estimate: every 4th point of the final grid, else (where that is
-#: too coarse to converge) every 2nd.
-ESTIMATE_STRIDES = (4, 2)
-
-
 def grid_error(f: ct.FreeFlame) -> dict:
-    """Error estimate of a converged flame's speed and thermal thickness: the flame solved again on
-    every fourth point of its final grid (a systematic coarsening, ratio 4: the local spacing
-    quadrupled everywhere; every second point, ratio 2, where that does not converge), the two values
-    combined into Roache's two-grid convergence index (physics.grid_error.grid_convergence_index
-    without a coarse value: factor of safety 3 and the scheme's formal order 1, so with ratio 4 the
-    band is the change itself), never below the spread two valid grids of this size can have
-    (physics.grid_error.placement_floor). Costs one Newton solve on a quarter of the points, about a
-    quarter of one Jacobian on the final grid, where the three-grid estimate before it (every 2nd and
-    every 4th point) cost three quarters, 29 % of a warm-started flame's CPU time; on the 22 flames of
-    tests/benchmarks/error_bar_validation.py, each at the coarse, standard and fine settings and
-    warm-started, the two-grid band held the true error in all 88, the three-grid one in 87; at the
-    standard setting the two-grid band is a median 3.1 times the true error where the three-grid one
-    was 1.7-2.1, about 1.5 times as wide (docs/benchmarks.md). f is left as it was.
+    """Error estimate of a converged flame's speed and thermal thickness: the flame solved
+    again on every second and every fourth point of its final grid (a systematic
+    coarsening, ratio 2), and the three values combined into Roache's grid convergence index
+    (physics.grid_error), never below the spread two valid grids of this size can have
+    (physics.grid_error.placement_floor). Costs two Newton solves on a half and a quarter of the points,
+    about 0.75 of one Jacobian on the final grid; f is left as it was.
 
     Returns the metrics ``flame_speed_numerical_error`` and
-    ``thermal_thickness_numerical_error`` (fractions), ``grid_convergence`` ('two grids', or 'not
-    estimated'), and ``laminar_flame_speed_extrapolated_m_s`` and ``grid_convergence_order`` (None: two
-    grids do not confirm an order, so nothing is extrapolated).
+    ``thermal_thickness_numerical_error`` (fractions), ``laminar_flame_speed_extrapolated_m_s``
+    (None outside the asymptotic range), ``grid_convergence`` and ``grid_convergence_order``.
     """
     final = f.to_array()
     n = len(final)
     S, d = float(f.velocity[0]), profiles.thermal_thickness(f.grid, f.T)
-    coarse = None
+    values = []
     try:
-        for stride in ESTIMATE_STRIDES:
-            try:
-                coarse = stride, _speed_and_thickness_on(f, final, np.unique(np.r_[0:n:stride, n - 1]))
-                break
-            except ct.CanteraError:
-                continue  # too coarse to converge: a finer coarsening (or none, and no band)
+        for stride in (2, 4):
+            values.append(_speed_and_thickness_on(f, final, np.unique(np.r_[0:n:stride, n - 1])))
+    except ct.CanteraError:
+        pass  # a coarse grid too coarse to converge: fewer grids, a wider band (or none)
     finally:
         f.from_array(final)
-    if coarse is None:
+    if not values:
         return {"flame_speed_numerical_error": None, "thermal_thickness_numerical_error": None,
                 "laminar_flame_speed_extrapolated_m_s": None, "grid_convergence": "not estimated",
                 "grid_convergence_order": None}
-    ratio, (S_c, d_c) = float(coarse[0]), coarse[1]
+    coarse = values[1] if len(values) > 1 else (None, None)
     floor = placement_floor(n)
-    speed = grid_convergence_index(S, S_c, None, ratio, floor=floor)
-    thickness = grid_convergence_index(d, d_c, None, ratio, floor=floor)
+    speed = grid_convergence_index(S, values[0][0], coarse[0], floor=floor)
+    thickness = grid_convergence_index(d, values[0][1], coarse[1], floor=floor)
     return {"flame_speed_numerical_error": speed["index"], "thermal_thickness_numerical_error": thickness["index"],
             "laminar_flame_speed_extrapolated_m_s": speed["extrapolated"], "grid_convergence": speed["convergence"],
             "grid_convergence_order": speed["order"]}

@@ -1,15 +1,12 @@
-"""How far a flame's answer is from the grid-converged one: Roache's grid convergence index.
+"""How far a flame's answer is from the grid-converged one: a three-grid error estimate.
 
-A converged flame is solved again on every fourth point of its own final grid
-(chemistry.flame.grid_error; every second where that does not converge). Keeping every
-fourth point of an adaptive grid quadruples the local spacing everywhere, so the two
-solutions are a systematic refinement with ratio r = 4, which is what Roache's grid
-convergence index needs (Roache, Verification and Validation in Computational Science and
-Engineering, Hermosa, 1998, ch. 5; Celik et al., J. Fluids Eng. 130 (2008) 078001); with
-two grids it takes the scheme's formal order and a factor of safety 3. The three-grid
-index below (r = 2, observed order) was the estimate until the two-grid one replaced it for
-its cost (docs/benchmarks.md). Honesty on grid-converged flames is measured in
-tests/benchmarks/grid_convergence.py and tests/benchmarks/error_bar_validation.py
+A converged flame is solved again on every second and on every fourth point of its own
+final grid (chemistry.flame.grid_error). Dropping every other point of an adaptive grid
+doubles the local spacing everywhere, so the three solutions are a systematic refinement
+with ratio r = 2, which is what Richardson extrapolation and Roache's grid convergence
+index need (Roache, Verification and Validation in Computational Science and Engineering,
+Hermosa, 1998, ch. 5; Celik et al., J. Fluids Eng. 130 (2008) 078001). Honesty on
+grid-converged flames is measured in tests/benchmarks/grid_convergence.py
 (docs/benchmarks.md).
 """
 from __future__ import annotations

@@ -21,7 +21,7 @@ from ..numerics import NUMERICS
 from ..physics import mixtures
 
 #: Bump when the measurements taken from a converged flame change meaning.
-MEASURE_VERSION = 3  # 2: the grid error estimate of every flame (chemistry.flame.grid_error); 3: from two grids
+MEASURE_VERSION = 2  # 2: the grid error estimate of every flame (chemistry.flame.grid_error)
 
 
 def _num(x: float) -> str:

@@ -139,16 +139,15 @@ def reference(gas, T_u: float, P: float, X: dict, width_factor: float = 2.0) -> 
 
 
 class _Recorder:
-    """The flame speeds (final, every 2nd, every 4th point) each estimate was built from, so
-    estimator variants can be evaluated on them without solving again. Since the two-grid
-    estimate (final and every 4th point) the every-2nd value is None (not solved)."""
+    """The three flame speeds (final, every 2nd, every 4th point) each estimate was built
+    from, so estimator variants can be evaluated on them without solving again."""
 
     def __init__(self):
         self.calls, self._gci = [], flame.grid_convergence_index
 
-    def __call__(self, fine, medium, coarse, ratio=GRID_RATIO, *args, **kwargs):
-        self.calls.append((fine, None, medium) if coarse is None and ratio == 4.0 else (fine, medium, coarse))
-        return self._gci(fine, medium, coarse, ratio, *args, **kwargs)
+    def __call__(self, fine, medium, coarse, *args, **kwargs):
+        self.calls.append((fine, medium, coarse))
+        return self._gci(fine, medium, coarse, *args, **kwargs)
 
     def solve(self, *args, **kwargs) -> dict:
         """solve_flame with its speed triple stored under ``grids`` of the entry."""
@@ -241,29 +240,20 @@ VARIANTS = (("before: order 0.5-2, floor 0.1 %", {"order_bounds": (0.5, 2.0), "f
             ("order 0.5-1 (the formal order), floor 0.1 %", {"order_bounds": (0.5, 1.0), "floor": MIN_INDEX}),
             ("order 0.5-1, safety 3 where p is off 1 by >10 %", {"order_bounds": (0.5, 1.0), "floor": MIN_INDEX,
                                                                "roache": True}),
-            ("three grids: order 0.5-1, floor 0.3 % x 942/N (in the code until the two-grid estimate)", {}),
-            ("now: two grids, final and every 4th point, factor of safety 3, floor 0.3 % x 942/N",
-             {"two_grids": True}))
+            ("now: order 0.5-1, floor 0.3 % x 942/N", {}))
 
 
-def with_variant(entry: dict, order_bounds=ORDER_BOUNDS, roache: bool = False, floor: float | None = None,
-                 two_grids: bool = False) -> float | None:
+def with_variant(entry: dict, order_bounds=ORDER_BOUNDS, roache: bool = False, floor: float | None = None) -> float | None:
     """The estimate this flame gets from an estimator, from the three flame speeds its own
     estimate was built from (``grids``: final, every 2nd, every 4th point); the defaults are
     the estimator in the code (physics.grid_error, floor :func:`placement_floor` of the
     flame's grid). ``roache``: factor of safety 3 instead of 1.25 where the observed order
     is off the formal 1 by more than 10 % (Roache, J. Fluids Eng. 133 (2011) 115501:
-    "revert to using p_th and FS = 3"). ``two_grids``: the estimator in the code now, from the final
-    and the every-4th-point values alone (Roache's two-grid index, ratio 4); the others need the
-    every-2nd value (None for flames solved since: not evaluated)."""
+    "revert to using p_th and FS = 3")."""
     grids = entry.get("grids")
     if grids is None:
         return entry["estimate"]
     floor = placement_floor(entry["N"]) if floor is None else floor
-    if two_grids:
-        return grid_convergence_index(grids[0], grids[2], None, 4.0, floor=floor)["index"]
-    if grids[1] is None:
-        return None
     g = grid_convergence_index(*grids, order_bounds=order_bounds, floor=floor)
     if roache and g["convergence"] == "monotone":
         fine, medium, coarse = grids
