@@ -56,9 +56,9 @@ def run_cli(*args, cwd=None, timeout=600):
 #: The test files that take longest (GRI-Mech 3.0 studies, strained-flame ladders), run first. The suite
 #: runs on two processes, a whole file each (pytest-xdist, --dist loadfile, which hands out files in
 #: collection order): a long file started last would leave one process working alone at the end.
-LONGEST_FIRST = ("test_validation.py", "test_stretch.py", "test_emissions_core.py", "test_charts.py",
-                 "test_flame_response.py", "test_mechanisms.py", "test_uncertainty.py", "test_emissions.py",
-                 "test_limits.py", "test_cluster.py", "test_design.py", "test_faults.py", "test_run.py")
+LONGEST_FIRST = ("test_validation.py", "test_stretch.py", "test_skeletal.py", "test_faults.py", "test_charts.py",
+                 "test_limits.py", "test_run.py", "test_flame_response.py", "test_mechanisms.py", "test_emissions.py",
+                 "test_uncertainty.py", "test_cluster.py", "test_emissions_core.py")
 
 
 def pytest_collection_modifyitems(session, config, items):

@@ -7,7 +7,8 @@ from pathlib import Path
 import pytest
 
 from flamecharts import cli
-from flamecharts.admissible.driver import planned_searches
+from flamecharts.admissible.driver import SPEED_SIGN, edges_possible, planned_searches
+from flamecharts.admissible.search import CRITERIA
 from flamecharts.cli import check
 from flamecharts.config import load_study
 from flamecharts.sweep.points import points
@@ -101,8 +102,39 @@ def test_a_laminar_burner_at_one_bar_needs_limit_flames(tmp_path):
     plan = planned_searches(study, lambda p: fresh_mixture(study.mechanism_path, study.mechanism_sha256,
                                                           p.X_unburned, p.T_u, p.P))
     assert plan.searches["equivalence_ratio"] == 2 and plan.idle["equivalence_ratio"] == 0
-    assert plan.flames == 2 * 2 * 6 and plan.flames_at == {1.0: 24}  # two edges of log2(0.3 / 0.005) flames each
+    assert plan.flames == 2 * 2 * 5 and plan.flames_at == {1.0: 20}  # two edges of log2(0.3 / 0.005) - 1 flames each
     assert plan.why == ""
+
+
+def test_the_turbine_demo_counts_one_edge_a_search_on_its_core_flow_criterion():
+    """Issue 33: with the premixer's core-flow flashback criterion `check` counted 84 limit flames (two
+    bisected edges a search) where the run solved 15. Its only criterion in range fails where the flame
+    is fast, and the flame speed rises along both axes here (hydrogen fraction; phi 0.5-0.7, lean of the
+    fastest flame), so each search can find one edge: Brent's steps over a sweep step (blend 0.25 to
+    0.01: 4; phi 0.1 to 0.01: 3), a blend search one flame more for the pure hydrogen."""
+    study = load_study(CONFIGS / "gas_turbine_premixer_demo.toml")
+    plan = planned_searches(study, lambda p: fresh_mixture(study.mechanism_path, study.mechanism_sha256,
+                                                          p.X_unburned, p.T_u, p.P))
+    assert plan.idle == {"blend_fraction": 0, "equivalence_ratio": 0}
+    assert plan.flames_at == {5.0: 3 * (1 + 4) + 3 * 3, 10.0: 3 * (1 + 4) + 3 * 3} and plan.longest == 5
+
+
+def test_two_edges_where_the_margin_can_turn_or_the_criteria_pull_both_ways():
+    core, both = frozenset({"core_flashback"}), frozenset({"flashback", "blowoff"})
+    assert edges_possible("equivalence_ratio", [0.6, 0.8, 1.0], [core] * 3) == 1
+    assert edges_possible("equivalence_ratio", [0.8, 1.0, 1.2], [core] * 3) == 2  # the fastest flame may lie inside
+    assert edges_possible("equivalence_ratio", [0.6, 0.8, 1.0], [both] * 3) == 2  # blowoff lean, flashback rich
+    assert edges_possible("blend_fraction", [0.0, 0.5], [both] * 2) == 2
+    # a criterion that leaves its range inside the sweep can bind on one side only
+    assert edges_possible("blend_fraction", [0.0, 0.5], [core, frozenset()]) == 2
+    assert edges_possible("equivalence_ratio", [0.7, 0.8], [core] * 2) == 1  # one interval, one edge
+    assert edges_possible("equivalence_ratio", [0.7], [both]) == 0  # one phi: no interval to search
+    assert edges_possible("blend_fraction", [0.0, 0.5, 1.0], [core] * 3) == 1
+
+
+def test_every_limit_criterion_says_which_way_it_fails():
+    """A new criterion in search.CRITERIA needs its direction (DEVELOPERS.md, 'A limit criterion')."""
+    assert set(SPEED_SIGN) == set(CRITERIA) and set(SPEED_SIGN.values()) == {-1, 1}
 
 
 def test_a_turbulent_port_flow_is_told_by_the_fresh_mixture_before_any_flame(tmp_path):

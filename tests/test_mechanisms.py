@@ -8,6 +8,8 @@ from __future__ import annotations
 
 import csv
 import json
+import sqlite3
+from contextlib import closing
 from pathlib import Path
 
 import pytest
@@ -17,6 +19,7 @@ import flamecharts
 from flamecharts.config import by_mechanism, load_study, study_from_dict
 from flamecharts.design import largest_differences, mechanism_differences
 from flamecharts.errors import MechanismError
+from flamecharts.store.db import DB_NAME
 from flamecharts.sweep.points import points
 
 from conftest import run_cli
@@ -92,11 +95,17 @@ def test_max_points_counts_every_mechanism():
         study_from_dict(_data(max_points=3))
 
 
-def test_two_mechanism_study_gives_both_in_every_output(tmp_path):
-    cfg = tmp_path / "two.toml"
+@pytest.fixture(scope="module")
+def two_mechanisms(tmp_path_factory):
+    """The two-mechanism study, solved once: (config, output folder, Results)."""
+    folder = tmp_path_factory.mktemp("two")
+    cfg = folder / "two.toml"
     cfg.write_text(STUDY)
-    out = tmp_path / "out"
-    res = flamecharts.run(cfg, out=out, jobs=2)
+    return cfg, folder / "out", flamecharts.run(cfg, out=folder / "out", jobs=2)
+
+
+def test_two_mechanism_study_gives_both_in_every_output(two_mechanisms):
+    cfg, out, res = two_mechanisms
     rows = res.rows
     assert {r["mechanism"] for r in rows} == {"h2o2.yaml", ALZUETA} and all(r["status"] == "ok" for r in rows)
 
@@ -145,10 +154,15 @@ def test_two_mechanism_study_gives_both_in_every_output(tmp_path):
     assert flamecharts.run(cfg, out=out, jobs=1, charts=False).summary.solved == 0
 
 
-def test_cli_prints_each_mechanism_and_the_difference(tmp_path):
+def test_cli_prints_each_mechanism_and_the_difference(two_mechanisms, tmp_path):
     cfg = tmp_path / "two.toml"
     cfg.write_text(STUDY.replace("[uncertainty]\n", "").replace("[0.6, 1.0]", "[1.0]"))
     out = tmp_path / "o"
+    out.mkdir()
+    # what check and run print, on the phi 1 flames of both mechanisms from the solved study's store
+    # (the same keys: [uncertainty] keeps its solves apart), so the run solves none
+    with closing(sqlite3.connect(two_mechanisms[1] / DB_NAME)) as src, closing(sqlite3.connect(out / DB_NAME)) as dst:
+        src.backup(dst)
     check = run_cli("check", cfg, "--out", out)
     assert check.returncode == 0, check.stderr
     assert check.stdout.count("Mechanism: ") == 2 and "Mechanisms compared: 2" in check.stdout
@@ -156,6 +170,7 @@ def test_cli_prints_each_mechanism_and_the_difference(tmp_path):
     assert done.returncode == 0, done.stderr
     assert "Under h2o2.yaml (reference):" in done.stdout and f"Under {ALZUETA}:" in done.stdout
     assert "S_L differs by up to" in done.stdout and "mechanism_comparison.csv" in done.stdout
+    assert "solved 0 now" in done.stdout
     saved = json.loads((out / "study.json").read_text())
     assert saved["config"]["mechanism"] == ["h2o2.yaml", ALZUETA]
 

@@ -420,16 +420,25 @@ class LimitsPlan:
         return sum(self.flames_at.values())
 
 
+#: Flames Brent's method saves on an edge against bisection: its interpolation steps land near the
+#: root of the nearly linear log-margin (search.py). Measured: 3-4 flames where bisection takes 5
+#: (0.1 in blend fraction to 0.0025-0.005), 14 for the four edges of the mechanism comparison demo
+#: (20 by bisection), 4-5 for the gas-turbine demo's blend edges (6): docs/benchmarks.md, "Limit searches".
+BRENT_SAVES = 1
+
+
 def flames_per_search(values: Sequence[float], tol: float, max_flames: int) -> int:
-    """About how many flames one edge of a search costs: bisection of the widest sweep step
-    down to the tolerance (Brent's method usually takes fewer), at most ``max_flames``.
+    """About how many flames one edge of a search costs: Brent's method on a bracket of the widest
+    sweep step down to the tolerance, :data:`BRENT_SAVES` fewer than bisection (at least one), at
+    most ``max_flames``.
 
     >>> flames_per_search([0.6, 0.8, 1.0], 0.01, 20), flames_per_search([1.0], 0.01, 20)
-    (5, 1)
+    (4, 1)
     """
     v = sorted(values)
     step = max((b - a for a, b in zip(v, v[1:])), default=0.0)
-    return min(max_flames, max(1, math.ceil(math.log2(step / tol))) if step > tol else 1)
+    bisection = math.ceil(math.log2(step / tol)) if step > tol else 1
+    return min(max_flames, max(1, bisection - BRENT_SAVES))
 
 
 def _not_assessed(study: Study, p: Point, mixture: Mixture | None, refs: dict, crit: tuple[str, ...],
@@ -446,54 +455,96 @@ def _not_assessed(study: Study, p: Point, mixture: Mixture | None, refs: dict, c
     return not_assessed(study, r, port_flow(study, r, fuel_gas(study, p.fuel, p.blend_fraction, p.oxidizer, refs))[2])
 
 
-def _idle(study: Study, swept: list[Point], crit: tuple[str, ...], mixture: Mixture | None, refs: dict) -> bool:
-    """Whether no flame criterion of a search is assessed at any of its swept points (the run then
-    starts no search, so it needs no flame: driver._searches' ``nothing``). A criterion whose range
-    ``mixture`` would be needed to judge, without it, counts as assessed."""
-    for p in swept:
-        off = _not_assessed(study, p, mixture, refs, crit)
-        if any(c not in off for c in crit):
-            return False
-    return True
+def _assessed(study: Study, swept: list[Point], crit: tuple[str, ...], mixture: Mixture | None,
+              refs: dict) -> list[frozenset[str]]:
+    """The flame criteria of ``crit`` assessed at each swept point of a search, judged as
+    :func:`_not_assessed` judges them before any flame (a criterion whose range ``mixture`` would be
+    needed to judge, without it, counts as assessed)."""
+    return [frozenset(c for c in crit if c not in _not_assessed(study, p, mixture, refs, crit)) for p in swept]
+
+
+#: How a flame criterion's margin moves as the flame gets faster (S_L, and with it the turbulent flame
+#: speed and the extinction strain rate): -1, it falls (the criterion fails where flames are fast:
+#: flashback, the core flow's flashback); +1, it rises (fails where they are slow: blowoff, the
+#: stabilizer, extinction-strain blowout). Each margin is a monotone function of the flame's speed
+#: (critical velocity gradients, Lewis & von Elbe 1987; docs/limits.md, docs/premixers.md).
+SPEED_SIGN = {"flashback": -1, "core_flashback": -1, "blowoff": 1, "stabilizer": 1, "extinction_blowout": 1}
+
+#: Every swept equivalence ratio at or below this lies lean of the fastest flame, where S_L rises with
+#: phi: the laminar flame speed of hydrocarbon and hydrogen fuels in air peaks rich of stoichiometric
+#: (phi about 1.05-1.1 for hydrocarbons, about 1.8 for hydrogen; Law 2006, ch. 7, from memory).
+LEAN_OF_PEAK_PHI = 1.0
+
+
+def edges_possible(axis: str, values: Sequence[float], assessed: Sequence[frozenset[str]]) -> int:
+    """How many edges one search can find, judged before any flame: edges lie between neighbouring
+    searched values (the swept ones; a blend search also the pure blend gas, fraction 1), at most
+    one where every criterion assessed anywhere in the search is assessed at every swept point and
+    all of them fail the same way (:data:`SPEED_SIGN`) along an axis where the flame's speed is
+    monotone (the blend fraction; phi lean of the fastest flame, :data:`LEAN_OF_PEAK_PHI`): the
+    limit function then changes sign at most once. Otherwise at most two (margins that rise and
+    fall at most once; interior windows between failing points cost more and are not counted).
+
+    >>> core = [frozenset({"core_flashback"})] * 3
+    >>> (edges_possible("equivalence_ratio", [0.5, 0.6, 0.7], core), edges_possible("equivalence_ratio", [0.8, 1.0, 1.2], core),
+    ...  edges_possible("equivalence_ratio", [0.7], core[:1]), edges_possible("blend_fraction", [0.0], core[:1]))
+    (1, 2, 0, 1)
+    >>> edges_possible("blend_fraction", [0.0, 0.5], [frozenset({"flashback", "blowoff"})] * 2)
+    2
+    """
+    blend = axis == "blend_fraction"
+    intervals = len(values) - 1 + (1 if blend and max(values) < 1.0 else 0)
+    signs = {SPEED_SIGN.get(c, 0) for c in frozenset().union(*assessed)}
+    one_way = len(signs) == 1 and 0 not in signs and len(set(assessed)) == 1
+    monotone = one_way and (blend or max(values) <= LEAN_OF_PEAK_PHI)
+    return min(intervals, 1 if monotone else 2)
 
 
 def planned_searches(study: Study, mixture: Mixture | None = None) -> LimitsPlan:
     """How many limit searches the study's [limits] table starts, by axis, which of them need
     no flame, and about how many flames the others need (for `check`): a blend search per
     (fuel, oxidizer, phi, p, T_u), a phi search per (fuel, oxidizer, blend, p, T_u); each
-    refines about two edges from a bracket of one sweep step to the tolerance
-    (:func:`flames_per_search`; a blend search tries the pure blend gas once more). A search
-    whose flame criteria are all outside their range at every swept point needs none
-    (:func:`_idle`; the Wobbe band alone needs none either). Interior windows between failing
+    refines the edges that can exist (:func:`edges_possible`: one or two) from a bracket of one
+    sweep step to the tolerance (:func:`flames_per_search`; a blend search tries the pure blend
+    gas once more). A search whose flame criteria are all outside their range at every swept
+    point needs none (the Wobbe band alone needs none either). Interior windows between failing
     swept points cost more and are not in it."""
     lim = study.limits
     assert lim is not None  # asked only of a study with [limits]
     crit = flame_criteria(study)
-    pts = points(study)
     searches = {"blend_fraction": 0, "equivalence_ratio": 0}
     idle = dict(searches)
     flames_at: defaultdict[float, int] = defaultdict(int)
     why, refs = "", dict[tuple, dict]()  # refs: fuel_gas's cache of reference gases
-    cost = {"blend_fraction": 1 + flames_per_search(study.blend_fractions, lim.tolerance["blend_fraction"],
-                                                    lim.max_flames_per_search),
-            "equivalence_ratio": 2 * flames_per_search(study.equivalence_ratios, lim.tolerance["equivalence_ratio"],
-                                                       lim.max_flames_per_search)}
+    per_edge = {a: flames_per_search(getattr(study, f"{a}s"), lim.tolerance[a], lim.max_flames_per_search)
+                for a in searches}
+    longest = 0
+    for axis, swept in _search_points(study, lim.find):
+        searches[axis] += 1
+        assessed = _assessed(study, swept, crit, mixture, refs)
+        if any(assessed):
+            values = [p.blend_fraction if axis == "blend_fraction" else p.phi for p in swept]
+            n = edges_possible(axis, values, assessed) * per_edge[axis] + (axis == "blend_fraction" and max(values) < 1.0)
+            flames_at[swept[0].pressure_bar] += n
+            longest = max(longest, n)
+            continue
+        idle[axis] += 1
+        if not why and crit:  # every reason at the first point, the Reynolds number too
+            off = _not_assessed(study, swept[0], mixture, refs, crit, every=True)
+            why = "; ".join(f"{c}: {off[c]}" for c in crit)
+    return LimitsPlan(searches, idle, dict(flames_at), longest, why)
+
+
+def _search_points(study: Study, find: Sequence[str]) -> list[tuple[str, list[Point]]]:
+    """(axis, its swept points in order along it) of every search the [limits] table starts."""
+    out = []
+    pts = points(study)
     for axis, col in (("blend_fraction", "blend_fraction"), ("equivalence_ratio", "phi")):
-        if axis not in lim.find:
+        if axis not in find:
             continue
         groups: defaultdict[tuple, list[Point]] = defaultdict(list)
         for p in pts:
             groups[tuple(getattr(p, a) for a in ("fuel", "oxidizer", "blend_fraction", "phi", "pressure_bar", "T_u")
                          if a != col)].append(p)
-        for swept in groups.values():
-            searches[axis] += 1
-            swept.sort(key=lambda p: getattr(p, col))
-            if not _idle(study, swept, crit, mixture, refs):
-                flames_at[swept[0].pressure_bar] += cost[axis]
-                continue
-            idle[axis] += 1
-            if not why and crit:  # every reason at the first point, the Reynolds number too
-                off = _not_assessed(study, swept[0], mixture, refs, crit, every=True)
-                why = "; ".join(f"{c}: {off[c]}" for c in crit)
-    busy = [cost[a] for a in searches if searches[a] > idle[a]]
-    return LimitsPlan(searches, idle, dict(flames_at), max(busy, default=0), why)
+        out += [(axis, sorted(swept, key=lambda p: getattr(p, col))) for swept in groups.values()]
+    return out
