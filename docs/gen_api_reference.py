@@ -28,7 +28,8 @@ API = [
 #: Classes documented with their dataclass fields (a Study has dozens, described on the study-file page instead).
 WITH_FIELDS = {"Results", "RunSummary", "Progress"}
 #: Public members of classes shown besides the fields.
-MEMBERS = {"Results": ("dataset", "to_dataframe", "mechanism_comparison", "counts"),
+MEMBERS = {"Results": ("dataset", "limits_dataset", "ladders_dataset", "to_dataframe", "mechanism_comparison",
+                       "extra_table", "counts"),
            "RunSummary": ("worker_utilisation",), "Progress": ("remaining_s",), "Study": ("n_points",)}
 
 
@@ -133,6 +134,11 @@ def render() -> str:
     missing = [n for n in flamecharts.__all__ if n != "__version__" and n not in placed]
     if missing:
         raise SystemExit(f"docs/gen_api_reference.py does not place these public names: {', '.join(missing)}")
+    results = vars(flamecharts.Results)
+    unlisted = [m for m, v in results.items() if not m.startswith("_") and (callable(v) or isinstance(v, property))
+                and m not in MEMBERS["Results"]]
+    if unlisted:
+        raise SystemExit(f"docs/gen_api_reference.py: MEMBERS['Results'] leaves out {', '.join(unlisted)}")
     out = []
     for name, heading in API:
         if heading:

@@ -1035,9 +1035,11 @@ def premixer_verdict(study: Study, row: dict) -> str:
     if laminar not in (row.get("not_assessed") or {}) and row.get(b.blowoff[0]) is not None:
         decide[laminar if laminar == "blowoff" else "stabilizer blowoff"] = (row[b.blowoff[0]], b.blowoff[1])
     risks = [f"{c} risk" for c, (m, need) in decide.items() if c not in unassessed and m < need]
-    if (row.get("instability") == "cellular" and "boundary-layer flashback" not in unassessed
-            and row.get("ladder_consumption_speed_max_m_s") is None):
-        risks.append("boundary-layer flashback risk underestimated (thermodiffusively unstable, no ladder)")
+    if row.get("instability") == "cellular" and row.get("strained_consumption_speed_max_m_s") is None:
+        # a cellular flame runs faster than the S_L the correlations scale: without a ladder's
+        # strongest consumption speed (the leading-point speed) the flashback margins are optimistic
+        risks += [f"{c} risk underestimated (thermodiffusively unstable, no [stretch] ladder)"
+                  for c in ("core-flow flashback", "boundary-layer flashback") if c not in unassessed]
     basis = core_flashback_basis(row)
     judged = f" (core-flow flashback judged on {basis})" if basis else ""
     if not unassessed:

@@ -164,3 +164,21 @@ def test_the_premixers_verdict_counts_its_own_criteria_where_assessed():
     turbulent["core_flashback_margin"] = 3.0
     assert premixer_verdict(_study(), turbulent) == ("ok on core-flow flashback only; boundary-layer flashback and "
                                                      "blowout not assessed")
+
+
+def test_a_cellular_point_without_a_ladder_is_not_ok_on_core_flow_flashback():
+    """Found by a newcomer trial: a thermodiffusively unstable point read "ok on core-flow flashback
+    only" while its warning said the S_L-based margins are optimistic. The turbulent flame speeds
+    scale S_L (or S_L with a Lewis-number factor); a cellular lean hydrogen flame burns several times
+    faster than S_L where it is curved (Berger, Attili & Pitsch 2022, from memory), which only the
+    leading-point speed on a [stretch] ladder's strongest consumption speed covers. So the verdict
+    names the risk as underestimated, and a ladder at the point's gas and condition lifts it."""
+    turbulent = {**ROW, "port_velocity_m_s": 40.0, "core_flashback_margin": 3.0, "instability": "cellular"}
+    premixer_margins(_study(), [turbulent])
+    assert turbulent["verdict"].startswith("core-flow flashback risk underestimated (thermodiffusively unstable, no "
+                                           "[stretch] ladder); boundary-layer flashback and blowout not assessed")
+    stable = {**ROW, "port_velocity_m_s": 40.0, "core_flashback_margin": 3.0, "instability": "stable"}
+    premixer_margins(_study(), [stable])
+    assert stable["verdict"].startswith("ok on core-flow flashback only")
+    laddered = {**turbulent, "strained_consumption_speed_max_m_s": 2.0}
+    assert not premixer_verdict(_study(), laddered).startswith("core-flow flashback risk underestimated")

@@ -237,8 +237,9 @@ def _limits_line(study: Study, timings: dict, jobs: int, mixture: Mixture | None
     why = _idle_words(plan, idle, total)
     if idle == total:
         return head + f"no flames beyond the sweep: {why}", 0.0
-    return (head + f"about {plan.flames} flames beyond the sweep (warm-started, about {duration(t)}; stored flames are "
-            "not solved again)" + (f"; {why}" if why else "")), t
+    return (head + f"up to about {plan.flames} flames beyond the sweep (warm-started, about {duration(t)}; an upper "
+            "estimate: an edge the swept points already settle, or one that does not exist, needs none; stored "
+            "flames are not solved again)" + (f"; {why}" if why else "")), t
 
 
 def _idle_words(plan: LimitsPlan, idle: int, total: int) -> str:

@@ -73,7 +73,8 @@ def cmd_run(args: argparse.Namespace) -> int:
         print(f"  ... and {len(summary.failures) - 20} more (see results.csv)")
     warned = [r for r in summary.rows if r.get("warnings")]
     if warned:
-        print(f"{len(warned)} points outside the range the method or mechanism covers (column 'warnings'):")
+        print(f"{len(warned)} points with warnings: outside the range the method or mechanism covers, or "
+              "thermodiffusively unstable (column 'warnings'):")
         for r in warned[:20]:
             print(f"  {gas_label(r)}, phi {r['equivalence_ratio']:g}, {r['pressure_bar']:g} bar, "
                   f"{r['unburned_temperature_K']:g} K: {r['warnings']}")

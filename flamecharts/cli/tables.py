@@ -100,8 +100,10 @@ def print_premixer(study: Study, rows: list[dict]) -> None:
         near = ("" if tau is None else "; near the fuel injection no ignition" if tau == float("inf")
                 else f"; near the fuel injection {tau:.3g} ms (phi {s['injection_equivalence_ratio']:g}"
                      f"{injection_end(s['injection_equivalence_ratio'])})")
+        risks = [v for v in s["verdicts"] if v != "ok"]  # the autoignition verdicts other than a plain ok
         print(f"  {gas_label(s)}, {s['pressure_bar']:g} bar, {s['unburned_temperature_K']:g} K: {delay}{near}; "
-              f"{s['points'] - s['risky_points']} of {s['points']} points ok ({'; '.join(s['verdicts'])})")
+              f"{s['points'] - s['risky_points']} of {s['points']} points ok"
+              + (f" ({'; '.join(risks)})" if risks else ""))
 
 
 MAX_POINT_LINES = 60

@@ -805,6 +805,24 @@ def _charts_section(out_dir: Path) -> list[str]:
     return parts
 
 
+def _warnings_section(rows: list[dict]) -> list[str]:
+    """The points that carry a warning (outside the method's or mechanism's range, or unstable), each with it."""
+    parts: list[str] = []
+    warned, more = _first([r for r in rows if r.get("warnings")], "results.csv (warnings)")
+    if warned:
+        parts.append("<h2 id='warnings'>Points with warnings: outside the range of the method or mechanism, or "
+                     "unstable</h2>" + more)
+        parts.append("<p>These numbers were computed, but each point below carries a warning: its inputs lie outside "
+                     "what a freely propagating laminar flame or the mechanism covers (read its numbers as "
+                     "indications only), or its flame is thermodiffusively unstable (the real flame wrinkles and "
+                     "runs faster than S_L, so margins built on S_L are optimistic there). Each warning says which."
+                     "</p>")
+        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
+                            [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
+                              f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
+    return parts
+
+
 def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None,
                  dataset: xr.Dataset | None = None, limits: Sequence[dict] = (), stretch: Sequence[dict] = (),
                  comparison: Comparison | None = None) -> Path:
@@ -864,14 +882,7 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
                             [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
 
-    warned, more = _first([r for r in rows if r.get("warnings")], "results.csv (warnings)")
-    if warned:
-        parts.append("<h2 id='warnings'>Points outside the range of the method or mechanism</h2>" + more)
-        parts.append("<p>These numbers were computed, but the inputs lie outside what a freely propagating "
-                     "laminar flame or the mechanism covers: read them as indications only.</p>")
-        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
-                            [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
-                              f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
+    parts += _warnings_section(rows)
 
     parts += _provenance(study, comparison)
     parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "

@@ -51,8 +51,9 @@ RECENT_PROFILES = 64
 @dataclass
 class Progress:
     """The one event a run's progress callback receives: after every finished flame of the
-    sweep (``what`` 'flames'), after every finished extra solve ('Zeldovich pairs',
-    'flame-speed sensitivities', 'strained-flame ladders'), every flame of a round of the limit
+    sweep (``what`` 'flames'), after every finished extra solve (its progress label: 'Zeldovich
+    pairs', 'flame-speed sensitivities', 'premixer ignition delays', 'burned-gas emissions',
+    'flames at equal flame temperature', 'strained-flame ladders'), every flame of a round of the limit
     searches ('limit flames') and every round ('limits', ``done``/``total`` counting the
     searches answered, ``detail`` the round and its flames).
     Every kind carries its elapsed time and, once something finished, the time left."""

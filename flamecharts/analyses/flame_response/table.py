@@ -43,6 +43,10 @@ def parse(t: Any, ctx: TableContext) -> FlameResponse:
     z = t.get("zeldovich", True)
     if not isinstance(z, bool):
         raise ConfigError(f"'flame_response.zeldovich' must be true or false, got {show(z)}")
+    given = t.get("inert_step")
+    if given is not None and (isinstance(given, bool) or not isinstance(given, (int, float))):
+        raise ConfigError(f"'flame_response.inert_step' must be a number above 0, at most 0.1 (a mole fraction of "
+                          f"the mixture: 0.5 % is 0.005), got {show(given)}")
     step = _positive(t, "inert_step", "flame_response")
     if step is not None and step > 0.1:
         raise ConfigError(f"'flame_response.inert_step' is {step:g}; allowed: above 0, at most 0.1 (a mole "
