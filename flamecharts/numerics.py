@@ -67,6 +67,15 @@ HALF_SEPARATION_BOUNDS_M = (0.002, 0.03)
 FIRST_VELOCITY_FACTOR = 2.0
 #: Factor of the nozzle velocity between ladder steps while the flame burns.
 LADDER_FACTOR = 1.6
+#: When the first nozzle velocity gives no burning flame, the ladder starts again from a nozzle
+#: velocity this many times higher, at most FIRST_STRAIN_RETRIES times. Lean hydrogen-air at
+#: 10 bar (h2o2.yaml, phi 0.5) fails from Cantera's initial guess at Karlovitz 0.01-0.04, is not
+#: done within 60-90 s of CPU at 0.16-0.3, and converges in 26 s near 0.6 (docs/benchmarks.md).
+FIRST_STRAIN_RETRY_FACTOR = LADDER_FACTOR ** 3
+FIRST_STRAIN_RETRIES = 4
+#: Time steps a first-rung solve may take before it counts as finding no burning flame: a count,
+#: not a clock, so the answer does not depend on the machine (hydrogen-air at 1 bar takes 550).
+FIRST_SOLVE_MAX_TIME_STEPS = 2500
 #: The continuation stops refining the extinction bracket when the velocity step is below this
 #: ratio (the extinction strain rate is then known to about 2 %).
 EXTINCTION_RESOLUTION = 1.02

@@ -217,3 +217,35 @@ def test_a_stretch_value_outside_the_sweep_is_refused(tmp_path):
     r = run_cli("check", config)
     assert r.returncode == 2
     assert "'stretch.equivalence_ratio' lists 0.7, which the sweep does not have; allowed: 0.5, 1" in r.stderr
+
+
+
+def test_a_lean_hydrogen_ladder_at_10_bar_starts_again_from_a_stronger_strain(monkeypatch):
+    """Hydrogen-air at φ 0.5, 300 K and 10 bar (h2o2.yaml), a gas turbine premixer's lean
+    hydrogen: from Cantera's initial guess no twin flame converges at the first nozzle velocities
+    (2 S_L to 33.6 S_L, Karlovitz 0.01 to 0.2); the ladder used to end at the first ("no burning
+    twin flame at the first strain rate"). It now starts again from a 1.6³ times stronger strain.
+    Here only that start (from 33.6 S_L, two solves: about a minute of CPU); the whole ladder goes
+    out at 1.03e5 1/s (docs/benchmarks.md). Physics: lean hydrogen (Le_eff well below 1) burns
+    faster when strained, so the strained consumption speed lies above S_L (Law, Combustion
+    Physics 2006, ch. 10, from memory)."""
+    import cantera as ct
+
+    from flamecharts.chemistry import strained
+    from flamecharts.numerics import FIRST_STRAIN_RETRY_FACTOR, FIRST_VELOCITY_FACTOR
+
+    gas = ct.Solution("h2o2.yaml")
+    gas.set_equivalence_ratio(0.5, "H2:1", "O2:1, N2:3.76")
+    gas.TP = 300.0, 10e5
+    X = gas.mole_fraction_dict()
+    free = ct.FreeFlame(gas, width=0.003)
+    free.set_refine_criteria(ratio=3, slope=0.1, curve=0.2)
+    free.solve(loglevel=0, auto=True)
+    S_L, T_ad = float(free.velocity[0]), float(free.T[-1])
+    monkeypatch.setattr(strained, "MAX_SOLVES", 2)
+    start = FIRST_VELOCITY_FACTOR * FIRST_STRAIN_RETRY_FACTOR ** 2
+    out = strained.twin_flame_ladder(gas, 300.0, 10e5, X, S_L, T_ad, first_velocity_factor=start)
+    assert out["first_strain_retries"] == 1
+    assert out["first_velocity_factor"] == pytest.approx(start * FIRST_STRAIN_RETRY_FACTOR)
+    assert out["message"] == "started at 137 S_L: no burning flame at 33.6 S_L and below; still burning after 2 solves"
+    assert len(out["strain_rates_1_s"]) == 1 and out["consumption_speeds_m_s"][0] > 2 * S_L

@@ -10,7 +10,11 @@ CounterflowTwinPremixedFlame: fresh mixture from one nozzle, the plane half a no
 separation away). Raising the nozzle velocity strains the flames until they go out. The
 ladder is one continuation: each step starts from the last converged flame; the step in
 nozzle velocity is cut when a step loses the burning branch, until it is below
-EXTINCTION_RESOLUTION, so the extinction strain rate is bracketed to that resolution.
+EXTINCTION_RESOLUTION, so the extinction strain rate is bracketed to that resolution. A first
+step that finds no burning flame (within FIRST_SOLVE_MAX_TIME_STEPS time steps) starts the ladder
+again from a FIRST_STRAIN_RETRY_FACTOR times stronger strain, at most FIRST_STRAIN_RETRIES times:
+lean hydrogen at elevated pressure converges from Cantera's initial guess only well above the
+weakest strain (docs/benchmarks.md).
 """
 from __future__ import annotations
 
@@ -25,6 +29,9 @@ import numpy.typing as npt
 from ..numerics import (  # the ladder's settings (part of its store key, sweep.stretch)
     BURNING_SHARE,
     EXTINCTION_RESOLUTION,
+    FIRST_SOLVE_MAX_TIME_STEPS,
+    FIRST_STRAIN_RETRIES,
+    FIRST_STRAIN_RETRY_FACTOR,
     FIRST_VELOCITY_FACTOR,
     HALF_SEPARATION_BOUNDS_M,
     HALF_SEPARATION_THICKNESSES,
@@ -69,6 +76,56 @@ def consumption_speed(z: np.ndarray, heat_release_W_m3: np.ndarray, rho_u: float
     return float(np.trapezoid(heat_release_W_m3, z) / (rho_u * q_J_kg))
 
 
+class _TooManySteps(Exception):
+    """A first-step solve took more than FIRST_SOLVE_MAX_TIME_STEPS time steps."""
+
+
+def _twin_flame(gas: ct.Solution, width: float, refine: dict, budget: dict[str, Any]) -> ct.CounterflowTwinPremixedFlame:
+    """A fresh twin flame on [0, width] whose time stepping raises _TooManySteps once
+    ``budget["steps"]`` passes ``budget["max"]`` (no limit while ``budget["max"]`` is None)."""
+    flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
+    flame.set_refine_criteria(**refine)
+
+    def count(dt: float) -> int:
+        budget["steps"] += 1
+        if budget["max"] is not None and budget["steps"] > budget["max"]:
+            raise _TooManySteps
+        return 0
+    flame.set_time_step_callback(count)
+    return flame
+
+
+def _burns(flame: ct.CounterflowTwinPremixedFlame, fresh: bool, budget: dict[str, Any], T_burning: float) -> bool:
+    """Solve ``flame`` (from Cantera's initial guess when ``fresh``, else from its state); whether
+    its peak temperature passes ``T_burning`` [K] (False when the solve fails)."""
+    budget["steps"] = 0
+    try:
+        flame.solve(loglevel=0, auto=fresh)
+    except (ct.CanteraError, _TooManySteps):
+        return False
+    return bool(flame.T.max() > T_burning)
+
+
+def _record(out: dict[str, Any], flame: ct.CounterflowTwinPremixedFlame, rho_u: float, q: float) -> None:
+    """Append a burning step's strain rate, consumption speed and peak temperature to ``out``."""
+    out["strain_rates_1_s"].append(strain_rate(flame.grid, flame.velocity, flame.T))
+    out["consumption_speeds_m_s"].append(consumption_speed(flame.grid, flame.heat_release_rate, rho_u, q))
+    out["peak_temperatures_K"].append(float(flame.T.max()))
+
+
+def _empty_ladder(width: float, alpha_u: float, first_velocity_factor: float) -> dict[str, Any]:
+    """The result of a ladder before its first solve (see twin_flame_ladder's Returns)."""
+    return {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
+            "extinction_strain_rate_1_s": None, "extinguished_above_1_s": None, "solves": 0, "message": "",
+            "half_separation_m": width, "unburned_thermal_diffusivity_m2_s": alpha_u,
+            "first_velocity_factor": first_velocity_factor, "first_strain_retries": 0}
+
+
+def _note(out: dict[str, Any], text: str) -> None:
+    """Add ``text`` to the ladder's message ('; ' between notes)."""
+    out["message"] = "; ".join(m for m in (out["message"], text) if m)
+
+
 def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float], S_L: float, T_ad: float,
                       time_limit_s: float | None = None, refine: dict | None = None,
                       first_velocity_factor: float = FIRST_VELOCITY_FACTOR, ladder_factor: float = LADDER_FACTOR,
@@ -94,7 +151,8 @@ def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float
     dict: strain_rates_1_s, consumption_speeds_m_s, peak_temperatures_K (burning steps, in
     order), extinction_strain_rate_1_s (the last burning step's strain; None when the flame
     never went out), extinguished_above_1_s (strain of the nozzle velocity that lost it),
-    solves, message.
+    solves, message, half_separation_m, unburned_thermal_diffusivity_m2_s, first_velocity_factor
+    (over S_L, of the first burning step's start) and first_strain_retries.
     """
     t0 = time.thread_time()
     gas.TPX = T_u, P, X
@@ -104,34 +162,38 @@ def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float
     gas.TPX = T_u, P, X
     lo, hi = HALF_SEPARATION_BOUNDS_M
     width = min(max(HALF_SEPARATION_THICKNESSES * alpha_u / S_L, lo), hi)
-    flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
-    flame.set_refine_criteria(**(REFINE if refine is None else refine))
+    refine = REFINE if refine is None else refine
+    budget: dict[str, Any] = {"steps": 0, "max": FIRST_SOLVE_MAX_TIME_STEPS}
+    flame = _twin_flame(gas, width, refine, budget)
     U = first_velocity_factor * S_L
     factor = ladder_factor
-    out: dict[str, Any] = {"strain_rates_1_s": [], "consumption_speeds_m_s": [], "peak_temperatures_K": [],
-           "extinction_strain_rate_1_s": None, "extinguished_above_1_s": None, "solves": 0, "message": "",
-           "half_separation_m": width, "unburned_thermal_diffusivity_m2_s": alpha_u}
+    out = _empty_ladder(width, alpha_u, first_velocity_factor)
     saved = None
     while out["solves"] < MAX_SOLVES:
         if time_limit_s is not None and time.thread_time() - t0 > time_limit_s:
-            out["message"] = "time limit: bracket so far"
+            _note(out, "time limit: bracket so far")
             break
         flame.reactants.mdot = rho_u * U
         out["solves"] += 1
-        try:
-            flame.solve(loglevel=0, auto=saved is None)
-            burning = flame.T.max() > T_u + BURNING_SHARE * (T_ad - T_u)
-        except ct.CanteraError:
-            burning = False
-        if burning:
+        if _burns(flame, saved is None, budget, T_u + BURNING_SHARE * (T_ad - T_u)):
+            if saved is None and out["first_strain_retries"]:
+                _note(out, f"started at {U / S_L:.3g} S_L: no burning flame at "
+                           f"{U / S_L / FIRST_STRAIN_RETRY_FACTOR:.3g} S_L and below")
+            budget["max"] = None   # the continuation's steps start from a converged flame
             saved = flame.to_array()
-            out["strain_rates_1_s"].append(strain_rate(flame.grid, flame.velocity, flame.T))
-            out["consumption_speeds_m_s"].append(consumption_speed(flame.grid, flame.heat_release_rate, rho_u, q))
-            out["peak_temperatures_K"].append(float(flame.T.max()))
+            _record(out, flame, rho_u, q)
             U *= factor
             continue
         if saved is None:
-            out["message"] = "no burning twin flame at the first strain rate"
+            if out["first_strain_retries"] < FIRST_STRAIN_RETRIES:   # again, fresh, from a stronger strain
+                out["first_strain_retries"] += 1
+                U *= FIRST_STRAIN_RETRY_FACTOR
+                out["first_velocity_factor"] = U / S_L
+                gas.TPX = T_u, P, X   # the failed solve left its own state in gas
+                flame = _twin_flame(gas, width, refine, budget)
+                continue
+            _note(out, f"no burning twin flame at the first strain rate (nozzle velocity "
+                       f"{first_velocity_factor:.3g} to {U / S_L:.3g} S_L)")
             break
         out["extinguished_above_1_s"] = out["strain_rates_1_s"][-1] * factor
         if factor < resolution:
@@ -142,7 +204,7 @@ def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float
         U *= factor
         flame.from_array(saved)
     else:
-        out["message"] = f"still burning after {MAX_SOLVES} solves"
+        _note(out, f"still burning after {MAX_SOLVES} solves")
     return out
 
 

@@ -34,6 +34,9 @@ LADDER_SETTINGS = {
     "first_velocity_factor": strained.FIRST_VELOCITY_FACTOR, "ladder_factor": strained.LADDER_FACTOR,
     "extinction_resolution": strained.EXTINCTION_RESOLUTION, "burning_share": strained.BURNING_SHARE,
     "refine": strained.REFINE, "max_solves": strained.MAX_SOLVES,
+    "first_strain_retry_factor": strained.FIRST_STRAIN_RETRY_FACTOR,
+    "first_strain_retries": strained.FIRST_STRAIN_RETRIES,
+    "first_solve_max_time_steps": strained.FIRST_SOLVE_MAX_TIME_STEPS,
 }
 
 #: Time limit of one ladder, in time limits of one free flame of the mechanism.

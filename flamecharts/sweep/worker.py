@@ -169,7 +169,8 @@ def stretch_task(task: dict) -> dict:
         ladder["markstein_number_strain"] = markstein_number_from_strain(
             ladder["strain_rates_1_s"], ladder["consumption_speeds_m_s"], task["S_L"],
             ladder["unburned_thermal_diffusivity_m2_s"])
-        message = ladder["message"] or ("extinguished" if ladder["extinction_strain_rate_1_s"] else "")
+        message = "; ".join(m for m in (ladder["message"], "extinguished" if ladder["extinction_strain_rate_1_s"] else "")
+                            if m)
     elif ladder is not None:
         message = f"not converged: {ladder['message']}"
     return {"key": task["key"], "status": "ok" if burning else "failed",
