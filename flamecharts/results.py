@@ -594,8 +594,9 @@ def margin_sentences(study: Study, rows: list[dict], column: str, what: str, bel
         both = sorted(pairs[gas])
         shown = list(dict.fromkeys(both[round(i * (len(both) - 1) / (most_phis - 1))] for i in range(most_phis))) \
             if len(both) > most_phis else both
+        told = f" ({len(shown)} of {len(both)} φ; results.csv has each)" if len(shown) < len(both) else ""
         out.append(f"At {100 * gas[2]:g} % {study.blend_with} in {gas[0]} ({where}) the {what} "
-                   + _margin_words(shown) + (f" ({remark})" if remark else "") + f"{tail}.")
+                   + _margin_words(shown) + told + (f" ({remark})" if remark else "") + f"{tail}.")
     return out + (_unassessed_sentences(study, rows, column, what, why) if why else [])
 
 

@@ -20,7 +20,7 @@ from matplotlib.lines import Line2D
 from ...columns import gas_label
 from ...outputs.charts.phi_charts import _phi_chart
 from ...outputs.charts.registry import MAX_CURVES, ChartData, chart, spread
-from ...outputs.charts.style import MARKERS, colour_scale, empty_note, figure, finish, panels as panel_keys
+from ...outputs.charts.style import MARKERS, colour_scale, empty_note, figure, finish, panels as panel_keys, sparse_log_yticks
 from .table import of
 
 if TYPE_CHECKING:
@@ -164,6 +164,7 @@ def co_burnout_chart(data: ChartData, study: Study) -> Figure:
         if not drawn:
             empty_note(ax, "no burning point with emissions at this pressure and preheat")
         ax.set_yscale("log")
+        sparse_log_yticks(ax)
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Residence time after the peak heat release [ms]")
         ax.set_ylabel(f"CO at {ref:g} % O2, dry [ppm]")

@@ -20,7 +20,17 @@ from matplotlib.lines import Line2D
 
 from ...columns import gas_label
 from .registry import ChartData, any_flame, chart
-from .style import CMAP, LINESTYLES, MARKERS, NOT_BURNING, curves as curve_keys, footer, panels as panel_keys, title_text
+from .style import (
+    CMAP,
+    LINESTYLES,
+    MARKERS,
+    NOT_BURNING,
+    curves as curve_keys,
+    footer,
+    panels as panel_keys,
+    sparse_log_yticks,
+    title_text,
+)
 
 if TYPE_CHECKING:
     from matplotlib.artist import Artist
@@ -136,6 +146,7 @@ def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel:
     if log_y and positive:
         for ax in axes.flat:
             ax.set_yscale("log")
+            sparse_log_yticks(ax)  # 20, 50, 100 ppm rather than 2 x 10^1
         axes.flat[0].set_ylim(bottom=0.4 * min(positive))
     elif not floor_at_preheat:
         axes.flat[0].set_ylim(bottom=0.0)

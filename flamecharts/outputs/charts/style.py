@@ -147,12 +147,14 @@ def plain_log_ticks(ax: Axes) -> None:
 
 
 def sparse_log_yticks(ax: Axes) -> None:
-    """A log y axis labelled at 1, 2, 5, 10, 20, 50... (every minor tick labelled crowds a tall range)."""
+    """A log y axis labelled in plain numbers at 1, 2, 5, 10, 20, 50... (every minor tick labelled
+    crowds a tall range), or at every tick where the axis spans less than a decade (40, 50, 60...)."""
     def label(v: float, _: object) -> str:
         if v <= 0:
             return ""
+        lo, hi = ax.get_ylim()
         lead = round(v / 10 ** np.floor(np.log10(v)), 6)
-        return f"{v:g}" if lead in (1.0, 2.0, 5.0) else ""
+        return f"{v:g}" if lead in (1.0, 2.0, 5.0) or (lo > 0 and hi / lo < 10) else ""
     ax.yaxis.set_major_formatter(FuncFormatter(label))
     ax.yaxis.set_minor_formatter(FuncFormatter(label))
 
