@@ -28,6 +28,7 @@ loads ``task`` and ``solve``, never ``charts``), so the layers' rule holds: noth
 """
 from __future__ import annotations
 
+from functools import cache
 from importlib import import_module
 from importlib.util import find_spec
 from types import ModuleType
@@ -39,10 +40,11 @@ ANALYSES: tuple[str, ...] = ("flame_response", "emissions")
 
 def parts(part: str) -> list[ModuleType]:
     """The ``part`` module (file name without .py) of every registered analysis that has one, in
-    :data:`ANALYSES` order."""
-    out = []
-    for name in ANALYSES:
-        dotted = f"{__name__}.{name}.{part}"
-        if find_spec(dotted) is not None:
-            out.append(import_module(dotted))
-    return out
+    :data:`ANALYSES` order. Looked up once per part (the read-out asks for every point)."""
+    return list(_parts(part, ANALYSES))
+
+
+@cache
+def _parts(part: str, names: tuple[str, ...]) -> tuple[ModuleType, ...]:
+    dotted = (f"{__name__}.{name}.{part}" for name in names)
+    return tuple(import_module(d) for d in dotted if find_spec(d) is not None)

@@ -19,7 +19,7 @@ if TYPE_CHECKING:
     from ...config import Study
 
 #: Species of the burned gas reported in ppm (dry, at the reference O2), by column stem.
-EMISSION_SPECIES = (("no", ("NO",)), ("no2", ("NO2",)), ("nox", ("NO", "NO2")), ("n2o", ("N2O",)), ("co", ("CO",)))
+PPM_SPECIES = (("no", ("NO",)), ("no2", ("NO2",)), ("nox", ("NO", "NO2")), ("n2o", ("N2O",)), ("co", ("CO",)))
 
 
 def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int,
@@ -48,7 +48,7 @@ def emissions_at(em: Emissions, gas_row: dict, phi: float, hist: dict, i: int,
             return None
         return 1e6 * float(em_phys.corrected_to_reference_O2(em_phys.dry_mole_fraction(x_wet, h2o), o2_dry,
                                                              em.reference_oxygen_percent))
-    for stem, species in EMISSION_SPECIES:
+    for stem, species in PPM_SPECIES:
         out[f"{stem}_ppmvd_at_reference_o2"] = ppm(sum(X.get(s, 0.0) for s in species))
     out["unburned_hydrocarbons_ppmvd_at_reference_o2"] = ppm(sum(X.get(s, 0.0) for s in hist["fuel_species"]
                                                                  if s in hydrocarbons))
