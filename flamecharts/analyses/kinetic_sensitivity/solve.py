@@ -39,6 +39,7 @@ def wants_sensitivities(study: Study) -> bool:
 
 
 def sensitivity_key(p: Point) -> str:
+    """Store key of point ``p``'s sensitivities (sweep.extras.derived_key: its inputs and the version)."""
     return derived_key("sensitivity", p, {"version": SENSITIVITY_VERSION})
 
 

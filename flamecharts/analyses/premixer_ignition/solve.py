@@ -43,6 +43,8 @@ def horizon_of(study: Study) -> float | None:
 
 
 def premixer_key(p: Point) -> str:
+    """Store key of point ``p``'s ignition delays (sweep.extras.derived_key: its inputs, the version
+    and the injection mixtures' equivalence ratios; not the horizon, which read_delays handles)."""
     return derived_key("premixer", p, {"version": PREMIXER_VERSION, "injection_phis": list(INJECTION_PHIS)})
 
 
