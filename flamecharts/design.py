@@ -660,7 +660,7 @@ def premixer_columns(study: Study, point: Point, row: dict | None = None) -> dic
     autoignition margin (delay / residence time), the same for the most reactive mixture near
     the fuel injection (one of physics.autoignition.INJECTION_PHIS), and the verdict on both
     (columns.PREMIXER_COLUMNS; physics.limits.autoignition_verdict), from the delays the run
-    stored (sweep.premixer: time of the largest dT/dt in an adiabatic constant-pressure
+    stored (analyses/premixer_ignition: time of the largest dT/dt in an adiabatic constant-pressure
     reactor, inf when the gas has not ignited within physics.autoignition.premixer_horizon).
     Empty without [premixer]; the verdict says so when the delays are not stored.
     """

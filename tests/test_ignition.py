@@ -115,12 +115,12 @@ def test_premixer_errors_name_the_key(tmp_path, extra, message):
 
 
 def test_premixer_delays_are_stored_apart_and_reread_at_another_horizon(tmp_path):
-    """The premixer's delays are an extra of their own (sweep.premixer): a shorter residence
+    """The premixer's delays are an extra of their own (analyses/premixer_ignition): a shorter residence
     time reads the stored delays (a delay over a longer horizon answers a shorter one); a
     longer one integrates again only the points that had not ignited; no flame is solved again."""
+    from flamecharts.analyses.premixer_ignition.solve import premixer_key
     from flamecharts.store import Store
     from flamecharts.sweep.points import points
-    from flamecharts.sweep.premixer import premixer_key
 
     def study(residence_ms):
         cfg = write_h2_study(tmp_path, phis="[1.0]", fractions="[0.0]",
@@ -150,7 +150,7 @@ def test_premixer_delays_are_stored_apart_and_reread_at_another_horizon(tmp_path
 
 
 def test_check_estimates_the_premixer_delays(tmp_path):
-    """`check` prints one line per extra solve a study asks for (sweep.analyses.PER_POINT): the
+    """`check` prints one line per extra solve a study asks for (sweep.analyses.per_point): the
     premixer's delays with their horizon and time, inside the total."""
     from conftest import run_cli
 

@@ -34,8 +34,9 @@ from importlib.util import find_spec
 from types import ModuleType
 
 #: The registered analyses (their package names under flamecharts.analyses), in the order a run
-#: solves their extras and the report shows their sections.
-ANALYSES: tuple[str, ...] = ("flame_response", "emissions")
+#: solves their extras and the report shows their sections: [uncertainty]'s sensitivities, then
+#: [premixer]'s ignition delays (the order both had as the core's extras, before the others).
+ANALYSES: tuple[str, ...] = ("kinetic_sensitivity", "premixer_ignition", "flame_response", "emissions")
 
 
 def parts(part: str) -> list[ModuleType]:

@@ -5,9 +5,8 @@ PerPoint      one analysis's per-point extra solve: whether the study wants it, 
               merge into each point's metrics, and what ``check`` estimates for it
 Budget        what an estimate knows: points still to solve, workers, a warm flame's seconds,
               the mechanism's size
-PER_POINT     the core extra solves (sensitivities, the premixer's delays)
-per_point     those and the registered analyses' (flamecharts.analyses: each one's ``solve`` part
-              declares its PER_POINT), in the order a run solves them (after the sweep)
+per_point     the registered analyses' extra solves (flamecharts.analyses: each one's ``solve``
+              part declares its PER_POINT), in the order a run solves them (after the sweep)
 
 The pipeline solves every wanted extra of per_point() after the sweep, ``results`` merges
 them into the rows, and ``flamecharts check`` prints their estimates; none of them is named
@@ -20,9 +19,6 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from ..analyses import parts
-from .kinetics import solve_sensitivities, wants_sensitivities, with_sensitivities
-from .premixer import horizon_of, solve_premixer, with_premixer
-from .schedule import sensitivity_seconds
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -56,38 +52,7 @@ class PerPoint:
     estimate: Callable[[Study, Budget], tuple[str, float, str]]
 
 
-def _sensitivity_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    t = b.points_to_solve * sensitivity_seconds(b.species, b.reactions, study.resolution) / b.workers
-    return (f"Kinetic uncertainty: flame-speed sensitivities to every rate constant of each burning point (up to "
-            f"{b.points_to_solve} adjoint solves after the sweep, each the stored flame solved again on its grid)",
-            t, "measured 0.4-0.5 s a flame with h2o2.yaml, about 18 s with GRI-Mech 3.0; stored ones are not solved "
-            "again, and changing a factor solves nothing")
-
-
-#: A premixer's ignition delays of one point (the fresh mixture and five near the injection, over
-#: a 1 s horizon) per species of the mechanism [s]: measured on 2 busy cores at 10 bar, 300-800 K,
-#: 0.007-0.015 s with h2o2.yaml (10 species) and 0.07-0.09 s with GRI-Mech 3.0 (53), 2026-12-05.
-PREMIXER_SECONDS_PER_SPECIES = 0.0017
-
-
-def _premixer_estimate(study: Study, b: Budget) -> tuple[str, float, str]:
-    horizon = horizon_of(study)
-    t = b.points_to_solve * PREMIXER_SECONDS_PER_SPECIES * b.species / b.workers
-    return (f"Premixer: ignition delays of every point's mixture and of 5 mixtures near the fuel injection "
-            f"(constant-pressure reactors over {horizon:g} s, after the sweep)", t,
-            "stored delays are reread for a shorter residence time")
-
-
-#: The core per-point extra solves, in the order a run solves them after the sweep.
-PER_POINT: tuple[PerPoint, ...] = (
-    PerPoint("sensitivity", "flame-speed sensitivities", wants_sensitivities, solve_sensitivities, with_sensitivities,
-             _sensitivity_estimate),
-    PerPoint("premixer", "premixer ignition delays", lambda s: s.premixer is not None, solve_premixer, with_premixer,
-             _premixer_estimate),
-)
-
-
 def per_point() -> tuple[PerPoint, ...]:
-    """Every per-point extra solve, in the order a run solves them: the core ones above, then
-    those of the registered analyses (flamecharts.analyses: each one's ``solve`` part's PER_POINT)."""
-    return PER_POINT + tuple(a for m in parts("solve") for a in m.PER_POINT)
+    """Every per-point extra solve, in the order a run solves them: those of the registered
+    analyses (flamecharts.analyses: each one's ``solve`` part's PER_POINT), in ANALYSES order."""
+    return tuple(a for m in parts("solve") for a in m.PER_POINT)

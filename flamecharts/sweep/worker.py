@@ -20,10 +20,9 @@ from typing import TYPE_CHECKING
 
 from ..analyses import parts
 from ..chemistry.flame import NUMERICS, solve_flame
-from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame, ignition_delay_peak
-from ..chemistry.mechanism import mixture_key, solution
+from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame
+from ..chemistry.mechanism import solution
 from ..chemistry.response import lewis_numbers
-from ..chemistry.sensitivity import flame_speed_sensitivities
 from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..store.db import pack_profile
 from .lifeline import exit_with
@@ -37,8 +36,8 @@ if TYPE_CHECKING:
 #: The registered analyses' tasks (flamecharts.analyses: each one's ``task`` part) and the chemistry and
 #: physics modules they name in CODE count too (:func:`code_fingerprint`).
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
-               "chemistry/strained.py", "chemistry/sensitivity.py",
-               "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py", "sweep/worker.py")
+               "chemistry/strained.py", "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py",
+               "sweep/worker.py")
 
 
 def code_fingerprint() -> str:
@@ -124,27 +123,6 @@ def _extra(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> d
     return {"key": task["key"], "status": status, "reason": reason, "message": message, "start": start,
             "metrics": m, "profile_blob": None, "solve_seconds": time.perf_counter() - t0,
             "cpu_seconds": time.process_time() - cpu0}
-
-
-def premixer_task(task: dict) -> dict:
-    """Ignition delays of [premixer] (chemistry.ignition.ignition_delay_peak, constant pressure,
-    over ``horizon_s``): the fresh mixture's and those of the ``injection`` mixtures (one per
-    physics.autoignition.INJECTION_PHIS); a plain result dict in the store's form."""
-    def delay(X: dict) -> float:
-        return ignition_delay_peak(task["mechanism_path"], mixture_key(X), float(task["T_u"]), float(task["P"]),
-                                   float(task["horizon_s"]))
-    return _extra(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
-                                           "premixer_horizon_s": task["horizon_s"],
-                                           "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}, ""))
-
-
-def sensitivity_task(task: dict) -> dict:
-    """Flame-speed sensitivities to every rate constant of a stored flame (chemistry.sensitivity,
-    adjoint); a plain result dict in the store's form (runs in a worker)."""
-    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
-    return _extra(task, "warm", lambda: (flame_speed_sensitivities(
-        gas, task["T_u"], task["P"], task["X"], task["transport"], task["thermal_diffusion"], task["warm"],
-        NUMERICS[task["resolution"]]), ""))
 
 
 def _plain(v: object) -> object:
