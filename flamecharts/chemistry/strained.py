@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import math
 import time
+from dataclasses import dataclass
 from typing import Any
 
 import cantera as ct
@@ -80,25 +81,33 @@ class _TooManySteps(Exception):
     """A first-step solve took more than FIRST_SOLVE_MAX_TIME_STEPS time steps."""
 
 
-def _twin_flame(gas: ct.Solution, width: float, refine: dict, budget: dict[str, Any]) -> ct.CounterflowTwinPremixedFlame:
-    """A fresh twin flame on [0, width] whose time stepping raises _TooManySteps once
-    ``budget["steps"]`` passes ``budget["max"]`` (no limit while ``budget["max"]`` is None)."""
-    flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
-    flame.set_refine_criteria(**refine)
+@dataclass
+class _StepBudget:
+    """Time steps of the twin-flame solve under way, and the most it may take (None: no limit)."""
 
-    def count(dt: float) -> int:
-        budget["steps"] += 1
-        if budget["max"] is not None and budget["steps"] > budget["max"]:
+    limit: int | None
+    steps: int = 0
+
+    def count(self, dt: float) -> int:
+        """Cantera's time-step callback: count the step, raise _TooManySteps past the limit."""
+        self.steps += 1
+        if self.limit is not None and self.steps > self.limit:
             raise _TooManySteps
         return 0
-    flame.set_time_step_callback(count)
+
+
+def _twin_flame(gas: ct.Solution, width: float, refine: dict, budget: _StepBudget) -> ct.CounterflowTwinPremixedFlame:
+    """A fresh twin flame on [0, width] whose time stepping counts against ``budget``."""
+    flame = ct.CounterflowTwinPremixedFlame(gas, width=width)
+    flame.set_refine_criteria(**refine)
+    flame.set_time_step_callback(budget.count)
     return flame
 
 
-def _burns(flame: ct.CounterflowTwinPremixedFlame, fresh: bool, budget: dict[str, Any], T_burning: float) -> bool:
+def _burns(flame: ct.CounterflowTwinPremixedFlame, fresh: bool, budget: _StepBudget, T_burning: float) -> bool:
     """Solve ``flame`` (from Cantera's initial guess when ``fresh``, else from its state); whether
     its peak temperature passes ``T_burning`` [K] (False when the solve fails)."""
-    budget["steps"] = 0
+    budget.steps = 0
     try:
         flame.solve(loglevel=0, auto=fresh)
     except (ct.CanteraError, _TooManySteps):
@@ -163,7 +172,7 @@ def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float
     lo, hi = HALF_SEPARATION_BOUNDS_M
     width = min(max(HALF_SEPARATION_THICKNESSES * alpha_u / S_L, lo), hi)
     refine = REFINE if refine is None else refine
-    budget: dict[str, Any] = {"steps": 0, "max": FIRST_SOLVE_MAX_TIME_STEPS}
+    budget = _StepBudget(FIRST_SOLVE_MAX_TIME_STEPS)
     flame = _twin_flame(gas, width, refine, budget)
     U = first_velocity_factor * S_L
     factor = ladder_factor
@@ -179,7 +188,7 @@ def twin_flame_ladder(gas: ct.Solution, T_u: float, P: float, X: dict[str, float
             if saved is None and out["first_strain_retries"]:
                 _note(out, f"started at {U / S_L:.3g} S_L: no burning flame at "
                            f"{U / S_L / FIRST_STRAIN_RETRY_FACTOR:.3g} S_L and below")
-            budget["max"] = None   # the continuation's steps start from a converged flame
+            budget.limit = None   # the continuation's steps start from a converged flame
             saved = flame.to_array()
             _record(out, flame, rho_u, q)
             U *= factor
