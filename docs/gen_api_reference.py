@@ -15,6 +15,7 @@ import re
 import sys
 
 import flamecharts
+from flamecharts.analyses import parts
 
 PAGE = "python-api.md"
 
@@ -28,9 +29,10 @@ API = [
 #: Classes documented with their dataclass fields (a Study has dozens, described on the study-file page instead).
 WITH_FIELDS = {"Results", "RunSummary", "Progress"}
 #: Public members of classes shown besides the fields.
-MEMBERS = {"Results": ("dataset", "limits_dataset", "ladders_dataset", "to_dataframe", "mechanism_comparison",
+MEMBERS = {"Results": ("dataset", "limits_dataset", "stretch", "ladders_dataset", "to_dataframe", "mechanism_comparison",
                        "extra_table", "counts"),
-           "RunSummary": ("worker_utilisation",), "Progress": ("remaining_s",), "Study": ("n_points",)}
+           "RunSummary": ("worker_utilisation", "stretch", "stretch_ladders"), "Progress": ("remaining_s",),
+           "Study": ("n_points",)}
 
 
 #: A sentence added after a docstring, where the reader needs a pointer the docstring cannot give.
@@ -96,7 +98,15 @@ def fields_table(cls) -> list[str]:
     return rows
 
 
+#: The registered analyses' names for their record tables on Results and RunSummary (results.RecordAccess).
+ACCESSORS = {name: f for m in parts("dataset") for name, f in getattr(m, "ACCESSORS", {}).items()}
+
+
 def member(cls, name: str) -> list[str]:
+    if name in ACCESSORS and not hasattr(cls, name):  # an analysis's accessor (results.RecordAccess)
+        package = ACCESSORS[name].__module__.split(".")[2]
+        doc = " ".join(markdown(inspect.getdoc(ACCESSORS[name]) or "").split())
+        return [f"- `.{name}` (attribute, from the analysis `{package}`): {doc}"]
     attr = inspect.getattr_static(cls, name)
     if isinstance(attr, property):
         title = f"`.{name}` (property)"

@@ -101,7 +101,6 @@ LAST = ("Warnings", "every point: empty when it lies inside what the method and 
 #: The other tables: file -> its columns.py tuple.
 TABLES = {
     "limits.csv": "LIMIT_COLUMNS",
-    "stretch.csv": "STRETCH_COLUMNS",
     "sensitivities.csv": "SENSITIVITY_COLUMNS",
     "mechanism_comparison.csv": "COMPARISON_COLUMNS",
     "fuel_gases.csv": "GAS_TABLE_COLUMNS",
@@ -188,8 +187,9 @@ def render() -> str:
     _missing("these columns in flamecharts/columns.py UNITS", [c for c in K.COLUMNS if c not in K.UNITS])
     _missing("these column groups of flamecharts/columns.py",
              [n for n in dir(K) if n.endswith("_COLUMNS") and n not in GROUPS and n not in TABLES.values()])
-    groups = {name: getattr(K, name) for name in GROUPS} | {m.__name__: m.POINT_COLUMNS for m in ANALYSIS_COLUMNS}
-    headings = GROUPS | {m.__name__: m.GROUP for m in ANALYSIS_COLUMNS}
+    grouped = [m for m in ANALYSIS_COLUMNS if m.POINT_COLUMNS]  # an analysis without columns of results.csv has no group
+    groups = {name: getattr(K, name) for name in GROUPS} | {m.__name__: m.POINT_COLUMNS for m in grouped}
+    headings = GROUPS | {m.__name__: m.GROUP for m in grouped}
     out += ["", "## results.csv", "",
             f"One row per point, {len(K.COLUMNS)} columns in this order (`flamecharts.columns.COLUMNS`). Units: `1` "
             "is dimensionless, `text` a text or a flag (`true`/`false`). A number the point does not have is an empty "
@@ -220,13 +220,18 @@ def render() -> str:
             + ", ".join(f"`{c}`" for c in DATASET_EXTRA) + f" ({K.UNITS[DATASET_EXTRA[0]][1]}); {len(variables)} "
             "variables in all. Numbers are float64 with NaN where a point has no value."]
 
-    tables = {name: (getattr(K, tuple_name), None) for name, tuple_name in TABLES.items()}
+    records = {name: (cols, m.TABLE_NOTES[name]) for m in ANALYSIS_COLUMNS
+               for name, cols in getattr(m, "RECORDS", {}).items()}
+    tables: dict[str, tuple] = {}
+    for name, tuple_name in TABLES.items():
+        tables[name] = (getattr(K, tuple_name), None)
+        if name == "limits.csv":  # the analyses' record tables (stretch.csv) follow the limits, as write.py's
+            tables |= records
     tables |= {name: (cols, m.TABLE_NOTES[name]) for m in ANALYSIS_COLUMNS for name, cols in m.TABLES.items()}
     for name, (cols, note) in tables.items():
         anchor_note = {"fuel_gases.csv": "One row per fuel gas (fuel, blend fraction, oxidizer).",
                        "limits.csv": "One row per admissible window of each limit search (window 0: none found); "
                                      "how to read it: [Admissible limits](limits.md).",
-                       "stretch.csv": "One row per strained-flame ladder.",
                        "sensitivities.csv": "The largest sensitivities of each burning point, one row per reaction.",
                        "mechanism_comparison.csv": "Each point burning under the reference and another mechanism, one "
                                                    "row per other mechanism."}.get(name, note)

@@ -20,6 +20,7 @@ from typing import Any
 from flamecharts import config as C
 from flamecharts.analyses.emissions import table as EM
 from flamecharts.analyses.flame_response import table as FR
+from flamecharts.analyses.strain_ladders import table as ST
 from flamecharts.physics.gasprops import ISO6976_2016
 from flamecharts.physics.rate_factors import MAX_RATE_FACTOR
 from flamecharts.sweep.schedule import MIN_TIME_LIMIT_S, TIME_LIMIT_FACTOR
@@ -277,10 +278,10 @@ def tables() -> list[tuple[str, str, tuple[str, ...], str, dict[str, Key]]]:
             "inert_step": Key("a number above 0, at most 0.1", code(lambda d: d.response.inert_step),
                               "mole fraction of the inert (N2) moved either way for the Zeldovich flames"),
         }),
-        ("stretch", "[stretch]", C.STRETCH_KEYS, (
+        ("stretch", "[stretch]", ST.KEYS, (
             "Strained twin counterflow flames from low strain to extinction (a ladder) for chosen swept mixtures: "
             "each key a subset of its sweep axis, at most "
-            f"{C.MAX_STRETCH_LADDERS} ladders (each is 10-40 flames)."), {
+            f"{ST.MAX_LADDERS} ladders (each is 10-40 flames)."), {
             "equivalence_ratio": Key("swept values", None, "the equivalence ratios that get a ladder"),
             "fuel": Key("swept names", "all swept", "fuels that get a ladder"),
             "oxidizer": Key("swept names", "all swept", "oxidizers that get a ladder"),

@@ -138,18 +138,6 @@ UNITS: dict[str, tuple[str, str]] = {
     "markstein_length_mm": ("mm", "Markstein length Ma_u alpha_u / S_L"),
     "instability": ("", "thermodiffusive regime by Ze (Le_eff - 1) (Sivashinsky 1977): cellular, pulsating or "
                         "stable; every flame is also hydrodynamically unstable"),
-    "extinction_strain_rate_1_s": ("1/s", "largest strain rate of the twin counterflow flame that still burned "
-                                          "(largest |du/dz| ahead of the flame)"),
-    "extinguished_above_1_s": ("1/s", "strain rate of the nozzle velocity at which the twin flame went out"),
-    "markstein_number_strain": ("1", "Markstein number of the consumption speed against strain, low-strain slope"),
-    "half_separation_mm": ("mm", "nozzle to symmetry plane of the twin counterflow flame"),
-    "characteristic_strain_1_s": ("1/s", "strain the burner imposes where the flame is held: wall velocity "
-                                         "gradient at the rim, or approach velocity over bluff-body size"),
-    "extinction_strain_margin": ("1", "extinction strain rate over the burner's characteristic strain"),
-    "strained_flames": ("1", "strained flames the ladder solved"),
-    "ladder_seconds": ("s", "wall time of the ladder in its worker"),
-    "strain_rates_1_s": ("1/s", "strain rates of the burning ladder steps (space-separated in stretch.csv)"),
-    "consumption_speeds_m_s": ("m/s", "consumption speeds of those steps (space-separated in stretch.csv)"),
     "rank": ("1", "rank of the reaction by |sensitivity| at this point"),
     "reaction": ("", "reaction equation as the mechanism writes it (duplicates and third-body variants summed)"),
     "sensitivity": ("1", "normalized sensitivity of the flame speed d ln S_L / d ln k (adjoint)"),
@@ -301,14 +289,6 @@ SENSITIVITY_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equi
 #: How the flame responds to stretch (physics.flame_response); Ze and what needs it with [flame_response].
 RESPONSE_COLUMNS = ("lewis_number_fuel", "lewis_number_oxygen", "zeldovich_number", "effective_lewis_number",
                     "markstein_number_unburned", "markstein_length_mm", "instability")
-
-#: stretch.csv, one row per strained-flame ladder ([stretch]), in this order.
-STRETCH_COLUMNS = ("fuel", "oxidizer", "blend_with", "blend_fraction", "equivalence_ratio", "pressure_bar",
-                   "unburned_temperature_K", "status", "laminar_flame_speed_m_s", "extinction_strain_rate_1_s",
-                   "extinguished_above_1_s", "markstein_number_strain", "effective_lewis_number",
-                   "markstein_number_unburned", "characteristic_strain_1_s", "extinction_strain_margin",
-                   "half_separation_mm", "strained_flames", "ladder_seconds", "strain_rates_1_s",
-                   "consumption_speeds_m_s", "message", "mechanism")
 
 #: results.csv, one row per point, in this order.
 COLUMNS = ((

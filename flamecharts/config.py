@@ -60,8 +60,7 @@ MAX_MECHANISMS = 4
 
 TOP_KEYS = ("title", "mechanism", "transport", "thermal_diffusion", "resolution", "max_points", "flame_time_limit_s",
             "reference_fuel", "fuels", "oxidizers", "sweep", "burner", "gas_quality", "indicators", "cluster",
-            "limits", "premixer", "keep_profiles", "stretch", "uncertainty",
-            "reduction")
+            "limits", "premixer", "keep_profiles", "uncertainty", "reduction")
 BURNER_KEYS = ("name", "port", "port_diameter_mm", "port_gap_mm", "port_velocity_m_s", "thermal_input_kW",
                "port_area_mm2", "input_follows_wobbe", "min_flashback_margin", "min_blowoff_margin",
                "stabilizer_size_mm", "approach_velocity_m_s", "stabilizer_blockage", "min_stabilizer_margin", "layout")
@@ -79,7 +78,8 @@ LIMITS_KEYS = ("find", "criteria", "blend_fraction_tolerance", "equivalence_rati
 LIMIT_KINDS = ("blend_fraction", "equivalence_ratio")
 #: What a limit may keep: burner margins (the stabilizer one only where the burner has a
 #: stabilizer), a premixer's core-flow flashback margin and extinction-strain blowout margin
-#: (with [premixer]; the blowout with a stabilizer and [stretch]) and, along the blend axis, the
+#: (with [premixer]; the blowout with a stabilizer and the analysis table that enables it, whose
+#: ladders give the extinction strain rate: AnalysisTable.enables) and, along the blend axis, the
 #: Wobbe band of [gas_quality].
 LIMIT_CRITERIA = ("flashback", "blowoff", "stabilizer", "core_flashback", "extinction_blowout", "wobbe")
 #: Default tolerances of a limit search: the width of the final bracket (0.5 percentage
@@ -106,10 +106,6 @@ DEFAULT_VALIDATION_FLAMES = 4
 FLAME_VALIDATION_MAX_SPECIES = 60
 MAX_VALIDATION_FLAMES = 12
 UNCERTAINTY_KEYS = ("kinetics", "factors", "default_factor", "factor_sigmas", "error_bars")
-#: [stretch]: which swept mixtures get a strained-flame ladder (each a subset of its sweep axis).
-STRETCH_KEYS = ("fuel", "oxidizer", "blend_fraction", "equivalence_ratio", "pressure_bar", "unburned_temperature_K")
-#: Most strained-flame ladders one study may ask for (each is 10-40 flames).
-MAX_STRETCH_LADDERS = 200
 #: Default step of the inert's mole fraction for the Zeldovich flames.
 from .physics.kinetic_uncertainty import reaction_key  # noqa: E402
 from .physics.rate_factors import DEFAULT_RATE_FACTOR, MAX_RATE_FACTOR, SIGMAS_PER_FACTOR  # noqa: E402
@@ -227,24 +223,6 @@ class Uncertainty:
 
 
 @dataclass(frozen=True)
-class Stretch:
-    """The [stretch] request: the swept mixtures (a subset of each sweep axis) that get a
-    twin counterflow flame ladder from low strain to extinction (chemistry.strained)."""
-
-    fuels: tuple[str, ...]
-    oxidizers: tuple[str, ...]
-    blend_fractions: tuple[float, ...]
-    equivalence_ratios: tuple[float, ...]
-    pressures_bar: tuple[float, ...]
-    unburned_temperatures_K: tuple[float, ...]
-
-    @property
-    def n_ladders(self) -> int:
-        return (len(self.fuels) * len(self.oxidizers) * len(self.blend_fractions) * len(self.equivalence_ratios)
-                * len(self.pressures_bar) * len(self.unburned_temperatures_K))
-
-
-@dataclass(frozen=True)
 class Reduction:
     """The [reduction] request: a skeletal mechanism for the study's own conditions (sweep.skeletal),
     the smallest whose errors against the detailed mechanism stay within these targets (fractions,
@@ -262,22 +240,26 @@ class Reduction:
 @dataclass(frozen=True)
 class TableContext:
     """What an analysis's table may be checked against: the study's mechanisms, whether flame
-    profiles are stored."""
+    profiles are stored, the sweep's axes (name -> values as swept, for a table that picks swept
+    mixtures)."""
 
     mechanisms: tuple[MechanismFacts, ...]
     keep_profiles: bool
+    axes: dict[str, tuple] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
 class AnalysisTable:
     """The study table of an analysis (flamecharts.analyses: its ``table`` part's TABLE): its name,
     its keys, ``parse(value, context)`` -> its frozen dataclass (raising a one-line ConfigError),
-    and the species a [reduction] must keep for it."""
+    the species a [reduction] must keep for it, and the [limits] criteria that read its values
+    (``enables``: a study without the table may not ask for them)."""
 
     name: str
     keys: tuple[str, ...]
     parse: Callable[[Any, TableContext], Any]
     kept_species: Callable[[Any], tuple[str, ...]] = lambda table: ()
+    enables: tuple[str, ...] = ()
 
 
 def analysis_tables() -> list[AnalysisTable]:
@@ -353,7 +335,6 @@ class Study:
     limits: Limits | None = None
     premixer: Premixer | None = None
     keep_profiles: bool = True   # False: the store keeps no flame profiles (every flame then starts fresh)
-    stretch: Stretch | None = None
     uncertainty: Uncertainty | None = None
     #: The registered analyses' tables (flamecharts.analyses), by table name; each analysis reads its own
     #: through its table part's ``of(study)``.
@@ -645,13 +626,15 @@ def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str,
     return tuple(dict.fromkeys(items))
 
 
-def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, stretch: bool) -> tuple[str, ...]:
+def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, enabled: set[str]) -> tuple[str, ...]:
     """limits.criteria, checked against what each criterion needs. Default: flashback, the burner's
     blowoff criterion (the rim's, or the stabilizer's), and with [premixer] the core-flow flashback
-    margin, with a stabilizer and [stretch] the extinction-strain blowout, and the Wobbe band where
+    margin, with a stabilizer and the table that ``enabled`` it (AnalysisTable.enables: the
+    ladders' extinction strain rate) the extinction-strain blowout, and the Wobbe band where
     [gas_quality] sets one."""
+    ladders = "extinction_blowout" in enabled
     default = (["flashback", burner.blowoff[2]] + (["core_flashback"] if premixer else [])
-               + (["extinction_blowout"] if premixer and stretch and burner.stabilizer_size_m is not None else [])
+               + (["extinction_blowout"] if premixer and ladders and burner.stabilizer_size_m is not None else [])
                + (["wobbe"] if has_band else []))
     criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
     if "stabilizer" in criteria and burner.stabilizer_size_m is None:
@@ -663,9 +646,10 @@ def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, str
     if "extinction_blowout" in criteria and burner.stabilizer_size_m is None:
         raise ConfigError("'limits.criteria' names 'extinction_blowout', but [burner] has no 'stabilizer_size_mm' "
                           "(with 'approach_velocity_m_s'): Da_ext needs the stabilizer's size and edge velocity")
-    if "extinction_blowout" in criteria and not stretch:
-        raise ConfigError("'limits.criteria' names 'extinction_blowout', but the study has no [stretch]: the "
-                          "extinction strain rate comes from its strained-flame ladders")
+    if "extinction_blowout" in criteria and not ladders:
+        raise ConfigError("'limits.criteria' names 'extinction_blowout', but the study has no "
+                          f"{_enabling_table('extinction_blowout')}: the extinction strain rate comes from its "
+                          "strained-flame ladders")
     if "wobbe" in criteria and not has_band:
         raise ConfigError("'limits.criteria' names 'wobbe', but [gas_quality] sets no band: add "
                           "'wobbe_tolerance_percent' or 'wobbe_band_MJ_m3'")
@@ -675,8 +659,14 @@ def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, str
     return criteria
 
 
+def _enabling_table(criterion: str) -> str:
+    """'[NAME]' of the analysis table that enables the limit ``criterion`` (AnalysisTable.enables)."""
+    names = [f"[{spec.name}]" for spec in analysis_tables() if criterion in spec.enables]
+    return " or ".join(names) or "registered analysis that gives it"
+
+
 def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: GasQuality, premixer: bool = False,
-            stretch: bool = False) -> Limits:
+            enabled: set[str] | None = None) -> Limits:
     """The [limits] table: checked against the burner, the sweep and the tables it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")
@@ -689,7 +679,7 @@ def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: 
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
                           "sweep.blend = { with = ..., fraction = [...] }")
     has_band = gas_quality.band_MJ_m3 is not None or gas_quality.tolerance_percent is not None
-    criteria = _limit_criteria(t, burner, has_band, premixer, stretch)
+    criteria = _limit_criteria(t, burner, has_band, premixer, enabled or set())
     tol = dict(DEFAULT_LIMIT_TOLERANCE)
     for kind, top in (("blend_fraction", 0.1), ("equivalence_ratio", 0.1)):
         key = f"{kind}_tolerance"
@@ -832,43 +822,6 @@ def _uncertainty(t: Any, mechs: list[MechanismFacts]) -> Uncertainty:
     return Uncertainty(kinetics=flags["kinetics"], error_bars=flags["error_bars"], factors=tuple(factors),
                        **({} if default is None else {"default_factor": default}),
                        **({} if sigmas is None else {"factor_sigmas": sigmas}))
-
-
-def _stretch(t: Any, axes: dict[str, tuple]) -> Stretch:
-    """The [stretch] table: each key a subset of its sweep axis (default: the whole axis,
-    except equivalence_ratio, which must be given)."""
-    if not isinstance(t, dict):
-        raise ConfigError("'stretch' must be a table")
-    _check_keys(t, STRETCH_KEYS, "stretch.")
-    if "equivalence_ratio" not in t:
-        raise ConfigError("[stretch] needs 'equivalence_ratio': the swept values that get a strained-flame ladder "
-                          f"(allowed: {', '.join(f'{v:g}' for v in axes['equivalence_ratio'])})")
-    chosen = {}
-    for key in STRETCH_KEYS:
-        allowed = axes[key]
-        if key not in t:
-            chosen[key] = allowed
-        elif key in ("fuel", "oxidizer"):
-            chosen[key] = _string_list(t[key], f"stretch.{key}", allowed)
-        else:
-            if t[key] == []:
-                raise ConfigError(f"'stretch.{key}' is empty; give at least one of the swept values "
-                                  f"({', '.join(f'{a:g}' for a in allowed)})"
-                                  + ("" if key == "equivalence_ratio" else " or leave the key out (all of them)"))
-            values = _axis(t[key], f"stretch.{key}")
-            for v in values:
-                if not any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12) for a in allowed):
-                    raise ConfigError(f"'stretch.{key}' lists {v:.10g}, which the sweep does not have; allowed: "
-                                      f"{', '.join(f'{a:g}' for a in allowed)}")
-            chosen[key] = tuple(a for a in allowed if any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12)
-                                                          for v in values))
-    st = Stretch(fuels=chosen["fuel"], oxidizers=chosen["oxidizer"], blend_fractions=chosen["blend_fraction"],
-                 equivalence_ratios=chosen["equivalence_ratio"], pressures_bar=chosen["pressure_bar"],
-                 unburned_temperatures_K=chosen["unburned_temperature_K"])
-    if st.n_ladders > MAX_STRETCH_LADDERS:
-        raise ConfigError(f"[stretch] asks for {st.n_ladders} strained-flame ladders, more than {MAX_STRETCH_LADDERS} "
-                          "(each is 10-40 flames): choose fewer equivalence ratios, blends, pressures or preheats")
-    return st
 
 
 def _gas_quality(g: Any) -> GasQuality:
@@ -1026,17 +979,18 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
         "indicator_settings": _indicator_settings(data.get("indicators", {})),
         "cluster": check_cluster_spec(data["cluster"]) if "cluster" in data else None,
         "limits": _limits(data["limits"], burner, blend_with, gas_quality, "premixer" in data,
-                          "stretch" in data) if "limits" in data else None,
+                          {c for spec in analysis_tables() if spec.name in data for c in spec.enables})
+        if "limits" in data else None,
         "premixer": _premixer(data["premixer"]) if "premixer" in data else None,
-        "stretch": _stretch(data["stretch"], axes) if "stretch" in data else None,
     }
 
 
-def _mechanism_tables(data: dict, choices: list[MechanismChoice], keep_profiles: bool) -> dict:
+def _mechanism_tables(data: dict, choices: list[MechanismChoice], keep_profiles: bool,
+                      axes: dict[str, tuple]) -> dict:
     """The tables checked against the mechanisms' facts ([uncertainty], the analyses' tables,
     [reduction]), validated: Study fields by name."""
     facts = [m.facts for m in choices]
-    ctx = TableContext(mechanisms=tuple(facts), keep_profiles=keep_profiles)
+    ctx = TableContext(mechanisms=tuple(facts), keep_profiles=keep_profiles, axes=axes)
     tables = {spec.name: spec.parse(data[spec.name], ctx) for spec in analysis_tables() if spec.name in data}
     kept = tuple(s for spec in analysis_tables() if spec.name in tables for s in spec.kept_species(tables[spec.name]))
     return {"uncertainty": _uncertainty(data["uncertainty"], facts) if "uncertainty" in data else None,
@@ -1175,7 +1129,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         analysis_atoms=first.analysis_atoms,
         max_points=max_points, flame_time_limit_s=flame_time_limit_s, config_path=config_path, raw=data,
         keep_profiles=keep_profiles, **_design_tables(data, axes, blend_with),
-        **_mechanism_tables(data, choices, keep_profiles), mechanisms=tuple(choices) if len(choices) > 1 else (),
+        **_mechanism_tables(data, choices, keep_profiles, axes), mechanisms=tuple(choices) if len(choices) > 1 else (),
         facts=first.facts)
     if study.n_points > max_points:
         raise ConfigError(f"the sweep has {study.n_points} points, more than 'max_points' = {max_points}; "

@@ -55,7 +55,7 @@ NUMERICS = {
 }
 
 
-# Settings of the strained-flame ladder (chemistry.strained; part of a ladder's store key, sweep.stretch).
+# Settings of the strained-flame ladder (chemistry.strained; part of a ladder's store key, analyses.strain_ladders.solve).
 
 #: Half the nozzle separation (nozzle to symmetry plane) in flame thicknesses alpha_u / S_L:
 #: the same geometry in flame units for every mixture (methane-air at phi 1: about 24 mm;

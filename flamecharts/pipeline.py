@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import os
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -17,14 +17,22 @@ from typing import TYPE_CHECKING
 from .admissible import LimitsProgress, find_limits
 from .config import Study, by_mechanism, load_study, save_config_copy
 from .errors import FlamechartsError
-from .results import Results, point_rows, rows_from_dir, rows_of, stored_with_extras, to_dataset, with_mechanism
+from .results import (
+    RecordAccess,
+    Results,
+    point_rows,
+    rows_from_dir,
+    rows_of,
+    stored_with_extras,
+    to_dataset,
+    with_mechanism,
+)
 from .store import DB_NAME, RunLock, Store
-from .sweep.analyses import per_point
+from .sweep.analyses import per_point, per_study
 from .sweep.backends import open_backend
 from .sweep.points import points
 from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.skeletal import prepare as prepare_reduction
-from .sweep.stretch import solve_stretch, stretch_rows
 from .sweep.upgrade import upgrade_store
 
 if TYPE_CHECKING:
@@ -33,8 +41,11 @@ if TYPE_CHECKING:
 
 
 @dataclass
-class RunSummary:
-    """Outcome of :func:`run_study`."""
+class RunSummary(RecordAccess):
+    """Outcome of :func:`run_study`. The analyses' record tables are ``records`` (file name ->
+    rows) and their solves in this run ``records_solved``; each analysis also names them
+    (results.RecordAccess: ``.stretch``, the ladders' rows, and ``.stretch_ladders``, how many
+    were solved in this run)."""
 
     out_dir: Path
     rows: list[dict]
@@ -49,8 +60,8 @@ class RunSummary:
     workers: int = 1            # worker processes (local) or worker threads (cluster) that solved them
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (the study's [limits] table)
     limit_flames: int = 0       # flames the limit searches solved in this run (stored ones not counted)
-    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (the study's [stretch] table)
-    stretch_ladders: int = 0    # strained-flame ladders solved in this run
+    records: dict[str, list[dict]] = field(default_factory=dict)  # the analyses' record tables: file -> rows
+    records_solved: dict[str, int] = field(default_factory=dict)  # their solves in this run: file -> count
     study: Study | None = None  # the study as solved: with its skeletal mechanism under [reduction]
     reduction_note: str = ""    # [reduction]: what happened to the skeletal mechanism (made, reused, why)
 
@@ -112,8 +123,9 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                 stop_after: int | None = None) -> RunSummary:
     """Solve every point of ``study`` that the store in ``out_dir`` lacks; return every row.
 
-    Then the extra solves and [stretch] ladders the study asks for and, when it has a [limits]
-    table, its limit searches (after the ladders, whose values a premixer's margins read): each
+    Then the extra solves the study's analyses ask for (sweep.analyses: per point, then those
+    that read the points' rows, as a strained-flame ladder) and, when it has a [limits] table,
+    its limit searches (after those, whose values a premixer's margins read): each
     asks for flames between the swept ones, solved on the same backend and stored like any point.
     ``progress`` receives one :class:`Progress` event after every finished flame, extra solve
     and round of limit flames (``what`` says which).
@@ -163,8 +175,26 @@ def solve_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: in
                       solve_seconds=sum(p["solve_seconds"] for p in parts), workers=workers,
                       limits=[r for p in parts for r in p["limits"]],
                       limit_flames=sum(p["limit_flames"] for p in parts),
-                      stretch=[r for p in parts for r in p["stretch"]],
-                      stretch_ladders=sum(p["ladders"] for p in parts), study=solved, reduction_note=note)
+                      records=_merged(p["records"] for p in parts),
+                      records_solved=_summed(p["records_solved"] for p in parts), study=solved, reduction_note=note)
+
+
+def _merged(parts: Iterable[dict[str, list[dict]]]) -> dict[str, list[dict]]:
+    """Each mechanism's record tables (file -> rows) as one: their rows one after another."""
+    out: dict[str, list[dict]] = {}
+    for part in parts:
+        for name, rows in part.items():
+            out.setdefault(name, []).extend(rows)
+    return out
+
+
+def _summed(parts: Iterable[dict[str, int]]) -> dict[str, int]:
+    """Each mechanism's counts per record table (file -> count) as one."""
+    out: dict[str, int] = {}
+    for part in parts:
+        for name, n in part.items():
+            out[name] = out.get(name, 0) + n
+    return out
 
 
 def _reduction_part(progress: Callable[[Progress], None] | None) -> Callable[[str], None] | None:
@@ -195,16 +225,18 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
         if analysis.wanted(study):
             extra_seconds += analysis.solve(study, store, pts, stored, backend, _part(progress, analysis.what))[1]
     rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
-    stretch, ladders, ladder_seconds = [], 0, 0.0
-    if study.stretch is not None and stop_after is None:  # strained-flame ladders need the free flames
+    records, records_solved, record_seconds = {}, {}, 0.0
+    for stage in per_study() if stop_after is None else ():  # solves that read the points' rows (the ladders)
+        if not stage.wanted(study):
+            continue
         by_key = {r["point_key"]: r for r in rows}
-        ladders, ladder_seconds = solve_stretch(study, store, pts, by_key, backend,
-                                                _part(progress, "strained-flame ladders"))
-        stretch = with_mechanism(study, stretch_rows(study, pts, by_key, store))
-        if ladders and study.premixer is not None:  # a premixer's margins, and its limits, read the new ladders
+        n, seconds = stage.solve(study, store, pts, by_key, backend, _part(progress, stage.what))
+        records[stage.file] = with_mechanism(study, stage.rows(study, pts, by_key, store))
+        records_solved[stage.file], record_seconds = n, record_seconds + seconds
+        if n and stage.reread(study):  # a premixer's margins, and its limits, read the new values
             rows = point_rows(study, pts, stored_with_extras(study, pts, store, stored))
     limits, limit_solved = [], [0]
-    if study.limits is not None and stop_after is None:  # after the ladders: a first run and a rerun agree
+    if study.limits is not None and stop_after is None:  # after per_study: a first run and a rerun agree
         swept = {p.key for p in pts}
 
         def solve(new_points: list[Point]) -> int:  # warm-started from the sweep's flames only: resumed runs agree
@@ -214,8 +246,8 @@ def _solve_one(study: Study, store: Store, backend: Backend, progress: Callable[
             return n
         limits = with_mechanism(study, find_limits(study, rows, store, solve, _limits_part(progress)))
     return {"rows": rows, "solved": done.solved, "reused": done.reused, "limits": limits,
-            "limit_flames": limit_solved[0], "stretch": stretch, "ladders": ladders,
-            "solve_seconds": done.solve_seconds + ladder_seconds + extra_seconds}
+            "limit_flames": limit_solved[0], "records": records, "records_solved": records_solved,
+            "solve_seconds": done.solve_seconds + record_seconds + extra_seconds}
 
 
 def run_study(study: Study, out_dir: str | os.PathLike | None = None, jobs: int | None = None,
@@ -259,9 +291,9 @@ def run(study_or_path: Study | str | os.PathLike, out: str | os.PathLike | None 
     from .outputs import write_outputs  # here: `check` loads this module and must not load matplotlib
 
     files = write_outputs(study, summary.rows, summary.out_dir, charts=charts, report=report, dataset=ds,
-                          limits=summary.limits, stretch=summary.stretch)
+                          limits=summary.limits, records=summary.records)
     return Results(study=study, rows=summary.rows, out_dir=summary.out_dir, files=files, summary=summary, table=ds,
-                   limits=summary.limits, stretch=summary.stretch)
+                   limits=summary.limits, records=summary.records)
 
 
 def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
@@ -275,19 +307,22 @@ def read_limits(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> l
                 for r in with_mechanism(sub, find_limits(sub, rows_of(sub, rows), store, solve=None))]
 
 
-def read_stretch(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> list[dict]:
-    """The study's strained-flame ladders from the store in ``out_dir`` alone (nothing is
-    solved; a ladder not solved yet is 'pending'). [] when the study asks for none."""
-    if study.stretch is None:
-        return []
+def read_records(study: Study, rows: list[dict], out_dir: str | os.PathLike) -> dict[str, list[dict]]:
+    """The analyses' record tables (file -> rows; sweep.analyses.per_study) from the store in
+    ``out_dir`` alone, each mechanism's in turn (nothing is solved; a ladder not solved yet is
+    'pending'). {} when the study asks for none."""
+    wanted = [stage for stage in per_study() if stage.wanted(study)]
+    if not wanted:
+        return {}
     by_key = {r["point_key"]: r for r in rows}
     with Store(Path(out_dir) / DB_NAME, readonly=True) as store:
-        return [r for sub in by_mechanism(study)
-                for r in with_mechanism(sub, stretch_rows(sub, points(sub), by_key, store))]
+        return {stage.file: [r for sub in by_mechanism(study)
+                             for r in with_mechanism(sub, stage.rows(sub, points(sub), by_key, store))]
+                for stage in wanted}
 
 
 def open_results(out_dir: str | os.PathLike) -> Results:
     """The results of a finished run folder, read from its store and study copy alone (nothing is solved)."""
     study, rows = rows_from_dir(Path(out_dir))
     return Results(study=study, rows=rows, out_dir=Path(out_dir), limits=read_limits(study, rows, out_dir),
-                   stretch=read_stretch(study, rows, out_dir))
+                   records=read_records(study, rows, out_dir))

@@ -22,6 +22,7 @@ import re
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -52,12 +53,11 @@ from .errors import StoreError
 from .outcome import Reason, Status
 from .physics.autoignition import not_a_flame_reason
 from .physics.fits import fit_power_law
-from .record_tables import ladders_dataset, limits_dataset
+from .record_tables import limits_dataset
 from .store import DB_NAME, Store
-from .sweep.analyses import per_point
+from .sweep.analyses import per_point, per_study
 from .sweep.points import Point, points
 from .sweep.skeletal import applied
-from .sweep.stretch import with_ladders
 from .sweep.upgrade import lacks_readout
 
 
@@ -134,15 +134,13 @@ def point_rows(study: Study, pts: list[Point], stored: dict[str, dict], ladders:
 
 def stored_with_extras(study: Study, pts: list[Point], store: Store, stored: dict | None = None) -> dict[str, dict]:
     """The store's rows of ``pts`` (or ``stored``, already read) with the extras of each point
-    merged into its metrics (each analysis of sweep.analyses.per_point the study wants: the
-    Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays) and the
-    strongest consumption speed of its [stretch] ladder (sweep.stretch.with_ladders)."""
+    merged into its metrics: each analysis of sweep.analyses.per_point the study wants (the
+    Zeldovich pair, the flame-speed sensitivities, the premixer's ignition delays...), then each
+    of per_study (solved after the points' rows: the strongest consumption speed of a ladder)."""
     stored = store.rows([p.key for p in pts]) if stored is None else stored
-    for analysis in per_point():
-        if analysis.wanted(study):
-            stored = analysis.merge(study, pts, stored, store)
-    if study.stretch is not None:  # the ladders are solved after the sweep's rows (pipeline._solve_one)
-        stored = with_ladders(study, pts, stored, store)
+    merges = [a.merge for a in per_point() if a.wanted(study)] + [a.merge for a in per_study() if a.wanted(study)]
+    for merge in merges:
+        stored = merge(study, pts, stored, store)
     return stored
 
 
@@ -262,11 +260,8 @@ def to_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
 def extra_tables(study: Study, rows: list[dict]) -> dict[str, tuple[list[dict], tuple[str, ...]]]:
     """The registered analyses' extra CSV files (flamecharts.analyses): file name -> (its rows,
     its columns), for the files the study asks for ([] rows: asked for, none to write)."""
-    out = {}
-    for cols, data in zip(parts("columns"), parts("dataset")):
-        for name, columns in cols.TABLES.items():
-            out[name] = (data.TABLE_ROWS[name](study, rows), columns)
-    return out
+    fill = {name: f for data in parts("dataset") for name, f in getattr(data, "TABLE_ROWS", {}).items()}
+    return {name: (fill[name](study, rows), columns) for cols in parts("columns") for name, columns in cols.TABLES.items()}
 
 
 def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Dataset:
@@ -305,7 +300,8 @@ def _one_dataset(study: Study, rows: list[dict]) -> xr.Dataset:
         unit, long_name = UNITS[a]
         ds[a].attrs.update({"long_name": long_name, **({"units": unit} if unit else {})})
     for analysis in parts("dataset"):  # the registered analyses' variables (flamecharts.analyses)
-        ds = analysis.DATASET(study, rows, shape, ds)
+        if hasattr(analysis, "DATASET"):
+            ds = analysis.DATASET(study, rows, shape, ds)
     first = rows[0] if rows else {}
     ds.attrs.update({"title": study.title, "study": study.name, "flamecharts_version": __version__,
                      **{c: _text(first.get(c)) for c in STUDY_WIDE}, "caution": CAUTION})
@@ -478,10 +474,25 @@ def first_flashback_fraction(ds: xr.Dataset, study: Study) -> dict[tuple, float 
     return out
 
 
+class RecordAccess:
+    """The registered analyses' public names for their record tables (each ``dataset`` part's
+    ACCESSORS: name -> function of the object; ``.stretch`` and ``.ladders_dataset`` of the
+    strained-flame ladders, say), on an object with ``records`` (file name -> rows)."""
+
+    def __getattr__(self, name: str) -> Any:
+        if not name.startswith("_"):
+            for analysis in parts("dataset"):
+                accessor = getattr(analysis, "ACCESSORS", {}).get(name)
+                if accessor is not None:
+                    return accessor(self)
+        raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
+
+
 @dataclass
-class Results:
+class Results(RecordAccess):
     """The results of a study: one row per point, as an xarray Dataset or a pandas DataFrame;
-    the limit searches and the strained-flame ladders as Datasets of their own.
+    the limit searches and the analyses' record tables (the strained-flame ladders: ``.stretch``,
+    ``.ladders_dataset``) as tables of their own.
 
     ``summary`` is the :class:`~flamecharts.pipeline.RunSummary` of the run that gave them
     (None when read from a folder with :func:`flamecharts.open_results`); ``files`` are
@@ -495,7 +506,8 @@ class Results:
     summary: object | None = None
     table: xr.Dataset | None = field(default=None, repr=False)  # the dataset, when already made
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (studies with a [limits] table)
-    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (studies with a [stretch] table)
+    #: The analyses' record tables (sweep.analyses.PerStudy): file name -> rows ('stretch.csv': one per ladder).
+    records: dict[str, list[dict]] = field(default_factory=dict)
 
     @property
     def dataset(self) -> xr.Dataset:
@@ -509,13 +521,6 @@ class Results:
         """limits.csv as a Dataset over ``search`` (one per limit search and window; empty
         without [limits]); units and long names as in results.nc (record_tables.limits_dataset)."""
         return limits_dataset(self.limits)
-
-    @property
-    def ladders_dataset(self) -> xr.Dataset:
-        """stretch.csv as a Dataset over ``ladder``, each ladder's strain rates and consumption
-        speeds over (``ladder``, ``strain_step``), NaN past its last burning step (empty without
-        [stretch]; record_tables.ladders_dataset)."""
-        return ladders_dataset(self.stretch)
 
     def to_dataframe(self) -> pd.DataFrame:
         """A pandas DataFrame with results.csv's columns, one row per point, in study order."""

@@ -23,9 +23,9 @@ PACKAGE = Path(flamecharts.__file__).parent
 
 
 def _names_of_analyses() -> set[str]:
-    """Every registered analysis's table name and the names of its per-point extra solves."""
+    """Every registered analysis's table name and the names of its extra solves (per point, per study)."""
     names = set(ANALYSES) | {m.TABLE.name for m in parts("table")}
-    return names | {p.name for m in parts("solve") for p in m.PER_POINT}
+    return names | {p.name for m in parts("solve") for p in (*getattr(m, "PER_POINT", ()), *getattr(m, "PER_STUDY", ()))}
 
 
 def _docstrings(tree: ast.AST) -> set[int]:
@@ -41,7 +41,7 @@ def _docstrings(tree: ast.AST) -> set[int]:
 
 def test_nothing_outside_an_analysis_names_it():
     names = _names_of_analyses()
-    assert {"emissions", "flame_response", "zeldovich", "equal_tad"} <= names
+    assert {"emissions", "flame_response", "zeldovich", "equal_tad", "stretch", "strain_ladders"} <= names
     found = []
     for path in PACKAGE.rglob("*.py"):
         rel = path.relative_to(PACKAGE)

@@ -9,19 +9,20 @@ import pytest
 from flamecharts import cli
 from flamecharts.admissible.driver import SPEED_SIGN, edges_possible, planned_searches
 from flamecharts.admissible.search import CRITERIA
+from flamecharts.analyses.strain_ladders.solve import ladder_seconds, ladder_time_limit, ladders_estimate
 from flamecharts.cli import check
+from flamecharts.cli.progress import duration
 from flamecharts.config import load_study
+from flamecharts.sweep.analyses import Budget
 from flamecharts.sweep.points import points
 from flamecharts.sweep.schedule import (
     CLUSTER_ADVICE_S,
     RESOLUTION_COST,
     default_flame_seconds,
     estimate_run_seconds,
-    ladder_seconds,
     parallel_seconds,
     pressure_cost,
 )
-from flamecharts.sweep.stretch import ladder_time_limit
 from flamecharts.sweep.warm_tree import WarmPlan
 from flamecharts.sweep.worker import fresh_mixture
 
@@ -163,7 +164,9 @@ def test_check_says_why_the_turbine_demo_limits_need_no_flames_and_totals_everyt
 
 def test_check_estimates_each_ladder_and_spreads_them_over_the_workers(capsys, tmp_path):
     study = load_study(CONFIGS / "hydrogen_boiler_demo.toml")
-    line, t = check._ladders_line(study, points(study), set(), 2)
+    budget = Budget(points_to_solve=0, workers=2, warm_flame_s=1.0, species=len(study.atoms), reactions=0,
+                    points=tuple(points(study)))
+    line, t = ladders_estimate(study, budget, duration)
     each = ladder_seconds(10, 1.0, ladder_time_limit(study))
     assert t == pytest.approx(2 * each)  # three ladders on two workers
     assert line.startswith("Strained flames: 3 twin counterflow ladder(s) to extinction (phi 0.5, 0.7, 1)")

@@ -24,11 +24,11 @@ import flamecharts
 from flamecharts import load_study
 from flamecharts.admissible.driver import point_at, search_row
 from flamecharts.admissible.words import limit_sentence
+from flamecharts.analyses.strain_ladders import task as ladder_task
+from flamecharts.analyses.strain_ladders.solve import stretch_key, stretch_points
 from flamecharts.design import sweep_ladders
 from flamecharts.store import DB_NAME, Store
-from flamecharts.sweep import worker
 from flamecharts.sweep.points import points
-from flamecharts.sweep.stretch import stretch_key, stretch_points
 
 from conftest import write_h2_study
 
@@ -62,7 +62,7 @@ pressure_bar = [1.0]
 
 
 def _measured_ladder(blend_of):
-    """A stand-in for worker.stretch_task returning the measured ladder of the point's blend."""
+    """A stand-in for the ladder task (strain_ladders.task.stretch_task): the measured ladder of the point's blend."""
     def task(t):
         K, S_c = LADDERS[blend_of[t["key"]]]
         m = {"strain_rates_1_s": [50.0, K / 3, K], "consumption_speeds_m_s": [t["S_L"], S_c, 0.9 * S_c],
@@ -86,7 +86,7 @@ def premixer_limits(tmp_path_factory):
     study = load_study(cfg)
     blend_of = {stretch_key(p): p.blend_fraction for p in stretch_points(study, points(study))}
     with pytest.MonkeyPatch.context() as mp:
-        mp.setattr(worker, "stretch_task", _measured_ladder(blend_of))
+        mp.setattr(ladder_task, "stretch_task", _measured_ladder(blend_of))
         res = flamecharts.run(cfg, out=folder / "out", jobs=1, charts=False, report=False)
         shutil.copytree(folder / "out", folder / "resumed")
         fine_res = flamecharts.run(fine, out=folder / "out", jobs=1, charts=False, report=False)

@@ -12,9 +12,9 @@ import numpy as np
 import pytest
 
 from flamecharts import load_study
+from flamecharts.analyses.strain_ladders.solve import stretch_key, stretch_points
 from flamecharts.pipeline import open_results, run, solve_study
 from flamecharts.sweep.points import points
-from flamecharts.sweep.stretch import stretch_key, stretch_points
 
 from conftest import run_cli, write_h2_study
 

@@ -27,7 +27,7 @@ import cantera as ct
 import numpy as np
 import numpy.typing as npt
 
-from ..numerics import (  # the ladder's settings (part of its store key, sweep.stretch)
+from ..numerics import (  # the ladder's settings (part of its store key, analyses.strain_ladders.solve)
     BURNING_SHARE,
     EXTINCTION_RESOLUTION,
     FIRST_SOLVE_MAX_TIME_STEPS,

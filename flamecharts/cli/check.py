@@ -8,12 +8,11 @@ from typing import TYPE_CHECKING
 from ..admissible.driver import LimitsPlan, Mixture, planned_searches
 from ..admissible.words import kept
 from ..chemistry.flame import NUMERICS
-from ..chemistry.strained import MAX_SOLVES
 from ..config import by_mechanism, load_study, lumping_note, reduction_note, with_reduction
 from ..pipeline import default_out_dir
 from ..results import point_rows, stored_with_extras
 from ..store import DB_NAME, Store, stored_keys
-from ..sweep.analyses import Budget, per_point
+from ..sweep.analyses import Budget, per_point, per_study
 from ..sweep.backends import resolve_jobs
 from ..sweep.points import points
 from ..sweep.run import unique_points, warm_plan
@@ -22,14 +21,11 @@ from ..sweep.schedule import (
     WORKING_DAY_S,
     estimate_run_seconds,
     flame_seconds,
-    ladder_seconds,
     output_seconds,
-    parallel_seconds,
     point_scales,
     pressure_cost,
 )
 from ..sweep.skeletal import estimate as reduction_estimate, stored as stored_reduction
-from ..sweep.stretch import ladder_time_limit, stretch_key, stretch_points
 from ..sweep.warm_tree import warm_tree
 from .progress import duration, plural
 from .tables import print_burner, print_gases, print_points
@@ -174,8 +170,9 @@ def _measured(timings: dict) -> bool:
 
 def _extras(study: Study, pts: list[Point], keys: set, timings: dict, jobs: int | None,
             todo: set[int]) -> list[tuple[str, float]]:
-    """What the study's [limits], [stretch], [uncertainty] and [flame_response] tables add: a
-    line each, with its estimated seconds. Extras of points already stored are not solved
+    """What the study's [limits] and its analyses' tables ([stretch], [uncertainty], [flame_response]...)
+    add: a line each, with its estimated seconds (the limits, the analyses' PerStudy solves, their
+    per-point extras). Extras of points already stored are not solved
     again, so only the points still to solve count (an upper bound: points that turn out not
     to burn need none)."""
     jobs = resolve_jobs(jobs)
@@ -184,34 +181,16 @@ def _extras(study: Study, pts: list[Point], keys: set, timings: dict, jobs: int 
     lines: list[tuple[str, float]] = []
     if study.limits is not None:
         lines.append(_limits_line(study, timings, jobs))
-    if study.stretch is not None:
-        lines.append(_ladders_line(study, pts, keys, jobs))
     budget = Budget(points_to_solve=len(todo), workers=jobs,
                     warm_flame_s=secs["warm"] * _mean_pressure_cost(study, pts, todo, timings), species=n_sp,
-                    reactions=len(study.facts.reaction_equations) if study.facts else 0)
+                    reactions=len(study.facts.reaction_equations) if study.facts else 0, points=tuple(pts),
+                    stored_keys=frozenset(keys))
+    lines += [stage.estimate(study, budget, duration) for stage in per_study() if stage.wanted(study)]
     for analysis in per_point():
         if analysis.wanted(study):
             what, t, note = analysis.estimate(study, budget)
             lines.append((f"{what}: {'about ' + duration(t) if t >= 0.5 else 'under a second'}; {note}", t))
     return lines
-
-
-def _ladders_line(study: Study, pts: list[Point], keys: set, jobs: int) -> tuple[str, float]:
-    """The [stretch] ladders still to solve and their estimated wall time: each ladder's
-    measured cost (sweep.schedule.ladder_seconds: species, pressure), spread over the workers
-    longest first."""
-    st = study.stretch
-    assert st is not None  # asked only of a study with [stretch]
-    chosen = stretch_points(study, pts)
-    todo = [p for p in chosen if stretch_key(p) not in keys]
-    each = [ladder_seconds(len(study.atoms), p.pressure_bar, ladder_time_limit(study)) for p in todo]
-    t = parallel_seconds(each, jobs)
-    stored = f"; {len(chosen) - len(todo)} stored, not solved again" if len(todo) < len(chosen) else ""
-    return (f"Strained flames: {len(todo)} twin counterflow ladder(s) to extinction (phi "
-            f"{', '.join(f'{v:g}' for v in st.equivalence_ratios)}), each 10-{MAX_SOLVES} strained flames after the "
-            f"sweep: about {duration(t)} ({duration(max(each, default=0.0))} the longest ladder, "
-            f"{min(jobs, max(len(todo), 1))} at a time; measured 15-70 s a ladder with h2o2.yaml at 1 bar, "
-            f"9-15 min with GRI-Mech 3.0{stored})", t)
 
 
 def _limits_line(study: Study, timings: dict, jobs: int, mixture: Mixture | None = None) -> tuple[str, float]:

@@ -6,7 +6,7 @@ from pathlib import Path
 
 from ..config import by_mechanism
 from ..outputs import write_outputs
-from ..pipeline import read_limits, read_stretch
+from ..pipeline import read_limits, read_records
 from ..results import rows_from_dir
 
 
@@ -17,7 +17,7 @@ def cmd_charts(args: argparse.Namespace, report: bool = False) -> int:
             print(f"Note: {sub.facts.path} has changed since the run; these are the run's results with the mechanism "
                   f"it used (sha256 {sub.facts.sha256[:12]}...); run the study again to solve with the edited file")
     files = write_outputs(study, rows, Path(args.dir), charts=True, report=report,
-                          limits=read_limits(study, rows, args.dir), stretch=read_stretch(study, rows, args.dir))
+                          limits=read_limits(study, rows, args.dir), records=read_records(study, rows, args.dir))
     print(f"Wrote {len(files)} files in {args.dir}" + (f"; report: {files[-1]}" if report else ""))
     return 0
 

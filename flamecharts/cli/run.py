@@ -95,11 +95,12 @@ def cmd_run(args: argparse.Namespace) -> int:
             print(f"Under {sub.mechanism}{' (reference)' if i == 0 else ''}:")
         _print_read_out(sub, rows_of(sub, summary.rows), results, args.quiet)
     _print_limits(study, summary)
-    _print_stretch(summary, len(subs) > 1)
+    _print_records(summary, len(subs) > 1)
     _print_mechanisms(study, summary.rows)
     print(f"Results: {out / 'results.csv'} and {out / 'results.nc'} (fuel-gas properties: {out / 'fuel_gases.csv'}"
           + (f"; limits: {out / 'limits.csv'}" if summary.limits else "")
-          + (f"; strained flames: {out / 'stretch.csv'}" if summary.stretch else "")
+          + "".join(f"; {label}: {out / name}" for m in parts("console")
+                    for name, label in getattr(m, "RECORD_LABELS", {}).items() if summary.records.get(name))
           + (f"; sensitivities: {out / 'sensitivities.csv'}" if (out / 'sensitivities.csv').is_file() else "")
           + "".join(f"; {Path(name).stem}: {out / name}" for m in parts("columns") for name in m.TABLES
                     if (out / name).is_file())
@@ -144,23 +145,13 @@ def _print_limits(study: Study, summary: RunSummary) -> None:
         print("  " + (f"{r['mechanism']}: " if study.mechanisms else "") + limit_sentence(r, study))
 
 
-def _print_stretch(summary: RunSummary, by_mechanism: bool = False) -> None:
-    """The [stretch] ladders, one line each (each with its mechanism when the study compares several)."""
-    if not summary.stretch:
-        return
-    print(f"Strained flames ({plural(len(summary.stretch), 'ladder')}, {summary.stretch_ladders} solved in this run; "
-          "strain = largest |du/dz| ahead of the flame):")
-    for r in summary.stretch:
-        where = ((f"{r['mechanism']}: " if by_mechanism else "") + f"{gas_label(r)}, phi {r['equivalence_ratio']:g}, "
-                 f"{r['pressure_bar']:g} bar, {r['unburned_temperature_K']:g} K")
-        if r["status"] != "ok":
-            print(f"  {where}: {r['status']} {r['message']}".rstrip())
-            continue
-        ext = (f"goes out above {r['extinction_strain_rate_1_s']:.4g} 1/s" if r["extinction_strain_rate_1_s"]
-               else f"no extinction found ({r['message']})")
-        ma, margin = r["markstein_number_strain"], r["extinction_strain_margin"]
-        print(f"  {where}: {ext}" + (f"; Markstein number (strain) {ma:+.2f}" if ma is not None else "")
-              + (f"; {margin:.3g} times the burner's strain" if margin is not None else ""))
+def _print_records(summary: RunSummary, by_mechanism: bool = False) -> None:
+    """The analyses' record tables (the [stretch] ladders), each analysis's lines (its console
+    part's RECORDS_CONSOLE), with the mechanism of each row when the study compares several."""
+    for analysis in parts("console"):
+        if hasattr(analysis, "RECORDS_CONSOLE"):
+            for line in analysis.RECORDS_CONSOLE(summary.records, summary.records_solved, by_mechanism):
+                print(line)
 
 
 def _print_read_out(study: Study, rows: list[dict], results: Results, quiet: bool) -> None:
@@ -172,7 +163,7 @@ def _print_read_out(study: Study, rows: list[dict], results: Results, quiet: boo
     print_premixer(study, rows)
     _print_error_bars(study, rows)
     for analysis in parts("console"):
-        for line in analysis.CONSOLE(study, rows):
+        for line in analysis.CONSOLE(study, rows) if hasattr(analysis, "CONSOLE") else ():
             print(line)
 
 

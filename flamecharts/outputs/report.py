@@ -660,40 +660,6 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                    {1, 2, 4, 5, 6} if banded else {1, 2, 4, 5}) + more]
 
 
-def _stretch_section(study: Study, stretch: Sequence[dict]) -> list[str]:
-    """The [stretch] ladders: extinction strain rate and the measured Markstein number per mixture."""
-    if not stretch:
-        return []
-    table = [[gas_label(r) + f" in {r['oxidizer']}", f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
-              f"{r['unburned_temperature_K']:g}", r["status"],
-              _num(None if r["laminar_flame_speed_m_s"] is None else 100 * r["laminar_flame_speed_m_s"], ".1f"),
-              _num(r["extinction_strain_rate_1_s"], ".4g") or (r["message"] if r["status"] == "ok" else ""),
-              _num(r["markstein_number_strain"], "+.2f"), _num(r["effective_lewis_number"], ".2f"),
-              _num(r["markstein_number_unburned"], "+.2f"), _num(r["extinction_strain_margin"], ".3g"),
-              _num(r["strained_flames"], "d"), _num(r["ladder_seconds"], ".0f")] for r in stretch]
-    table, more = _first(table, "stretch.csv")
-    return ["<h2 id='stretch'>Strained flames</h2>",
-            "<p>Twin premixed counterflow flames (Cantera), nozzle to symmetry plane 400 flame thicknesses (2-30 mm) "
-            "α_u/S_L, from a weakly strained flame (nozzle velocity 2 S_L) up by factors of 1.6 in nozzle velocity "
-            "until the flame goes out, then the last step halved (in log) until it is below 2 %. Strain rate: the "
-            "largest axial velocity gradient ahead of the flame (Law's reference strain rate); other definitions "
-            "(global 2U/L, at the flame) give other numbers. Consumption speed: heat released by one flame over "
-            "the fresh mixture's heat of combustion (equals S_L unstrained). Markstein number (strain): -dS_c/dK "
-            "α_u/S_L² fitted through S_L and the steps below Karlovitz 0.05. In the weak-stretch limit a consumption "
-            "speed answers stretch through the thermodiffusive term alone, so its Markstein number has the sign of "
-            "Le_eff - 1; lean hydrogen flames are not linear down to the weakest step (15 % above S_L at Karlovitz "
-            "0.01), so the fit is a secant, and near Le_eff 0.7-0.8 its sign is not reliable. The theoretical Ma_u "
-            "([flame_response]) refers to the unburned gas and adds an expansion term: compare signs and trends, "
-            "not values. Extinction strain rates of a burner's stabilization zone "
-            "are not these numbers: read them as a ranking of mixtures. With a [burner], K_ext is set against the "
-            "strain the burner imposes where its flame is held (the wall velocity gradient at the rim, or approach "
-            "velocity over bluff-body size): a blowoff indicator beside the Karlovitz and Damköhler ones; a "
-            "margin near or below a few means the flame base is strained toward extinction.</p>",
-            _table(["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "K_ext [1/s]", "Ma (strain)",
-                    "Le_eff", "Ma_u (theory)", "K_ext / burner strain", "flames", "time [s]"], table,
-                   {1, 2, 3, 5, 6, 7, 8, 9, 10, 11, 12}) + more]
-
-
 def _unassessed_section(rows: list[dict]) -> list[str]:
     """The criteria not assessed, once per criterion and kind of reason, right under the
     admissible ranges they do not take part in."""
@@ -824,11 +790,13 @@ def _warnings_section(rows: list[dict]) -> list[str]:
 
 
 def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict] | None = None,
-                 dataset: xr.Dataset | None = None, limits: Sequence[dict] = (), stretch: Sequence[dict] = (),
-                 comparison: Comparison | None = None) -> Path:
+                 dataset: xr.Dataset | None = None, limits: Sequence[dict] = (),
+                 records: dict[str, list[dict]] | None = None, comparison: Comparison | None = None) -> Path:
     """Write out_dir/report.html from the rows and the charts already drawn in out_dir/charts.
-    ``comparison`` (results.Comparison) adds the mechanism comparison; ``study`` and ``rows``
-    are then the reference mechanism's."""
+    ``records`` are the analyses' record tables (file -> rows: stretch.csv's ladders), shown
+    by their report parts' RECORDS_SECTION before the limits. ``comparison``
+    (results.Comparison) adds the mechanism comparison; ``study`` and ``rows`` are then the
+    reference mechanism's."""
     out_dir = Path(out_dir)
     parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
              f"<style>{CSS}</style></head><body>",
@@ -867,11 +835,12 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
 
     parts += _uncertainty_section(study, rows, comparison)
     parts += _mechanisms_section(study, comparison)
-    parts += _stretch_section(study, stretch)
+    for analysis in _analyses("report"):  # the analyses' record tables (the ladders), before the limits
+        parts += getattr(analysis, "RECORDS_SECTION", lambda study, records: [])(study, records or {})
     parts += _limits_section(study, limits)
     parts += _premixer_section(study, rows)
     for analysis in _analyses("report"):  # the registered analyses' sections (flamecharts.analyses)
-        parts += analysis.SECTION(study, rows)
+        parts += getattr(analysis, "SECTION", lambda study, rows: [])(study, rows)
 
     parts += _charts_section(out_dir)
 

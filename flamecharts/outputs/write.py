@@ -12,7 +12,6 @@ from ..columns import (
     GAS_TABLE_COLUMNS,
     LIMIT_COLUMNS,
     SENSITIVITY_COLUMNS,
-    STRETCH_COLUMNS,
 )
 from ..config import by_mechanism
 from ..design import fuel_gas_table, mechanism_differences
@@ -36,13 +35,14 @@ if TYPE_CHECKING:
 
 def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True, report: bool = True,
                   dataset: xr.Dataset | None = None, limits: list[dict] | None = None,
-                  stretch: list[dict] | None = None) -> list[Path]:
+                  records: dict[str, list[dict]] | None = None) -> list[Path]:
     """results.csv, results.nc, about.txt, fuel_gases.csv, power_law_exponents.csv (when the study
     varies pressure or preheat), the charts (unless ``charts`` is False) and report.html
     (with the charts, unless ``report`` is False). ``dataset`` is results.to_dataset of the
     rows when the caller has it; ``limits`` the rows of limits.csv (studies with [limits]),
-    ``stretch`` those of stretch.csv ([stretch]); sensitivities.csv with [uncertainty]; the
-    registered analyses' files (results.extra_tables: emissions.csv with [emissions]).
+    ``records`` the analyses' record tables (file -> rows: stretch.csv with [stretch]);
+    sensitivities.csv with [uncertainty]; the registered analyses' files (results.extra_tables:
+    emissions.csv with [emissions]).
 
     A study comparing mechanisms writes every mechanism's rows to the tables; the design
     charts and the report's design sections read the reference (first) mechanism, and the
@@ -50,7 +50,7 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
     out = Path(out)
     gases = fuel_gas_table(study)
     ds = to_dataset(study, rows) if dataset is None else dataset
-    limits, stretch = limits or [], stretch or []
+    limits, records = limits or [], records or {}
     files = [write_csv(rows, out / "results.csv"), write_netcdf(ds, out / "results.nc"),
              write_about(study, out / "about.txt"), write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
     exponents = exponent_table(ds)
@@ -58,8 +58,8 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
         files.append(write_csv(exponents, out / "power_law_exponents.csv", tuple(exponents[0])))
     if limits:
         files.append(write_csv(limits, out / "limits.csv", LIMIT_COLUMNS))
-    if stretch:
-        files.append(write_csv(stretch, out / "stretch.csv", STRETCH_COLUMNS))
+    files += [write_csv(records[name], out / name, columns) for name, columns in record_columns().items()
+              if records.get(name)]
     for name, (extra, columns) in extra_tables(study, rows).items():  # the analyses' files (flamecharts.analyses)
         if extra:
             files.append(write_csv(extra, out / name, columns))
@@ -71,17 +71,22 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
                                COMPARISON_COLUMNS))
     ref = by_mechanism(study)[0]
     ref_rows, ref_ds = rows_of(ref, rows), mechanism_dataset(ds)
-    ref_limits, ref_stretch = rows_of(ref, limits), rows_of(ref, stretch)
+    ref_limits, ref_records = rows_of(ref, limits), {name: rows_of(ref, r) for name, r in records.items()}
     if charts:
-        files += draw_all(ref_rows, gases, ref, out, ref_ds, ref_limits, ref_stretch, comparison)
+        files += draw_all(ref_rows, gases, ref, out, ref_ds, ref_limits, ref_records, comparison)
     remove_stale(out, files, charts)  # before the report, which embeds every chart it finds
     if charts and report:
-        files.append(write_report(ref, ref_rows, out, gases, ref_ds, ref_limits, ref_stretch, comparison))
+        files.append(write_report(ref, ref_rows, out, gases, ref_ds, ref_limits, ref_records, comparison))
     return files
 
 
+def record_columns() -> dict[str, tuple[str, ...]]:
+    """The registered analyses' record tables (each ``columns`` part's RECORDS): file -> columns."""
+    return {name: cols for m in parts("columns") for name, cols in getattr(m, "RECORDS", {}).items()}
+
+
 #: Tables a run writes only when the study asks for them.
-OPTIONAL_TABLES = ("power_law_exponents.csv", "limits.csv", "stretch.csv", "sensitivities.csv",
+OPTIONAL_TABLES = ("power_law_exponents.csv", "limits.csv", *record_columns(), "sensitivities.csv",
                    "mechanism_comparison.csv", *(name for m in parts("columns") for name in m.TABLES))
 
 

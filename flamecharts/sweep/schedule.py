@@ -185,15 +185,6 @@ def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float], scale: float = 1.
 #: species), 17.6 s with GRI-Mech 3.0 (325, 53), 13.9-16.9 s with Alzueta et al. 2023 (281,
 #: 42) on 2 cores (docs/benchmarks.md, "Kinetic sensitivities").
 SENSITIVITY_SECONDS = 1.1e-3
-#: One strained-flame ladder to extinction at 1 bar on one core [s] with a mechanism of 53 species
-#: (57 variables), other mechanisms as ((species + 4) / 57)^LADDER_SPECIES_POWER, and the ladder's
-#: share more per decade of pressure above 1 bar. A ladder is 13-22 strained flames whatever the
-#: mechanism. Measured (docs/benchmarks.md, "Run-time estimate calibration"): GRI-Mech 3.0 methane
-#: and methane-hydrogen ladders 521-898 s (tests/benchmarks/stretch_validation.py, two at a time on
-#: 2 cores, 2026-12-03); h2o2.yaml hydrogen-air at phi 0.5, 0.7, 1.0 15-60 CPU seconds at 1 bar and
-#: 1.8-3.6 times that at 10 bar (estimate_calibration.py; at 10 bar the twin-flame domain reaches its
-#: 2 mm floor, tens of flame thicknesses more than at 1 bar). Not measured at pressure with GRI-Mech 3.0.
-LADDER_SECONDS, LADDER_SPECIES_POWER, LADDER_PRESSURE_PER_DECADE = 680.0, 2.2, 1.0
 
 
 def sensitivity_seconds(n_species: int, n_reactions: int, resolution: str = "standard") -> float:
@@ -204,21 +195,6 @@ def sensitivity_seconds(n_species: int, n_reactions: int, resolution: str = "sta
     (0.45, 20.4)
     """
     return SENSITIVITY_SECONDS * n_reactions * (n_species + 4) * RESOLUTION_COST[resolution]["fresh"]
-
-
-def ladder_seconds(n_species: int, pressure_bar: float = 1.0, limit_s: float | None = None) -> float:
-    """Seconds of one strained-flame ladder to extinction on one core, at most ``limit_s`` (the
-    ladder's time limit, sweep.stretch.ladder_time_limit). The ladder's grid is its own (not the
-    study's resolution).
-
-    >>> round(ladder_seconds(10)), round(ladder_seconds(53)), round(ladder_seconds(10, 10.0))
-    (31, 680, 62)
-    >>> ladder_seconds(53, limit_s=240.0)
-    240.0
-    """
-    t = (LADDER_SECONDS * ((n_species + 4) / REFERENCE_VARIABLES) ** LADDER_SPECIES_POWER
-         * (1.0 + LADDER_PRESSURE_PER_DECADE * max(0.0, math.log10(pressure_bar))))
-    return t if limit_s is None else min(t, limit_s)
 
 
 def parallel_seconds(costs: Sequence[float], jobs: int) -> float:

@@ -23,7 +23,6 @@ from ..chemistry.flame import NUMERICS, solve_flame
 from ..chemistry.ignition import autoignition_screen, autoignition_screen_without_flame
 from ..chemistry.mechanism import solution
 from ..chemistry.response import lewis_numbers
-from ..chemistry.strained import markstein_number_from_strain, twin_flame_ladder
 from ..store.db import pack_profile
 from .lifeline import exit_with
 from .schedule import flame_time_limit
@@ -36,7 +35,7 @@ if TYPE_CHECKING:
 #: The registered analyses' tasks (flamecharts.analyses: each one's ``task`` part) and the chemistry and
 #: physics modules they name in CODE count too (:func:`code_fingerprint`).
 WORKER_CODE = ("chemistry/flame.py", "chemistry/mechanism.py", "chemistry/ignition.py", "chemistry/response.py",
-               "chemistry/strained.py", "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py",
+               "physics/flame_measures.py", "physics/flame_response.py", "store/profiles.py",
                "sweep/worker.py")
 
 
@@ -130,31 +129,6 @@ def _plain(v: object) -> object:
     if isinstance(v, dict):
         return {k: _plain(x) for k, x in v.items()}
     return v.tolist() if hasattr(v, "tolist") else v
-
-
-def stretch_task(task: dict) -> dict:
-    """One strained-flame ladder (chemistry.strained.twin_flame_ladder) from a plain task dict;
-    a plain result dict in the store's form (runs in a worker, like :func:`solve_task`)."""
-    cpu0, t0 = time.process_time(), time.perf_counter()
-    gas = solution(task["mechanism_path"], task["transport"], task["mechanism_sha256"])
-    try:
-        ladder = twin_flame_ladder(gas, task["T_u"], task["P"], task["X"], task["S_L"], task["T_ad"],
-                                   task.get("time_limit_s"))
-    except Exception as exc:  # noqa: BLE001 - a ladder that breaks is recorded with its reason
-        ladder, message = None, f"not converged: {type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''}"
-    burning = bool(ladder and ladder["strain_rates_1_s"])
-    if ladder is not None and burning:
-        ladder["markstein_number_strain"] = markstein_number_from_strain(
-            ladder["strain_rates_1_s"], ladder["consumption_speeds_m_s"], task["S_L"],
-            ladder["unburned_thermal_diffusivity_m2_s"])
-        message = "; ".join(m for m in (ladder["message"], "extinguished" if ladder["extinction_strain_rate_1_s"] else "")
-                            if m)
-    elif ladder is not None:
-        message = f"not converged: {ladder['message']}"
-    return {"key": task["key"], "status": "ok" if burning else "failed",
-            "reason": "" if burning else "not converged", "message": message, "start": "fresh",
-            "metrics": ladder if burning else None, "profile_blob": None,
-            "solve_seconds": time.perf_counter() - t0, "cpu_seconds": time.process_time() - cpu0}
 
 
 def solve_task(task: dict) -> dict:

@@ -11,7 +11,7 @@ Run:  python tests/benchmarks/estimate_calibration.py [--sections flames,steps,l
   points, their CPU seconds (``sweep.schedule.FLAME_SECONDS``, ``RESOLUTION_COST``, ``PRESSURE_COST_PER_DECADE``).
 - ``steps``: chains of 4 flames of one fuel at steps of ``--step-sizes`` in phi, one at a time: each warm
   start's distance to its source and its seconds (``sweep.schedule.WARM_DISTANCE_COST``).
-- ``ladders``: hydrogen-air ladders (``sweep.worker.stretch_task``, what a [stretch] table runs)
+- ``ladders``: hydrogen-air ladders (``analyses.strain_ladders.task.stretch_task``, what a [stretch] table runs)
   at ``--ladder-phis`` and every pressure, one at a time, after their free flame: strained flames,
   seconds, CPU seconds, seconds per strained flame.
 
@@ -147,10 +147,10 @@ def steps(mechanism: str, resolution: str, sizes: list[float], pressure: float =
 def ladders(mechanism: str, phis: list[float], pressure: float) -> list[dict]:
     import cantera as ct
 
+    from flamecharts.analyses.strain_ladders.task import stretch_task
     from flamecharts.chemistry.flame import solve_flame
     from flamecharts.chemistry.mechanism import solution
     from flamecharts.numerics import NUMERICS
-    from flamecharts.sweep.worker import stretch_task
 
     out = []
     for phi in phis:

@@ -4,7 +4,6 @@ registry.py      the one list of charts: name, caption, when it applies
 style.py         what every chart shares: colours, markers, frame, footer with the cautions
 phi_charts.py    flame speed, thickness and adiabatic flame temperature against equivalence ratio
 design_charts.py pressure/preheat dependence, blends, flashback, operating window, gas interchangeability
-stretch_charts.py strained flames: consumption speed against strain, extinction
 uncertainty_charts.py flame-speed sensitivity to rate constants ([uncertainty])
 mechanism_charts.py the same flames and limits under each mechanism a study compares
 regime_charts.py the premixer's turbulent-flame regimes and core-flow margin
@@ -26,7 +25,6 @@ from ...results import to_dataset
 # isort: off
 from . import phi_charts  # noqa: F401 - importing registers its charts, first in the report
 from . import design_charts  # noqa: F401,I001
-from . import stretch_charts  # noqa: F401,I001
 from . import uncertainty_charts  # noqa: F401,I001
 from . import mechanism_charts  # noqa: F401,I001
 _analyses("charts")  # the registered analyses' charts register on import (flamecharts.analyses)
@@ -44,13 +42,14 @@ CAPTIONS = {c.name: c.caption for c in CHARTS}
 
 
 def draw_all(rows: list[dict], gases: list[dict], study: Study, out_dir: Path, dataset: xr.Dataset | None = None,
-             limits: Sequence[dict] = (), stretch: Sequence[dict] = (),
+             limits: Sequence[dict] = (), records: dict[str, list[dict]] | None = None,
              comparison: Comparison | None = None) -> list[Path]:
     """Draw every chart the study supports into out_dir/charts as PNG and SVG; returns the files.
     ``dataset`` is results.to_dataset of the rows (made here when not given); ``comparison``
-    the results.Comparison of a study comparing mechanisms (``rows`` then are the reference's)."""
+    the results.Comparison of a study comparing mechanisms (``rows`` then are the reference's);
+    ``records`` the analyses' record tables (file -> rows: stretch.csv's ladders)."""
     data = ChartData(rows=rows, gases=gases, dataset=to_dataset(study, rows) if dataset is None else dataset,
-                     limits=list(limits), stretch=list(stretch), comparison=comparison)
+                     limits=list(limits), records=dict(records or {}), comparison=comparison)
     charts_dir = Path(out_dir) / "charts"
     charts_dir.mkdir(parents=True, exist_ok=True)
     written = []

@@ -94,7 +94,7 @@ class ChartData:
     gases: list[dict]
     dataset: xr.Dataset
     limits: list[dict] = field(default_factory=list)  # limits.csv rows (LIMIT_COLUMNS)
-    stretch: list[dict] = field(default_factory=list)  # stretch.csv rows (STRETCH_COLUMNS)
+    records: dict[str, list[dict]] = field(default_factory=dict)  # the analyses' record tables: file -> rows
     comparison: Comparison | None = None  # results.Comparison of a study comparing mechanisms (rows: the reference's)
 
     @cached_property
@@ -214,9 +214,12 @@ def not_drawn(drawn: set[str]) -> list[tuple[str, str]]:
             and SHAPE_WHY_BESIDE.get(c.when.__name__, c.name) in drawn | {c.name}]
 
 
-def chart(name: str, caption: str, when: When = always) -> Callable[[Draw], Draw]:
-    """Register the decorated ``draw(data, study)`` as chart ``name``."""
+def chart(name: str, caption: str, when: When = always, after: str | None = None) -> Callable[[Draw], Draw]:
+    """Register the decorated ``draw(data, study)`` as chart ``name``: last, or right after the
+    chart named ``after`` (registered before it: an analysis's chart that belongs beside a
+    family of the core's, in the report's order)."""
     def register(draw: Draw) -> Draw:
-        CHARTS.append(Chart(name, draw, caption, when))
+        at = next((i + 1 for i, c in enumerate(CHARTS) if c.name == after), len(CHARTS))
+        CHARTS.insert(at, Chart(name, draw, caption, when))
         return draw
     return register

@@ -1,7 +1,10 @@
-"""Strained flames ([stretch]): consumption speed against strain, extinction strain rate.
+"""[stretch]'s chart: consumption speed against strain, extinction strain rate.
 
 stretch_chart   left: S_c / S_L against strain rate per ladder, extinction marked; right:
                 extinction strain rate against equivalence ratio per gas and condition
+
+Placed right after the core's design charts (registry.chart's after), where the report has
+always shown it; it reads stretch.csv's rows (the chart data's record tables).
 """
 from __future__ import annotations
 
@@ -11,8 +14,9 @@ import numpy as np
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from .registry import MAX_CURVES, ChartData, chart, spread
-from .style import MARKERS, colour_scale, figure, finish
+from ...outputs.charts.registry import MAX_CURVES, ChartData, chart, spread
+from ...outputs.charts.style import MARKERS, colour_scale, figure, finish
+from .dataset import FILE
 
 if TYPE_CHECKING:
     from matplotlib.figure import Figure
@@ -21,7 +25,7 @@ if TYPE_CHECKING:
 
 
 def has_stretch(data: ChartData, study: Study) -> bool:
-    return any(r["status"] == "ok" for r in data.stretch)
+    return any(r["status"] == "ok" for r in data.records.get(FILE, []))
 
 
 def _numbers(steps: list[float] | str) -> np.ndarray:
@@ -37,10 +41,10 @@ def _where(r: dict) -> str:
        "Twin counterflow flames: consumption speed over the unstretched S_L against strain rate (largest "
        "|du/dz| ahead of the flame), from low strain to extinction (×). Rising curves (Markstein number below "
        "0) burn faster when stretched. Right: extinction strain rate against equivalence ratio.",
-       has_stretch)
+       has_stretch, after="admissible_limits")
 def stretch_chart(data: ChartData, study: Study) -> Figure:
     """S_c/S_L vs strain per ladder with the extinction point; K_ext vs phi per gas and condition."""
-    ladders = [r for r in data.stretch if r["status"] == "ok"]
+    ladders = [r for r in data.records.get(FILE, []) if r["status"] == "ok"]
     shown = spread(ladders, MAX_CURVES)
     fig, axes = figure(2)
     ax, axk = axes[0, 0], axes[0, 1]
