@@ -407,7 +407,7 @@ def _targets_words(t: dict) -> str:
             + (f", {', '.join(t['species'])} {100 * t['species_error']:g} %" if t.get("species") else ""))
 
 
-def _suggest(key: str, allowed: tuple[str, ...] | list[str]) -> str:
+def suggest_allowed(key: str, allowed: tuple[str, ...] | list[str]) -> str:
     close = difflib.get_close_matches(key, list(allowed), n=1, cutoff=0.6)
     hint = f" (did you mean '{close[0]}'?)" if close else ""
     return f"{hint}; allowed: {', '.join(allowed)}"
@@ -421,15 +421,15 @@ def _suggest_species(name: str, species: list[str]) -> str:
     return f"{hint}; it has {listed}"
 
 
-def _check_keys(table: dict, allowed: tuple[str, ...], where: str) -> None:
+def check_keys(table: dict, allowed: tuple[str, ...], where: str) -> None:
     for key in table:
         if not isinstance(key, str):
             raise ConfigError(f"key {show(key)} in '{where or 'config'}' is not a name; allowed: {', '.join(allowed)}")
         if key not in allowed:
-            raise ConfigError(f"unknown key '{where}{key}'{_suggest(key, allowed)}")
+            raise ConfigError(f"unknown key '{where}{key}'{suggest_allowed(key, allowed)}")
 
 
-def _number(value: Any, where: str) -> float:
+def parse_number(value: Any, where: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise ConfigError(f"'{where}' must be a number, got {show(value)}")
     try:
@@ -442,20 +442,20 @@ def _number(value: Any, where: str) -> float:
     return value
 
 
-def _string(value: Any, where: str) -> str:
+def parse_string(value: Any, where: str) -> str:
     if not isinstance(value, str):
         raise ConfigError(f"'{where}' must be a string, got {show(value)}")
     return value
 
 
-def _axis(value: Any, where: str) -> tuple[float, ...]:
+def parse_axis(value: Any, where: str) -> tuple[float, ...]:
     """A sweep axis: a number, a list of numbers, or {from, to, step} (both ends included)."""
     if isinstance(value, dict):
-        _check_keys(value, RANGE_KEYS, f"{where}.")
+        check_keys(value, RANGE_KEYS, f"{where}.")
         for k in RANGE_KEYS:
             if k not in value:
                 raise ConfigError(f"'{where}' range needs 'from', 'to' and 'step'; '{k}' is missing")
-        lo, hi, step = (_number(value[k], f"{where}.{k}") for k in RANGE_KEYS)
+        lo, hi, step = (parse_number(value[k], f"{where}.{k}") for k in RANGE_KEYS)
         if step <= 0:
             raise ConfigError(f"'{where}.step' must be > 0, got {step:g}")
         if hi < lo:
@@ -470,9 +470,9 @@ def _axis(value: Any, where: str) -> tuple[float, ...]:
         if len(set(values)) != len(values):
             raise ConfigError(f"'{where}.step' {step:g} is too small: values repeat when rounded to 10 decimals")
     elif isinstance(value, list):
-        values = [_number(v, f"{where}[{i}]") for i, v in enumerate(value)]
+        values = [parse_number(v, f"{where}[{i}]") for i, v in enumerate(value)]
     else:
-        values = [_number(value, where)]
+        values = [parse_number(value, where)]
     if not values:
         raise ConfigError(f"sweep axis '{where}' is empty; give at least one value")
     if len(set(values)) != len(values):
@@ -482,7 +482,7 @@ def _axis(value: Any, where: str) -> tuple[float, ...]:
 
 
 def _limited_axis(value: Any, name: str) -> tuple[float, ...]:
-    values = _axis(value, f"sweep.{name}")
+    values = parse_axis(value, f"sweep.{name}")
     lo, hi = AXIS_LIMITS[name]
     for v in values:
         if name == "unburned_temperature_K" and lo < v < MIN_UNBURNED_TEMPERATURE_K:
@@ -505,7 +505,7 @@ def _composition(value: Any, where: str) -> dict[str, float]:
     for sp, x in value.items():
         if not isinstance(sp, str) or not sp.strip():
             raise ConfigError(f"'{where}' has a species named {show(sp)}; give species names of the mechanism")
-        x = _number(x, f"{where}.{sp}")
+        x = parse_number(x, f"{where}.{sp}")
         if x < 0:
             raise ConfigError(f"'{where}.{sp}' is {x:g}; amounts must be >= 0")
         amounts[sp] = x
@@ -521,9 +521,9 @@ def _names(value: Any, where: str, defined: dict, kind: str) -> tuple[str, ...]:
         raise ConfigError(f"'{where}' must be a non-empty list of {kind} names from [{kind}s]")
     out = []
     for name in value:
-        name = _string(name, where)
+        name = parse_string(name, where)
         if name not in defined:
-            raise ConfigError(f"'{where}' names unknown {kind} '{name}'{_suggest(name, list(defined))}")
+            raise ConfigError(f"'{where}' names unknown {kind} '{name}'{suggest_allowed(name, list(defined))}")
         if name in out:
             raise ConfigError(f"'{where}' lists {kind} '{name}' more than once")
         out.append(name)
@@ -536,7 +536,7 @@ CLUSTER_SCHEMES = ("tcp://", "tls://")
 def check_cluster_spec(value: Any, where: str = "cluster") -> str:
     """A Dask scheduler address (tcp://HOST:PORT, tls://HOST:PORT) or 'local:N' with N >= 1."""
     allowed = "tcp://HOST:PORT or tls://HOST:PORT (a running Dask scheduler), or local:N (N local workers)"
-    value = _string(value, where)
+    value = parse_string(value, where)
     if value.startswith("local:"):
         n = value[len("local:"):]
         if not n.isdigit() or int(n) < 1:
@@ -550,10 +550,10 @@ def check_cluster_spec(value: Any, where: str = "cluster") -> str:
     raise ConfigError(f"'{where}' is {value!r}; allowed: {allowed}")
 
 
-def _positive(table: dict, key: str, where: str, scale: float = 1.0) -> float | None:
+def parse_positive(table: dict, key: str, where: str, scale: float = 1.0) -> float | None:
     if key not in table:
         return None
-    v = _number(table[key], f"{where}.{key}")
+    v = parse_number(table[key], f"{where}.{key}")
     if v <= 0:
         raise ConfigError(f"'{where}.{key}' must be > 0, got {v:g}")
     return v * scale
@@ -562,23 +562,23 @@ def _positive(table: dict, key: str, where: str, scale: float = 1.0) -> float | 
 def _burner(b: Any) -> Burner:
     if not isinstance(b, dict):
         raise ConfigError("'burner' must be a table")
-    _check_keys(b, BURNER_KEYS, "burner.")
-    port = _string(b.get("port", "round"), "burner.port")
+    check_keys(b, BURNER_KEYS, "burner.")
+    port = parse_string(b.get("port", "round"), "burner.port")
     if port not in ("round", "slot"):
-        raise ConfigError(f"'burner.port' is {port!r}{_suggest(port, ('round', 'slot'))}")
-    layout = _string(b.get("layout", "separate"), "burner.layout")
+        raise ConfigError(f"'burner.port' is {port!r}{suggest_allowed(port, ('round', 'slot'))}")
+    layout = parse_string(b.get("layout", "separate"), "burner.layout")
     if layout not in PORT_LAYOUTS:
-        raise ConfigError(f"'burner.layout' is {layout!r}{_suggest(layout, PORT_LAYOUTS)}")
+        raise ConfigError(f"'burner.layout' is {layout!r}{suggest_allowed(layout, PORT_LAYOUTS)}")
     size_key = "port_diameter_mm" if port == "round" else "port_gap_mm"
     other = "port_gap_mm" if port == "round" else "port_diameter_mm"
     if other in b:
         raise ConfigError(f"'burner.{other}' does not apply to a {port} port; give 'burner.{size_key}'")
-    size = _positive(b, size_key, "burner", 1e-3)
+    size = parse_positive(b, size_key, "burner", 1e-3)
     if size is None:
         raise ConfigError(f"[burner] with port = '{port}' needs '{size_key}'")
-    velocity = _positive(b, "port_velocity_m_s", "burner")
-    q = _positive(b, "thermal_input_kW", "burner", 1e3)
-    area = _positive(b, "port_area_mm2", "burner", 1e-6)
+    velocity = parse_positive(b, "port_velocity_m_s", "burner")
+    q = parse_positive(b, "thermal_input_kW", "burner", 1e3)
+    area = parse_positive(b, "port_area_mm2", "burner", 1e-6)
     follows = b.get("input_follows_wobbe", False)
     if not isinstance(follows, bool):
         raise ConfigError(f"'burner.input_follows_wobbe' must be true or false, got {show(follows)}")
@@ -590,18 +590,18 @@ def _burner(b: Any) -> Burner:
     if velocity is not None and (area is not None or follows):
         raise ConfigError("'burner.port_velocity_m_s' fixes the velocity; drop 'port_area_mm2' and "
                           "'input_follows_wobbe', which go with 'thermal_input_kW'")
-    margins = {k: _positive(b, k, "burner") for k in ("min_flashback_margin", "min_blowoff_margin",
+    margins = {k: parse_positive(b, k, "burner") for k in ("min_flashback_margin", "min_blowoff_margin",
                                                       "min_stabilizer_margin")}
     for k, v in margins.items():
         if v is not None and v < 1.0:
             raise ConfigError(f"'burner.{k}' is {v:g}; allowed: 1 or more (a margin is the burner's "
                               "distance from the limit: below 1 the limit is already crossed)")
-    stab = _positive(b, "stabilizer_size_mm", "burner", 1e-3)
-    approach = _positive(b, "approach_velocity_m_s", "burner")
+    stab = parse_positive(b, "stabilizer_size_mm", "burner", 1e-3)
+    approach = parse_positive(b, "approach_velocity_m_s", "burner")
     if (stab is None) != (approach is None):
         raise ConfigError("a bluff-body stabilizer needs both 'burner.stabilizer_size_mm' and "
                           "'burner.approach_velocity_m_s'")
-    blockage = _number(b["stabilizer_blockage"], "burner.stabilizer_blockage") if "stabilizer_blockage" in b else None
+    blockage = parse_number(b["stabilizer_blockage"], "burner.stabilizer_blockage") if "stabilizer_blockage" in b else None
     for key in ("stabilizer_blockage", "min_stabilizer_margin"):
         if key in b and stab is None:
             raise ConfigError(f"'burner.{key}' needs a bluff body: add 'stabilizer_size_mm' and "
@@ -609,20 +609,20 @@ def _burner(b: Any) -> Burner:
     if blockage is not None and not 0.0 <= blockage <= 0.9:
         raise ConfigError(f"'burner.stabilizer_blockage' is {blockage:g}; allowed: 0 to 0.9 (the area fraction of "
                           "the duct the bluff body blocks)")
-    return Burner(name=_string(b.get("name", "burner"), "burner.name"), port=port, port_size_m=size,
+    return Burner(name=parse_string(b.get("name", "burner"), "burner.name"), port=port, port_size_m=size,
                   port_velocity_m_s=velocity, thermal_input_W=q, port_area_m2=area, input_follows_wobbe=follows,
                   stabilizer_size_m=stab, approach_velocity_m_s=approach, stabilizer_blockage=blockage or 0.0,
                   layout=layout,
                   **{k: v for k, v in margins.items() if v is not None})
 
 
-def _string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str, ...]:
+def parse_string_list(value: Any, where: str, allowed: tuple[str, ...]) -> tuple[str, ...]:
     items = [value] if isinstance(value, str) else value
     if not isinstance(items, list) or not items:
         raise ConfigError(f"'{where}' must be a list of names; allowed: {', '.join(allowed)}")
     for v in items:
         if not isinstance(v, str) or v not in allowed:
-            raise ConfigError(f"'{where}' names {show(v)}{_suggest(str(v), allowed)}")
+            raise ConfigError(f"'{where}' names {show(v)}{suggest_allowed(str(v), allowed)}")
     return tuple(dict.fromkeys(items))
 
 
@@ -636,7 +636,7 @@ def _limit_criteria(t: dict, burner: Burner, has_band: bool, premixer: bool, ena
     default = (["flashback", burner.blowoff[2]] + (["core_flashback"] if premixer else [])
                + (["extinction_blowout"] if premixer and ladders and burner.stabilizer_size_m is not None else [])
                + (["wobbe"] if has_band else []))
-    criteria = _string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
+    criteria = parse_string_list(t.get("criteria", default), "limits.criteria", LIMIT_CRITERIA)
     if "stabilizer" in criteria and burner.stabilizer_size_m is None:
         raise ConfigError("'limits.criteria' names 'stabilizer', but [burner] has no 'stabilizer_size_mm'")
     for c, what in (("core_flashback", "the core-flow flashback margin"), ("extinction_blowout", "the blowout margin")):
@@ -670,10 +670,10 @@ def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: 
     """The [limits] table: checked against the burner, the sweep and the tables it needs."""
     if not isinstance(t, dict):
         raise ConfigError("'limits' must be a table")
-    _check_keys(t, LIMITS_KEYS, "limits.")
+    check_keys(t, LIMITS_KEYS, "limits.")
     if burner is None:
         raise ConfigError("[limits] keeps the burner's margins: the study needs a [burner] table")
-    find = _string_list(t.get("find", list(LIMIT_KINDS) if blend_with else ["equivalence_ratio"]), "limits.find",
+    find = parse_string_list(t.get("find", list(LIMIT_KINDS) if blend_with else ["equivalence_ratio"]), "limits.find",
                         LIMIT_KINDS)
     if "blend_fraction" in find and not blend_with:
         raise ConfigError("'limits.find' asks for 'blend_fraction', but the sweep blends nothing: add "
@@ -684,7 +684,7 @@ def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: 
     for kind, top in (("blend_fraction", 0.1), ("equivalence_ratio", 0.1)):
         key = f"{kind}_tolerance"
         if key in t:
-            v = _number(t[key], f"limits.{key}")
+            v = parse_number(t[key], f"limits.{key}")
             if not 0 < v <= top:
                 raise ConfigError(f"'limits.{key}' is {v:g}; allowed: above 0, at most {top:g}"
                                   + (" (a mole fraction: 0.5 percentage points is 0.005)"
@@ -699,29 +699,29 @@ def _limits(t: Any, burner: Burner | None, blend_with: str | None, gas_quality: 
 def _premixer(t: Any) -> Premixer:
     if not isinstance(t, dict):
         raise ConfigError("'premixer' must be a table")
-    _check_keys(t, PREMIXER_KEYS, "premixer.")
-    tau = _positive(t, "residence_time_ms", "premixer", 1e-3)
+    check_keys(t, PREMIXER_KEYS, "premixer.")
+    tau = parse_positive(t, "residence_time_ms", "premixer", 1e-3)
     if tau is None:
         raise ConfigError("[premixer] needs 'residence_time_ms' (mean residence time of the fresh mixture, ms)")
     if tau > 10.0:
         raise ConfigError(f"'premixer.residence_time_ms' is {tau * 1e3:g} ms, more than 10 s: the key is in "
                           "milliseconds (a 2 ms premixer is 2)")
-    m = _positive(t, "min_autoignition_margin", "premixer")
+    m = parse_positive(t, "min_autoignition_margin", "premixer")
     if m is not None and m < 1.0:
         raise ConfigError(f"'premixer.min_autoignition_margin' is {m:g}; allowed: 1 or more (ignition delay over "
                           "residence time: below 1 the mixture ignites inside the premixer)")
-    intensity = _positive(t, "turbulence_intensity_percent", "premixer", 0.01)
+    intensity = parse_positive(t, "turbulence_intensity_percent", "premixer", 0.01)
     if intensity is not None and not 0.001 <= intensity <= 1.0:
         raise ConfigError(f"'premixer.turbulence_intensity_percent' is {100 * intensity:g}; allowed: 0.1 to 100 "
                           "(u' in per cent of the bulk velocity at the flame; ducts about 5-10, swirlers 10-30)")
-    length = _positive(t, "integral_length_mm", "premixer", 1e-3)
+    length = parse_positive(t, "integral_length_mm", "premixer", 1e-3)
     if length is not None and length > 1.0:
         raise ConfigError(f"'premixer.integral_length_mm' is {length * 1e3:g} mm, more than 1 m: the key is in mm")
-    pe = _positive(t, "turbulent_flashback_peclet", "premixer")
+    pe = parse_positive(t, "turbulent_flashback_peclet", "premixer")
     if pe is not None and pe > 1e4:
         raise ConfigError(f"'premixer.turbulent_flashback_peclet' is {pe:g}; allowed: above 0, at most 10000 (the "
                           "laminar tube value is 13; calibrate it on your own premixer)")
-    da = _positive(t, "blowout_damkohler", "premixer")
+    da = parse_positive(t, "blowout_damkohler", "premixer")
     if da is not None and not 0.01 <= da <= 100.0:
         raise ConfigError(f"'premixer.blowout_damkohler' is {da:g}; allowed: 0.01 to 100 (critical extinction "
                           "Damkohler number of lean blowout, of order one)")
@@ -735,13 +735,13 @@ def _reduction(t: Any, facts: MechanismFacts, n_mechanisms: int, kept: tuple[str
     those the study's analyses read, added first), one mechanism."""
     if not isinstance(t, dict):
         raise ConfigError("'reduction' must be a table")
-    _check_keys(t, REDUCTION_KEYS, "reduction.")
+    check_keys(t, REDUCTION_KEYS, "reduction.")
     if n_mechanisms > 1:
         raise ConfigError(f"[reduction] reduces one mechanism, and 'mechanism' lists {n_mechanisms}: compare "
                           "mechanisms without [reduction], or reduce one of them in a study of its own")
     targets = {}
     for key, default in DEFAULT_REDUCTION_TARGETS_PERCENT.items():
-        v = _number(t.get(key, default), f"reduction.{key}")
+        v = parse_number(t.get(key, default), f"reduction.{key}")
         lo, hi = REDUCTION_TARGET_RANGES[key]
         if not lo <= v <= hi:
             raise ConfigError(f"'reduction.{key}' is {v:g}; allowed: {lo:g} to {hi:g} (per cent of the detailed "
@@ -774,17 +774,17 @@ def _uncertainty(t: Any, mechs: list[MechanismFacts]) -> Uncertainty:
     (a factor applies in every mechanism that has the reaction)."""
     if not isinstance(t, dict):
         raise ConfigError("'uncertainty' must be a table")
-    _check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
+    check_keys(t, UNCERTAINTY_KEYS, "uncertainty.")
     flags = {}
     for flag, unset in (("kinetics", True), ("error_bars", False)):
         flags[flag] = t.get(flag, unset)
         if not isinstance(flags[flag], bool):
             raise ConfigError(f"'uncertainty.{flag}' must be true or false, got {show(flags[flag])}")
-    default = _number(t["default_factor"], "uncertainty.default_factor") if "default_factor" in t else None
+    default = parse_number(t["default_factor"], "uncertainty.default_factor") if "default_factor" in t else None
     if default is not None and not 1.0 <= default <= MAX_RATE_FACTOR:
         raise ConfigError(f"'uncertainty.default_factor' is {default:g}; allowed: 1 to {MAX_RATE_FACTOR:g} (a "
                           "factor f: the rate constant lies between k/f and k*f)")
-    sigmas = _number(t["factor_sigmas"], "uncertainty.factor_sigmas") if "factor_sigmas" in t else None
+    sigmas = parse_number(t["factor_sigmas"], "uncertainty.factor_sigmas") if "factor_sigmas" in t else None
     if sigmas is not None and not 1.0 <= sigmas <= 4.0:
         raise ConfigError(f"'uncertainty.factor_sigmas' is {sigmas:g}; allowed: 1 to 4 (standard deviations a "
                           "factor's bound stands for: 2 or 3 in the literature)")
@@ -827,27 +827,27 @@ def _uncertainty(t: Any, mechs: list[MechanismFacts]) -> Uncertainty:
 def _gas_quality(g: Any) -> GasQuality:
     if not isinstance(g, dict):
         raise ConfigError("'gas_quality' must be a table")
-    _check_keys(g, GAS_QUALITY_KEYS, "gas_quality.")
+    check_keys(g, GAS_QUALITY_KEYS, "gas_quality.")
     out = {}
     for key, allowed in (("combustion_temperature_C", (0, 15, 25)), ("metering_temperature_C", (0, 15))):
         if key in g:
-            v = _number(g[key], f"gas_quality.{key}")
+            v = parse_number(g[key], f"gas_quality.{key}")
             if v not in allowed:
                 raise ConfigError(f"'gas_quality.{key}' is {v:g}; allowed: {', '.join(map(str, allowed))} "
                                   "(the reference temperatures of ISO 6976)")
             out["combustion_T_C" if key.startswith("comb") else "metering_T_C"] = int(v)
-    wobbe = _string(g.get("wobbe", "higher"), "gas_quality.wobbe")
+    wobbe = parse_string(g.get("wobbe", "higher"), "gas_quality.wobbe")
     if wobbe not in ("higher", "lower"):
         raise ConfigError(f"'gas_quality.wobbe' is {wobbe!r}; allowed: higher, lower")
     band = g.get("wobbe_band_MJ_m3")
-    tol = _positive(g, "wobbe_tolerance_percent", "gas_quality")
+    tol = parse_positive(g, "wobbe_tolerance_percent", "gas_quality")
     if band is not None and tol is not None:
         raise ConfigError("give either 'gas_quality.wobbe_band_MJ_m3' or 'gas_quality.wobbe_tolerance_percent', "
                           "not both")
     if band is not None:
         if not isinstance(band, list) or len(band) != 2:
             raise ConfigError("'gas_quality.wobbe_band_MJ_m3' must be [low, high] in MJ/m^3")
-        lo, hi = (_number(v, f"gas_quality.wobbe_band_MJ_m3[{i}]") for i, v in enumerate(band))
+        lo, hi = (parse_number(v, f"gas_quality.wobbe_band_MJ_m3[{i}]") for i, v in enumerate(band))
         if not 0 < lo < hi:
             raise ConfigError(f"'gas_quality.wobbe_band_MJ_m3' must satisfy 0 < low < high, got [{lo:g}, {hi:g}]")
         band = (lo, hi)
@@ -858,8 +858,8 @@ def _indicator_settings(t: Any) -> dict:
 
     if not isinstance(t, dict):
         raise ConfigError("'indicators' must be a table")
-    _check_keys(t, tuple(INDICATOR_DEFAULTS), "indicators.")
-    return {**INDICATOR_DEFAULTS, **{k: _positive(t, k, "indicators") for k in t}}
+    check_keys(t, tuple(INDICATOR_DEFAULTS), "indicators.")
+    return {**INDICATOR_DEFAULTS, **{k: parse_positive(t, k, "indicators") for k in t}}
 
 
 def _check_species(fuels: dict, oxidizers: dict, sweep_fuels, sweep_oxidizers, blend_with, atoms: dict,
@@ -936,7 +936,7 @@ def _run_settings(data: dict) -> tuple[float | None, bool]:
     """(flame_time_limit_s or None, keep_profiles) of the config's top level."""
     flame_time_limit_s = None
     if "flame_time_limit_s" in data:
-        flame_time_limit_s = _number(data["flame_time_limit_s"], "flame_time_limit_s")
+        flame_time_limit_s = parse_number(data["flame_time_limit_s"], "flame_time_limit_s")
         if not flame_time_limit_s > 0:
             raise ConfigError(f"'flame_time_limit_s' must be > 0 seconds, got {flame_time_limit_s:g}")
     keep_profiles = data.get("keep_profiles", True)
@@ -949,13 +949,13 @@ def _blend(b: Any, fuels: dict) -> tuple[str, tuple[float, ...]]:
     """sweep.blend = { with = FUEL, fraction = [...] } -> (fuel name, mole fractions 0..1)."""
     if not isinstance(b, dict):
         raise ConfigError("'sweep.blend' must be a table { with = fuel name, fraction = [...] }")
-    _check_keys(b, BLEND_KEYS, "sweep.blend.")
+    check_keys(b, BLEND_KEYS, "sweep.blend.")
     if "with" not in b or "fraction" not in b:
         raise ConfigError("'sweep.blend' needs both 'with' (a fuel name) and 'fraction' (a list)")
-    blend_with = _string(b["with"], "sweep.blend.with")
+    blend_with = parse_string(b["with"], "sweep.blend.with")
     if blend_with not in fuels:
-        raise ConfigError(f"'sweep.blend.with' names unknown fuel '{blend_with}'{_suggest(blend_with, list(fuels))}")
-    fractions = _axis(b["fraction"], "sweep.blend.fraction")
+        raise ConfigError(f"'sweep.blend.with' names unknown fuel '{blend_with}'{suggest_allowed(blend_with, list(fuels))}")
+    fractions = parse_axis(b["fraction"], "sweep.blend.fraction")
     for f in fractions:
         if not 0.0 <= f <= 1.0:
             hint = f" (mole fractions, not per cent: {f:g} % is {f / 100:g})" if 1 < f <= 100 else ""
@@ -967,7 +967,7 @@ def _design_tables(data: dict, axes: dict[str, tuple], blend_with: str | None) -
     """The optional tables beyond the sweep, validated: Study fields by name."""
     reference_fuel = None
     if "reference_fuel" in data:
-        reference_fuel = _string(data["reference_fuel"], "reference_fuel")
+        reference_fuel = parse_string(data["reference_fuel"], "reference_fuel")
         if reference_fuel not in axes["fuel"]:
             raise ConfigError(f"'reference_fuel' {reference_fuel!r} must be one of sweep.fuel "
                               f"({', '.join(axes['fuel'])}) so that its flames are solved")
@@ -1006,7 +1006,7 @@ def _mechanism_names(value: Any) -> tuple[str, ...]:
         raise ConfigError(f"'mechanism' must be a file name or a list of them, got {show(value)}; e.g. "
                           "mechanism = \"gri30.yaml\" or mechanism = [\"h2o2.yaml\", "
                           "\"example_data/ammonia-CO-H2-Alzueta-2023.yaml\"]")
-    names = tuple(_string(v, f"mechanism[{i}]") for i, v in enumerate(value))
+    names = tuple(parse_string(v, f"mechanism[{i}]") for i, v in enumerate(value))
     if len(names) > MAX_MECHANISMS:
         raise ConfigError(f"'mechanism' lists {len(names)} mechanisms; allowed: at most {MAX_MECHANISMS} (each "
                           "solves the whole sweep)")
@@ -1063,18 +1063,18 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
     from their files, or taken from ``saved_facts`` (by name, as a run kept them) where given."""
     if not isinstance(data, dict):
         raise ConfigError("config must be a TOML table")
-    _check_keys(data, top_keys(), "")
-    title = _string(data.get("title", name), "title")
+    check_keys(data, top_keys(), "")
+    title = parse_string(data.get("title", name), "title")
     mechanism_list = _mechanism_names(data.get("mechanism", "gri30.yaml"))
-    transport = _string(data.get("transport", "mixture-averaged"), "transport")
+    transport = parse_string(data.get("transport", "mixture-averaged"), "transport")
     if transport not in TRANSPORT_MODELS:
-        raise ConfigError(f"'transport' is {transport!r}{_suggest(transport, TRANSPORT_MODELS)}")
+        raise ConfigError(f"'transport' is {transport!r}{suggest_allowed(transport, TRANSPORT_MODELS)}")
     thermal_diffusion = data.get("thermal_diffusion", False)
     if not isinstance(thermal_diffusion, bool):
         raise ConfigError(f"'thermal_diffusion' must be true or false, got {show(thermal_diffusion)}")
-    resolution = _string(data.get("resolution", "standard"), "resolution")
+    resolution = parse_string(data.get("resolution", "standard"), "resolution")
     if resolution not in RESOLUTIONS:
-        raise ConfigError(f"'resolution' is {resolution!r}{_suggest(resolution, RESOLUTIONS)}")
+        raise ConfigError(f"'resolution' is {resolution!r}{suggest_allowed(resolution, RESOLUTIONS)}")
     max_points = data.get("max_points", 10000)
     if isinstance(max_points, bool) or not isinstance(max_points, int) or max_points < 1:
         raise ConfigError(f"'max_points' must be a whole number >= 1, got {show(max_points)}")
@@ -1095,7 +1095,7 @@ def study_from_dict(data: dict, name: str = "study", base_dir: Path | None = Non
         raise ConfigError("[oxidizers] is empty; define at least one, e.g. air = { O2 = 1.0, N2 = 3.76 }")
 
     sweep = data["sweep"]
-    _check_keys(sweep, SWEEP_KEYS, "sweep.")
+    check_keys(sweep, SWEEP_KEYS, "sweep.")
     for required in ("fuel", "oxidizer", "equivalence_ratio"):
         if required not in sweep:
             raise ConfigError(f"[sweep] has no '{required}'; it is required")

@@ -58,6 +58,20 @@ def test_nothing_outside_an_analysis_names_it():
     assert not found, found
 
 
+def test_an_analysis_uses_only_public_names_of_the_core():
+    """An analysis's parts import what the core offers (no ``_private`` name from outside their
+    own package): the core may then change its internals without breaking an analysis."""
+    found = []
+    for path in (PACKAGE / "analyses").rglob("*.py"):
+        package = path.relative_to(PACKAGE / "analyses").parts[0]
+        for node in ast.walk(ast.parse(path.read_text())):
+            own = isinstance(node, ast.ImportFrom) and node.level == 1 and package != "__init__.py"
+            if isinstance(node, ast.ImportFrom) and not own:
+                found += [f"{path.relative_to(PACKAGE)}:{node.lineno} {a.name}" for a in node.names
+                          if a.name.startswith("_") and a.name != "__future__"]
+    assert not found, found
+
+
 EMPTY_REGISTRY = textwrap.dedent("""
     import sys
     import flamecharts.analyses as registry

@@ -7,13 +7,12 @@ from disk with no network access and prints to PDF from a browser with its chart
 """
 from __future__ import annotations
 
-import html
 import math
 import time
-from collections.abc import Callable, Sequence, Set
+from collections.abc import Sequence
 from pathlib import Path
 from statistics import median
-from typing import TYPE_CHECKING, Any, TypeVar
+from typing import TYPE_CHECKING, TypeVar
 
 import xarray as xr
 
@@ -47,6 +46,7 @@ from ..results import (
 )
 from .charts import CAPTIONS
 from .charts.registry import not_drawn
+from .html_blocks import escape, first_rows, html_table, optional
 from .tables import uncertainty_settings, write_atomic
 
 if TYPE_CHECKING:
@@ -85,34 +85,6 @@ table.points { font-size: 0.8em; } table.points td, table.points th { padding: 0
 
 #: Most points the report's appendix lists (the rest are in results.csv, which it names).
 MAX_POINT_ROWS = 2000
-#: Most rows any other table of the report lists (the rest are in the CSV it names): a
-#: 100,000-point study keeps a report of a few MB.
-MAX_TABLE_ROWS = 60
-
-
-def _first(items: Sequence[T], where: str, order: Callable[[T], Any] | None = None) -> tuple[list[T], str]:
-    """At most MAX_TABLE_ROWS of ``items`` (those first by ``order`` when some are left out)
-    and the note saying so ('' when all are listed)."""
-    if len(items) <= MAX_TABLE_ROWS:
-        return list(items), ""
-    which = "first"
-    if order is not None:
-        items, which = sorted(items, key=order), "most critical"
-    return list(items[:MAX_TABLE_ROWS]), (f"<p class='muted'>The {which} {MAX_TABLE_ROWS} of {len(items)} are listed; "
-                                    f"all are in {_e(where)}.</p>")
-
-
-def _e(x) -> str:
-    return html.escape(str(x))
-
-
-def _table(header: list[str], rows: list[list], num_cols: Set[int] = frozenset(), cls: str = "") -> str:
-    head = "".join(f"<th>{_e(h)}</th>" for h in header) if any(header) else ""
-    body = "".join("<tr>" + "".join(
-        f"<td class='num'>{_e(c)}</td>" if i in num_cols else f"<td>{_e(c)}</td>" for i, c in enumerate(r))
-        + "</tr>" for r in rows)
-    thead = f"<thead><tr>{head}</tr></thead>" if head else ""
-    return f"<table{f' class={cls!r}' if cls else ''}>{thead}<tbody>{body}</tbody></table>"
 
 
 def _inline_svg(path: Path) -> str:
@@ -243,10 +215,6 @@ def _lowest_cell(s: dict, name: str) -> str:
     return "not assessed" if v is None else f"{v:.2f} ({s[f'at_phi_{name}']:g})"
 
 
-def _num(v, fmt: str) -> str:
-    return "" if v is None else format(v, fmt)
-
-
 def _points_appendix(study: Study, rows: list[dict], comparison: Comparison | None = None) -> str:
     """Appendix at the end of the report: one line per point (the first MAX_POINT_ROWS), printed on pages of its own."""
     burner = study.burner is not None
@@ -259,21 +227,21 @@ def _points_appendix(study: Study, rows: list[dict], comparison: Comparison | No
     for r in rows[:MAX_POINT_ROWS]:
         S = r["laminar_flame_speed_m_s"]
         line = [gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
-                f"{r['unburned_temperature_K']:g}", r["status"], _num(None if S is None else 100 * S, ".2f"),
-                _num(r["thermal_thickness_mm"], ".3f"), _num(r["adiabatic_flame_temperature_K"], ".0f"),
-                _num(r["flashback_critical_gradient_1_s"], ".0f"), _num(r["quenching_distance_mm"], ".2f")]
+                f"{r['unburned_temperature_K']:g}", r["status"], optional(None if S is None else 100 * S, ".2f"),
+                optional(r["thermal_thickness_mm"], ".3f"), optional(r["adiabatic_flame_temperature_K"], ".0f"),
+                optional(r["flashback_critical_gradient_1_s"], ".0f"), optional(r["quenching_distance_mm"], ".2f")]
         if burner:
-            line += [_num(r["port_velocity_m_s"], ".3f"), _num(r["flashback_margin"], ".2f"),
-                     _num(r[bo_col], ".2f"), r["verdict"] or ""]
+            line += [optional(r["port_velocity_m_s"], ".3f"), optional(r["flashback_margin"], ".2f"),
+                     optional(r[bo_col], ".2f"), r["verdict"] or ""]
         lines.append(line + ["yes" if r.get("warnings") else ""])
     more = (f" The first {MAX_POINT_ROWS} of {len(rows)} points are listed; all are in results.csv."
             if len(rows) > MAX_POINT_ROWS else " Every column of every point is in results.csv.")
     numeric = set(range(1, 4)) | set(range(5, 10)) | ({10, 11, 12} if burner else set())
     return ("<section class='appendix'><h2 id='points'>Appendix: every point"
-            + (f" under {_e(study.mechanism)}, the reference (every mechanism's in results.csv)"
+            + (f" under {escape(study.mechanism)}, the reference (every mechanism's in results.csv)"
                if comparison is not None else "") + "</h2>"
-            f"<p class='muted'>{len(rows)} points.{_e(more)}</p>"
-            f"{_table(head, lines, numeric, 'points')}"
+            f"<p class='muted'>{len(rows)} points.{escape(more)}</p>"
+            f"{html_table(head, lines, numeric, 'points')}"
             "</section>")
 
 
@@ -281,9 +249,9 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
     """The study's definition: fuels, oxidizers, sweep axes, lumping, burner, fuel-gas table."""
     parts: list[str] = []
     parts.append("<h2>Study</h2>")
-    parts.append(_table(["fuel", "composition (mole fractions)"],
+    parts.append(html_table(["fuel", "composition (mole fractions)"],
                         [[n, ", ".join(f"{k} {v:.4g}" for k, v in c.items())] for n, c in study.fuels.items()]))
-    parts.append(_table(["oxidizer", "composition (mole fractions)"],
+    parts.append(html_table(["oxidizer", "composition (mole fractions)"],
                         [[n, ", ".join(f"{k} {v:.4g}" for k, v in c.items())] for n, c in study.oxidizers.items()]))
     window = [["fuels swept", ", ".join(study.sweep_fuels)], ["oxidizers", ", ".join(study.sweep_oxidizers)]]
     if study.blend_with:
@@ -293,13 +261,13 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
                ["pressure [bar]", ", ".join(f"{v:g}" for v in study.pressures_bar)],
                ["unburned temperature [K]", ", ".join(f"{v:g}" for v in study.unburned_temperatures_K)],
                ["points", str(len(rows))]]
-    parts.append(_table(["axis", "values"], window))
+    parts.append(html_table(["axis", "values"], window))
     note = lumping_note(study)
     if note:
-        parts.append(f"<div class='caution'><b>Lumped fuel.</b> {_e(note)}</div>")
+        parts.append(f"<div class='caution'><b>Lumped fuel.</b> {escape(note)}</div>")
     if study.reduced is not None:
         parts.append(f"<div class='caution'><b>{'Reduced mechanism' if study.reduced.reduced else 'Mechanism reduction'}"
-                     f".</b> {_e(reduction_note(study))}{_e(_band_where(rows))}</div>")
+                     f".</b> {escape(reduction_note(study))}{escape(_band_where(rows))}</div>")
     b = study.burner
     if b is not None:
         how = burner_flow_words(b)
@@ -315,11 +283,11 @@ def _study_section(study: Study, rows: list[dict], gases: list[dict] | None) -> 
                                                    f"{100 * b.stabilizer_blockage:g} % of the duct: "
                                                    f"{edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage):.3g} m/s "
                                                    "past its edge"])
-        parts.append("<div class='keep'><h3>Burner</h3>" + _table(["", ""], brows) + "</div>")
+        parts.append("<div class='keep'><h3>Burner</h3>" + html_table(["", ""], brows) + "</div>")
     gases = fuel_gas_table(study) if gases is None else gases
-    parts.append(f"<div class='keep'><h3>Fuel gases</h3><p class='muted'>{_e(gases[0]['conditions'])}; "
-                 f"{_e(gases[0]['method'])}</p>")
-    parts.append(_table(["gas", "HHV [MJ/m³]", "LHV [MJ/m³]", "relative density", "Wobbe (higher) [MJ/m³]",
+    parts.append(f"<div class='keep'><h3>Fuel gases</h3><p class='muted'>{escape(gases[0]['conditions'])}; "
+                 f"{escape(gases[0]['method'])}</p>")
+    parts.append(html_table(["gas", "HHV [MJ/m³]", "LHV [MJ/m³]", "relative density", "Wobbe (higher) [MJ/m³]",
                          "Wobbe change [%]", "in band"],
                         [[gas_label(g) + f" in {g['oxidizer']}", f"{g['higher_heating_value_MJ_m3']:.3f}",
                           f"{g['lower_heating_value_MJ_m3']:.3f}", f"{g['relative_density']:.4f}",
@@ -335,7 +303,7 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
     summary = premixer_summary(study, rows)
     if not summary:
         return []
-    summary, more = _first(summary, "results.csv", order=lambda s: s["autoignition_margin"])
+    summary, more = first_rows(summary, "results.csv", order=lambda s: s["autoignition_margin"])
     pm = study.premixer
     assert pm is not None  # premixer_summary is empty without [premixer]
     inf = float("inf")
@@ -343,12 +311,12 @@ def _premixer_section(study: Study, rows: list[dict]) -> list[str]:
             f"<p>Ignition delay of the fresh mixture at the preheat and pressure of each point: the time of the "
             f"largest temperature rise rate in an adiabatic constant-pressure reactor (Cantera). Margin = delay / "
             f"residence time ({pm.residence_time_s * 1e3:g} ms); required at least {pm.min_autoignition_margin:g}. "
-            f"{_e(ignition_check(study.mechanism))}. Near the fuel injection the fuel meets the oxidizer before it is "
+            f"{escape(ignition_check(study.mechanism))}. Near the fuel injection the fuel meets the oxidizer before it is "
             f"mixed: the shortest delay over φ 0.25-4 at the same temperature and pressure (fuel as hot as the "
             f"oxidizer: conservative) is given beside; where it falls at an end of that range, mixtures beyond it "
             f"may ignite sooner still. A mean residence time also hides the slowest fluid in "
             f"wakes and recirculation: keep a wide margin and confirm by test.</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "near injection [ms] (φ)",
+            html_table(["gas", "p [bar]", "T_u [K]", "shortest delay [ms] (φ)", "margin", "near injection [ms] (φ)",
                     "points ok", "verdicts"],
                    [[gas_label(s), f"{s['pressure_bar']:g}", f"{s['unburned_temperature_K']:g}",
                      "no ignition" if s["ignition_delay_ms"] == inf else f"{s['ignition_delay_ms']:.3g} ({s['at_phi']:g})",
@@ -369,8 +337,8 @@ def _regime_lines(rows: list[dict]) -> list[str]:
     ka = [r["karlovitz_number"] for r in have]
     return [f"<p><b>Turbulent flame regime</b> (Peters 2000; u' {min(r['rms_velocity_m_s'] for r in have):.3g}-"
             f"{max(r['rms_velocity_m_s'] for r in have):.3g} m/s and l_t {have[0]['integral_length_mm']:.3g} mm, "
-            f"{_e(have[0]['turbulence_source'])}): "
-            + ", ".join(f"{_e(k)} at {n} of {len(have)} points" for k, n in sorted(counts.items(), key=lambda t: -t[1]))
+            f"{escape(have[0]['turbulence_source'])}): "
+            + ", ".join(f"{escape(k)} at {n} of {len(have)} points" for k, n in sorted(counts.items(), key=lambda t: -t[1]))
             + f"; Karlovitz number {min(ka):.2g}-{max(ka):.2g}. Laminar flame criteria do not apply in a turbulent "
             "premixer; see the regime diagram. The duct estimate (u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h) is common "
             "practice without source: give the premixer's own turbulence where it is known.</p>"]
@@ -405,7 +373,7 @@ def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
         return []
     shown = [c for c in TURBULENT_CORRELATIONS if any(r.get(f"turbulent_flame_speed_{c[0].replace(' ', '_')}_m_s")
                                                       is not None for r in have)]
-    listed, more = _first(have, "results.csv", order=lambda r: r["core_flashback_margin"])
+    listed, more = first_rows(have, "results.csv", order=lambda r: r["core_flashback_margin"])
     table = [[gas_label(r), f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}", f"{r['equivalence_ratio']:g}",
               f"{r['laminar_flame_speed_m_s']:.3g}"] + [_speed_cell(r, c[0]) for c in shown]
              + [f"{r['port_velocity_m_s']:.3g}", f"{r['core_flashback_margin']:.3g} ({r['core_flashback_correlation']})"]
@@ -422,10 +390,10 @@ def _turbulent_speed_lines(study: Study, rows: list[dict]) -> list[str]:
             "Turbulent correlations are fits with wide scatter and disagree with one another by more; a premixer "
             "fails at local features no one-dimensional model sees (wakes, recirculation, hot spots), and is judged "
             "finally by test under the applicable gas-turbine standards.</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "φ", "S_L [m/s]"] + [f"S_T {label} [m/s]" for _, label, _ in shown]
+            html_table(["gas", "p [bar]", "T_u [K]", "φ", "S_L [m/s]"] + [f"S_T {label} [m/s]" for _, label, _ in shown]
                    + ["bulk velocity [m/s]", "core-flow margin (largest S_T)"], table,
                    set(range(1, 7 + len(shown)))) + more,
-            "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in core_flashback_sentences(study, have)) + "</ul>"]
+            "<ul>" + "".join(f"<li>{escape(t)}</li>" for t in core_flashback_sentences(study, have)) + "</ul>"]
 
 
 def _leave_one_out_words(rows: list[dict]) -> str:
@@ -460,7 +428,7 @@ def _premixer_margin_lines(study: Study, rows: list[dict]) -> list[str]:
         return []
     pm = study.premixer
     assert pm is not None  # the columns exist only with [premixer]
-    listed, more = _first(have, "results.csv", order=lambda r: r.get("extinction_blowout_margin") or float("inf"))
+    listed, more = first_rows(have, "results.csv", order=lambda r: r.get("extinction_blowout_margin") or float("inf"))
     table = [[gas_label(r), f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}", f"{r['equivalence_ratio']:g}",
               _margin_cell(r, "boundary_layer_flashback_margin"),
               "" if r.get("blowout_extinction_strain_rate_1_s") is None
@@ -495,14 +463,14 @@ def _premixer_margin_lines(study: Study, rows: list[dict]) -> list[str]:
             "sets, from memory). κ_ext is a [stretch] ladder's at its points; elsewhere interpolated, linearly in ln "
             "κ_ext along φ and then along the blend fraction, between the ladder points of the same gas, pressure and "
             "preheat, held at the nearest one beyond them, never extrapolated. "
-            + _e(_leave_one_out_words(rows)) + " The verdict of a premixer point counts the core-flow and "
+            + escape(_leave_one_out_words(rows)) + " The verdict of a premixer point counts the core-flow and "
             "boundary-layer flashback margins against the burner's minimum flashback margin and the blowout margin "
             "against its minimum stabilizer margin, where each is assessed. Neither sees wall temperature, wakes, "
             "recirculation or hot spots; a premixer is judged finally by test under the applicable gas-turbine "
             "standards.</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "φ", "boundary-layer margin", "κ_ext [1/s]", "κ_ext from", "Da_ext",
+            html_table(["gas", "p [bar]", "T_u [K]", "φ", "boundary-layer margin", "κ_ext [1/s]", "κ_ext from", "Da_ext",
                     "blowout margin", "verdict"], table, {1, 2, 3, 4, 5, 7, 8}) + more,
-            "<ul>" + "".join(f"<li>{_e(t)}</li>" for t in sentences) + "</ul>"]
+            "<ul>" + "".join(f"<li>{escape(t)}</li>" for t in sentences) + "</ul>"]
 
 
 def _injection_cell(s: dict) -> str:
@@ -542,21 +510,21 @@ def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str
                       "" if dth is None else f"{dth:+.1f}",
                       "" if band is None else f"{band:.2g} ({'inside' if inside_kinetic_band(d) else 'outside'})",
                       str(d["points"])])
-    table, more = _first(table, "mechanism_comparison.csv")
+    table, more = first_rows(table, "mechanism_comparison.csv")
     parts = ["<h2 id='mechanisms'>Mechanisms compared</h2>",
              "<p>The whole sweep was solved under each mechanism, the same flames with the same numerics; "
-             f"differences are in % of the reference, {_e(names[0])}, with the numerical error of the difference "
+             f"differences are in % of the reference, {escape(names[0])}, with the numerical error of the difference "
              "(both flames' grid bands combined): a smaller difference is not resolved. "
              + ("Where the difference is larger than the reference's kinetic band, the mechanisms disagree by more "
                 "than their rate constants' stated uncertainty: trust neither without measurements for that mixture. "
                 if any(d["reference_kinetic_uncertainty_percent"] is not None for d in diffs) else
                 "Add an [uncertainty] table to compare each difference with the reference's kinetic band. ")
              + "Every point is in mechanism_comparison.csv and, with its mechanism, in results.csv.</p>",
-             _table(["mechanism", "gas", "p [bar]", "T_u [K]", "largest S_L difference ± numerics [%]",
+             html_table(["mechanism", "gas", "p [bar]", "T_u [K]", "largest S_L difference ± numerics [%]",
                      "thickness difference there [%]", "reference's kinetic band, 1σ [%]", "points compared"],
                     table, {2, 3, 5, 7}) + more,
              "<div class='keep'><h3>What each mechanism was built for</h3>"
-             + _table(["mechanism", "built and validated for"],
+             + html_table(["mechanism", "built and validated for"],
                       [[s.mechanism, mechanism_scope(s.mechanism_path)] for s in comparison.studies]) + "</div>"]
     searches: dict[tuple, dict[str, str]] = {}
     for r in comparison.limits:
@@ -566,11 +534,11 @@ def _mechanisms_section(study: Study, comparison: Comparison | None) -> list[str
         got = searches.setdefault(key, {})
         got[r["mechanism"]] = f"{got[r['mechanism']]}; {text}" if r["mechanism"] in got else text
     if searches:
-        rows_l, more_l = _first([[k[0].replace("_", " "), k[1], f"{k[2]:g}" if k[0] == "blend_fraction" else "",
+        rows_l, more_l = first_rows([[k[0].replace("_", " "), k[1], f"{k[2]:g}" if k[0] == "blend_fraction" else "",
                                   f"{k[3]:g}", f"{k[4]:g}", *(v.get(m, "") for m in names)]
                                  for k, v in searches.items()], "limits.csv")
         parts.append("<div class='keep'><h3>Limits under each mechanism</h3>"
-                     + _table(["admissible window along", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4})
+                     + html_table(["admissible window along", "gas", "at φ", "p [bar]", "T_u [K]", *names], rows_l, {2, 3, 4})
                      + more_l
                      + "</div>")
     return parts
@@ -598,7 +566,7 @@ def _reduction_paragraph(study: Study, banded: bool) -> list[str]:
                "error (results.csv reduction_error_source says why).")
     else:
         why = ""  # the note says that the detailed mechanism is used and that there is no band
-    return [f"<p><b>Reduction.</b> {_e(reduction_note(study))}{_e(why)}</p>"]
+    return [f"<p><b>Reduction.</b> {escape(reduction_note(study))}{escape(why)}</p>"]
 
 
 def _span_text(values: list[float]) -> str:
@@ -629,12 +597,12 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
     banded = any(row[5] for row in table)  # the reduction band's column only where a point has one
     if not banded:
         table = [row[:5] + row[6:] for row in table]
-    table, more = _first(table, "results.csv")
+    table, more = first_rows(table, "results.csv")
     u = study.uncertainty
     kinetics = u is not None and u.kinetics
     defaulted = max((r.get("reactions_default_factor") or 0 for r in ok), default=0)
     return ["<h2 id='error-bars'>How sure: error bars of the flame speed"
-            + (f" ({_e(study.mechanism)}, the reference)" if comparison is not None else "") + "</h2>",
+            + (f" ({escape(study.mechanism)}, the reference)" if comparison is not None else "") + "</h2>",
             "<p><b>Numerics.</b> Every flame is solved again on every second and every fourth point of its final "
             "grid; the three flame speeds give Roache's grid convergence index (factor of safety 1.25 with the "
             "observed order bounded to 0.5-1, the scheme's formal order, else 3), never below 0.3 % × 942 / N on a "
@@ -655,7 +623,7 @@ def _uncertainty_section(study: Study, rows: list[dict], comparison: Comparison 
                if kinetics and u is not None else
                "<p>Add an [uncertainty] table to the study for the kinetic band (one adjoint solve per point).</p>"),
             *_reduction_paragraph(study, banded),
-            _table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
+            html_table(["gas", "p [bar]", "T_u [K]", "nearest φ 1", "largest numerical band [%]",
                     *(["reduction band [%]"] if banded else []), "kinetic band, 1σ [%]"], table,
                    {1, 2, 4, 5, 6} if banded else {1, 2, 4, 5}) + more]
 
@@ -674,7 +642,7 @@ def _unassessed_section(rows: list[dict]) -> list[str]:
             "binds says so. Judge these by other means (test, or the methods of the literature for the regime). A "
             "premixer's boundary-layer flashback and blowout are listed too: the premixer section says what each "
             "needs.</p>",
-            _table(["criterion", "outside its range (first such point)", "flames"],
+            html_table(["criterion", "outside its range (first such point)", "flames"],
                    [[g["criterion"], g["example"], f"{g['points']} of {g['of']}"] for g in gaps], {2})]
 
 
@@ -684,9 +652,9 @@ def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
         return []
     lim = study.limits
     assert lim is not None  # limits.csv rows come from a [limits] table
-    listed, more = _first(limits, "limits.csv")
+    listed, more = first_rows(limits, "limits.csv")
     out = ["<h2 id='limits'>Limits</h2>", "<ul>"]
-    out += [f"<li>{_e(limit_sentence(r, study))}.</li>" for r in listed]
+    out += [f"<li>{escape(limit_sentence(r, study))}.</li>" for r in listed]
     out.append("</ul>" + more)
     flames = search_flames(limits)
     out.append(f"<p>Each search runs along one axis with every other setting fixed. Between neighbouring swept "
@@ -710,7 +678,7 @@ def _limits_section(study: Study, limits: Sequence[dict]) -> list[str]:
     ratio = fixed_ratio_note(study)
     if ratio and any(ratio in (r.get("note") or "") for r in limits):
         out.append(f"<p><b>Flashback and blowoff together.</b> The window between the port's flashback and blowoff "
-                   f"margins {_e(ratio)}: both critical gradients are S_L²/α_u times a constant. Classic port "
+                   f"margins {escape(ratio)}: both critical gradients are S_L²/α_u times a constant. Classic port "
                    "stability data show a wider band on the rich side, where secondary air holds the flame base "
                    "(Edmondson &amp; Heap 1971), and laminar hydrogen port flames hardly lift. The windows marked "
                    "so in limits.csv (column note) rest on it.</p>")
@@ -739,7 +707,7 @@ def _premixer_limit_words(study: Study) -> list[str]:
 def _provenance(study: Study, comparison: Comparison | None) -> list[str]:
     """Where the numbers come from: mechanism(s), transport, numerics, software, config."""
     n = NUMERICS[study.resolution]
-    return ["<h2>Provenance</h2>", _table(["", ""], [
+    return ["<h2>Provenance</h2>", html_table(["", ""], [
         *([["mechanism", f"{study.mechanism} ({study.mechanism_path})"],
            ["mechanism built for", mechanism_scope(detailed_path(study))],
            *([["mechanism reduction", reduction_note(study)]] if study.reduced is not None else []),
@@ -764,9 +732,9 @@ def _charts_section(out_dir: Path) -> list[str]:
         svg = out_dir / "charts" / f"{name}.svg"
         if svg.is_file():
             drawn.add(name)
-            parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{_e(caption)}</figcaption></figure>")
+            parts.append(f"<figure id='{name}'>{_inline_svg(svg)}<figcaption>{escape(caption)}</figcaption></figure>")
     if drawn and (skipped := not_drawn(drawn)):
-        parts.append("<p>Not drawn for this study: " + "; ".join(f"{_e(n)} ({_e(why)})" for n, why in skipped)
+        parts.append("<p>Not drawn for this study: " + "; ".join(f"{escape(n)} ({escape(why)})" for n, why in skipped)
                      + ".</p>")
     return parts
 
@@ -774,7 +742,7 @@ def _charts_section(out_dir: Path) -> list[str]:
 def _warnings_section(rows: list[dict]) -> list[str]:
     """The points that carry a warning (outside the method's or mechanism's range, or unstable), each with it."""
     parts: list[str] = []
-    warned, more = _first([r for r in rows if r.get("warnings")], "results.csv (warnings)")
+    warned, more = first_rows([r for r in rows if r.get("warnings")], "results.csv (warnings)")
     if warned:
         parts.append("<h2 id='warnings'>Points with warnings: outside the range of the method or mechanism, or "
                      "unstable</h2>" + more)
@@ -783,7 +751,7 @@ def _warnings_section(rows: list[dict]) -> list[str]:
                      "indications only), or its flame is thermodiffusively unstable (the real flame wrinkles and "
                      "runs faster than S_L, so margins built on S_L are optimistic there). Each warning says which."
                      "</p>")
-        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
+        parts.append(html_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "warning"],
                             [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["warnings"]] for r in warned]))
     return parts
@@ -798,32 +766,32 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
     (results.Comparison) adds the mechanism comparison; ``study`` and ``rows`` are then the
     reference mechanism's."""
     out_dir = Path(out_dir)
-    parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{_e(study.title)}</title>"
+    parts = [f"<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'><title>{escape(study.title)}</title>"
              f"<style>{CSS}</style></head><body>",
-             f"<h1>{_e(study.title)}</h1>",
+             f"<h1>{escape(study.title)}</h1>",
              "<p>How fast does the premixed flame run and how thick is it, over this study's window of fuels, "
              "blends, equivalence ratios, pressures and preheat temperatures; and, where a burner is described, "
              "how close each mixture comes to flashback and blowoff. Computed with detailed chemistry "
              "(freely propagating 1D laminar flames).</p>",
-             f"<div class='caution'><b>Caution.</b> {_e(CAUTION)}</div>"]
+             f"<div class='caution'><b>Caution.</b> {escape(CAUTION)}</div>"]
 
     if comparison is not None:
-        parts.append(f"<p><b>{len(comparison.names)} mechanisms compared</b> ({_e(', '.join(comparison.names))}): "
-                     f"the design sections below read the reference, {_e(comparison.names[0])}; "
+        parts.append(f"<p><b>{len(comparison.names)} mechanisms compared</b> ({escape(', '.join(comparison.names))}): "
+                     f"the design sections below read the reference, {escape(comparison.names[0])}; "
                      "<a href='#mechanisms'>Mechanisms compared</a> shows how far the others differ.</p>")
     parts += _study_section(study, rows, gases)
 
-    parts.append("<h2>Key numbers</h2>" + _table(["", "value", "where"], limit_key_numbers(study, limits)
+    parts.append("<h2>Key numbers</h2>" + html_table(["", "value", "where"], limit_key_numbers(study, limits)
                                                  + key_numbers(study, rows), {1}))
     summary = margin_summary(to_dataset(study, rows) if dataset is None else dataset, study.burner)
     if summary:
         b = study.burner
         assert b is not None  # margin_summary is empty without a burner
-        summary, more = _first(summary, "results.csv", order=lambda s: min(
+        summary, more = first_rows(summary, "results.csv", order=lambda s: min(
             (s["min_flashback_margin"] or math.inf) / b.min_flashback_margin,
             (s["min_blowoff_margin"] or math.inf) / b.blowoff[1]))
         core = study.premixer is not None  # a premixer's verdict rests on its core-flow flashback margin
-        parts.append(_table(["gas", "p [bar]", "T_u [K]"] + (["min core-flow flashback margin (φ)"] if core else [])
+        parts.append(html_table(["gas", "p [bar]", "T_u [K]"] + (["min core-flow flashback margin (φ)"] if core else [])
                             + [f"min {'laminar ' if core else ''}flashback margin (φ)", f"min {b.blowoff[2]} margin (φ)",
                                "points ok (verdicts)"],
                             [[gas_label({**s, "blend_with": study.blend_with}), f"{s['pressure_bar']:g}",
@@ -844,17 +812,17 @@ def write_report(study: Study, rows: list[dict], out_dir: Path, gases: list[dict
 
     parts += _charts_section(out_dir)
 
-    failed, more = _first([r for r in rows if r["status"] != "ok"], "results.csv (status, message)")
+    failed, more = first_rows([r for r in rows if r["status"] != "ok"], "results.csv (status, message)")
     if failed:
         parts.append("<h2>Points without a flame</h2>" + more)
-        parts.append(_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "reason"],
+        parts.append(html_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "reason"],
                             [[gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
                               f"{r['unburned_temperature_K']:g}", r["status"], r["message"]] for r in failed]))
 
     parts += _warnings_section(rows)
 
     parts += _provenance(study, comparison)
-    parts.append(f"<div class='caution'><b>Caution.</b> {_e(CAUTION)} Flashback, blowoff and quenching "
+    parts.append(f"<div class='caution'><b>Caution.</b> {escape(CAUTION)} Flashback, blowoff and quenching "
                  "indicators rest on correlations whose constants are known to a factor of about 1.5-2; they rank "
                  "mixtures and show trends, they do not replace certification tests.</div>")
     parts.append(_points_appendix(study, rows, comparison))

@@ -108,7 +108,7 @@ def fresh_mixture(mechanism_path: str, sha256: str, X: dict, T_u: float, P: floa
     return {**mixture_properties(mechanism_path, sha256, X, T_u, P), "unburned_density_kg_m3": rho}
 
 
-def _extra(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> dict:
+def extra_result(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> dict:
     """The store's result dict of an extra solve: ``compute()`` -> (metrics, message), timed (wall
     and CPU); an exception it raises is a failure recorded with its reason ('not converged' and
     the exception's first line: the read-out says why, the next run tries again)."""
@@ -124,10 +124,10 @@ def _extra(task: dict, start: str, compute: Callable[[], tuple[dict, str]]) -> d
             "cpu_seconds": time.process_time() - cpu0}
 
 
-def _plain(v: object) -> object:
+def plain_json(v: object) -> object:
     """JSON-ready: arrays and NumPy scalars as lists and floats, dicts of them alike."""
     if isinstance(v, dict):
-        return {k: _plain(x) for k, x in v.items()}
+        return {k: plain_json(x) for k, x in v.items()}
     return v.tolist() if hasattr(v, "tolist") else v
 
 

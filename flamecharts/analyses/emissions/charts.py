@@ -18,7 +18,7 @@ import numpy as np
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
-from ...outputs.charts.phi_charts import _phi_chart
+from ...outputs.charts.phi_charts import phi_chart
 from ...outputs.charts.registry import MAX_CURVES, ChartData, chart, spread
 from ...outputs.charts.style import MARKERS, colour_scale, empty_note, figure, finish, panels as panel_keys, sparse_log_yticks
 from .table import of
@@ -53,7 +53,7 @@ def _reference(study: Study) -> tuple[float, float]:
        has_emissions)
 def nox_phi_chart(data: ChartData, study: Study) -> Figure:
     ref, t = _reference(study)
-    return _phi_chart(data, study, "nox_ppmvd_at_reference_o2", 1.0, f"NOx at {ref:g} % O2, dry [ppm]",
+    return phi_chart(data, study, "nox_ppmvd_at_reference_o2", 1.0, f"NOx at {ref:g} % O2, dry [ppm]",
                       ("NOx vs equivalence ratio",
                        f"How much NOx after {t:g} ms of burned gas? ({SCREENING}; log scale)"), log_y=True)
 

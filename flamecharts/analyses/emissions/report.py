@@ -4,7 +4,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING
 
 from ...columns import gas_label
-from ...outputs.report import _e, _first, _table
+from ...outputs.html_blocks import escape, first_rows, html_table
 from ...physics.limits import nox_scope
 from .dataset import emission_sentences
 from .table import of
@@ -37,7 +37,7 @@ def emissions_section(study: Study, rows: list[dict]) -> list[str]:
     t, ref = 1e3 * em.design_residence_time_s, em.reference_oxygen_percent
     have = [r for r in rows if r["status"] == "ok" and r.get("nox_ppmvd_at_reference_o2") is not None]
     missing = [r for r in rows if r["status"] == "ok" and r.get("emissions_note")]
-    table, more = _first(have, "results.csv and emissions.csv")
+    table, more = first_rows(have, "results.csv and emissions.csv")
     basis = "gross (higher)" if em.heating_value == "gross" else "net (lower)"
     parts = ["<h2 id='emissions'>Emissions</h2>",
              f"<p>The burned gas of each burning flame after {', '.join(f'{1e3 * v:g}' for v in em.residence_times_s)} "
@@ -52,21 +52,21 @@ def emissions_section(study: Study, rows: list[dict]) -> list[str]:
              "real exhaust), and its CO levels off at the hot gas's equilibrium CO, which is not a stack value: "
              "a flue gas that cools burns most of that CO out. Hydrogen is not counted as unburned fuel (the hot "
              "gas holds equilibrium H2 whatever the fuel). "
-             f"Mechanism: {_e(nox_scope(study.mechanism))}. A laminar flame with a plug flow has no unmixedness, "
+             f"Mechanism: {escape(nox_scope(study.mechanism))}. A laminar flame with a plug flow has no unmixedness, "
              "recirculation or heat loss, which set a real combustor's NOx: compare blends and settings with these "
              "numbers, and confirm absolute values by measurement.</p>"]
     sentences = emission_sentences(study, rows)
     if sentences:
-        parts.append("<ul>" + "".join(f"<li>{_e(x)}</li>" for x in sentences) + "</ul>")
+        parts.append("<ul>" + "".join(f"<li>{escape(x)}</li>" for x in sentences) + "</ul>")
     if missing:
-        parts.append(f"<p>{len(missing)} burning point(s) have no emissions: {_e(missing[0]['emissions_note'])}.</p>")
+        parts.append(f"<p>{len(missing)} burning point(s) have no emissions: {escape(missing[0]['emissions_note'])}.</p>")
 
     def num(v: float | None) -> str:
         return "" if v is None else f"{v:,.0f}" if abs(v) >= 1000 else f"{v:.3g}"
     at = f" [ppm @{ref:g} % O2]"
     header = ["gas", "φ", "p [bar]", "T_u [K]", "NOx" + at, "CO" + at, "flame-zone NO" + at, "equilibrium NO" + at,
               "equilibrium CO" + at, "read from"] + (["NOx [mg/kWh]", "CO [mg/kWh]"] if em.specific else [])
-    parts.append(more + _table(header, [
+    parts.append(more + html_table(header, [
         [gas_label(r), f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}", f"{r['unburned_temperature_K']:g}",
          num(r["nox_ppmvd_at_reference_o2"]), num(r["co_ppmvd_at_reference_o2"]),
          num(r["flame_zone_no_ppmvd_at_reference_o2"]), num(r["equilibrium_no_ppmvd_at_reference_o2"]),

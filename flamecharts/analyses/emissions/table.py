@@ -4,7 +4,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from ...config import AnalysisTable, TableContext, _axis, _check_keys, _number, _string, _suggest
+from ...config import AnalysisTable, TableContext, check_keys, parse_axis, parse_number, parse_string, suggest_allowed
 from ...errors import ConfigError, show
 from ...physics.emissions import AIR_O2_PERCENT
 
@@ -49,7 +49,7 @@ def parse(t: Any, ctx: TableContext) -> Emissions:
     stored profiles (the burned gas is read from each flame's profile)."""
     if not isinstance(t, dict):
         raise ConfigError("'emissions' must be a table")
-    _check_keys(t, KEYS, "emissions.")
+    check_keys(t, KEYS, "emissions.")
     lacking = [m.name for m in ctx.mechanisms if not m.nitrogen_chemistry]
     if lacking:
         raise ConfigError(f"[emissions] needs a mechanism that forms NO from N2, and {lacking[0]} has no nitrogen "
@@ -58,24 +58,24 @@ def parse(t: Any, ctx: TableContext) -> Emissions:
     if not ctx.keep_profiles:
         raise ConfigError("[emissions] reads each flame's burned gas from its stored profile, and keep_profiles = "
                           "false stores none; remove one of the two")
-    times = tuple(sorted(set(_axis(t.get("residence_times_ms", list(DEFAULT_RESIDENCE_TIMES_MS)),
+    times = tuple(sorted(set(parse_axis(t.get("residence_times_ms", list(DEFAULT_RESIDENCE_TIMES_MS)),
                                    "emissions.residence_times_ms"))))
     if len(times) > MAX_RESIDENCE_TIMES or times[0] <= 0 or times[-1] > 10000:
         raise ConfigError(f"'emissions.residence_times_ms' must list 1 to {MAX_RESIDENCE_TIMES} times above 0 and up "
                           "to 10,000 ms (milliseconds after the flame's peak heat release), e.g. [5, 20, 50]")
-    design = _number(t["design_residence_time_ms"], "emissions.design_residence_time_ms") if \
+    design = parse_number(t["design_residence_time_ms"], "emissions.design_residence_time_ms") if \
         "design_residence_time_ms" in t else (DEFAULT_DESIGN_RESIDENCE_TIME_MS if DEFAULT_DESIGN_RESIDENCE_TIME_MS in times
                                               else times[-1])
     if design not in times:
         raise ConfigError(f"'emissions.design_residence_time_ms' is {design:g}; allowed: one of residence_times_ms "
                           f"({', '.join(f'{v:g}' for v in times)})")
-    ref = _number(t.get("reference_oxygen_percent", 15.0), "emissions.reference_oxygen_percent")
+    ref = parse_number(t.get("reference_oxygen_percent", 15.0), "emissions.reference_oxygen_percent")
     if not 0.0 <= ref < AIR_O2_PERCENT:
         raise ConfigError(f"'emissions.reference_oxygen_percent' is {ref:g}; allowed: 0 to below {AIR_O2_PERCENT:g} "
                           "(dry O2 the concentrations are corrected to: 15 for gas turbines, 3 or 0 for appliances)")
-    basis = _string(t.get("heating_value", "gross"), "emissions.heating_value")
+    basis = parse_string(t.get("heating_value", "gross"), "emissions.heating_value")
     if basis not in HEATING_VALUE_BASES:
-        raise ConfigError(f"'emissions.heating_value' is {basis!r}{_suggest(basis, HEATING_VALUE_BASES)} (the heat "
+        raise ConfigError(f"'emissions.heating_value' is {basis!r}{suggest_allowed(basis, HEATING_VALUE_BASES)} (the heat "
                           "input of mg/kWh: gross = higher heating value, as appliance NOx classes use)")
     flags = {k: t.get(k, True) for k in ("specific", "equal_flame_temperature")}
     for k, v in flags.items():

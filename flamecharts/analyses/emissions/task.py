@@ -8,7 +8,7 @@ from __future__ import annotations
 from ...chemistry.emissions import burned_gas_history, equilibrium_temperature_K, phi_at_flame_temperature
 from ...chemistry.mechanism import solution
 from ...physics.mixtures import unburned_mixture
-from ...sweep.worker import _extra, _plain
+from ...sweep.worker import extra_result, plain_json
 
 #: The package files (relative to flamecharts/) these tasks' answers depend on besides this one:
 #: part of the worker's code fingerprint (sweep.worker.code_fingerprint).
@@ -20,7 +20,7 @@ def emissions_task(task: dict) -> dict:
     (chemistry.emissions.burned_gas_history, from the peak heat release), as plain lists; a
     plain result dict in the store's form (runs in a worker)."""
     gas = solution(task["mechanism_path"], None, task["mechanism_sha256"])
-    return _extra(task, "warm", lambda: ({k: _plain(v) for k, v in
+    return extra_result(task, "warm", lambda: ({k: plain_json(v) for k, v in
                                           burned_gas_history(task["profile"], gas, task["times_s"]).items()}, ""))
 
 
@@ -38,4 +38,4 @@ def equal_tad_task(task: dict) -> dict:
         return {"phi": phi, "target_T_K": target}, ("" if phi is not None else
                                                     f"the blend does not reach {target:.0f} K on this side of "
                                                     "stoichiometric")
-    return _extra(task, "fresh", match)
+    return extra_result(task, "fresh", match)

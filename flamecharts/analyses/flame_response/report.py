@@ -7,7 +7,8 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING
 
-from ...outputs.report import _first, _table, by_gas_and_condition
+from ...outputs.html_blocks import first_rows, html_table
+from ...outputs.report import by_gas_and_condition
 from .table import of
 
 if TYPE_CHECKING:
@@ -33,7 +34,7 @@ def response_section(study: Study, rows: list[dict]) -> list[str]:
                       f"{min(ze):.1f}-{max(ze):.1f}" if ze else "",
                       f"{min(ma)[0]:+.2f} (φ {min(ma)[1]:g})" if ma else "",
                       ", ".join(f"{v:g}" for v in cellular) if cellular else ("none" if ze else "")])
-    table, more = _first(table, "results.csv")
+    table, more = first_rows(table, "results.csv")
     fr = of(study)
     asked = fr is not None and fr.zeldovich
     return ["<h2 id='flame-response'>Flame response to stretch</h2>",
@@ -51,7 +52,7 @@ def response_section(study: Study, rows: list[dict]) -> list[str]:
                if asked and fr is not None else
                ". Add a [flame_response] table to the study for the Zeldovich and Markstein numbers "
                              "and the instability flag (two extra flames per point).") + "</p>",
-            _table(["gas", "p [bar]", "T_u [K]", "Le deficient reactant", "Ze", "lowest Ma_u (φ)", "cellular at φ"],
+            html_table(["gas", "p [bar]", "T_u [K]", "Le deficient reactant", "Ze", "lowest Ma_u (φ)", "cellular at φ"],
                    table, {1, 2})
             + more]
 

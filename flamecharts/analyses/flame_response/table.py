@@ -4,7 +4,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from ...config import AnalysisTable, TableContext, _check_keys, _positive
+from ...config import AnalysisTable, TableContext, check_keys, parse_positive
 from ...errors import ConfigError, show
 from ...physics.flame_response import DEFAULT_INERT_STEP
 
@@ -39,7 +39,7 @@ def parse(t: Any, ctx: TableContext) -> FlameResponse:
     """The [flame_response] table: ``zeldovich`` true or false, ``inert_step`` a mole fraction in (0, 0.1]."""
     if not isinstance(t, dict):
         raise ConfigError("'flame_response' must be a table")
-    _check_keys(t, KEYS, "flame_response.")
+    check_keys(t, KEYS, "flame_response.")
     z = t.get("zeldovich", True)
     if not isinstance(z, bool):
         raise ConfigError(f"'flame_response.zeldovich' must be true or false, got {show(z)}")
@@ -47,7 +47,7 @@ def parse(t: Any, ctx: TableContext) -> FlameResponse:
     if given is not None and (isinstance(given, bool) or not isinstance(given, (int, float))):
         raise ConfigError(f"'flame_response.inert_step' must be a number above 0, at most 0.1 (a mole fraction of "
                           f"the mixture: 0.5 % is 0.005), got {show(given)}")
-    step = _positive(t, "inert_step", "flame_response")
+    step = parse_positive(t, "inert_step", "flame_response")
     if step is not None and step > 0.1:
         raise ConfigError(f"'flame_response.inert_step' is {step:g}; allowed: above 0, at most 0.1 (a mole "
                           "fraction of the mixture: 0.5 % is 0.005)")

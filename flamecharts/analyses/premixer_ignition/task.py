@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from ...chemistry.ignition import ignition_delay_peak
 from ...chemistry.mechanism import mixture_key
-from ...sweep.worker import _extra
+from ...sweep.worker import extra_result
 
 #: The package files (relative to flamecharts/) the task's answer depends on besides this one:
 #: part of the worker's code fingerprint (sweep.worker.code_fingerprint).
@@ -22,6 +22,6 @@ def premixer_task(task: dict) -> dict:
     def delay(X: dict) -> float:
         return ignition_delay_peak(task["mechanism_path"], mixture_key(X), float(task["T_u"]), float(task["P"]),
                                    float(task["horizon_s"]))
-    return _extra(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
+    return extra_result(task, "fresh", lambda: ({"premixer_ignition_delay_s": delay(task["X"]),
                                            "premixer_horizon_s": task["horizon_s"],
                                            "injection_ignition_delays_s": [delay(X) for X in task["injection"]]}, ""))

@@ -8,7 +8,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING
 
 from ...columns import gas_label
-from ...outputs.report import _first, _num, _table
+from ...outputs.html_blocks import first_rows, html_table, optional
 from .dataset import FILE
 
 if TYPE_CHECKING:
@@ -23,12 +23,12 @@ def records_section(study: Study, records: dict[str, list[dict]]) -> list[str]:
         return []
     table = [[gas_label(r) + f" in {r['oxidizer']}", f"{r['equivalence_ratio']:g}", f"{r['pressure_bar']:g}",
               f"{r['unburned_temperature_K']:g}", r["status"],
-              _num(None if r["laminar_flame_speed_m_s"] is None else 100 * r["laminar_flame_speed_m_s"], ".1f"),
-              _num(r["extinction_strain_rate_1_s"], ".4g") or (r["message"] if r["status"] == "ok" else ""),
-              _num(r["markstein_number_strain"], "+.2f"), _num(r["effective_lewis_number"], ".2f"),
-              _num(r["markstein_number_unburned"], "+.2f"), _num(r["extinction_strain_margin"], ".3g"),
-              _num(r["strained_flames"], "d"), _num(r["ladder_seconds"], ".0f")] for r in stretch]
-    table, more = _first(table, "stretch.csv")
+              optional(None if r["laminar_flame_speed_m_s"] is None else 100 * r["laminar_flame_speed_m_s"], ".1f"),
+              optional(r["extinction_strain_rate_1_s"], ".4g") or (r["message"] if r["status"] == "ok" else ""),
+              optional(r["markstein_number_strain"], "+.2f"), optional(r["effective_lewis_number"], ".2f"),
+              optional(r["markstein_number_unburned"], "+.2f"), optional(r["extinction_strain_margin"], ".3g"),
+              optional(r["strained_flames"], "d"), optional(r["ladder_seconds"], ".0f")] for r in stretch]
+    table, more = first_rows(table, "stretch.csv")
     return ["<h2 id='stretch'>Strained flames</h2>",
             "<p>Twin premixed counterflow flames (Cantera), nozzle to symmetry plane 400 flame thicknesses (2-30 mm) "
             "α_u/S_L, from a weakly strained flame (nozzle velocity 2 S_L) up by factors of 1.6 in nozzle velocity "
@@ -46,7 +46,7 @@ def records_section(study: Study, records: dict[str, list[dict]]) -> list[str]:
             "strain the burner imposes where its flame is held (the wall velocity gradient at the rim, or approach "
             "velocity over bluff-body size): a blowoff indicator beside the Karlovitz and Damköhler ones; a "
             "margin near or below a few means the flame base is strained toward extinction.</p>",
-            _table(["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "K_ext [1/s]", "Ma (strain)",
+            html_table(["gas", "φ", "p [bar]", "T_u [K]", "status", "S_L [cm/s]", "K_ext [1/s]", "Ma (strain)",
                     "Le_eff", "Ma_u (theory)", "K_ext / burner strain", "flames", "time [s]"], table,
                    {1, 2, 3, 5, 6, 7, 8, 9, 10, 11, 12}) + more]
 

@@ -5,7 +5,7 @@ import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
-from ...config import AnalysisTable, TableContext, _axis, _check_keys, _string_list
+from ...config import AnalysisTable, TableContext, check_keys, parse_axis, parse_string_list
 from ...errors import ConfigError
 
 if TYPE_CHECKING:
@@ -43,12 +43,12 @@ def of(study: Study) -> Stretch | None:
 def _subset(t: dict, key: str, allowed: tuple) -> tuple:
     """``stretch.KEY``: the listed values of the sweep axis ``allowed``, in the sweep's order."""
     if key in ("fuel", "oxidizer"):
-        return _string_list(t[key], f"stretch.{key}", allowed)
+        return parse_string_list(t[key], f"stretch.{key}", allowed)
     if t[key] == []:
         raise ConfigError(f"'stretch.{key}' is empty; give at least one of the swept values "
                           f"({', '.join(f'{a:g}' for a in allowed)})"
                           + ("" if key == "equivalence_ratio" else " or leave the key out (all of them)"))
-    values = _axis(t[key], f"stretch.{key}")
+    values = parse_axis(t[key], f"stretch.{key}")
     for v in values:
         if not any(math.isclose(v, a, rel_tol=1e-9, abs_tol=1e-12) for a in allowed):
             raise ConfigError(f"'stretch.{key}' lists {v:.10g}, which the sweep does not have; allowed: "
@@ -61,7 +61,7 @@ def parse(t: Any, ctx: TableContext) -> Stretch:
     except equivalence_ratio, which must be given)."""
     if not isinstance(t, dict):
         raise ConfigError("'stretch' must be a table")
-    _check_keys(t, KEYS, "stretch.")
+    check_keys(t, KEYS, "stretch.")
     axes = ctx.axes
     if "equivalence_ratio" not in t:
         raise ConfigError("[stretch] needs 'equivalence_ratio': the swept values that get a strained-flame ladder "

@@ -88,9 +88,9 @@ def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float
                                        markersize=4)
 
 
-def _phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: str, title: tuple[str, str],
-               companion: tuple[str, str] | None = None, floor_at_preheat: bool = False,
-               band: str | None = None, error_bars: str | None = None, log_y: bool = False) -> Figure:
+def phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: str, title: tuple[str, str],
+              companion: tuple[str, str] | None = None, floor_at_preheat: bool = False,
+              band: str | None = None, error_bars: str | None = None, log_y: bool = False) -> Figure:
     """One panel per (pressure, preheat), one curve per gas. ``band``: a column of percent
     drawn as a shaded band around each curve (the kinetic 1-sigma band); ``error_bars``: a
     column of percent drawn as error bars (the numerical band). ``log_y``: a logarithmic axis
@@ -173,7 +173,7 @@ def flame_speed_chart(data: ChartData, study: Study) -> Figure:
     """Laminar flame speed [cm/s] vs equivalence ratio: what each mixture's flame runs at; with
     [uncertainty], the kinetic band shaded and (error_bars = true) the numerical band as bars."""
     u = study.uncertainty
-    return _phi_chart(data, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
+    return phi_chart(data, study, "laminar_flame_speed_m_s", 100.0, "Laminar flame speed S_L [cm/s]",
                       ("Laminar flame speed vs equivalence ratio",
                        "How fast does each mixture's flame run? (flashback: compare with port velocity)"),
                       band="flame_speed_kinetic_uncertainty_percent" if u is not None else None,
@@ -185,7 +185,7 @@ def flame_speed_chart(data: ChartData, study: Study) -> Figure:
        "gaps and need finer grids in CFD.")
 def thermal_thickness_chart(data: ChartData, study: Study) -> Figure:
     """Thermal thickness [mm] vs equivalence ratio: how thick the flame is."""
-    return _phi_chart(data, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
+    return phi_chart(data, study, "thermal_thickness_mm", 1.0, "Flame thickness [mm]",
                       ("Flame thickness vs equivalence ratio",
                        "How thick is each flame? Solid: thermal δ_T; dotted: reaction zone"),
                       companion=("reaction_zone_thickness_mm",
@@ -200,7 +200,7 @@ def thermal_thickness_chart(data: ChartData, study: Study) -> Figure:
        any_flame)
 def flame_temperature_chart(data: ChartData, study: Study) -> Figure:
     """Adiabatic flame temperature [K] vs equivalence ratio: how hot each mixture burns."""
-    return _phi_chart(data, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
+    return phi_chart(data, study, "adiabatic_flame_temperature_K", 1.0, "Adiabatic flame temperature T_ad [K]",
                       ("Adiabatic flame temperature vs equivalence ratio",
                        "How hot does each mixture burn? (no flame: marked at the preheat temperature)"),
                       floor_at_preheat=True)
