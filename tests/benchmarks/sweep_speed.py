@@ -1,6 +1,6 @@
 """Sweep speed: flamecharts against solving every flame alone, in one process tree.
 
-Run:  python tests/benchmarks/sweep_speed.py [--size small|full] [--jobs 2] [--sample 8]
+Run:  python tests/benchmarks/sweep_speed.py [--size small|full] [--jobs 2] [--sample 8] [--reduction]
 
 One study is solved two ways:
 
@@ -23,6 +23,14 @@ time. Sizes:
   ratios x 2 pressures (54 points; about 2 minutes on 2 cores)
 - full: gri30.yaml, a natural gas blended with 0/15/30 % hydrogen x 9 equivalence
   ratios x 1 and 5 bar (54 points; about 10 minutes on 2 cores)
+
+``--reduction`` (issue 32): after the baseline, the same study with a ``[reduction]`` table (its
+defaults: flame speed 1 %) is solved in a second fresh folder, the reduction included in its wall
+time; its figures (``reduced_*``) sit beside the detailed run's, against the same solo
+detailed-mechanism solves and the same floor, plus the floor of the skeletal mechanism (its
+flames re-solved on their own grids) and the largest flame-speed deviation of the reduced sweep
+from the detailed one over the points both solved. The extension is left out in this mode (a new
+pressure would re-reduce).
 
 The last line printed is one JSON object with every figure (times in seconds; CPU
 times are per-process CPU, wall times are elapsed).
@@ -83,12 +91,13 @@ unburned_temperature_K = [300.0]
 """
 
 
-def write_study(folder: Path, size: str, pressures: str | None = None, name: str = "bench") -> Path:
+def write_study(folder: Path, size: str, pressures: str | None = None, name: str = "bench",
+                reduction: bool = False) -> Path:
     spec = dict(STUDIES[size])
     if pressures is not None:
         spec["pressures"] = pressures
     path = folder / f"{name}.toml"
-    path.write_text(textwrap.dedent(TEMPLATE.format(size=size, **spec)))
+    path.write_text(textwrap.dedent(TEMPLATE.format(size=size, **spec)) + ("\n[reduction]\n" if reduction else ""))
     return path
 
 
@@ -156,6 +165,70 @@ def timed_run(study, out: Path, jobs: int) -> tuple[object, float, list[dict]]:
     return summary, time.perf_counter() - t0, finished
 
 
+def _condition(row: dict) -> tuple:
+    return row["blend_fraction"], row["equivalence_ratio"], row["pressure_bar"], row["unburned_temperature_K"]
+
+
+def reduced_run(tmp: Path, size: str, jobs: int, sample: list, detailed_rows: list[dict], baseline_s: float,
+                floor_s: float) -> dict:
+    """The study with [reduction] in a fresh folder: its figures against the detailed run's baseline
+    (mean wall of a solo detailed solve) and floor, the skeletal floor on the same sample, and its
+    flame-speed deviation from the detailed sweep over the points both solved."""
+    study = load_study(write_study(tmp, size, name="bench_reduced", reduction=True))
+    events: list[float] = []
+
+    def progress(pr):
+        if pr.what == "mechanism reduction":
+            events.append(pr.elapsed_s)
+        elif pr.last is not None:
+            finished.append(pr.last)
+
+    finished: list[dict] = []
+    t0 = time.perf_counter()
+    with MemoryWatch() as mem:
+        summary = run_study(study, out_dir=tmp / "out_reduced", jobs=jobs, progress=progress)
+    wall = time.perf_counter() - t0
+    reduction_s = max(events, default=0.0)
+    r = summary.study.reduced
+    n = len(summary.rows)
+    log(f"reduced: {wall:.1f} s wall (reduction {reduction_s:.1f} s), {summary.solved} solved, {summary.failed} "
+        f"failed; {summary.reduction_note}")
+    detailed = {_condition(row): row for row in detailed_rows if row["status"] == "ok"}
+    deviations = sorted(((abs(row["laminar_flame_speed_m_s"] / detailed[_condition(row)]["laminar_flame_speed_m_s"]
+                               - 1.0), _condition(row)) for row in summary.rows
+                         if row["status"] == "ok" and _condition(row) in detailed), reverse=True)
+    gas = ct.Solution(str(summary.study.mechanism_path), transport_model="mixture-averaged")
+    by_condition = {(p.blend_fraction, p.phi, p.pressure_bar, p.T_u): p for p in plan_points.points(summary.study)}
+    with Store(tmp / "out_reduced" / DB_NAME, readonly=True) as store:
+        pairs = [(p, store.profile(p.key)) for p in
+                 (by_condition[(q.blend_fraction, q.phi, q.pressure_bar, q.T_u)] for q in sample)]
+    skeletal_floors = [floor_flame(gas, p, profile) for p, profile in pairs]
+    cpu = [f["cpu_seconds"] for f in finished]
+    solve_wall = wall - reduction_s
+    return {
+        "reduced": bool(r and r.reduced),
+        "reduced_species": [len(r.species), r.detailed_size[0]] if r and r.reduced else None,
+        "reduced_reactions": [r.reactions, r.detailed_size[1]] if r and r.reduced else None,
+        "reduced_stated_flame_speed_error": r.flame_speed_error if r else None,
+        "reduced_reduction_s": reduction_s,
+        "reduced_reduction_cpu_s": dict(r.cpu_s) if r else None,
+        "reduced_tool_wall_s": wall,
+        "reduced_tool_s_per_point": wall / n,
+        "reduced_speedup": baseline_s / (wall / n),
+        "reduced_speedup_without_reduction": baseline_s / (solve_wall / n),
+        "reduced_tool_cpu_s_per_point": statistics.median(cpu),
+        "reduced_tool_cpu_s_fresh": [f["cpu_seconds"] for f in finished if f["start"] == "fresh"],
+        "reduced_ratio_to_floor": statistics.median(cpu) / floor_s,
+        "reduced_floor_s_per_point": statistics.median(skeletal_floors),
+        "reduced_ratio_to_own_floor": statistics.median(cpu) / statistics.median(skeletal_floors),
+        "reduced_max_rel_diff_from_detailed": deviations[0][0] if deviations else None,
+        "reduced_max_rel_diff_at": list(deviations[0][1]) if deviations else None,
+        "reduced_points_compared": len(deviations),
+        "reduced_failed": summary.failed, "reduced_no_flame": summary.no_flame,
+        "reduced_peak_rss_mb_per_worker": mem.peak_mb,
+    }
+
+
 def log(msg: str) -> None:
     print(msg, file=sys.stderr, flush=True)
 
@@ -166,6 +239,8 @@ def main(argv=None) -> int:
     ap.add_argument("--jobs", type=int, default=2)
     ap.add_argument("--sample", type=int, default=8, help="points the baseline is timed on")
     ap.add_argument("--seed", type=int, default=2026)
+    ap.add_argument("--reduction", action="store_true",
+                    help="also solve the study with [reduction] (its defaults); no extension then")
     args = ap.parse_args(argv)
     jobs = resolve_jobs(args.jobs)
     tmp = Path(tempfile.mkdtemp(prefix="flamecharts-bench-"))
@@ -175,7 +250,7 @@ def main(argv=None) -> int:
 
     secs = plan_schedule.default_flame_seconds(len(study.atoms))
     estimate_s = plan_schedule.estimate_run_seconds(plan_tree.warm_tree(pts), jobs, secs["fresh"], secs["warm"])
-    log(f"{len(pts)} points, {args.size}; estimate before the run {estimate_s:.0f} s on {jobs} workers")
+    log(f"{len(pts)} points, {args.size}; estimate before the run {estimate_s:.0f} s on {jobs} workers; folder {tmp}")
 
     with MemoryWatch() as mem:
         summary, tool_wall, finished = timed_run(study, out, jobs)
@@ -213,12 +288,17 @@ def main(argv=None) -> int:
     rerun_cli_s = time.perf_counter() - t0
     assert cli.returncode == 0 and "solved 0 now" in cli.stdout, cli.stderr
 
-    spec_p = json.loads(STUDIES[args.size]["pressures"])
-    extended = load_study(write_study(tmp, args.size, json.dumps(sorted(spec_p + [STUDIES[args.size]["extend_bar"]]))))
-    with MemoryWatch() as mem2:
-        ext, ext_wall, ext_finished = timed_run(extended, out, jobs)
-    new_points = ext.solved
-    log(f"extension by {STUDIES[args.size]['extend_bar']} bar: {new_points} new points in {ext_wall:.1f} s")
+    reduced = reduced_run(tmp, args.size, jobs, sample, summary.rows, statistics.mean(base),
+                          statistics.median(floors)) if args.reduction else {}
+    new_points, ext_wall, ext_finished, mem2_peak = 0, 0.0, [], 0.0
+    if not args.reduction:
+        spec_p = json.loads(STUDIES[args.size]["pressures"])
+        extended = load_study(write_study(tmp, args.size, json.dumps(sorted(spec_p + [STUDIES[args.size]["extend_bar"]]))))
+        with MemoryWatch() as mem2:
+            ext, ext_wall, ext_finished = timed_run(extended, out, jobs)
+        new_points = ext.solved
+        log(f"extension by {STUDIES[args.size]['extend_bar']} bar: {new_points} new points in {ext_wall:.1f} s")
+        mem2_peak = mem2.peak_mb
 
     n = len(pts)
     floor = statistics.median(floors)
@@ -241,12 +321,13 @@ def main(argv=None) -> int:
         "extend_s_per_new_point": ext_wall / max(new_points, 1),
         "extend_cpu_s_per_new_point": statistics.median([f["cpu_seconds"] for f in ext_finished] or [0]),
         "extend_ratio_to_floor": ext_wall / max(new_points, 1) / floor,
-        "peak_rss_mb_per_worker": max(mem.peak_mb, mem2.peak_mb),
+        "peak_rss_mb_per_worker": max(mem.peak_mb, mem2_peak),
         "check_estimate_s": estimate_s,
         "tool_wall_s": tool_wall,
         "estimate_ratio": estimate_s / tool_wall,
         "failed": summary.failed, "no_flame": summary.no_flame,
         "cantera": ct.__version__, "cpus": psutil.cpu_count(),
+        **reduced,
     }
     print(json.dumps({k: (round(v, 4) if isinstance(v, float) else v) for k, v in figures.items()}))
     return 0
