@@ -471,6 +471,8 @@ def parse_axis(value: Any, where: str) -> tuple[float, ...]:
             raise ConfigError(f"'{where}.step' {step:g} is too small: values repeat when rounded to 10 decimals")
     elif isinstance(value, list):
         values = [parse_number(v, f"{where}[{i}]") for i, v in enumerate(value)]
+    elif isinstance(value, bool) or not isinstance(value, (int, float)):
+        raise ConfigError(f"'{where}' must be a number, a list of numbers or {{from, to, step}}, got {show(value)}")
     else:
         values = [parse_number(value, where)]
     if not values:

@@ -265,17 +265,30 @@ def not_assessed(study: Study, r: dict, Re: float | None) -> dict[str, str]:
 
 
 def not_assessed_summary(rows: list[dict]) -> list[dict]:
-    """The criteria not assessed over a study's burning points, gathered once per criterion and
-    kind of reason (the reason with its numbers left out): criterion, example (the reason at the
-    first such point), points (how many), of (burning points), in the order first met."""
+    """The criteria not assessed over a study's burning points, once per criterion: criterion,
+    points (at how many), of (burning points), example (the reason at the first such point; with
+    several kinds of reason, each kind's first with its count: 'Lewis number 0.42 < 0.8
+    (hydrogen-rich) at 6; 4 bar outside 0.5-2 bar at 2'), in the order first met. Kinds of
+    reason differ in their words, numbers left out.
+
+    >>> rows = [{"status": "ok", "not_assessed": {"blowoff": why}} for why in ("Le 0.4 < 0.8", "Le 0.4 < 0.8, 4 bar")]
+    >>> not_assessed_summary(rows)
+    [{'criterion': 'blowoff', 'points': 2, 'of': 2, 'example': 'Le 0.4 < 0.8 at 2; 4 bar at 1'}]
+    """
     burning = [r for r in rows if r.get("status") == "ok" and r.get("not_assessed") is not None]
-    out: dict[tuple[str, str], dict] = {}
+    kinds: dict[str, dict[str, list]] = {}  # criterion -> kind of reason -> [its first words, count]
+    points: dict[str, int] = {}
     for r in burning:
         for c, why in r["not_assessed"].items():
+            points[c] = points.get(c, 0) + 1
             for part in why.split(", "):
-                k = (c, re.sub(r"\d[\d.e+\-]*", "#", part))
-                out.setdefault(k, {"criterion": c, "example": part, "points": 0, "of": len(burning)})["points"] += 1
-    return list(out.values())
+                kinds.setdefault(c, {}).setdefault(re.sub(r"\d[\d.e+\-]*", "#", part), [part, 0])[1] += 1
+    out = []
+    for c, by_kind in kinds.items():
+        example = (next(iter(by_kind.values()))[0] if len(by_kind) == 1
+                   else "; ".join(f"{part} at {n}" for part, n in by_kind.values()))
+        out.append({"criterion": c, "points": points[c], "of": len(burning), "example": example})
+    return out
 
 
 def _verdict(b: Burner, margins: dict[str, float | None], unassessed: dict[str, str], cellular: bool) -> str:

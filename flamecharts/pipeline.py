@@ -30,6 +30,7 @@ from .results import (
 from .store import DB_NAME, RunLock, Store
 from .sweep.analyses import per_point, per_study
 from .sweep.backends import open_backend
+from .sweep.extras import PartProgress
 from .sweep.points import points
 from .sweep.run import Progress, RunInterrupted, solve_points
 from .sweep.skeletal import prepare as prepare_reduction
@@ -73,15 +74,18 @@ class RunSummary(RecordAccess):
         return self.solve_seconds / (self.workers * self.wall_seconds)
 
 
-def _part(progress: Callable[[Progress], None] | None, what: str) -> Callable[[int, int], None] | None:
-    """The (done, total) callback an extras loop calls, as the run's one progress event
-    (:class:`Progress` with ``what``), timed from now: its time left follows the share done."""
+def _part(progress: Callable[[Progress], None] | None, what: str) -> PartProgress | None:
+    """The (done, total, estimate) callback an extras loop calls, as the run's one progress event
+    (:class:`Progress` with ``what``), timed from now: its time left is the estimate less the time
+    elapsed until the first finishes, then follows the share done."""
     if progress is None:
         return None
     t0 = time.perf_counter()
-    return lambda done, total: progress(Progress(done=done, total=total, failed=0, no_flame=0, reused=0,
-                                                 elapsed_s=time.perf_counter() - t0, what=what,
-                                                 done_share=done / total if total else 1.0))
+
+    def report(done: int, total: int, estimate_s: float | None = None) -> None:
+        progress(Progress(done=done, total=total, failed=0, no_flame=0, reused=0, elapsed_s=time.perf_counter() - t0,
+                          what=what, estimate_s=estimate_s, done_share=done / total if total else 1.0))
+    return report
 
 
 def _relabelled(progress: Callable[[Progress], None] | None, what: str) -> Callable[[Progress], None] | None:
@@ -91,16 +95,21 @@ def _relabelled(progress: Callable[[Progress], None] | None, what: str) -> Calla
 
 def _limits_part(progress: Callable[[Progress], None] | None) -> Callable[[LimitsProgress], None] | None:
     """The limit searches' round report as the run's one progress event ('limits': searches
-    answered of all; the round and its flames in ``detail``)."""
+    answered of all; the round and its flames in ``detail``). Its time left is the flames the open
+    searches can still ask for (``flames_left``) at the measured wall time per limit flame so far:
+    the share done is of flames, not of searches (a search answered late is not a search left
+    with all of its work: counting searches made the time left climb while the work shrank)."""
     if progress is None:
         return None
 
     def report(p: LimitsProgress) -> None:
         answered = p.searches - p.open_searches
+        share = (1.0 if not p.open_searches else
+                 p.flames_solved / (p.flames_solved + p.flames_left) if p.flames_solved else 0.0)
         progress(Progress(done=answered, total=p.searches, failed=0, no_flame=0, reused=0, elapsed_s=p.elapsed_s,
                           what="limits",
                           detail=f"round {p.round}, {p.flames_solved} flame{'s' if p.flames_solved != 1 else ''} solved",
-                          done_share=answered / p.searches if p.searches else 1.0))
+                          done_share=share))
     return report
 
 

@@ -56,6 +56,7 @@ class LimitsProgress:
     searches: int
     flames_solved: int
     elapsed_s: float
+    flames_left: int = 0   # about how many flames the open searches can still ask for (:func:`flames_left`)
 
 
 @dataclass
@@ -70,6 +71,8 @@ class _Search:
     unassessed: str = ""   # the criteria not assessed at swept points, and why (limits.csv criteria_not_assessed)
     nothing: bool = False  # no criterion of the search is assessed at any swept flame: no search
     cellular: tuple[float, ...] = ()  # swept values whose flames are thermodiffusively unstable ([flame_response])
+    budget: int = 0        # about how many flames it needs, judged as ``check`` judges it (:func:`search_budget`)
+    asked: int = 0         # flames it asked for so far
 
 
 def point_at(study: Study, cond: dict, axis: str, x: float, index: int = 0) -> tuple[Study, Point]:
@@ -167,8 +170,31 @@ def _searches(study: Study, rows: list[dict]) -> list[_Search]:
                                                      look_inside=band if blend else None)
             out.append(_Search(axis, cond, gen, band=band, nothing=nothing,
                                unassessed=unassessed_words(sorted(swept, key=lambda t: t[0]), crit, axis),
-                               cellular=tuple(sorted(x for x, r in swept if r.get("instability") == "cellular"))))
+                               cellular=tuple(sorted(x for x, r in swept if r.get("instability") == "cellular")),
+                               budget=search_budget(study, axis, [x for x, _ in swept],
+                                                    [frozenset(c for c in crit if unassessed_reason(r, c) is None)
+                                                     for r in burning])))
     return out
+
+
+def search_budget(study: Study, axis: str, values: Sequence[float], assessed: Sequence[frozenset[str]]) -> int:
+    """About how many flames one search needs, as ``check`` counts them (:func:`planned_searches`):
+    the edges that can exist (:func:`edges_possible`) times the flames of one edge
+    (:func:`flames_per_search`), one more for a blend search's pure blend gas."""
+    lim = study.limits
+    assert lim is not None  # a search runs only under [limits]
+    if not any(assessed):
+        return 0
+    per_edge = flames_per_search(getattr(study, f"{axis}s"), lim.tolerance[axis], lim.max_flames_per_search)
+    return (edges_possible(axis, values, assessed) * per_edge
+            + (axis == "blend_fraction" and max(values) < 1.0))
+
+
+def flames_left(searches: Sequence[_Search]) -> int:
+    """About how many flames the open searches can still ask for: each its budget less the flames
+    it asked for so far, and at least the flames of its next request (a search past its budget
+    still needs those). Falls as the searches advance and close."""
+    return sum(max(s.budget - s.asked, len(s.request or ())) for s in searches if s.request is not None)
 
 
 def unassessed_words(swept: list[tuple[float, dict]], criteria: tuple[str, ...], axis: str) -> str:
@@ -234,6 +260,8 @@ def find_limits(study: Study, rows: list[dict], store: Store, solve: Callable[[l
             break
         rnd += 1
         asked = [(s, point_at(study, s.cond, s.axis, x)) for s in open_ for x in s.request or ()]
+        for s in open_:
+            s.asked += len(s.request or ())
         asked = [(s, (sub, dataclasses.replace(p, index=i))) for i, (s, (sub, p)) in enumerate(asked)]
         if solve is not None:
             solved += solve([p for _, (_, p) in asked])
@@ -252,7 +280,7 @@ def find_limits(study: Study, rows: list[dict], store: Store, solve: Callable[[l
             _advance(s, [search_row(sub, p, stored, ladders) for sub, p in mine])
         if on_round is not None:
             on_round(LimitsProgress(rnd, sum(s.request is not None for s in searches), len(searches), solved,
-                                    time.perf_counter() - t0))
+                                    time.perf_counter() - t0, flames_left(searches)))
     return [{c: r.get(c) for c in LIMIT_COLUMNS if c != "mechanism"} for s in searches for r in limit_rows(study, s)]
 
 
@@ -423,7 +451,8 @@ class LimitsPlan:
 #: Flames Brent's method saves on an edge against bisection: its interpolation steps land near the
 #: root of the nearly linear log-margin (search.py). Measured: 3-4 flames where bisection takes 5
 #: (0.1 in blend fraction to 0.0025-0.005), 14 for the four edges of the mechanism comparison demo
-#: (20 by bisection), 4-5 for the gas-turbine demo's blend edges (6): docs/benchmarks.md, "Limit searches".
+#: (20 by bisection), 4-5 for the gas-turbine demo's blend edges (6): docs/benchmarks.md, "Limit searches"
+#: (under "Earlier measurements").
 BRENT_SAVES = 1
 
 

@@ -14,6 +14,10 @@ if TYPE_CHECKING:
 LINE_EVERY_S = 60.0
 #: ... or every this share of the flames, whichever comes first.
 LINE_EVERY_SHARE = 0.1
+#: While an extra solve runs and none finishes (a strained-flame ladder: minutes), a line every
+#: this many seconds with the elapsed time and the time left (the library reports every
+#: sweep.extras.HEARTBEAT_S).
+HEARTBEAT_LINE_S = 30.0
 
 
 def plural(n: int, word: str) -> str:
@@ -38,6 +42,26 @@ def duration(seconds: float) -> str:
     if seconds < 48 * 3600:
         return f"{seconds // 3600:.0f} h {seconds % 3600 / 60:.0f} min"
     return f"{seconds / 86400:.1f} days"
+
+
+def left_words(pr: Progress) -> str:
+    """The time left of a progress event in words: 'about 3 min left'; 'finishing' when under
+    half a second is left; while nothing has finished and the estimate is spent, 'past the
+    estimated 30 s' (a count of zero seconds would be wrong); '' without an estimate.
+
+    >>> from flamecharts.sweep.run import Progress
+    >>> [left_words(Progress(d, 2, 0, 0, 0, elapsed_s=t, estimate_s=30.0, done_share=d / 2))
+    ...  for d, t in ((0, 10.0), (1, 60.0), (0, 45.0), (1, 600.0))]
+    ['about 20 s left', 'about 60 s left', 'past the estimated 30 s', 'about 10 min left']
+    >>> left_words(Progress(99, 100, 0, 0, 0, elapsed_s=20.0, done_share=0.99))
+    'finishing'
+    """
+    left = pr.remaining_s
+    if left is None:
+        return ""
+    if pr.done_share <= 0 and pr.estimate_s is not None and pr.elapsed_s >= pr.estimate_s:
+        return f"past the estimated {duration(pr.estimate_s)}"
+    return "finishing" if left < 0.5 else f"about {duration(left)} left"
 
 
 class ProgressDisplay:
@@ -71,8 +95,7 @@ class ProgressDisplay:
         if pr.stage != self._stage or pr.what != self._what:  # the next mechanism, or the next part of the run:
             self.close()                                       # a bar (or line count) of its own
             self._stage, self._what, self._last_line_t, self._last_line_done = pr.stage, pr.what, None, -1
-        left = pr.remaining_s
-        left_text = "" if left is None else f"about {duration(left)} left"
+        left_text = left_words(pr)
         if pr.what != "flames":
             self._part_line(pr, left_text)
         elif self.terminal:
@@ -80,15 +103,20 @@ class ProgressDisplay:
         else:
             self._line(pr, left_text)
 
-    def _due(self, pr: Progress) -> bool:
+    def _due(self, pr: Progress, heartbeat: bool = False) -> bool:
         """Whether a plain line is due: every LINE_EVERY_SHARE of the work or LINE_EVERY_S
-        seconds, and at the end."""
+        seconds, and at the end; with ``heartbeat`` (an extra solve), also every HEARTBEAT_LINE_S
+        while nothing finishes."""
         now = time.monotonic()
         step = max(1, round(LINE_EVERY_SHARE * pr.total))
         assert self._last_line_t is not None
-        due = (pr.done >= self._last_line_done + step or now - self._last_line_t >= LINE_EVERY_S
-               or pr.done == pr.total)
-        if not due or pr.done == self._last_line_done:
+        if heartbeat and pr.done == self._last_line_done and pr.done < pr.total:
+            due = now - self._last_line_t >= HEARTBEAT_LINE_S
+        else:
+            due = pr.done != self._last_line_done and (
+                pr.done >= self._last_line_done + step or now - self._last_line_t >= LINE_EVERY_S
+                or pr.done == pr.total)
+        if not due:
             return False
         self._last_line_t, self._last_line_done = now, pr.done
         return True
@@ -99,13 +127,19 @@ class ProgressDisplay:
         if pr.what == "mechanism reduction":  # a few lines, each a step of the one reduction
             print(f"flamecharts: mechanism reduction: {pr.detail}", file=self.stream, flush=True)
             return
+        head = f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.what}: "
         if self._last_line_t is None:
-            self._last_line_t = time.monotonic()
-        elif not self._due(pr):
+            self._last_line_t, self._last_line_done = time.monotonic(), pr.done
+            if pr.done == 0 and pr.what != "limits":  # the start of an extra solve: what it is estimated at
+                print(head + f"{pr.total} to solve" + (f", estimated about {duration(pr.estimate_s)} with the cores free"
+                                                       if pr.estimate_s is not None else ""),
+                      file=self.stream, flush=True)
+                return
+        elif not self._due(pr, heartbeat=pr.what != "limits"):
             return
         count = (f"{pr.done} of {pr.total} searches answered ({pr.detail})" if pr.what == "limits"
                  else f"{pr.done}/{pr.total} done")
-        print(f"flamecharts: {pr.stage + ': ' if pr.stage else ''}{pr.what}: {count}, {duration(pr.elapsed_s)} elapsed"
+        print(head + f"{count}, {duration(pr.elapsed_s)} elapsed"
               + (f", {left_text}" if left_text and pr.done < pr.total else ""), file=self.stream, flush=True)
 
     def _bar(self, pr: Progress, left_text: str) -> None:

@@ -60,8 +60,8 @@ def cmd_run(args: argparse.Namespace) -> int:
     ok = sum(r["status"] == "ok" for r in summary.rows)
     print(f"{study.title}: {plural(len(summary.rows), 'point')}, {plural(ok, 'flame')}, {summary.no_flame} no flame, "
           + (f"{summary.autoignition} autoigniting, " if summary.autoignition else "")
-          + f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store, "
-          f"{summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
+          + f"{summary.failed} failed; solved {summary.solved} now, {summary.reused} from the store; "
+          f"all solving (sweep, extra solves, limits) {summary.wall_seconds:.1f} s" + _utilisation(summary) + ".")
     _print_reduction(summary)
     if summary.failed:
         reasons = Counter(r["reason"] for r in summary.rows if r["status"] == Status.FAILED)

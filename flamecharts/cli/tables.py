@@ -66,9 +66,23 @@ def print_margins(study: Study, ds: xr.Dataset) -> None:
     for (fuel, ox, p, T), frac in first_flashback_fraction(ds, study).items():
         if (fuel, ox, p, T) not in judged:
             continue
-        what = (f"from {100 * frac:g} % {study.blend_with}" if frac is not None
-                else f"at no {study.blend_with} fraction of the study")
-        print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: flashback margin below {b.min_flashback_margin:g} {what}")
+        print(f"  {fuel} in {ox}, {p:g} bar, {T:g} K: " + _first_flashback_words(study, b.min_flashback_margin, frac))
+
+
+def _first_flashback_words(study: Study, minimum: float, frac: float | None) -> str:
+    """The smallest blend fraction whose flashback margin falls below the minimum at some swept phi.
+
+    >>> from types import SimpleNamespace
+    >>> s = SimpleNamespace(blend_with="purge_gas")
+    >>> _first_flashback_words(s, 1.5, 0.0)
+    'smallest purge_gas fraction with a flashback margin below 1.5 (at some swept phi): 0 %'
+    >>> _first_flashback_words(s, 1.5, None)
+    'flashback margin at least 1.5 at every purge_gas fraction of the study (wherever assessed)'
+    """
+    if frac is None:
+        return f"flashback margin at least {minimum:g} at every {study.blend_with} fraction of the study (wherever assessed)"
+    return (f"smallest {study.blend_with} fraction with a flashback margin below {minimum:g} (at some swept phi): "
+            f"{100 * frac:g} %")
 
 
 def _lowest_words(s: dict, key: str, name: str) -> str:

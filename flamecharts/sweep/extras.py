@@ -12,11 +12,12 @@ from __future__ import annotations
 
 import hashlib
 import json
+import time
 import uuid
 from collections.abc import Callable
 from concurrent.futures import FIRST_COMPLETED, wait
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Protocol
 
 from ..outcome import RETRIED_REASONS, worker_error
 from ..store import Store
@@ -25,6 +26,19 @@ from .points import Point
 if TYPE_CHECKING:
     from ..config import Study
     from .backends import Backend
+
+
+#: While extras run and none finishes, a report every this many seconds (a strained-flame ladder of
+#: GRI-Mech 3.0 takes 9-15 min: without it the run says nothing all that time).
+HEARTBEAT_S = 30.0
+
+
+class PartProgress(Protocol):
+    """How an extra solve reports: ``done`` of ``total`` finished, and the estimated wall time of
+    all of them when the analysis has one (pipeline makes it the run's one progress event,
+    sweep.run.Progress)."""
+
+    def __call__(self, done: int, total: int, estimate_s: float | None = None) -> None: ...
 
 
 @dataclass(frozen=True)
@@ -71,11 +85,14 @@ def task_function(task_name: str) -> Callable[[dict], dict]:
 
 
 def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], task_name: str, backend: Backend,
-                 progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                 progress: PartProgress | None = None, estimate_s: float | None = None) -> tuple[int, float]:
     """Solve ``task(task)`` for every (record, task) on the backend, ``task`` being the function
     ``task_name`` (:func:`task_function`, imported here, on the solve side only: the read side of an
     extra needs no Cantera), commit each result under its record as it finishes (a worker that
-    dies leaves a failed row: the next run tries again). Returns (extras solved, their summed seconds)."""
+    dies leaves a failed row: the next run tries again). Returns (extras solved, their summed seconds).
+
+    ``progress`` hears of the start (0 done, with ``estimate_s``, the analysis's estimate of them
+    all), of every finished extra, and every :data:`HEARTBEAT_S` while none finishes."""
     if not todo:
         return 0, 0.0
     fn = task_function(task_name)
@@ -83,8 +100,14 @@ def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], ta
     run_id = uuid.uuid4().hex[:12]
     in_flight = {executor.submit(fn, task): rec for rec, task in todo}
     done_n, seconds = 0, 0.0
+    if progress is not None:
+        progress(0, len(todo), estimate_s)
+    said = time.monotonic()
     while in_flight:
         done, _ = wait(list(in_flight), timeout=0.5, return_when=FIRST_COMPLETED)
+        if not done and progress is not None and time.monotonic() - said >= HEARTBEAT_S:
+            progress(done_n, len(todo), estimate_s)
+            said = time.monotonic()
         for fut in done:
             rec = in_flight.pop(fut)
             try:
@@ -95,5 +118,6 @@ def solve_extras(study: Study, store: Store, todo: list[tuple[Record, dict]], ta
             done_n += 1
             seconds += float(result.get("solve_seconds") or 0.0)
             if progress is not None:
-                progress(done_n, len(todo))
+                progress(done_n, len(todo), estimate_s)
+                said = time.monotonic()
     return done_n, seconds

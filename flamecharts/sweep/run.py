@@ -55,8 +55,11 @@ class Progress:
     pairs', 'flame-speed sensitivities', 'premixer ignition delays', 'burned-gas emissions',
     'flames at equal flame temperature', 'strained-flame ladders'), every flame of a round of the limit
     searches ('limit flames') and every round ('limits', ``done``/``total`` counting the
-    searches answered, ``detail`` the round and its flames).
-    Every kind carries its elapsed time and, once something finished, the time left."""
+    searches answered, ``detail`` the round and its flames; its time left is the flames the open
+    searches can still ask for at the measured cost per limit flame). An extra solve also reports
+    its start (``done`` 0, ``estimate_s`` the analysis's estimate where it has one) and, while none
+    finishes, a heartbeat every sweep.extras.HEARTBEAT_S.
+    Every kind carries its elapsed time and, once something finished (or from an estimate), the time left."""
 
     done: int
     total: int

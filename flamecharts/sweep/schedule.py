@@ -158,19 +158,21 @@ def point_scales(plan: WarmPlan, pressures_bar: dict[int, float]) -> dict[int, f
 def flame_seconds(n_species: int, timings: dict[str, list[float]],
                   resolution: str = "standard") -> tuple[dict[str, float], str]:
     """Seconds per flame ('fresh', 'warm') on one core and where they come from: the median of
-    the store's timings of the same settings where it holds at least 3 of a kind, else
+    the store's timings of the same settings where it holds at least 3 of a kind (measured on the
+    machine as it was then: a busy first run makes them long, and the basis says so), else
     :func:`default_flame_seconds` of the mechanism size.
 
     >>> secs, basis = flame_seconds(10, {"fresh": [1.0, 2.0, 3.0], "warm": [0.1]})
     >>> secs["fresh"], basis
-    (2.0, 'from 4 stored timings')
+    (2.0, 'from 4 stored timings, which carry the load they were measured under')
     """
     secs = default_flame_seconds(n_species, resolution)
     measured = {k: statistics.median(v) for k, v in timings.items() if len(v) >= 3}
     if not measured:
         return secs, f"from the mechanism size, {n_species} species, and the {resolution} resolution"
     secs.update(measured)
-    return secs, f"from {sum(len(v) for v in timings.values())} stored timings"
+    return secs, (f"from {sum(len(v) for v in timings.values())} stored timings, which carry the load they were "
+                  "measured under")
 
 
 def flame_cost(plan: WarmPlan, i: int, secs: dict[str, float], scale: float = 1.0) -> float:

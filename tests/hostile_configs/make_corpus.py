@@ -121,13 +121,14 @@ CASES = {
     "unterminated_string": (["not valid TOML"], 'title = "never closed\n' + config()),
     "deeply_nested": (["nests arrays or tables too deeply"], "x = " + "[" * 5000 + "]" * 5000 + "\n" + config()),
     # --- wrong types
-    "wrong_type_phi_string": (["sweep.equivalence_ratio", "must be a number", "'lean'"],
+    "wrong_type_phi_string": (["sweep.equivalence_ratio", "must be a number, a list of numbers or {from, to, step}",
+                               "'lean'"],
                               config(sweep=sweep_with(equivalence_ratio='"lean"'))),
     "string_where_number": (["sweep.unburned_temperature_K[0]", "must be a number", "'300'"],
                             config(sweep=sweep_with(unburned_temperature_K='["300"]'))),
     "boolean_where_number": (["sweep.pressure_bar[0]", "must be a number", "True"],
                              config(sweep=sweep_with(pressure_bar="[true]"))),
-    "wrong_type_date": (["sweep.pressure_bar", "must be a number", "datetime.date"],
+    "wrong_type_date": (["sweep.pressure_bar", "must be a number, a list of numbers or {from, to, step}", "datetime.date"],
                         config(sweep=sweep_with(pressure_bar="2024-01-01"))),
     "wrong_type_fuels_list": (["'fuels' must be a table"], config(fuels='fuels = ["H2"]\n').replace(
         BASE["head"], BASE["head"], 1)),

@@ -21,14 +21,13 @@ equal flame temperature the comparison shows what the blend does besides heating
 """
 from __future__ import annotations
 
-from collections.abc import Callable
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
 from ...physics import mixtures
 from ...store import Store
 from ...sweep.analyses import Budget, PerPoint
-from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.extras import PartProgress, derived_key, done_keys, record, solve_extras
 from ...sweep.points import Point, point_at_phi, points
 from .table import of
 
@@ -63,7 +62,7 @@ def _emissions_task(study: Study, p: Point, profile: dict) -> dict:
 
 
 def solve_emissions(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
-                    progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                    progress: PartProgress | None = None) -> tuple[int, float]:
     """The burned-gas history of every burning point of ``pts`` (``stored``: the store's rows by
     key) that the store lacks. Returns (histories done, their summed seconds)."""
     if not wants_emissions(study):
@@ -137,7 +136,7 @@ def _blended(study: Study, pts: list[Point]) -> list[tuple[Point, Point]]:
 
 
 def solve_equal_tad(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
-                    progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                    progress: PartProgress | None = None) -> tuple[int, float]:
     """Matched phi, flame and burned gas of every blended point of ``pts`` the store lacks.
     Returns (matched phi and flames done, their summed seconds)."""
     from ...sweep.run import solve_points  # the solve side only

@@ -11,12 +11,11 @@ never solves the sweep again.
 """
 from __future__ import annotations
 
-from collections.abc import Callable
 from typing import TYPE_CHECKING
 
 from ...store import Store
 from ...sweep.analyses import Budget, PerPoint
-from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.extras import PartProgress, derived_key, done_keys, record, solve_extras
 from ...sweep.points import Point
 from ...sweep.schedule import flame_time_limit
 from .table import of, zeldovich_step
@@ -45,7 +44,7 @@ def _task(study: Study, p: Point, stored: dict, warm: dict | None, step: float) 
 
 
 def solve_zeldovich(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
-                    progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                    progress: PartProgress | None = None) -> tuple[int, float]:
     """Solve the pair of every burning point of ``pts`` (``stored``: the store's rows by key)
     that the store lacks. Returns (pairs solved, their summed seconds)."""
     step = zeldovich_step(study)

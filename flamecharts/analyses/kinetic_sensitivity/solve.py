@@ -12,12 +12,11 @@ solves nothing.
 """
 from __future__ import annotations
 
-from collections.abc import Callable
 from typing import TYPE_CHECKING
 
 from ...store import Store
 from ...sweep.analyses import Budget, PerPoint
-from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.extras import PartProgress, derived_key, done_keys, record, solve_extras
 from ...sweep.points import Point
 from ...sweep.schedule import flame_time_limit, sensitivity_seconds
 
@@ -52,7 +51,7 @@ def _task(study: Study, p: Point, warm: dict | None) -> dict:
 
 
 def solve_sensitivities(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
-                        progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                        progress: PartProgress | None = None) -> tuple[int, float]:
     """Solve the sensitivities of every burning point of ``pts`` (``stored``: the store's rows by
     key) that the store lacks and whose profile it keeps. Returns (solved, their summed seconds)."""
     if not wants_sensitivities(study):

@@ -15,14 +15,13 @@ whatever its flame did.
 """
 from __future__ import annotations
 
-from collections.abc import Callable
 from typing import TYPE_CHECKING
 
 from ...physics import mixtures
 from ...physics.autoignition import INJECTION_PHIS, delay_at_horizon, premixer_horizon
 from ...store import Store
 from ...sweep.analyses import Budget, PerPoint
-from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.extras import PartProgress, derived_key, done_keys, record, solve_extras
 from ...sweep.points import Point
 
 if TYPE_CHECKING:
@@ -77,7 +76,7 @@ def read_delays(metrics: dict | None, horizon_s: float) -> dict | None:
 
 
 def solve_premixer(study: Study, store: Store, pts: list[Point], stored: dict[str, dict], backend: Backend,
-                   progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                   progress: PartProgress | None = None) -> tuple[int, float]:
     """Integrate the delays of every point of ``pts`` whose row the store lacks, or holds over a
     horizon too short for the study's (every point, whatever its flame: ``stored`` is not needed).
     Returns (points done, their summed seconds)."""

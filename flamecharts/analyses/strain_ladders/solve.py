@@ -2,7 +2,8 @@
 
 stretch_points   the swept points a [stretch] table selects
 stretch_key      a ladder's store key: the point's inputs and the ladder's settings (sweep.extras)
-solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each
+solve_stretch    solve every selected ladder the store lacks on the run's backend, commit each (its
+                 progress starts with ``check``'s estimate of them and beats while they run)
 stretch_rows     one row per ladder (columns.STRETCH_COLUMNS), from the store
 with_ladders     stored rows with each burned ladder's strongest consumption speed and extinction
                  strain rate merged into its point's metrics (the premixer's leading-point flame
@@ -23,7 +24,7 @@ from typing import TYPE_CHECKING, Any
 
 from ... import numerics as strained
 from ...sweep.analyses import Budget, PerStudy
-from ...sweep.extras import derived_key, done_keys, record, solve_extras
+from ...sweep.extras import PartProgress, derived_key, done_keys, record, solve_extras
 from ...sweep.schedule import REFERENCE_VARIABLES, flame_time_limit, parallel_seconds
 from .table import of
 
@@ -90,7 +91,7 @@ def ladder_time_limit(study: Study) -> float:
 
 
 def solve_stretch(study: Study, store: Store, pts: list[Point], rows_by_key: dict[str, dict], backend: Backend,
-                  progress: Callable[[int, int], None] | None = None) -> tuple[int, float]:
+                  progress: PartProgress | None = None) -> tuple[int, float]:
     """Solve the ladder of every selected point whose free flame burns and whose ladder the
     store lacks (or lost to a dead worker); commit each as it finishes. Returns (ladders
     solved, their summed seconds)."""
@@ -98,7 +99,9 @@ def solve_stretch(study: Study, store: Store, pts: list[Point], rows_by_key: dic
     done = done_keys(store, [stretch_key(p) for p in chosen])
     todo = [(record("stretch", stretch_key(p), p), _task(study, p, rows_by_key[p.key]))
             for p in chosen if stretch_key(p) not in done]
-    return solve_extras(study, store, todo, TASK, backend, progress)
+    estimate = parallel_seconds([ladder_seconds(len(study.atoms), r.pressure_bar, ladder_time_limit(study))
+                                 for r, _ in todo], max(1, backend.slots))  # as `check` estimates them
+    return solve_extras(study, store, todo, TASK, backend, progress, estimate)
 
 
 def characteristic_strain(study: Study, row: dict) -> float | None:
