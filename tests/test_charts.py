@@ -84,7 +84,8 @@ def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tm
     from flamecharts.outputs.charts.style import has_empty_note, shows_data
 
     config = write_h2_study(tmp_path, fractions="[0.0, 0.5, 1.0]", phis="[0.8]", pressures="[1.0, 2.0]")
-    config.write_text(config.read_text() + BURNER.replace("5.0", "40.0") + "\n[limits]\ncriteria = ['flashback']\n")
+    config.write_text(config.read_text() + BURNER.replace("5.0", "40.0") + "\n[limits]\ncriteria = ['flashback']\n"
+                      + "\n[uncertainty]\n")  # a kinetic band at one phi (a broad bar) and the sensitivity chart
     study = load_study(config)
     rows = run_study(study, out_dir=tmp_path / "o", jobs=2).rows
     limits = read_limits(study, rows, tmp_path / "o")
@@ -101,10 +102,15 @@ def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tm
             assert shows_data(ax) or has_empty_note(ax), f"{c.name}: '{ax.get_title()}' is an empty frame"
         assert_inside_the_frame(fig, c.name)
         assert_legend_names_drawn_artists(fig, c.name)
-    assert {"blend_comparison", "admissible_limits", "flashback_chart", "flame_speed_vs_equivalence_ratio"} <= drawn
+    assert {"blend_comparison", "admissible_limits", "flashback_chart", "flame_speed_vs_equivalence_ratio",
+            "flame_speed_sensitivity"} <= drawn
     assert "operating_window" not in drawn  # a map over phi needs two of them
     notes = [t.get_text() for t in plt_figure_texts(CHARTS, data, study, "blend_comparison")]
     assert any("this study sweeps one equivalence ratio" in t for t in notes)
+    # the sensitivity chart shows 3 of the 6 points (one per gas at the lowest pressure) and says where the rest are
+    fig = next(c for c in CHARTS if c.name == "flame_speed_sensitivity").draw(data, study)
+    assert "Shown: 3 of 6 points with sensitivities" in fig._suptitle.get_text().replace("\n", " ")
+    assert "sensitivities.csv" in fig._suptitle.get_text().replace("\n", " ")
     # the report says which charts it leaves out, and why
     from flamecharts.outputs.report import write_report
 
@@ -393,6 +399,8 @@ def _stands_for(handle, a) -> bool:
         return False
     if hatch:
         return hatch in hatches
+    if not hasattr(handle, "get_marker"):  # a grey area: bands or bars drawn in each curve's colour
+        return not hasattr(a, "get_xydata") and not hasattr(a, "get_sizes")
     if marker in ("None", "none", "", None):  # a grey line: a line style drawn in each curve's colour
         return hasattr(a, "get_xydata") and a.get_linestyle() == handle.get_linestyle()
     return getattr(a, "get_marker", lambda: None)() == marker or hasattr(a, "get_sizes")
