@@ -84,7 +84,8 @@ def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tm
     from flamecharts.outputs.charts.style import has_empty_note, shows_data
 
     config = write_h2_study(tmp_path, fractions="[0.0, 0.5, 1.0]", phis="[0.8]", pressures="[1.0, 2.0]")
-    config.write_text(config.read_text() + BURNER.replace("5.0", "40.0") + "\n[limits]\ncriteria = ['flashback']\n")
+    config.write_text(config.read_text() + BURNER.replace("5.0", "40.0") + "\n[limits]\ncriteria = ['flashback']\n"
+                      + "\n[uncertainty]\n")  # a kinetic band at one phi (a broad bar) and the sensitivity chart
     study = load_study(config)
     rows = run_study(study, out_dir=tmp_path / "o", jobs=2).rows
     limits = read_limits(study, rows, tmp_path / "o")
@@ -99,10 +100,17 @@ def test_a_one_phi_study_draws_every_chart_with_data_or_a_note_saying_why_not(tm
         assert panels, c.name
         for ax in panels:
             assert shows_data(ax) or has_empty_note(ax), f"{c.name}: '{ax.get_title()}' is an empty frame"
-    assert {"blend_comparison", "admissible_limits", "flashback_chart", "flame_speed_vs_equivalence_ratio"} <= drawn
+        assert_inside_the_frame(fig, c.name)
+        assert_legend_names_drawn_artists(fig, c.name)
+    assert {"blend_comparison", "admissible_limits", "flashback_chart", "flame_speed_vs_equivalence_ratio",
+            "flame_speed_sensitivity"} <= drawn
     assert "operating_window" not in drawn  # a map over phi needs two of them
     notes = [t.get_text() for t in plt_figure_texts(CHARTS, data, study, "blend_comparison")]
     assert any("this study sweeps one equivalence ratio" in t for t in notes)
+    # the sensitivity chart shows 3 of the 6 points (one per gas at the lowest pressure) and says where the rest are
+    fig = next(c for c in CHARTS if c.name == "flame_speed_sensitivity").draw(data, study)
+    assert "Shown: 3 of 6 points with sensitivities" in fig._suptitle.get_text().replace("\n", " ")
+    assert "sensitivities.csv" in fig._suptitle.get_text().replace("\n", " ")
     # the report says which charts it leaves out, and why
     from flamecharts.outputs.report import write_report
 
@@ -132,8 +140,9 @@ def test_flame_temperature_chart_plots_stored_temperatures_above_the_preheat(stu
     stored = {round(r["adiabatic_flame_temperature_K"], 6) for r in rows if r["status"] == "ok"}
     assert plotted == stored
     lowest = min(float(ax.get_title().split("T_u = ")[1].split(" K")[0]) for ax in axes)
-    for ax in axes:  # one shared scale whose floor is the lowest preheat (no flame is marked at its own)
-        assert ax.get_ylim() == axes[0].get_ylim() and ax.get_ylim()[0] == lowest
+    for ax in axes:  # one shared scale whose floor is just under the lowest preheat (no flame is marked at its own)
+        bottom, top = ax.get_ylim()
+        assert ax.get_ylim() == axes[0].get_ylim() and lowest - 0.1 * (top - lowest) < bottom < lowest
     plt.close(fig)
 
 
@@ -171,6 +180,14 @@ def _data(study, rows):
 def _green_of_window(fb, bo, need: float) -> list:
     """The green (admissible) patches of the operating-window chart drawn for a 2 x 2 grid of
     flashback and blowoff margins over (blend fraction 0, 0.2; phi 0.9, 1.1), minimum ``need``."""
+    ax = _window_figure(fb, bo, need).axes[0]
+    return [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
+            and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
+
+
+def _window_figure(fb, bo, need: float, why: str = ""):
+    """The operating-window chart of a 2 x 2 grid of margins (see _green_of_window); ``why``: every
+    point's criteria_not_assessed."""
     from types import SimpleNamespace
 
     from flamecharts.outputs.charts.design_charts import window_chart
@@ -180,16 +197,15 @@ def _green_of_window(fb, bo, need: float) -> list:
 
     def var(a):
         return (dims, a[None, None, :, None, None, :])
-    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo), "warnings": var(np.full((2, 2), ""))},
+    ds = xr.Dataset({"flashback_margin": var(fb), "blowoff_margin": var(bo), "warnings": var(np.full((2, 2), "")),
+                     "criteria_not_assessed": var(np.full((2, 2), why))},
                     coords={"fuel": ["gas"], "oxidizer": ["air"], "blend_fraction": [0.0, 0.2], "pressure_bar": [1.0],
                             "unburned_temperature_K": [300.0], "equivalence_ratio": [0.9, 1.1]})
     burner = SimpleNamespace(min_flashback_margin=need, min_blowoff_margin=need, name="test burner",
                              on_stabilizer=False, blowoff=("blowoff_margin", need, "blowoff"))
     study = SimpleNamespace(burner=burner, blend_with="hydrogen", title="t", mechanism="m", transport="tr",
                             thermal_diffusion=False, resolution="standard", analysis_atoms={}, reduced=None)
-    ax = window_chart(ChartData(dataset=ds, rows=[], gases=[]), study).axes[0]
-    return [c for c in ax.collections if hasattr(c, "get_paths") and len(c.get_facecolor())
-            and np.allclose(c.get_facecolor()[0][:3], (0xbf / 255, 0xe3 / 255, 0xbf / 255))]
+    return window_chart(ChartData(dataset=ds, rows=[], gases=[]), study)
 
 
 def test_the_window_fill_and_its_edge_lines_come_from_one_field():
@@ -295,3 +311,152 @@ def test_the_window_keeps_the_margin_product_between_the_solved_points():
     false green band appeared between them)."""
     fb = np.array([[4.0, 1.2], [1.0, 3.0]])   # (blend fraction, phi)
     assert not _green_of_window(fb, 2.99 / fb, 2.0)
+
+
+# ---- what a newcomer found on the second try: markers on the frame, legend entries for what is not drawn
+def _points_drawn(ax):
+    """(x, y) arrays of what a panel draws in data coordinates, read off its artists: lines and
+    markers (Line2D), scatter offsets (PathCollection); reference lines across the panel give their
+    one data coordinate (axhline: y; axvline: x). Lines drawn edge to edge on purpose (gid 'guide')
+    are left out."""
+    from matplotlib.collections import PathCollection
+
+    for line in ax.get_lines():
+        if not line.get_visible() or line.get_gid() == "guide":
+            continue
+        x, y = np.asarray(line.get_xdata(), dtype=float), np.asarray(line.get_ydata(), dtype=float)
+        t = line.get_transform()
+        if t == ax.transData:
+            yield x, y
+        elif t == ax.get_yaxis_transform():
+            yield np.full(len(y), np.nan), y
+        elif t == ax.get_xaxis_transform():
+            yield x, np.full(len(x), np.nan)
+    for c in ax.collections:
+        if isinstance(c, PathCollection) and c.get_visible() and c.get_offset_transform() == ax.transData:
+            xy = np.asarray(c.get_offsets(), dtype=float).reshape(-1, 2)
+            yield xy[:, 0], xy[:, 1]
+
+
+def assert_inside_the_frame(fig, name):
+    """Every marker, ring, curve point and reference line of every panel strictly inside its limits
+    (on a log axis: positive and inside): none on the frame, none cut by it."""
+    for ax in fig.axes:
+        if not ax.get_visible() or not ax.axison:
+            continue
+        for x, y in _points_drawn(ax):
+            for values, (lo, hi), scale, axis in ((x, ax.get_xlim(), ax.get_xscale(), "x"),
+                                                  (y, ax.get_ylim(), ax.get_yscale(), "y")):
+                lo, hi = min(lo, hi), max(lo, hi)
+                v = values[np.isfinite(values)]
+                if scale == "log":
+                    assert (v > 0).all(), f"{name}: '{ax.get_title()}' {axis} <= 0 on a log axis"
+                assert ((v > lo) & (v < hi)).all(), (f"{name}: '{ax.get_title()}': {axis} {v[(v <= lo) | (v >= hi)]} "
+                                                     f"on or outside the frame {lo:g}..{hi:g}")
+
+
+def _colours(artist):
+    """The non-white RGB colours an artist (or legend handle) shows, rounded."""
+    from matplotlib.colors import to_rgba_array
+
+    out = set()
+    for getter in ("get_color", "get_edgecolor", "get_facecolor", "get_markerfacecolor", "get_markeredgecolor"):
+        try:
+            value = getattr(artist, getter)()
+        except (AttributeError, TypeError):
+            continue
+        try:
+            rgba = to_rgba_array(value)
+        except (ValueError, TypeError):
+            continue
+        out |= {tuple(np.round(c[:3], 2)) for c in rgba if c[3] > 0 and not np.allclose(c[:3], 1.0)}
+    return out
+
+
+def _has_data(artist, ax):
+    if not artist.get_visible():
+        return False
+    if hasattr(artist, "get_xydata"):
+        xy = np.asarray(artist.get_xydata(), dtype=float)
+        return bool(xy.size) and bool(np.isfinite(xy).all(axis=1).any())
+    if hasattr(artist, "get_offsets") and np.asarray(artist.get_offsets()).size:
+        return True
+    if hasattr(artist, "get_paths"):
+        return any(np.asarray(p.vertices).size for p in artist.get_paths())
+    return True  # a patch (span, bar) drawn in the panel
+
+
+def _stands_for(handle, a) -> bool:
+    """Whether legend ``handle`` can stand for drawn artist ``a``: a shared colour (and hatch, if the
+    entry has one), or, for a grey entry, the same hatch, marker, or line style of a plain line."""
+    marker = handle.get_marker() if hasattr(handle, "get_marker") else None
+    hatch = handle.get_hatch() if hasattr(handle, "get_hatch") else None
+    colours = _colours(handle)
+    hatches = {getattr(a, "get_hatch", lambda: None)(), *(getattr(a, "hatches", None) or [])}
+    if colours & _colours(a):
+        return not hatch or hatch in hatches
+    if not (colours and all(c[0] == c[1] == c[2] for c in colours)):
+        return False
+    if hatch:
+        return hatch in hatches
+    if not hasattr(handle, "get_marker"):  # a grey area: bands or bars drawn in each curve's colour
+        return not hasattr(a, "get_xydata") and not hasattr(a, "get_sizes")
+    if marker in ("None", "none", "", None):  # a grey line: a line style drawn in each curve's colour
+        return hasattr(a, "get_xydata") and a.get_linestyle() == handle.get_linestyle()
+    return getattr(a, "get_marker", lambda: None)() == marker or hasattr(a, "get_sizes")
+
+
+def assert_legend_names_drawn_artists(fig, name):
+    """Each legend entry that shows a line, marker or area stands for something drawn: an artist
+    with visible data in some panel sharing its colour, or (a grey entry, standing for marks drawn
+    in each curve's colour) its marker, hatch or line style. Entries without any mark are notes."""
+    drawn = [(a, ax) for ax in fig.axes if ax.get_visible() for a in [*ax.get_lines(), *ax.collections, *ax.patches]
+             if _has_data(a, ax)]
+    for legend in fig.legends + [ax.get_legend() for ax in fig.axes if ax.get_legend()]:
+        for handle, text in zip(legend.legend_handles, legend.get_texts()):
+            label = text.get_text()
+            marker = handle.get_marker() if hasattr(handle, "get_marker") else None
+            style = handle.get_linestyle() if hasattr(handle, "get_linestyle") else None
+            if hasattr(handle, "get_marker") and marker in ("None", "none", "", " ", None) and style in ("None", "none", ""):
+                continue  # a note: no mark of its own
+            assert any(_stands_for(handle, a) for a, _ in drawn), f"{name}: legend entry {label!r} names nothing drawn"
+
+
+def test_every_chart_keeps_its_marks_inside_the_frame_and_its_legend_to_what_is_drawn(study_rows):
+    """The normal study (four phi, two blends, two pressures and preheats, a burner, limits): every
+    chart's marks lie strictly inside each panel's limits, and its legend names only what it draws."""
+    import matplotlib.pyplot as plt
+
+    from flamecharts.outputs.charts.registry import CHARTS, ChartData
+
+    study, rows, folder = study_rows
+    data = ChartData(rows=rows, gases=fuel_gas_table(study), dataset=to_dataset(study, rows),
+                     limits=read_limits(study, rows, folder / "o"))
+    drawn = []
+    for c in CHARTS:
+        if c.when(data, study):
+            fig = c.draw(data, study)
+            assert_inside_the_frame(fig, c.name)
+            assert_legend_names_drawn_artists(fig, c.name)
+            drawn.append(c.name)
+            plt.close(fig)
+    assert set(ALL) <= set(drawn)
+
+
+def test_a_margin_assessed_nowhere_is_said_in_the_window_frame_and_left_out_of_its_legend():
+    """Blowoff not assessed at any point (hydrogen's Lewis number): no blowoff line and no legend
+    entry for one, a note in the frame saying so and why; the flashback edge stays."""
+    fb = np.array([[2.0, 1.0], [2.4, 1.2]])  # (blend fraction, phi): the 1.5 edge crosses the map
+    fig = _window_figure(fb, np.full((2, 2), np.nan), 1.5,
+                         why="blowoff: Lewis number 0.41 < 0.8 (hydrogen-rich)")
+    ax = fig.axes[0]
+    notes = [t.get_text().replace("\n", " ") for t in ax.texts]
+    assert any("blowoff margin not assessed at any point (Lewis number 0.41 < 0.8" in t for t in notes), notes
+    labels = [t.get_text() for t in fig.legends[0].get_texts()]
+    assert not any("blowoff margin" in t for t in labels) and not any("hatched" in t for t in labels), labels
+    assert any(t.startswith("flashback margin g_wall/g_F = 1.5") for t in labels)
+    assert_inside_the_frame(fig, "operating_window")
+    assert_legend_names_drawn_artists(fig, "operating_window")
+    fig = _window_figure(fb, 3.0 / fb, 1.5)  # both assessed: both lines, no note
+    assert not fig.axes[0].texts
+    assert any("blowoff margin" in t.get_text() for t in fig.legends[0].get_texts())

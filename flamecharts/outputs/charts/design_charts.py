@@ -10,6 +10,7 @@ Drawn from flat rows only (see design.annotate), like every chart; each register
 """
 from __future__ import annotations
 
+import textwrap
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -40,18 +41,21 @@ from .style import (
     empty_note,
     figure,
     finish,
+    frame_note,
     ok_rows,
     phi_near_one,
     plain_log_ticks,
     sparse_log_yticks,
+    unassessed_reasons,
 )
 
 if TYPE_CHECKING:
+    import xarray as xr
     from matplotlib.artist import Artist
     from matplotlib.axes import Axes
     from matplotlib.figure import Figure
 
-    from ...config import Study
+    from ...config import Burner, Study
 
 
 @chart("pressure_and_preheat_dependence",
@@ -220,6 +224,7 @@ def flashback_chart(data: ChartData, study: Study) -> Figure:
     panels = spread(sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in ok}),
                     MAX_PANELS // 2)  # two panels per condition
     n_every = len(data.every["pressure_bar"]) * len(data.every["unburned_temperature_K"])
+    left, why = _unassessed_conditions(data)  # no panel: flashback not assessed there
     keys = fuel_keys(ok)
     lowest: dict[tuple, dict] = {}  # per curve, over every pressure and preheat (also those not drawn)
     for r in ok_rows(data.rows):
@@ -274,8 +279,26 @@ def flashback_chart(data: ChartData, study: Study) -> Figure:
     return finish(fig, study, (f"Flashback check: {b.name}",
                                 "Will the flame flash back? A blend keeps the required margin where its curve stays "
                                 "above the red line (a screening margin, not a proof of safety)"
-                                + data.note("blend_fraction") + conditions_note(panels, n_every)),
+                                + data.note("blend_fraction") + conditions_note(panels, n_every - len(left))
+                                + _unassessed_note(left, why)),
                    handles, "Fuel and burner")
+
+
+def _unassessed_conditions(data: ChartData) -> tuple[list[tuple[float, float]], list[str]]:
+    """The (pressure, preheat) conditions that burn but have no flashback margin at any point
+    (flashback not assessed there: outside its criterion's range), and why."""
+    margins = {(r["pressure_bar"], r["unburned_temperature_K"]) for r in data.rows if r["flashback_margin"] is not None}
+    burning = [r for r in ok_rows(data.rows) if (r["pressure_bar"], r["unburned_temperature_K"]) not in margins]
+    return sorted({(r["pressure_bar"], r["unburned_temperature_K"]) for r in burning}), unassessed_reasons(
+        burning, "flashback")
+
+
+def _unassessed_note(left: list[tuple[float, float]], why: list[str]) -> str:
+    """A line naming the conditions a flashback chart has no panel for, and why ('' when none)."""
+    if not left:
+        return ""
+    return (f"\nNo panel for {', '.join(f'{P:g} bar {T:g} K' for P, T in left)}: flashback is not assessed there"
+            + (f" ({'; '.join(why)})" if why else "") + "; every point is in results.csv")
 
 
 #: Points per axis of the fine grid the window's margins are interpolated on.
@@ -317,60 +340,28 @@ def _limit_overlay(ax, limits: list[dict]) -> None:
        has_window)
 def window_chart(data: ChartData, study: Study) -> Figure:
     """Operating window over (blend fraction, phi): one interpolated field per margin, the fill and
-    both edge lines drawn from it, so the two can never disagree."""
+    both edge lines drawn from it, so the two can never disagree. The legend names what is drawn
+    only; a margin assessed nowhere in a panel is said so in its frame."""
     ds, b = data.dataset, study.burner
     assert b is not None  # drawn only with a burner (registry.has_window)
-    bo_col, bo_min, _ = b.blowoff
-    bo_short = "SM" if b.on_stabilizer else "BO"
     every = [(f, o, p, t) for f in ds.fuel.values for o in ds.oxidizer.values for p in data.shown["pressure_bar"]
              for t in data.shown["unburned_temperature_K"]]
     panels = spread(every, MAX_PANELS)
     fig, axes = figure(min(len(panels), 3), nrows=int(np.ceil(len(panels) / 3)), width=6.0, height=4.4)
-    products = []
+    products: list[np.ndarray] = []
+    drawn: set[str] = set()
     for ax, (fuel, ox, P, T) in zip(axes.flat, panels):
         at = ds.sel(fuel=fuel, oxidizer=ox, pressure_bar=P, unburned_temperature_K=T).sortby(
             ["blend_fraction", "equivalence_ratio"])
-        fracs, phis = at.blend_fraction.values, at.equivalence_ratio.values
-        fb = at.flashback_margin.transpose("blend_fraction", "equivalence_ratio").values
-        bo = at[bo_col].transpose("blend_fraction", "equivalence_ratio").values
-        products.append((fb * bo)[np.isfinite(fb * bo)])
-        xf = np.linspace(fracs[0], fracs[-1], WINDOW_GRID_POINTS)
-        yf = np.linspace(phis[0], phis[-1], WINDOW_GRID_POINTS)
-        fbf, bof = _fine_field(fb, fracs, phis, xf, yf), _fine_field(bo, fracs, phis, xf, yf)
-        X, Y = np.meshgrid(100 * xf, yf, indexing="ij")
-        worst = np.fmin(fbf / b.min_flashback_margin, bof / bo_min)
-        if np.nanmax(worst, initial=-np.inf) >= 1.0:
-            ax.contourf(X, Y, worst, levels=[1.0, np.inf], colors=["#bfe3bf"])
-        if np.isnan(worst).any():
-            ax.contourf(X, Y, np.isnan(worst).astype(float), levels=[0.5, 1.5], colors=["0.85"], hatches=["//"])
-        for grid, level, colour, style in ((fbf, b.min_flashback_margin, "#7b2d8e", "-"),
-                                           (bof, bo_min, "#1f6f6f", "--")):
-            if np.nanmin(grid, initial=np.inf) < level < np.nanmax(grid, initial=-np.inf):
-                ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.8, linestyles=style)
+        drawn |= _window_panel(ax, at, b, products)
         _limit_overlay(ax, [r for r in data.limits if (r["fuel"], r["oxidizer"], r["pressure_bar"],
                                                        r["unburned_temperature_K"]) == (fuel, ox, P, T)])
-        Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
-        warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
-        ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, clip_on=False, zorder=6)
-        if warned.any():
-            ax.plot(Xs[warned], Ys[warned], "x", color="#b2182b", markersize=6, clip_on=False, zorder=6)
-        ax.margins(0.03)
         ax.set_xlabel(f"{study.blend_with} in the fuel gas [mol %]")
         ax.set_ylabel("Equivalence ratio φ [-]")
         ax.set_title(f"{fuel} in {ox}, p = {P:g} bar, T_u = {T:g} K", fontsize=10)
     for ax in list(axes.flat)[len(panels):]:
         ax.set_visible(False)
-    handles = {
-        f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g}),\nor the one assessed":
-            Patch(color="#bfe3bf"),
-        f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, lowers it)":
-            Line2D([], [], color="#7b2d8e", lw=1.8),
-        (f"stabilizer margin U_BO/U = {bo_min:g}" if b.on_stabilizer else f"blowoff margin g_B/g_wall = {bo_min:g}")
-        + "\n(a slower flame lowers it)":
-            Line2D([], [], color="#1f6f6f", lw=1.8, linestyle="--"),
-        "no flame, failed, or no margin assessed (hatched)": Patch(facecolor="0.85", hatch="//"),
-        "solved point": Line2D([], [], color="k", marker=".", linestyle="none"),
-    }
+    handles = _window_legend(b, drawn)
     if any(r["outcome"] == "window" for r in data.limits):
         handles["admissible windows the limit searches found\nwith flames (limits.csv): the answer"] = Line2D(
             [], [], color="k", lw=2.5)
@@ -388,6 +379,71 @@ def window_chart(data: ChartData, study: Study) -> Figure:
                                 + (f"\nShown: {len(panels)} of {len(every)} fuel/oxidizer/condition panels"
                                    if len(panels) < len(every) else "")),
                    handles, "Margins")
+
+
+def _window_panel(ax: Axes, at: xr.Dataset, b: Burner, products: list) -> set[str]:
+    """One (fuel, oxidizer, p, T_u) panel of the operating window; returns what it drew ('green',
+    'hatched', 'flashback', 'blowoff', 'points', 'warned'). A margin that is assessed at no point
+    of the panel gets a note in its frame (the green region then keeps the other margin only)."""
+    bo_col, bo_min, _ = b.blowoff
+    fracs, phis = at.blend_fraction.values, at.equivalence_ratio.values
+    fb = at.flashback_margin.transpose("blend_fraction", "equivalence_ratio").values
+    bo = at[bo_col].transpose("blend_fraction", "equivalence_ratio").values
+    products.append((fb * bo)[np.isfinite(fb * bo)])
+    xf = np.linspace(fracs[0], fracs[-1], WINDOW_GRID_POINTS)
+    yf = np.linspace(phis[0], phis[-1], WINDOW_GRID_POINTS)
+    fbf, bof = _fine_field(fb, fracs, phis, xf, yf), _fine_field(bo, fracs, phis, xf, yf)
+    X, Y = np.meshgrid(100 * xf, yf, indexing="ij")
+    worst = np.fmin(fbf / b.min_flashback_margin, bof / bo_min)
+    drawn = set()
+    if np.nanmax(worst, initial=-np.inf) >= 1.0:
+        ax.contourf(X, Y, worst, levels=[1.0, np.inf], colors=["#bfe3bf"])
+        drawn.add("green")
+    if np.isnan(worst).any():
+        ax.contourf(X, Y, np.isnan(worst).astype(float), levels=[0.5, 1.5], colors=["0.85"], hatches=["//"])
+        drawn.add("hatched")
+    for name, grid, level, colour, style in (("flashback", fbf, b.min_flashback_margin, "#7b2d8e", "-"),
+                                             ("blowoff", bof, bo_min, "#1f6f6f", "--")):
+        if np.nanmin(grid, initial=np.inf) < level < np.nanmax(grid, initial=-np.inf):
+            ax.contour(X, Y, grid, levels=[level], colors=colour, linewidths=1.8, linestyles=style)
+            drawn.add(name)
+    criteria = (("flashback", fb), (b.blowoff[2], bo))
+    drawn |= {f"assessed {n}" for n, m in criteria if np.isfinite(m).any()}
+    unassessed = [n for n, m in criteria if not np.isfinite(m).any()]
+    if unassessed:
+        rows = [{"criteria_not_assessed": str(v)} for v in at.criteria_not_assessed.values.ravel()] \
+            if "criteria_not_assessed" in at else []
+        why = {n: unassessed_reasons(rows, n) for n in unassessed}
+        frame_note(ax, "; ".join(f"{n} margin not assessed at any point" + (f" ({'; '.join(why[n])})" if why[n] else "")
+                                 for n in unassessed)
+                   + ("" if len(unassessed) == 2 else ": no line for it, the green region keeps the other margin only"))
+    Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
+    warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
+    ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, zorder=6)
+    if warned.any():
+        ax.plot(Xs[warned], Ys[warned], "x", color="#b2182b", markersize=6, zorder=6)
+    return drawn | {"points"} if (~warned).any() else drawn
+
+
+def _window_legend(b: Burner, drawn: set[str]) -> dict:
+    """The operating window's legend: only what a panel drew."""
+    _, bo_min, _ = b.blowoff
+    bo_short = "SM" if b.on_stabilizer else "BO"
+    both = {"assessed flashback", f"assessed {b.blowoff[2]}"} <= drawn
+    entries = (
+        ("green", f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g}),\nor the one "
+                  "assessed" if both else "keeps the minimum margin assessed (FB ≥ "
+                  f"{b.min_flashback_margin:g} or {bo_short} ≥ {bo_min:g});\nthe other is not assessed (note in the frame)",
+         Patch(color="#bfe3bf")),
+        ("flashback", f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, "
+                      "lowers it)", Line2D([], [], color="#7b2d8e", lw=1.8)),
+        ("blowoff", (f"stabilizer margin U_BO/U = {bo_min:g}" if b.on_stabilizer
+                     else f"blowoff margin g_B/g_wall = {bo_min:g}") + "\n(a slower flame lowers it)",
+         Line2D([], [], color="#1f6f6f", lw=1.8, linestyle="--")),
+        ("hatched", "no flame, failed, or no margin assessed (hatched)", Patch(facecolor="0.85", hatch="//")),
+        ("points", "solved point", Line2D([], [], color="k", marker=".", linestyle="none")),
+    )
+    return {text: h for key, text, h in entries if key in drawn}
 
 
 @chart("fuel_interchangeability",
@@ -502,8 +558,8 @@ def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
     """One limits.csv row drawn at ``x`` along a vertical axis of its search (blend fraction x ``scale``,
     or phi): the window as a bar with its edge markers, or the closest miss, or the window the flames
     alone allow outside the Wobbe band (dotted); the flames the search solved as dots."""
-    if (r["window"] or 0) <= 1:
-        asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
+    asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
+    if (r["window"] or 0) <= 1 and asked:
         ax.plot([x] * len(asked), [scale * v for v in asked], ".", color="0.35", ms=3, zorder=3)
         handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
     if r["outcome"] == "window":
@@ -552,6 +608,24 @@ def _shade_outside_band(ax, rows, handles, span) -> None:
     handles["grey: outside the Wobbe band"] = Patch(color="0.88")
 
 
+def _in_colour(rows: list[dict]) -> bool:
+    """Whether a series of limits.csv rows draws anything in its own colour (a window, or the
+    window the flames alone allow): its legend entry names only what is drawn."""
+    return any(r["outcome"] == "window" or (r["outcome"] == "none admissible" and r.get("flame_lower_edge") is not None)
+               for r in rows)
+
+
+def _note_unassessed_searches(ax: Axes, groups: dict[tuple, list[dict]]) -> None:
+    """Name in the panel's title the conditions that draw nothing of their own because their
+    searches are not assessed (no criterion in its range at the swept flames): no legend entry
+    for them, and no silent gap."""
+    left = list(dict.fromkeys(f"{k[2]:g} bar {k[3]:g} K" for k, rs in groups.items()
+                              if not _in_colour(rs) and any(r["outcome"] == "not assessed" for r in rs)))
+    if left:
+        ax.set_title(textwrap.fill(f"not assessed, nothing drawn: {', '.join(left)} (no criterion in its range at "
+                                   "the swept flames; limits.csv)", 70), fontsize=8.5, color="0.25")
+
+
 def _draw_blend_windows(ax: Axes, rows: list[dict], study: Study, colours: np.ndarray, handles: dict) -> None:
     """Blend axis against phi: each window a vertical bar from its low to its high blend fraction."""
     groups = _limit_groups(rows, "equivalence_ratio")
@@ -559,9 +633,11 @@ def _draw_blend_windows(ax: Axes, rows: list[dict], study: Study, colours: np.nd
     step = min((b - a for a, b in zip(phis, phis[1:])), default=0.1)
     _shade_outside_band(ax, rows, handles, ax.axhspan)
     for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.25 * step)):
-        handles[f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"] = Line2D([], [], color=col, lw=6, alpha=0.45)
+        if _in_colour(rs):
+            handles[f"{key[0]}, {key[2]:g} bar, {key[3]:g} K"] = Line2D([], [], color=col, lw=6, alpha=0.45)
         for r in rs:
             _draw_search_row(ax, r["equivalence_ratio"] + dx, r, col, handles, 100.0)
+    _note_unassessed_searches(ax, groups)
     ax.set_xlim(phis[0] - 0.6 * step, phis[-1] + 0.6 * step)
     if len(phis) <= 12:
         ax.set_xticks(phis, [f"{v:g}" for v in phis])
@@ -610,9 +686,11 @@ def _draw_phi_windows(ax: Axes, rows: list[dict], study: Study, colours: np.ndar
     step = min((b - a for a, b in zip(fracs, fracs[1:])), default=10.0)
     _shade_outside_band(ax, rows, handles, ax.axvspan)
     for (key, rs), col, dx in zip(groups.items(), colours, _offsets(len(groups), 0.25 * step)):
-        handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col, lw=6, alpha=0.45))
+        if _in_colour(rs):
+            handles.setdefault(f"{key[0]}, {key[2]:g} bar, {key[3]:g} K", Line2D([], [], color=col, lw=6, alpha=0.45))
         for r in rs:
             _draw_search_row(ax, 100 * r["blend_fraction"] + dx, r, col, handles, 1.0)
+    _note_unassessed_searches(ax, groups)
     ax.set_xlim(fracs[0] - 0.6 * step, fracs[-1] + 0.6 * step)
     if len(fracs) <= 12:
         ax.set_xticks(fracs, [f"{v:g}" for v in fracs])

@@ -6,7 +6,7 @@ flame_temperature_chart  adiabatic flame temperature vs equivalence ratio
 
 Layout: one panel per (pressure, unburned temperature), one curve per fuel,
 oxidizer and blend fraction (big studies: the levels of registry.py's chart rule). Points that
-did not give a flame are not dropped: they are marked on the axis floor with their status (zero, or the panel's unburned
+did not give a flame are not dropped: they are marked at the floor with their status (zero, or the panel's unburned
 temperature for the flame temperature chart: no flame, no temperature rise).
 """
 from __future__ import annotations
@@ -15,7 +15,6 @@ from typing import TYPE_CHECKING
 
 import matplotlib.pyplot as plt
 import numpy as np
-from matplotlib.layout_engine import ConstrainedLayoutEngine
 from matplotlib.lines import Line2D
 
 from ...columns import gas_label
@@ -26,10 +25,9 @@ from .style import (
     MARKERS,
     NOT_BURNING,
     curves as curve_keys,
-    footer,
+    finish,
     panels as panel_keys,
     sparse_log_yticks,
-    title_text,
 )
 
 if TYPE_CHECKING:
@@ -69,12 +67,13 @@ def _legend_extras(handles: dict, shown: set[str], companion, largest_bar: float
     under the markers."""
     for status, marker in NOT_BURNING:
         if status in shown:
-            text = ("no flame (on the axis, colour of its curve)" if status == "no_flame"
-                    else "solver failed or not solved yet (on the axis)")
+            text = ("no flame (at the floor, colour of its curve)" if status == "no_flame"
+                    else "solver failed or not solved yet (at the floor)")
             handles[text] = Line2D([], [], color="0.35", marker=marker, markerfacecolor="none" if marker == "v" else "0.35",
                                    linestyle="none", markersize=7)
-    if "warned" in shown:
-        handles["outside the range the method or mechanism\ncovers (red ring; see warnings in results.csv)"] = Line2D(
+    if "warned" in shown:  # a ring round every burning point with a warning (design.point_warnings)
+        handles["red ring: a warning in results.csv: outside a range\nthe method or mechanism covers, or the flame may\n"
+                "be thermodiffusively unstable (Lewis number)"] = Line2D(
             [], [], marker="o", markersize=9, markerfacecolor="none", markeredgecolor="#b2182b", linestyle="none")
     if "band" in shown:
         handles["shaded: kinetic uncertainty, 1 sigma\n(first order, rate-constant factors)"] = plt.Rectangle(
@@ -136,7 +135,7 @@ def phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: 
                 if bad:
                     ax.scatter([r["equivalence_ratio"] for r in bad], np.full(len(bad), floor), marker=marker,
                                edgecolors=colours[ci], facecolors="none" if marker == "v" else colours[ci],
-                               s=40, zorder=5, clip_on=False)
+                               s=40, zorder=5)
                     shown.add(status)
         ax.set_title(f"p = {P:g} bar, T_u = {T:g} K", fontsize=10)
         ax.set_xlabel("Equivalence ratio φ [-]")
@@ -156,14 +155,7 @@ def phi_chart(data: ChartData, study: Study, column: str, scale: float, ylabel: 
         ax.set_visible(False)
     bars = [r[error_bars] for r in rows if error_bars and r["status"] == "ok" and r.get(error_bars) is not None]
     _legend_extras(handles, shown, companion, max(bars) if bars else None)
-    fig.suptitle(title_text(fig, (title[0], title[1])) + data.note(), fontsize=11.5, x=0.02, ha="left")
-    fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
-               frameon=False, title="Fuel (blend as mole fraction of fuel gas)", title_fontsize=8.5)
-    footer(fig, study)
-    engine = fig.get_layout_engine()
-    assert isinstance(engine, ConstrainedLayoutEngine)  # made with layout="constrained" above
-    engine.set(rect=(0, 0.07, 1, 0.93))
-    return fig
+    return finish(fig, study, (title[0], title[1] + data.note()), handles, "Fuel (blend as mole fraction of fuel gas)")
 
 
 @chart("flame_speed_vs_equivalence_ratio",

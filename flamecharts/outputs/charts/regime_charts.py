@@ -24,7 +24,7 @@ from ...columns import gas_label
 from ...design import turbulent_speeds
 from ...physics.turbulence import regime_lines
 from .registry import MAX_CURVES, ChartData, chart, several_blends, spread
-from .style import LINESTYLES, MARKERS, colour_scale, curves, empty_note, figure, finish, panels as panel_keys
+from .style import GUIDE, LINESTYLES, MARKERS, colour_scale, curves, empty_note, figure, finish, panels as panel_keys
 
 if TYPE_CHECKING:
     from matplotlib.axes import Axes
@@ -60,7 +60,7 @@ def regime_chart(data: ChartData, study: Study) -> Figure:
     x = np.logspace(-1, 5, 200)
     label_at = {"Re_t = 1": 0.4, "Da = 1": 300.0, "Ka = 1": 1e4, "Ka = 100": 1e4}
     for name, y in regime_lines(x).items():
-        ax.plot(x, y, color="0.25", lw=1.0, ls="-" if name != "Re_t = 1" else ":")
+        ax.plot(x, y, color="0.25", lw=1.0, ls="-" if name != "Re_t = 1" else ":", gid=GUIDE)  # edge to edge
         at = label_at[name]
         ax.annotate(name, (at, float(regime_lines(at)[name])), fontsize=8, color="0.25", xytext=(3, 3),
                     textcoords="offset points")

@@ -9,7 +9,6 @@ own); draw_all and the report pick it up, in the order the charts are registered
 """
 from __future__ import annotations
 
-import textwrap
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field
 from functools import cached_property
@@ -34,9 +33,6 @@ MAX_BLEND_CURVES = 6
 #: Panels of one figure, at most.
 MAX_PANELS = 9
 
-#: Characters per line of a chart's note on the levels it leaves out.
-NOTE_WIDTH = 100
-
 #: Axis -> (name in a chart's note, unit)
 _AXIS_WORDS = {"pressure_bar": ("pressures", "bar"), "unburned_temperature_K": ("preheats", "K"),
                "blend_fraction": ("blend fractions", ""), "equivalence_ratio": ("equivalence ratios", "")}
@@ -60,7 +56,8 @@ def spread(values: Iterable[Any], k: int) -> list:
 
 def thinned_note(shown: dict[str, list], every: dict[str, list], also: tuple[str, ...] = ()) -> str:
     """One line naming the levels a chart leaves out ('' when it draws them all); ``also``:
-    phrases of its own for what else it leaves out (e.g. '2 of 4 fuel/condition blocks')."""
+    phrases of its own for what else it leaves out (e.g. '2 of 4 fuel/condition blocks'). Not
+    wrapped here: style.title_text wraps it to the width the figure leaves beside its legend."""
     parts = [a for a in also if a]
     for axis, values in shown.items():
         if len(values) < len(every[axis]):
@@ -69,8 +66,7 @@ def thinned_note(shown: dict[str, list], every: dict[str, list], also: tuple[str
                          f"{' ' + unit if unit else ''})")
     if not parts:
         return ""
-    return "\n" + textwrap.fill("Shown: " + "; ".join(parts) + "; every point is in results.csv and results.nc",
-                                NOTE_WIDTH)
+    return "\nShown: " + "; ".join(parts) + "; every point is in results.csv and results.nc"
 
 
 def conditions_note(drawn: list[tuple[float, float]], n_every: int) -> str:

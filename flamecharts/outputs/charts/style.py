@@ -1,8 +1,9 @@
 """What every chart shares: colours, markers, figure frame, footer with the cautions, selections of rows."""
 from __future__ import annotations
 
+import re
 import textwrap
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 import matplotlib
 
@@ -79,6 +80,9 @@ def title_text(fig: Figure, title: tuple[str, str]) -> str:
 
 
 def finish(fig: Figure, study: Study, title: tuple[str, str], handles: dict, legend_title: str) -> Figure:
+    """Title, legend, footer and layout of a chart, and every panel's frame fitted round its data
+    (:func:`fit_frames`): the last call of every chart's ``draw``."""
+    fit_frames(fig)
     fig.suptitle(title_text(fig, title), fontsize=11.5, x=0.02, ha="left")
     if handles:
         fig.legend(list(handles.values()), list(handles.keys()), loc="outside right upper", fontsize=8.5,
@@ -88,6 +92,107 @@ def finish(fig: Figure, study: Study, title: tuple[str, str], handles: dict, leg
     assert isinstance(engine, ConstrainedLayoutEngine)  # figure() makes every chart's layout constrained
     engine.set(rect=(0, 0.07, 1, 0.93))
     return fig
+
+
+#: gid of a line drawn across the frame on purpose (a regime boundary from edge to edge):
+#: :func:`fit_frames` does not fit the frame round it.
+GUIDE = "guide"
+#: Room left between the frame and the outermost marker, ring or line, as a fraction of the axis
+#: (at least; more where a marker's radius needs it): :func:`fit_frames`.
+FRAME_MARGIN = 0.06
+
+
+def _marker_radius_pt(artist: object) -> float:
+    """Half the size of an artist's markers [pt] (0 for a plain line or an area)."""
+    from matplotlib.collections import PathCollection
+    from matplotlib.lines import Line2D
+
+    if isinstance(artist, Line2D):
+        return 0.5 * float(artist.get_markersize()) + float(artist.get_markeredgewidth()) \
+            if artist.get_marker() not in (None, "None", "none", "", " ") else 0.5 * float(artist.get_linewidth())
+    if isinstance(artist, PathCollection):
+        sizes = np.asarray(artist.get_sizes(), dtype=float)
+        return 0.5 * float(np.sqrt(sizes.max())) + 1.0 if sizes.size else 0.0
+    return 0.0
+
+
+def drawn_points(ax: Axes) -> list[tuple[np.ndarray, np.ndarray, float]]:
+    """What a panel draws in data coordinates, as (x, y, marker radius [pt]) per artist: the points
+    of lines and markers, scatter offsets, the vertices of error bars, bands and contours, and the
+    data coordinate of reference lines across the panel (axhline: y, x NaN; axvline: x, y NaN).
+    Lines marked :data:`GUIDE`, areas (patches: spans, bars) and invisible artists are left out."""
+    out = []
+    artists: list[Any] = [*ax.get_lines(), *ax.collections]
+    for a in artists:
+        if not a.get_visible() or a.get_gid() == GUIDE:
+            continue
+        t, r = a.get_transform(), _marker_radius_pt(a)
+        if hasattr(a, "get_xydata"):  # a line
+            xy = np.asarray(a.get_xydata(), dtype=np.float64).reshape(-1, 2)
+        else:
+            offsets = np.asarray(a.get_offsets(), dtype=np.float64).reshape(-1, 2)
+            if offsets.size and a.get_offset_transform() == ax.transData:
+                out.append((offsets[:, 0], offsets[:, 1], r))
+                continue
+            paths = a.get_paths()
+            xy = np.concatenate([p.vertices for p in paths]) if paths else np.empty((0, 2))
+        if t == ax.transData:
+            out.append((xy[:, 0], xy[:, 1], r))
+        elif t == ax.get_yaxis_transform():  # axhline: y in data, x across the panel
+            out.append((np.full(len(xy), np.nan), xy[:, 1], r))
+        elif t == ax.get_xaxis_transform():  # axvline
+            out.append((xy[:, 0], np.full(len(xy), np.nan), r))
+    return out
+
+
+def _fit_axis(lo: float, hi: float, values: np.ndarray, margin: float, log: bool) -> tuple[float, float]:
+    """Limits (lo, hi), widened only where ``values`` come closer to an end than ``margin`` of the
+    axis, so that they do not any more (on a log axis, in the logarithm)."""
+    f, inv = (np.log10, lambda v: 10.0 ** v) if log else (lambda v: v, lambda v: v)
+    values = values[np.isfinite(values) & ((values > 0) if log else True)]
+    if not values.size or (log and (lo <= 0 or hi <= 0)):
+        return lo, hi
+    a, b = f(lo), f(hi)
+    dmin, dmax = float(f(values.min())), float(f(values.max()))
+    span = b - a
+    low_ok, high_ok = dmin - a >= 0.5 * margin * span, b - dmax >= 0.5 * margin * span
+    if low_ok and high_ok:
+        return lo, hi
+    if not low_ok and not high_ok:
+        width = (dmax - dmin) / (1 - 2 * margin) if dmax > dmin else max(abs(dmin) * 0.2, span, 1e-9)
+        a, b = min(a, dmin - margin * width), max(b, dmax + margin * width)
+    elif not low_ok:
+        a = min(a, (dmin - margin * b) / (1 - margin))
+    else:
+        b = max(b, (dmax - margin * a) / (1 - margin))
+    return float(inv(a)), float(inv(b))
+
+
+def fit_frames(fig: Figure) -> None:
+    """Fit every panel's limits round what it draws, on both axes: no marker, ring, error bar or
+    reference line on or outside the frame (a one-value axis included, whose autoscaled limits
+    sit exactly at the value). A limit a chart set stays where it leaves room (a flame-speed axis
+    from 0); one that cuts a marker is moved out, by :data:`FRAME_MARGIN` of the axis or the
+    largest marker's radius if more. Panels that share an axis are fitted together."""
+    for ax in fig.axes:
+        if not ax.get_visible() or not ax.axison:
+            continue
+        pts = drawn_points(ax)
+        bbox = ax.get_position()
+        size_pt = (72 * fig.get_figwidth() * bbox.width, 72 * fig.get_figheight() * bbox.height)
+        for k, axis in enumerate("xy"):
+            scale = getattr(ax, f"get_{axis}scale")()
+            if scale not in ("linear", "log"):
+                continue
+            shared = getattr(ax, f"get_shared_{axis}_axes")().get_siblings(ax)
+            group = [pts] + [drawn_points(s) for s in shared if s is not ax]
+            values = np.concatenate([p[k] for g in group for p in g] or [np.empty(0)])
+            radius = max((p[2] for g in group for p in g if np.isfinite(p[k]).any()), default=0.0)
+            margin = min(0.2, max(FRAME_MARGIN, 1.5 * (radius + 2.0) / max(size_pt[k], 1.0)))
+            lo, hi = getattr(ax, f"get_{axis}lim")()
+            new = _fit_axis(min(lo, hi), max(lo, hi), values, margin, scale == "log")
+            if new != (min(lo, hi), max(lo, hi)):
+                getattr(ax, f"set_{axis}lim")(new[::-1] if lo > hi else new)
 
 
 #: How a panel with nothing to show starts its note (tests look for it).
@@ -101,6 +206,13 @@ def empty_note(ax: Axes, reason: str) -> None:
     ax.set_yticks([])
     ax.text(0.5, 0.5, textwrap.fill(f"{EMPTY_NOTE}: {reason}", 48), transform=ax.transAxes, ha="center",
             va="center", fontsize=9, color="0.35", wrap=True)
+
+
+def frame_note(ax: Axes, text: str) -> None:
+    """A note inside a panel that does show data, on what it cannot show (a criterion assessed at
+    no point): top left, on a white box over the data, wrapped to the panel."""
+    ax.text(0.02, 0.97, textwrap.fill(text, 60), transform=ax.transAxes, ha="left", va="top", fontsize=8,
+            color="0.25", zorder=10, bbox=dict(facecolor="white", edgecolor="0.6", alpha=0.8, boxstyle="round,pad=0.3"))
 
 
 def shows_data(ax: Axes) -> bool:
@@ -132,6 +244,32 @@ def note_empty_panels(fig: Figure, reason: str) -> int:
             empty_note(ax, reason)
             n += 1
     return n
+
+
+def unassessed_reasons(rows: list[dict], criterion: str) -> list[str]:
+    """Why ``criterion`` ('flashback', 'blowoff', ...) is not assessed at the burning ``rows``
+    (results.csv ``criteria_not_assessed``: 'flashback: 4 bar outside 0.5-2 bar; blowoff: ...'),
+    each reason once in first-seen order; reasons that differ in their numbers only are merged,
+    each differing number given as its range.
+
+    >>> unassessed_reasons([{"criteria_not_assessed": "blowoff: Lewis number 0.39 < 0.8"},
+    ...                     {"criteria_not_assessed": "flashback: 4 bar outside 0.5-2 bar; blowoff: Lewis number 0.43 < 0.8"}],
+    ...                    "blowoff")
+    ['Lewis number 0.39-0.43 < 0.8']
+    """
+    number = re.compile(r"\d+(?:\.\d+)?")
+    out: dict[str, list[list[float]]] = {}
+    for r in rows:
+        for part in (r.get("criteria_not_assessed") or "").split("; "):
+            if part.startswith(f"{criterion}: "):
+                text = part[len(criterion) + 2:]
+                out.setdefault(number.sub("#", text), []).append([float(v) for v in number.findall(text)])
+    merged = []
+    for template, values in out.items():
+        spans = [f"{min(col):g}" if min(col) == max(col) else f"{min(col):g}-{max(col):g}" for col in zip(*values)]
+        pieces = template.split("#")
+        merged.append("".join(piece + (spans[i] if i < len(spans) else "") for i, piece in enumerate(pieces)))
+    return merged
 
 
 def colour_scale(n: int) -> np.ndarray:

@@ -76,6 +76,10 @@ def sensitivity_chart(data: ChartData, study: Study) -> Figure:
                      + (f" ± {band:.2g} % (kinetics, 1σ)" if band is not None else ""), fontsize=9)
     for ax in list(axes.flat)[len(chosen):]:
         ax.set_visible(False)
+    n_have = sum(1 for r in data.rows if r.get("top_reactions"))
+    left = (f"\nShown: {len(chosen)} of {n_have} points with sensitivities (per gas the one nearest φ 1 at the lowest "
+            "pressure and preheat; one gas: also its leanest and richest); every point's are in sensitivities.csv"
+            if len(chosen) < n_have else "")
     return finish(fig, study, ("Flame-speed sensitivity to rate constants",
                                "Which reactions set S_L, and how uncertain are they? (blue: faster when k rises; "
-                               "red: slower)"), {}, "")
+                               "red: slower)" + left), {}, "")
