@@ -1,10 +1,13 @@
 """Design read-out: stored flames + fuel-gas properties + the burner -> indicators, margins, verdict.
 
 Runs on flat rows (results.flat_row) after they are read from the store, so changing an
-indicator setting or the burner never needs a flame to be solved again.
+indicator setting or the burner never needs a flame to be solved again. The indicators and the
+flame-response columns are computed once for all rows on arrays (indicator_columns,
+response_columns: column -> one value per row), the rest row by row.
 
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
+indicator_columns         the indicators and reference ratios of all rows at once (response_columns: Le_eff, Markstein)
 premixer_margins          a premixer's boundary-layer flashback, extinction-strain blowout and verdict
 point_warnings            inputs outside the range the method or the mechanism covers
 mechanism_differences     flame speed and thickness of each mechanism a study compares against the reference's
@@ -16,6 +19,9 @@ import re
 from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
+
+import numpy as np
+import numpy.typing as npt
 
 from .analyses import parts
 from .columns import (
@@ -170,18 +176,69 @@ def fuel_gas_table(study: Study) -> list[dict]:
     return [g.row for g in fuel_gases(study).values()]
 
 
-def _indicators(r: dict, s: dict) -> dict:
-    S_L, a = r["laminar_flame_speed_m_s"], r["unburned_thermal_diffusivity_m2_s"]
+def _floats(rows: list[dict], col: str) -> np.ndarray:
+    """Column ``col`` of ``rows`` as float64 (NaN where a row has no value)."""
+    return np.array([np.nan if (v := r.get(col)) is None else v for r in rows], dtype=float)
+
+
+def _scatter(n: int, where: np.ndarray, values: npt.ArrayLike) -> list:
+    """``values``, computed for the rows at the indices ``where``, as one Python value per row of ``n``
+    (None at the others): a column to write back into the rows."""
+    out: list = [None] * n
+    for i, v in zip(where.tolist(), np.asarray(values).tolist()):
+        out[i] = v
+    return out
+
+
+def indicator_columns(study: Study, rows: list[dict]) -> dict[str, list]:
+    """The indicators of every burning point (columns.INDICATOR_COLUMNS: the chemical time,
+    Blint thickness, critical gradients and quenching distances of physics.indicators with the
+    study's [indicators] settings, and the reference ratios), computed once for all rows on
+    arrays: column -> one value per row, None where a point has no flame."""
+    s, n = study.indicator_settings, len(rows)
+    where = np.flatnonzero([r["status"] == "ok" for r in rows])
+    burning = [rows[i] for i in where.tolist()]
+    S_L, a = _floats(burning, "laminar_flame_speed_m_s"), _floats(burning, "unburned_thermal_diffusivity_m2_s")
     d_q = ind.quenching_distance(a, S_L, s["quench_peclet"])
-    return {
+    own = {
         "chemical_time_s": ind.chemical_time(a, S_L),
-        "blint_thickness_mm": 1e3 * ind.blint_thickness(a, S_L, r["adiabatic_flame_temperature_K"],
-                                                        r["unburned_temperature_K"]),
+        "blint_thickness_mm": 1e3 * ind.blint_thickness(a, S_L, _floats(burning, "adiabatic_flame_temperature_K"),
+                                                        _floats(burning, "unburned_temperature_K")),
         "flashback_critical_gradient_1_s": ind.flashback_critical_gradient(S_L, a, s["flashback_peclet"]),
         "blowoff_critical_gradient_1_s": ind.blowoff_critical_gradient(S_L, a, s["blowoff_karlovitz"]),
         "quenching_distance_mm": 1e3 * d_q,
         "tube_quenching_diameter_mm": 1e3 * ind.tube_quenching_diameter(d_q, s["tube_quench_factor"]),
     }
+    full = {c: np.full(n, np.nan) for c in own}
+    for c, v in own.items():
+        full[c][where] = v
+    full["laminar_flame_speed_m_s"] = _floats(rows, "laminar_flame_speed_m_s")
+    table = {c: _scatter(n, where, v) for c, v in own.items()} | _reference_ratios(study, rows, full)
+    return {c: table[c] for c in INDICATOR_COLUMNS}
+
+
+def _reference_ratios(study: Study, rows: list[dict], values: dict[str, np.ndarray]) -> dict[str, list]:
+    """RATIOS of every point whose reference point (the reference gas unblended, same oxidizer,
+    phi, p and T_u: a point of the study when it sweeps blend fraction 0) is among ``rows`` and
+    both burn, from ``values`` (column -> array over ``rows``), and the reference gas's name:
+    column -> one value per row."""
+    n = len(rows)
+    reference: list = [None] * n
+    pairs: list[tuple[int, int]] = []
+    if 0.0 in study.blend_fractions:
+        index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
+                  r["unburned_temperature_K"]): i for i, r in enumerate(rows)}
+        for i, r in enumerate(rows):
+            ref_fuel = _reference_fuel(study, r["fuel"])
+            j = index.get((ref_fuel, r["oxidizer"], 0.0, r["equivalence_ratio"], r["pressure_bar"],
+                           r["unburned_temperature_K"]))
+            if j is not None:
+                reference[i] = ref_fuel
+                if r["status"] == "ok" and rows[j]["status"] == "ok":
+                    pairs.append((i, j))
+    mine, ref = (np.array([p[k] for p in pairs], dtype=int) for k in (0, 1))
+    return {col: _scatter(n, mine, values[src][mine] / values[src][ref]) for col, src in RATIOS} | \
+        {"reference": reference}
 
 
 RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
@@ -371,25 +428,13 @@ def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> 
     gases = fuel_gases(study)
     if ladders is None:
         ladders = sweep_ladders(rows) if study.premixer is not None else NO_LADDERS
-    for r in rows:
-        r.update(dict.fromkeys(INDICATOR_COLUMNS))
-        if r["status"] == "ok":
-            r.update(_indicators(r, s))
-        r.update(response_columns(r))
+    columns = indicator_columns(study, rows) | response_columns(rows)  # column-wise, then into the rows
+    names = list(columns)
+    for r, values in zip(rows, zip(*columns.values())):
+        r.update(zip(names, values))
         if study.uncertainty is not None:
             r.update(kinetic_columns(study, r))
-    index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
-              r["unburned_temperature_K"]): r for r in rows}
-    has_zero = 0.0 in study.blend_fractions
     for r in rows:
-        ref_fuel = _reference_fuel(study, r["fuel"])
-        ref = index.get((ref_fuel, r["oxidizer"], 0.0, r["equivalence_ratio"], r["pressure_bar"],
-                         r["unburned_temperature_K"])) if has_zero else None
-        if ref is not None:
-            r["reference"] = ref_fuel
-            if r["status"] == "ok" and ref["status"] == "ok":
-                for col, src in RATIOS:
-                    r[col] = r[src] / ref[src]
         gas = gases[(r["fuel"], r["blend_fraction"], r["oxidizer"])]
         for col in GAS_COLUMNS:
             r[col] = gas.row[col]
@@ -402,23 +447,26 @@ def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> 
     return rows
 
 
-def response_columns(row: dict) -> dict:
+def response_columns(rows: list[dict]) -> dict[str, list]:
     """Effective Lewis number, Markstein number and length, and the thermodiffusive regime of
-    a burning point from its stored Lewis and Zeldovich numbers (physics.flame_response);
-    None where one is missing (Ze is there only with [flame_response])."""
-    out: dict[str, Any] = dict.fromkeys(("effective_lewis_number", "markstein_number_unburned", "markstein_length_mm",
-                                         "instability"))
-    ze, le_f, le_o = row.get("zeldovich_number"), row.get("lewis_number_fuel"), row.get("lewis_number_oxygen")
-    if row["status"] != "ok" or ze is None or le_f is None or le_o is None or not ze > 0:
-        return out
-    phi = row["equivalence_ratio"]
+    every burning point from its stored Lewis and Zeldovich numbers (physics.flame_response),
+    computed once for all rows on arrays: column -> one value per row, None where one of the
+    three is missing (Ze is there only with [flame_response]) or Ze is not positive."""
+    n = len(rows)
+    where = np.flatnonzero([r["status"] == "ok" and r.get("lewis_number_fuel") is not None
+                            and r.get("lewis_number_oxygen") is not None and r.get("zeldovich_number") is not None
+                            and r["zeldovich_number"] > 0 for r in rows])
+    mine = [rows[i] for i in where.tolist()]
+    ze, le_f, le_o, phi = (_floats(mine, c) for c in ("zeldovich_number", "lewis_number_fuel", "lewis_number_oxygen",
+                                                       "equivalence_ratio"))
     lean = phi <= 1.0  # the fuel is the deficient reactant
-    le_eff = fr.effective_lewis_number(le_o if lean else le_f, le_f if lean else le_o, ze, 1.0 / phi if lean else phi)
-    ma = fr.markstein_number_unburned(row["expansion_ratio"], ze, le_eff)
-    delta_mm = 1e3 * row["unburned_thermal_diffusivity_m2_s"] / row["laminar_flame_speed_m_s"]
-    out.update(effective_lewis_number=le_eff, markstein_number_unburned=ma, markstein_length_mm=ma * delta_mm,
-               instability=fr.thermodiffusive_regime(ze, le_eff))
-    return out
+    le_eff = fr.effective_lewis_number(np.where(lean, le_o, le_f), np.where(lean, le_f, le_o), ze,
+                                       np.where(lean, 1.0 / phi, phi))
+    ma = fr.markstein_number_unburned(_floats(mine, "expansion_ratio"), ze, le_eff)
+    delta_mm = 1e3 * _floats(mine, "unburned_thermal_diffusivity_m2_s") / _floats(mine, "laminar_flame_speed_m_s")
+    return {"effective_lewis_number": _scatter(n, where, le_eff), "markstein_number_unburned": _scatter(n, where, ma),
+            "markstein_length_mm": _scatter(n, where, ma * delta_mm),
+            "instability": _scatter(n, where, fr.thermodiffusive_regime(ze, le_eff))}
 
 
 #: Reactions kept per point for sensitivities.csv, the report and the sensitivity chart.

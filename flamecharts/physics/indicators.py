@@ -13,13 +13,17 @@ wall_velocity_gradient_slot     g = 6 U / h (fully developed laminar slot of gap
 wall_velocity_gradient_turbulent  Blasius's wall shear over mu (turbulent smooth duct)
 port_velocity_at_thermal_input  bulk port velocity for a thermal input
 
-All inputs and outputs in SI units. Constants that are not universal are parameters
+All inputs and outputs in SI units. The first six take and give numbers or NumPy arrays alike
+(design.annotate computes them for every point at once; powers through elementwise.power, so an
+array gives each element the bits of a number). Constants that are not universal are parameters
 with documented defaults (DEFAULTS); the study config may override each of them. Where
 each constant holds (the data it was fitted on) is physics.validity's.
 """
 from __future__ import annotations
 
 from typing import Any
+
+from .elementwise import Real, power
 
 #: Default settings, each overridable in the study's [indicators] table.
 #: Values are floats, or None where a setting has no default (Any: the defaults of the functions
@@ -48,7 +52,7 @@ DEFAULTS: dict[str, Any] = {
 }
 
 
-def chemical_time(alpha_u: float, S_L: float) -> float:
+def chemical_time(alpha_u: Real, S_L: Real) -> Real:
     """Chemical (flame) time tau_c = alpha_u / S_L^2 [s].
 
     The transit time of the flame through its own diffusive thickness (Poinsot &
@@ -65,10 +69,10 @@ def chemical_time(alpha_u: float, S_L: float) -> float:
     >>> round(chemical_time(2.2e-5, 0.37) * 1e3, 4)
     0.1607
     """
-    return alpha_u / S_L ** 2
+    return alpha_u / power(S_L, 2)
 
 
-def blint_thickness(alpha_u: float, S_L: float, T_b: float, T_u: float) -> float:
+def blint_thickness(alpha_u: Real, S_L: Real, T_b: Real, T_u: Real) -> Real:
     """Blint's flame-thickness estimate 2 (alpha_u/S_L)(T_b/T_u)^0.7 [m].
 
     Blint, Combust. Sci. Technol. 49 (1986) 79, as given by Poinsot & Veynante 2005,
@@ -86,10 +90,10 @@ def blint_thickness(alpha_u: float, S_L: float, T_b: float, T_u: float) -> float
     >>> round(blint_thickness(2.2e-5, 0.37, 2220.0, 298.0) * 1e3, 3)
     0.485
     """
-    return 2.0 * (alpha_u / S_L) * (T_b / T_u) ** 0.7
+    return 2.0 * (alpha_u / S_L) * power(T_b / T_u, 0.7)
 
 
-def flashback_critical_gradient(S_L: float, alpha_u: float, Pe_F: float = DEFAULTS["flashback_peclet"]) -> float:
+def flashback_critical_gradient(S_L: Real, alpha_u: Real, Pe_F: float = DEFAULTS["flashback_peclet"]) -> Real:
     """Critical wall velocity gradient for boundary-layer flashback g_F = S_L^2/(Pe_F alpha_u) [1/s].
 
     Lewis & von Elbe's critical-gradient concept (Combustion, Flames and Explosions of
@@ -110,10 +114,10 @@ def flashback_critical_gradient(S_L: float, alpha_u: float, Pe_F: float = DEFAUL
     >>> round(flashback_critical_gradient(0.37, 2.2e-5))
     479
     """
-    return S_L ** 2 / (Pe_F * alpha_u)
+    return power(S_L, 2) / (Pe_F * alpha_u)
 
 
-def blowoff_critical_gradient(S_L: float, alpha_u: float, Ka_B: float = DEFAULTS["blowoff_karlovitz"]) -> float:
+def blowoff_critical_gradient(S_L: Real, alpha_u: Real, Ka_B: float = DEFAULTS["blowoff_karlovitz"]) -> Real:
     """Critical wall velocity gradient for blowoff of a port flame g_B = Ka_B S_L^2 / alpha_u [1/s].
 
     The flame-stretch (Karlovitz) criterion of Reed, Combust. Flame 11 (1967) 177:
@@ -132,10 +136,10 @@ def blowoff_critical_gradient(S_L: float, alpha_u: float, Ka_B: float = DEFAULTS
     >>> round(blowoff_critical_gradient(0.37, 2.2e-5))
     1431
     """
-    return Ka_B * S_L ** 2 / alpha_u
+    return Ka_B * power(S_L, 2) / alpha_u
 
 
-def quenching_distance(alpha_u: float, S_L: float, Pe_q: float = DEFAULTS["quench_peclet"]) -> float:
+def quenching_distance(alpha_u: Real, S_L: Real, Pe_q: float = DEFAULTS["quench_peclet"]) -> Real:
     """Quenching distance between parallel plates d_q = Pe_q alpha_u / S_L [m].
 
     A flame does not pass a gap narrower than d_q; the quench Peclet number is about 40
@@ -150,7 +154,7 @@ def quenching_distance(alpha_u: float, S_L: float, Pe_q: float = DEFAULTS["quenc
     return Pe_q * alpha_u / S_L
 
 
-def tube_quenching_diameter(d_q: float, factor: float = DEFAULTS["tube_quench_factor"]) -> float:
+def tube_quenching_diameter(d_q: Real, factor: float = DEFAULTS["tube_quench_factor"]) -> Real:
     """Quenching diameter of a round tube from the plate quenching distance, d_T = k d_q [m].
 
     Examples
