@@ -1,13 +1,15 @@
 """Design read-out: stored flames + fuel-gas properties + the burner -> indicators, margins, verdict.
 
 Runs on flat rows (results.flat_row) after they are read from the store, so changing an
-indicator setting or the burner never needs a flame to be solved again. The indicators and the
-flame-response columns are computed once for all rows on arrays (indicator_columns,
-response_columns: column -> one value per row), the rest row by row.
+indicator setting or the burner never needs a flame to be solved again. The indicators, the
+flame-response columns, the burner's numbers and a premixer's turbulence are computed once for
+all rows on arrays (indicator_columns, response_columns, burner_columns, turbulence_columns:
+column -> one value per row); verdicts, turbulent flame speeds and the premixer's margins row by row.
 
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
 indicator_columns         the indicators and reference ratios of all rows at once (response_columns: Le_eff, Markstein)
+burner_columns            port flow, wall gradient, margins and verdict of all rows (turbulence_columns: a premixer's)
 premixer_margins          a premixer's boundary-layer flashback, extinction-strain blowout and verdict
 point_warnings            inputs outside the range the method or the mechanism covers
 mechanism_differences     flame speed and thickness of each mechanism a study compares against the reference's
@@ -181,13 +183,18 @@ def _floats(rows: list[dict], col: str) -> np.ndarray:
     return np.array([np.nan if (v := r.get(col)) is None else v for r in rows], dtype=float)
 
 
-def _scatter(n: int, where: np.ndarray, values: npt.ArrayLike) -> list:
+def _scatter(n: int, where: np.ndarray, values: npt.ArrayLike | list) -> list:
     """``values``, computed for the rows at the indices ``where``, as one Python value per row of ``n``
     (None at the others): a column to write back into the rows."""
     out: list = [None] * n
-    for i, v in zip(where.tolist(), np.asarray(values).tolist()):
+    for i, v in zip(where.tolist(), values if isinstance(values, list) else np.asarray(values).tolist()):
         out[i] = v
     return out
+
+
+def _or_none(values: npt.ArrayLike) -> list:
+    """An array of numbers as Python floats, None for NaN (a value the row does not have)."""
+    return [None if math.isnan(v) else v for v in np.asarray(values, dtype=float).tolist()]
 
 
 def indicator_columns(study: Study, rows: list[dict]) -> dict[str, list]:
@@ -248,26 +255,39 @@ RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
           ("chemical_time_ratio", "chemical_time_s"))
 
 
-def _port_velocity(b: Burner, r: dict, gas: FuelGas) -> tuple[float, float | None]:
-    """(bulk port velocity [m/s], thermal input [W] or None) of a burning point."""
+def port_flows(study: Study, rows: list[dict], gases: list[FuelGas]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(bulk port velocity [m/s], thermal input [W], port Reynolds number) of each mixture of
+    ``rows`` (``gases``: the fuel gas of each) through the study's burner, on arrays: NaN for the
+    thermal input of a burner set by its velocity, and for the Reynolds number of a row without
+    unburned_viscosity_Pa_s. A row needs only the fresh mixture's equivalence_ratio,
+    unburned_density_kg_m3 and viscosity, never its flame."""
+    b = study.burner
+    assert b is not None  # asked only of a study with a [burner]
+    n = len(rows)
+    rho, mu = _floats(rows, "unburned_density_kg_m3"), _floats(rows, "unburned_viscosity_Pa_s")
     if b.port_velocity_m_s is not None:
-        return b.port_velocity_m_s, None
-    assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: a velocity, or an input and an area
-    Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
-    return ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
-                                              r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
+        U, Q = np.full(n, b.port_velocity_m_s), np.full(n, np.nan)
+    else:
+        assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: a velocity, or an input and an area
+        Q = b.thermal_input_W * np.array([g.input_ratio if b.input_follows_wobbe else 1.0 for g in gases], dtype=float)
+        U = np.asarray(ind.port_velocity_at_thermal_input(
+            Q, np.array([g.lhv_J_kg for g in gases], dtype=float),
+            np.array([g.row["stoich_oxidizer_mass_kg_kg"] for g in gases], dtype=float),
+            _floats(rows, "equivalence_ratio"), rho, b.port_area_m2))
+    known = ~np.isnan(mu) & (mu != 0.0)
+    Re = np.full(n, np.nan)
+    Re[known] = U[known] * hydraulic_diameter(b) * rho[known] / mu[known]
+    return U, Q, Re
 
 
 def port_flow(study: Study, r: dict, gas: FuelGas) -> tuple[float, float | None, float | None]:
     """(bulk port velocity [m/s], thermal input [W] or None, port Reynolds number or None) of a
-    mixture of the study's burner. ``r`` needs only the fresh mixture's equivalence_ratio,
-    unburned_density_kg_m3 and unburned_viscosity_Pa_s (None: no Reynolds number), never its
-    flame: ``check`` predicts from it which criteria a limit search can assess."""
-    b = study.burner
-    assert b is not None  # asked only of a study with a [burner]
-    U, Q = _port_velocity(b, r, gas)
-    mu = r.get("unburned_viscosity_Pa_s")
-    return U, Q, (U * hydraulic_diameter(b) * r["unburned_density_kg_m3"] / mu if mu else None)
+    mixture of the study's burner (:func:`port_flows` of one row). ``r`` needs only the fresh
+    mixture's equivalence_ratio, unburned_density_kg_m3 and unburned_viscosity_Pa_s (None: no
+    Reynolds number), never its flame: ``check`` predicts from it which criteria a limit search
+    can assess."""
+    U, Q, Re = (float(v[0]) for v in port_flows(study, [r], [gas]))
+    return U, None if math.isnan(Q) else Q, None if math.isnan(Re) else Re
 
 
 def burner_flow_words(b: Burner) -> str:
@@ -285,21 +305,25 @@ def hydraulic_diameter(b: Burner) -> float:
     return b.port_size_m if b.port == "round" else 2.0 * b.port_size_m
 
 
-def wall_gradient(b: Burner, U: float, Re: float | None, nu: float | None) -> float:
-    """Wall velocity gradient of the port flow [1/s]: laminar fully developed (8U/D, 6U/h) up
-    to Re 2300, Blasius's turbulent gradient from Re 4000, linear in Re between the two
-    (physics.validity.transition_gradient): no step for a limit search to land on."""
-    def laminar(u: float) -> float:
-        return (ind.wall_velocity_gradient_round(u, b.port_size_m) if b.port == "round"
-                else ind.wall_velocity_gradient_slot(u, b.port_size_m))
-    if Re is None or Re <= val.LAMINAR_REYNOLDS:
-        return laminar(U)
+def wall_gradients(b: Burner, U: np.ndarray, Re: np.ndarray, nu: np.ndarray) -> np.ndarray:
+    """Wall velocity gradient of the port flow [1/s] at each bulk velocity ``U`` (with its port
+    Reynolds number ``Re``, NaN where unknown, and kinematic viscosity ``nu``): laminar fully
+    developed (8U/D, 6U/h) up to Re 2300 and where Re is unknown, Blasius's turbulent gradient
+    from Re 4000, linear in Re between the two (physics.validity.transition_gradient): no step
+    for a limit search to land on."""
+    def laminar(u: np.ndarray) -> np.ndarray:
+        return np.asarray(ind.wall_velocity_gradient_round(u, b.port_size_m) if b.port == "round"
+                          else ind.wall_velocity_gradient_slot(u, b.port_size_m))
     D_h = hydraulic_diameter(b)
-    assert nu is not None  # known whenever Re is
-    if Re >= val.TURBULENT_REYNOLDS:
-        return ind.wall_velocity_gradient_turbulent(U, D_h, nu)
-    return val.transition_gradient(Re, laminar(U * val.LAMINAR_REYNOLDS / Re),
-                                   ind.wall_velocity_gradient_turbulent(U * val.TURBULENT_REYNOLDS / Re, D_h, nu))
+    g = laminar(U)
+    turbulent = Re >= val.TURBULENT_REYNOLDS
+    g[turbulent] = ind.wall_velocity_gradient_turbulent(U[turbulent], D_h, nu[turbulent])
+    mid = (Re > val.LAMINAR_REYNOLDS) & ~turbulent
+    Re_m, U_m = Re[mid], U[mid]
+    g[mid] = val.transition_gradient(Re_m, laminar(U_m * val.LAMINAR_REYNOLDS / Re_m),
+                                     ind.wall_velocity_gradient_turbulent(U_m * val.TURBULENT_REYNOLDS / Re_m, D_h,
+                                                                          nu[mid]))
+    return g
 
 
 def not_assessed(study: Study, r: dict, Re: float | None) -> dict[str, str]:
@@ -391,31 +415,60 @@ def verdict_tally(verdicts: list[str]) -> str:
     return f"{groups[order[0]]} of {len(verdicts)} points {order[0]}" + "".join(", " + p for p in parts[1:])
 
 
-def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
-    b = study.burner
-    out: dict[str, Any] = dict.fromkeys(BURNER_COLUMNS)
-    out["not_assessed"] = {}
-    if b is None or r["status"] != "ok":
+def burner_columns(study: Study, rows: list[dict], gases: list[FuelGas]) -> dict[str, list]:
+    """The burner's port flow, wall gradient, margins and quench ratio of every burning point
+    (columns.BURNER_COLUMNS; ``gases``: each row's fuel gas) computed once for all rows on
+    arrays, then each point's criteria not assessed (:func:`not_assessed`, also as the column
+    'not_assessed': criterion -> why) and verdict: column -> one value per row, None (and no
+    criterion not assessed) where a point has no flame or the study no [burner]."""
+    b, s, n = study.burner, study.indicator_settings, len(rows)
+    where = np.flatnonzero([b is not None and r["status"] == "ok" for r in rows])
+    out: dict[str, list] = {c: [None] * n for c in BURNER_COLUMNS}
+    out["not_assessed"] = [{} for _ in rows]
+    if b is None or not len(where):
         return out
-    U, Q, Re = port_flow(study, r, gas)
-    mu, rho = r.get("unburned_viscosity_Pa_s"), r["unburned_density_kg_m3"]
-    g = wall_gradient(b, U, Re, mu / rho if mu else None)
-    unassessed = not_assessed(study, r, Re)
-    margins = {"flashback": g / r["flashback_critical_gradient_1_s"], "blowoff": r["blowoff_critical_gradient_1_s"] / g,
-               "stabilizer": None}
-    quench = (r["tube_quenching_diameter_mm"] if b.port == "round" else r["quenching_distance_mm"]) / (1e3 * b.port_size_m)
+    mine = [rows[i] for i in where.tolist()]
+    U, Q, Re = port_flows(study, mine, [gases[i] for i in where.tolist()])
+    g = wall_gradients(b, U, Re, _floats(mine, "unburned_viscosity_Pa_s") / _floats(mine, "unburned_density_kg_m3"))
+    margins = {"flashback": g / _floats(mine, "flashback_critical_gradient_1_s"),
+               "blowoff": _floats(mine, "blowoff_critical_gradient_1_s") / g, "stabilizer": np.full(len(mine), np.nan)}
+    quench = _floats(mine, "tube_quenching_diameter_mm" if b.port == "round" else "quenching_distance_mm")
+    numbers: dict[str, np.ndarray | list] = {
+        "port_velocity_m_s": U, "thermal_input_kW": _or_none(Q / 1e3), "port_reynolds_number": _or_none(Re),
+        "wall_velocity_gradient_1_s": g, "quench_ratio": quench / (1e3 * b.port_size_m)}
     if b.stabilizer_size_m is not None and s.get("bluff_body_constant") is not None:
-        U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])
-        out["bluff_body_blowoff_velocity_m_s"] = U_bo
         assert b.approach_velocity_m_s is not None  # config sets it with the stabilizer size
+        U_bo = np.asarray(ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, _floats(mine, "chemical_time_s"),
+                                                          s["bluff_body_constant"]))
+        numbers["bluff_body_blowoff_velocity_m_s"] = U_bo
         margins["stabilizer"] = U_bo / ind.edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage)
-    shown = {c: None if c in unassessed else m for c, m in margins.items()}
-    out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
-               port_reynolds_number=Re, flashback_margin=shown["flashback"], blowoff_margin=shown["blowoff"],
-               stabilizer_margin=shown["stabilizer"], quench_ratio=quench, not_assessed=unassessed,
-               criteria_not_assessed="; ".join(f"{c}: {why}" for c, why in unassessed.items()),
-               verdict=_verdict(b, margins, unassessed, r.get("instability") == "cellular"))
+    for c, v in numbers.items():
+        out[c] = _scatter(n, where, v)
+    _burner_words(study, mine, where, out, {c: _or_none(m) for c, m in margins.items()})
     return out
+
+
+def _burner_words(study: Study, mine: list[dict], where: np.ndarray, out: dict[str, list],
+                  margins: dict[str, list]) -> None:
+    """Fill ``out``'s shown margins, criteria not assessed and verdict of the burning rows ``mine`` (at
+    ``where`` in the table; ``margins``: criterion -> one margin per burning row)."""
+    b = study.burner
+    assert b is not None  # asked only of a study with a [burner]
+    for k, (i, r) in enumerate(zip(where.tolist(), mine)):
+        unassessed = not_assessed(study, r, out["port_reynolds_number"][i])
+        mine_m = {c: m[k] for c, m in margins.items()}
+        out["flashback_margin"][i], out["blowoff_margin"][i], out["stabilizer_margin"][i] = (
+            None if c in unassessed else mine_m[c] for c in ("flashback", "blowoff", "stabilizer"))
+        out["not_assessed"][i] = unassessed
+        out["criteria_not_assessed"][i] = "; ".join(f"{c}: {why}" for c, why in unassessed.items())
+        out["verdict"][i] = _verdict(b, mine_m, unassessed, r.get("instability") == "cellular")
+
+
+def _into_rows(rows: list[dict], columns: dict[str, list]) -> None:
+    """Write a table of columns (column -> one value per row) into the rows."""
+    names = list(columns)
+    for r, values in zip(rows, zip(*columns.values())):
+        r.update(zip(names, values))
 
 
 def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> list[dict]:
@@ -424,22 +477,20 @@ def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> 
     ``ladders``: what a premixer's margins interpolate between the [stretch] ladder points
     (:class:`Ladders`); None: those of ``rows`` themselves (a whole sweep). A limit search gives
     its flames the sweep's (admissible.driver)."""
-    s = study.indicator_settings
-    gases = fuel_gases(study)
+    by_name = fuel_gases(study)
     if ladders is None:
         ladders = sweep_ladders(rows) if study.premixer is not None else NO_LADDERS
-    columns = indicator_columns(study, rows) | response_columns(rows)  # column-wise, then into the rows
-    names = list(columns)
-    for r, values in zip(rows, zip(*columns.values())):
-        r.update(zip(names, values))
-        if study.uncertainty is not None:
+    _into_rows(rows, indicator_columns(study, rows) | response_columns(rows))  # column-wise, then into the rows
+    if study.uncertainty is not None:
+        for r in rows:
             r.update(kinetic_columns(study, r))
-    for r in rows:
-        gas = gases[(r["fuel"], r["blend_fraction"], r["oxidizer"])]
+    gases = [by_name[(r["fuel"], r["blend_fraction"], r["oxidizer"])] for r in rows]
+    for r, gas in zip(rows, gases):
         for col in GAS_COLUMNS:
             r[col] = gas.row[col]
-        r.update(_burner_margins(study, r, gas, s))
-        r.update(turbulence_columns(study, r))
+    _into_rows(rows, burner_columns(study, rows, gases))
+    _into_rows(rows, turbulence_columns(study, rows))
+    for r, gas in zip(rows, gases):
         r.update(turbulent_speed_columns(r, strained_speed(r, ladders.consumption)))
         for analysis in parts("readout"):  # the registered analyses' columns (flamecharts.analyses)
             r.update(analysis.READ_OUT(study, r, gas.row))
@@ -605,34 +656,38 @@ def point_warnings(study: Study, point: Point, row: dict) -> str:
     return "; ".join(w for w in out if w)
 
 
-def turbulence_columns(study: Study, row: dict) -> dict:
-    """Where a burning point's flame sits in the regimes of premixed turbulent combustion
-    ([premixer] with a [burner] that sets the bulk velocity; columns.TURBULENCE_COLUMNS): u' and
-    l_t from the study, or estimated from the burner's duct (physics.premixer.duct_turbulence:
-    u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h, common practice without source), and Peters'
-    turbulent Reynolds, Damkohler and Karlovitz numbers with l_F = alpha_u / S_L and the
-    regime (physics.turbulence; Peters 2000)."""
-    out: dict[str, Any] = dict.fromkeys(TURBULENCE_COLUMNS)
+def turbulence_columns(study: Study, rows: list[dict]) -> dict[str, list]:
+    """Where each burning point's flame sits in the regimes of premixed turbulent combustion
+    ([premixer] with a [burner] that sets the bulk velocity; columns.TURBULENCE_COLUMNS), on
+    arrays over all rows: u' and l_t from the study, or estimated from the burner's duct
+    (physics.premixer.duct_turbulence: u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h, common practice
+    without source), and Peters' turbulent Reynolds, Damkohler and Karlovitz numbers with
+    l_F = alpha_u / S_L and the regime (physics.turbulence; Peters 2000). Column -> one value per
+    row, None where a point has no flame, port velocity or viscosity."""
+    n = len(rows)
+    out: dict[str, list] = {c: [None] * n for c in TURBULENCE_COLUMNS}
     pm, b = study.premixer, study.burner
-    U = row.get("port_velocity_m_s")
-    if pm is None or b is None or row["status"] != "ok" or not U or not row.get("unburned_viscosity_Pa_s"):
+    if pm is None or b is None:
         return out
-    D_h = hydraulic_diameter(b)
-    nu = row["unburned_viscosity_Pa_s"] / row["unburned_density_kg_m3"]
-    duct = duct_turbulence(U, D_h, nu)
+    where = np.flatnonzero([r["status"] == "ok" and bool(r.get("port_velocity_m_s"))
+                            and bool(r.get("unburned_viscosity_Pa_s")) for r in rows])
+    mine = [rows[i] for i in where.tolist()]
+    U = _floats(mine, "port_velocity_m_s")
+    duct = duct_turbulence(U, hydraulic_diameter(b), _floats(mine, "unburned_viscosity_Pa_s")
+                           / _floats(mine, "unburned_density_kg_m3"))
     u_p = U * pm.turbulence_intensity if pm.turbulence_intensity is not None else duct.u_prime_m_s
     l_t = pm.integral_length_m if pm.integral_length_m is not None else duct.integral_length_m
-    S_L = row["laminar_flame_speed_m_s"]
-    l_F = float(turb.diffusive_thickness(row["unburned_thermal_diffusivity_m2_s"], S_L))
+    S_L = _floats(mine, "laminar_flame_speed_m_s")
+    l_F = turb.diffusive_thickness(_floats(mine, "unburned_thermal_diffusivity_m2_s"), S_L)
     given = (pm.turbulence_intensity is not None, pm.integral_length_m is not None)
-    out.update(rms_velocity_m_s=u_p, integral_length_mm=1e3 * l_t,
-               turbulence_source="study" if all(given) else "duct estimate" if not any(given) else
-               "study and duct estimate",
-               turbulent_reynolds_number=float(turb.turbulent_reynolds(u_p, l_t, S_L, l_F)),
-               damkohler_number=float(turb.damkohler(u_p, l_t, S_L, l_F)),
-               karlovitz_number=float(turb.karlovitz(u_p, l_t, S_L, l_F)),
-               combustion_regime=turb.regime(u_p, l_t, S_L, l_F))
-    return out
+    source = "study" if all(given) else "duct estimate" if not any(given) else "study and duct estimate"
+    columns = {"rms_velocity_m_s": u_p, "integral_length_mm": np.full(len(mine), 1e3 * l_t),
+               "turbulence_source": np.full(len(mine), source),
+               "turbulent_reynolds_number": turb.turbulent_reynolds(u_p, l_t, S_L, l_F),
+               "damkohler_number": turb.damkohler(u_p, l_t, S_L, l_F),
+               "karlovitz_number": turb.karlovitz(u_p, l_t, S_L, l_F),
+               "combustion_regime": turb.regime(u_p, l_t, S_L, l_F)}
+    return {c: _scatter(n, where, columns[c]) for c in TURBULENCE_COLUMNS}
 
 
 def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:

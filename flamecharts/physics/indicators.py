@@ -13,9 +13,9 @@ wall_velocity_gradient_slot     g = 6 U / h (fully developed laminar slot of gap
 wall_velocity_gradient_turbulent  Blasius's wall shear over mu (turbulent smooth duct)
 port_velocity_at_thermal_input  bulk port velocity for a thermal input
 
-All inputs and outputs in SI units. The first six take and give numbers or NumPy arrays alike
-(design.annotate computes them for every point at once; powers through elementwise.power, so an
-array gives each element the bits of a number). Constants that are not universal are parameters
+All inputs and outputs in SI units. All but edge_velocity take and give numbers or NumPy arrays
+alike (design.annotate computes them for every point at once; powers through elementwise.power,
+so an array gives each element the bits of a number). Constants that are not universal are parameters
 with documented defaults (DEFAULTS); the study config may override each of them. Where
 each constant holds (the data it was fitted on) is physics.validity's.
 """
@@ -165,7 +165,7 @@ def tube_quenching_diameter(d_q: Real, factor: float = DEFAULTS["tube_quench_fac
     return factor * d_q
 
 
-def bluff_body_blowoff_velocity(D: float, tau_c: float, C_BO: float) -> float:
+def bluff_body_blowoff_velocity(D: float, tau_c: Real, C_BO: float) -> Real:
     """Bluff-body blowoff velocity past the body's edge from Damkoehler scaling, U_BO = C_BO D / tau_c [m/s].
 
     Blowoff when the residence time in the recirculation zone (about D/U, U the velocity
@@ -198,7 +198,7 @@ def edge_velocity(U_approach: float, blockage: float) -> float:
     return U_approach / (1.0 - blockage)
 
 
-def wall_velocity_gradient_round(U: float, D: float) -> float:
+def wall_velocity_gradient_round(U: Real, D: float) -> Real:
     """Wall velocity gradient of fully developed laminar flow in a round port, g = 8 U / D [1/s].
 
     Exact for Poiseuille flow, u(r) = 2U(1 - (2r/D)^2).
@@ -211,7 +211,7 @@ def wall_velocity_gradient_round(U: float, D: float) -> float:
     return 8.0 * U / D
 
 
-def wall_velocity_gradient_turbulent(U: float, D_h: float, nu: float) -> float:
+def wall_velocity_gradient_turbulent(U: Real, D_h: float, nu: Real) -> Real:
     """Wall velocity gradient of fully developed turbulent flow in a smooth duct [1/s].
 
     g = tau_w / mu = lambda U^2 / (8 nu) with Blasius's friction factor
@@ -227,10 +227,10 @@ def wall_velocity_gradient_turbulent(U: float, D_h: float, nu: float) -> float:
     521979
     """
     Re = U * D_h / nu
-    return 0.3164 * Re ** -0.25 * U * U / (8.0 * nu)
+    return 0.3164 * power(Re, -0.25) * U * U / (8.0 * nu)
 
 
-def wall_velocity_gradient_slot(U: float, h: float) -> float:
+def wall_velocity_gradient_slot(U: Real, h: float) -> Real:
     """Wall velocity gradient of fully developed laminar flow in a slot of gap h, g = 6 U / h [1/s].
 
     Exact for plane Poiseuille flow, u(y) = 1.5U(1 - (2y/h)^2).
@@ -243,8 +243,8 @@ def wall_velocity_gradient_slot(U: float, h: float) -> float:
     return 6.0 * U / h
 
 
-def port_velocity_at_thermal_input(Q: float, LHV_mass: float, afr_stoich_mass: float, phi: float, rho_u: float,
-                                   A_port: float) -> float:
+def port_velocity_at_thermal_input(Q: Real, LHV_mass: Real, afr_stoich_mass: Real, phi: Real, rho_u: Real,
+                                   A_port: float) -> Real:
     """Bulk port velocity of a premixed burner at a given thermal input [m/s].
 
     Fuel mass flow Q / LHV; mixture mass flow fuel x (1 + AFR_st / phi); volume flow

@@ -35,6 +35,7 @@ from typing import Literal, NamedTuple
 import numpy as np
 import numpy.typing as npt
 
+from .elementwise import Real, power
 from .turbulence import BROKEN_REACTION_ZONES_KA, damkohler, karlovitz
 from .validity import LAMINAR_REYNOLDS, TURBULENT_REYNOLDS
 
@@ -56,9 +57,9 @@ class Margin(NamedTuple):
 
 
 class DuctTurbulence(NamedTuple):
-    u_prime_m_s: float
+    u_prime_m_s: Real
     integral_length_m: float
-    reynolds: float
+    reynolds: Real
 
 
 def _speed(value: float, reasons: list[str]) -> FlameSpeed:
@@ -77,12 +78,13 @@ DUCT_INTENSITY_EXPONENT = -0.125
 DUCT_LENGTH_FRACTION = 0.07
 
 
-def duct_turbulence(U_bulk_m_s: float, D_h_m: float, nu_u_m2_s: float) -> DuctTurbulence:
+def duct_turbulence(U_bulk_m_s: Real, D_h_m: float, nu_u_m2_s: Real) -> DuctTurbulence:
     """Turbulence of a premixer's duct when the user gives none: u', l_t and Re.
 
     Re = U D_h / nu, u' = 0.16 Re^(-1/8) U, l_t = 0.07 D_h: both fractions are common
     practice without source (the usual estimates for a CFD inlet in fully developed duct
-    flow), not measurements; they say nothing of a swirler's turbulence.
+    flow), not measurements; they say nothing of a swirler's turbulence. Numbers or arrays of
+    velocities and viscosities alike.
 
     Parameters
     ----------
@@ -99,7 +101,7 @@ def duct_turbulence(U_bulk_m_s: float, D_h_m: float, nu_u_m2_s: float) -> DuctTu
     (1.8, 1.75, 25000)
     """
     Re = U_bulk_m_s * D_h_m / nu_u_m2_s
-    intensity = DUCT_INTENSITY_COEFFICIENT * Re ** DUCT_INTENSITY_EXPONENT
+    intensity = DUCT_INTENSITY_COEFFICIENT * power(Re, DUCT_INTENSITY_EXPONENT)
     return DuctTurbulence(intensity * U_bulk_m_s, DUCT_LENGTH_FRACTION * D_h_m, Re)
 
 
