@@ -2,9 +2,10 @@
 
 Runs on flat rows (results.flat_row) after they are read from the store, so changing an
 indicator setting or the burner never needs a flame to be solved again. The indicators, the
-flame-response columns, the burner's numbers and a premixer's turbulence are computed once for
-all rows on arrays (indicator_columns, response_columns, burner_columns, turbulence_columns:
-column -> one value per row); verdicts, turbulent flame speeds and the premixer's margins row by row.
+flame-response columns, the burner's numbers and a premixer's turbulence and turbulent flame
+speeds are computed once for all rows on arrays (indicator_columns, response_columns,
+burner_columns, turbulence_columns, turbulent_speed_columns: column -> one value per row);
+verdicts, the kinetic band and the premixer's boundary-layer and blowout margins row by row.
 
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
@@ -63,10 +64,13 @@ from .physics.premixer import (
     duct_turbulence,
     extinction_damkohler,
     leading_point_flame_speed,
+    leading_point_flame_speeds,
     lean_blowout_margin,
     muppala_flame_speed,
+    muppala_flame_speeds,
     wall_velocity_gradient as premixer_wall_gradient,
     zimont_flame_speed,
+    zimont_flame_speeds,
 )
 from .physics.rate_factors import RATE_FACTORS
 from .sweep.points import condition_key
@@ -490,8 +494,8 @@ def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> 
             r[col] = gas.row[col]
     _into_rows(rows, burner_columns(study, rows, gases))
     _into_rows(rows, turbulence_columns(study, rows))
+    _into_rows(rows, turbulent_speed_columns(rows, [strained_speed(r, ladders.consumption) for r in rows]))
     for r, gas in zip(rows, gases):
-        r.update(turbulent_speed_columns(r, strained_speed(r, ladders.consumption)))
         for analysis in parts("readout"):  # the registered analyses' columns (flamecharts.analyses)
             r.update(analysis.READ_OUT(study, r, gas.row))
     premixer_margins(study, rows, ladders)
@@ -727,34 +731,65 @@ def speeds_at(row: dict, S_c: float | None) -> dict[str, FlameSpeed]:
     return out
 
 
-def turbulent_speed_columns(row: dict, strained: tuple[float | None, str | None] | None = None) -> dict:
-    """A premixer's turbulent flame speeds (:func:`speeds_at`), which of them lie outside the
-    range of their fitted data and why, and the core-flow flashback margin
-    (columns.TURBULENT_SPEED_COLUMNS). ``strained``: (S_c,max, how it was found) at the point
-    (:func:`strained_speed`, what ``annotate`` gives every point); None: the point's own ladder's.
+def turbulent_speed_columns(rows: list[dict], strained: list[tuple[float | None, str | None]] | None = None
+                            ) -> dict[str, list]:
+    """A premixer's turbulent flame speeds (:func:`speeds_at`'s correlations, on arrays over every
+    point whose turbulence is known: physics.premixer's ``*_flame_speeds``), which of them lie
+    outside the range of their fitted data and why, and the core-flow flashback margin
+    (columns.TURBULENT_SPEED_COLUMNS): column -> one value per row. ``strained``: (S_c,max, how it
+    was found) at each point (:func:`strained_speed`, what ``annotate`` gives every point); None:
+    each point's own ladder's.
 
     Core-flow margin (physics.premixer.core_flashback_margin): the bulk (port) velocity over
     the LARGEST turbulent flame speed of the correlations computed at the point, in or out of
-    their fitted range, and which correlation that was. The largest, because the correlations
-    disagree by more than their scatter and the fastest flame is the one that flashes back; out
-    of range too, because hydrogen blends are exactly where the Lewis-number correlation leaves
-    its data (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's
-    (about 1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
-    out: dict[str, Any] = dict.fromkeys(TURBULENT_SPEED_COLUMNS)
+    their fitted range, and which correlation that was (the first of zimont, muppala, leading
+    point on a tie). The largest, because the correlations disagree by more than their scatter
+    and the fastest flame is the one that flashes back; out of range too, because hydrogen
+    blends are exactly where the Lewis-number correlation leaves its data
+    (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's (about
+    1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
+    n = len(rows)
     if strained is None:
-        own = row.get("ladder_consumption_speed_max_m_s")
-        strained = (own, "at a ladder point") if own else (None, None)
-    speeds = speeds_at(row, strained[0])
-    if not speeds:
+        strained = [(own, "at a ladder point") if (own := r.get("ladder_consumption_speed_max_m_s")) else (None, None)
+                    for r in rows]
+    out: dict[str, list] = {c: [None] * n for c in TURBULENT_SPEED_COLUMNS}
+    where = np.flatnonzero([r.get("rms_velocity_m_s") is not None for r in rows])
+    if not len(where):
         return out
-    fastest = max(speeds, key=lambda k: speeds[k].S_T_m_s)
-    get = {k: v.S_T_m_s for k, v in speeds.items()}.get
-    out.update(strained_consumption_speed_max_m_s=strained[0], strained_consumption_speed_source=strained[1],
-               turbulent_flame_speed_zimont_m_s=get("zimont"), turbulent_flame_speed_muppala_m_s=get("muppala"),
-               turbulent_flame_speed_leading_point_m_s=get("leading point"),
-               turbulent_flame_speed_outside_range="; ".join(f"{k}: {v.why}" for k, v in speeds.items() if v.why),
-               core_flashback_margin=float(core_flashback_margin(row["port_velocity_m_s"], speeds[fastest].S_T_m_s)),
-               core_flashback_correlation=fastest)
+    mine = [rows[i] for i in where.tolist()]
+    u_p, S_L, alpha = (_floats(mine, c) for c in ("rms_velocity_m_s", "laminar_flame_speed_m_s",
+                                                   "unburned_thermal_diffusivity_m2_s"))
+    l_t = 1e-3 * _floats(mine, "integral_length_mm")
+    speeds = {"zimont": (np.arange(len(mine)), zimont_flame_speeds(u_p, l_t, S_L, alpha))}
+    lewis = [r.get("lewis_number_fuel" if r["equivalence_ratio"] <= 1.0 else "lewis_number_oxygen") for r in mine]
+    has = np.flatnonzero([bool(le) for le in lewis])
+    speeds["muppala"] = (has, muppala_flame_speeds(
+        u_p[has], l_t[has], S_L[has], _floats(mine, "unburned_viscosity_Pa_s")[has]
+        / _floats(mine, "unburned_density_kg_m3")[has], np.array([lewis[k] for k in has.tolist()], dtype=float),
+        1e5 * _floats(mine, "pressure_bar")[has]))
+    S_c = [strained[i][0] for i in where.tolist()]
+    has = np.flatnonzero([bool(s) for s in S_c])
+    speeds["leading point"] = (has, leading_point_flame_speeds(u_p[has], l_t[has], np.array(
+        [S_c[k] for k in has.tolist()], dtype=float), alpha[has]))
+    S_T = np.full((len(mine), len(speeds)), np.nan)
+    why = [[""] * len(speeds) for _ in mine]
+    for j, (at, s) in enumerate(speeds.values()):
+        S_T[at, j] = s.S_T_m_s
+        for k, w in zip(at.tolist(), s.why):
+            why[k][j] = w
+    names = list(speeds)
+    fastest = np.nanargmax(S_T, axis=1)  # the first largest
+    for k, i in enumerate(where.tolist()):
+        got = {name: S_T[k, j] for j, name in enumerate(names) if not math.isnan(S_T[k, j])}
+        out["strained_consumption_speed_max_m_s"][i], out["strained_consumption_speed_source"][i] = strained[i]
+        out["turbulent_flame_speed_outside_range"][i] = "; ".join(f"{name}: {why[k][j]}" for j, name in enumerate(names)
+                                                                  if name in got and why[k][j])
+        out["core_flashback_correlation"][i] = names[fastest[k]]
+    for j, col in enumerate(("turbulent_flame_speed_zimont_m_s", "turbulent_flame_speed_muppala_m_s",
+                             "turbulent_flame_speed_leading_point_m_s")):
+        out[col] = _scatter(n, where, _or_none(S_T[:, j]))
+    out["core_flashback_margin"] = _scatter(n, where, core_flashback_margin(
+        _floats(mine, "port_velocity_m_s"), S_T[np.arange(len(mine)), fastest]))
     return out
 
 
