@@ -283,8 +283,12 @@ def dataset_table(ds: xr.Dataset, columns: Sequence[str] = COLUMNS) -> dict[str,
         elif c in STUDY_WIDE:
             out[c] = [ds.attrs.get(c, "")] * n
         else:
-            values = ds[c].transpose(*AXES).values.ravel().tolist()
-            out[c] = values if _is_text(c) else [None if v != v else v for v in values]
+            values = ds[c].transpose(*AXES).values.ravel()
+            if not _is_text(c):
+                blank = np.isnan(values)
+                values = values.astype(object)
+                values[blank] = None
+            out[c] = values.tolist()
     return out
 
 
