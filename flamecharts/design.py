@@ -1,10 +1,16 @@
 """Design read-out: stored flames + fuel-gas properties + the burner -> indicators, margins, verdict.
 
 Runs on flat rows (results.flat_row) after they are read from the store, so changing an
-indicator setting or the burner never needs a flame to be solved again.
+indicator setting or the burner never needs a flame to be solved again. The indicators, the
+flame-response columns, the burner's numbers and a premixer's turbulence and turbulent flame
+speeds are computed once for all rows on arrays (indicator_columns, response_columns,
+burner_columns, turbulence_columns, turbulent_speed_columns: column -> one value per row);
+verdicts, the kinetic band and the premixer's boundary-layer and blowout margins row by row.
 
 fuel_gas_table            ISO 6976 properties and stoichiometric air of every fuel and blend
 annotate                  adds indicator, ratio, gas-property and burner-margin columns to rows
+indicator_columns         the indicators and reference ratios of all rows at once (response_columns: Le_eff, Markstein)
+burner_columns            port flow, wall gradient, margins and verdict of all rows (turbulence_columns: a premixer's)
 premixer_margins          a premixer's boundary-layer flashback, extinction-strain blowout and verdict
 point_warnings            inputs outside the range the method or the mechanism covers
 mechanism_differences     flame speed and thickness of each mechanism a study compares against the reference's
@@ -16,6 +22,9 @@ import re
 from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
+
+import numpy as np
+import numpy.typing as npt
 
 from .analyses import parts
 from .columns import (
@@ -55,10 +64,13 @@ from .physics.premixer import (
     duct_turbulence,
     extinction_damkohler,
     leading_point_flame_speed,
+    leading_point_flame_speeds,
     lean_blowout_margin,
     muppala_flame_speed,
+    muppala_flame_speeds,
     wall_velocity_gradient as premixer_wall_gradient,
     zimont_flame_speed,
+    zimont_flame_speeds,
 )
 from .physics.rate_factors import RATE_FACTORS
 from .sweep.points import condition_key
@@ -170,18 +182,74 @@ def fuel_gas_table(study: Study) -> list[dict]:
     return [g.row for g in fuel_gases(study).values()]
 
 
-def _indicators(r: dict, s: dict) -> dict:
-    S_L, a = r["laminar_flame_speed_m_s"], r["unburned_thermal_diffusivity_m2_s"]
+def _floats(rows: list[dict], col: str) -> np.ndarray:
+    """Column ``col`` of ``rows`` as float64 (NaN where a row has no value)."""
+    return np.array([np.nan if (v := r.get(col)) is None else v for r in rows], dtype=float)
+
+
+def _scatter(n: int, where: np.ndarray, values: npt.ArrayLike | list) -> list:
+    """``values``, computed for the rows at the indices ``where``, as one Python value per row of ``n``
+    (None at the others): a column to write back into the rows."""
+    out: list = [None] * n
+    for i, v in zip(where.tolist(), values if isinstance(values, list) else np.asarray(values).tolist()):
+        out[i] = v
+    return out
+
+
+def _or_none(values: npt.ArrayLike) -> list:
+    """An array of numbers as Python floats, None for NaN (a value the row does not have)."""
+    return [None if math.isnan(v) else v for v in np.asarray(values, dtype=float).tolist()]
+
+
+def indicator_columns(study: Study, rows: list[dict]) -> dict[str, list]:
+    """The indicators of every burning point (columns.INDICATOR_COLUMNS: the chemical time,
+    Blint thickness, critical gradients and quenching distances of physics.indicators with the
+    study's [indicators] settings, and the reference ratios), computed once for all rows on
+    arrays: column -> one value per row, None where a point has no flame."""
+    s, n = study.indicator_settings, len(rows)
+    where = np.flatnonzero([r["status"] == "ok" for r in rows])
+    burning = [rows[i] for i in where.tolist()]
+    S_L, a = _floats(burning, "laminar_flame_speed_m_s"), _floats(burning, "unburned_thermal_diffusivity_m2_s")
     d_q = ind.quenching_distance(a, S_L, s["quench_peclet"])
-    return {
+    own = {
         "chemical_time_s": ind.chemical_time(a, S_L),
-        "blint_thickness_mm": 1e3 * ind.blint_thickness(a, S_L, r["adiabatic_flame_temperature_K"],
-                                                        r["unburned_temperature_K"]),
+        "blint_thickness_mm": 1e3 * ind.blint_thickness(a, S_L, _floats(burning, "adiabatic_flame_temperature_K"),
+                                                        _floats(burning, "unburned_temperature_K")),
         "flashback_critical_gradient_1_s": ind.flashback_critical_gradient(S_L, a, s["flashback_peclet"]),
         "blowoff_critical_gradient_1_s": ind.blowoff_critical_gradient(S_L, a, s["blowoff_karlovitz"]),
         "quenching_distance_mm": 1e3 * d_q,
         "tube_quenching_diameter_mm": 1e3 * ind.tube_quenching_diameter(d_q, s["tube_quench_factor"]),
     }
+    full = {c: np.full(n, np.nan) for c in own}
+    for c, v in own.items():
+        full[c][where] = v
+    full["laminar_flame_speed_m_s"] = _floats(rows, "laminar_flame_speed_m_s")
+    table = {c: _scatter(n, where, v) for c, v in own.items()} | _reference_ratios(study, rows, full)
+    return {c: table[c] for c in INDICATOR_COLUMNS}
+
+
+def _reference_ratios(study: Study, rows: list[dict], values: dict[str, np.ndarray]) -> dict[str, list]:
+    """RATIOS of every point whose reference point (the reference gas unblended, same oxidizer,
+    phi, p and T_u: a point of the study when it sweeps blend fraction 0) is among ``rows`` and
+    both burn, from ``values`` (column -> array over ``rows``), and the reference gas's name:
+    column -> one value per row."""
+    n = len(rows)
+    reference: list = [None] * n
+    pairs: list[tuple[int, int]] = []
+    if 0.0 in study.blend_fractions:
+        index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
+                  r["unburned_temperature_K"]): i for i, r in enumerate(rows)}
+        for i, r in enumerate(rows):
+            ref_fuel = _reference_fuel(study, r["fuel"])
+            j = index.get((ref_fuel, r["oxidizer"], 0.0, r["equivalence_ratio"], r["pressure_bar"],
+                           r["unburned_temperature_K"]))
+            if j is not None:
+                reference[i] = ref_fuel
+                if r["status"] == "ok" and rows[j]["status"] == "ok":
+                    pairs.append((i, j))
+    mine, ref = (np.array([p[k] for p in pairs], dtype=int) for k in (0, 1))
+    return {col: _scatter(n, mine, values[src][mine] / values[src][ref]) for col, src in RATIOS} | \
+        {"reference": reference}
 
 
 RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
@@ -191,26 +259,39 @@ RATIOS = (("flame_speed_ratio", "laminar_flame_speed_m_s"),
           ("chemical_time_ratio", "chemical_time_s"))
 
 
-def _port_velocity(b: Burner, r: dict, gas: FuelGas) -> tuple[float, float | None]:
-    """(bulk port velocity [m/s], thermal input [W] or None) of a burning point."""
+def port_flows(study: Study, rows: list[dict], gases: list[FuelGas]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(bulk port velocity [m/s], thermal input [W], port Reynolds number) of each mixture of
+    ``rows`` (``gases``: the fuel gas of each) through the study's burner, on arrays: NaN for the
+    thermal input of a burner set by its velocity, and for the Reynolds number of a row without
+    unburned_viscosity_Pa_s. A row needs only the fresh mixture's equivalence_ratio,
+    unburned_density_kg_m3 and viscosity, never its flame."""
+    b = study.burner
+    assert b is not None  # asked only of a study with a [burner]
+    n = len(rows)
+    rho, mu = _floats(rows, "unburned_density_kg_m3"), _floats(rows, "unburned_viscosity_Pa_s")
     if b.port_velocity_m_s is not None:
-        return b.port_velocity_m_s, None
-    assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: a velocity, or an input and an area
-    Q = b.thermal_input_W * (gas.input_ratio if b.input_follows_wobbe else 1.0)
-    return ind.port_velocity_at_thermal_input(Q, gas.lhv_J_kg, gas.row["stoich_oxidizer_mass_kg_kg"],
-                                              r["equivalence_ratio"], r["unburned_density_kg_m3"], b.port_area_m2), Q
+        U, Q = np.full(n, b.port_velocity_m_s), np.full(n, np.nan)
+    else:
+        assert b.thermal_input_W is not None and b.port_area_m2 is not None  # config: a velocity, or an input and an area
+        Q = b.thermal_input_W * np.array([g.input_ratio if b.input_follows_wobbe else 1.0 for g in gases], dtype=float)
+        U = np.asarray(ind.port_velocity_at_thermal_input(
+            Q, np.array([g.lhv_J_kg for g in gases], dtype=float),
+            np.array([g.row["stoich_oxidizer_mass_kg_kg"] for g in gases], dtype=float),
+            _floats(rows, "equivalence_ratio"), rho, b.port_area_m2))
+    known = ~np.isnan(mu) & (mu != 0.0)
+    Re = np.full(n, np.nan)
+    Re[known] = U[known] * hydraulic_diameter(b) * rho[known] / mu[known]
+    return U, Q, Re
 
 
 def port_flow(study: Study, r: dict, gas: FuelGas) -> tuple[float, float | None, float | None]:
     """(bulk port velocity [m/s], thermal input [W] or None, port Reynolds number or None) of a
-    mixture of the study's burner. ``r`` needs only the fresh mixture's equivalence_ratio,
-    unburned_density_kg_m3 and unburned_viscosity_Pa_s (None: no Reynolds number), never its
-    flame: ``check`` predicts from it which criteria a limit search can assess."""
-    b = study.burner
-    assert b is not None  # asked only of a study with a [burner]
-    U, Q = _port_velocity(b, r, gas)
-    mu = r.get("unburned_viscosity_Pa_s")
-    return U, Q, (U * hydraulic_diameter(b) * r["unburned_density_kg_m3"] / mu if mu else None)
+    mixture of the study's burner (:func:`port_flows` of one row). ``r`` needs only the fresh
+    mixture's equivalence_ratio, unburned_density_kg_m3 and unburned_viscosity_Pa_s (None: no
+    Reynolds number), never its flame: ``check`` predicts from it which criteria a limit search
+    can assess."""
+    U, Q, Re = (float(v[0]) for v in port_flows(study, [r], [gas]))
+    return U, None if math.isnan(Q) else Q, None if math.isnan(Re) else Re
 
 
 def burner_flow_words(b: Burner) -> str:
@@ -228,21 +309,25 @@ def hydraulic_diameter(b: Burner) -> float:
     return b.port_size_m if b.port == "round" else 2.0 * b.port_size_m
 
 
-def wall_gradient(b: Burner, U: float, Re: float | None, nu: float | None) -> float:
-    """Wall velocity gradient of the port flow [1/s]: laminar fully developed (8U/D, 6U/h) up
-    to Re 2300, Blasius's turbulent gradient from Re 4000, linear in Re between the two
-    (physics.validity.transition_gradient): no step for a limit search to land on."""
-    def laminar(u: float) -> float:
-        return (ind.wall_velocity_gradient_round(u, b.port_size_m) if b.port == "round"
-                else ind.wall_velocity_gradient_slot(u, b.port_size_m))
-    if Re is None or Re <= val.LAMINAR_REYNOLDS:
-        return laminar(U)
+def wall_gradients(b: Burner, U: np.ndarray, Re: np.ndarray, nu: np.ndarray) -> np.ndarray:
+    """Wall velocity gradient of the port flow [1/s] at each bulk velocity ``U`` (with its port
+    Reynolds number ``Re``, NaN where unknown, and kinematic viscosity ``nu``): laminar fully
+    developed (8U/D, 6U/h) up to Re 2300 and where Re is unknown, Blasius's turbulent gradient
+    from Re 4000, linear in Re between the two (physics.validity.transition_gradient): no step
+    for a limit search to land on."""
+    def laminar(u: np.ndarray) -> np.ndarray:
+        return np.asarray(ind.wall_velocity_gradient_round(u, b.port_size_m) if b.port == "round"
+                          else ind.wall_velocity_gradient_slot(u, b.port_size_m))
     D_h = hydraulic_diameter(b)
-    assert nu is not None  # known whenever Re is
-    if Re >= val.TURBULENT_REYNOLDS:
-        return ind.wall_velocity_gradient_turbulent(U, D_h, nu)
-    return val.transition_gradient(Re, laminar(U * val.LAMINAR_REYNOLDS / Re),
-                                   ind.wall_velocity_gradient_turbulent(U * val.TURBULENT_REYNOLDS / Re, D_h, nu))
+    g = laminar(U)
+    turbulent = Re >= val.TURBULENT_REYNOLDS
+    g[turbulent] = ind.wall_velocity_gradient_turbulent(U[turbulent], D_h, nu[turbulent])
+    mid = (Re > val.LAMINAR_REYNOLDS) & ~turbulent
+    Re_m, U_m = Re[mid], U[mid]
+    g[mid] = val.transition_gradient(Re_m, laminar(U_m * val.LAMINAR_REYNOLDS / Re_m),
+                                     ind.wall_velocity_gradient_turbulent(U_m * val.TURBULENT_REYNOLDS / Re_m, D_h,
+                                                                          nu[mid]))
+    return g
 
 
 def not_assessed(study: Study, r: dict, Re: float | None) -> dict[str, str]:
@@ -347,31 +432,60 @@ def verdict_tally(verdicts: list[str]) -> str:
     return f"{groups[order[0]]} of {len(verdicts)} points {order[0]}" + "".join(", " + p for p in parts[1:])
 
 
-def _burner_margins(study: Study, r: dict, gas: FuelGas, s: dict) -> dict:
-    b = study.burner
-    out: dict[str, Any] = dict.fromkeys(BURNER_COLUMNS)
-    out["not_assessed"] = {}
-    if b is None or r["status"] != "ok":
+def burner_columns(study: Study, rows: list[dict], gases: list[FuelGas]) -> dict[str, list]:
+    """The burner's port flow, wall gradient, margins and quench ratio of every burning point
+    (columns.BURNER_COLUMNS; ``gases``: each row's fuel gas) computed once for all rows on
+    arrays, then each point's criteria not assessed (:func:`not_assessed`, also as the column
+    'not_assessed': criterion -> why) and verdict: column -> one value per row, None (and no
+    criterion not assessed) where a point has no flame or the study no [burner]."""
+    b, s, n = study.burner, study.indicator_settings, len(rows)
+    where = np.flatnonzero([b is not None and r["status"] == "ok" for r in rows])
+    out: dict[str, list] = {c: [None] * n for c in BURNER_COLUMNS}
+    out["not_assessed"] = [{} for _ in rows]
+    if b is None or not len(where):
         return out
-    U, Q, Re = port_flow(study, r, gas)
-    mu, rho = r.get("unburned_viscosity_Pa_s"), r["unburned_density_kg_m3"]
-    g = wall_gradient(b, U, Re, mu / rho if mu else None)
-    unassessed = not_assessed(study, r, Re)
-    margins = {"flashback": g / r["flashback_critical_gradient_1_s"], "blowoff": r["blowoff_critical_gradient_1_s"] / g,
-               "stabilizer": None}
-    quench = (r["tube_quenching_diameter_mm"] if b.port == "round" else r["quenching_distance_mm"]) / (1e3 * b.port_size_m)
+    mine = [rows[i] for i in where.tolist()]
+    U, Q, Re = port_flows(study, mine, [gases[i] for i in where.tolist()])
+    g = wall_gradients(b, U, Re, _floats(mine, "unburned_viscosity_Pa_s") / _floats(mine, "unburned_density_kg_m3"))
+    margins = {"flashback": g / _floats(mine, "flashback_critical_gradient_1_s"),
+               "blowoff": _floats(mine, "blowoff_critical_gradient_1_s") / g, "stabilizer": np.full(len(mine), np.nan)}
+    quench = _floats(mine, "tube_quenching_diameter_mm" if b.port == "round" else "quenching_distance_mm")
+    numbers: dict[str, np.ndarray | list] = {
+        "port_velocity_m_s": U, "thermal_input_kW": _or_none(Q / 1e3), "port_reynolds_number": _or_none(Re),
+        "wall_velocity_gradient_1_s": g, "quench_ratio": quench / (1e3 * b.port_size_m)}
     if b.stabilizer_size_m is not None and s.get("bluff_body_constant") is not None:
-        U_bo = ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, r["chemical_time_s"], s["bluff_body_constant"])
-        out["bluff_body_blowoff_velocity_m_s"] = U_bo
         assert b.approach_velocity_m_s is not None  # config sets it with the stabilizer size
+        U_bo = np.asarray(ind.bluff_body_blowoff_velocity(b.stabilizer_size_m, _floats(mine, "chemical_time_s"),
+                                                          s["bluff_body_constant"]))
+        numbers["bluff_body_blowoff_velocity_m_s"] = U_bo
         margins["stabilizer"] = U_bo / ind.edge_velocity(b.approach_velocity_m_s, b.stabilizer_blockage)
-    shown = {c: None if c in unassessed else m for c, m in margins.items()}
-    out.update(port_velocity_m_s=U, thermal_input_kW=None if Q is None else Q / 1e3, wall_velocity_gradient_1_s=g,
-               port_reynolds_number=Re, flashback_margin=shown["flashback"], blowoff_margin=shown["blowoff"],
-               stabilizer_margin=shown["stabilizer"], quench_ratio=quench, not_assessed=unassessed,
-               criteria_not_assessed="; ".join(f"{c}: {why}" for c, why in unassessed.items()),
-               verdict=_verdict(b, margins, unassessed, r.get("instability") == "cellular"))
+    for c, v in numbers.items():
+        out[c] = _scatter(n, where, v)
+    _burner_words(study, mine, where, out, {c: _or_none(m) for c, m in margins.items()})
     return out
+
+
+def _burner_words(study: Study, mine: list[dict], where: np.ndarray, out: dict[str, list],
+                  margins: dict[str, list]) -> None:
+    """Fill ``out``'s shown margins, criteria not assessed and verdict of the burning rows ``mine`` (at
+    ``where`` in the table; ``margins``: criterion -> one margin per burning row)."""
+    b = study.burner
+    assert b is not None  # asked only of a study with a [burner]
+    for k, (i, r) in enumerate(zip(where.tolist(), mine)):
+        unassessed = not_assessed(study, r, out["port_reynolds_number"][i])
+        mine_m = {c: m[k] for c, m in margins.items()}
+        out["flashback_margin"][i], out["blowoff_margin"][i], out["stabilizer_margin"][i] = (
+            None if c in unassessed else mine_m[c] for c in ("flashback", "blowoff", "stabilizer"))
+        out["not_assessed"][i] = unassessed
+        out["criteria_not_assessed"][i] = "; ".join(f"{c}: {why}" for c, why in unassessed.items())
+        out["verdict"][i] = _verdict(b, mine_m, unassessed, r.get("instability") == "cellular")
+
+
+def _into_rows(rows: list[dict], columns: dict[str, list]) -> None:
+    """Write a table of columns (column -> one value per row) into the rows."""
+    names = list(columns)
+    for r, values in zip(rows, zip(*columns.values())):
+        r.update(zip(names, values))
 
 
 def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> list[dict]:
@@ -380,58 +494,47 @@ def annotate(study: Study, rows: list[dict], ladders: Ladders | None = None) -> 
     ``ladders``: what a premixer's margins interpolate between the [stretch] ladder points
     (:class:`Ladders`); None: those of ``rows`` themselves (a whole sweep). A limit search gives
     its flames the sweep's (admissible.driver)."""
-    s = study.indicator_settings
-    gases = fuel_gases(study)
+    by_name = fuel_gases(study)
     if ladders is None:
         ladders = sweep_ladders(rows) if study.premixer is not None else NO_LADDERS
-    for r in rows:
-        r.update(dict.fromkeys(INDICATOR_COLUMNS))
-        if r["status"] == "ok":
-            r.update(_indicators(r, s))
-        r.update(response_columns(r))
-        if study.uncertainty is not None:
+    _into_rows(rows, indicator_columns(study, rows) | response_columns(rows))  # column-wise, then into the rows
+    if study.uncertainty is not None:
+        for r in rows:
             r.update(kinetic_columns(study, r))
-    index = {(r["fuel"], r["oxidizer"], r["blend_fraction"], r["equivalence_ratio"], r["pressure_bar"],
-              r["unburned_temperature_K"]): r for r in rows}
-    has_zero = 0.0 in study.blend_fractions
-    for r in rows:
-        ref_fuel = _reference_fuel(study, r["fuel"])
-        ref = index.get((ref_fuel, r["oxidizer"], 0.0, r["equivalence_ratio"], r["pressure_bar"],
-                         r["unburned_temperature_K"])) if has_zero else None
-        if ref is not None:
-            r["reference"] = ref_fuel
-            if r["status"] == "ok" and ref["status"] == "ok":
-                for col, src in RATIOS:
-                    r[col] = r[src] / ref[src]
-        gas = gases[(r["fuel"], r["blend_fraction"], r["oxidizer"])]
+    gases = [by_name[(r["fuel"], r["blend_fraction"], r["oxidizer"])] for r in rows]
+    for r, gas in zip(rows, gases):
         for col in GAS_COLUMNS:
             r[col] = gas.row[col]
-        r.update(_burner_margins(study, r, gas, s))
-        r.update(turbulence_columns(study, r))
-        r.update(turbulent_speed_columns(r, strained_speed(r, ladders.consumption)))
+    _into_rows(rows, burner_columns(study, rows, gases))
+    _into_rows(rows, turbulence_columns(study, rows))
+    _into_rows(rows, turbulent_speed_columns(rows, [strained_speed(r, ladders.consumption) for r in rows]))
+    for r, gas in zip(rows, gases):
         for analysis in parts("readout"):  # the registered analyses' columns (flamecharts.analyses)
             r.update(analysis.READ_OUT(study, r, gas.row))
     premixer_margins(study, rows, ladders)
     return rows
 
 
-def response_columns(row: dict) -> dict:
+def response_columns(rows: list[dict]) -> dict[str, list]:
     """Effective Lewis number, Markstein number and length, and the thermodiffusive regime of
-    a burning point from its stored Lewis and Zeldovich numbers (physics.flame_response);
-    None where one is missing (Ze is there only with [flame_response])."""
-    out: dict[str, Any] = dict.fromkeys(("effective_lewis_number", "markstein_number_unburned", "markstein_length_mm",
-                                         "instability"))
-    ze, le_f, le_o = row.get("zeldovich_number"), row.get("lewis_number_fuel"), row.get("lewis_number_oxygen")
-    if row["status"] != "ok" or ze is None or le_f is None or le_o is None or not ze > 0:
-        return out
-    phi = row["equivalence_ratio"]
+    every burning point from its stored Lewis and Zeldovich numbers (physics.flame_response),
+    computed once for all rows on arrays: column -> one value per row, None where one of the
+    three is missing (Ze is there only with [flame_response]) or Ze is not positive."""
+    n = len(rows)
+    where = np.flatnonzero([r["status"] == "ok" and r.get("lewis_number_fuel") is not None
+                            and r.get("lewis_number_oxygen") is not None and r.get("zeldovich_number") is not None
+                            and r["zeldovich_number"] > 0 for r in rows])
+    mine = [rows[i] for i in where.tolist()]
+    ze, le_f, le_o, phi = (_floats(mine, c) for c in ("zeldovich_number", "lewis_number_fuel", "lewis_number_oxygen",
+                                                       "equivalence_ratio"))
     lean = phi <= 1.0  # the fuel is the deficient reactant
-    le_eff = fr.effective_lewis_number(le_o if lean else le_f, le_f if lean else le_o, ze, 1.0 / phi if lean else phi)
-    ma = fr.markstein_number_unburned(row["expansion_ratio"], ze, le_eff)
-    delta_mm = 1e3 * row["unburned_thermal_diffusivity_m2_s"] / row["laminar_flame_speed_m_s"]
-    out.update(effective_lewis_number=le_eff, markstein_number_unburned=ma, markstein_length_mm=ma * delta_mm,
-               instability=fr.thermodiffusive_regime(ze, le_eff))
-    return out
+    le_eff = fr.effective_lewis_number(np.where(lean, le_o, le_f), np.where(lean, le_f, le_o), ze,
+                                       np.where(lean, 1.0 / phi, phi))
+    ma = fr.markstein_number_unburned(_floats(mine, "expansion_ratio"), ze, le_eff)
+    delta_mm = 1e3 * _floats(mine, "unburned_thermal_diffusivity_m2_s") / _floats(mine, "laminar_flame_speed_m_s")
+    return {"effective_lewis_number": _scatter(n, where, le_eff), "markstein_number_unburned": _scatter(n, where, ma),
+            "markstein_length_mm": _scatter(n, where, ma * delta_mm),
+            "instability": _scatter(n, where, fr.thermodiffusive_regime(ze, le_eff))}
 
 
 #: Reactions kept per point for sensitivities.csv, the report and the sensitivity chart.
@@ -570,34 +673,38 @@ def point_warnings(study: Study, point: Point, row: dict) -> str:
     return "; ".join(w for w in out if w)
 
 
-def turbulence_columns(study: Study, row: dict) -> dict:
-    """Where a burning point's flame sits in the regimes of premixed turbulent combustion
-    ([premixer] with a [burner] that sets the bulk velocity; columns.TURBULENCE_COLUMNS): u' and
-    l_t from the study, or estimated from the burner's duct (physics.premixer.duct_turbulence:
-    u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h, common practice without source), and Peters'
-    turbulent Reynolds, Damkohler and Karlovitz numbers with l_F = alpha_u / S_L and the
-    regime (physics.turbulence; Peters 2000)."""
-    out: dict[str, Any] = dict.fromkeys(TURBULENCE_COLUMNS)
+def turbulence_columns(study: Study, rows: list[dict]) -> dict[str, list]:
+    """Where each burning point's flame sits in the regimes of premixed turbulent combustion
+    ([premixer] with a [burner] that sets the bulk velocity; columns.TURBULENCE_COLUMNS), on
+    arrays over all rows: u' and l_t from the study, or estimated from the burner's duct
+    (physics.premixer.duct_turbulence: u'/U = 0.16 Re^-1/8, l_t = 0.07 D_h, common practice
+    without source), and Peters' turbulent Reynolds, Damkohler and Karlovitz numbers with
+    l_F = alpha_u / S_L and the regime (physics.turbulence; Peters 2000). Column -> one value per
+    row, None where a point has no flame, port velocity or viscosity."""
+    n = len(rows)
+    out: dict[str, list] = {c: [None] * n for c in TURBULENCE_COLUMNS}
     pm, b = study.premixer, study.burner
-    U = row.get("port_velocity_m_s")
-    if pm is None or b is None or row["status"] != "ok" or not U or not row.get("unburned_viscosity_Pa_s"):
+    if pm is None or b is None:
         return out
-    D_h = hydraulic_diameter(b)
-    nu = row["unburned_viscosity_Pa_s"] / row["unburned_density_kg_m3"]
-    duct = duct_turbulence(U, D_h, nu)
+    where = np.flatnonzero([r["status"] == "ok" and bool(r.get("port_velocity_m_s"))
+                            and bool(r.get("unburned_viscosity_Pa_s")) for r in rows])
+    mine = [rows[i] for i in where.tolist()]
+    U = _floats(mine, "port_velocity_m_s")
+    duct = duct_turbulence(U, hydraulic_diameter(b), _floats(mine, "unburned_viscosity_Pa_s")
+                           / _floats(mine, "unburned_density_kg_m3"))
     u_p = U * pm.turbulence_intensity if pm.turbulence_intensity is not None else duct.u_prime_m_s
     l_t = pm.integral_length_m if pm.integral_length_m is not None else duct.integral_length_m
-    S_L = row["laminar_flame_speed_m_s"]
-    l_F = float(turb.diffusive_thickness(row["unburned_thermal_diffusivity_m2_s"], S_L))
+    S_L = _floats(mine, "laminar_flame_speed_m_s")
+    l_F = turb.diffusive_thickness(_floats(mine, "unburned_thermal_diffusivity_m2_s"), S_L)
     given = (pm.turbulence_intensity is not None, pm.integral_length_m is not None)
-    out.update(rms_velocity_m_s=u_p, integral_length_mm=1e3 * l_t,
-               turbulence_source="study" if all(given) else "duct estimate" if not any(given) else
-               "study and duct estimate",
-               turbulent_reynolds_number=float(turb.turbulent_reynolds(u_p, l_t, S_L, l_F)),
-               damkohler_number=float(turb.damkohler(u_p, l_t, S_L, l_F)),
-               karlovitz_number=float(turb.karlovitz(u_p, l_t, S_L, l_F)),
-               combustion_regime=turb.regime(u_p, l_t, S_L, l_F))
-    return out
+    source = "study" if all(given) else "duct estimate" if not any(given) else "study and duct estimate"
+    columns = {"rms_velocity_m_s": u_p, "integral_length_mm": np.full(len(mine), 1e3 * l_t),
+               "turbulence_source": np.full(len(mine), source),
+               "turbulent_reynolds_number": turb.turbulent_reynolds(u_p, l_t, S_L, l_F),
+               "damkohler_number": turb.damkohler(u_p, l_t, S_L, l_F),
+               "karlovitz_number": turb.karlovitz(u_p, l_t, S_L, l_F),
+               "combustion_regime": turb.regime(u_p, l_t, S_L, l_F)}
+    return {c: _scatter(n, where, columns[c]) for c in TURBULENCE_COLUMNS}
 
 
 def turbulent_speeds(row: dict) -> dict[str, FlameSpeed]:
@@ -637,34 +744,65 @@ def speeds_at(row: dict, S_c: float | None) -> dict[str, FlameSpeed]:
     return out
 
 
-def turbulent_speed_columns(row: dict, strained: tuple[float | None, str | None] | None = None) -> dict:
-    """A premixer's turbulent flame speeds (:func:`speeds_at`), which of them lie outside the
-    range of their fitted data and why, and the core-flow flashback margin
-    (columns.TURBULENT_SPEED_COLUMNS). ``strained``: (S_c,max, how it was found) at the point
-    (:func:`strained_speed`, what ``annotate`` gives every point); None: the point's own ladder's.
+def turbulent_speed_columns(rows: list[dict], strained: list[tuple[float | None, str | None]] | None = None
+                            ) -> dict[str, list]:
+    """A premixer's turbulent flame speeds (:func:`speeds_at`'s correlations, on arrays over every
+    point whose turbulence is known: physics.premixer's ``*_flame_speeds``), which of them lie
+    outside the range of their fitted data and why, and the core-flow flashback margin
+    (columns.TURBULENT_SPEED_COLUMNS): column -> one value per row. ``strained``: (S_c,max, how it
+    was found) at each point (:func:`strained_speed`, what ``annotate`` gives every point); None:
+    each point's own ladder's.
 
     Core-flow margin (physics.premixer.core_flashback_margin): the bulk (port) velocity over
     the LARGEST turbulent flame speed of the correlations computed at the point, in or out of
-    their fitted range, and which correlation that was. The largest, because the correlations
-    disagree by more than their scatter and the fastest flame is the one that flashes back; out
-    of range too, because hydrogen blends are exactly where the Lewis-number correlation leaves
-    its data (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's
-    (about 1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
-    out: dict[str, Any] = dict.fromkeys(TURBULENT_SPEED_COLUMNS)
+    their fitted range, and which correlation that was (the first of zimont, muppala, leading
+    point on a tie). The largest, because the correlations disagree by more than their scatter
+    and the fastest flame is the one that flashes back; out of range too, because hydrogen
+    blends are exactly where the Lewis-number correlation leaves its data
+    (``turbulent_flame_speed_outside_range`` says so). The bulk velocity, not the core's (about
+    1.2 times the bulk in turbulent duct flow, common practice), errs on the safe side."""
+    n = len(rows)
     if strained is None:
-        own = row.get("ladder_consumption_speed_max_m_s")
-        strained = (own, "at a ladder point") if own else (None, None)
-    speeds = speeds_at(row, strained[0])
-    if not speeds:
+        strained = [(own, "at a ladder point") if (own := r.get("ladder_consumption_speed_max_m_s")) else (None, None)
+                    for r in rows]
+    out: dict[str, list] = {c: [None] * n for c in TURBULENT_SPEED_COLUMNS}
+    where = np.flatnonzero([r.get("rms_velocity_m_s") is not None for r in rows])
+    if not len(where):
         return out
-    fastest = max(speeds, key=lambda k: speeds[k].S_T_m_s)
-    get = {k: v.S_T_m_s for k, v in speeds.items()}.get
-    out.update(strained_consumption_speed_max_m_s=strained[0], strained_consumption_speed_source=strained[1],
-               turbulent_flame_speed_zimont_m_s=get("zimont"), turbulent_flame_speed_muppala_m_s=get("muppala"),
-               turbulent_flame_speed_leading_point_m_s=get("leading point"),
-               turbulent_flame_speed_outside_range="; ".join(f"{k}: {v.why}" for k, v in speeds.items() if v.why),
-               core_flashback_margin=float(core_flashback_margin(row["port_velocity_m_s"], speeds[fastest].S_T_m_s)),
-               core_flashback_correlation=fastest)
+    mine = [rows[i] for i in where.tolist()]
+    u_p, S_L, alpha = (_floats(mine, c) for c in ("rms_velocity_m_s", "laminar_flame_speed_m_s",
+                                                   "unburned_thermal_diffusivity_m2_s"))
+    l_t = 1e-3 * _floats(mine, "integral_length_mm")
+    speeds = {"zimont": (np.arange(len(mine)), zimont_flame_speeds(u_p, l_t, S_L, alpha))}
+    lewis = [r.get("lewis_number_fuel" if r["equivalence_ratio"] <= 1.0 else "lewis_number_oxygen") for r in mine]
+    has = np.flatnonzero([bool(le) for le in lewis])
+    speeds["muppala"] = (has, muppala_flame_speeds(
+        u_p[has], l_t[has], S_L[has], _floats(mine, "unburned_viscosity_Pa_s")[has]
+        / _floats(mine, "unburned_density_kg_m3")[has], np.array([lewis[k] for k in has.tolist()], dtype=float),
+        1e5 * _floats(mine, "pressure_bar")[has]))
+    S_c = [strained[i][0] for i in where.tolist()]
+    has = np.flatnonzero([bool(s) for s in S_c])
+    speeds["leading point"] = (has, leading_point_flame_speeds(u_p[has], l_t[has], np.array(
+        [S_c[k] for k in has.tolist()], dtype=float), alpha[has]))
+    S_T = np.full((len(mine), len(speeds)), np.nan)
+    why = [[""] * len(speeds) for _ in mine]
+    for j, (at, s) in enumerate(speeds.values()):
+        S_T[at, j] = s.S_T_m_s
+        for k, w in zip(at.tolist(), s.why):
+            why[k][j] = w
+    names = list(speeds)
+    fastest = np.nanargmax(S_T, axis=1)  # the first largest
+    for k, i in enumerate(where.tolist()):
+        got = {name: S_T[k, j] for j, name in enumerate(names) if not math.isnan(S_T[k, j])}
+        out["strained_consumption_speed_max_m_s"][i], out["strained_consumption_speed_source"][i] = strained[i]
+        out["turbulent_flame_speed_outside_range"][i] = "; ".join(f"{name}: {why[k][j]}" for j, name in enumerate(names)
+                                                                  if name in got and why[k][j])
+        out["core_flashback_correlation"][i] = names[fastest[k]]
+    for j, col in enumerate(("turbulent_flame_speed_zimont_m_s", "turbulent_flame_speed_muppala_m_s",
+                             "turbulent_flame_speed_leading_point_m_s")):
+        out[col] = _scatter(n, where, _or_none(S_T[:, j]))
+    out["core_flashback_margin"] = _scatter(n, where, core_flashback_margin(
+        _floats(mine, "port_velocity_m_s"), S_T[np.arange(len(mine)), fastest]))
     return out
 
 

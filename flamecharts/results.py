@@ -4,6 +4,7 @@ flat_row      a point's stored flame -> its row (columns.COLUMNS, units in the n
 point_rows    every point of a study, in study order, annotated (indicators, gas, burner, warnings)
 rows_from_dir the study of a finished run folder and its rows, read from the store alone
 to_dataset    the rows as a labelled N-dimensional table (xarray) over the sweep axes
+dataset_table its points back as results.csv's columns (what results.csv is written from)
 exponent_table pressure and temperature exponents of the flame speed, fitted along the table's axes
 margin_summary smallest burner margins over phi per fuel gas and condition, read along the table's phi axis
 first_flashback_fraction  first blend fraction whose flashback margin falls below the minimum
@@ -262,6 +263,33 @@ def extra_tables(study: Study, rows: list[dict]) -> dict[str, tuple[list[dict], 
     its columns), for the files the study asks for ([] rows: asked for, none to write)."""
     fill = {name: f for data in parts("dataset") for name, f in getattr(data, "TABLE_ROWS", {}).items()}
     return {name: (fill[name](study, rows), columns) for cols in parts("columns") for name, columns in cols.TABLES.items()}
+
+
+def dataset_table(ds: xr.Dataset, columns: Sequence[str] = COLUMNS) -> dict[str, list]:
+    """results.csv's columns of a Dataset of :func:`to_dataset`: column -> one value per point, in
+    study order (a study comparing mechanisms: each mechanism's points in turn), the inverse of
+    its reshaping. Numbers as floats (None where NaN: a point without the value), text as the
+    Dataset holds it, the axes from its coordinates and the study-wide columns from its
+    attributes."""
+    if "mechanism" in ds.dims:
+        parts = [dataset_table(mechanism_dataset(ds, str(m)), columns) for m in ds["mechanism"].values]
+        return {c: [v for part in parts for v in part[c]] for c in columns}
+    grid = list(zip(*itertools.product(*(ds[a].values.tolist() for a in AXES))))  # C order: the rows' order
+    n = len(grid[0]) if grid else 0
+    out: dict[str, list] = {}
+    for c in columns:
+        if c in AXES:
+            out[c] = list(grid[AXES.index(c)]) if grid else []
+        elif c in STUDY_WIDE:
+            out[c] = [ds.attrs.get(c, "")] * n
+        else:
+            values = ds[c].transpose(*AXES).values.ravel()
+            if not _is_text(c):
+                blank = np.isnan(values)
+                values = values.astype(object)
+                values[blank] = None
+            out[c] = values.tolist()
+    return out
 
 
 def mechanism_dataset(ds: xr.Dataset, mechanism: str | None = None) -> xr.Dataset:

@@ -53,3 +53,24 @@ def test_port_velocity_hand_calculation():
 def test_bluff_body_velocity_scales_with_size_over_chemical_time():
     tau = ind.chemical_time(2.2e-5, 0.37)
     assert ind.bluff_body_blowoff_velocity(0.04, tau, 1.0) == pytest.approx(2 * ind.bluff_body_blowoff_velocity(0.02, tau, 1.0))
+
+
+def test_powers_and_logarithms_of_arrays_are_those_of_python_floats_bit_for_bit():
+    # The read-out computes its columns on arrays over all points (design.indicator_columns,
+    # design.response_columns); each element must carry the bits Python's ** and math.log give one
+    # number (results written row by row before, a flame computed alone). NumPy's own x ** y and
+    # np.log differ from them in the last bit of a few per cent of values on AVX-512 processors.
+    import math
+
+    from flamecharts.physics import elementwise, flame_response as fr
+
+    x = np.random.default_rng(29).uniform(0.01, 20.0, 20000)
+    for y in (2, 0.7, 1.5, -0.25):
+        assert elementwise.power(x, y).tolist() == [v ** y for v in x.tolist()]
+    assert elementwise.log(x).tolist() == [math.log(v) for v in x.tolist()]
+    S_L, a = x[:1000] / 10.0, x[1000:2000] * 1e-5
+    assert ind.blint_thickness(a, S_L, 2000.0, 300.0).tolist() == [
+        2.0 * (ai / s) * (2000.0 / 300.0) ** 0.7 for ai, s in zip(a.tolist(), S_L.tolist())]
+    sigma, le = 1.0 + x[:1000], x[1000:2000] / 10.0
+    assert fr.markstein_number_unburned(sigma, 8.0, le).tolist() == [
+        fr.markstein_number_unburned(s, 8.0, v) for s, v in zip(sigma.tolist(), le.tolist())]

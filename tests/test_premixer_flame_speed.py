@@ -16,10 +16,16 @@ import xarray as xr
 
 import flamecharts
 from flamecharts.columns import COLUMNS, TURBULENT_SPEED_COLUMNS
-from flamecharts.design import turbulent_speed_columns
+from flamecharts.design import turbulent_speed_columns as speed_table
 from flamecharts.physics import premixer as pm
 
 from conftest import write_h2_study
+
+
+def turbulent_speed_columns(row: dict) -> dict:
+    """design.turbulent_speed_columns of one row (it takes every row of a sweep at once)."""
+    return {c: v[0] for c, v in speed_table([row]).items()}
+
 
 #: A burning point with the premixer's turbulence (design.turbulence_columns): the inputs of the
 #: doctests of physics/premixer.py (u' 2 m/s, l_t 10 mm, S_L 0.4 m/s, alpha_u 2e-5 and

@@ -283,3 +283,21 @@ def test_extinction_damkohler_and_blowout_margin():
     assert da.tolist() == pytest.approx([0.8, 8.12])
     assert pm.lean_blowout_margin(da).tolist() == pytest.approx([0.8, 8.12])   # Da_crit = 1, from memory
     assert pm.lean_blowout_margin(0.8, critical=0.4) == pytest.approx(2.0)
+
+
+def test_the_array_forms_of_the_flame_speeds_give_each_point_what_it_gets_alone():
+    # design.turbulent_speed_columns computes every premixer point at once: each element, value and
+    # reasons, must be what the one-point form gives (the report and charts read that one).
+    rng = np.random.default_rng(30)
+    u, l_t, S_L = rng.uniform(0.1, 30.0, 500), rng.uniform(1e-4, 0.05, 500), rng.uniform(0.05, 3.0, 500)
+    alpha, nu, le, p = rng.uniform(1e-5, 1e-4, 500), rng.uniform(1e-6, 5e-5, 500), rng.uniform(0.2, 2.5, 500), \
+        rng.uniform(5e4, 3e6, 500)
+    z, m = pm.zimont_flame_speeds(u, l_t, S_L, alpha), pm.muppala_flame_speeds(u, l_t, S_L, nu, le, p)
+    lp = pm.leading_point_flame_speeds(u, l_t, 2.0 * S_L, alpha)
+    for k, args in enumerate(zip(u.tolist(), l_t.tolist(), S_L.tolist(), alpha.tolist(), nu.tolist(), le.tolist(),
+                                 p.tolist())):
+        U, L, S, a, n, Le, P = args
+        assert pm.zimont_flame_speed(U, L, S, a) == (z.S_T_m_s[k], not z.why[k], z.why[k])
+        assert pm.muppala_flame_speed(U, L, S, n, Le, P) == (m.S_T_m_s[k], not m.why[k], m.why[k])
+        assert pm.leading_point_flame_speed(U, L, 2.0 * S, a) == (lp.S_T_m_s[k], not lp.why[k], lp.why[k])
+    assert any(z.why) and not all(z.why) and any(m.why)  # both sides of the ranges were met

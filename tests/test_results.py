@@ -66,6 +66,18 @@ def test_results_nc_holds_every_csv_value_with_units(finished):
     assert np.isnan(ds.laminar_flame_speed_m_s.sel(equivalence_ratio=0.05)).all()
 
 
+def test_results_csv_written_from_the_dataset_is_the_rows_table(finished, tmp_path):
+    # results.csv is written from the Dataset (results.dataset_table), as results.nc is: the same
+    # text as the rows give, string for string, a no-flame point included
+    from flamecharts.outputs.tables import write_columns, write_csv
+    from flamecharts.results import dataset_table
+
+    res = flamecharts.open_results(finished[1])
+    from_rows = write_csv(res.rows, tmp_path / "rows.csv").read_text()
+    assert write_columns(dataset_table(res.dataset), tmp_path / "ds.csv").read_text() == from_rows
+    assert (finished[1] / "results.csv").read_text() == from_rows
+
+
 def test_open_results_gives_the_run_s_dataset(finished):
     config, out = finished
     opened = flamecharts.open_results(out)

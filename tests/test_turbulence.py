@@ -35,12 +35,21 @@ def test_the_boundary_lines_are_where_their_numbers_equal_one_or_one_hundred():
     assert one["Re_t = 1"] == one["Da = 1"] == one["Ka = 1"] == 1.0
 
 
-@pytest.mark.parametrize("ratio_u, ratio_l, expected", [
+REGIMES = [
     (0.5, 0.5, "laminar"),                 # Re_t = 0.25
     (0.5, 100.0, "wrinkled flamelets"),    # u' < S_L
     (3.0, 100.0, "corrugated flamelets"),  # Ka = 0.52
     (30.0, 100.0, "thin reaction zones"),  # Ka = 16
     (300.0, 100.0, "broken reaction zones"),  # Ka = 520
-])
+]
+
+
+@pytest.mark.parametrize("ratio_u, ratio_l, expected", REGIMES)
 def test_regimes_fall_between_the_lines(ratio_u, ratio_l, expected):
     assert tb.regime(ratio_u * S_L, ratio_l * l_F, S_L, l_F) == expected
+
+
+def test_regimes_of_an_array_are_those_of_each_point():
+    # the read-out places every point at once (design.turbulence_columns)
+    ratio_u, ratio_l, expected = (np.array([c[k] for c in REGIMES]) for k in range(3))
+    assert tb.regime(ratio_u * S_L, ratio_l * l_F, S_L, l_F).tolist() == expected.tolist()

@@ -9,11 +9,12 @@ and the Lewis-number cut are common practice without source (physics.validity).
 """
 from types import SimpleNamespace as NS
 
+import numpy as np
 import pytest
 
 import flamecharts
 from flamecharts.admissible.words import limit_sentence
-from flamecharts.design import not_assessed, wall_gradient
+from flamecharts.design import not_assessed, wall_gradients
 from flamecharts.physics import indicators as ind, validity as val
 
 from conftest import write_h2_study
@@ -61,10 +62,9 @@ def test_wall_gradient_has_no_step_between_laminar_and_turbulent_port_flow():
     0.3164 x 2300^0.75 / 64 = 1.64 times 8U/D)."""
     b = NS(port="round", port_size_m=0.004)
     nu = 1.6e-5
-    grad = []
-    for Re in (2299.0, 2300.0, 2301.0, 3999.0, 4000.0, 4001.0):
-        U = Re * nu / b.port_size_m
-        grad.append(wall_gradient(b, U, Re, nu) / U)  # per unit velocity: smooth in Re
+    Re = np.array([2299.0, 2300.0, 2301.0, 3999.0, 4000.0, 4001.0])
+    grad = (wall_gradients(b, Re * nu / b.port_size_m, Re, np.full(6, nu)) / (Re * nu / b.port_size_m)).tolist()
+    # per unit velocity: smooth in Re
     assert grad[1] == pytest.approx(8.0 / 0.004) and grad[0] == pytest.approx(grad[1], rel=1e-3)
     assert grad[2] == pytest.approx(grad[1], rel=2e-3)
     assert grad[3] == pytest.approx(grad[4], rel=1e-3) and grad[5] == pytest.approx(grad[4], rel=1e-3)

@@ -1,7 +1,8 @@
 """Text outputs of a run folder: results.csv (and other tables), about.txt; files replaced whole.
 
 write_atomic   a text file a reader never sees half of
-write_csv      a table of rows with given columns (results.csv by default: columns.COLUMNS)
+write_csv      a table of rows with given columns (results.csv's by default: columns.COLUMNS)
+write_columns  a table of columns (results.csv, from the Dataset: results.dataset_table)
 write_about    about.txt: what produced the results, with the cautions
 """
 from __future__ import annotations
@@ -55,6 +56,18 @@ def write_csv(rows: list[dict], path: Path, columns: Sequence[str] = COLUMNS) ->
     w.writerow(columns)
     for r in rows:
         w.writerow([_fmt(r.get(c)) for c in columns])
+    write_atomic(Path(path), buf.getvalue())
+    return Path(path)
+
+
+def write_columns(table: dict[str, list], path: Path) -> Path:
+    """A CSV of a table of columns (column -> one value per row, all of one length), in its
+    columns' order: results.csv from the Dataset (results.dataset_table)."""
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(list(table))
+    for values in zip(*table.values()):
+        w.writerow([_fmt(v) for v in values])
     write_atomic(Path(path), buf.getvalue())
     return Path(path)
 

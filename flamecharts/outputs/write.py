@@ -1,4 +1,5 @@
-"""Every output file of a run folder, written from the rows of a study."""
+"""Every output file of a run folder, written from the rows of a study (results.csv and results.nc
+from its Dataset)."""
 from __future__ import annotations
 
 from pathlib import Path
@@ -17,6 +18,7 @@ from ..config import by_mechanism
 from ..design import fuel_gas_table, mechanism_differences
 from ..results import (
     comparison_of,
+    dataset_table,
     exponent_table,
     extra_tables,
     mechanism_dataset,
@@ -27,7 +29,7 @@ from ..results import (
 from .charts import CAPTIONS, draw_all
 from .netcdf import write_netcdf
 from .report import write_report
-from .tables import write_about, write_csv
+from .tables import write_about, write_columns, write_csv
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -51,7 +53,7 @@ def write_outputs(study: Study, rows: list[dict], out: Path, charts: bool = True
     gases = fuel_gas_table(study)
     ds = to_dataset(study, rows) if dataset is None else dataset
     limits, records = limits or [], records or {}
-    files = [write_csv(rows, out / "results.csv"), write_netcdf(ds, out / "results.nc"),
+    files = [write_columns(dataset_table(ds), out / "results.csv"), write_netcdf(ds, out / "results.nc"),
              write_about(study, out / "about.txt"), write_csv(gases, out / "fuel_gases.csv", GAS_TABLE_COLUMNS)]
     exponents = exponent_table(ds)
     if exponents:

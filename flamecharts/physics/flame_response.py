@@ -12,7 +12,8 @@ where it is stretched or curved than its unstretched S_L says; it wrinkles into 
 its own and flashes back earlier than the thermal critical-gradient model predicts. These
 numbers flag where the unstretched flame speed understates the risk; they do not correct it.
 
-All inputs and outputs dimensionless or SI, as each docstring states.
+All inputs and outputs dimensionless or SI, as each docstring states. The last three take and
+give numbers or NumPy arrays alike (design.annotate reads them out for every point at once).
 """
 from __future__ import annotations
 
@@ -20,6 +21,8 @@ import math
 
 import numpy as np
 import numpy.typing as npt
+
+from .elementwise import Real, log
 
 #: Cellular (thermodiffusive) instability for Ze (Le_eff - 1) below this (Sivashinsky 1977).
 CELLULAR_THRESHOLD = -2.0
@@ -91,8 +94,8 @@ def blend_lewis_number_heat_release(lewis_numbers: npt.ArrayLike, heat_release_w
     return float(1.0 + np.sum(q * (le - 1.0)) / np.sum(q))
 
 
-def effective_lewis_number(lewis_excess: float, lewis_deficient: float, zeldovich: float,
-                           mixture_strength: float) -> float:
+def effective_lewis_number(lewis_excess: Real, lewis_deficient: Real, zeldovich: Real,
+                           mixture_strength: Real) -> Real:
     """Effective Lewis number of a two-reactant premixed flame [-].
 
     Le_eff = 1 + ((Le_E - 1) + (Le_D - 1) A) / (1 + A),   A = 1 + Ze (Phi - 1)
@@ -169,7 +172,7 @@ def zeldovich_number(mass_burning_rates_kg_m2_s: npt.ArrayLike, flame_temperatur
     return float(activation_K * (flame_temperature_K - unburned_temperature_K) / flame_temperature_K ** 2)
 
 
-def _expansion_integral(sigma: float) -> float:
+def _expansion_integral(sigma: Real) -> Real:
     """int_0^(sigma-1) ln(1 + x) / x dx [-], which is -Li2(1 - sigma), the dilogarithm; SciPy's
     ``spence(z)`` is Li2(1 - z), so the integral is -spence(sigma).
 
@@ -178,10 +181,11 @@ def _expansion_integral(sigma: float) -> float:
     """
     from scipy.special import spence  # here, not at import: workers load this module without SciPy
 
-    return float(-spence(sigma))
+    out = -spence(sigma)
+    return float(out) if np.ndim(out) == 0 else out
 
 
-def markstein_number_unburned(expansion_ratio: float, zeldovich: float, lewis_effective: float) -> float:
+def markstein_number_unburned(expansion_ratio: Real, zeldovich: Real, lewis_effective: Real) -> Real:
     """Markstein number relative to the unburned gas, of the hydrodynamic theory [-].
 
     Ma_u = sigma ln(sigma) / (sigma - 1)
@@ -215,12 +219,13 @@ def markstein_number_unburned(expansion_ratio: float, zeldovich: float, lewis_ef
     2.27
     """
     s = expansion_ratio
-    return s * math.log(s) / (s - 1.0) + zeldovich * (lewis_effective - 1.0) / (2.0 * (s - 1.0)) * \
+    return s * log(s) / (s - 1.0) + zeldovich * (lewis_effective - 1.0) / (2.0 * (s - 1.0)) * \
         _expansion_integral(s)
 
 
-def thermodiffusive_regime(zeldovich: float, lewis_effective: float) -> str:
-    """'cellular', 'stable' or 'pulsating' by the reduced Lewis number l = Ze (Le_eff - 1).
+def thermodiffusive_regime(zeldovich: Real, lewis_effective: Real) -> str | np.ndarray:
+    """'cellular', 'stable' or 'pulsating' by the reduced Lewis number l = Ze (Le_eff - 1) (an
+    array of them for arrays).
 
     Cellular (thermodiffusive) instability for l < -2, pulsating for l > 4 (1 + sqrt 3),
     Sivashinsky (1977), near-equidiffusional constant-density limit. Thermal expansion adds
@@ -236,8 +241,6 @@ def thermodiffusive_regime(zeldovich: float, lewis_effective: float) -> str:
     ('cellular', 'stable', 'pulsating')
     """
     reduced = zeldovich * (lewis_effective - 1.0)
-    if reduced < CELLULAR_THRESHOLD:
-        return "cellular"
-    if reduced > PULSATING_THRESHOLD:
-        return "pulsating"
-    return "stable"
+    out = np.where(reduced < CELLULAR_THRESHOLD, "cellular", np.where(reduced > PULSATING_THRESHOLD, "pulsating",
+                                                                        "stable"))
+    return str(out) if out.ndim == 0 else out

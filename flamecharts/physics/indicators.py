@@ -13,13 +13,17 @@ wall_velocity_gradient_slot     g = 6 U / h (fully developed laminar slot of gap
 wall_velocity_gradient_turbulent  Blasius's wall shear over mu (turbulent smooth duct)
 port_velocity_at_thermal_input  bulk port velocity for a thermal input
 
-All inputs and outputs in SI units. Constants that are not universal are parameters
+All inputs and outputs in SI units. All but edge_velocity take and give numbers or NumPy arrays
+alike (design.annotate computes them for every point at once; powers through elementwise.power,
+so an array gives each element the bits of a number). Constants that are not universal are parameters
 with documented defaults (DEFAULTS); the study config may override each of them. Where
 each constant holds (the data it was fitted on) is physics.validity's.
 """
 from __future__ import annotations
 
 from typing import Any
+
+from .elementwise import Real, power
 
 #: Default settings, each overridable in the study's [indicators] table.
 #: Values are floats, or None where a setting has no default (Any: the defaults of the functions
@@ -48,7 +52,7 @@ DEFAULTS: dict[str, Any] = {
 }
 
 
-def chemical_time(alpha_u: float, S_L: float) -> float:
+def chemical_time(alpha_u: Real, S_L: Real) -> Real:
     """Chemical (flame) time tau_c = alpha_u / S_L^2 [s].
 
     The transit time of the flame through its own diffusive thickness (Poinsot &
@@ -65,10 +69,10 @@ def chemical_time(alpha_u: float, S_L: float) -> float:
     >>> round(chemical_time(2.2e-5, 0.37) * 1e3, 4)
     0.1607
     """
-    return alpha_u / S_L ** 2
+    return alpha_u / power(S_L, 2)
 
 
-def blint_thickness(alpha_u: float, S_L: float, T_b: float, T_u: float) -> float:
+def blint_thickness(alpha_u: Real, S_L: Real, T_b: Real, T_u: Real) -> Real:
     """Blint's flame-thickness estimate 2 (alpha_u/S_L)(T_b/T_u)^0.7 [m].
 
     Blint, Combust. Sci. Technol. 49 (1986) 79, as given by Poinsot & Veynante 2005,
@@ -86,10 +90,10 @@ def blint_thickness(alpha_u: float, S_L: float, T_b: float, T_u: float) -> float
     >>> round(blint_thickness(2.2e-5, 0.37, 2220.0, 298.0) * 1e3, 3)
     0.485
     """
-    return 2.0 * (alpha_u / S_L) * (T_b / T_u) ** 0.7
+    return 2.0 * (alpha_u / S_L) * power(T_b / T_u, 0.7)
 
 
-def flashback_critical_gradient(S_L: float, alpha_u: float, Pe_F: float = DEFAULTS["flashback_peclet"]) -> float:
+def flashback_critical_gradient(S_L: Real, alpha_u: Real, Pe_F: float = DEFAULTS["flashback_peclet"]) -> Real:
     """Critical wall velocity gradient for boundary-layer flashback g_F = S_L^2/(Pe_F alpha_u) [1/s].
 
     Lewis & von Elbe's critical-gradient concept (Combustion, Flames and Explosions of
@@ -110,10 +114,10 @@ def flashback_critical_gradient(S_L: float, alpha_u: float, Pe_F: float = DEFAUL
     >>> round(flashback_critical_gradient(0.37, 2.2e-5))
     479
     """
-    return S_L ** 2 / (Pe_F * alpha_u)
+    return power(S_L, 2) / (Pe_F * alpha_u)
 
 
-def blowoff_critical_gradient(S_L: float, alpha_u: float, Ka_B: float = DEFAULTS["blowoff_karlovitz"]) -> float:
+def blowoff_critical_gradient(S_L: Real, alpha_u: Real, Ka_B: float = DEFAULTS["blowoff_karlovitz"]) -> Real:
     """Critical wall velocity gradient for blowoff of a port flame g_B = Ka_B S_L^2 / alpha_u [1/s].
 
     The flame-stretch (Karlovitz) criterion of Reed, Combust. Flame 11 (1967) 177:
@@ -132,10 +136,10 @@ def blowoff_critical_gradient(S_L: float, alpha_u: float, Ka_B: float = DEFAULTS
     >>> round(blowoff_critical_gradient(0.37, 2.2e-5))
     1431
     """
-    return Ka_B * S_L ** 2 / alpha_u
+    return Ka_B * power(S_L, 2) / alpha_u
 
 
-def quenching_distance(alpha_u: float, S_L: float, Pe_q: float = DEFAULTS["quench_peclet"]) -> float:
+def quenching_distance(alpha_u: Real, S_L: Real, Pe_q: float = DEFAULTS["quench_peclet"]) -> Real:
     """Quenching distance between parallel plates d_q = Pe_q alpha_u / S_L [m].
 
     A flame does not pass a gap narrower than d_q; the quench Peclet number is about 40
@@ -150,7 +154,7 @@ def quenching_distance(alpha_u: float, S_L: float, Pe_q: float = DEFAULTS["quenc
     return Pe_q * alpha_u / S_L
 
 
-def tube_quenching_diameter(d_q: float, factor: float = DEFAULTS["tube_quench_factor"]) -> float:
+def tube_quenching_diameter(d_q: Real, factor: float = DEFAULTS["tube_quench_factor"]) -> Real:
     """Quenching diameter of a round tube from the plate quenching distance, d_T = k d_q [m].
 
     Examples
@@ -161,7 +165,7 @@ def tube_quenching_diameter(d_q: float, factor: float = DEFAULTS["tube_quench_fa
     return factor * d_q
 
 
-def bluff_body_blowoff_velocity(D: float, tau_c: float, C_BO: float) -> float:
+def bluff_body_blowoff_velocity(D: float, tau_c: Real, C_BO: float) -> Real:
     """Bluff-body blowoff velocity past the body's edge from Damkoehler scaling, U_BO = C_BO D / tau_c [m/s].
 
     Blowoff when the residence time in the recirculation zone (about D/U, U the velocity
@@ -194,7 +198,7 @@ def edge_velocity(U_approach: float, blockage: float) -> float:
     return U_approach / (1.0 - blockage)
 
 
-def wall_velocity_gradient_round(U: float, D: float) -> float:
+def wall_velocity_gradient_round(U: Real, D: float) -> Real:
     """Wall velocity gradient of fully developed laminar flow in a round port, g = 8 U / D [1/s].
 
     Exact for Poiseuille flow, u(r) = 2U(1 - (2r/D)^2).
@@ -207,7 +211,7 @@ def wall_velocity_gradient_round(U: float, D: float) -> float:
     return 8.0 * U / D
 
 
-def wall_velocity_gradient_turbulent(U: float, D_h: float, nu: float) -> float:
+def wall_velocity_gradient_turbulent(U: Real, D_h: float, nu: Real) -> Real:
     """Wall velocity gradient of fully developed turbulent flow in a smooth duct [1/s].
 
     g = tau_w / mu = lambda U^2 / (8 nu) with Blasius's friction factor
@@ -223,10 +227,10 @@ def wall_velocity_gradient_turbulent(U: float, D_h: float, nu: float) -> float:
     521979
     """
     Re = U * D_h / nu
-    return 0.3164 * Re ** -0.25 * U * U / (8.0 * nu)
+    return 0.3164 * power(Re, -0.25) * U * U / (8.0 * nu)
 
 
-def wall_velocity_gradient_slot(U: float, h: float) -> float:
+def wall_velocity_gradient_slot(U: Real, h: float) -> Real:
     """Wall velocity gradient of fully developed laminar flow in a slot of gap h, g = 6 U / h [1/s].
 
     Exact for plane Poiseuille flow, u(y) = 1.5U(1 - (2y/h)^2).
@@ -239,8 +243,8 @@ def wall_velocity_gradient_slot(U: float, h: float) -> float:
     return 6.0 * U / h
 
 
-def port_velocity_at_thermal_input(Q: float, LHV_mass: float, afr_stoich_mass: float, phi: float, rho_u: float,
-                                   A_port: float) -> float:
+def port_velocity_at_thermal_input(Q: Real, LHV_mass: Real, afr_stoich_mass: Real, phi: Real, rho_u: Real,
+                                   A_port: float) -> Real:
     """Bulk port velocity of a premixed burner at a given thermal input [m/s].
 
     Fuel mass flow Q / LHV; mixture mass flow fuel x (1 + AFR_st / phi); volume flow

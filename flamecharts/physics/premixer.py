@@ -23,9 +23,12 @@ from memory; the docstrings say the same in short. Turbulent correlations are fi
 scatter; a premixer fails at local features no one-dimensional model sees (wakes, recirculation,
 hot spots), and is judged finally by test.
 
-Pure functions of SI inputs; scalars (``float``) unless a docstring says it broadcasts. A study
-with [premixer] and a [burner] reads them out per point in design.turbulent_speed_columns and
-design.premixer_margins (issue 30).
+Pure functions of SI inputs; scalars (``float``) unless a docstring says it broadcasts. The
+flame-speed correlations design reads out have a form for arrays too (``zimont_flame_speeds``,
+``muppala_flame_speeds``, ``leading_point_flame_speeds``: ``FlameSpeeds``, one value and reason
+per element, the scalar form one element of it). A study with [premixer] and a [burner] reads
+them out in design.turbulent_speed_columns (all points at once) and design.premixer_margins
+(issue 30).
 """
 from __future__ import annotations
 
@@ -35,6 +38,7 @@ from typing import Literal, NamedTuple
 import numpy as np
 import numpy.typing as npt
 
+from .elementwise import Real, exp, power
 from .turbulence import BROKEN_REACTION_ZONES_KA, damkohler, karlovitz
 from .validity import LAMINAR_REYNOLDS, TURBULENT_REYNOLDS
 
@@ -47,6 +51,34 @@ class FlameSpeed(NamedTuple):
     why: str  # '' in range; else each reason, '; '-joined
 
 
+class FlameSpeeds(NamedTuple):
+    """Turbulent flame speeds of many points (arrays in, arrays out) and, per point, why its
+    correlation was not fitted on data like it ('' in range; else each reason, '; '-joined)."""
+
+    S_T_m_s: np.ndarray
+    why: list[str]
+
+
+def _one(speeds: FlameSpeeds) -> FlameSpeed:
+    """The :class:`FlameSpeed` of a one-element :class:`FlameSpeeds`."""
+    return FlameSpeed(float(speeds.S_T_m_s[0]), not speeds.why[0], speeds.why[0])
+
+
+def _arrays(*values: npt.ArrayLike) -> list[np.ndarray]:
+    """Numbers or arrays as float arrays of one common shape, at least one-dimensional."""
+    return list(np.broadcast_arrays(*(np.atleast_1d(np.asarray(v, dtype=float)) for v in values)))
+
+
+def _reasons(n: int, checks: list[tuple[np.ndarray, list[str]]]) -> list[str]:
+    """Per element of ``n``, the '; '-joined texts of the checks that fail there: each check is
+    (where it fails, its text per element)."""
+    out: list[list[str]] = [[] for _ in range(n)]
+    for fails, texts in checks:
+        for i in np.flatnonzero(fails).tolist():
+            out[i].append(texts[i])
+    return ["; ".join(parts) for parts in out]
+
+
 class Margin(NamedTuple):
     """A margin (the quantity over its critical value, >1 safe) and whether its model holds here."""
 
@@ -56,9 +88,9 @@ class Margin(NamedTuple):
 
 
 class DuctTurbulence(NamedTuple):
-    u_prime_m_s: float
+    u_prime_m_s: Real
     integral_length_m: float
-    reynolds: float
+    reynolds: Real
 
 
 def _speed(value: float, reasons: list[str]) -> FlameSpeed:
@@ -77,12 +109,13 @@ DUCT_INTENSITY_EXPONENT = -0.125
 DUCT_LENGTH_FRACTION = 0.07
 
 
-def duct_turbulence(U_bulk_m_s: float, D_h_m: float, nu_u_m2_s: float) -> DuctTurbulence:
+def duct_turbulence(U_bulk_m_s: Real, D_h_m: float, nu_u_m2_s: Real) -> DuctTurbulence:
     """Turbulence of a premixer's duct when the user gives none: u', l_t and Re.
 
     Re = U D_h / nu, u' = 0.16 Re^(-1/8) U, l_t = 0.07 D_h: both fractions are common
     practice without source (the usual estimates for a CFD inlet in fully developed duct
-    flow), not measurements; they say nothing of a swirler's turbulence.
+    flow), not measurements; they say nothing of a swirler's turbulence. Numbers or arrays of
+    velocities and viscosities alike.
 
     Parameters
     ----------
@@ -99,7 +132,7 @@ def duct_turbulence(U_bulk_m_s: float, D_h_m: float, nu_u_m2_s: float) -> DuctTu
     (1.8, 1.75, 25000)
     """
     Re = U_bulk_m_s * D_h_m / nu_u_m2_s
-    intensity = DUCT_INTENSITY_COEFFICIENT * Re ** DUCT_INTENSITY_EXPONENT
+    intensity = DUCT_INTENSITY_COEFFICIENT * power(Re, DUCT_INTENSITY_EXPONENT)
     return DuctTurbulence(intensity * U_bulk_m_s, DUCT_LENGTH_FRACTION * D_h_m, Re)
 
 
@@ -145,17 +178,25 @@ def zimont_flame_speed(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, alpha_u
     >>> round(r.S_T_m_s, 3), r.in_range, r.why
     (2.615, False, 'Ka 0.791 < 1 (small eddies outside the flame)')
     """
-    l_F = alpha_u_m2_s / S_L_m_s
-    Da = float(damkohler(u_prime_m_s, l_t_m, S_L_m_s, l_F))
-    Ka = float(karlovitz(u_prime_m_s, l_t_m, S_L_m_s, l_F))
-    reasons = []
-    if u_prime_m_s < S_L_m_s:
-        reasons.append(f"u'/S_L {u_prime_m_s / S_L_m_s:.3g} < 1 (weak turbulence)")
-    if Da < 1.0:
-        reasons.append(f"Da {Da:.3g} < 1 (distributed burning)")
-    if Ka < 1.0:
-        reasons.append(f"Ka {Ka:.3g} < 1 (small eddies outside the flame)")
-    return _speed(A * u_prime_m_s * Da ** 0.25, reasons)
+    return _one(zimont_flame_speeds(u_prime_m_s, l_t_m, S_L_m_s, alpha_u_m2_s, A))
+
+
+def zimont_flame_speeds(u_prime_m_s: npt.ArrayLike, l_t_m: npt.ArrayLike, S_L_m_s: npt.ArrayLike,
+                        alpha_u_m2_s: npt.ArrayLike, A: float = ZIMONT_A) -> FlameSpeeds:
+    """:func:`zimont_flame_speed` of many points at once (arrays broadcast).
+
+    >>> r = zimont_flame_speeds([2.0, 8.0], 0.01, 0.4, 2.0e-5)
+    >>> r.S_T_m_s.round(3).tolist(), r.why[1]
+    ([2.615, 7.398], '')
+    """
+    u, l_t, S_L, alpha = _arrays(u_prime_m_s, l_t_m, S_L_m_s, alpha_u_m2_s)
+    l_F = alpha / S_L
+    Da, Ka = damkohler(u, l_t, S_L, l_F), karlovitz(u, l_t, S_L, l_F)
+    ratio = u / S_L
+    why = _reasons(len(u), [(u < S_L, [f"u'/S_L {x:.3g} < 1 (weak turbulence)" for x in ratio.tolist()]),
+                            (Da < 1.0, [f"Da {x:.3g} < 1 (distributed burning)" for x in Da.tolist()]),
+                            (Ka < 1.0, [f"Ka {x:.3g} < 1 (small eddies outside the flame)" for x in Ka.tolist()])])
+    return FlameSpeeds(A * u * power(Da, 0.25), why)
 
 
 def schmid_flame_speed(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, alpha_u_m2_s: float) -> FlameSpeed:
@@ -185,15 +226,24 @@ def schmid_flame_speed(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, alpha_u
     >>> round(r.S_T_m_s, 3), r.in_range
     (2.4, True)
     """
-    l_F = alpha_u_m2_s / S_L_m_s
-    Da = float(damkohler(u_prime_m_s, l_t_m, S_L_m_s, l_F))
-    Ka = float(karlovitz(u_prime_m_s, l_t_m, S_L_m_s, l_F))
-    reasons = []
-    if u_prime_m_s * l_t_m < S_L_m_s * l_F:
-        reasons.append(f"Re_t {u_prime_m_s * l_t_m / (S_L_m_s * l_F):.3g} < 1 (no turbulence)")
-    if Ka >= BROKEN_REACTION_ZONES_KA:
-        reasons.append(f"Ka {Ka:.3g} >= {BROKEN_REACTION_ZONES_KA:g} (broken reaction zones)")
-    return _speed(S_L_m_s + u_prime_m_s * (1.0 + Da ** -2) ** -0.25, reasons)
+    return _one(schmid_flame_speeds(u_prime_m_s, l_t_m, S_L_m_s, alpha_u_m2_s))
+
+
+def schmid_flame_speeds(u_prime_m_s: npt.ArrayLike, l_t_m: npt.ArrayLike, S_L_m_s: npt.ArrayLike,
+                        alpha_u_m2_s: npt.ArrayLike) -> FlameSpeeds:
+    """:func:`schmid_flame_speed` of many points at once (arrays broadcast).
+
+    >>> schmid_flame_speeds([2.0, 4.0], 0.01, 0.4, 2.0e-5).S_T_m_s.round(3).tolist()
+    [2.4, 4.398]
+    """
+    u, l_t, S_L, alpha = _arrays(u_prime_m_s, l_t_m, S_L_m_s, alpha_u_m2_s)
+    l_F = alpha / S_L
+    Da, Ka = damkohler(u, l_t, S_L, l_F), karlovitz(u, l_t, S_L, l_F)
+    Re_t = u * l_t / (S_L * l_F)
+    why = _reasons(len(u), [(u * l_t < S_L * l_F, [f"Re_t {x:.3g} < 1 (no turbulence)" for x in Re_t.tolist()]),
+                            (Ka >= BROKEN_REACTION_ZONES_KA,
+                             [f"Ka {x:.3g} >= {BROKEN_REACTION_ZONES_KA:g} (broken reaction zones)" for x in Ka.tolist()])])
+    return FlameSpeeds(S_L + u * power(1.0 + power(Da, -2), -0.25), why)
 
 
 #: Muppala et al. (2005): fitted on the high-pressure Bunsen flames of Kobayashi et al.
@@ -246,21 +296,30 @@ def muppala_flame_speed(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, nu_u_m
     >>> round(r.S_T_m_s, 3), r.in_range
     (2.886, True)
     """
-    Re_t = u_prime_m_s * l_t_m / nu_u_m2_s
-    ratio = u_prime_m_s / S_L_m_s
-    factor = 1.0 / lewis if lewis_form == "inverse" else math.exp(-(lewis - 1.0))
-    growth = 0.46 * factor * Re_t ** 0.25 * ratio ** 0.3 * (pressure_Pa / MUPPALA_REFERENCE_PRESSURE_PA) ** 0.2
-    reasons = []
-    lo, hi = MUPPALA_PRESSURE_PA
-    if not lo <= pressure_Pa <= hi:
-        reasons.append(f"p {pressure_Pa / 1e6:.3g} MPa outside {lo / 1e6:g}-{hi / 1e6:g} MPa")
-    lo, hi = MUPPALA_LEWIS
-    if not lo <= lewis <= hi:
-        reasons.append(f"Le {lewis:.3g} outside {lo:g}-{hi:g} (methane, ethylene, propane)")
-    lo, hi = MUPPALA_TURBULENCE_RATIO
-    if not lo <= ratio <= hi:
-        reasons.append(f"u'/S_L {ratio:.3g} outside {lo:g}-{hi:g}")
-    return _speed(S_L_m_s * (1.0 + growth), reasons)
+    return _one(muppala_flame_speeds(u_prime_m_s, l_t_m, S_L_m_s, nu_u_m2_s, lewis, pressure_Pa, lewis_form))
+
+
+def muppala_flame_speeds(u_prime_m_s: npt.ArrayLike, l_t_m: npt.ArrayLike, S_L_m_s: npt.ArrayLike,
+                         nu_u_m2_s: npt.ArrayLike, lewis: npt.ArrayLike, pressure_Pa: npt.ArrayLike,
+                         lewis_form: Literal["inverse", "exponential"] = "inverse") -> FlameSpeeds:
+    """:func:`muppala_flame_speed` of many points at once (arrays broadcast).
+
+    >>> muppala_flame_speeds(2.0, 0.01, 0.4, 1.5e-5, [1.0, 0.5], 5.0e5).S_T_m_s.round(3).tolist()
+    [2.886, 5.372]
+    """
+    u, l_t, S_L, nu, le, p = _arrays(u_prime_m_s, l_t_m, S_L_m_s, nu_u_m2_s, lewis, pressure_Pa)
+    Re_t = u * l_t / nu
+    ratio = u / S_L
+    factor = 1.0 / le if lewis_form == "inverse" else exp(-(le - 1.0))
+    growth = 0.46 * factor * power(Re_t, 0.25) * power(ratio, 0.3) * power(p / MUPPALA_REFERENCE_PRESSURE_PA, 0.2)
+    (p_lo, p_hi), (le_lo, le_hi), (r_lo, r_hi) = MUPPALA_PRESSURE_PA, MUPPALA_LEWIS, MUPPALA_TURBULENCE_RATIO
+    why = _reasons(len(u), [
+        (~((p_lo <= p) & (p <= p_hi)),
+         [f"p {x / 1e6:.3g} MPa outside {p_lo / 1e6:g}-{p_hi / 1e6:g} MPa" for x in p.tolist()]),
+        (~((le_lo <= le) & (le <= le_hi)),
+         [f"Le {x:.3g} outside {le_lo:g}-{le_hi:g} (methane, ethylene, propane)" for x in le.tolist()]),
+        (~((r_lo <= ratio) & (ratio <= r_hi)), [f"u'/S_L {x:.3g} outside {r_lo:g}-{r_hi:g}" for x in ratio.tolist()])])
+    return FlameSpeeds(S_L * (1.0 + growth), why)
 
 
 #: Bradley, Lau & Lawes (1992): fitted on fan-stirred bomb explosions (about 1650 burning
@@ -345,8 +404,19 @@ def leading_point_flame_speed(u_prime_m_s: float, l_t_m: float, S_c_max_m_s: flo
     >>> round(r.S_T_m_s, 3), r.in_range
     (2.8, True)
     """
-    speed = schmid_flame_speed if base == "schmid" else zimont_flame_speed
-    return speed(u_prime_m_s, l_t_m, S_c_max_m_s, alpha_u_m2_s)
+    return _one(leading_point_flame_speeds(u_prime_m_s, l_t_m, S_c_max_m_s, alpha_u_m2_s, base))
+
+
+def leading_point_flame_speeds(u_prime_m_s: npt.ArrayLike, l_t_m: npt.ArrayLike, S_c_max_m_s: npt.ArrayLike,
+                               alpha_u_m2_s: npt.ArrayLike,
+                               base: Literal["schmid", "zimont"] = "schmid") -> FlameSpeeds:
+    """:func:`leading_point_flame_speed` of many points at once (arrays broadcast).
+
+    >>> leading_point_flame_speeds(2.0, 0.01, [0.8, 0.4], 2.0e-5).S_T_m_s.round(3).tolist()
+    [2.8, 2.4]
+    """
+    speeds = schmid_flame_speeds if base == "schmid" else zimont_flame_speeds
+    return speeds(u_prime_m_s, l_t_m, S_c_max_m_s, alpha_u_m2_s)
 
 
 def core_flashback_margin(U_core_m_s: npt.ArrayLike, S_T_m_s: npt.ArrayLike) -> npt.NDArray[np.float64]:

@@ -17,6 +17,8 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import ArrayLike
 
+from .elementwise import power
+
 #: Karlovitz number above which small eddies enter the inner reaction layer (Ka_delta = 1 with
 #: a reaction layer a tenth of l_F: Peters 2000, sec. 2.3).
 BROKEN_REACTION_ZONES_KA = 100.0
@@ -59,7 +61,7 @@ def karlovitz(u_prime_m_s: ArrayLike, l_t_m: ArrayLike, S_L_m_s: ArrayLike, l_F_
     """
     ratio_u = np.asarray(u_prime_m_s) / np.asarray(S_L_m_s)
     ratio_l = np.asarray(l_t_m) / np.asarray(l_F_m)
-    return ratio_u ** 1.5 / np.sqrt(ratio_l)
+    return power(ratio_u, 1.5) / np.sqrt(ratio_l)
 
 
 def kolmogorov_length(nu_m2_s: ArrayLike, u_prime_m_s: ArrayLike, l_t_m: ArrayLike) -> np.ndarray:
@@ -72,22 +74,20 @@ def kolmogorov_length(nu_m2_s: ArrayLike, u_prime_m_s: ArrayLike, l_t_m: ArrayLi
     return (np.asarray(nu_m2_s) ** 3 / eps) ** 0.25
 
 
-def regime(u_prime_m_s: float, l_t_m: float, S_L_m_s: float, l_F_m: float) -> str:
+def regime(u_prime_m_s: ArrayLike, l_t_m: ArrayLike, S_L_m_s: ArrayLike, l_F_m: ArrayLike) -> str | np.ndarray:
     """The regime of Peters' diagram (2000, fig. 2.8) a flame falls in: 'laminar' (Re_t < 1),
     'wrinkled flamelets' (u' < S_L), 'corrugated flamelets' (Ka < 1), 'thin reaction zones'
-    (1 <= Ka < 100) or 'broken reaction zones' (Ka >= 100). Scalars only.
+    (1 <= Ka < 100) or 'broken reaction zones' (Ka >= 100); an array of them for arrays.
 
     >>> regime(0.2, 0.01, 0.4, 5e-5), regime(2.0, 0.01, 0.4, 5e-5), regime(20.0, 0.01, 0.4, 5e-5)
     ('wrinkled flamelets', 'corrugated flamelets', 'thin reaction zones')
     """
-    if turbulent_reynolds(u_prime_m_s, l_t_m, S_L_m_s, l_F_m) < 1.0:
-        return "laminar"
-    if u_prime_m_s < S_L_m_s:
-        return "wrinkled flamelets"
     ka = karlovitz(u_prime_m_s, l_t_m, S_L_m_s, l_F_m)
-    if ka < 1.0:
-        return "corrugated flamelets"
-    return "thin reaction zones" if ka < BROKEN_REACTION_ZONES_KA else "broken reaction zones"
+    out = np.select([turbulent_reynolds(u_prime_m_s, l_t_m, S_L_m_s, l_F_m) < 1.0,
+                     np.asarray(u_prime_m_s) < np.asarray(S_L_m_s), ka < 1.0, ka < BROKEN_REACTION_ZONES_KA],
+                    ["laminar", "wrinkled flamelets", "corrugated flamelets", "thin reaction zones"],
+                    "broken reaction zones")
+    return str(out) if out.ndim == 0 else out
 
 
 def regime_lines(length_ratio: ArrayLike) -> dict[str, np.ndarray]:

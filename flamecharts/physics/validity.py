@@ -29,6 +29,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
+from .elementwise import Real
+
 #: Port Reynolds number below which the port flow is laminar (common practice for pipe
 #: flow), and above which the turbulent (Blasius) wall gradient holds (Blasius's law is
 #: fitted on about 4e3-1e5; common practice for the end of transition).
@@ -114,18 +118,20 @@ def domain_reasons(domain: Domain, *, reynolds: float | None, pressure_bar: floa
     return out
 
 
-def transition_gradient(Re: float, laminar: float, turbulent_at: float) -> float:
+def transition_gradient(Re: Real, laminar: Real, turbulent_at: Real) -> Real:
     """Wall velocity gradient [1/s] in transitional port flow, LAMINAR_REYNOLDS < Re <
     TURBULENT_REYNOLDS: linear in Re between the laminar gradient at LAMINAR_REYNOLDS
     (``laminar``, which at fixed port and gas scales with Re) and the turbulent one at
     TURBULENT_REYNOLDS (``turbulent_at``), so the gradient has no step at a limit search's
     bracket (common practice without source: neither law holds in transition, and no
-    criterion is assessed there). Outside the interval, the law that holds there.
+    criterion is assessed there). Outside the interval, the law that holds there. Numbers or
+    arrays alike.
 
     >>> transition_gradient(2300.0, 1000.0, 3000.0), transition_gradient(4000.0, 1000.0, 3000.0)
     (1000.0, 3000.0)
     >>> transition_gradient(3150.0, 1000.0, 3000.0)
     2000.0
     """
-    w = min(max((Re - LAMINAR_REYNOLDS) / (TURBULENT_REYNOLDS - LAMINAR_REYNOLDS), 0.0), 1.0)
-    return (1.0 - w) * laminar + w * turbulent_at
+    w = np.minimum(np.maximum((Re - LAMINAR_REYNOLDS) / (TURBULENT_REYNOLDS - LAMINAR_REYNOLDS), 0.0), 1.0)
+    out = (1.0 - w) * laminar + w * turbulent_at
+    return float(out) if np.ndim(out) == 0 else out

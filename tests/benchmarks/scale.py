@@ -347,8 +347,8 @@ def outputs_child(out: Path) -> dict:
     from flamecharts.outputs.charts import draw_all
     from flamecharts.outputs.netcdf import write_netcdf
     from flamecharts.outputs.report import write_report
-    from flamecharts.outputs.tables import write_csv
-    from flamecharts.results import rows_from_dir, to_dataset
+    from flamecharts.outputs.tables import write_columns
+    from flamecharts.results import dataset_table, rows_from_dir, to_dataset
 
     figures = {}
 
@@ -361,7 +361,7 @@ def outputs_child(out: Path) -> dict:
     figures["start_peak_rss_mb"] = peak_rss_mb()
     study, rows = step("read_rows", rows_from_dir, out)
     ds = step("dataset", to_dataset, study, rows)
-    step("csv", write_csv, rows, out / "results.csv")
+    step("csv", lambda: write_columns(dataset_table(ds), out / "results.csv"))  # as write_outputs: from the Dataset
     step("netcdf", write_netcdf, ds, out / "results.nc")
     gases = fuel_gas_table(study)
     charts = step("charts", draw_all, rows, gases, study, out, ds)
