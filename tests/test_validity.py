@@ -165,3 +165,39 @@ def test_answers_that_rest_on_fewer_criteria_say_so_before_their_numbers():
     assert lewis_warning(lean_h2).startswith("Lewis number of the fuel 0.39 < 0.8 on the lean side")
     assert lewis_warning({**lean_h2, "instability": "stable"}) == ""  # [flame_response] judged it
     assert lewis_warning({**lean_h2, "lewis_number_fuel": 0.96}) == ""  # lean methane
+
+
+CELLULAR = """
+resolution = "coarse"
+
+[burner]
+name = "test plate"
+port = "round"
+port_diameter_mm = 1.5
+port_velocity_m_s = 1.5
+min_flashback_margin = 1.5
+
+[limits]
+find = ["equivalence_ratio"]
+
+[flame_response]
+zeldovich = true
+"""
+
+
+def test_a_window_holding_cellular_flames_says_so_in_its_sentence(tmp_path):
+    """Lean hydrogen-air is thermodiffusively unstable (cellular: effective Lewis number well below
+    1, Markstein number negative; Law, Combustion Physics 2006, ch. 10, from memory), and the thermal
+    flashback criterion understates its risk: limits.csv's note said so, the sentence the console and
+    the report print did not (a newcomer read "admissible from phi 0.5" beside "at risk" margins)."""
+
+    config = write_h2_study(tmp_path, fractions="[0.0]", phis="[0.5, 0.7, 1.0]", extra=CELLULAR)
+    res = flamecharts.run(config, out=tmp_path / "out", jobs=1, charts=False, report=False)
+    cellular = [r["equivalence_ratio"] for r in res.rows if r.get("instability") == "cellular"]
+    windows = [r for r in res.limits if r["outcome"] == "window"]
+    assert cellular and windows, [(r["outcome"], r["note"]) for r in res.limits]
+    held = [r for r in windows if r["lower_edge"] <= min(cellular) <= r["upper_edge"]]
+    assert held, (cellular, windows)
+    for r in held:
+        assert "thermodiffusively unstable (cellular)" in r["note"]
+        assert "understates their risk" in limit_sentence(r, res.study)

@@ -181,6 +181,15 @@ def limit_sentence(r: dict, study: Study) -> str:
     ...          upper_binding="flashback", upper_margin=1.503, note="")
     >>> limit_sentence(r, st)
     'town gas at phi 1.1, 1 bar, 300 K: rig takes up to 23.4 % hydrogen (flashback binds: margin 1.50 there, minimum 1.5)'
+
+    A window that holds thermodiffusively unstable flames says so (limits.csv's note has why):
+
+    >>> r["note"] = ("1 swept flame inside this window (0.1) is thermodiffusively unstable (cellular): admissible "
+    ...              "on the thermal flashback criterion alone, which understates their risk")
+    >>> limit_sentence(r, st).endswith("minimum 1.5); 1 swept flame inside this window (0.1) is thermodiffusively "
+    ...                                "unstable (cellular): admissible on the thermal flashback criterion alone, "
+    ...                                "which understates their risk")
+    True
     """
     b, blend = burner_and_limits(study)[0], study.blend_with or "blend gas"
     nth = f" (window {r['window']})" if (r.get("window") or 0) > 1 else ""
@@ -191,6 +200,8 @@ def limit_sentence(r: dict, study: Study) -> str:
         text = text.replace(" keeps every margin from ", " keeps every assessed margin from ", 1).replace(
             " takes up to ", " takes, on the assessed criteria, up to ", 1).replace(
             ": admissible from ", ": admissible on the assessed criteria from ", 1)
+    # a window holding cellular flames is admissible on the thermal criterion alone (driver._cellular_words)
+    gap += "".join(f"; {part}" for part in (r.get("note") or "").split("; ") if "thermodiffusively unstable" in part)
     if getattr(study, "premixer", None) is not None:  # a premixer's answer never reads as flashback-proof
         gap += ("; boundary-layer flashback is not among these criteria (the report's premixer section says "
                 "where it is assessed)")
