@@ -366,14 +366,14 @@ def window_chart(data: ChartData, study: Study) -> Figure:
         handles["admissible windows the limit searches found\nwith flames (limits.csv): the answer"] = Line2D(
             [], [], color="k", lw=2.5)
     if any((ds.warnings.values != "").ravel()):
-        handles["solved point with a range warning\n(see results.csv, warnings)"] = Line2D(
+        handles["solved point with a warning: outside a range, or\nthermodiffusively unstable (results.csv, warnings)"] = Line2D(
             [], [], color="#b2182b", marker="x", linestyle="none")
     allp = np.concatenate(products) if products else np.array([])
     if allp.size and np.ptp(allp) <= 0.01 * np.median(allp):
         handles[f"FB × BO = g_B/g_F = {np.median(allp):.2f} at every point:\nboth edges are one quantity, "
                 "S_L²/α_u against\nthe wall gradient (indicator constants)"] = Line2D([], [], linestyle="none")
     return finish(fig, study, (f"Operating window: {b.name}",
-                                "Where can it run? Blend fraction and equivalence ratio that keep both margins"
+                                "Where can it run? Blend fraction and equivalence ratio that keep the margins assessed"
                                 + conditions_note(sorted({(p[2], p[3]) for p in panels}),
                                                   len(data.every["pressure_bar"]) * len(data.every["unburned_temperature_K"]))
                                 + (f"\nShown: {len(panels)} of {len(every)} fuel/oxidizer/condition panels"
@@ -410,18 +410,18 @@ def _window_panel(ax: Axes, at: xr.Dataset, b: Burner, products: list) -> set[st
     criteria = (("flashback", fb), (b.blowoff[2], bo))
     drawn |= {f"assessed {n}" for n, m in criteria if np.isfinite(m).any()}
     unassessed = [n for n, m in criteria if not np.isfinite(m).any()]
-    if unassessed:
+    Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
+    warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
+    ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, zorder=6)
+    if warned.any():
+        ax.plot(Xs[warned], Ys[warned], "x", color="#b2182b", markersize=6, zorder=6)
+    if unassessed:  # after the points: the note goes to the corner they leave free
         rows = [{"criteria_not_assessed": str(v)} for v in at.criteria_not_assessed.values.ravel()] \
             if "criteria_not_assessed" in at else []
         why = {n: unassessed_reasons(rows, n) for n in unassessed}
         frame_note(ax, "; ".join(f"{n} margin not assessed at any point" + (f" ({'; '.join(why[n])})" if why[n] else "")
                                  for n in unassessed)
                    + ("" if len(unassessed) == 2 else ": no line for it, the green region keeps the other margin only"))
-    Xs, Ys = np.meshgrid(100 * fracs, phis, indexing="ij")
-    warned = at.warnings.transpose("blend_fraction", "equivalence_ratio").values != ""
-    ax.plot(Xs[~warned], Ys[~warned], "k.", markersize=4, zorder=6)
-    if warned.any():
-        ax.plot(Xs[warned], Ys[warned], "x", color="#b2182b", markersize=6, zorder=6)
     return drawn | {"points"} if (~warned).any() else drawn
 
 
@@ -432,8 +432,8 @@ def _window_legend(b: Burner, drawn: set[str]) -> dict:
     both = {"assessed flashback", f"assessed {b.blowoff[2]}"} <= drawn
     entries = (
         ("green", f"keeps both minimum margins (FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g}),\nor the one "
-                  "assessed" if both else "keeps the minimum margin assessed (FB ≥ "
-                  f"{b.min_flashback_margin:g} or {bo_short} ≥ {bo_min:g});\nthe other is not assessed (note in the frame)",
+                  "assessed" if both else "keeps the one minimum margin assessed\n"
+                  f"(FB ≥ {b.min_flashback_margin:g}, {bo_short} ≥ {bo_min:g}: the other is not assessed, note in the frame)",
          Patch(color="#bfe3bf")),
         ("flashback", f"flashback margin g_wall/g_F = {b.min_flashback_margin:g}\n(a faster flame, higher S_L²/α_u, "
                       "lowers it)", Line2D([], [], color="#7b2d8e", lw=1.8)),
@@ -560,7 +560,9 @@ def _draw_search_row(ax, x: float, r: dict, col, handles, scale: float) -> None:
     alone allow outside the Wobbe band (dotted); the flames the search solved as dots."""
     asked = [float(v) for v in str(r.get("evaluated_at") or "").split()]
     if (r["window"] or 0) <= 1 and asked:
-        ax.plot([x] * len(asked), [scale * v for v in asked], ".", color="0.35", ms=3, zorder=3)
+        # on top of the bars and edge markers: an edge lies where the search's last flames were
+        ax.plot([x] * len(asked), [scale * v for v in asked], ".", color="0.15", ms=3.5, mec="white", mew=0.4,
+                zorder=8)
         handles.setdefault("flames solved by the search", Line2D([], [], ls="", marker=".", color="0.35"))
     if r["outcome"] == "window":
         _bar(ax, x, scale * r["lower_edge"], scale * r["upper_edge"], col, 7)

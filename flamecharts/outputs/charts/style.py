@@ -10,6 +10,7 @@ import matplotlib
 matplotlib.use("Agg")
 import matplotlib.pyplot as plt  # noqa: E402
 import numpy as np  # noqa: E402
+from matplotlib.collections import PathCollection  # noqa: E402
 from matplotlib.layout_engine import ConstrainedLayoutEngine  # noqa: E402
 from matplotlib.ticker import FuncFormatter  # noqa: E402
 
@@ -104,7 +105,6 @@ FRAME_MARGIN = 0.06
 
 def _marker_radius_pt(artist: object) -> float:
     """Half the size of an artist's markers [pt] (0 for a plain line or an area)."""
-    from matplotlib.collections import PathCollection
     from matplotlib.lines import Line2D
 
     if isinstance(artist, Line2D):
@@ -210,9 +210,47 @@ def empty_note(ax: Axes, reason: str) -> None:
 
 def frame_note(ax: Axes, text: str) -> None:
     """A note inside a panel that does show data, on what it cannot show (a criterion assessed at
-    no point): top left, on a white box over the data, wrapped to the panel."""
-    ax.text(0.02, 0.97, textwrap.fill(text, 60), transform=ax.transAxes, ha="left", va="top", fontsize=8,
-            color="0.25", zorder=10, bbox=dict(facecolor="white", edgecolor="0.6", alpha=0.8, boxstyle="round,pad=0.3"))
+    no point): on a white box, wrapped to the panel, in the corner whose box covers none of the
+    panel's marks drawn so far (top left first); where every corner would, top left with the upper
+    limit raised to leave it room (a linear axis). Call it after the marks."""
+    wrapped = textwrap.fill(text, 60)
+    height, width = min(0.05 * (wrapped.count("\n") + 1) + 0.04, 0.6), 0.62
+    marks = _marks_in_axes(ax)
+
+    def covered(corner: tuple[float, float, str, str]) -> int:
+        """Marks in the corner's box, measured from the frame's edge (a mark on the frame now moves
+        inside it when finish fits the frame)."""
+        _, _, ha, va = corner
+        x0, y0 = (-0.01 if ha == "left" else 0.97 - width), (0.97 - height if va == "top" else -0.01)
+        return int(((marks[:, 0] >= x0) & (marks[:, 0] <= x0 + width + 0.04) & (marks[:, 1] >= y0)
+                    & (marks[:, 1] <= y0 + height + 0.04)).sum())
+    x, y, ha, va = min(NOTE_CORNERS, key=covered)
+    if covered((x, y, ha, va)) and ax.get_yscale() == "linear" and len(marks):
+        x, y, ha, va = NOTE_CORNERS[0]   # every corner holds marks: room made above them for the note
+        lo, hi = ax.get_ylim()
+        top = lo + (hi - lo) * float(marks[:, 1].max())
+        ax.set_ylim(lo, lo + (top - lo) / max(1.0 - height - 0.06, 0.2))
+    ax.text(x, y, wrapped, transform=ax.transAxes, ha=ha, va=va, fontsize=8, color="0.25", zorder=10,
+            bbox=dict(facecolor="white", edgecolor="0.6", alpha=0.8, boxstyle="round,pad=0.3"))
+
+
+#: Where a frame note may sit (axes fraction x, y, alignment), in order of preference.
+NOTE_CORNERS = ((0.02, 0.97, "left", "top"), (0.98, 0.97, "right", "top"),
+                (0.02, 0.03, "left", "bottom"), (0.98, 0.03, "right", "bottom"))
+
+
+def _marks_in_axes(ax: Axes) -> np.ndarray:
+    """Every finite point of the panel's lines and scatter collections so far, in axes fractions
+    (n x 2; the limits as they stand now)."""
+    ax.get_xlim()  # settle the autoscaled limits before transforming
+    pts = [np.asarray(line.get_xydata(), dtype=float) for line in ax.get_lines() if line.get_transform() == ax.transData]
+    pts += [np.asarray(c.get_offsets(), dtype=float) for c in ax.collections if isinstance(c, PathCollection)]
+    pts = [p for p in pts if p.size]
+    xy = np.concatenate([p.reshape(-1, 2) for p in pts]) if pts else np.empty((0, 2))
+    xy = xy[np.isfinite(xy).all(axis=1)]
+    if not len(xy):
+        return xy
+    return ax.transAxes.inverted().transform(ax.transData.transform(xy))
 
 
 def shows_data(ax: Axes) -> bool:
