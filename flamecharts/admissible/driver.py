@@ -36,7 +36,7 @@ from .search import (
     unassessed_reason,
     window_search,
 )
-from .words import burner_and_limits, fixed_ratio_note
+from .words import burner_and_limits, fixed_ratio_note, unassessed
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -338,7 +338,8 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
     out = []
     ratio = fixed_ratio_note(study)
     for n, w in enumerate(a.windows, 1):
-        rests = [ratio] if ratio and {w.lower.binding, w.upper.binding} & {"flashback", "blowoff"} else []
+        rests = [ratio] if ratio and {w.lower.binding, w.upper.binding} & {"flashback", "blowoff"} \
+            and _both_assessed_somewhere(s.unassessed) else []
         rests += _cellular_words(s, w)
         row = {**common, "window": n, "outcome": "window", "note": "; ".join(
             [e.note for e in (w.lower, w.upper) if e.note] + _misses(a) + _skipped(a) + rests)}
@@ -355,6 +356,23 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
+
+
+def _both_assessed_somewhere(unassessed_text: str) -> bool:
+    """Whether flashback and blowoff are each assessed at one swept flame of a search at least
+    (``unassessed_text``: its criteria_not_assessed): the fixed ratio of the two critical gradients
+    only bounds a window where both apply.
+
+    >>> _both_assessed_somewhere("blowoff at 3 of 3 swept flames (at phi 0.5: Lewis number 0.38 < 0.8)")
+    False
+    >>> _both_assessed_somewhere("blowoff at 1 of 3 swept flames (at phi 0.5: Lewis number 0.38 < 0.8)")
+    True
+    """
+    for criterion, where in unassessed({"criteria_not_assessed": unassessed_text}):
+        n, _, rest = where.partition(" of ")
+        if criterion in ("flashback", "blowoff") and n == rest.split()[0]:
+            return False
+    return True
 
 
 def _core_basis(bound: list[tuple[str, dict | None]]) -> str | None:

@@ -332,8 +332,9 @@ def _limit_overlay(ax, limits: list[dict]) -> None:
 
 @chart("operating_window",
        "Map over blend fraction and equivalence ratio: the flashback and blowoff margins read between the "
-       "solved points (dots; bilinear in their logarithms); the green region keeps both minimum margins and is "
-       "bounded by exactly the two lines drawn; hatched: no flame, failed, or no margin assessed (outside the range "
+       "solved points (dots; bilinear in their logarithms); the green region keeps the minimum margins assessed "
+       "and is bounded by the lines drawn (a margin assessed at no point has no line, and the frame says why); "
+       "hatched: no flame, failed, or no margin assessed (outside the range "
        "of the criteria: see the report). With [limits], black segments are "
        "the windows the limit searches found with flames: where they and the shading differ, the segments are "
        "the answer.",
