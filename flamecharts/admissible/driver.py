@@ -36,7 +36,7 @@ from .search import (
     unassessed_reason,
     window_search,
 )
-from .words import burner_and_limits, fixed_ratio_note, unassessed
+from .words import burner_and_limits, fixed_ratio_note
 
 if TYPE_CHECKING:
     from ..config import Study
@@ -71,6 +71,7 @@ class _Search:
     unassessed: str = ""   # the criteria not assessed at swept points, and why (limits.csv criteria_not_assessed)
     nothing: bool = False  # no criterion of the search is assessed at any swept flame: no search
     cellular: tuple[float, ...] = ()  # swept values whose flames are thermodiffusively unstable ([flame_response])
+    nowhere: frozenset[str] = frozenset()  # its criteria assessed at none of its burning swept flames
     budget: int = 0        # about how many flames it needs, judged as ``check`` judges it (:func:`search_budget`)
     asked: int = 0         # flames it asked for so far
 
@@ -164,6 +165,7 @@ def _searches(study: Study, rows: list[dict]) -> list[_Search]:
             band = bands[(cond["fuel"], cond["oxidizer"])]
             blend = axis == "blend_fraction"
             burning = [r for _, r in swept if r.get("status") == "ok"]
+            assessed = [frozenset(c for c in crit if unassessed_reason(r, c) is None) for r in burning]
             nothing = bool(burning) and all(parts(r)[1].startswith(NOT_ASSESSED) for r in burning)
             gen = None if nothing else window_search(swept, parts, lim.tolerance[axis], lim.max_flames_per_search,
                                                      (0.0, 1.0) if blend else None,
@@ -171,9 +173,8 @@ def _searches(study: Study, rows: list[dict]) -> list[_Search]:
             out.append(_Search(axis, cond, gen, band=band, nothing=nothing,
                                unassessed=unassessed_words(sorted(swept, key=lambda t: t[0]), crit, axis),
                                cellular=tuple(sorted(x for x, r in swept if r.get("instability") == "cellular")),
-                               budget=search_budget(study, axis, [x for x, _ in swept],
-                                                    [frozenset(c for c in crit if unassessed_reason(r, c) is None)
-                                                     for r in burning])))
+                               nowhere=frozenset(crit) - frozenset().union(*assessed) if burning else frozenset(),
+                               budget=search_budget(study, axis, [x for x, _ in swept], assessed)))
     return out
 
 
@@ -338,8 +339,9 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
     out = []
     ratio = fixed_ratio_note(study)
     for n, w in enumerate(a.windows, 1):
+        # the fixed ratio of the two critical gradients bounds a window only where both are assessed
         rests = [ratio] if ratio and {w.lower.binding, w.upper.binding} & {"flashback", "blowoff"} \
-            and _both_assessed_somewhere(s.unassessed) else []
+            and not s.nowhere & {"flashback", "blowoff"} else []
         rests += _cellular_words(s, w)
         row = {**common, "window": n, "outcome": "window", "note": "; ".join(
             [e.note for e in (w.lower, w.upper) if e.note] + _misses(a) + _skipped(a) + rests)}
@@ -356,23 +358,6 @@ def limit_rows(study: Study, s: _Search) -> list[dict]:
                 row.update(wobbe_band_from=inside[0][0], wobbe_band_to=inside[0][1])
         out.append(row)
     return out
-
-
-def _both_assessed_somewhere(unassessed_text: str) -> bool:
-    """Whether flashback and blowoff are each assessed at one swept flame of a search at least
-    (``unassessed_text``: its criteria_not_assessed): the fixed ratio of the two critical gradients
-    only bounds a window where both apply.
-
-    >>> _both_assessed_somewhere("blowoff at 3 of 3 swept flames (at phi 0.5: Lewis number 0.38 < 0.8)")
-    False
-    >>> _both_assessed_somewhere("blowoff at 1 of 3 swept flames (at phi 0.5: Lewis number 0.38 < 0.8)")
-    True
-    """
-    for criterion, where in unassessed({"criteria_not_assessed": unassessed_text}):
-        n, _, rest = where.partition(" of ")
-        if criterion in ("flashback", "blowoff") and n == rest.split()[0]:
-            return False
-    return True
 
 
 def _core_basis(bound: list[tuple[str, dict | None]]) -> str | None:

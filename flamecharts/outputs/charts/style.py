@@ -240,13 +240,11 @@ NOTE_CORNERS = ((0.02, 0.97, "left", "top"), (0.98, 0.97, "right", "top"),
 
 
 def _marks_in_axes(ax: Axes) -> np.ndarray:
-    """Every finite point of the panel's lines and scatter collections so far, in axes fractions
-    (n x 2; the limits as they stand now)."""
+    """Every finite point of the panel's lines and markers so far (:func:`drawn_points` less its
+    areas, contours and reference lines), in axes fractions (n x 2; the limits as they stand now)."""
     ax.get_xlim()  # settle the autoscaled limits before transforming
-    pts = [np.asarray(line.get_xydata(), dtype=float) for line in ax.get_lines() if line.get_transform() == ax.transData]
-    pts += [np.asarray(c.get_offsets(), dtype=float) for c in ax.collections if isinstance(c, PathCollection)]
-    pts = [p for p in pts if p.size]
-    xy = np.concatenate([p.reshape(-1, 2) for p in pts]) if pts else np.empty((0, 2))
+    pts = [np.column_stack([x, y]) for x, y, radius in drawn_points(ax) if radius > 0]
+    xy = np.concatenate(pts) if pts else np.empty((0, 2))
     xy = xy[np.isfinite(xy).all(axis=1)]
     if not len(xy):
         return xy
